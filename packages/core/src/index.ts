@@ -1,0 +1,1 @@
+export { sha256HexOfText, sha256HexOfBytes } from './hash.js';
