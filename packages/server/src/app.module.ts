@@ -1,0 +1,26 @@
+import { type MiddlewareConsumer, Module, type NestModule } from '@nestjs/common';
+import { APP_FILTER } from '@nestjs/core';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import type { AppConfig } from './config/app-config';
+import { APP_CONFIG, AppConfigModule } from './config/config.module';
+import { ErrorFilter } from './common/error.filter';
+import { RequestIdMiddleware } from './common/request-id.middleware';
+import { dataSourceOptions } from './database/data-source';
+import { HealthModule } from './health/health.module';
+
+@Module({
+  imports: [
+    AppConfigModule,
+    TypeOrmModule.forRootAsync({
+      inject: [APP_CONFIG],
+      useFactory: (config: AppConfig) => dataSourceOptions(config),
+    }),
+    HealthModule,
+  ],
+  providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
+})
+export class AppModule implements NestModule {
+  configure(consumer: MiddlewareConsumer): void {
+    consumer.apply(RequestIdMiddleware).forRoutes('*path');
+  }
+}

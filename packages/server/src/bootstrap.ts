@@ -1,0 +1,79 @@
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { RequestMethod } from '@nestjs/common';
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import cookieParser from 'cookie-parser';
+import express, { type NextFunction, type Request, type Response } from 'express';
+import helmet from 'helmet';
+import type { AppConfig } from './config/app-config';
+import { APP_CONFIG } from './config/config.module';
+import { createValidationPipe } from './common/validation';
+
+/** Paths served outside the /api prefix (development pages). */
+const UNPREFIXED = [{ path: 'dev/{*rest}', method: RequestMethod.ALL }];
+
+/**
+ * Applies everything a running server needs on top of the module graph: security headers,
+ * cookies, the /api prefix, validation, the OpenAPI document and the built web app.
+ * Used by main.ts and by the e2e tests, so both run the same stack.
+ */
+export function configureApp(app: NestExpressApplication): AppConfig {
+  const config = app.get<AppConfig>(APP_CONFIG);
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // Fluent UI inserts its generated styles at run time.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          mediaSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+  app.use(cookieParser());
+  app.setGlobalPrefix('api', { exclude: UNPREFIXED });
+  app.useGlobalPipes(createValidationPipe());
+
+  const openApi = new DocumentBuilder()
+    .setTitle('Beadroll API')
+    .setDescription('Provenance rolls for antique and vintage glass beads')
+    .setVersion('1')
+    .build();
+  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, openApi), {
+    jsonDocumentUrl: 'api/docs-json',
+  });
+
+  serveWeb(app, config.webDist);
+  return config;
+}
+
+/** Serves the built web app; unknown non-API paths fall back to the right HTML entry. */
+function serveWeb(app: NestExpressApplication, webDist: string): void {
+  const appHtml = join(webDist, 'index.html');
+  const publicHtml = join(webDist, 'public.html');
+  if (!existsSync(appHtml)) return;
+  app.use(
+    '/assets',
+    express.static(join(webDist, 'assets'), { immutable: true, maxAge: '365d', index: false }),
+  );
+  app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+  app.use((req: Request, res: Response, next: NextFunction) => {
+    if (req.method !== 'GET' && req.method !== 'HEAD') return next();
+    if (req.path.startsWith('/api/') || req.path === '/api' || req.path.startsWith('/dev/')) return next();
+    const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(isPublic ? publicHtml : appHtml);
+  });
+}

@@ -1,0 +1,129 @@
+import { isAbsolute, resolve } from 'node:path';
+
+/** The one typed configuration of the server, validated once at boot from the environment. */
+export interface AppConfig {
+  readonly port: number;
+  readonly host: string;
+  readonly publicBaseUrl: string;
+  readonly dataDir: string;
+  readonly webDist: string;
+  readonly demoMode: boolean;
+  readonly devMailbox: boolean;
+  readonly db: {
+    readonly host: string;
+    readonly port: number;
+    readonly user: string;
+    readonly password: string;
+    readonly database: string;
+  };
+  readonly mail: {
+    readonly smtpHost: string;
+    readonly smtpPort: number;
+    readonly from: string;
+    /** Start an in-process fake SMTP server on smtpPort (0 = any free port) and keep what it receives. */
+    readonly fakeSmtp: boolean;
+  };
+  readonly jwtSecretFile: string;
+  readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
+  readonly throttle: { readonly limit: number; readonly ttlMs: number };
+}
+
+export class ConfigError extends Error {
+  constructor(
+    readonly variable: string,
+    reason: string,
+  ) {
+    super(`configuration: ${variable} ${reason}`);
+  }
+}
+
+type Env = Record<string, string | undefined>;
+
+const REPO_ROOT = resolve(__dirname, '..', '..', '..', '..');
+
+function str(env: Env, name: string, fallback: string, maxLength = 2048): string {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  if (raw.length > maxLength) throw new ConfigError(name, `is longer than ${maxLength} characters`);
+  return raw;
+}
+
+function int(env: Env, name: string, fallback: number, min: number, max: number): number {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  if (!/^\d+$/.test(raw)) throw new ConfigError(name, `must be a whole number, got "${raw}"`);
+  const value = Number(raw);
+  if (value < min || value > max)
+    throw new ConfigError(name, `must be between ${min} and ${max}, got ${raw}`);
+  return value;
+}
+
+function bool(env: Env, name: string, fallback: boolean): boolean {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  if (['1', 'true', 'yes', 'on'].includes(raw.toLowerCase())) return true;
+  if (['0', 'false', 'no', 'off'].includes(raw.toLowerCase())) return false;
+  throw new ConfigError(name, `must be true or false, got "${raw}"`);
+}
+
+function path(env: Env, name: string, fallback: string): string {
+  const raw = str(env, name, fallback);
+  return isAbsolute(raw) ? raw : resolve(REPO_ROOT, raw);
+}
+
+function url(env: Env, name: string, fallback: string): string {
+  const raw = str(env, name, fallback);
+  let parsed: URL;
+  try {
+    parsed = new URL(raw);
+  } catch {
+    throw new ConfigError(name, `must be an absolute http(s) URL, got "${raw}"`);
+  }
+  if (parsed.protocol !== 'http:' && parsed.protocol !== 'https:') {
+    throw new ConfigError(name, `must use http or https, got "${parsed.protocol}"`);
+  }
+  return parsed.origin;
+}
+
+/**
+ * Reads and validates the environment. Throws ConfigError naming the first bad variable.
+ * This is the only place in the server that reads environment variables.
+ */
+export function loadConfig(env: Env = process.env): AppConfig {
+  const port = int(env, 'PORT', 3000, 1, 65535);
+  const host = str(env, 'HOST', '127.0.0.1');
+  const dataDir = path(env, 'DATA_DIR', '.data');
+  const demoMode = bool(env, 'DEMO_MODE', false);
+  return {
+    port,
+    host,
+    publicBaseUrl: url(env, 'PUBLIC_BASE_URL', `http://127.0.0.1:${port}`),
+    dataDir,
+    webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
+    demoMode,
+    devMailbox: bool(env, 'DEV_MAILBOX', demoMode),
+    db: {
+      host: str(env, 'PGHOST', '127.0.0.1'),
+      port: int(env, 'PGPORT', 55432, 1, 65535),
+      user: str(env, 'PGUSER', 'beadroll'),
+      password: str(env, 'PGPASSWORD', ''),
+      database: str(env, 'PGDATABASE', 'beadroll'),
+    },
+    mail: {
+      smtpHost: str(env, 'SMTP_HOST', '127.0.0.1'),
+      smtpPort: int(env, 'SMTP_PORT', 0, 0, 65535),
+      from: str(env, 'MAIL_FROM', 'Beadroll <no-reply@beadroll.invalid>'),
+      fakeSmtp: bool(env, 'FAKE_SMTP', demoMode),
+    },
+    jwtSecretFile: path(env, 'JWT_SECRET_FILE', resolve(dataDir, 'secrets', 'jwt.key')),
+    scrypt: {
+      cost: int(env, 'SCRYPT_COST', 131072, 2, 1 << 22),
+      blockSize: int(env, 'SCRYPT_BLOCK_SIZE', 8, 1, 64),
+      parallelization: int(env, 'SCRYPT_PARALLELIZATION', 1, 1, 16),
+    },
+    throttle: {
+      limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),
+      ttlMs: int(env, 'THROTTLE_TTL_MS', 60_000, 1, 86_400_000),
+    },
+  };
+}

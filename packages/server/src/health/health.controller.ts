@@ -1,0 +1,15 @@
+import { Controller, Get } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { HealthService, type HealthReport } from './health.service';
+
+@ApiTags('health')
+@Controller('health')
+export class HealthController {
+  constructor(private readonly health: HealthService) {}
+
+  @Get()
+  @ApiOperation({ summary: 'Service and database status' })
+  report(): Promise<HealthReport> {
+    return this.health.report();
+  }
+}

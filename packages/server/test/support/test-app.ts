@@ -1,0 +1,113 @@
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import { Test } from '@nestjs/testing';
+import { Client } from 'pg';
+import { AppModule } from '../../src/app.module';
+import { configureApp } from '../../src/bootstrap';
+import { loadConfig } from '../../src/config/app-config';
+import { createDataSource } from '../../src/database/data-source';
+
+/** A database created for one test file on the cluster `npm test` started; dropped at the end. */
+export interface TestDatabase {
+  name: string;
+  drop(): Promise<void>;
+}
+
+// The database `npm test` created for the run; each test file makes its own beside it.
+const ADMIN_DATABASE = process.env.PGDATABASE;
+
+function adminClient(database = ADMIN_DATABASE): Client {
+  return new Client({
+    host: process.env.PGHOST,
+    port: Number(process.env.PGPORT),
+    user: process.env.PGUSER,
+    password: process.env.PGPASSWORD,
+    database,
+  });
+}
+
+/** Creates an empty database with a random name and runs every migration on it. */
+export async function createTestDatabase(): Promise<TestDatabase> {
+  if (!process.env.PGHOST) throw new Error('PGHOST is not set: run the server tests through `npm test`.');
+  const name = `bt_${randomBytes(6).toString('hex')}`;
+  const admin = adminClient();
+  await admin.connect();
+  await admin.query(`CREATE DATABASE ${name}`);
+  await admin.end();
+  const dataSource = createDataSource(loadConfig({ ...process.env, PGDATABASE: name }));
+  await dataSource.initialize();
+  await dataSource.runMigrations({ transaction: 'each' });
+  await dataSource.destroy();
+  return {
+    name,
+    async drop() {
+      const client = adminClient();
+      await client.connect();
+      await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+      await client.end();
+    },
+  };
+}
+
+/** A superuser connection to a test database, for tests that tamper with stored rows on purpose. */
+export async function superuserClient(database: string): Promise<Client> {
+  const user = process.env.BEADROLL_TEST_PG_SUPERUSER;
+  if (!user) throw new Error('no superuser available for tamper tests');
+  const client = new Client({
+    host: process.env.PGHOST,
+    port: Number(process.env.PGPORT),
+    user,
+    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
+    database,
+  });
+  await client.connect();
+  return client;
+}
+
+export interface TestApp {
+  app: NestExpressApplication;
+  db: TestDatabase;
+  dataDir: string;
+  close(): Promise<void>;
+}
+
+/**
+ * Boots the whole server (the same module graph and setup as main.ts) on a fresh database.
+ * `env` adds or overrides configuration variables for this app.
+ */
+export async function createTestApp(env: Record<string, string> = {}): Promise<TestApp> {
+  const db = await createTestDatabase();
+  const dataDir = mkdtempSync(join(tmpdir(), 'beadroll-test-'));
+  const secret = join(dataDir, 'jwt.key');
+  writeFileSync(secret, randomBytes(32).toString('hex'));
+  Object.assign(process.env, {
+    PGDATABASE: db.name,
+    DATA_DIR: dataDir,
+    JWT_SECRET_FILE: secret,
+    WEB_DIST: join(dataDir, 'no-web'),
+    SCRYPT_COST: '1024',
+    THROTTLE_LIMIT: '100000',
+    FAKE_SMTP: 'true',
+    SMTP_PORT: '0',
+    DEV_MAILBOX: 'true',
+    PUBLIC_BASE_URL: 'http://beadroll.test',
+    ...env,
+  });
+  const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();
+  const app = moduleRef.createNestApplication<NestExpressApplication>({ logger: ['error', 'warn'] });
+  configureApp(app);
+  await app.init();
+  return {
+    app,
+    db,
+    dataDir,
+    async close() {
+      await app.close();
+      await db.drop();
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}

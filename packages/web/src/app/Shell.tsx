@@ -1,0 +1,92 @@
+import { makeStyles, mergeClasses, Text, tokens } from '@fluentui/react-components';
+import type { ReactNode } from 'react';
+import { NavLink, Outlet } from 'react-router-dom';
+
+const useStyles = makeStyles({
+  root: {
+    minHeight: '100vh',
+    display: 'flex',
+    flexDirection: 'column',
+    backgroundColor: tokens.colorNeutralBackground2,
+  },
+  header: {
+    display: 'flex',
+    flexWrap: 'wrap',
+    alignItems: 'center',
+    columnGap: tokens.spacingHorizontalL,
+    rowGap: tokens.spacingVerticalS,
+    paddingBlock: tokens.spacingVerticalM,
+    paddingInline: tokens.spacingHorizontalXL,
+    backgroundColor: tokens.colorBrandBackground,
+    color: tokens.colorNeutralForegroundOnBrand,
+  },
+  brand: {
+    color: tokens.colorNeutralForegroundOnBrand,
+    textDecorationLine: 'none',
+    fontWeight: tokens.fontWeightBold,
+    fontSize: tokens.fontSizeBase500,
+  },
+  nav: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, flexGrow: 1 },
+  link: {
+    color: tokens.colorNeutralForegroundOnBrand,
+    textDecorationLine: 'none',
+    paddingBlock: tokens.spacingVerticalXS,
+    borderBottom: `${tokens.strokeWidthThick} solid transparent`,
+    ':hover': { borderBottomColor: tokens.colorNeutralForegroundOnBrand },
+  },
+  active: { borderBottomColor: tokens.colorNeutralForegroundOnBrand },
+  account: { display: 'flex', alignItems: 'center', gap: tokens.spacingHorizontalS },
+  main: {
+    flexGrow: 1,
+    width: '100%',
+    maxWidth: '1200px',
+    boxSizing: 'border-box',
+    marginInline: 'auto',
+    paddingBlock: tokens.spacingVerticalXL,
+    paddingInline: tokens.spacingHorizontalL,
+  },
+  footer: {
+    paddingBlock: tokens.spacingVerticalM,
+    paddingInline: tokens.spacingHorizontalXL,
+    color: tokens.colorNeutralForeground3,
+  },
+});
+
+export interface NavItem {
+  to: string;
+  label: string;
+}
+
+/** The app frame: product name, navigation, account area, page content. */
+export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode }) {
+  const styles = useStyles();
+  return (
+    <div className={styles.root}>
+      <header className={styles.header}>
+        <NavLink to="/" className={styles.brand}>
+          Beadroll
+        </NavLink>
+        <nav aria-label="Main" className={styles.nav}>
+          {nav.map((item) => (
+            <NavLink
+              key={item.to}
+              to={item.to}
+              className={({ isActive }) => mergeClasses(styles.link, isActive && styles.active)}
+            >
+              {item.label}
+            </NavLink>
+          ))}
+        </nav>
+        <div className={styles.account}>{account}</div>
+      </header>
+      <main className={styles.main}>
+        <Outlet />
+      </main>
+      <footer className={styles.footer}>
+        <Text size={200}>
+          Beadroll keeps the history of bead lots. An attribution is an opinion, not an authentication.
+        </Text>
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,84 @@
+/** One field-level problem from the server's 400 body. */
+export interface FieldProblem {
+  field: string;
+  reason: string;
+}
+
+/** An error answered by the API, carrying the stable body `{ error: { code, message, fields? } }`. */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields: FieldProblem[] = [],
+    readonly requestId?: string,
+  ) {
+    super(message);
+  }
+
+  /** The reasons for one field (joined), for a Fluent Field's validationMessage. */
+  fieldMessage(field: string): string | undefined {
+    const reasons = this.fields
+      .filter((f) => f.field === field || f.field.startsWith(`${field}.`))
+      .map((f) => f.reason);
+    return reasons.length ? reasons.join('; ') : undefined;
+  }
+}
+
+/** Header that every non-GET request carries; the server refuses state changes without it. */
+export const CSRF_HEADER = 'X-Beadroll-Request';
+
+type Json = Record<string, unknown> | unknown[];
+
+export interface RequestOptions {
+  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  body?: Json | FormData;
+  signal?: AbortSignal;
+}
+
+/** Turns any failed response into an ApiError with a message a person can read. */
+export async function toApiError(res: Response): Promise<ApiError> {
+  let body: unknown;
+  try {
+    body = await res.json();
+  } catch {
+    body = undefined;
+  }
+  const err = (
+    body as { error?: { code?: string; message?: string; fields?: FieldProblem[]; requestId?: string } }
+  )?.error;
+  if (err?.code)
+    return new ApiError(
+      res.status,
+      err.code,
+      err.message ?? 'The request failed.',
+      err.fields ?? [],
+      err.requestId,
+    );
+  if (res.status === 404) return new ApiError(404, 'not_found', 'Not found.');
+  return new ApiError(res.status, 'http_error', `The server answered ${res.status}. Please try again.`);
+}
+
+/** The one typed API client: JSON in and out, cookies included, errors as ApiError. */
+export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+  const method = opts.method ?? (opts.body ? 'POST' : 'GET');
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (method !== 'GET') headers[CSRF_HEADER] = '1';
+  let body: BodyInit | undefined;
+  if (opts.body instanceof FormData) body = opts.body;
+  else if (opts.body !== undefined) {
+    headers['Content-Type'] = 'application/json';
+    body = JSON.stringify(opts.body);
+  }
+  let res: Response;
+  try {
+    res = await fetch(path, { method, headers, body, credentials: 'same-origin', signal: opts.signal });
+  } catch (cause) {
+    if ((cause as Error).name === 'AbortError') throw cause;
+    throw new ApiError(0, 'network', 'Beadroll could not be reached. Check the connection and try again.');
+  }
+  if (!res.ok) throw await toApiError(res);
+  if (res.status === 204) return undefined as T;
+  const type = res.headers.get('content-type') ?? '';
+  return (type.includes('application/json') ? await res.json() : await res.text()) as T;
+}

@@ -1,0 +1,273 @@
+import { randomBytes } from 'node:crypto';
+import {
+  chmodSync,
+  chownSync,
+  existsSync,
+  mkdirSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { aptInstall, isRoot, portInUse, run, UserFacingError } from './proc.ts';
+
+/** How to reach a PostgreSQL database, with a superuser for setup (and tamper tests). */
+export interface PgTarget {
+  host: string;
+  port: number;
+  user: string;
+  password: string;
+  database: string;
+  superuser?: { user: string; password: string };
+}
+
+export interface PrivateCluster {
+  target: PgTarget;
+  stop(): void;
+}
+
+interface Credentials {
+  superuserPassword: string;
+  appPassword: string;
+}
+
+function pgBin(): string | undefined {
+  const root = '/usr/lib/postgresql';
+  if (!existsSync(root)) return undefined;
+  const versions = readdirSync(root)
+    .filter((v) => existsSync(join(root, v, 'bin', 'initdb')))
+    .sort((a, b) => Number(b) - Number(a));
+  return versions.length ? join(root, versions[0], 'bin') : undefined;
+}
+
+/** The PostgreSQL server binaries, installed from Debian's packages when missing. */
+export function ensurePgBinaries(): string {
+  let bin = pgBin();
+  if (!bin) {
+    aptInstall(['postgresql'], 'the private PostgreSQL cluster');
+    bin = pgBin();
+  }
+  if (!bin)
+    throw new UserFacingError(
+      'PostgreSQL was installed but its binaries were not found under /usr/lib/postgresql.',
+    );
+  return bin;
+}
+
+/** Runs a PostgreSQL program as the cluster's owner (the postgres user when we are root). */
+function asOwner(cmd: string, args: string[]): string {
+  return isRoot
+    ? run('runuser', ['-u', 'postgres', '--', cmd, ...args], { quiet: true })
+    : run(cmd, args, { quiet: true });
+}
+
+function ensurePostgresUser(): void {
+  if (!isRoot) return;
+  try {
+    run('id', ['-u', 'postgres'], { quiet: true });
+  } catch {
+    run('useradd', ['--system', '--home-dir', '/var/lib/postgresql', '--shell', '/bin/bash', 'postgres'], {
+      quiet: true,
+    });
+  }
+}
+
+function ownerIds(): { uid: number; gid: number } {
+  if (!isRoot) return { uid: process.getuid!(), gid: process.getgid!() };
+  return {
+    uid: Number(run('id', ['-u', 'postgres'], { quiet: true }).trim()),
+    gid: Number(run('id', ['-g', 'postgres'], { quiet: true }).trim()),
+  };
+}
+
+/** Makes every parent folder of `dir` traversable by others (the postgres user must reach the data folder). */
+function makeParentsTraversable(dir: string): void {
+  if (!isRoot) return;
+  let current = dirname(resolve(dir));
+  while (true) {
+    const mode = statSync(current).mode;
+    if ((mode & 0o001) === 0) chmodSync(current, mode | 0o001);
+    const parent = dirname(current);
+    if (parent === current) break;
+    current = parent;
+  }
+}
+
+function chownTree(path: string, uid: number, gid: number): void {
+  chownSync(path, uid, gid);
+  if (statSync(path).isDirectory())
+    for (const name of readdirSync(path)) chownTree(join(path, name), uid, gid);
+}
+
+function psql(bin: string, sock: string, port: number, sql: string): string {
+  return asOwner(join(bin, 'psql'), [
+    '-h',
+    sock,
+    '-p',
+    String(port),
+    '-U',
+    'postgres',
+    '-d',
+    'postgres',
+    '-XtAq',
+    '-v',
+    'ON_ERROR_STOP=1',
+    '-c',
+    sql,
+  ]);
+}
+
+function quoteLiteral(value: string): string {
+  return `'${value.replace(/'/g, "''")}'`;
+}
+
+/**
+ * Starts (creating it on first use) a PostgreSQL cluster in `base` listening on 127.0.0.1:port,
+ * with an application role and database. `durable: false` trades crash safety for speed (tests only).
+ * Credentials are generated once and kept in `base/credentials.json`, never in git.
+ */
+export async function startPrivateCluster(opts: {
+  base: string;
+  port: number;
+  durable: boolean;
+  appUser?: string;
+  database?: string;
+  createdb?: boolean;
+}): Promise<PrivateCluster> {
+  const bin = ensurePgBinaries();
+  ensurePostgresUser();
+  const base = resolve(opts.base);
+  const data = join(base, 'data');
+  const sock = join(base, 'sock');
+  const log = join(base, 'server.log');
+  const credsFile = join(base, 'credentials.json');
+  const appUser = opts.appUser ?? 'beadroll';
+  const database = opts.database ?? 'beadroll';
+  mkdirSync(base, { recursive: true });
+  makeParentsTraversable(base);
+  const { uid, gid } = ownerIds();
+
+  const fresh = !existsSync(join(data, 'PG_VERSION'));
+  if (fresh) {
+    // A half-made cluster from an interrupted first run is thrown away, not reused.
+    rmSync(data, { recursive: true, force: true });
+    const creds: Credentials = {
+      superuserPassword: randomBytes(18).toString('base64url'),
+      appPassword: randomBytes(18).toString('base64url'),
+    };
+    writeFileSync(credsFile, JSON.stringify(creds, null, 2), { mode: 0o600 });
+    mkdirSync(data, { recursive: true, mode: 0o700 });
+    mkdirSync(sock, { recursive: true });
+    const pwfile = join(base, 'pwfile');
+    writeFileSync(pwfile, creds.superuserPassword, { mode: 0o600 });
+    chownTree(base, uid, gid);
+    chownSync(credsFile, process.getuid!(), process.getgid!());
+    chmodSync(data, 0o700);
+    try {
+      asOwner(join(bin, 'initdb'), [
+        '-D',
+        data,
+        '-U',
+        'postgres',
+        '-E',
+        'UTF8',
+        '--locale=C.UTF-8',
+        '--auth-local=trust',
+        '--auth-host=scram-sha-256',
+        `--pwfile=${pwfile}`,
+      ]);
+    } catch (err) {
+      rmSync(data, { recursive: true, force: true });
+      throw new UserFacingError(`initdb failed for ${data}: ${(err as Error).message}`);
+    } finally {
+      rmSync(pwfile, { force: true });
+    }
+  }
+  const creds = JSON.parse(readFileSync(credsFile, 'utf8')) as Credentials;
+  mkdirSync(sock, { recursive: true });
+  chownSync(sock, uid, gid);
+
+  let running: boolean;
+  try {
+    asOwner(join(bin, 'pg_ctl'), ['-D', data, 'status']);
+    running = true;
+  } catch {
+    running = false;
+  }
+  if (!running) {
+    if (await portInUse(opts.port)) {
+      throw new UserFacingError(
+        `PGPORT ${opts.port} is already in use on 127.0.0.1: stop what holds it, or set PGPORT to a free port.`,
+      );
+    }
+    const settings = ['-p', String(opts.port), '-k', sock, '-c', 'listen_addresses=127.0.0.1'];
+    if (!opts.durable)
+      settings.push('-c', 'fsync=off', '-c', 'synchronous_commit=off', '-c', 'full_page_writes=off');
+    try {
+      asOwner(join(bin, 'pg_ctl'), [
+        '-D',
+        data,
+        '-l',
+        log,
+        '-w',
+        '-t',
+        '60',
+        '-o',
+        settings.join(' '),
+        'start',
+      ]);
+    } catch (err) {
+      const tail = existsSync(log) ? readFileSync(log, 'utf8').trim().split('\n').slice(-5).join('\n') : '';
+      throw new UserFacingError(
+        `PostgreSQL failed to start (log: ${log}):\n${tail || (err as Error).message}`,
+      );
+    }
+  }
+
+  const roleExists = psql(
+    bin,
+    sock,
+    opts.port,
+    `SELECT 1 FROM pg_roles WHERE rolname = ${quoteLiteral(appUser)}`,
+  ).trim();
+  const roleSql = `ROLE "${appUser}" LOGIN ${opts.createdb ? 'CREATEDB' : 'NOCREATEDB'} PASSWORD ${quoteLiteral(creds.appPassword)}`;
+  psql(bin, sock, opts.port, roleExists ? `ALTER ${roleSql}` : `CREATE ${roleSql}`);
+  const dbExists = psql(
+    bin,
+    sock,
+    opts.port,
+    `SELECT 1 FROM pg_database WHERE datname = ${quoteLiteral(database)}`,
+  ).trim();
+  if (!dbExists) psql(bin, sock, opts.port, `CREATE DATABASE "${database}" OWNER "${appUser}"`);
+
+  return {
+    target: {
+      host: '127.0.0.1',
+      port: opts.port,
+      user: appUser,
+      password: creds.appPassword,
+      database,
+      superuser: { user: 'postgres', password: creds.superuserPassword },
+    },
+    stop() {
+      try {
+        asOwner(join(bin, 'pg_ctl'), ['-D', data, '-m', 'fast', '-w', 'stop']);
+      } catch {
+        // already stopped
+      }
+    },
+  };
+}
+
+/** Environment variables (PG*) that point a process at `target`. */
+export function pgEnv(target: PgTarget): Record<string, string> {
+  return {
+    PGHOST: target.host,
+    PGPORT: String(target.port),
+    PGUSER: target.user,
+    PGPASSWORD: target.password,
+    PGDATABASE: target.database,
+  };
+}

@@ -1,0 +1,196 @@
+// `npm test`: installs what the suites need, starts a throw-away PostgreSQL cluster, runs lint,
+// type checks, core, server, web and browser suites, and ends with one `tests: N passed, M failed` line.
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { DATA_DIR, REPO } from './lib/app-env.ts';
+import { pgEnv, startPrivateCluster, type PgTarget, type PrivateCluster } from './lib/pg.ts';
+import { aptInstall, freePort, onShutdown, runInherit, stopChildren, UserFacingError } from './lib/proc.ts';
+
+interface SuiteResult {
+  name: string;
+  passed: number;
+  failed: number;
+}
+
+const quick = process.argv.includes('--quick');
+const resultsDir = join(DATA_DIR, 'test-results');
+let cluster: PrivateCluster | undefined;
+
+function cleanup(): void {
+  cluster?.stop();
+  if (cluster) rmSync(join(DATA_DIR, 'test-pg'), { recursive: true, force: true });
+  cluster = undefined;
+}
+
+/** A step that passes or fails as a whole (lint, type check, build) counts as one test. */
+async function step(
+  name: string,
+  cmd: string,
+  args: string[],
+  env?: NodeJS.ProcessEnv,
+): Promise<SuiteResult> {
+  console.log(`\n── ${name}`);
+  const code = await runInherit(cmd, args, { cwd: REPO, env: env ?? process.env });
+  return { name, passed: code === 0 ? 1 : 0, failed: code === 0 ? 0 : 1 };
+}
+
+/** Runs a Jest or Vitest suite that writes a Jest-style JSON report, and counts its tests. */
+async function suite(
+  name: string,
+  cmd: string,
+  args: string[],
+  report: string,
+  env: NodeJS.ProcessEnv,
+): Promise<SuiteResult> {
+  console.log(`\n── ${name}`);
+  rmSync(report, { force: true });
+  const code = await runInherit(cmd, args, { cwd: REPO, env });
+  if (!existsSync(report)) return { name, passed: 0, failed: 1 };
+  const json = JSON.parse(readFileSync(report, 'utf8')) as {
+    numPassedTests: number;
+    numFailedTests: number;
+    numFailedTestSuites?: number;
+  };
+  const failed = json.numFailedTests + (code !== 0 && json.numFailedTests === 0 ? 1 : 0);
+  return { name, passed: json.numPassedTests, failed };
+}
+
+async function main(): Promise<void> {
+  onShutdown(async () => {
+    await stopChildren();
+    cleanup();
+  });
+  mkdirSync(resultsDir, { recursive: true });
+
+  if (!quick && !existsSync('/usr/bin/chromium')) aptInstall(['chromium'], 'the browser tests');
+
+  let target: PgTarget;
+  if (process.env.PGHOST) {
+    // An outside server: the suites create (and drop) only databases of their own there.
+    target = {
+      host: process.env.PGHOST,
+      port: Number(process.env.PGPORT ?? 5432),
+      user: process.env.PGUSER ?? 'postgres',
+      password: process.env.PGPASSWORD ?? '',
+      database: process.env.PGDATABASE ?? 'postgres',
+    };
+  } else {
+    rmSync(join(DATA_DIR, 'test-pg'), { recursive: true, force: true });
+    const port = await freePort();
+    console.log(`starting a throw-away PostgreSQL on 127.0.0.1:${port}…`);
+    cluster = await startPrivateCluster({
+      base: join(DATA_DIR, 'test-pg'),
+      port,
+      durable: false,
+      appUser: 'beadroll_test',
+      database: 'beadroll_test',
+      createdb: true,
+    });
+    target = cluster.target;
+  }
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    ...pgEnv(target),
+    BEADROLL_TEST_PG_SUPERUSER: target.superuser?.user ?? '',
+    BEADROLL_TEST_PG_SUPERPASSWORD: target.superuser?.password ?? '',
+    NODE_ENV: 'test',
+  };
+  delete env.PORT;
+
+  const results: SuiteResult[] = [];
+  const build = await step('build', 'npm', ['run', '--silent', 'build']);
+  results.push(build);
+  results.push(await step('lint (eslint)', 'npx', ['eslint', '.']));
+  results.push(await step('format (prettier)', 'npx', ['prettier', '--check', '.']));
+  results.push(await step('type check', 'npm', ['run', '--silent', 'typecheck']));
+  results.push(await step('type check (tools)', 'npx', ['tsc', '-p', 'tools/tsconfig.json']));
+  const report = (name: string) => join(resultsDir, `${name}.json`);
+  results.push(
+    await suite(
+      'core',
+      'npx',
+      [
+        'vitest',
+        'run',
+        '--root',
+        'packages/core',
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${report('core')}`,
+      ],
+      report('core'),
+      env,
+    ),
+  );
+  results.push(
+    await suite(
+      'server',
+      'npx',
+      [
+        'jest',
+        '--rootDir',
+        'packages/server',
+        '--config',
+        'packages/server/jest.config.cjs',
+        '--json',
+        `--outputFile=${report('server')}`,
+      ],
+      report('server'),
+      env,
+    ),
+  );
+  results.push(
+    await suite(
+      'web',
+      'npx',
+      [
+        'vitest',
+        'run',
+        '--root',
+        'packages/web',
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${report('web')}`,
+      ],
+      report('web'),
+      env,
+    ),
+  );
+  if (!quick && build.failed === 0) {
+    results.push(
+      await suite(
+        'browser',
+        'npx',
+        [
+          'vitest',
+          'run',
+          '--config',
+          'packages/web/vitest.browser.config.ts',
+          '--reporter=default',
+          '--reporter=json',
+          `--outputFile.json=${report('browser')}`,
+        ],
+        report('browser'),
+        env,
+      ),
+    );
+  }
+
+  await stopChildren();
+  cleanup();
+  const passed = results.reduce((n, r) => n + r.passed, 0);
+  const failed = results.reduce((n, r) => n + r.failed, 0);
+  console.log('');
+  for (const r of results)
+    console.log(`  ${r.failed ? '✗' : '✓'} ${r.name}: ${r.passed} passed, ${r.failed} failed`);
+  console.log(`tests: ${passed} passed, ${failed} failed`);
+  process.exit(failed > 0 || passed === 0 ? 1 : 0);
+}
+
+main().catch(async (err: unknown) => {
+  console.error(err instanceof UserFacingError ? `npm test: ${err.message}` : err);
+  await stopChildren();
+  cleanup();
+  console.log('tests: 0 passed, 1 failed');
+  process.exit(1);
+});
