@@ -18,6 +18,7 @@ export type {
 export { canonicalise, canonicaliseJcs, parseCanonical } from './canonical.js';
 export { secureRandom, seededRandom } from './random.js';
 export type { RandomSource } from './random.js';
+export type { TagMatch } from './lotcode.js';
 export {
   CROCKFORD_ALPHABET,
   CROCKFORD_CHECK_EXTRA,
@@ -31,6 +32,7 @@ export {
   tagReference,
   parseTagReference,
   findEntriesByTagReference,
+  matchTag,
 } from './lotcode.js';
 export * from './types.js';
 export {

@@ -141,3 +141,23 @@ export function findEntriesByTagReference<T extends { hash: string }>(
   for (const e of entries) if (tagReference(e.hash) === want) out.push(e);
   return out;
 }
+
+/** Outcome of checking a printed tag against a verified roll. */
+export type TagMatch = 'found' | 'missing' | 'mismatch';
+
+/**
+ * Checks what a printed tag promised (the entry at `seq` has tag reference `ref`) against the
+ * entries of a verified roll: `found` when that entry is there with that prefix, `missing`
+ * when the roll is shorter (truncated, or older than the tag), `mismatch` when the entry at
+ * `seq` has another hash (the roll was rewritten). Throws {@link LotCodeError} for a
+ * malformed `ref`.
+ */
+export function matchTag(
+  entries: ReadonlyArray<{ hash: string }>,
+  tag: { seq: number; ref: string },
+): TagMatch {
+  const want = parseTagReference(tag.ref);
+  const e = entries[tag.seq];
+  if (!e) return 'missing';
+  return tagReference(e.hash) === want ? 'found' : 'mismatch';
+}

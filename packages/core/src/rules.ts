@@ -65,6 +65,12 @@ export interface RollState {
   status: LotStatus;
   holder: string;
   listed: boolean;
+  /**
+   * false between a `described` entry whose body is absent (redacted) and the next
+   * description: `listed` and `remaining` are then not known, and rules that depend on them
+   * are checked permissively.
+   */
+  listedKnown: boolean;
   /** The newest description; null when that description's body was redacted. */
   description: LotDescription | null;
   /** seq of the entry that wrote `description`. */
@@ -214,7 +220,7 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       if (!isHolder) return bad('bad-actor', `only the holder may write ${kind}`);
       break;
     case 'holder-or-anyone-if-listed':
-      if (!isHolder && !state.listed)
+      if (!isHolder && !state.listed && state.listedKnown)
         return bad('bad-actor', `only the holder may write ${kind} on an unlisted lot`);
       if (actor === SYSTEM_ACTOR) return bad('bad-actor', `the system account does not write ${kind}`);
       break;
@@ -287,6 +293,12 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       if (state.redactionSeqs.includes(t)) return bad('bad-transition', 'a redaction cannot be redacted');
       if (state.redactedSeqs.includes(t)) return bad('bad-transition', `seq ${t} is already redacted`);
       if (state.openOffer?.seq === t) return bad('bad-transition', 'an open offer cannot be redacted');
+      if (state.descriptionSeq === t) {
+        return bad(
+          'bad-transition',
+          'the current description can be redacted only after a newer description replaces it',
+        );
+      }
       break;
     }
     case 'note': {
@@ -343,6 +355,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       status: 'held',
       holder: h.actor,
       listed: d.listed,
+      listedKnown: true,
       description: d,
       descriptionSeq: 0,
       remaining: d.count,
@@ -366,7 +379,9 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       s.description = d;
       s.descriptionSeq = h.seq;
       s.listed = d ? d.listed : false;
-      if (d && ACTIVE.includes(s.status)) s.remaining = d.count;
+      s.listedKnown = d !== null;
+      if (ACTIVE.includes(s.status))
+        s.remaining = d ? d.count : { value: s.remaining.value, estimated: true };
       break;
     }
     case 'opinion':
@@ -437,10 +452,6 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
         s.opinions = s.opinions.map((o) => (o.seq === t ? { ...o, body: null } : o));
       // The same effect as reading the target without its body, so a state never depends on
       // whether the removed body was still at hand.
-      if (t === s.descriptionSeq) {
-        s.description = null;
-        s.listed = false;
-      }
       if (t === s.soldSeq) s.soldOn = null;
       break;
     }
