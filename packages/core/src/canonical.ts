@@ -3,7 +3,9 @@ import { CanonicalError } from './errors.js';
 
 const LONE_SURROGATE = /\p{Cs}/u;
 
-function checkValue(root: unknown, limitIntegers: boolean): void {
+/** Returns true when every object's keys are already in RFC 8785 (UTF-16 code unit) order. */
+function checkValue(root: unknown, limitIntegers: boolean): boolean {
+  let sorted = true;
   const stack: Array<{ v: unknown; path: string }> = [{ v: root, path: '' }];
   while (stack.length > 0) {
     const { v, path } = stack.pop()!;
@@ -30,7 +32,10 @@ function checkValue(root: unknown, limitIntegers: boolean): void {
       if (proto !== Object.prototype && proto !== null) {
         throw new CanonicalError('unsupported-value', `not a plain object at ${path || '(root)'}`);
       }
+      let prev: string | null = null;
       for (const k of Object.keys(v)) {
+        if (prev !== null && !(prev < k)) sorted = false;
+        prev = k;
         if (LONE_SURROGATE.test(k))
           throw new CanonicalError('unsupported-value', `lone surrogate in key at ${path}`);
         stack.push({ v: (v as Record<string, unknown>)[k], path: path ? `${path}.${k}` : k });
@@ -39,6 +44,7 @@ function checkValue(root: unknown, limitIntegers: boolean): void {
     }
     throw new CanonicalError('unsupported-value', `${typeof v} is not a JSON value at ${path || '(root)'}`);
   }
+  return sorted;
 }
 
 /**
@@ -88,8 +94,21 @@ export function parseCanonical(text: string): unknown {
   } catch (e) {
     throw new CanonicalError('not-json', `malformed JSON: ${(e as Error).message}`);
   }
-  const again = canonicalise(parsed);
+  // Fast path: with keys already in order, JSON.stringify writes exactly what RFC 8785 writes
+  // (same number and string rules). Anything else, such as integer-like keys that JavaScript
+  // reorders, takes the full serialiser.
+  const sorted = checkValue(parsed, true);
+  if (sorted && fastStringify(parsed) === text) return parsed;
+  const again = serialise(parsed);
   if (again !== text)
     throw new CanonicalError('non-canonical', 'text differs from the canonical form of its parse');
   return parsed;
+}
+
+function fastStringify(v: unknown): string | null {
+  try {
+    return JSON.stringify(v);
+  } catch {
+    return null; // too deep for the engine's recursive writer; the full serialiser decides
+  }
 }

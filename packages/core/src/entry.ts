@@ -212,7 +212,8 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
     if (!(HEADER_KEYS as readonly string[]).includes(k))
       return { reason: 'bad-header', message: `unknown header field ${k}` };
   }
-  if (!isCanonicalLotCode(o.lot)) return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
+  if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
+    return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
   if (typeof o.kind !== 'string' || !(ENTRY_KINDS as readonly string[]).includes(o.kind)) {
     return { reason: 'bad-header', message: 'kind is not a known kind' };
   }
@@ -220,6 +221,7 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
     return { reason: 'bad-seq', message: 'seq is not a non-negative integer' };
   if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };
   if (!isActorId(o.actor)) return { reason: 'bad-actor', message: 'actor is not an account id' };
+  lastLot = o.lot as string;
   if (!isHex64(o.prev)) return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
   if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
   if ('sealed' in o && !isHex64(o.sealed))
@@ -230,6 +232,9 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   }
   return o as unknown as EntryHeader;
 }
+
+// The lot code checked last: a roll repeats it in every header, so it is validated once.
+let lastLot: unknown = null;
 
 /** True when {@link decodeHeader} returned a problem rather than a header. */
 export function isHeaderProblem(x: EntryHeader | HeaderProblem): x is HeaderProblem {

@@ -50,11 +50,23 @@ function tagged(tag: string): Uint8Array {
  * Precondition: `text` is the exact canonical string being committed to.
  */
 export function domainHash(domain: Domain, text: string): string {
-  const h = sha256.create();
-  h.update(tagBytes[domain]);
-  h.update(utf8ToBytes(text));
-  return bytesToHex(h.digest());
+  const tag = tagBytes[domain];
+  // One reusable buffer: a UTF-8 string takes at most 3 bytes per UTF-16 code unit.
+  const need = tag.length + text.length * 3;
+  if (scratch.length < need) scratch = new Uint8Array(Math.max(need, scratch.length * 2));
+  scratch.set(tag);
+  const { written } = encoder.encodeInto(text, scratch.subarray(tag.length));
+  return bytesToHex(sha256(scratch.subarray(0, tag.length + written)));
 }
+
+interface Utf8Encoder {
+  encodeInto(text: string, into: Uint8Array): { written: number };
+}
+// TextEncoder exists in every browser and in Node; the core's type library lists no DOM.
+const encoder: Utf8Encoder = new (
+  globalThis as unknown as { TextEncoder: new () => Utf8Encoder }
+).TextEncoder();
+let scratch = new Uint8Array(4096);
 
 /** Entry hash of a canonical header string (domain `entry`), as 64 lower-case hex digits. */
 export function entryHash(canonicalHeader: string): string {

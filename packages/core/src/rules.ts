@@ -319,6 +319,13 @@ export function opinionsDisagree(a: OpinionBody, b: OpinionBody): boolean {
   return originsDiffer || periodsApart;
 }
 
+const ATTRIBUTION_KINDS = new Set<EntryKind>([
+  'opinion',
+  'opinion-withdrawn',
+  'transfer-accepted',
+  'redacted',
+]);
+
 function deriveAttribution(state: RollState): RollState {
   let attribution: OpinionRecord | null = null;
   for (const o of state.opinions) if (o.author === state.holder && o.body) attribution = o;
@@ -458,8 +465,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
     default:
       break;
   }
-  s = deriveAttribution(s);
-  return s;
+  return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
 }
 
 /**

@@ -48,16 +48,25 @@ export function isActorId(v: unknown): v is string {
 
 /** True for a UTC time written exactly `YYYY-MM-DDTHH:MM:SS.sssZ` that names a real instant. */
 export function isEntryTime(v: unknown): v is string {
-  if (typeof v !== 'string' || !TIME.test(v)) return false;
-  const d = new Date(v);
-  return !Number.isNaN(d.getTime()) && d.toISOString() === v;
+  if (typeof v !== 'string' || v.length !== 24 || !TIME.test(v)) return false;
+  return (
+    isCalendarDate(v.slice(0, 10)) &&
+    v.slice(11, 13) < '24' &&
+    v.slice(14, 16) < '60' &&
+    v.slice(17, 19) < '60'
+  );
 }
 
 /** True for a real calendar date written `YYYY-MM-DD`. */
 export function isCalendarDate(v: unknown): v is string {
   if (typeof v !== 'string' || !DATE.test(v)) return false;
-  const d = new Date(`${v}T00:00:00.000Z`);
-  return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v;
+  const y = Number(v.slice(0, 4));
+  const m = Number(v.slice(5, 7));
+  const d = Number(v.slice(8, 10));
+  if (m < 1 || m > 12 || d < 1) return false;
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+  const days = [31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][m - 1]!;
+  return d <= days;
 }
 
 type Obj = Record<string, unknown>;
