@@ -379,7 +379,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       redactedSeqs: [],
     });
   }
-  let s: RollState = { ...state, head };
+  const s: RollState = { ...state, head };
   switch (h.kind) {
     case 'described': {
       const d = body ? (body as RegisteredBody).description : null;

@@ -76,3 +76,26 @@ describe('ledger canonical form', () => {
     expect(parseCanonical(deep)).toBeDefined();
   });
 });
+
+describe('canonical check agrees with the RFC 8785 serialiser on random values', () => {
+  it('accepts exactly the serialiser output, and refuses any other spelling', async () => {
+    const fc = (await import('fast-check')).default;
+    fc.assert(
+      fc.property(fc.jsonValue({ maxDepth: 4 }), (v) => {
+        let text: string;
+        try {
+          text = canonicalise(v);
+        } catch {
+          return; // e.g. an unsafe integer
+        }
+        expect(canonicalise(parseCanonical(text))).toBe(text);
+        const pretty = JSON.stringify(JSON.parse(text), null, 1);
+        if (pretty !== text) expect(() => parseCanonical(pretty)).toThrow(CanonicalError);
+      }),
+      { numRuns: 500 },
+    );
+    // Integer-like keys: JavaScript enumerates "9" before "10"; RFC 8785 sorts "10" first.
+    expect(parseCanonical('{"10":1,"9":2}')).toEqual({ 9: 2, 10: 1 });
+    expect(() => parseCanonical('{"9":2,"10":1}')).toThrow(CanonicalError);
+  });
+});

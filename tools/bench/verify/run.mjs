@@ -2,6 +2,7 @@
 // baseline that only hashes the same canonical bytes with node:crypto, in the same run.
 // Usage: npm run build -w @beadroll/core && npm run bench:verify [-- ENTRIES]
 import { createHash } from 'node:crypto';
+import { TextEncoder } from 'node:util';
 import { buildEntry, createRollVerifier, DOMAIN, headOf, seededRandom } from '@beadroll/core';
 
 const N = Number(process.argv[2] ?? 100_000);
