@@ -1,1 +1,116 @@
-export { sha256HexOfText, sha256HexOfBytes } from './hash.js';
+export { sha256HexOfText, sha256HexOfBytes, DOMAIN, domainHash, entryHash, bodyDigest } from './hash.js';
+export type { Domain } from './hash.js';
+export {
+  LedgerError,
+  CanonicalError,
+  ValidationError,
+  LotCodeError,
+  MerkleError,
+  BundleError,
+} from './errors.js';
+export type {
+  CanonicalErrorCode,
+  FieldIssue,
+  LotCodeErrorCode,
+  MerkleErrorCode,
+  BundleErrorCode,
+} from './errors.js';
+export { canonicalise, canonicaliseJcs, parseCanonical } from './canonical.js';
+export { secureRandom, seededRandom } from './random.js';
+export type { RandomSource } from './random.js';
+export type { TagMatch } from './lotcode.js';
+export {
+  CROCKFORD_ALPHABET,
+  CROCKFORD_CHECK_EXTRA,
+  crockfordCheckSymbol,
+  generateLotCode,
+  parseLotCode,
+  isLotCode,
+  isCanonicalLotCode,
+  formatLotCode,
+  TAG_REF_SYMBOLS,
+  tagReference,
+  parseTagReference,
+  findEntriesByTagReference,
+  matchTag,
+} from './lotcode.js';
+export * from './types.js';
+export {
+  LIMITS,
+  isHex64,
+  isActorId,
+  isEntryTime,
+  isCalendarDate,
+  bodyIssues,
+  assertBody,
+  sealedValueIssues,
+} from './validate.js';
+export {
+  sealedFieldCommitment,
+  sealedRoot,
+  sealFields,
+  discloseSealedField,
+  verifySealedDisclosure,
+  openSealedFields,
+} from './sealed.js';
+export type { SealedField, SealedSet, SealedDisclosure } from './sealed.js';
+export {
+  HEADER_KEYS,
+  NEVER_REDACTED,
+  REASON_CODES,
+  buildEntry,
+  headOf,
+  decodeHeader,
+  isHeaderProblem,
+  encodeHeader,
+} from './entry.js';
+export type { StoredEntry, EntryDraft, BuiltEntry, ReasonCode, HeaderProblem } from './entry.js';
+export {
+  FINAL_STATUSES,
+  TRANSITION_RULES,
+  checkTransition,
+  opinionsDisagree,
+  reduceEntry,
+  reduceRoll,
+} from './rules.js';
+export type {
+  LotStatus,
+  RollHead,
+  OpinionRecord,
+  OpenOffer,
+  ChildLink,
+  RollState,
+  TransitionDraft,
+  TransitionResult,
+  ActorRule,
+  TransitionRule,
+  ReducibleEntry,
+} from './rules.js';
+export { RollVerifier, createRollVerifier, verifyRoll } from './verify.js';
+export type {
+  VerifyFailure,
+  VerifySuccess,
+  RollVerification,
+  VerifiedEntry,
+  RollVerificationWithEntries,
+} from './verify.js';
+export {
+  EMPTY_TREE_HASH,
+  merkleLeafHash,
+  merkleNodeHash,
+  merkleRoot,
+  inclusionProof,
+  consistencyProof,
+  verifyInclusion,
+  verifyConsistency,
+} from './merkle.js';
+export {
+  BUNDLE_FORMAT,
+  BUNDLE_VERSION,
+  DEFAULT_MAX_BUNDLE_BYTES,
+  parseBundle,
+  parseBundleText,
+  verifyBundle,
+  createBundle,
+} from './bundle.js';
+export type { BundleEntry, BundleRoll, Bundle, BundleRollResult, BundleVerification } from './bundle.js';

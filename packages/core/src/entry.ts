@@ -1,0 +1,247 @@
+import { bytesToHex } from '@noble/hashes/utils.js';
+import { canonicalise, parseCanonical } from './canonical.js';
+import { CanonicalError, ValidationError, type FieldIssue } from './errors.js';
+import { bodyDigest, entryHash } from './hash.js';
+import { isCanonicalLotCode } from './lotcode.js';
+import { secureRandom, type RandomSource } from './random.js';
+import type { RollHead } from './rules.js';
+import { sealFields, type SealedSet } from './sealed.js';
+import {
+  ENTRY_KINDS,
+  FORMAT_VERSION,
+  GENESIS_PREV,
+  type AnyBody,
+  type BodyFields,
+  type EntryHeader,
+  type EntryKind,
+  type ParentRef,
+  type SealedValues,
+} from './types.js';
+import { bodyIssues, isActorId, isEntryTime, isHex64 } from './validate.js';
+
+/** An entry as stored and exported: the exact canonical strings and the claimed entry hash. */
+export interface StoredEntry {
+  hash: string;
+  header: string;
+  /** The canonical body string, or null when it was redacted (or withheld from a link-only roll). */
+  body: string | null;
+}
+
+/** What a caller supplies to append an entry. The nonce, salts, seq, prev and digests are added. */
+export interface EntryDraft<K extends EntryKind = EntryKind> {
+  /** Required for seq 0 (no head); otherwise must equal the head's lot when given. */
+  lot?: string;
+  kind: K;
+  time: string;
+  actor: string;
+  body: BodyFields<K>;
+  parents?: ParentRef[];
+  sealed?: SealedValues;
+}
+
+/** A built entry: what to store (strings, hash) and the decoded parts. */
+export interface BuiltEntry {
+  stored: StoredEntry;
+  header: EntryHeader;
+  body: AnyBody;
+  /** Sealed fields with their salts (keep private), or null. */
+  sealed: SealedSet | null;
+}
+
+/** Every key a header may have. */
+export const HEADER_KEYS = [
+  'v',
+  'lot',
+  'seq',
+  'kind',
+  'time',
+  'actor',
+  'prev',
+  'parents',
+  'body',
+  'sealed',
+] as const;
+
+/** Kinds whose bodies can never be redacted, so a missing one always breaks the roll. */
+export const NEVER_REDACTED: readonly EntryKind[] = ['registered', 'split', 'combined', 'redacted'];
+
+function parentIssues(parents: unknown, path: string): FieldIssue[] {
+  if (!Array.isArray(parents) || parents.length === 0) return [{ path, message: 'must be a non-empty list' }];
+  const out: FieldIssue[] = [];
+  parents.forEach((p, i) => {
+    const o = p as Record<string, unknown>;
+    const keys = p && typeof p === 'object' && !Array.isArray(p) ? Object.keys(o).sort().join(',') : '';
+    if (
+      keys !== 'hash,lot,seq' ||
+      !isCanonicalLotCode(o.lot) ||
+      !Number.isSafeInteger(o.seq) ||
+      (o.seq as number) < 0 ||
+      !isHex64(o.hash)
+    ) {
+      out.push({ path: `${path}[${i}]`, message: 'must be {lot, seq, hash} naming an entry of another lot' });
+    }
+  });
+  return out;
+}
+
+/**
+ * Builds the next entry of a roll. `head` is the newest entry (null for a new roll, whose
+ * `draft.lot` must then be a canonical lot code). Draws a 128-bit body nonce and then one
+ * 128-bit salt per sealed field (in field-name order) from `random`. Preconditions: the caller
+ * has checked the transition (`checkTransition`). Throws {@link ValidationError} listing every
+ * bad field (time not after the head's, unknown body fields, bad sealed values, ...).
+ */
+export function buildEntry<K extends EntryKind>(
+  head: RollHead | null,
+  draft: EntryDraft<K>,
+  options: { random?: RandomSource } = {},
+): BuiltEntry {
+  const random = options.random ?? secureRandom;
+  const issues: FieldIssue[] = [];
+  const lot = head ? head.lot : draft.lot;
+  if (!isCanonicalLotCode(lot)) issues.push({ path: 'lot', message: 'must be a canonical lot code' });
+  if (head && draft.lot !== undefined && draft.lot !== head.lot)
+    issues.push({ path: 'lot', message: 'differs from the roll' });
+  if (!ENTRY_KINDS.includes(draft.kind)) issues.push({ path: 'kind', message: 'is not a known kind' });
+  if (!isEntryTime(draft.time)) issues.push({ path: 'time', message: 'must be YYYY-MM-DDTHH:MM:SS.sssZ' });
+  else if (head && draft.time < head.time)
+    issues.push({ path: 'time', message: 'must not be earlier than the previous entry' });
+  if (!isActorId(draft.actor)) issues.push({ path: 'actor', message: 'must be an account id' });
+  if (draft.parents !== undefined) issues.push(...parentIssues(draft.parents, 'parents'));
+  if (issues.length > 0) throw new ValidationError(issues, 'bad-draft');
+
+  const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
+  const bIssues = bodyIssues(draft.kind, body);
+  if (bIssues.length > 0)
+    throw new ValidationError(
+      bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })),
+      'bad-body',
+    );
+  let bodyText: string;
+  try {
+    bodyText = canonicalise(body);
+  } catch (e) {
+    throw new ValidationError([{ path: 'body', message: (e as CanonicalError).message }], 'bad-body');
+  }
+  const sealed =
+    draft.sealed && Object.keys(draft.sealed).length > 0 ? sealFields(draft.sealed, random) : null;
+  const header: EntryHeader = {
+    v: FORMAT_VERSION,
+    lot: lot as string,
+    seq: head ? head.seq + 1 : 0,
+    kind: draft.kind,
+    time: draft.time,
+    actor: draft.actor,
+    prev: head ? head.hash : GENESIS_PREV,
+    ...(draft.parents ? { parents: draft.parents } : {}),
+    body: bodyDigest(bodyText),
+    ...(sealed ? { sealed: sealed.root } : {}),
+  };
+  const headerText = canonicalise(header);
+  return {
+    stored: { hash: entryHash(headerText), header: headerText, body: bodyText },
+    header,
+    body,
+    sealed,
+  };
+}
+
+/** The head of a built or verified entry, for building the next one. */
+export function headOf(entry: { stored: StoredEntry; header: EntryHeader }): RollHead {
+  return { lot: entry.header.lot, seq: entry.header.seq, hash: entry.stored.hash, time: entry.header.time };
+}
+
+/** Reason codes a verifier reports for the first failing entry. */
+export type ReasonCode =
+  | 'bad-prev'
+  | 'bad-hash'
+  | 'bad-body-digest'
+  | 'missing-body'
+  | 'bad-seq'
+  | 'bad-time'
+  | 'bad-parent'
+  | 'bad-actor'
+  | 'bad-transition'
+  | 'non-canonical'
+  | 'unknown-version'
+  | 'bad-header'
+  | 'bad-body';
+
+/** Every reason code, in the order the checks run. */
+export const REASON_CODES: readonly ReasonCode[] = [
+  'non-canonical',
+  'unknown-version',
+  'bad-header',
+  'bad-seq',
+  'bad-time',
+  'bad-actor',
+  'bad-prev',
+  'bad-body-digest',
+  'bad-parent',
+  'bad-hash',
+  'missing-body',
+  'bad-body',
+  'bad-transition',
+];
+
+/** A header that failed to decode: the reason and a message. */
+export interface HeaderProblem {
+  reason: ReasonCode;
+  message: string;
+}
+
+/**
+ * Decodes a stored header string: canonical form, then version, then field types. Never
+ * throws; returns the header or the first problem (`non-canonical`, `unknown-version`,
+ * `bad-header`, `bad-seq`, `bad-time`, `bad-actor`, `bad-prev`, `bad-body-digest`, `bad-parent`).
+ */
+export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
+  let v: unknown;
+  try {
+    if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
+    v = parseCanonical(text);
+  } catch (e) {
+    return { reason: 'non-canonical', message: `header: ${(e as Error).message}` };
+  }
+  if (v === null || typeof v !== 'object' || Array.isArray(v))
+    return { reason: 'bad-header', message: 'the header is not an object' };
+  const o = v as Record<string, unknown>;
+  if (o.v !== FORMAT_VERSION)
+    return { reason: 'unknown-version', message: `format version ${JSON.stringify(o.v)} is not 1` };
+  for (const k of Object.keys(o)) {
+    if (!(HEADER_KEYS as readonly string[]).includes(k))
+      return { reason: 'bad-header', message: `unknown header field ${k}` };
+  }
+  if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
+    return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
+  if (typeof o.kind !== 'string' || !(ENTRY_KINDS as readonly string[]).includes(o.kind)) {
+    return { reason: 'bad-header', message: 'kind is not a known kind' };
+  }
+  if (!Number.isSafeInteger(o.seq) || (o.seq as number) < 0)
+    return { reason: 'bad-seq', message: 'seq is not a non-negative integer' };
+  if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };
+  if (!isActorId(o.actor)) return { reason: 'bad-actor', message: 'actor is not an account id' };
+  lastLot = o.lot as string;
+  if (!isHex64(o.prev)) return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
+  if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
+  if ('sealed' in o && !isHex64(o.sealed))
+    return { reason: 'bad-header', message: 'sealed is not 64 hex digits' };
+  if ('parents' in o) {
+    const issues = parentIssues(o.parents, 'parents');
+    if (issues.length > 0) return { reason: 'bad-parent', message: issues[0]!.message };
+  }
+  return o as unknown as EntryHeader;
+}
+
+// The lot code checked last: a roll repeats it in every header, so it is validated once.
+let lastLot: unknown = null;
+
+/** True when {@link decodeHeader} returned a problem rather than a header. */
+export function isHeaderProblem(x: EntryHeader | HeaderProblem): x is HeaderProblem {
+  return 'reason' in x && 'message' in x && !('v' in x);
+}
+
+/** Re-exported for callers that build headers by hand (tests, other tools). */
+export function encodeHeader(header: EntryHeader): string {
+  return canonicalise(header);
+}

@@ -1,0 +1,77 @@
+/**
+ * Base class of every error thrown by @beadroll/core. `code` is a stable, machine-readable
+ * string; `message` is for people. Callers branch on `code` (or on the subclass), never on text.
+ */
+export class LedgerError extends Error {
+  readonly code: string;
+  constructor(code: string, message: string) {
+    super(message);
+    this.name = new.target.name;
+    this.code = code;
+  }
+}
+
+/** Codes of {@link CanonicalError}. */
+export type CanonicalErrorCode = 'not-json' | 'non-canonical' | 'unsafe-number' | 'unsupported-value';
+
+/**
+ * Thrown when a value cannot be written as ledger canonical JSON, or a string is not the
+ * canonical form of its own parse.
+ */
+export class CanonicalError extends LedgerError {
+  declare readonly code: CanonicalErrorCode;
+  constructor(code: CanonicalErrorCode, message: string) {
+    super(code, message);
+  }
+}
+
+/** One problem found in an input object: a dotted path (`description.count.value`) and why. */
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+/**
+ * Thrown when an entry draft, a body or a sealed field does not have the shape its kind
+ * requires. `issues` names every offending field, so an API can answer 400 with all of them.
+ */
+export class ValidationError extends LedgerError {
+  readonly issues: FieldIssue[];
+  constructor(issues: FieldIssue[], code = 'invalid') {
+    super(code, issues.map((i) => `${i.path || '(root)'}: ${i.message}`).join('; '));
+    this.issues = issues;
+  }
+}
+
+/** Codes of {@link LotCodeError}. */
+export type LotCodeErrorCode = 'bad-length' | 'bad-symbol' | 'bad-check';
+
+/** Thrown by lot-code parsing when the text is not a well-formed code with a matching check symbol. */
+export class LotCodeError extends LedgerError {
+  declare readonly code: LotCodeErrorCode;
+  constructor(code: LotCodeErrorCode, message: string) {
+    super(code, message);
+  }
+}
+
+/** Codes of {@link MerkleError}. */
+export type MerkleErrorCode = 'bad-size' | 'bad-index' | 'bad-proof' | 'bad-hash';
+
+/** Thrown by Merkle functions for sizes or indices out of range and malformed proofs. */
+export class MerkleError extends LedgerError {
+  declare readonly code: MerkleErrorCode;
+  constructor(code: MerkleErrorCode, message: string) {
+    super(code, message);
+  }
+}
+
+/** Codes of {@link BundleError}. */
+export type BundleErrorCode = 'not-json' | 'not-a-bundle' | 'unknown-version' | 'too-large';
+
+/** Thrown when a document is not a readable export bundle at all (as opposed to a broken roll). */
+export class BundleError extends LedgerError {
+  declare readonly code: BundleErrorCode;
+  constructor(code: BundleErrorCode, message: string) {
+    super(code, message);
+  }
+}

@@ -1,0 +1,78 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync, execSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('../../../', import.meta.url));
+const cli = join(root, 'tools/verify.mjs');
+const example = readFileSync(join(root, 'docs/examples/bundle.json'), 'utf8');
+let dir = '';
+
+function run(...args: string[]): { code: number | null; out: string } {
+  const r = spawnSync(process.execPath, [cli, ...args], { encoding: 'utf8', cwd: root });
+  return { code: r.status, out: r.stdout + r.stderr };
+}
+function file(name: string, text: string): string {
+  const p = join(dir, name);
+  writeFileSync(p, text);
+  return p;
+}
+
+describe('npm run verify', () => {
+  beforeAll(() => {
+    execSync('npm run build -w @beadroll/core', { cwd: root, stdio: 'ignore' });
+    dir = mkdtempSync(join(tmpdir(), 'beadroll-verify-'));
+  }, 60_000);
+
+  it('exits 0 on an intact bundle', () => {
+    const r = run(file('ok.json', example));
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('6 lots, 17 entries');
+    expect(r.out).toContain('verified');
+  });
+  it('exits 1 on a broken roll and names the lot and seq', () => {
+    const b = JSON.parse(example);
+    b.rolls[1].entries[3].body = b.rolls[1].entries[3].body.replace('high', 'low');
+    const r = run(file('broken.json', JSON.stringify(b)));
+    expect(r.code).toBe(1);
+    expect(r.out).toMatch(/broken: lot [0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z] seq 3 \(bad-body-digest\)/);
+    expect(r.out).not.toMatch(/^verified/m);
+  });
+  const unreadable: Array<[string, string]> = [
+    ['malformed JSON', '{"format":'],
+    ['wrong types', JSON.stringify({ format: 'beadroll-bundle', version: 1, rolls: 'x', checkpoints: [] })],
+    [
+      'unknown version',
+      JSON.stringify({ format: 'beadroll-bundle', version: 7, rolls: [], checkpoints: [] }),
+    ],
+    ['not a bundle', '[1,2,3]'],
+  ];
+  for (const [desc, text] of unreadable) {
+    it(`exits 2 on ${desc}`, () => {
+      const r = run(file(desc.replace(/ /g, '-') + '.json', text));
+      expect(r.code).toBe(2);
+      expect(r.out).not.toMatch(/^verified/m);
+    });
+  }
+  it('exits 1, not 0, on unsafe integers and non-canonical headers inside a bundle', () => {
+    const b = JSON.parse(example);
+    b.rolls[0].entries[0].header = b.rolls[0].entries[0].header.replace('"seq":0', '"seq":9007199254740993');
+    expect(run(file('unsafe.json', JSON.stringify(b))).code).toBe(1);
+    const c = JSON.parse(example);
+    c.rolls[0].entries[0].header = ' ' + c.rolls[0].entries[0].header;
+    const r = run(file('noncanon.json', JSON.stringify(c)));
+    expect(r.code).toBe(1);
+    expect(r.out).toContain('non-canonical');
+  });
+  it('exits 2 on a file over the size limit (checked before reading), a missing file, or no argument', () => {
+    const p = file('big.json', example);
+    const r = run(p, '--max-bytes', '100');
+    expect(r.code).toBe(2);
+    expect(r.out).toContain('over the limit');
+    expect(run(join(dir, 'nope.json')).code).toBe(2);
+    expect(run().code).toBe(2);
+    expect(run(dir).code).toBe(2);
+  });
+});

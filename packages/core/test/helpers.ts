@@ -1,0 +1,156 @@
+import {
+  buildEntry,
+  checkTransition,
+  headOf,
+  reduceEntry,
+  seededRandom,
+  type BodyFields,
+  type BuiltEntry,
+  type EntryKind,
+  type LotDescription,
+  type RandomSource,
+  type RollState,
+  type SealedValues,
+  type StoredEntry,
+} from '../src/index.js';
+
+export const HOLDER = 'acct-h01';
+export const OTHER = 'acct-o02';
+export const THIRD = 'acct-t03';
+export const LOT = '7K2QM9XAT';
+
+export function description(over: Partial<LotDescription> = {}): LotDescription {
+  return {
+    title: 'Test strand',
+    form: 'strand',
+    count: { value: 60, estimated: false },
+    colours: ['blue'],
+    baseGlass: ['opaque'],
+    decoration: [],
+    listed: true,
+    ...over,
+  };
+}
+
+/** Builds rolls entry by entry, checking each step with the rules like the server does. */
+export class RollBuilder {
+  stored: StoredEntry[] = [];
+  built: BuiltEntry[] = [];
+  state: RollState | null = null;
+  private minute = 0;
+  constructor(
+    readonly lot = LOT,
+    readonly random: RandomSource = seededRandom('roll ' + lot),
+  ) {}
+
+  time(): string {
+    const t = new Date(Date.UTC(2025, 0, 1) + this.minute++ * 60_000);
+    return t.toISOString();
+  }
+
+  /** Appends if the rules allow; returns the built entry or the refusal. */
+  tryAdd<K extends EntryKind>(
+    kind: K,
+    actor: string,
+    body: BodyFields<K>,
+    extra: {
+      sealed?: SealedValues;
+      parents?: { lot: string; seq: number; hash: string }[];
+      unchecked?: boolean;
+    } = {},
+  ): BuiltEntry | { refused: string } {
+    if (!extra.unchecked) {
+      const t = checkTransition(this.state, { kind, actor, body, parents: extra.parents });
+      if (!t.ok) return { refused: t.code };
+    }
+    const head = this.built.length ? headOf(this.built.at(-1)!) : null;
+    const b = buildEntry(
+      head,
+      { lot: this.lot, kind, actor, time: this.time(), body, sealed: extra.sealed, parents: extra.parents },
+      { random: this.random },
+    );
+    this.built.push(b);
+    this.stored.push(b.stored);
+    if (!extra.unchecked)
+      this.state = reduceEntry(this.state, { header: b.header, hash: b.stored.hash, body: b.body });
+    return b;
+  }
+
+  add<K extends EntryKind>(
+    kind: K,
+    actor: string,
+    body: BodyFields<K>,
+    extra: Parameters<RollBuilder['tryAdd']>[3] = {},
+  ): BuiltEntry {
+    const r = this.tryAdd(kind, actor, body, extra);
+    if ('refused' in r) throw new Error(`${kind} by ${actor} refused: ${r.refused}`);
+    return r;
+  }
+
+  register(actor = HOLDER, over: Partial<LotDescription> = {}): this {
+    this.add('registered', actor, { description: description(over) });
+    return this;
+  }
+}
+
+export function opinion(
+  origin: string,
+  from: number,
+  to: number,
+  exhibits: string[] = [],
+): BodyFields<'opinion'> {
+  return {
+    origin: origin as BodyFields<'opinion'>['origin'],
+    period: { from, to, approximate: false },
+    technique: 'wound-lampwork',
+    qualifier: 'attributed-to',
+    confidence: 'medium',
+    rationale: 'test',
+    exhibits,
+  };
+}
+
+/** A generated, valid roll driven by a list of choices (for property tests). */
+export function generatedRoll(choices: number[], seed = 'gen'): RollBuilder {
+  const r = new RollBuilder(LOT, seededRandom(seed)).register();
+  const actors = [HOLDER, OTHER, THIRD];
+  for (const c of choices) {
+    const s = r.state!;
+    const actor = actors[c % 3]!;
+    const holder = s.holder;
+    const step = Math.floor(c / 3) % 10;
+    const attempts: Array<() => BuiltEntry | { refused: string }> = [
+      () => r.tryAdd('observed', holder, { observations: { hole: 'clean', note: `n${c}` } }),
+      () =>
+        r.tryAdd(
+          'opinion',
+          actor,
+          opinion(c % 2 ? 'venice-murano' : 'bohemia-czech', 1800 + (c % 100), 1900 + (c % 100)),
+        ),
+      () => r.tryAdd('note', actor, { text: `note ${c}` }),
+      () =>
+        r.tryAdd('transfer-offered', holder, { recipient: actor === holder ? actors[(c + 1) % 3]! : actor }),
+      () =>
+        s.openOffer
+          ? r.tryAdd('transfer-accepted', s.openOffer.recipient!, { offerSeq: s.openOffer.seq })
+          : { refused: 'none' },
+      () =>
+        s.openOffer
+          ? r.tryAdd('transfer-declined', s.openOffer.recipient!, { offerSeq: s.openOffer.seq })
+          : { refused: 'none' },
+      () =>
+        s.openOffer
+          ? r.tryAdd('transfer-withdrawn', s.openOffer.offerer, { offerSeq: s.openOffer.seq })
+          : { refused: 'none' },
+      () =>
+        r.tryAdd('described', holder, { description: description({ title: `t${c}`, listed: c % 5 !== 0 }) }),
+      () => r.tryAdd('exhibit-added', holder, { sealedOnly: true }, { sealed: { 'private-note': `p${c}` } }),
+      () =>
+        s.opinions[0]
+          ? r.tryAdd('opinion-withdrawn', s.opinions[0].author, { opinionSeq: s.opinions[0].seq })
+          : { refused: 'none' },
+    ];
+    attempts[step]!();
+  }
+  return r;
+}

@@ -1,0 +1,115 @@
+// Benchmark: verify a generated 100,000-entry roll with the incremental verifier, against a
+// baseline that only hashes the same canonical bytes with node:crypto, in the same run.
+// Usage: npm run build -w @beadroll/core && npm run bench:verify [-- ENTRIES]
+import { createHash } from 'node:crypto';
+import { TextEncoder } from 'node:util';
+import { buildEntry, createRollVerifier, DOMAIN, headOf, seededRandom } from '@beadroll/core';
+
+const N = Number(process.argv[2] ?? 100_000);
+const random = seededRandom('bench');
+const lot = '7K2QM9XAT';
+const holder = 'acct-bench-holder';
+const t0 = Date.UTC(2025, 0, 1);
+const time = (i) => new Date(t0 + i * 1000).toISOString();
+
+console.log(`generating a roll of ${N} entries ...`);
+const entries = [];
+let head = null;
+for (let i = 0; i < N; i++) {
+  let draft;
+  if (i === 0) {
+    draft = {
+      lot,
+      kind: 'registered',
+      body: {
+        description: {
+          title: 'Benchmark lot',
+          form: 'loose',
+          count: { value: 500, estimated: true },
+          colours: ['amber'],
+          baseGlass: ['transparent'],
+          decoration: [],
+          listed: true,
+        },
+      },
+    };
+  } else if (i % 3 === 0) {
+    draft = {
+      kind: 'observed',
+      body: { observations: { hole: 'clean', surface: 'glossy', note: `look ${i}` } },
+    };
+  } else {
+    draft = { kind: 'note', body: { text: `Entry number ${i} of the benchmark roll.` } };
+  }
+  const b = buildEntry(head, { ...draft, time: time(i), actor: holder }, { random });
+  head = headOf(b);
+  entries.push(b.stored);
+}
+
+function baseline() {
+  const enc = new TextEncoder();
+  const entryTag = enc.encode(DOMAIN.entry + '\0');
+  const bodyTag = enc.encode(DOMAIN.body + '\0');
+  let x = 0;
+  for (const e of entries) {
+    const h = createHash('sha256').update(entryTag).update(e.header).digest('hex');
+    const b = createHash('sha256').update(bodyTag).update(e.body).digest('hex');
+    x ^= h.charCodeAt(0) ^ b.charCodeAt(0);
+  }
+  return x;
+}
+
+function ours() {
+  const v = createRollVerifier(lot);
+  for (const e of entries) {
+    const f = v.push(e);
+    if (f) throw new Error(`unexpected failure at ${f.seq}: ${f.reason}`);
+  }
+  const r = v.finish();
+  if (!r.ok) throw new Error('roll did not verify');
+  return r.entries;
+}
+
+function timed(fn) {
+  const start = process.hrtime.bigint();
+  fn();
+  return Number(process.hrtime.bigint() - start) / 1e9;
+}
+
+// One warm-up pass each, then the measured pass.
+baseline();
+ours();
+globalThis.gc?.();
+const heapBefore = process.memoryUsage().heapUsed;
+let heapPeak = heapBefore;
+const sampler = setInterval(() => {}, 1000);
+const tOurs = timed(() => {
+  const v = createRollVerifier(lot);
+  let i = 0;
+  for (const e of entries) {
+    if (v.push(e)) throw new Error('broken');
+    if (++i % 10_000 === 0) heapPeak = Math.max(heapPeak, process.memoryUsage().heapUsed);
+  }
+  if (!v.finish().ok) throw new Error('broken');
+});
+clearInterval(sampler);
+const tBase = timed(baseline);
+
+const oursRate = N / tOurs;
+const baseRate = N / tBase;
+const ratio = oursRate / baseRate;
+const mb = (x) => (x / 1024 / 1024).toFixed(1);
+console.log(`entries:                ${N}`);
+console.log(
+  `ours (incremental):     ${Math.round(oursRate).toLocaleString('en')} entries/s  (${tOurs.toFixed(2)} s)`,
+);
+console.log(
+  `baseline (node:crypto): ${Math.round(baseRate).toLocaleString('en')} entries/s  (${tBase.toFixed(2)} s)`,
+);
+console.log(
+  `ratio ours/baseline:    ${ratio.toFixed(2)}  (target >= 0.3) ${ratio >= 0.3 ? 'met' : 'NOT met'}`,
+);
+console.log(`heap growth while verifying (sampled): ${mb(heapPeak - heapBefore)} MB`);
+console.log(
+  `peak RSS of the process (incl. the generated roll): ${mb(process.resourceUsage().maxRSS * 1024)} MB`,
+);
