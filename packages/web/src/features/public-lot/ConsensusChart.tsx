@@ -31,7 +31,7 @@ export function yearAxis(opinions: { body: OpinionBody }[]): { from: number; to:
 }
 
 const W = 360;
-const LABEL_H = 18;
+const LABEL_H = 20;
 const BAR_H = 14;
 const GAP = 6;
 const PAD_X = 12;
@@ -47,7 +47,7 @@ export function ConsensusChart({
   opinions: ChartOpinion[];
   nameOf: (actor: string) => string;
 }) {
-  const id = useId();
+  const id = `pl-chart-${useId().replace(/[^a-zA-Z0-9_-]/g, '')}`;
   if (opinions.length === 0) return null;
   const axis = yearAxis(opinions);
   const groups = new Map<Origin, ChartOpinion[]>();
@@ -57,7 +57,7 @@ export function ConsensusChart({
   const rows: ReactNode[] = [];
   for (const [origin, list] of groups) {
     rows.push(
-      <text key={`g-${origin}`} x={PAD_X} y={yPos + 13} className="pl-chart-group">
+      <text key={`g-${origin}`} x={PAD_X} y={yPos + 14} className="pl-chart-group">
         {ORIGIN_WORDS[origin]} ({list.length})
       </text>,
     );
@@ -73,7 +73,7 @@ export function ConsensusChart({
           <title>{`${roleWords(o.role)} by ${nameOf(o.author)}: ${ORIGIN_WORDS[o.body.origin]}, ${periodWords(o.body.period)}`}</title>
           <rect x={x0} y={yPos} width={w} height={BAR_H} rx={3} />
           {o.role === 'dissent' && (
-            <rect x={x0} y={yPos} width={w} height={BAR_H} rx={3} fill={`url(#${id}-stripe)`} />
+            <rect x={x0} y={yPos} width={w} height={BAR_H} rx={3} style={{ fill: `url(#${id}-stripe)` }} />
           )}
         </g>,
       );

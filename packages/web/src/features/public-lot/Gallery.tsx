@@ -1,5 +1,6 @@
 import {
   sha256HexOfBytes,
+  uvCaution,
   type ExhibitAddedBody,
   type ExhibitFile,
   type ExhibitRef,
@@ -103,10 +104,9 @@ function ExhibitFigure({
           {EXHIBIT_WORDS[exhibit.kind]} · added by {nameOf(cards, item.actor)} · {dateWords(item.time)} ·
           entry {item.seq}
         </span>
-        {exhibit.kind === 'uv-photo' && (
+        {exhibit.kind === 'uv-a' && (
           <span className="pl-caution">
-            Taken under a UV lamp. If you look at beads under one yourself, shield your eyes and skin from the
-            light and follow the lamp maker’s instructions.
+            Taken under UV-A light. If you test beads this way: {uvCaution().text}
           </span>
         )}
       </figcaption>

@@ -72,6 +72,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
         <div className="pl-side">
           <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
+          {check?.ok && <LotFacts state={check.state} />}
         </div>
         {q.isError && (
           <div className="pl-card pl-error" role="alert">
@@ -84,7 +85,6 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
         {check?.ok && (
           <div className="pl-lead">
             <Gallery code={code} exhibits={exhibitsOf(check.entries)} cards={cards} />
-            <LotFacts state={check.state} />
           </div>
         )}
       </div>
@@ -123,9 +123,7 @@ function Body({
             />
           )}
         </div>
-        <div className="pl-col">
-          <VerifyYourself code={check.code} head={null} />
-        </div>
+        <VerifyYourself code={check.code} head={null} />
       </div>
     );
   }
@@ -134,11 +132,11 @@ function Body({
       <div className="pl-col">
         <Opinions state={check.state} cards={cards} />
         <Ancestry state={check.state} ancestors={check.ancestors} />
-        <VerifyYourself code={check.code} head={check.state.head} />
       </div>
       <div className="pl-col">
         <Timeline items={items} tagSeq={tagSeq} />
       </div>
+      <VerifyYourself code={check.code} head={check.state.head} />
     </div>
   );
 }

@@ -17,7 +17,10 @@ export function StatusPanel({
   const fromAddress = check && tagRef ? checkTag(check.entries, tagRef) : null;
   const tag = fromAddress ?? typed?.result ?? null;
   return (
-    <section className="pl-card pl-status" aria-labelledby="pl-status-h">
+    <section
+      className={`pl-card pl-status${check && !check.ok ? ' pl-status-broken' : ''}`}
+      aria-labelledby="pl-status-h"
+    >
       <h2 id="pl-status-h" className="pl-visually-hidden">
         Verification
       </h2>
@@ -70,7 +73,8 @@ function HistoryLine({ check }: { check: LotCheck }) {
         {where}
       </p>
       <p className="pl-status-sub">
-        Reason code <code>{f.reason}</code>. This page shows no part of a broken history as verified.
+        Reason code <code>{f.reason}</code>. Nothing from the break on is shown; the entries before it are
+        listed as served.
       </p>
     </>
   );

@@ -78,7 +78,7 @@ export function lotWithPhoto(): PublicLotResponse {
     actor: DEALER_A,
     body: {
       exhibit: {
-        kind: 'photo',
+        kind: 'whole-lot',
         original: { sha256: core.sha256HexOfText('invented original'), size: 90000, mediaType: 'image/jpeg' },
         derivatives: [
           { role: 'web', sha256: ABC_SHA256, size: 3, mediaType: 'image/webp', width: 4, height: 3 },

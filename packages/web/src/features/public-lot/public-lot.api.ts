@@ -7,9 +7,9 @@ export interface DealerCard {
   id: string;
   handle: string;
   displayName: string;
-  business: string;
-  town: string;
-  country: string;
+  business: string | null;
+  town: string | null;
+  country: string | null;
   verifiedSince: string | null;
   status: 'verified' | 'suspended' | 'former';
 }

@@ -85,10 +85,12 @@ export const STATUS_WORDS: Record<LotStatus, string> = {
 };
 
 export const EXHIBIT_WORDS: Record<ExhibitKind, string> = {
-  photo: 'photo',
-  'uv-photo': 'photo under UV light',
-  scan: 'scan',
-  document: 'document',
+  'whole-lot': 'photo of the whole lot',
+  'close-up': 'close-up',
+  hole: 'photo of a bead hole',
+  'uv-a': 'photo under UV-A light',
+  'reference-page': 'reference page',
+  receipt: 'receipt',
   other: 'file',
 };
 
