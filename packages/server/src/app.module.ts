@@ -8,6 +8,8 @@ import { ErrorFilter } from './common/error.filter';
 import { RequestIdMiddleware } from './common/request-id.middleware';
 import { dataSourceOptions } from './database/data-source';
 import { HealthModule } from './health/health.module';
+import { MailModule } from './mail/mail.module';
+import { AccountsModule } from './accounts/accounts.module';
 
 @Module({
   imports: [
@@ -17,7 +19,9 @@ import { HealthModule } from './health/health.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     HealthModule,
+    MailModule,
     AuthModule,
+    AccountsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })
