@@ -6,7 +6,10 @@ import { APP_CONFIG, AppConfigModule } from './config/config.module';
 import { ErrorFilter } from './common/error.filter';
 import { RequestIdMiddleware } from './common/request-id.middleware';
 import { dataSourceOptions } from './database/data-source';
+import { AuditModule } from './audit/audit.module';
 import { HealthModule } from './health/health.module';
+import { LedgerModule } from './ledger/ledger.module';
+import { LotsModule } from './lots/lots.module';
 
 @Module({
   imports: [
@@ -16,6 +19,9 @@ import { HealthModule } from './health/health.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     HealthModule,
+    LedgerModule,
+    LotsModule,
+    AuditModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

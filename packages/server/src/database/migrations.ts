@@ -1,4 +1,5 @@
 import type { MigrationInterface } from 'typeorm';
+import { CreateLedger1796157689568 } from '../migrations/1796157689568-CreateLedger';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
-export const MIGRATIONS: Array<new () => MigrationInterface> = [];
+export const MIGRATIONS: Array<new () => MigrationInterface> = [CreateLedger1796157689568];
