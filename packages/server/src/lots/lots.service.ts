@@ -71,7 +71,8 @@ function plain<T>(dto: unknown): T {
   return JSON.parse(JSON.stringify(dto)) as T;
 }
 
-function sealedValues(dto: SealedDetailsDto | undefined): SealedValues | undefined {
+/** Sealed details of a request as core's sealed field values. */
+export function sealedValuesOf(dto: SealedDetailsDto | undefined): SealedValues | undefined {
   if (!dto) return undefined;
   const out: SealedValues = {};
   if (dto.storageLocation !== undefined) out['storage-location'] = dto.storageLocation;
@@ -122,7 +123,7 @@ export class LotsService {
         {
           actor: actor.id,
           description: plain<LotDescription>(dto.description),
-          sealed: sealedValues(dto.sealed),
+          sealed: sealedValuesOf(dto.sealed),
         },
         { fields: FIELD_NAMES },
       );
@@ -147,7 +148,7 @@ export class LotsService {
         kind: 'described',
         actor: actor.id,
         body: { description: plain<LotDescription>(dto.description) },
-        sealed: sealedValues(dto.sealed),
+        sealed: sealedValuesOf(dto.sealed),
       },
       { fields: FIELD_NAMES },
     );
