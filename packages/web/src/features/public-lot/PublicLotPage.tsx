@@ -82,7 +82,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
             </button>
           </div>
         )}
-        {check?.ok && (
+        {check?.ok && exhibitsOf(check.entries).length > 0 && (
           <div className="pl-lead">
             <Gallery code={code} exhibits={exhibitsOf(check.entries)} cards={cards} />
           </div>

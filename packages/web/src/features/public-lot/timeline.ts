@@ -35,7 +35,7 @@ export function nameOf(cards: Record<string, DealerCard>, actor: string | null |
   const c = cards[actor];
   if (c)
     return c.business && c.business !== c.displayName ? `${c.displayName} (${c.business})` : c.displayName;
-  return 'an account not on the dealer register';
+  return 'an account without a registry card';
 }
 
 export interface LotLink {
