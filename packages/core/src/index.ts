@@ -114,3 +114,14 @@ export {
   createBundle,
 } from './bundle.js';
 export type { BundleEntry, BundleRoll, Bundle, BundleRollResult, BundleVerification } from './bundle.js';
+export { attributionAid, uvCaution } from './aid.js';
+export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
+export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES } from './aid-rules.js';
+export type {
+  AidSource,
+  AidCondition,
+  CautionRule,
+  IndicationRule,
+  PeriodRule,
+  SourceStanding,
+} from './aid-rules.js';
