@@ -164,7 +164,7 @@ describe('ExhibitGallery', () => {
     const user = userEvent.setup();
     renderWith(<ExhibitGallery exhibits={[exhibit(3)]} />);
     await user.click(screen.getByRole('button', { name: /Open exhibit 3/ }));
-    const dialog = await screen.findByRole('dialog');
+    const dialog = await screen.findByRole('dialog', {}, { timeout: 5000 });
     expect(within(dialog).getByText('Kind: Hole · entry 3')).toBeInTheDocument();
     expect(within(dialog).getByText(`SHA-256 of the original: ${ABC_SHA256}`)).toBeInTheDocument();
     await waitFor(() => expect(within(dialog).getByRole('img')).toHaveAttribute('data-verified', 'true'));
