@@ -4,17 +4,22 @@ import { useState } from 'react';
 import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router-dom';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
+import { ScannerPage } from '../features/scanner/ScannerPage';
 import { createQueryClient } from '../lib/query-client';
 import { Shell, type NavItem } from './Shell';
 import { beadrollTheme } from './theme';
 
-const NAV: NavItem[] = [{ to: '/', label: 'Start' }];
+const NAV: NavItem[] = [
+  { to: '/', label: 'Start' },
+  { to: '/scan', label: 'Scan a tag' },
+];
 
 export const routes: RouteObject[] = [
   {
     element: <Shell nav={NAV} />,
     children: [
       { index: true, element: <HomePage /> },
+      { path: 'scan', element: <ScannerPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },

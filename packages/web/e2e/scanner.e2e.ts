@@ -1,0 +1,63 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { tagPayload } from '@beadroll/core';
+import { writeTagVideo } from './support/fake-camera';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+// An invented lot on an invented host: nobody signed in holds it, so the scanner must send the
+// reader to its public page with the tag reference, where the tag is checked.
+const CODE = '7K2QM9XAT';
+const REF = 'ABCDEFGHJK';
+
+describe('the fair scanner with a fake camera in Chromium', () => {
+  const baseUrl = inject('baseUrl');
+  let dir: string;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
+    const video = join(dir, 'tag.y4m');
+    await writeTagVideo(video, tagPayload('fair.beads.example', CODE, REF));
+    browser = await openBrowser({
+      width: 420,
+      height: 860,
+      args: [
+        '--use-fake-device-for-media-stream',
+        '--use-fake-ui-for-media-stream',
+        `--use-file-for-fake-video-capture=${video}`,
+      ],
+    });
+  });
+  afterAll(async () => {
+    await browser?.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('reads a tag of a lot the reader does not hold and opens its public page with the tag reference', async () => {
+    const { page } = browser;
+    await page.goto(`${baseUrl}/scan`);
+    await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
+    await page.getByRole('button', { name: 'Start camera' }).click();
+    await page.waitForURL(`${baseUrl}/L/${CODE}/${REF}`, { timeout: 30_000 });
+    expect(new URL(page.url()).pathname).toBe(`/L/${CODE}/${REF}`);
+    await screenshot(page, 'scanner-public-page');
+  });
+
+  it('opens the public page for a typed code too', async () => {
+    const { page } = browser;
+    await page.goto(`${baseUrl}/scan`);
+    await page.getByLabel('Lot code from the tag').fill('7k2q-m9xa-t');
+    await page.getByRole('button', { name: 'Open' }).click();
+    await page.waitForURL(`${baseUrl}/l/${CODE}`);
+  });
+
+  it('says what is wrong with a mistyped code', async () => {
+    const { page } = browser;
+    await page.goto(`${baseUrl}/scan`);
+    await page.getByLabel('Lot code from the tag').fill('7K2Q-M9XA-V');
+    await page.getByRole('button', { name: 'Open' }).click();
+    await page.getByText(/Not a lot code/).waitFor();
+  });
+});
