@@ -77,7 +77,7 @@ export function buildExampleBundle(core) {
     },
   });
   const exA = {
-    kind: 'photo',
+    kind: 'whole-lot',
     original: {
       sha256: core.sha256HexOfText('invented photo bytes: strand on linen'),
       size: 2481332,
@@ -162,7 +162,7 @@ export function buildExampleBundle(core) {
     },
   });
   const exB = {
-    kind: 'uv-photo',
+    kind: 'uv-a',
     original: {
       sha256: core.sha256HexOfText('invented photo bytes: beads under UV-A'),
       size: 1934000,

@@ -131,3 +131,14 @@ export {
   tagQrVersion,
 } from './tag.js';
 export type { QrEcLevel, TagPayload } from './tag.js';
+export { attributionAid, uvCaution } from './aid.js';
+export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
+export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES } from './aid-rules.js';
+export type {
+  AidSource,
+  AidCondition,
+  CautionRule,
+  IndicationRule,
+  PeriodRule,
+  SourceStanding,
+} from './aid-rules.js';

@@ -124,7 +124,15 @@ export interface ExhibitDerivative extends ExhibitFile {
 }
 
 /** What an exhibit is. */
-export const EXHIBIT_KINDS = ['photo', 'uv-photo', 'scan', 'document', 'other'] as const;
+export const EXHIBIT_KINDS = [
+  'whole-lot',
+  'close-up',
+  'hole',
+  'uv-a',
+  'reference-page',
+  'receipt',
+  'other',
+] as const;
 export type ExhibitKind = (typeof EXHIBIT_KINDS)[number];
 
 /** A public exhibit; it is named by `original.sha256`. */

@@ -3,6 +3,7 @@ import { APP_FILTER } from '@nestjs/core';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG, AppConfigModule } from './config/config.module';
+import { AuthModule } from './auth/auth.module';
 import { ErrorFilter } from './common/error.filter';
 import { RequestIdMiddleware } from './common/request-id.middleware';
 import { dataSourceOptions } from './database/data-source';
@@ -16,6 +17,7 @@ import { HealthModule } from './health/health.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     HealthModule,
+    AuthModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

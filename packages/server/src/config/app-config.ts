@@ -26,6 +26,14 @@ export interface AppConfig {
   readonly jwtSecretFile: string;
   readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
   readonly throttle: { readonly limit: number; readonly ttlMs: number };
+  readonly session: {
+    /** Lifetime of the access-token cookie (a signed JWT). */
+    readonly accessTtlSeconds: number;
+    /** Lifetime of one refresh token; each use replaces it with a new one. */
+    readonly refreshTtlSeconds: number;
+    /** Cookies get the Secure flag when the public address is https. */
+    readonly secureCookies: boolean;
+  };
 }
 
 export class ConfigError extends Error {
@@ -94,10 +102,11 @@ export function loadConfig(env: Env = process.env): AppConfig {
   const host = str(env, 'HOST', '127.0.0.1');
   const dataDir = path(env, 'DATA_DIR', '.data');
   const demoMode = bool(env, 'DEMO_MODE', false);
+  const publicBaseUrl = url(env, 'PUBLIC_BASE_URL', `http://127.0.0.1:${port}`);
   return {
     port,
     host,
-    publicBaseUrl: url(env, 'PUBLIC_BASE_URL', `http://127.0.0.1:${port}`),
+    publicBaseUrl,
     dataDir,
     webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
     demoMode,
@@ -124,6 +133,11 @@ export function loadConfig(env: Env = process.env): AppConfig {
     throttle: {
       limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),
       ttlMs: int(env, 'THROTTLE_TTL_MS', 60_000, 1, 86_400_000),
+    },
+    session: {
+      accessTtlSeconds: int(env, 'ACCESS_TOKEN_TTL_SECONDS', 900, 1, 86_400),
+      refreshTtlSeconds: int(env, 'REFRESH_TOKEN_TTL_SECONDS', 30 * 86_400, 60, 365 * 86_400),
+      secureCookies: publicBaseUrl.startsWith('https:'),
     },
   };
 }

@@ -1,0 +1,317 @@
+import type { Decoration, Observations, Origin, Technique } from './types.js';
+
+/**
+ * How much weight a source carries on screen: museums, standards bodies, government pages and
+ * recognised scholars first; trade and hobby pages after; unsourced trade practice last.
+ */
+export type SourceStanding =
+  'museum' | 'standard' | 'scholar' | 'trade-page' | 'common-practice' | 'from-memory';
+
+/** Where a rule's fact comes from: a page title and address, or the plain words "common practice, no source". */
+export interface AidSource {
+  title: string;
+  url?: string;
+  standing: SourceStanding;
+}
+
+/** Conditions on the recorded clues and the lot's description; every listed condition must hold. */
+export interface AidCondition {
+  observations?: { [K in keyof Observations]?: NonNullable<Observations[K]>[] };
+  decoration?: Decoration[];
+  origin?: Origin[];
+  technique?: Technique[];
+}
+
+/** A clue that points towards an origin or a technique. */
+export interface IndicationRule {
+  id: string;
+  when: AidCondition;
+  points: { origins?: Origin[]; technique?: Technique };
+  weight: 1 | 2 | 3;
+  reason: string;
+  sources: AidSource[];
+}
+
+/** A material, decoration or method that did not exist before a year. */
+export interface PeriodRule {
+  id: string;
+  when: AidCondition;
+  notBefore: number;
+  message: string;
+  sources: AidSource[];
+}
+
+/** A safety note shown where a test or a kind of handling comes up. */
+export interface CautionRule {
+  id: string;
+  when: AidCondition | 'always-with-uv-test';
+  text: string;
+  sources: AidSource[];
+}
+
+const MARGARETOLOGIST: AidSource = {
+  title:
+    'The Venetian Bead Story, Part 2: The Beads (The Margaretologist, vol. 12 no. 1, 1999, Peter Francis Jr.)',
+  url: 'https://docslib.org/download/2320431/the-venetian-bead-margaretolo-story-part-2',
+  standing: 'scholar',
+};
+const CMOG_FANCY_BEAD: AidSource = {
+  title: 'bead (Fancy-type bead, object 70.3.269 D), Corning Museum of Glass',
+  url: 'https://glasscollection.cmog.org/objects/23558/bead',
+  standing: 'museum',
+};
+const MUSEO_DEL_VETRO: AidSource = {
+  title: 'Venetian beads, Museo del Vetro, Murano',
+  url: 'https://museovetro.visitmuve.it/en/il-museo/layout-and-collections/venetian-beads',
+  standing: 'museum',
+};
+
+/** Clues and what they point to. A clue is never proof; the aid says so on every screen. */
+export const INDICATION_RULES: readonly IndicationRule[] = [
+  {
+    id: 'hole-clean-copper-wire',
+    when: { observations: { hole: ['clean'] } },
+    points: { origins: ['venice-murano'], technique: 'wound-lampwork' },
+    weight: 2,
+    reason:
+      'A clean, slightly etched hole without powder is consistent with winding on copper wire that was later dissolved in acid, the method characteristic of Venetian lampwork.',
+    sources: [
+      {
+        title: 'Glossary – W (wound glass)',
+        url: 'http://faktorinc.com/glossary/glossary/pageW.html',
+        standing: 'trade-page',
+      },
+      {
+        title: 'Beads and working over the flame (Antica Murrina)',
+        url: 'http://www.anticamurrina.com/produzione-artigianale/produzione_artigianale_uk.cfm',
+        standing: 'trade-page',
+      },
+    ],
+  },
+  {
+    id: 'hole-powder-release',
+    when: { observations: { hole: ['powder'] } },
+    points: { origins: ['india', 'china'], technique: 'wound-lampwork' },
+    weight: 2,
+    reason:
+      'White or grey powder lining the hole points to a mandrel coated with bead release, typical of modern studio work and of Indian and Chinese production (or of a bead never cleaned).',
+    sources: [
+      {
+        title: 'Torch bead process (D’source, Purdilnagar, Uttar Pradesh)',
+        url: 'https://dsource.in/resource/glass-making-purdilnagar-uttar-pradesh/making-process/torch-bead-process',
+        standing: 'trade-page',
+      },
+      {
+        title: 'Tornado Beads Redux and Musings on Cleaning Beads',
+        url: 'http://fourtailslampwork.blogspot.com/2008/07/tornado-beads-redux-and-musings-on.html',
+        standing: 'trade-page',
+      },
+    ],
+  },
+  {
+    id: 'hole-green-traces',
+    when: { observations: { hole: ['green-traces'] } },
+    points: { origins: ['venice-murano'], technique: 'wound-lampwork' },
+    weight: 1,
+    reason: 'Green traces in the hole can be copper left from a wire dissolved in acid.',
+    sources: [{ title: 'from memory', standing: 'from-memory' }],
+  },
+  {
+    id: 'aventurine-murano',
+    when: { decoration: ['aventurine'] },
+    points: { origins: ['venice-murano'] },
+    weight: 1,
+    reason:
+      'Aventurine glass (copper crystals grown on slow cooling) was first made on Murano and is used on Venetian lamp beads.',
+    sources: [MARGARETOLOGIST],
+  },
+  {
+    id: 'flowers-fiorato',
+    when: { decoration: ['roses', 'forget-me-nots'] },
+    points: { origins: ['venice-murano'], technique: 'wound-lampwork' },
+    weight: 1,
+    reason:
+      'Tiny glass roses or forget-me-nots over trailing are the decoration of Venetian fiorato lamp beads, commonly dated about 1880–1920 by dealers.',
+    sources: [
+      {
+        title: 'Wedding Cake Venetian Beads, 1880-1920',
+        url: 'https://jeweledhorizons.blogspot.com/2011/04/wedding-cake-venetian-beads-1880-1920.html',
+        standing: 'trade-page',
+      },
+    ],
+  },
+  {
+    id: 'uniform-regular-pressed',
+    when: { observations: { beadShape: ['uniform'], holeShape: ['regular'] } },
+    points: { origins: ['bohemia-czech'], technique: 'pressed-moulded' },
+    weight: 1,
+    reason:
+      'Uniform shapes with regular holes suggest beads pressed in moulds, a Bohemian specialty from the 18th century.',
+    sources: [
+      {
+        title: 'A Brief History of Pressed Glass Beads',
+        url: 'https://themerrybluebird.com/2024/09/30/a-brief-history-of-pressed-glass-beads/',
+        standing: 'trade-page',
+      },
+    ],
+  },
+  {
+    id: 'winding-marks-wound',
+    when: { observations: { windingMarks: ['seen'] } },
+    points: { technique: 'wound-lampwork' },
+    weight: 1,
+    reason: 'Winding marks around the hole show a bead wound on a wire or rod rather than drawn or pressed.',
+    sources: [{ title: 'common practice, no source', standing: 'common-practice' }],
+  },
+  {
+    id: 'uv-green-uranium',
+    when: { observations: { uvA: ['green-glow'] } },
+    points: { origins: ['bohemia-czech'] },
+    weight: 1,
+    reason:
+      'A bright green glow under UV-A suggests uranium glass, first made commercially in Bohemia; manganese glass can glow weakly too, so it is a hint, not proof.',
+    sources: [
+      {
+        title: 'uranium glass (University of Bristol, School of Chemistry)',
+        url: 'http://www.chm.bris.ac.uk/webprojects2001/luxford/uranium_glass.htm',
+        standing: 'scholar',
+      },
+      {
+        title: 'What Types of Glass Glow Under a Black Light?',
+        url: 'https://biologyinsights.com/what-types-of-glass-glow-under-a-black-light',
+        standing: 'trade-page',
+      },
+    ],
+  },
+];
+
+/** Plausibility checks on an opinion's period. */
+export const PERIOD_RULES: readonly PeriodRule[] = [
+  {
+    id: 'aventurine-17th-century',
+    when: { decoration: ['aventurine'] },
+    notBefore: 1601,
+    message:
+      'Aventurine glass is a 17th-century Murano invention; a bead decorated with it is unlikely to be older.',
+    sources: [
+      MARGARETOLOGIST,
+      {
+        title: 'Techniques (Ars Cenedese)',
+        url: 'https://arscenedese.com/en/techniques',
+        standing: 'trade-page',
+      },
+    ],
+  },
+  {
+    id: 'uranium-1830s',
+    when: { observations: { uvA: ['green-glow'] } },
+    notBefore: 1830,
+    message: 'Uranium glass (a green glow under UV-A) was in commerce only from the 1830s.',
+    sources: [
+      {
+        title: 'uranium glass (University of Bristol, School of Chemistry)',
+        url: 'http://www.chm.bris.ac.uk/webprojects2001/luxford/uranium_glass.htm',
+        standing: 'scholar',
+      },
+    ],
+  },
+  {
+    id: 'venetian-lampwork-1615',
+    when: { origin: ['venice-murano'], technique: ['wound-lampwork'] },
+    notBefore: 1615,
+    message: 'Venetian lamp-wound beads were made from about 1615.',
+    sources: [CMOG_FANCY_BEAD, MUSEO_DEL_VETRO],
+  },
+  {
+    id: 'bohemian-pressed-18th-century',
+    when: { origin: ['bohemia-czech'], technique: ['pressed-moulded'] },
+    notBefore: 1700,
+    message: 'Pressing beads in moulds developed in 18th-century Bohemia.',
+    sources: [
+      {
+        title: 'A Brief History of Pressed Glass Beads',
+        url: 'https://themerrybluebird.com/2024/09/30/a-brief-history-of-pressed-glass-beads/',
+        standing: 'trade-page',
+      },
+    ],
+  },
+];
+
+/** Safety notes. They defer to local codes and licensed practice. */
+export const CAUTION_RULES: readonly CautionRule[] = [
+  {
+    id: 'uv-a-torch',
+    when: 'always-with-uv-test',
+    text: 'Use a UV-A torch (about 365 nm), never a germicidal UV-C lamp. Never shine it into anyone’s eyes, wear UV-rated eyewear (ordinary safety glasses may not block UV), and keep skin exposure short. Follow local rules for UV equipment.',
+    sources: [
+      {
+        title: 'UV Radiation Safety (University of Arizona)',
+        url: 'https://research.arizona.edu/compliance/RLSS/radiation-safety/uv-radiation-safety',
+        standing: 'standard',
+      },
+      {
+        title: 'Ultraviolet Light Fact Sheet (UMass EHS)',
+        url: 'https://ehs.umass.edu/ultraviolet-light-fact-sheet',
+        standing: 'standard',
+      },
+    ],
+  },
+  {
+    id: 'uranium-handling',
+    when: { observations: { uvA: ['green-glow'] } },
+    text: 'Possible uranium glass: harmless to handle and wear in the usual way, but never grind, drill, sand or break it, and never put it in the mouth — the risk is from dust or particles taken in. Follow local rules on radioactive materials.',
+    sources: [
+      {
+        title: 'NUREG-1717, Systematic Radiological Assessment of Exemptions (US NRC)',
+        url: 'https://www.nrc.gov/reading-rm/doc-collections/nuregs/staff/sr1717/index.html',
+        standing: 'standard',
+      },
+    ],
+  },
+  {
+    id: 'lead-glass',
+    when: { origin: ['china'] },
+    text: 'Old glass, Chinese glass especially, can contain lead. Do not mouth beads or let children handle them, do not grind or drill them, and do not sell vintage bead jewellery as children’s jewellery. Follow local consumer-safety rules.',
+    sources: [
+      {
+        title: 'Chinese Glass Beads: New Evidence (Peter Francis Jr.)',
+        url: 'http://thebeadsite.com/be02-ch.htm',
+        standing: 'scholar',
+      },
+      {
+        title: 'Guide to Lead Laws (MJSA)',
+        url: 'http://www.mjsa.org/publicationsmedia/compliance_guides/guide_to_lead_laws',
+        standing: 'standard',
+      },
+    ],
+  },
+  {
+    id: 'acid-history',
+    when: { observations: { hole: ['clean', 'green-traces'] } },
+    text: 'Dissolving the copper wire in acid is part of the history of how such holes were made, not something to try: nitric acid destroys skin and eyes and gives off toxic fumes. Never dissolve metal cores at home; leave it to licensed practice.',
+    sources: [
+      {
+        title: 'Nitric Acid (ACS Chemical Laboratory Information Profile, J. Chem. Educ. 2002)',
+        url: 'https://moam.info/nitric-acid-american-chemical-society_59eee4b71723dd01ede6b5af.html',
+        standing: 'standard',
+      },
+    ],
+  },
+  {
+    id: 'foil-cleaning',
+    when: { observations: { foil: ['intact', 'worn'] } },
+    text: 'Clean foiled beads gently: a soft cloth barely damp with mild soap, dried at once; don’t soak them and don’t use ammonia, vinegar, silver dips or abrasives on surface foil. Store beaded pieces in the dark.',
+    sources: [
+      {
+        title: 'Care of Objects Decorated with Glass Beads (CCI Notes 6/4)',
+        url: 'https://www.canada.ca/en/conservation-institute/services/conservation-preservation-publications/canadian-conservation-institute-notes/care-objects-glass-beads.html',
+        standing: 'standard',
+      },
+      { title: 'chemical specifics from memory', standing: 'from-memory' },
+    ],
+  },
+];
+
+/** Shown with every result of the aid. */
+export const AID_DISCLAIMER =
+  'This is an aid, not an authentication. Clues point towards an attribution; they never prove one. Ask a specialist, and follow your local consumer-protection rules before describing goods as antique or vintage.';

@@ -1,0 +1,66 @@
+import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { CurrentAccount, type Principal, Public } from './auth.decorators';
+import { AuthService } from './auth.service';
+import { clearSessionCookies, REFRESH_COOKIE, setSessionCookies } from './cookies';
+import { SignInDto } from './dto/sign-in.dto';
+import { type SessionResponse, toMeResponse } from './dto/session.response';
+import { SessionsService } from './sessions.service';
+
+@ApiTags('auth')
+@Controller('auth')
+export class AuthController {
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly auth: AuthService,
+    private readonly sessions: SessionsService,
+  ) {}
+
+  @Public()
+  @Get('session')
+  @ApiOperation({ summary: 'The signed-in account, or null' })
+  async session(@CurrentAccount() principal?: Principal): Promise<SessionResponse> {
+    return { account: principal ? toMeResponse(await this.auth.me(principal.id)) : null };
+  }
+
+  @Public()
+  @Post('sign-in')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
+  async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+    const { account, session } = await this.auth.signIn(dto.email, dto.password);
+    setSessionCookies(res, this.config, session.access, session.refresh);
+    return { account: toMeResponse(account) };
+  }
+
+  @Public()
+  @Post('session/refresh')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
+  async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+    try {
+      const session = await this.sessions.refresh(req.cookies?.[REFRESH_COOKIE]);
+      setSessionCookies(res, this.config, session.access, session.refresh);
+      return { account: toMeResponse(await this.auth.me(session.accountId)) };
+    } catch (err) {
+      clearSessionCookies(res, this.config);
+      throw err;
+    }
+  }
+
+  @Public()
+  @Post('session/sign-out')
+  @HttpCode(204)
+  @ApiOperation({ summary: 'Sign out: ends this session and clears its cookies' })
+  async signOut(
+    @CurrentAccount() principal: (Principal & { sessionId?: string }) | undefined,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<void> {
+    await this.sessions.signOut(principal?.sessionId, req.cookies?.[REFRESH_COOKIE]);
+    clearSessionCookies(res, this.config);
+  }
+}

@@ -1,0 +1,55 @@
+import { Module } from '@nestjs/common';
+import { APP_GUARD } from '@nestjs/core';
+import { JwtModule } from '@nestjs/jwt';
+import { PassportModule } from '@nestjs/passport';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { Account } from '../accounts/entities/account.entity';
+import { EmailToken } from '../accounts/entities/email-token.entity';
+import { RefreshToken, Session } from '../accounts/entities/session.entity';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { AccessStrategy, JWT_SECRET } from './access.strategy';
+import { AuthController } from './auth.controller';
+import { AccessGuard } from './auth.guard';
+import { AuthService } from './auth.service';
+import { JWT_ALGORITHM, loadJwtSecret } from './jwt-secret';
+import { PasswordsService } from './passwords.service';
+import { SessionsService } from './sessions.service';
+
+/** Sessions, passwords and the global guard every route passes through. */
+@Module({
+  imports: [
+    TypeOrmModule.forFeature([Account, Session, RefreshToken, EmailToken]),
+    PassportModule,
+    JwtModule.registerAsync({
+      inject: [JWT_SECRET, APP_CONFIG],
+      extraProviders: [
+        {
+          provide: JWT_SECRET,
+          inject: [APP_CONFIG],
+          useFactory: (c: AppConfig) => loadJwtSecret(c.jwtSecretFile),
+        },
+      ],
+      useFactory: (secret: string, config: AppConfig) => ({
+        secret,
+        signOptions: { algorithm: JWT_ALGORITHM, expiresIn: config.session.accessTtlSeconds },
+        verifyOptions: { algorithms: [JWT_ALGORITHM] },
+      }),
+    }),
+  ],
+  controllers: [AuthController],
+  providers: [
+    {
+      provide: JWT_SECRET,
+      inject: [APP_CONFIG],
+      useFactory: (c: AppConfig) => loadJwtSecret(c.jwtSecretFile),
+    },
+    PasswordsService,
+    SessionsService,
+    AuthService,
+    AccessStrategy,
+    { provide: APP_GUARD, useClass: AccessGuard },
+  ],
+  exports: [PasswordsService, SessionsService, AuthService, TypeOrmModule],
+})
+export class AuthModule {}

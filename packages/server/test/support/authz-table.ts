@@ -1,0 +1,29 @@
+import type { Role } from '../../src/auth/auth.decorators';
+
+/**
+ * Who may reach each route.
+ * - 'public': anyone, signed in or not;
+ * - 'signed-in': any signed-in account, whatever its role or status;
+ * - 'roll-writer': a signed-in account the registrar has verified (not pending, not suspended);
+ * - { roles, writer? }: only these roles (and, with writer, only when verified).
+ * Every route the server has must be listed: the matrix test fails on a missing one.
+ */
+export type Access = 'public' | 'signed-in' | 'roll-writer' | { roles: Role[]; writer?: boolean };
+
+export const AUTHZ_TABLE: Record<string, Access> = {
+  // foundation
+  'GET /api/health': 'public',
+  'GET /api/docs': 'public',
+  'GET /api/docs/': 'public',
+  'GET /api/docs/index.html': 'public',
+  'GET /api/docs/swagger-ui-init.js': 'public',
+  'GET /api/docs/docs/swagger-ui-init.js': 'public',
+  'GET /api/docs/LICENSE': 'public',
+  'GET /api/docs-json': 'public',
+  'GET /api/docs-yaml': 'public',
+  // accounts: sign-in and sessions
+  'GET /api/auth/session': 'public',
+  'POST /api/auth/sign-in': 'public',
+  'POST /api/auth/session/refresh': 'public',
+  'POST /api/auth/session/sign-out': 'public',
+};
