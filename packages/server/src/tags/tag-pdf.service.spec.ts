@@ -1,10 +1,5 @@
-import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import jsQR from 'jsqr';
-import { PNG } from 'pngjs';
 import { generateLotCode, seededRandom, sha256HexOfText, tagPayload, tagReference } from '@beadroll/core';
+import { decodeCells, mediaBoxes, rasterise } from '../../test/support/tag-raster';
 import { planTags, type TagLayoutRequest } from './tag-layout';
 import { TagPdfService, toWinAnsi, type TagItem } from './tag-pdf.service';
 
@@ -19,20 +14,10 @@ import { TagPdfService, toWinAnsi, type TagItem } from './tag-pdf.service';
 const ISO_ALPHANUMERIC_L = [25, 47, 77, 114, 154, 195];
 const isoVersion = (length: number) => ISO_ALPHANUMERIC_L.findIndex((c) => c >= length) + 1;
 
-const DPI = 600;
-const PDFTOPPM = '/usr/bin/pdftoppm';
 const HOST = 'beads.example'; // invented
 const HOST16 = 'tags.beads.co.uk'; // 16 characters: the longest host for version 2 at L
 
 const svc = new TagPdfService();
-let work: string;
-
-beforeAll(() => {
-  if (!existsSync(PDFTOPPM)) throw new Error('pdftoppm is missing: install poppler-utils (npm test does it)');
-  work = mkdtempSync(join(tmpdir(), 'beadroll-tags-'));
-});
-afterAll(() => rmSync(work, { recursive: true, force: true }));
-
 // Invented lots: codes from the core generator with a fixed seed, references from invented hashes.
 function items(n: number): TagItem[] {
   const random = seededRandom('tag pdf lots');
@@ -51,58 +36,8 @@ function items(n: number): TagItem[] {
   }));
 }
 
-function mediaBoxes(pdf: Buffer): number[][] {
-  const text = pdf.toString('latin1');
-  return [...text.matchAll(/\/MediaBox\s*\[([^\]]+)\]/g)].map((m) => m[1]!.trim().split(/\s+/).map(Number));
-}
-
-function rasterise(pdf: Buffer, name: string): PNG[] {
-  const file = join(work, `${name}.pdf`);
-  writeFileSync(file, pdf);
-  execFileSync(PDFTOPPM, ['-r', String(DPI), '-png', file, join(work, name)]);
-  return readdirSync(work)
-    .filter((f) => f.startsWith(`${name}-`) && f.endsWith('.png'))
-    .sort()
-    .map((f) => PNG.sync.read(readFileSync(join(work, f))));
-}
-
-function crop(
-  png: PNG,
-  xMm: number,
-  yMm: number,
-  wMm: number,
-  hMm: number,
-): { data: Uint8ClampedArray; w: number; h: number } {
-  const px = (mm: number) => Math.round((mm * DPI) / 25.4);
-  const x0 = px(xMm);
-  const y0 = px(yMm);
-  const w = Math.min(px(wMm), png.width - x0);
-  const h = Math.min(px(hMm), png.height - y0);
-  const out = new Uint8ClampedArray(w * h * 4);
-  for (let y = 0; y < h; y++)
-    out.set(
-      png.data.subarray(((y0 + y) * png.width + x0) * 4, ((y0 + y) * png.width + x0 + w) * 4),
-      y * w * 4,
-    );
-  return { data: out, w, h };
-}
-
-/** Decodes the QR in each planned cell; returns payload, version and module size in mm. */
-function decodeCells(pages: PNG[], host: string, layout: TagLayoutRequest, list: TagItem[]) {
-  const plan = planTags(host, layout, list.length);
-  return plan.cells.map((cell) => {
-    const { data, w, h } = crop(pages[cell.page]!, cell.x, cell.y, plan.label.widthMm, plan.label.heightMm);
-    const code = jsQR(data, w, h);
-    if (!code) return null;
-    const l = code.location;
-    const side = 17 + 4 * code.version;
-    // Finder-pattern centres are (side − 7) modules apart.
-    const px = Math.hypot(
-      l.topRightFinderPattern.x - l.topLeftFinderPattern.x,
-      l.topRightFinderPattern.y - l.topLeftFinderPattern.y,
-    );
-    return { data: code.data, version: code.version, moduleMm: ((px / (side - 7)) * 25.4) / DPI };
-  });
+function decode(pdf: Buffer, host: string, layout: TagLayoutRequest, list: TagItem[]) {
+  return decodeCells(rasterise(pdf), planTags(host, layout, list.length));
 }
 
 describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
@@ -131,7 +66,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
     expect(Math.abs(boxes[0]![3]! - 841.89)).toBeLessThanOrEqual(0.01);
     const plan = planTags(HOST, layout, list.length);
     expect([plan.columns, plan.rows]).toEqual([7, 7]);
-    const read = decodeCells(rasterise(pdf, 'a4-string'), HOST, layout, list);
+    const read = decode(pdf, HOST, layout, list);
     read.forEach((r, i) => {
       const payload = tagPayload(HOST, list[i]!.code, list[i]!.ref);
       expect(r?.data).toBe(payload);
@@ -161,7 +96,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
     expect(boxes).toHaveLength(1);
     expect(Math.abs(boxes[0]![2]! - 612)).toBeLessThanOrEqual(0.01);
     expect(Math.abs(boxes[0]![3]! - 792)).toBeLessThanOrEqual(0.01);
-    const read = decodeCells(rasterise(pdf, 'letter-barbell'), HOST16, layout, list);
+    const read = decode(pdf, HOST16, layout, list);
     read.forEach((r, i) => {
       const payload = tagPayload(HOST16, list[i]!.code, list[i]!.ref);
       expect(payload).toHaveLength(47);
@@ -184,7 +119,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
         expect(b[2]).toBeCloseTo((plan.label.widthMm * 72) / 25.4, 2);
         expect(b[3]).toBeCloseTo((plan.label.heightMm * 72) / 25.4, 2);
       }
-      const read = decodeCells(rasterise(pdf, `roll-${design}`), HOST, { design }, list);
+      const read = decode(pdf, HOST, { design }, list);
       read.forEach((r, i) => expect(r?.data).toBe(tagPayload(HOST, list[i]!.code, list[i]!.ref)));
     }
   });
