@@ -12,7 +12,9 @@ import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
+import { ScannedLotPage } from '../features/scanner/ScannedLotPage';
 import { ScannerPage } from '../features/scanner/ScannerPage';
+import { PrintTagsPage } from '../features/tags/PrintTagsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -21,6 +23,7 @@ const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
   { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
+  { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -36,6 +39,8 @@ export const routes: RouteObject[] = [
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
       { path: 'scan', element: <ScannerPage /> },
+      { path: 'scan/lots/:code', element: <ScannedLotPage /> },
+      { path: 'tags', element: <PrintTagsPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },

@@ -61,7 +61,7 @@ export function ScannerPage() {
   const open = async (target: ScanTarget) => {
     setOpening(target.code);
     const lot = await lookupScannedLot(target.code);
-    if (lot.held) navigate(`/lots/${target.code}`, { state: { fromScan: target } });
+    if (lot.held) navigate(`/scan/lots/${target.code}${target.ref ? `?ref=${target.ref}` : ''}`);
     else openPublic(target);
   };
 

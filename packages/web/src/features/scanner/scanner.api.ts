@@ -1,20 +1,33 @@
+import { queryOptions } from '@tanstack/react-query';
 import { ApiError, api } from '../../lib/api';
 
-/** What the scanner needs to know about a scanned lot: is it one the signed-in dealer holds? */
+/** A scanned lot as the server's tag maker answers: held by the signed-in dealer or not. */
 export interface ScannedLot {
   code: string;
   held: boolean;
+  title?: string;
+  listed?: boolean;
+  status?: string;
+  seq?: number;
+  ref?: string;
 }
 
+export const scannerQueries = {
+  lot: (code: string) =>
+    queryOptions({
+      queryKey: ['tags', 'lot', code],
+      queryFn: () => api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`),
+    }),
+};
+
 /**
- * Asks the server whether the signed-in dealer holds the lot. Any refusal (not found, not
- * theirs, not signed in) means "not held": the scanner then opens the public page, which
- * answers for every listed lot.
+ * Asks the server whether the signed-in dealer holds the lot. Any refusal (not signed in, not
+ * a dealer) means "not held": the scanner then opens the public page, which answers for every
+ * listed lot.
  */
 export async function lookupScannedLot(code: string): Promise<ScannedLot> {
   try {
-    const lot = await api<{ held?: boolean }>(`/api/tags/lots/${encodeURIComponent(code)}`);
-    return { code, held: lot.held === true };
+    return await api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`);
   } catch (e) {
     if (e instanceof ApiError) return { code, held: false };
     throw e;

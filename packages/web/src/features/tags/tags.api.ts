@@ -35,10 +35,27 @@ export interface TagPrintRequest {
   sheet?: SheetRequest;
 }
 
+/** A row of the dealer's own lots, as the lot list answers. */
+export interface HeldLotRow {
+  code: string;
+  displayCode: string;
+  title: string;
+  listed: boolean;
+  status: string;
+}
+
 export const tagsQueries = {
   all: () => ['tags'] as const,
   layouts: () =>
     queryOptions({ queryKey: ['tags', 'layouts'], queryFn: () => api<TagLayouts>('/api/tags/layouts') }),
+  heldLots: () =>
+    queryOptions({
+      queryKey: ['lots', 'list', { mine: true, pageSize: 100 }],
+      queryFn: () =>
+        api<{ items: HeldLotRow[]; total: number }>(
+          '/api/lots?mine=true&pageSize=100&sort=updated&order=desc',
+        ),
+    }),
 };
 
 /** Asks for the tag PDF; resolves to the file, or throws ApiError (400 with the fields). */
