@@ -12,9 +12,6 @@ import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
-import { ScannedLotPage } from '../features/scanner/ScannedLotPage';
-import { ScannerPage } from '../features/scanner/ScannerPage';
-import { PrintTagsPage } from '../features/tags/PrintTagsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -38,9 +35,21 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
-      { path: 'scan', element: <ScannerPage /> },
-      { path: 'scan/lots/:code', element: <ScannedLotPage /> },
-      { path: 'tags', element: <PrintTagsPage /> },
+      // The scanner and the tag pages load on first use: they carry the QR decoder.
+      {
+        path: 'scan',
+        lazy: async () => ({ Component: (await import('../features/scanner/ScannerPage')).ScannerPage }),
+      },
+      {
+        path: 'scan/lots/:code',
+        lazy: async () => ({
+          Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
+        }),
+      },
+      {
+        path: 'tags',
+        lazy: async () => ({ Component: (await import('../features/tags/PrintTagsPage')).PrintTagsPage }),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
