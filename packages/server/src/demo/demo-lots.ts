@@ -7,8 +7,8 @@ import { sealedValuesOf } from '../lots/lots.service';
 
 /** One invented lot of the demo scenario (seed-demo/lots.json). */
 export interface DemoLot {
-  /** Index into the demo dealers, in the order the scenario lists them. */
-  dealer: number;
+  /** Handle of the demo dealer who registers and holds the lot (seed-demo/accounts.json). */
+  holder: string;
   description: LotDescription;
   observations?: Observations;
   sealed?: SealedDetailsDto;
@@ -17,7 +17,7 @@ export interface DemoLot {
 /** A demo lot as loaded: its code and whether it is listed. */
 export interface LoadedDemoLot {
   code: string;
-  dealer: number;
+  holder: string;
   title: string;
   listed: boolean;
 }
@@ -31,7 +31,7 @@ export function readDemoLots(file: string): DemoLot[] {
 }
 
 /**
- * Registers the demo lots for the demo dealers (account ids in scenario order) through the
+ * Registers the demo lots for the demo dealers (account ids by handle) through the
  * ledger's one append path. Codes come from a fixed seed, so a lot already on the ledger is
  * recognised and skipped: loading twice changes nothing.
  */
@@ -39,18 +39,16 @@ export async function loadDemoLots(
   ledger: LedgerService,
   dataSource: DataSource,
   lots: DemoLot[],
-  dealerIds: string[],
+  accounts: Record<string, string>,
 ): Promise<LoadedDemoLot[]> {
   const random = seededRandom(DEMO_LOT_SEED);
   const out: LoadedDemoLot[] = [];
   for (const lot of lots) {
     const code = generateLotCode(random);
-    const actor = dealerIds[lot.dealer];
+    const actor = accounts[lot.holder];
     if (!actor)
-      throw new Error(
-        `demo lot "${lot.description.title}" names dealer ${lot.dealer}, which is not in the scenario`,
-      );
-    out.push({ code, dealer: lot.dealer, title: lot.description.title, listed: lot.description.listed });
+      throw new Error(`demo lot "${lot.description.title}" names ${lot.holder}, who is not in the scenario`);
+    out.push({ code, holder: lot.holder, title: lot.description.title, listed: lot.description.listed });
     const exists: unknown[] = await dataSource.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
     if (exists.length > 0) continue;
     await ledger.withLots([], async (tx) => {
