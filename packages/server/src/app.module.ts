@@ -9,6 +9,8 @@ import { RequestIdMiddleware } from './common/request-id.middleware';
 import { dataSourceOptions } from './database/data-source';
 import { AuditModule } from './audit/audit.module';
 import { HealthModule } from './health/health.module';
+import { MailModule } from './mail/mail.module';
+import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 
@@ -20,7 +22,9 @@ import { LotsModule } from './lots/lots.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     HealthModule,
+    MailModule,
     AuthModule,
+    AccountsModule,
     LedgerModule,
     LotsModule,
     AuditModule,

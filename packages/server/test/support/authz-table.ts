@@ -26,6 +26,22 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/auth/sign-in': 'public',
   'POST /api/auth/session/refresh': 'public',
   'POST /api/auth/session/sign-out': 'public',
+  'POST /api/auth/sign-up': 'public',
+  'POST /api/auth/verify-email': 'public',
+  'POST /api/auth/forgot-password': 'public',
+  'POST /api/auth/reset-password': 'public',
+  // accounts: own account, registry, public cards
+  'GET /api/account': 'signed-in',
+  'POST /api/account/password': 'signed-in',
+  'GET /api/registry/accounts': { roles: ['registrar'] },
+  'POST /api/registry/accounts/:id/approve': { roles: ['registrar'] },
+  'POST /api/registry/accounts/:id/reject': { roles: ['registrar'] },
+  'POST /api/registry/accounts/:id/suspend': { roles: ['registrar'] },
+  'POST /api/registry/accounts/:id/reinstate': { roles: ['registrar'] },
+  'GET /api/public/dealers/:handle': 'public',
+  // development mailbox (only with DEV_MAILBOX, loopback only)
+  'GET /dev/mailbox': 'public',
+  'GET /dev/mailbox/:id': 'public',
   // lots and their rolls
   'POST /api/lots': { roles: ['dealer'], writer: true },
   'GET /api/lots': 'signed-in',
