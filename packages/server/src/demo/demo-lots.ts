@@ -1,9 +1,11 @@
 import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { generateLotCode, seededRandom, type LotDescription, type Observations } from '@beadroll/core';
-import type { DataSource } from 'typeorm';
-import type { LedgerService } from '../ledger/ledger.service';
+import { DataSource } from 'typeorm';
+import { LedgerService } from '../ledger/ledger.service';
 import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
 import { sealedValuesOf } from '../lots/lots.service';
+import type { SeedStep } from './seed';
 
 /** One invented lot of the demo scenario (seed-demo/lots.json). */
 export interface DemoLot {
@@ -21,6 +23,9 @@ export interface LoadedDemoLot {
   title: string;
   listed: boolean;
 }
+
+/** The scenario's lots (seed-demo/lots.json; the same folder as the loader's SEED_DIR). */
+export const DEMO_LOTS_FILE = resolve(__dirname, '..', '..', '..', '..', 'seed-demo', 'lots.json');
 
 /** Seed of the demo lot codes: the same codes on every machine and every run. */
 export const DEMO_LOT_SEED = 'beadroll demo scenario: lots';
@@ -59,3 +64,15 @@ export async function loadDemoLots(
   }
   return out;
 }
+
+/** Seed step: the demo lots, then three listed lots for the start banner's public pages. */
+export const seedLots: SeedStep = async (app, ctx) => {
+  const loaded = await loadDemoLots(
+    app.get(LedgerService),
+    app.get(DataSource),
+    readDemoLots(DEMO_LOTS_FILE),
+    ctx.accounts,
+  );
+  for (const lot of loaded.filter((l) => l.listed).slice(0, 3))
+    ctx.report.publicLots.push({ code: lot.code, why: `a listed lot: ${lot.title}` });
+};
