@@ -81,8 +81,11 @@ export class AuthController {
   @HttpCode(200)
   @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+    const token: unknown = req.cookies?.[REFRESH_COOKIE];
+    // No refresh cookie at all: nobody is signed in, which is an answer, not an error.
+    if (token === undefined) return { account: null };
     try {
-      const session = await this.sessions.refresh(req.cookies?.[REFRESH_COOKIE]);
+      const session = await this.sessions.refresh(typeof token === 'string' ? token : '');
       setSessionCookies(res, this.config, session.access, session.refresh);
       return { account: toMeResponse(await this.auth.me(session.accountId)) };
     } catch (err) {
