@@ -55,17 +55,4 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
-  // lots and their rolls
-  'POST /api/lots': { roles: ['dealer'], writer: true },
-  'GET /api/lots': 'signed-in',
-  'GET /api/lots/:code': 'signed-in',
-  'POST /api/lots/:code/descriptions': { roles: ['dealer'], writer: true },
-  'POST /api/lots/:code/observations': { roles: ['dealer'], writer: true },
-  'PUT /api/lots/:code/listing': { roles: ['dealer'], writer: true },
-  'GET /api/lots/:code/roll': 'signed-in',
-  'GET /api/lots/:code/verification': 'signed-in',
-  'GET /api/lots/:code/bundle': 'signed-in',
-  'GET /api/audit/ledger': { roles: ['registrar'] },
-  'GET /api/public/lots/:code': 'public',
-  'GET /api/public/lots/:code/bundle': 'public',
 };
