@@ -22,5 +22,7 @@ export default defineConfig({
     environment: 'jsdom',
     setupFiles: ['./src/test-setup.ts'],
     include: ['src/**/*.test.{ts,tsx}'],
+    // Form tests type into many Fluent fields; a busy 2-core machine needs more than 5 s.
+    testTimeout: 30_000,
   },
 });
