@@ -13,6 +13,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { TagsModule } from './tags/tags.module';
 
 @Module({
   imports: [
@@ -28,6 +29,7 @@ import { LotsModule } from './lots/lots.module';
     LedgerModule,
     LotsModule,
     AuditModule,
+    TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

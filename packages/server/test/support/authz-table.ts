@@ -53,6 +53,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
   'GET /api/audit/ledger': { roles: ['registrar'] },
+  // tags: printing writes nothing; listing writes described entries
+  'GET /api/tags/layouts': { roles: ['dealer'] },
+  'GET /api/tags/lots/:code': { roles: ['dealer'] },
+  'POST /api/tags/pdf': { roles: ['dealer'] },
+  'POST /api/tags/list': { roles: ['dealer'], writer: true },
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

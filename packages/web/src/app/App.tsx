@@ -24,6 +24,8 @@ const NAV: NavItem[] = [
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
   { to: '/lots', label: 'Inventory', roles: ['dealer'] },
   { to: '/lots/new', label: 'Register a lot', roles: ['dealer'], writer: true },
+  { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
+  { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -41,6 +43,21 @@ export const routes: RouteObject[] = [
       { path: 'lots', element: <InventoryPage /> },
       { path: 'lots/new', element: <RegisterLotPage /> },
       { path: 'lots/:code', element: <LotPage /> },
+      // The scanner and the tag pages load on first use: they carry the QR decoder.
+      {
+        path: 'scan',
+        lazy: async () => ({ Component: (await import('../features/scanner/ScannerPage')).ScannerPage }),
+      },
+      {
+        path: 'scan/lots/:code',
+        lazy: async () => ({
+          Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
+        }),
+      },
+      {
+        path: 'tags',
+        lazy: async () => ({ Component: (await import('../features/tags/PrintTagsPage')).PrintTagsPage }),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
