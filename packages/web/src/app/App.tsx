@@ -12,6 +12,9 @@ import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
+import { OfferPage } from '../features/transfers/OfferPage';
+import { OffersPage } from '../features/transfers/OffersPage';
+import { SalesPage } from '../features/transfers/SalesPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -19,6 +22,9 @@ import { beadrollTheme } from './theme';
 const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+  { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
+  { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
+  { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -33,6 +39,10 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      { path: 'transfers/incoming', element: <OffersPage box="incoming" key="incoming" /> },
+      { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },
+      { path: 'transfers/offers/:id', element: <OfferPage /> },
+      { path: 'transfers/sales', element: <SalesPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
