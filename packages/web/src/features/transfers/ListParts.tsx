@@ -6,6 +6,7 @@ export const useListStyles = makeStyles({
   head: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'center' },
   grow: { flexGrow: 1 },
   scroller: { overflowX: 'auto' },
+  tabs: { overflowX: 'auto', maxWidth: '100%' },
   table: { minWidth: '720px' },
   pager: { display: 'flex', gap: tokens.spacingHorizontalM, alignItems: 'center' },
   sub: { color: tokens.colorNeutralForeground3 },

@@ -185,17 +185,19 @@ export function OffersPage({ box }: { box: OfferBox }) {
           <MessageBarBody>{made}</MessageBarBody>
         </MessageBar>
       ) : null}
-      <TabList
-        selectedValue={status}
-        onTabSelect={(_, d) => update({ status: d.value === 'all' ? undefined : String(d.value) })}
-        aria-label="Offers by status"
-      >
-        {FILTERS.map((f) => (
-          <Tab key={f.value} value={f.value}>
-            {f.label}
-          </Tab>
-        ))}
-      </TabList>
+      <div className={styles.tabs}>
+        <TabList
+          selectedValue={status}
+          onTabSelect={(_, d) => update({ status: d.value === 'all' ? undefined : String(d.value) })}
+          aria-label="Offers by status"
+        >
+          {FILTERS.map((f) => (
+            <Tab key={f.value} value={f.value}>
+              {f.label}
+            </Tab>
+          ))}
+        </TabList>
+      </div>
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label={title}>
           <TableHeader>

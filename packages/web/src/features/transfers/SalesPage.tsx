@@ -77,17 +77,19 @@ export function SalesPage() {
           </MessageBarBody>
         </MessageBar>
       ) : null}
-      <TabList
-        selectedValue={receipt}
-        onTabSelect={(_, d) => update({ receipt: d.value === 'all' ? undefined : String(d.value) })}
-        aria-label="Sales by receipt"
-      >
-        {RECEIPTS.map((r) => (
-          <Tab key={r.value} value={r.value}>
-            {r.label}
-          </Tab>
-        ))}
-      </TabList>
+      <div className={styles.tabs}>
+        <TabList
+          selectedValue={receipt}
+          onTabSelect={(_, d) => update({ receipt: d.value === 'all' ? undefined : String(d.value) })}
+          aria-label="Sales by receipt"
+        >
+          {RECEIPTS.map((r) => (
+            <Tab key={r.value} value={r.value}>
+              {r.label}
+            </Tab>
+          ))}
+        </TabList>
+      </div>
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label="Sales">
           <TableHeader>
