@@ -15,6 +15,7 @@ import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 import { TransfersModule } from './transfers/transfers.module';
+import { TagsModule } from './tags/tags.module';
 
 @Module({
   imports: [
@@ -32,6 +33,7 @@ import { TransfersModule } from './transfers/transfers.module';
     LotsModule,
     AuditModule,
     TransfersModule,
+    TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

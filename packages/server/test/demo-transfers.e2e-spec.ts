@@ -27,11 +27,12 @@ describe('demo scenario: transfers and sales', () => {
     const res = await request(t.app.getHttpServer()).get(`/api/public/lots/${changed!.code}`);
     expect(res.status).toBe(200);
     const kinds = res.body.bundle.rolls[0].entries.map((e: { header: string }) => JSON.parse(e.header).kind);
-    expect(kinds).toEqual(['registered', 'transfer-offered', 'transfer-accepted']);
+    expect(kinds[0]).toBe('registered');
+    expect(kinds.slice(-2)).toEqual(['transfer-offered', 'transfer-accepted']);
     const bundle = await request(t.app.getHttpServer()).get(`/api/public/lots/${changed!.code}/bundle`);
     expect(verifyBundle(parseBundleText(bundle.text)).ok).toBe(true);
     // Sealed prices stay off public answers.
-    expect(JSON.stringify(res.body)).not.toMatch(/16000|auction lot 114/);
+    expect(JSON.stringify(res.body)).not.toMatch(/14500|16000|auction lot 114/);
 
     const statuses = (await db.query('SELECT "status" FROM "transfer_offers"')) as Array<{ status: string }>;
     expect(new Set(statuses.map((s) => s.status))).toEqual(

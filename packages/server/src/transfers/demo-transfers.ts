@@ -47,9 +47,50 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
       );
     return found;
   };
+  // The first lot the start banner prints changes hands from its holder to the next dealer, so
+  // one printed page shows a transfer.
+  const banner = ctx.report.publicLots[0];
+  if (banner) {
+    const rows: Array<{ holder: string; status: string; head_seq: number }> = await db.query(
+      'SELECT "holder", "status", "head_seq" FROM "lot_views" WHERE "code" = $1',
+      [banner.code],
+    );
+    const dealers = Object.keys(ctx.accounts).filter((h) => ctx.accounts[h] !== rows[0]?.holder);
+    const to = ['teodor-brasko', 'odile-varnas'].find((h) => dealers.includes(h));
+    const done: unknown[] = await db.query(
+      `SELECT 1 FROM "transfer_offers" WHERE "code" = $1 AND "status" = 'accepted'`,
+      [banner.code],
+    );
+    const row = rows[0];
+    if (row && to && (done.length > 0 || row.status === 'held')) {
+      if (done.length === 0) {
+        await ledger.withLots([banner.code], async (tx) => {
+          const o = await transfers.writeOffer(
+            tx,
+            row.holder,
+            banner.code,
+            id(to),
+            'as agreed at the spring fair',
+            {
+              amount: 14500,
+              currency: 'EUR',
+            },
+          );
+          await tx.append(banner.code, {
+            kind: 'transfer-accepted',
+            actor: id(to),
+            body: { offerSeq: o.offerSeq, note: 'collected in person' },
+          });
+        });
+      }
+      banner.why = `changed hands: ${banner.why.replace(/^a listed lot: /, '')}`;
+    }
+  }
   for (const lot of readSeedFile<DemoTransferLot[]>(DEMO_TRANSFERS_FILE)) {
     const code = generateLotCode(random);
-    if (lot.publicWhy) ctx.report.publicLots.push({ code, why: lot.publicWhy });
+    // Shown by the start banner only when no other step printed a lot (see below).
+    if (lot.publicWhy && ctx.report.publicLots.length === 0)
+      ctx.report.publicLots.push({ code, why: lot.publicWhy });
     const exists: unknown[] = await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
     if (exists.length > 0) continue;
     let holder = id(lot.holder);

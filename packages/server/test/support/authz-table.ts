@@ -65,6 +65,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/transfers/invitations/:id/cancel': { roles: ['dealer'] },
   'POST /api/transfers/sales': { roles: ['dealer'], writer: true },
   'GET /api/transfers/sales': { roles: ['dealer'] },
+  // tags: printing writes nothing; listing writes described entries
+  'GET /api/tags/layouts': { roles: ['dealer'] },
+  'GET /api/tags/lots/:code': { roles: ['dealer'] },
+  'POST /api/tags/pdf': { roles: ['dealer'] },
+  'POST /api/tags/list': { roles: ['dealer'], writer: true },
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

@@ -25,6 +25,8 @@ const NAV: NavItem[] = [
   { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
   { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
   { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
+  { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
+  { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -43,6 +45,21 @@ export const routes: RouteObject[] = [
       { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },
       { path: 'transfers/offers/:id', element: <OfferPage /> },
       { path: 'transfers/sales', element: <SalesPage /> },
+      // The scanner and the tag pages load on first use: they carry the QR decoder.
+      {
+        path: 'scan',
+        lazy: async () => ({ Component: (await import('../features/scanner/ScannerPage')).ScannerPage }),
+      },
+      {
+        path: 'scan/lots/:code',
+        lazy: async () => ({
+          Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
+        }),
+      },
+      {
+        path: 'tags',
+        lazy: async () => ({ Component: (await import('../features/tags/PrintTagsPage')).PrintTagsPage }),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
