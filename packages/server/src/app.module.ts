@@ -13,6 +13,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { RegistryToolsModule } from './registry/registry.module';
 
 @Module({
   imports: [
@@ -28,6 +29,7 @@ import { LotsModule } from './lots/lots.module';
     LedgerModule,
     LotsModule,
     AuditModule,
+    RegistryToolsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })
