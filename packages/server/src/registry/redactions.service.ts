@@ -1,13 +1,13 @@
-import { Injectable, Logger } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { ExhibitAddedBody, RedactionReason } from '@beadroll/core';
 import type { Repository } from 'typeorm';
 import { AppError } from '../common/app-error';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { BlockedDigestsService } from './blocked-digests.service';
 import { RedactionRequest, type RedactionRequestStatus } from './entities/redaction-request.entity';
-import { type ExhibitFileRemover, NO_EXHIBIT_FILES } from './exhibit-files';
 import { RegistrarRecordService } from './registrar-record.service';
 
 /** What a redaction did. */
@@ -71,7 +71,6 @@ export function exhibitDigests(body: ExhibitAddedBody): string[] {
 @Injectable()
 export class RedactionsService {
   private readonly log = new Logger(RedactionsService.name);
-  private files: ExhibitFileRemover = NO_EXHIBIT_FILES;
 
   constructor(
     private readonly ledger: LedgerService,
@@ -79,12 +78,8 @@ export class RedactionsService {
     private readonly blocked: BlockedDigestsService,
     private readonly record: RegistrarRecordService,
     @InjectRepository(RedactionRequest) private readonly requests: Repository<RedactionRequest>,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
-
-  /** Sets how exhibit files are deleted from storage (the exhibit store). */
-  useFileRemover(files: ExhibitFileRemover): void {
-    this.files = files;
-  }
 
   private async codeOf(text: string): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
@@ -144,7 +139,9 @@ export class RedactionsService {
       return { lot: code, seq, redactionSeq: entry.seq, reason, time: entry.time, blockedDigests: digests };
     });
     // Files go after the transaction commits: a failed commit must not lose a file still named.
-    if (result.blockedDigests.length) await this.files.removeAll(result.blockedDigests);
+    // Blobs are named by their bytes, so a copy of the same file on another lot goes too: the
+    // bytes are blocked everywhere from now on.
+    for (const d of result.blockedDigests) await this.blobs.delete(d);
     this.log.log(`redacted ${code} seq ${seq} (${reason})`);
     return result;
   }

@@ -4,6 +4,7 @@ import { AccountsModule } from '../accounts/accounts.module';
 import { RegistryService } from '../accounts/registry.service';
 import { AuthModule } from '../auth/auth.module';
 import { LedgerModule } from '../ledger/ledger.module';
+import { StorageModule } from '../storage/storage.module';
 import { BlockedDigestsService } from './blocked-digests.service';
 import { BlockedDigest } from './entities/blocked-digest.entity';
 import { RedactionRequest } from './entities/redaction-request.entity';
@@ -23,7 +24,7 @@ import { ReportsService } from './reports.service';
  * The registrar's tools: redaction (and holders' requests), the blocked-digest list, reports
  * from public pages, the append-only record of decisions, lapsing a suspended account's open
  * offers, and a dealer's own data (download, closing the account). Import it for
- * BlockedDigestsService (uploads) and RedactionsService.useFileRemover (the exhibit store).
+ * BlockedDigestsService: uploads consult it before storing a file.
  */
 @Module({
   imports: [
@@ -31,6 +32,7 @@ import { ReportsService } from './reports.service';
     AuthModule,
     AccountsModule,
     LedgerModule,
+    StorageModule,
   ],
   controllers: [
     RedactionsController,

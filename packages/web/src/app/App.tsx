@@ -12,6 +12,11 @@ import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
+import { AuditPage } from '../features/registry/AuditPage';
+import { MyDataPage } from '../features/registry/MyDataPage';
+import { RecordPage } from '../features/registry/RecordPage';
+import { RedactionsPage } from '../features/registry/RedactionsPage';
+import { ReportsPage } from '../features/registry/ReportsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -19,6 +24,11 @@ import { beadrollTheme } from './theme';
 const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+  { to: '/registry/reports', label: 'Reports', roles: ['registrar'] },
+  { to: '/registry/redactions', label: 'Redaction', roles: ['registrar'] },
+  { to: '/registry/record', label: 'Record', roles: ['registrar'] },
+  { to: '/registry/audit', label: 'Audit', roles: ['registrar'] },
+  { to: '/account/data', label: 'Your data', signedIn: true },
 ];
 
 export const routes: RouteObject[] = [
@@ -33,6 +43,11 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      { path: 'registry/reports', element: <ReportsPage /> },
+      { path: 'registry/redactions', element: <RedactionsPage /> },
+      { path: 'registry/record', element: <RecordPage /> },
+      { path: 'registry/audit', element: <AuditPage /> },
+      { path: 'account/data', element: <MyDataPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
