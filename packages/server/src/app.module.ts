@@ -13,7 +13,11 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+<<<<<<< HEAD
 import { RegistryToolsModule } from './registry/registry.module';
+=======
+import { TagsModule } from './tags/tags.module';
+>>>>>>> main
 
 @Module({
   imports: [
@@ -29,7 +33,11 @@ import { RegistryToolsModule } from './registry/registry.module';
     LedgerModule,
     LotsModule,
     AuditModule,
+<<<<<<< HEAD
     RegistryToolsModule,
+=======
+    TagsModule,
+>>>>>>> main
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

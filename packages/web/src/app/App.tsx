@@ -29,6 +29,8 @@ const NAV: NavItem[] = [
   { to: '/registry/record', label: 'Record', roles: ['registrar'] },
   { to: '/registry/audit', label: 'Audit', roles: ['registrar'] },
   { to: '/account/data', label: 'Your data', signedIn: true },
+  { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
+  { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -48,6 +50,21 @@ export const routes: RouteObject[] = [
       { path: 'registry/record', element: <RecordPage /> },
       { path: 'registry/audit', element: <AuditPage /> },
       { path: 'account/data', element: <MyDataPage /> },
+      // The scanner and the tag pages load on first use: they carry the QR decoder.
+      {
+        path: 'scan',
+        lazy: async () => ({ Component: (await import('../features/scanner/ScannerPage')).ScannerPage }),
+      },
+      {
+        path: 'scan/lots/:code',
+        lazy: async () => ({
+          Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
+        }),
+      },
+      {
+        path: 'tags',
+        lazy: async () => ({ Component: (await import('../features/tags/PrintTagsPage')).PrintTagsPage }),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
