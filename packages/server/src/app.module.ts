@@ -13,11 +13,8 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
-<<<<<<< HEAD
 import { RegistryToolsModule } from './registry/registry.module';
-=======
 import { TagsModule } from './tags/tags.module';
->>>>>>> main
 
 @Module({
   imports: [
@@ -33,11 +30,8 @@ import { TagsModule } from './tags/tags.module';
     LedgerModule,
     LotsModule,
     AuditModule,
-<<<<<<< HEAD
     RegistryToolsModule,
-=======
     TagsModule,
->>>>>>> main
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -310,6 +310,14 @@ describe("the registrar's tools", () => {
       }
       const card = await http().get(`/api/public/dealers/${seller.handle}`).expect(200);
       expect(card.body.status).toBe('suspended');
+      const pub = await http().get(`/api/public/lots/${code}`).expect(200);
+      expect(pub.body.cards[seller.id]).toMatchObject({ status: 'suspended' });
+      // A suspended account writes nothing.
+      const refused = await seller.agent
+        .post(`/api/lots/${code}/observations`)
+        .set(...CSRF)
+        .send({ observations: { hole: 'powder' } });
+      expect([401, 403]).toContain(refused.status);
 
       await registrar.agent
         .post(`/api/registry/accounts/${seller.id}/reinstate`)
@@ -418,6 +426,9 @@ describe("the registrar's tools", () => {
 
       const pub = await http().get(`/api/public/lots/${code}`).expect(200);
       expect(JSON.stringify(pub.body)).not.toContain('Orla');
+      expect(JSON.stringify(pub.body)).not.toContain('Venn');
+      expect(pub.body.cards[leaving.id]).toMatchObject({ displayName: 'Former dealer', status: 'former' });
+      expect(verifyBundle(parseBundleText(JSON.stringify(pub.body.bundle))).failures).toEqual([]);
       // The old sign-in is gone.
       expect((await leaving.agent.get('/api/account')).status).toBe(401);
       expect(

@@ -52,7 +52,6 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
   'GET /api/audit/ledger': { roles: ['registrar'] },
-<<<<<<< HEAD
   // registrar's tools: redaction, reports, the record, a dealer's own data
   'POST /api/registry/redactions': { roles: ['registrar'] },
   'GET /api/registry/redaction-requests': { roles: ['registrar'] },
@@ -66,13 +65,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/registry/actions/export': { roles: ['registrar'] },
   'GET /api/account/personal-data': 'signed-in',
   'POST /api/account/close': { roles: ['dealer', 'assessor'] },
-=======
   // tags: printing writes nothing; listing writes described entries
   'GET /api/tags/layouts': { roles: ['dealer'] },
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
   'POST /api/tags/pdf': { roles: ['dealer'] },
   'POST /api/tags/list': { roles: ['dealer'], writer: true },
->>>>>>> main
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
