@@ -15,6 +15,7 @@ import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 import { TransfersModule } from './transfers/transfers.module';
+import { RegistryToolsModule } from './registry/registry.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -33,6 +34,7 @@ import { TagsModule } from './tags/tags.module';
     LotsModule,
     AuditModule,
     TransfersModule,
+    RegistryToolsModule,
     TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
