@@ -1,6 +1,8 @@
 import type { RollState } from '@beadroll/core';
 import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
+import { OfferDialog } from '../transfers/OfferDialog';
+import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -62,6 +64,20 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'List / unlist',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.description !== null,
     render: (ctx) => <ListingAction {...ctx} />,
+  },
+  {
+    id: 'offer',
+    label: 'Offer to a dealer',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    render: (ctx) => <OfferDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />,
+  },
+  {
+    id: 'sale',
+    label: 'Record a sale',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    render: (ctx) => (
+      <RecordSaleDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />
+    ),
   },
 ];
 
