@@ -13,6 +13,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { OpinionsModule } from './opinions/opinions.module';
 
 @Module({
   imports: [
@@ -27,6 +28,7 @@ import { LotsModule } from './lots/lots.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    OpinionsModule,
     AuditModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],

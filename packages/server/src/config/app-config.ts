@@ -26,6 +26,8 @@ export interface AppConfig {
   readonly jwtSecretFile: string;
   readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
   readonly throttle: { readonly limit: number; readonly ttlMs: number };
+  /** Opinions one author may record on one lot in any 24 hours. */
+  readonly opinions: { readonly perDay: number };
   readonly session: {
     /** Lifetime of the access-token cookie (a signed JWT). */
     readonly accessTtlSeconds: number;
@@ -134,6 +136,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
       limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),
       ttlMs: int(env, 'THROTTLE_TTL_MS', 60_000, 1, 86_400_000),
     },
+    opinions: { perDay: int(env, 'OPINIONS_PER_DAY', 3, 1, 1000) },
     session: {
       accessTtlSeconds: int(env, 'ACCESS_TOKEN_TTL_SECONDS', 900, 1, 86_400),
       refreshTtlSeconds: int(env, 'REFRESH_TOKEN_TTL_SECONDS', 30 * 86_400, 60, 365 * 86_400),

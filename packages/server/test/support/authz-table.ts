@@ -52,6 +52,12 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
   'GET /api/audit/ledger': { roles: ['registrar'] },
+  // opinions and the attribution aid (the aid is pure computation over what is sent: public)
+  'GET /api/lots/:code/opinions': 'signed-in',
+  'POST /api/lots/:code/opinions': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
+  'POST /api/attribution-aid': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

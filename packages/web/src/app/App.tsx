@@ -12,6 +12,7 @@ import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
+import { OpinionsPage } from '../features/opinions/OpinionsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -33,6 +34,7 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      { path: 'lots/:code/opinions', element: <OpinionsPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
