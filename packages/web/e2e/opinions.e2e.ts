@@ -83,12 +83,12 @@ describe('opinions in Chromium', () => {
       .first()
       .waitFor();
     await expect(page.getByRole('note').textContent()).resolves.toMatch(/aid, not an authentication/);
-    await page.getByLabel('Origin', { exact: true }).selectOption('india');
-    await page.getByRole('textbox', { name: 'From year' }).fill('1985');
-    await page.getByRole('textbox', { name: 'To year' }).fill('2015');
-    await page.getByLabel('Certainty').selectOption('later-copy');
+    await page.getByRole('combobox', { name: /^Origin/ }).selectOption('india');
+    await page.getByRole('textbox', { name: /^From year/ }).fill('1985');
+    await page.getByRole('textbox', { name: /^To year/ }).fill('2015');
+    await page.getByRole('combobox', { name: /^Certainty/ }).selectOption('later-copy');
     await page
-      .getByRole('textbox', { name: 'Rationale' })
+      .getByRole('textbox', { name: /^Rationale/ })
       .fill('Grey powder in the holes: wound on a release-coated mandrel. The roses are heavy and bright.');
     await screenshot(page, 'opinions-form-1280');
     await page.getByRole('button', { name: 'Record opinion' }).click();
@@ -102,12 +102,13 @@ describe('opinions in Chromium', () => {
     const seen = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
     await seen.waitFor();
     expect(await seen.textContent()).toContain('India, about 1985–2015');
-    await page.getByRole('img', { name: /Consensus chart/ }).waitFor();
+    await page.getByRole('img', { name: 'Opinions by origin and period' }).waitFor();
     await screenshot(page, 'opinions-panel-1280');
     await seen.getByRole('button', { name: 'Answer' }).click();
     await seen.getByRole('textbox', { name: 'Your answer' }).fill('The holes were reamed by a later owner.');
     await seen.getByRole('button', { name: 'Add answer' }).click();
-    await seen.getByText('The holes were reamed by a later owner.').waitFor();
+    await seen.getByText(/^Answer by Odile Varnas/).waitFor();
+    expect(await seen.textContent()).toContain('The holes were reamed by a later owner.');
     await page.setViewportSize({ width: 390, height: 844 });
     await screenshot(page, 'opinions-panel-390');
     await page.setViewportSize({ width: 1280, height: 900 });

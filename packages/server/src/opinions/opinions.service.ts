@@ -169,17 +169,12 @@ export class OpinionsService {
       ]);
     }
     const opinions: OpinionView[] = state.opinions.map((o) => {
-      let body: OpinionView['body'] = null;
-      if (o.body) {
-        const { nonce: _nonce, ...rest } = o.body;
-        body = rest;
-      }
       return {
         seq: o.seq,
         author: o.author,
         time: o.time,
         role: roleOf(state, o.seq),
-        body,
+        body: o.body,
         replies: replies.get(o.seq) ?? [],
       };
     });
@@ -263,7 +258,7 @@ export class OpinionsService {
       this.accounts.findOne({ where: { id: authorId } }),
     ]);
     if (!to) return;
-    const url = `${this.config.publicBaseUrl}/lots/${code}`;
+    const url = `${this.config.publicBaseUrl}/lots/${code}/opinions`;
     await this.mail.send(
       to.email,
       opinionLetters.newDissent(

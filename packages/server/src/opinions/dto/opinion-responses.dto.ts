@@ -12,13 +12,13 @@ export class OpinionReply {
   @ApiProperty() text: string;
 }
 
-/** One standing opinion. `body` is null when the registrar redacted it. */
+/** One standing opinion, its body as on the roll; `body` is null when the registrar redacted it. */
 export class OpinionView {
   @ApiProperty() seq: number;
   @ApiProperty() author: string;
   @ApiProperty() time: string;
   @ApiProperty({ enum: ['attribution', 'dissent', 'other'] }) role: OpinionRole;
-  @ApiProperty({ nullable: true, type: Object }) body: Omit<OpinionBody, 'nonce'> | null;
+  @ApiProperty({ nullable: true, type: Object }) body: OpinionBody | null;
   @ApiProperty({ type: [OpinionReply] }) replies: OpinionReply[];
 }
 

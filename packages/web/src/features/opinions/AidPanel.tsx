@@ -9,7 +9,7 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import type { AidResult, AidSource } from '@beadroll/core';
-import { UvCaution } from '../safety/UvCaution';
+import { UvACaution } from '../safety/UvACaution';
 import { ORIGIN_LABELS, TECHNIQUE_LABELS } from './words';
 
 const useStyles = makeStyles({
@@ -115,7 +115,7 @@ export function AidPanel({ result }: { result: AidResult }) {
       )}
       {(uv || otherCautions.length > 0) && (
         <div aria-label="Cautions">
-          {uv && <UvCaution />}
+          {uv && <UvACaution />}
           {otherCautions.map((c) => (
             <MessageBar key={c.rule} intent="warning" layout="multiline">
               <MessageBarBody>

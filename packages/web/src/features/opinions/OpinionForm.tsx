@@ -44,6 +44,7 @@ const useStyles = makeStyles({
   form: { display: 'grid', gap: tokens.spacingVerticalM, alignContent: 'start' },
   row: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'end' },
   year: { width: '8rem' },
+  yearInput: { minWidth: 0, width: '100%' },
   actions: { display: 'flex', gap: tokens.spacingHorizontalM },
 });
 
@@ -188,7 +189,12 @@ export function OpinionForm({
             className={styles.year}
             validationMessage={yearMessage('period.from', from)}
           >
-            <Input inputMode="numeric" value={from} onChange={(_, d) => setFrom(d.value)} />
+            <Input
+              className={styles.yearInput}
+              inputMode="numeric"
+              value={from}
+              onChange={(_, d) => setFrom(d.value)}
+            />
           </Field>
           <Field
             label="To year"
@@ -196,7 +202,12 @@ export function OpinionForm({
             className={styles.year}
             validationMessage={periodProblem ?? yearMessage('period.to', to)}
           >
-            <Input inputMode="numeric" value={to} onChange={(_, d) => setTo(d.value)} />
+            <Input
+              className={styles.yearInput}
+              inputMode="numeric"
+              value={to}
+              onChange={(_, d) => setTo(d.value)}
+            />
           </Field>
           <Checkbox
             label="Approximate years"

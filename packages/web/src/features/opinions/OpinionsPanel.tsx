@@ -13,7 +13,9 @@ import {
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { fieldError, FormError } from '../accounts/FormPage';
-import { ConsensusChart } from './ConsensusChart';
+import { brandVars } from '../public-lot/brand-vars';
+import { ConsensusChart } from '../public-lot/ConsensusChart';
+import '../public-lot/public-lot.css';
 import { opinionsApi, opinionsQuery, type LotOpinions, type OpinionView } from './opinions.api';
 import { CONFIDENCE_LABELS, originLabel, periodLabel, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
 
@@ -46,7 +48,17 @@ const useStyles = makeStyles({
   },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
   hint: { color: tokens.colorNeutralForeground3 },
+  chart: { maxWidth: '640px' },
 });
+
+// The public page's chart reads its colours from custom properties; here they come from the theme.
+const CHART_VARS = {
+  ...brandVars,
+  '--ink': tokens.colorNeutralForeground1,
+  '--ink-muted': tokens.colorNeutralForeground3,
+  '--line': tokens.colorNeutralStroke2,
+  '--dissent': tokens.colorPaletteDarkOrangeForeground1,
+} as React.CSSProperties;
 
 export interface Viewer {
   id: string;
@@ -223,7 +235,12 @@ export function OpinionsPanel({ code, viewer }: { code: string; viewer: Viewer |
         </div>
         {dissents.length > 0 && <div className={styles.column}>{dissents.map(card)}</div>}
       </div>
-      <ConsensusChart opinions={data.opinions} nameOf={nameIn(data)} />
+      <div className={styles.chart} style={CHART_VARS}>
+        <ConsensusChart
+          opinions={data.opinions.flatMap((o) => (o.body ? [{ ...o, body: o.body }] : []))}
+          nameOf={nameIn(data)}
+        />
+      </div>
       {others.length > 0 && <div className={styles.column}>{others.map(card)}</div>}
       <Text size={200} className={styles.hint}>
         Opinions are recorded as their authors gave them; none is an authentication. Ask a specialist before

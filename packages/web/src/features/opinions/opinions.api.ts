@@ -17,7 +17,7 @@ export interface OpinionView {
   author: string;
   time: string;
   role: OpinionRole;
-  body: OpinionDraft | null;
+  body: OpinionBody | null;
   replies: OpinionReply[];
 }
 

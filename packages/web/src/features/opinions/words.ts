@@ -1,4 +1,7 @@
-import type { Confidence, Origin, Period, Qualifier, Technique } from '@beadroll/core';
+import type { Confidence, Origin, Qualifier, Technique } from '@beadroll/core';
+
+// Years and periods read the same here as on the public page.
+export { periodWords as periodLabel } from '../public-lot/words';
 
 /** Plain-English labels for the attribution vocabulary. */
 export const ORIGIN_LABELS: Record<Origin, string> = {
@@ -32,15 +35,6 @@ export const CONFIDENCE_LABELS: Record<Confidence, string> = {
   medium: 'Medium confidence',
   high: 'High confidence',
 };
-
-export function yearLabel(y: number): string {
-  return y < 0 ? `${-y} BC` : String(y);
-}
-
-export function periodLabel(p: Pick<Period, 'from' | 'to' | 'approximate'>): string {
-  const range = p.from === p.to ? yearLabel(p.from) : `${yearLabel(p.from)}–${yearLabel(p.to)}`;
-  return p.approximate ? `about ${range}` : range;
-}
 
 export function originLabel(origin: Origin, note?: string): string {
   if (origin === 'other') return note ? `Other: ${note}` : 'Other';
