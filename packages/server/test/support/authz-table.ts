@@ -58,6 +58,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
   'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
   'POST /api/attribution-aid': 'public',
+  // tags: printing writes nothing; listing writes described entries
+  'GET /api/tags/layouts': { roles: ['dealer'] },
+  'GET /api/tags/lots/:code': { roles: ['dealer'] },
+  'POST /api/tags/pdf': { roles: ['dealer'] },
+  'POST /api/tags/list': { roles: ['dealer'], writer: true },
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
