@@ -1,15 +1,8 @@
-import { resolve } from 'node:path';
 import { verifyRoll } from '@beadroll/core';
 import { DataSource } from 'typeorm';
-import { loadDemoLots, readDemoLots } from '../src/demo/demo-lots';
-import { runSeed, seedAccounts, type SeedStep } from '../src/demo/seed';
-import { LedgerService } from '../src/ledger/ledger.service';
+import { runSeed } from '../src/demo/seed';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
-import { seedOpinions } from '../src/opinions/demo-opinions';
 import { createTestApp, type TestApp } from './support/test-app';
-
-const LOTS_FILE = resolve(__dirname, '../../../seed-demo/lots.json');
-const DEALERS = ['odile-varnas', 'teodor-brasko', 'ines-calloway-rue', 'wren-ashdown', 'pim-oyelaran'];
 
 describe('demo scenario: opinions', () => {
   let t: TestApp;
@@ -20,17 +13,8 @@ describe('demo scenario: opinions', () => {
     await t.close();
   });
 
-  const lots: SeedStep = async (app, ctx) => {
-    await loadDemoLots(
-      app.get(LedgerService),
-      app.get(DataSource),
-      readDemoLots(LOTS_FILE),
-      DEALERS.map((h) => ctx.accounts[h]!),
-    );
-  };
-
   it('gives demo lots opinions, one of them the assessor’s dissent on a listed lot, once', async () => {
-    const first = await runSeed(t.app, [seedAccounts, lots, seedOpinions]);
+    const first = await runSeed(t.app);
     const shown = first.publicLots.filter((l) => l.why === 'dissent');
     expect(shown).toHaveLength(1);
     const reader = t.app.get(RollReaderService);
@@ -51,7 +35,7 @@ describe('demo scenario: opinions', () => {
         }>
       )[0]!.n;
     const before = await count();
-    const second = await runSeed(t.app, [seedAccounts, lots, seedOpinions]);
+    const second = await runSeed(t.app);
     expect(await count()).toBe(before);
     expect(second.publicLots).toEqual(first.publicLots);
   });
