@@ -16,6 +16,7 @@ import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 import { TransfersModule } from './transfers/transfers.module';
 import { RegistryToolsModule } from './registry/registry.module';
+import { OpinionsModule } from './opinions/opinions.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -32,6 +33,7 @@ import { TagsModule } from './tags/tags.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    OpinionsModule,
     AuditModule,
     TransfersModule,
     RegistryToolsModule,

@@ -32,6 +32,8 @@ export interface AppConfig {
     /** How often each server looks for offers to lapse (0 = never; the job can still be run by hand). */
     readonly lapseCheckSeconds: number;
   };
+  /** Opinions one author may record on one lot in any 24 hours. */
+  readonly opinions: { readonly perDay: number };
   readonly session: {
     /** Lifetime of the access-token cookie (a signed JWT). */
     readonly accessTtlSeconds: number;
@@ -175,6 +177,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
       lapseDays: int(env, 'OFFER_LAPSE_DAYS', 14, 1, 365),
       lapseCheckSeconds: int(env, 'OFFER_LAPSE_CHECK_SECONDS', 300, 0, 86_400),
     },
+    opinions: { perDay: int(env, 'OPINIONS_PER_DAY', 3, 1, 1000) },
     session: {
       accessTtlSeconds: int(env, 'ACCESS_TOKEN_TTL_SECONDS', 900, 1, 86_400),
       refreshTtlSeconds: int(env, 'REFRESH_TOKEN_TTL_SECONDS', 30 * 86_400, 60, 365 * 86_400),

@@ -79,6 +79,12 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/registry/actions/export': { roles: ['registrar'] },
   'GET /api/account/personal-data': 'signed-in',
   'POST /api/account/close': { roles: ['dealer', 'assessor'] },
+  // opinions and the attribution aid (the aid is pure computation over what is sent: public)
+  'GET /api/lots/:code/opinions': 'signed-in',
+  'POST /api/lots/:code/opinions': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
+  'POST /api/attribution-aid': 'public',
   // tags: printing writes nothing; listing writes described entries
   'GET /api/tags/layouts': { roles: ['dealer'] },
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
