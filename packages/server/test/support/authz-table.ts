@@ -51,6 +51,10 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/lots/:code/bundle': 'signed-in',
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
+  // splits, combinations and ancestry
+  'POST /api/lots/:code/splits': { roles: ['dealer'], writer: true },
+  'POST /api/combinations': { roles: ['dealer'], writer: true },
+  'GET /api/lots/:code/ancestry': 'signed-in',
   'GET /api/audit/ledger': { roles: ['registrar'] },
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',

@@ -11,6 +11,7 @@ import { SignInPage } from '../features/accounts/SignInPage';
 import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
+import { LineagePage } from '../features/lineage/LineagePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
@@ -33,6 +34,7 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      { path: 'lineage/:code', element: <LineagePage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },
