@@ -22,7 +22,7 @@ export default defineConfig({
     environment: 'jsdom',
     setupFiles: ['./src/test-setup.ts'],
     include: ['src/**/*.test.{ts,tsx}'],
-    // Component tests render the whole component library in jsdom; on a busy machine that alone can pass 5 s.
+    // Form tests type into many fields; a busy 2-core machine needs more than the 5 s default.
     testTimeout: 30_000,
   },
 });

@@ -18,7 +18,7 @@ describe('splitting a strand in Chromium', () => {
     await browser.close();
   });
 
-  it('splits a strand into two and shows the ancestry on a new lot’s page', async () => {
+  it('splits a strand into two and shows the ancestry on a new lot’s dealer and public pages', async () => {
     const { page } = browser;
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
@@ -78,6 +78,15 @@ describe('splitting a strand in Chromium', () => {
     await page.setViewportSize({ width: 390, height: 844 });
     await screenshot(page, 'lineage-child-390');
     await page.setViewportSize({ width: 1280, height: 900 });
+
+    // The new lot's public page draws its ancestry from the verified bundle, the parent linked.
+    const childCode = childDisplay.replace(/-/g, '');
+    await page.goto(`${baseUrl}/l/${childCode}`);
+    const tree = page.getByRole('region', { name: 'Where the beads came from and went' });
+    await tree.waitFor();
+    const parentDisplay = `${code.slice(0, 4)}-${code.slice(4, 8)}-${code.slice(8)}`;
+    expect(await tree.getByRole('link', { name: parentDisplay }).getAttribute('href')).toBe(`/l/${code}`);
+    await screenshot(page, 'lineage-child-public-1280');
 
     // The public data of the new lot carries the parent's roll, and it verifies.
     const pub = await page.evaluate(

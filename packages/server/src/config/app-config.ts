@@ -34,6 +34,26 @@ export interface AppConfig {
     /** Cookies get the Secure flag when the public address is https. */
     readonly secureCookies: boolean;
   };
+  /** Where exhibit files are kept: a content-addressed folder (default) or an S3 bucket. */
+  readonly storage: {
+    readonly driver: 'fs' | 's3';
+    readonly dir: string;
+    readonly s3: {
+      readonly bucket: string;
+      readonly endpoint: string;
+      readonly region: string;
+      readonly accessKeyId: string;
+      readonly secretAccessKey: string;
+      readonly forcePathStyle: boolean;
+    };
+  };
+  /** Limits on uploaded exhibit files. */
+  readonly exhibits: {
+    readonly maxFileBytes: number;
+    readonly maxPixels: number;
+    /** Bytes of exhibits one account may add in all. */
+    readonly quotaBytes: number;
+  };
 }
 
 export class ConfigError extends Error {
@@ -72,6 +92,17 @@ function bool(env: Env, name: string, fallback: boolean): boolean {
   if (['1', 'true', 'yes', 'on'].includes(raw.toLowerCase())) return true;
   if (['0', 'false', 'no', 'off'].includes(raw.toLowerCase())) return false;
   throw new ConfigError(name, `must be true or false, got "${raw}"`);
+}
+
+function oneOf<T extends string>(env: Env, name: string, fallback: T, allowed: readonly T[]): T {
+  const raw = str(env, name, fallback);
+  if (!(allowed as readonly string[]).includes(raw))
+    throw new ConfigError(name, `must be one of ${allowed.join(', ')}, got "${raw}"`);
+  return raw as T;
+}
+
+function optionalUrl(env: Env, name: string): string {
+  return env[name] ? url(env, name, '') : '';
 }
 
 function path(env: Env, name: string, fallback: string): string {
@@ -138,6 +169,30 @@ export function loadConfig(env: Env = process.env): AppConfig {
       accessTtlSeconds: int(env, 'ACCESS_TOKEN_TTL_SECONDS', 900, 1, 86_400),
       refreshTtlSeconds: int(env, 'REFRESH_TOKEN_TTL_SECONDS', 30 * 86_400, 60, 365 * 86_400),
       secureCookies: publicBaseUrl.startsWith('https:'),
+    },
+    storage: storageConfig(env, dataDir),
+    exhibits: {
+      maxFileBytes: int(env, 'EXHIBIT_MAX_BYTES', 20 * 1024 * 1024, 1024, 1024 * 1024 * 1024),
+      maxPixels: int(env, 'EXHIBIT_MAX_PIXELS', 50_000_000, 10_000, 268_402_689),
+      quotaBytes: int(env, 'EXHIBIT_QUOTA_BYTES', 2 * 1024 * 1024 * 1024, 0, Number.MAX_SAFE_INTEGER),
+    },
+  };
+}
+
+function storageConfig(env: Env, dataDir: string): AppConfig['storage'] {
+  const driver = oneOf(env, 'STORAGE_DRIVER', 'fs', ['fs', 's3'] as const);
+  const bucket = str(env, 'S3_BUCKET', '', 63);
+  if (driver === 's3' && !bucket) throw new ConfigError('S3_BUCKET', 'must be set when STORAGE_DRIVER is s3');
+  return {
+    driver,
+    dir: path(env, 'STORAGE_DIR', resolve(dataDir, 'exhibits')),
+    s3: {
+      bucket,
+      endpoint: optionalUrl(env, 'S3_ENDPOINT'),
+      region: str(env, 'S3_REGION', 'us-east-1', 64),
+      accessKeyId: str(env, 'S3_ACCESS_KEY_ID', ''),
+      secretAccessKey: str(env, 'S3_SECRET_ACCESS_KEY', ''),
+      forcePathStyle: bool(env, 'S3_FORCE_PATH_STYLE', false),
     },
   };
 }

@@ -56,6 +56,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/combinations': { roles: ['dealer'], writer: true },
   'GET /api/lots/:code/ancestry': 'signed-in',
   'GET /api/audit/ledger': { roles: ['registrar'] },
+  // tags: printing writes nothing; listing writes described entries
+  'GET /api/tags/layouts': { roles: ['dealer'] },
+  'GET /api/tags/lots/:code': { roles: ['dealer'] },
+  'POST /api/tags/pdf': { roles: ['dealer'] },
+  'POST /api/tags/list': { roles: ['dealer'], writer: true },
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

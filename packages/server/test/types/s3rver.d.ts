@@ -1,0 +1,15 @@
+// The fake S3 server used by the storage tests ships no type declarations.
+declare module 's3rver' {
+  interface S3rverOptions {
+    port?: number;
+    address?: string;
+    silent?: boolean;
+    directory?: string;
+    configureBuckets?: Array<{ name: string }>;
+  }
+  export default class S3rver {
+    constructor(options: S3rverOptions);
+    run(): Promise<{ address: string; port: number }>;
+    close(): Promise<void>;
+  }
+}

@@ -1,0 +1,197 @@
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { join, resolve } from 'node:path';
+import { formatLotCode, parseBundle, tagReference, type Bundle } from '@beadroll/core';
+import pg from 'pg';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+const require = createRequire(import.meta.url);
+const AXE = require.resolve('axe-core/axe.min.js');
+const REPO = resolve(__dirname, '..', '..', '..');
+
+/** A superuser connection to the journeys' database, for changing what the service stored. */
+function superuser(): pg.Client {
+  return new pg.Client({
+    host: process.env.PGHOST,
+    port: Number(process.env.PGPORT),
+    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
+    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
+    database: inject('database'),
+  });
+}
+
+/** The listed lot with the longest roll on the ledger, if any. */
+async function longestListedLot(db: pg.Client): Promise<string | null> {
+  const { rows } = await db.query<{ code: string }>(
+    `SELECT l."code" FROM "lots" l
+       JOIN "lot_views" v ON v."code" = l."code" AND v."listed"
+       JOIN "entries" e ON e."lot_id" = l."id"
+     GROUP BY l."code" ORDER BY count(*) DESC, l."code" LIMIT 1`,
+  );
+  return rows[0]?.code ?? null;
+}
+
+/**
+ * When the demo scenario brings no listed lot, one of its verified dealers registers one through
+ * the API (the same path the dealer screens use), with a few observations after it.
+ */
+async function registerLot(baseUrl: string): Promise<string> {
+  const scenario = JSON.parse(readFileSync(join(REPO, 'seed-demo/accounts.json'), 'utf8')) as {
+    password: string;
+    accounts: { role: string; status: string; email: string }[];
+  };
+  const dealer = scenario.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
+  const headers: Record<string, string> = { 'content-type': 'application/json', 'x-beadroll-request': '1' };
+  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers,
+    body: JSON.stringify({ email: dealer.email, password: scenario.password }),
+  });
+  expect(signIn.status).toBe(200);
+  headers.cookie = signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
+  const post = async (path: string, body: unknown) => {
+    const r = await fetch(`${baseUrl}${path}`, { method: 'POST', headers, body: JSON.stringify(body) });
+    expect(r.ok, `${path}: ${r.status}`).toBe(true);
+    return (await r.json()) as { code: string };
+  };
+  const { code } = await post('/api/lots', {
+    description: {
+      title: 'Strand of bottle-green furnace-wound beads',
+      form: 'strand',
+      count: { value: 30, estimated: false },
+      strandLengthMm: 508,
+      colours: ['bottle green'],
+      baseGlass: ['transparent'],
+      decoration: [],
+      listed: true,
+    },
+    observations: { hole: 'clean', windingMarks: 'seen' },
+  });
+  for (const note of [
+    'Seen again at the spring fair.',
+    'Restrung on new silk.',
+    'Photographed for the roll.',
+  ])
+    await post(`/api/lots/${code}/observations`, { observations: { surface: 'worn', note } });
+  return code;
+}
+
+interface AxeResult {
+  violations: { id: string; impact: string | null; help: string; nodes: { target: string[] }[] }[];
+}
+
+describe('the public lot page at a fair, on a phone (390 px)', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  let db: pg.Client;
+  let code: string;
+  let bundle: Bundle;
+
+  beforeAll(async () => {
+    db = superuser();
+    await db.connect();
+    code = (await longestListedLot(db)) ?? (await registerLot(baseUrl));
+    const res = await fetch(`${baseUrl}/api/public/lots/${code}`);
+    expect(res.status).toBe(200);
+    bundle = parseBundle(((await res.json()) as { bundle: unknown }).bundle);
+    browser = await openBrowser({ width: 390, height: 844 });
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await db?.end();
+  });
+
+  const entries = () => bundle.rolls[0]!.entries;
+  const status = () => browser.page.getByRole('status');
+
+  async function axeProblems(): Promise<string[]> {
+    // Evaluated through the browser's debugging protocol: the page's CSP refuses injected tags.
+    await browser.page.evaluate(readFileSync(AXE, 'utf8'));
+    const result = (await browser.page.evaluate(() =>
+      (window as unknown as { axe: { run(): Promise<unknown> } }).axe.run(),
+    )) as AxeResult;
+    return result.violations
+      .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+      .map((v) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+  }
+
+  it('opens the tag’s address and says the history is unbroken and the tag matches', async () => {
+    const { page } = browser;
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    const seq = Math.max(0, entries().length - 2);
+    const h = tagReference(entries()[seq]!.hash);
+    const requests: string[] = [];
+    page.on('request', (r) => requests.push(r.url()));
+    await page.goto(`${baseUrl}/L/${code}/${h}`);
+    await status().getByText(`Unbroken history as served: ${entries().length} entries`).waitFor();
+    await expect(status().textContent()).resolves.toContain(
+      `This tag matches entry ${seq}; ${entries().length - 1 - seq === 1 ? '1 entry' : `${entries().length - 1 - seq} entries`} added since.`,
+    );
+    await page.getByText(`Lot ${formatLotCode(code)}`, { exact: true }).waitFor();
+    // Only the page itself carries H (it is the tag's address); no request the page makes does.
+    const api = requests.filter((u) => u.includes('/api/'));
+    expect(api.length).toBeGreaterThan(0);
+    for (const u of api) expect(u).not.toContain(h);
+    await screenshot(page, 'public-page-390');
+    expect(await axeProblems()).toEqual([]);
+    expect(errors).toEqual([]);
+  });
+
+  it('warns when the tag’s entry is not in the history', async () => {
+    const { page } = browser;
+    // The worked example's reference (ledger format §12) belongs to an entry of no demo lot.
+    await page.goto(`${baseUrl}/L/${code}/AVV5EN5TQ3`);
+    await status()
+      .getByText('Warning: this history no longer contains the entry this tag was printed from.')
+      .waitFor();
+    await status()
+      .getByText(/Unbroken history as served/)
+      .waitFor();
+    expect(await axeProblems()).toEqual([]);
+  });
+
+  it('shows the same not-found page for a code that is not listed', async () => {
+    const { page } = browser;
+    await page.goto(`${baseUrl}/l/7K2QM9XAT`);
+    await page.getByRole('heading', { name: 'No public history at this address' }).waitFor();
+    expect(await axeProblems()).toEqual([]);
+  });
+
+  it('shows where the history breaks after a stored entry is changed', async () => {
+    const { page } = browser;
+    const target = entries().findIndex((e, i) => i > 0 && e.body !== null);
+    expect(target).toBeGreaterThan(0);
+    const original = entries()[target]!.body!;
+    // One nonce digit changed: the body no longer matches the digest its header committed to.
+    const changed = original.replace(/"nonce":"(.)/, (_m, c: string) => `"nonce":"${c === '0' ? '1' : '0'}`);
+    const where = `"entry_id" = (SELECT e."id" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+                    WHERE l."code" = $2 AND e."seq" = $3)`;
+    // The tables refuse changes through triggers; a superuser session can switch them off.
+    const tamper = async (body: string) => {
+      await db.query('BEGIN');
+      await db.query("SET LOCAL session_replication_role = 'replica'");
+      const r = await db.query(`UPDATE "entry_bodies" SET "body" = $1 WHERE ${where}`, [body, code, target]);
+      await db.query('COMMIT');
+      expect(r.rowCount).toBe(1);
+    };
+    await tamper(changed);
+    try {
+      await page.goto(`${baseUrl}/l/${code}`);
+      await page.reload();
+      await status()
+        .getByText(new RegExp(`History broken at entry ${target} of ${entries().length}`))
+        .waitFor();
+      await expect(status().textContent()).resolves.toContain('bad-body-digest');
+      await expect(status().textContent()).resolves.not.toContain('Unbroken');
+      await screenshot(page, 'public-page-broken-390');
+      expect(await axeProblems()).toEqual([]);
+    } finally {
+      await tamper(original);
+    }
+  });
+});

@@ -1,0 +1,142 @@
+import { formatLotCode, type RollState } from '@beadroll/core';
+import { QueryClientProvider, useQuery, type QueryClient } from '@tanstack/react-query';
+import { useEffect, useMemo, useState, type ReactNode } from 'react';
+import { createQueryClient } from '../../lib/query-client';
+import { Ancestry } from './Ancestry';
+import { brandVars } from './brand-vars';
+import { checkLot, checkTag, type LotCheck } from './check-lot';
+import { exhibitsOf, Gallery } from './Gallery';
+import { HolderCard, LotFacts } from './LotFacts';
+import { NotFound } from './NotFound';
+import { Opinions } from './Opinions';
+import { publicLotQuery, type DealerCard } from './public-lot.api';
+import { parsePublicPath } from './route';
+import { StatusPanel } from './StatusPanel';
+import { Timeline } from './Timeline';
+import { buildTimeline } from './timeline';
+import { VerifyYourself } from './VerifyYourself';
+import { countWords, FORM_WORDS, STATUS_WORDS } from './words';
+import './public-lot.css';
+
+/** The public history page for the address `pathname` (`/l/{code}` or `/L/{code}/{H}`). */
+export function PublicLotApp({ pathname, client }: { pathname: string; client?: QueryClient }) {
+  const [qc] = useState(() => client ?? createQueryClient());
+  const route = parsePublicPath(pathname);
+  return (
+    <QueryClientProvider client={qc}>
+      <Frame>{route ? <LotPage code={route.code} tagRef={route.tagRef} /> : <NotFound />}</Frame>
+    </QueryClientProvider>
+  );
+}
+
+function Frame({ children }: { children: ReactNode }) {
+  return (
+    <div className="pl" style={brandVars}>
+      <header className="pl-top">
+        <span className="pl-brand">Beadroll</span>
+        <span className="pl-top-what">public lot history</span>
+      </header>
+      <main className="pl-main">{children}</main>
+      <footer className="pl-foot">
+        <p>
+          Beadroll keeps the history of lots of glass beads as dealers record it. This page checked it in your
+          browser; nothing you type here is sent anywhere.
+        </p>
+      </footer>
+    </div>
+  );
+}
+
+function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
+  const q = useQuery(publicLotQuery(code));
+  const data = q.data?.found ? q.data.data : null;
+  const check = useMemo<LotCheck | null>(
+    () => (data ? checkLot(code, data.code === code ? data.bundle : null) : null),
+    [code, data],
+  );
+  const title = check?.ok ? check.state.description?.title : undefined;
+  useEffect(() => {
+    document.title = `${title ?? `Lot ${formatLotCode(code)}`} · Beadroll`;
+  }, [title, code]);
+
+  if (q.data && !q.data.found) return <NotFound />;
+  const cards = data?.cards ?? {};
+  return (
+    <>
+      <div className="pl-top-grid">
+        <div className="pl-intro">
+          <p className="pl-code">Lot {formatLotCode(code)}</p>
+          <h1>{title ?? (check && !check.ok ? 'History that does not check out' : 'Lot history')}</h1>
+          {check?.ok && <Subtitle state={check.state} />}
+        </div>
+        <div className="pl-side">
+          <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
+          {check?.ok && <HolderCard state={check.state} cards={cards} />}
+          {check?.ok && <LotFacts state={check.state} />}
+        </div>
+        {q.isError && (
+          <div className="pl-card pl-error" role="alert">
+            <p>The history could not be loaded. Check the connection and try again.</p>
+            <button type="button" onClick={() => void q.refetch()}>
+              Try again
+            </button>
+          </div>
+        )}
+        {check?.ok && exhibitsOf(check.entries).length > 0 && (
+          <div className="pl-lead">
+            <Gallery code={code} exhibits={exhibitsOf(check.entries)} cards={cards} />
+          </div>
+        )}
+      </div>
+      {check && <Body check={check} cards={cards} tagRef={tagRef} />}
+    </>
+  );
+}
+
+function Subtitle({ state }: { state: RollState }) {
+  const d = state.description;
+  const parts = [d ? FORM_WORDS[d.form] : null, d ? countWords(d.count) : null, STATUS_WORDS[state.status]];
+  return <p className="pl-subtitle">{parts.filter(Boolean).join(' · ')}</p>;
+}
+
+function Body({
+  check,
+  cards,
+  tagRef,
+}: {
+  check: LotCheck;
+  cards: Record<string, DealerCard>;
+  tagRef: string | null;
+}) {
+  const items = useMemo(() => buildTimeline(check.entries, cards), [check, cards]);
+  const tag = tagRef ? checkTag(check.entries, tagRef) : null;
+  const tagSeq = tag?.state === 'matches' ? tag.seq : null;
+  if (!check.ok) {
+    return (
+      <div className="pl-body">
+        <div className="pl-col">
+          {items.length > 0 && (
+            <Timeline
+              items={items}
+              tagSeq={tagSeq}
+              heading={`The ${items.length} ${items.length === 1 ? 'entry' : 'entries'} before the break`}
+            />
+          )}
+        </div>
+        <VerifyYourself code={check.code} head={null} />
+      </div>
+    );
+  }
+  return (
+    <div className="pl-body">
+      <div className="pl-col">
+        <Opinions state={check.state} cards={cards} />
+        <Ancestry state={check.state} ancestors={check.ancestors} />
+      </div>
+      <div className="pl-col">
+        <Timeline items={items} tagSeq={tagSeq} />
+      </div>
+      <VerifyYourself code={check.code} head={check.state.head} />
+    </div>
+  );
+}

@@ -1,0 +1,162 @@
+import { useId, useState, type FormEvent } from 'react';
+import { dateWords, BREAK_WORDS } from './words';
+import { checkTag, readTypedTag, type LotCheck, type TagCheck } from './check-lot';
+import { formatLotCode } from '@beadroll/core';
+
+/** The verification status, announced to screen readers whenever it changes. */
+export function StatusPanel({
+  check,
+  loading,
+  tagRef,
+}: {
+  check: LotCheck | null;
+  loading: boolean;
+  tagRef: string | null;
+}) {
+  const [typed, setTyped] = useState<{ text: string; result: TagCheck } | null>(null);
+  const fromAddress = check && tagRef ? checkTag(check.entries, tagRef) : null;
+  const tag = fromAddress ?? typed?.result ?? null;
+  return (
+    <section
+      className={`pl-card pl-status${check && !check.ok ? ' pl-status-broken' : ''}`}
+      aria-labelledby="pl-status-h"
+    >
+      <h2 id="pl-status-h" className="pl-visually-hidden">
+        Verification
+      </h2>
+      <div role="status" aria-live="polite" aria-atomic="true" className="pl-status-live">
+        {loading && <p className="pl-status-line">Fetching the history and checking it in this browser…</p>}
+        {check && <HistoryLine check={check} />}
+        {check && tag && <TagLine tag={tag} broken={!check.ok} typed={!fromAddress} />}
+      </div>
+      {check && !tagRef && <TagBox onCheck={(text, result) => setTyped({ text, result })} check={check} />}
+    </section>
+  );
+}
+
+function HistoryLine({ check }: { check: LotCheck }) {
+  if (check.ok) {
+    const n = check.entries.length;
+    const more = check.bundleEntries - n;
+    return (
+      <>
+        <p className="pl-status-line pl-ok">
+          <span aria-hidden="true" className="pl-mark">
+            ✓
+          </span>{' '}
+          Unbroken history as served: {n} {n === 1 ? 'entry' : 'entries'}
+        </p>
+        <p className="pl-status-sub">
+          Every fingerprint and link was recomputed in this browser
+          {more > 0
+            ? `, with ${more} linked ${more === 1 ? 'entry' : 'entries'} of the lots it came from`
+            : ''}
+          .
+        </p>
+      </>
+    );
+  }
+  const f = check.failure;
+  const why = f.reason in BREAK_WORDS ? BREAK_WORDS[f.reason as keyof typeof BREAK_WORDS] : f.message;
+  const where =
+    f.reason === 'not-a-bundle' || f.reason === 'no-roll'
+      ? 'The data served is not a readable history of this lot.'
+      : f.lot && f.lot !== check.code
+        ? `History broken in linked lot ${formatLotCode(f.lot)} at entry ${f.seq}: ${why}.`
+        : `History broken at entry ${f.seq} of ${check.total}${f.at ? ` (${f.at.kind}, ${dateWords(f.at.time)})` : ''}: ${why}.`;
+  return (
+    <>
+      <p className="pl-status-line pl-bad">
+        <span aria-hidden="true" className="pl-mark">
+          ✗
+        </span>{' '}
+        {where}
+      </p>
+      <p className="pl-status-sub">
+        Reason code <code>{f.reason}</code>. Nothing from the break on is shown; the entries before it are
+        listed as served.
+      </p>
+    </>
+  );
+}
+
+function TagLine({ tag, broken, typed }: { tag: TagCheck; broken: boolean; typed: boolean }) {
+  const source = typed ? 'The code you typed' : 'This tag';
+  if (tag.state === 'matches') {
+    return (
+      <p className={`pl-status-line ${broken ? 'pl-warn' : 'pl-ok'}`}>
+        <span aria-hidden="true" className="pl-mark">
+          {broken ? '!' : '✓'}
+        </span>{' '}
+        {typed ? 'The code you typed matches' : 'This tag matches'} entry {tag.seq};{' '}
+        {tag.since === 0
+          ? 'no entries added since'
+          : `${tag.since} ${tag.since === 1 ? 'entry' : 'entries'} added since`}
+        {broken ? ', but the history after it does not check out' : ''}.
+      </p>
+    );
+  }
+  if (tag.state === 'unreadable') {
+    return (
+      <p className="pl-status-line pl-warn">
+        <span aria-hidden="true" className="pl-mark">
+          !
+        </span>{' '}
+        {source} carries a reference this page cannot read, so it cannot be checked.
+      </p>
+    );
+  }
+  return (
+    <p className="pl-status-line pl-warn">
+      <span aria-hidden="true" className="pl-mark">
+        !
+      </span>{' '}
+      Warning: this history no longer contains the entry{' '}
+      {typed ? 'that code names' : 'this tag was printed from'}. The history may have been rewritten, or the
+      tag belongs to another copy of it. Ask the dealer.
+    </p>
+  );
+}
+
+function TagBox({ check, onCheck }: { check: LotCheck; onCheck: (text: string, r: TagCheck) => void }) {
+  const id = useId();
+  const [text, setText] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const read = readTypedTag(text);
+    if (!read) {
+      setError('Type the 10 letters and digits printed on the tag, for example ABCDE-FGHJK.');
+      return;
+    }
+    setError(null);
+    onCheck(text, checkTag(check.entries, read.ref, read.seq));
+  };
+  return (
+    <form className="pl-tagbox" onSubmit={submit} noValidate>
+      <label htmlFor={`${id}-in`}>Check the code printed on the tag</label>
+      <p id={`${id}-hint`} className="pl-hint">
+        It is printed under the QR code, like <span className="pl-nowrap">entry 12 · ABCDE-FGHJK</span>.
+      </p>
+      <div className="pl-tagbox-row">
+        <input
+          id={`${id}-in`}
+          name="tag"
+          autoComplete="off"
+          autoCapitalize="characters"
+          spellCheck={false}
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={`${id}-hint${error ? ` ${id}-err` : ''}`}
+        />
+        <button type="submit">Check tag</button>
+      </div>
+      {error && (
+        <p id={`${id}-err`} className="pl-field-error">
+          {error}
+        </p>
+      )}
+    </form>
+  );
+}

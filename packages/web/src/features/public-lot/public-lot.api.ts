@@ -1,0 +1,64 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { Bundle } from '@beadroll/core';
+import { ApiError, api } from '../../lib/api';
+
+/** A dealer's card as the registry reports it (not part of the verified roll). */
+export interface DealerCard {
+  id: string;
+  handle: string;
+  displayName: string;
+  business: string | null;
+  town: string | null;
+  country: string | null;
+  verifiedSince: string | null;
+  status: 'verified' | 'suspended' | 'former';
+}
+
+/** The public data of a listed lot: its bundle (roll first, then ancestors) and the cards of its actors. */
+export interface PublicLotResponse {
+  code: string;
+  bundle: Bundle;
+  cards: Record<string, DealerCard>;
+}
+
+/** What the page gets back: the data, or "not a listed lot" (the server says nothing more). */
+export type PublicLotResult = { found: true; data: PublicLotResponse } | { found: false };
+
+export const publicLotPath = (code: string) => `/api/public/lots/${encodeURIComponent(code)}`;
+export const publicBundlePath = (code: string) => `${publicLotPath(code)}/bundle`;
+export const exhibitPath = (code: string, seq: number, variant: ExhibitVariant) =>
+  `${publicLotPath(code)}/exhibits/${seq}/${variant}`;
+
+/** The file variants the server keeps of an exhibit. */
+export type ExhibitVariant = 'original' | 'web' | 'thumb';
+
+/**
+ * The lot's public data. Only the code goes to the server: a tag reference from the page's
+ * address is checked in the browser and never sent.
+ */
+export const publicLotQuery = (code: string) =>
+  queryOptions({
+    queryKey: ['public-lots', 'detail', code],
+    queryFn: async ({ signal }): Promise<PublicLotResult> => {
+      try {
+        return { found: true, data: await api<PublicLotResponse>(publicLotPath(code), { signal }) };
+      } catch (e) {
+        if (e instanceof ApiError && e.status === 404) return { found: false };
+        throw e;
+      }
+    },
+    staleTime: 60_000,
+  });
+
+/** The bytes of one exhibit file, for the page to check against its recorded SHA-256. */
+export const exhibitBytesQuery = (code: string, seq: number, variant: ExhibitVariant) =>
+  queryOptions({
+    queryKey: ['public-lots', 'exhibit', code, seq, variant],
+    queryFn: async ({ signal }): Promise<Uint8Array | null> => {
+      const res = await fetch(exhibitPath(code, seq, variant), { signal, credentials: 'same-origin' });
+      if (res.status === 404) return null;
+      if (!res.ok) throw new ApiError(res.status, 'http_error', `The server answered ${res.status}.`);
+      return new Uint8Array(await res.arrayBuffer());
+    },
+    staleTime: Infinity,
+  });

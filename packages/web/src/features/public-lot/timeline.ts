@@ -1,0 +1,212 @@
+// The roll as plain-language events, one per verified entry, oldest first.
+import {
+  formatLotCode,
+  SYSTEM_ACTOR,
+  type AnyBody,
+  type CombinedBody,
+  type DescribedBody,
+  type ExhibitAddedBody,
+  type NoteBody,
+  type ObservedBody,
+  type OpinionBody,
+  type OpinionWithdrawnBody,
+  type RedactedBody,
+  type SoldBody,
+  type SplitBody,
+  type TransferAnswerBody,
+  type TransferOfferedBody,
+  type VerifiedEntry,
+} from '@beadroll/core';
+import type { DealerCard } from './public-lot.api';
+import {
+  countWords,
+  dateWords,
+  EXHIBIT_WORDS,
+  observationPhrases,
+  ORIGIN_WORDS,
+  periodWords,
+  REDACTION_WORDS,
+} from './words';
+
+/** A name for an account id: its dealer card's name, or a neutral phrase. */
+export function nameOf(cards: Record<string, DealerCard>, actor: string | null | undefined): string {
+  if (!actor) return 'an account whose name was removed';
+  if (actor === SYSTEM_ACTOR) return 'Beadroll (automatically)';
+  const c = cards[actor];
+  if (c)
+    return c.business && c.business !== c.displayName ? `${c.displayName} (${c.business})` : c.displayName;
+  return 'an account without a registry card';
+}
+
+export interface LotLink {
+  lot: string;
+  label: string;
+}
+
+export interface TimelineItem {
+  seq: number;
+  time: string;
+  kind: VerifiedEntry['header']['kind'];
+  /** One plain sentence. */
+  text: string;
+  /** Quoted free text from the entry (a note, a transfer note), if any. */
+  quote?: string;
+  links?: LotLink[];
+  /** Set when the registrar removed this entry's contents. */
+  removed?: { on: string; reason: string };
+  /** The entry carries sealed private details (committed on the roll, not public). */
+  sealed: boolean;
+}
+
+/** Builds the timeline. Preconditions: `entries` verified, in seq order. */
+export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, DealerCard>): TimelineItem[] {
+  const removedBy = new Map<number, VerifiedEntry>();
+  for (const e of entries)
+    if (e.header.kind === 'redacted' && e.body) removedBy.set((e.body as RedactedBody).target, e);
+  const offers = new Map<number, { offerer: string; recipient: string | null }>();
+  let holder: string | null = null;
+  return entries.map((e) => {
+    const h = e.header;
+    const who = nameOf(cards, h.actor);
+    const body = e.body as AnyBody | null;
+    const item: TimelineItem = {
+      seq: h.seq,
+      time: h.time,
+      kind: h.kind,
+      text: '',
+      sealed: h.sealed !== undefined,
+    };
+    const r = removedBy.get(h.seq);
+    if (r) {
+      item.removed = {
+        on: dateWords(r.header.time),
+        reason: REDACTION_WORDS[(r.body as RedactedBody).reason],
+      };
+    }
+    switch (h.kind) {
+      case 'registered': {
+        holder = h.actor;
+        item.text = h.parents?.length
+          ? `Registered by ${who}, made from ${h.parents.length === 1 ? 'another lot' : `${h.parents.length} other lots`}.`
+          : `Registered by ${who}.`;
+        if (h.parents)
+          item.links = h.parents.map((p) => ({ lot: p.lot, label: `lot ${formatLotCode(p.lot)}` }));
+        break;
+      }
+      case 'described': {
+        const d = (body as DescribedBody | null)?.description;
+        item.text = d
+          ? `Description updated by ${who}: “${d.title}”, ${countWords(d.count)}${d.listed ? '' : ', no longer listed'}.`
+          : `Description updated by ${who}.`;
+        break;
+      }
+      case 'observed': {
+        const o = (body as ObservedBody | null)?.observations;
+        const phrases = o ? observationPhrases(o) : [];
+        item.text = phrases.length
+          ? `Observations by ${who}: ${phrases.join(', ')}.`
+          : `Observations recorded by ${who}.`;
+        if (o?.note) item.quote = o.note;
+        break;
+      }
+      case 'exhibit-added': {
+        const b = body as ExhibitAddedBody | null;
+        if (b && 'exhibit' in b) {
+          item.text = `A ${EXHIBIT_WORDS[b.exhibit.kind]} added by ${who}${b.exhibit.caption ? `: “${b.exhibit.caption}”` : ''}.`;
+        } else if (b) {
+          item.text = `A private exhibit sealed by ${who} (kept by its dealer, not shown).`;
+        } else item.text = `An exhibit added by ${who}.`;
+        break;
+      }
+      case 'opinion': {
+        const o = body as OpinionBody | null;
+        item.text = o
+          ? `Opinion by ${who}: ${ORIGIN_WORDS[o.origin]}, ${periodWords(o.period)}.`
+          : `Opinion recorded by ${who}.`;
+        break;
+      }
+      case 'opinion-withdrawn': {
+        const b = body as OpinionWithdrawnBody | null;
+        item.text = b
+          ? `${who} withdrew the opinion of entry ${b.opinionSeq}.`
+          : `${who} withdrew an opinion.`;
+        if (b?.note) item.quote = b.note;
+        break;
+      }
+      case 'transfer-offered': {
+        const b = body as TransferOfferedBody | null;
+        offers.set(h.seq, { offerer: h.actor, recipient: b?.recipient ?? null });
+        item.text = b
+          ? `${who} offered the lot to ${nameOf(cards, b.recipient)}.`
+          : `${who} offered the lot to another dealer.`;
+        if (b?.note) item.quote = b.note;
+        break;
+      }
+      case 'transfer-accepted': {
+        const b = body as TransferAnswerBody | null;
+        const offer = b ? offers.get(b.offerSeq) : undefined;
+        const from = offer?.offerer ?? holder;
+        item.text = `Passed from ${nameOf(cards, from)} to ${who}, who accepted the transfer.`;
+        holder = h.actor;
+        if (b?.note) item.quote = b.note;
+        break;
+      }
+      case 'transfer-declined': {
+        const b = body as TransferAnswerBody | null;
+        const offer = b ? offers.get(b.offerSeq) : undefined;
+        item.text = `${who} declined the offer${offer ? ` from ${nameOf(cards, offer.offerer)}` : ''}.`;
+        if (b?.note) item.quote = b.note;
+        break;
+      }
+      case 'transfer-withdrawn': {
+        const b = body as TransferAnswerBody | null;
+        const offer = b ? offers.get(b.offerSeq) : undefined;
+        item.text = `${who} withdrew the offer${offer?.recipient ? ` to ${nameOf(cards, offer.recipient)}` : ''}.`;
+        if (b?.note) item.quote = b.note;
+        break;
+      }
+      case 'transfer-lapsed':
+        item.text = 'The offer lapsed without an answer.';
+        break;
+      case 'split': {
+        const b = body as SplitBody;
+        item.text = `${who} split the lot into ${b.children.length} ${b.children.length === 1 ? 'lot' : 'lots'}.`;
+        item.links = b.children.map((c) => ({
+          lot: c.lot,
+          label: `lot ${formatLotCode(c.lot)} (${countWords(c.count)})`,
+        }));
+        break;
+      }
+      case 'combined': {
+        const b = body as CombinedBody;
+        item.text = `${who} combined ${countWords(b.count)} from this lot into a new lot.`;
+        item.links = [{ lot: b.child, label: `lot ${formatLotCode(b.child)}` }];
+        break;
+      }
+      case 'sold': {
+        const b = body as SoldBody | null;
+        item.text = b
+          ? `Sold by ${who} to a private buyer on ${dateWords(b.date)}.`
+          : `Sold by ${who} to a private buyer.`;
+        break;
+      }
+      case 'retired':
+        item.text = `Taken out of trade by ${who}.`;
+        if (body && 'note' in body && body.note) item.quote = body.note;
+        break;
+      case 'redacted': {
+        const b = body as RedactedBody;
+        item.text = `The registrar removed the contents of entry ${b.target} (${REDACTION_WORDS[b.reason]}); its fingerprint stays on the roll.`;
+        break;
+      }
+      case 'note': {
+        const b = body as NoteBody | null;
+        item.text = b?.ref !== undefined ? `Note by ${who} on entry ${b.ref}.` : `Note by ${who}.`;
+        if (b) item.quote = b.text;
+        break;
+      }
+    }
+    if (item.removed) item.quote = undefined;
+    return item;
+  });
+}
