@@ -17,6 +17,7 @@ import { LotsModule } from './lots/lots.module';
 import { TransfersModule } from './transfers/transfers.module';
 import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
+import { LineageModule } from './lineage/lineage.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -34,6 +35,7 @@ import { TagsModule } from './tags/tags.module';
     LedgerModule,
     LotsModule,
     OpinionsModule,
+    LineageModule,
     AuditModule,
     TransfersModule,
     RegistryToolsModule,

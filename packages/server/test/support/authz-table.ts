@@ -52,6 +52,10 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/lots/:code/bundle': 'signed-in',
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
+  // splits, combinations and ancestry
+  'POST /api/lots/:code/splits': { roles: ['dealer'], writer: true },
+  'POST /api/combinations': { roles: ['dealer'], writer: true },
+  'GET /api/lots/:code/ancestry': 'signed-in',
   'GET /api/audit/ledger': { roles: ['registrar'] },
   // transfers between dealers and sales to private buyers
   'GET /api/transfers/dealers': { roles: ['dealer'] },
