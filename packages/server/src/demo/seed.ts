@@ -96,7 +96,7 @@ export const seedLineage: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedTransfers, seedOpinions, seedLineage];
+export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedOpinions, seedTransfers, seedLineage];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(
