@@ -7,7 +7,12 @@ import { AuthModule } from './auth/auth.module';
 import { ErrorFilter } from './common/error.filter';
 import { RequestIdMiddleware } from './common/request-id.middleware';
 import { dataSourceOptions } from './database/data-source';
+import { AuditModule } from './audit/audit.module';
 import { HealthModule } from './health/health.module';
+import { MailModule } from './mail/mail.module';
+import { AccountsModule } from './accounts/accounts.module';
+import { LedgerModule } from './ledger/ledger.module';
+import { LotsModule } from './lots/lots.module';
 
 @Module({
   imports: [
@@ -17,7 +22,12 @@ import { HealthModule } from './health/health.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     HealthModule,
+    MailModule,
     AuthModule,
+    AccountsModule,
+    LedgerModule,
+    LotsModule,
+    AuditModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -67,9 +67,28 @@ describe('sign-in, the global guard and CSRF', () => {
 
   it('signs out: the session ends for its access and refresh tokens', async () => {
     const a = await createAccount(t, { role: 'dealer' });
-    await a.agent.post('/api/auth/session/sign-out').set('X-Beadroll-Request', '1').expect(204);
-    const res = await a.agent.get('/api/auth/session').expect(200);
+    const login = await request(t.app.getHttpServer())
+      .post('/api/auth/sign-in')
+      .set('X-Beadroll-Request', '1')
+      .send({ email: a.email, password: a.password })
+      .expect(200);
+    const cookies = ([] as string[]).concat(login.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]);
+    await request(t.app.getHttpServer())
+      .post('/api/auth/session/sign-out')
+      .set('X-Beadroll-Request', '1')
+      .set('Cookie', cookies.join('; '))
+      .expect(204);
+    const res = await request(t.app.getHttpServer())
+      .get('/api/auth/session')
+      .set('Cookie', cookies.join('; '))
+      .expect(200);
     expect(res.body.account).toBeNull();
-    await a.agent.post('/api/auth/session/refresh').set('X-Beadroll-Request', '1').expect(401);
+    await request(t.app.getHttpServer())
+      .post('/api/auth/session/refresh')
+      .set('X-Beadroll-Request', '1')
+      .set('Cookie', cookies.join('; '))
+      .expect(401);
+    // The other sign-in of the same account is untouched.
+    await a.agent.get('/api/account').expect(200);
   });
 });

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res, UseGuards } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { AppConfig } from '../config/app-config';
@@ -7,6 +7,9 @@ import { CurrentAccount, type Principal, Public } from './auth.decorators';
 import { AuthService } from './auth.service';
 import { clearSessionCookies, REFRESH_COOKIE, setSessionCookies } from './cookies';
 import { SignInDto } from './dto/sign-in.dto';
+import { SignUpDto } from './dto/sign-up.dto';
+import { ForgotPasswordDto, type MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
+import { RateLimitGuard } from './rate-limit.guard';
 import { type SessionResponse, toMeResponse } from './dto/session.response';
 import { SessionsService } from './sessions.service';
 
@@ -27,6 +30,43 @@ export class AuthController {
   }
 
   @Public()
+  @UseGuards(RateLimitGuard)
+  @Post('sign-up')
+  @HttpCode(202)
+  @ApiOperation({ summary: 'Apply for a dealer or assessor account (always answers "check your e-mail")' })
+  signUp(@Body() dto: SignUpDto): Promise<MessageResponse> {
+    return this.auth.signUp(dto);
+  }
+
+  @Public()
+  @UseGuards(RateLimitGuard)
+  @Post('verify-email')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Confirm an e-mail address with the token from the e-mailed link' })
+  verifyEmail(@Body() dto: TokenDto): Promise<MessageResponse> {
+    return this.auth.verifyEmail(dto.token);
+  }
+
+  @Public()
+  @UseGuards(RateLimitGuard)
+  @Post('forgot-password')
+  @HttpCode(202)
+  @ApiOperation({ summary: 'E-mail a link to choose a new password (always answers "check your e-mail")' })
+  forgotPassword(@Body() dto: ForgotPasswordDto): Promise<MessageResponse> {
+    return this.auth.forgotPassword(dto.email);
+  }
+
+  @Public()
+  @UseGuards(RateLimitGuard)
+  @Post('reset-password')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Set a new password with the token from the e-mailed link (ends every session)' })
+  resetPassword(@Body() dto: ResetPasswordDto): Promise<MessageResponse> {
+    return this.auth.resetPassword(dto.token, dto.password);
+  }
+
+  @Public()
+  @UseGuards(RateLimitGuard)
   @Post('sign-in')
   @HttpCode(200)
   @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
@@ -41,8 +81,11 @@ export class AuthController {
   @HttpCode(200)
   @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+    const token: unknown = req.cookies?.[REFRESH_COOKIE];
+    // No refresh cookie at all: nobody is signed in, which is an answer, not an error.
+    if (token === undefined) return { account: null };
     try {
-      const session = await this.sessions.refresh(req.cookies?.[REFRESH_COOKIE]);
+      const session = await this.sessions.refresh(typeof token === 'string' ? token : '');
       setSessionCookies(res, this.config, session.access, session.refresh);
       return { account: toMeResponse(await this.auth.me(session.accountId)) };
     } catch (err) {

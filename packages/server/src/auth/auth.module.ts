@@ -2,6 +2,7 @@ import { Module } from '@nestjs/common';
 import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
 import { PassportModule } from '@nestjs/passport';
+import { ThrottlerModule } from '@nestjs/throttler';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { Account } from '../accounts/entities/account.entity';
 import { EmailToken } from '../accounts/entities/email-token.entity';
@@ -12,6 +13,7 @@ import { AccessStrategy, JWT_SECRET } from './access.strategy';
 import { AuthController } from './auth.controller';
 import { AccessGuard } from './auth.guard';
 import { AuthService } from './auth.service';
+import { EmailTokensService } from './email-tokens.service';
 import { JWT_ALGORITHM, loadJwtSecret } from './jwt-secret';
 import { PasswordsService } from './passwords.service';
 import { SessionsService } from './sessions.service';
@@ -21,6 +23,12 @@ import { SessionsService } from './sessions.service';
   imports: [
     TypeOrmModule.forFeature([Account, Session, RefreshToken, EmailToken]),
     PassportModule,
+    ThrottlerModule.forRootAsync({
+      inject: [APP_CONFIG],
+      useFactory: (config: AppConfig) => ({
+        throttlers: [{ ttl: config.throttle.ttlMs, limit: config.throttle.limit }],
+      }),
+    }),
     JwtModule.registerAsync({
       inject: [JWT_SECRET, APP_CONFIG],
       extraProviders: [
@@ -47,9 +55,10 @@ import { SessionsService } from './sessions.service';
     PasswordsService,
     SessionsService,
     AuthService,
+    EmailTokensService,
     AccessStrategy,
     { provide: APP_GUARD, useClass: AccessGuard },
   ],
-  exports: [PasswordsService, SessionsService, AuthService, TypeOrmModule],
+  exports: [PasswordsService, SessionsService, AuthService, EmailTokensService, TypeOrmModule],
 })
 export class AuthModule {}

@@ -1,21 +1,152 @@
-import { Injectable } from '@nestjs/common';
+import { randomBytes } from 'node:crypto';
+import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
+import { accountLetters } from '../accounts/account-letters';
 import { Account } from '../accounts/entities/account.entity';
 import { AppError } from '../common/app-error';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { MailService } from '../mail/mail.service';
+import type { SignUpDto } from './dto/sign-up.dto';
+import type { MessageResponse } from './dto/tokens.dto';
+import { EmailTokensService } from './email-tokens.service';
 import { PasswordsService } from './passwords.service';
 import { type IssuedSession, SessionsService } from './sessions.service';
 
-/** Sign-in and the flows around it. */
+const CHECK_MAIL: MessageResponse = {
+  message: 'Check your e-mail: we sent a message to that address with what to do next.',
+};
+
+function isUniqueViolation(err: unknown): boolean {
+  return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
+}
+
+/** Sign-up, sign-in and the e-mailed flows around them. */
 @Injectable()
 export class AuthService {
   constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
     @InjectRepository(Account) private readonly accounts: Repository<Account>,
     private readonly passwords: PasswordsService,
     private readonly sessions: SessionsService,
+    private readonly tokens: EmailTokensService,
+    private readonly mail: MailService,
   ) {}
 
-  /** Checks e-mail and password and starts a session. Unverified e-mail addresses cannot sign in yet. */
+  private link(path: string, token?: string): string {
+    return `${this.config.publicBaseUrl}${path}${token ? `?token=${encodeURIComponent(token)}` : ''}`;
+  }
+
+  /**
+   * Applies for a dealer or assessor account. The answer is the same whether or not the address
+   * is known: a known address gets a notice instead of a second account.
+   */
+  async signUp(dto: SignUpDto): Promise<MessageResponse> {
+    const existing = await this.findByEmail(dto.email);
+    if (existing) {
+      await this.mail.send(
+        existing.email,
+        accountLetters.alreadyRegistered(existing.displayName, this.link('/forgot-password')),
+      );
+      return CHECK_MAIL;
+    }
+    const handleTaken = () => AppError.validation([{ field: 'handle', reason: 'is already taken' }]);
+    if (await this.accounts.exists({ where: { handle: dto.handle } })) throw handleTaken();
+    let account: Account;
+    try {
+      account = await this.accounts.save(
+        this.accounts.create({
+          role: dto.role,
+          status: 'pending',
+          handle: dto.handle,
+          email: dto.email,
+          displayName: dto.displayName,
+          business: dto.business,
+          town: dto.town,
+          country: dto.country,
+          passwordHash: await this.passwords.hash(dto.password),
+          emailVerifiedAt: null,
+          verifiedAt: null,
+          statusReason: null,
+        }),
+      );
+    } catch (err) {
+      // Two sign-ups racing for the same handle or address: the loser learns nothing new.
+      if (!isUniqueViolation(err)) throw err;
+      if (String((err as { constraint?: string }).constraint).includes('handle')) throw handleTaken();
+      return CHECK_MAIL;
+    }
+    const token = await this.tokens.issue(account.id, 'verify-email');
+    await this.mail.send(
+      account.email,
+      accountLetters.verifyEmail(account.displayName, this.link('/verify-email', token)),
+    );
+    return CHECK_MAIL;
+  }
+
+  /** Confirms an e-mail address from the link's token; registrars hear of the new application. */
+  async verifyEmail(token: string): Promise<MessageResponse> {
+    const used = await this.tokens.consume(token, ['verify-email']);
+    const account = await this.accounts.findOneByOrFail({ id: used.accountId });
+    if (!account.emailVerifiedAt) {
+      account.emailVerifiedAt = new Date();
+      await this.accounts.save(account);
+      if (account.status === 'pending') {
+        const registrars = await this.accounts.find({ where: { role: 'registrar', status: 'verified' } });
+        for (const r of registrars) {
+          await this.mail.send(
+            r.email,
+            accountLetters.newApplication(account.displayName, account.business, this.link('/registry')),
+          );
+        }
+      }
+    }
+    return { message: 'Thank you: your e-mail address is confirmed. You can sign in now.' };
+  }
+
+  async forgotPassword(email: string): Promise<MessageResponse> {
+    const account = await this.findByEmail(email);
+    if (account && account.status !== 'closed') {
+      const token = await this.tokens.issue(account.id, 'reset-password');
+      await this.mail.send(
+        account.email,
+        accountLetters.resetPassword(account.displayName, this.link('/reset-password', token)),
+      );
+    }
+    return CHECK_MAIL;
+  }
+
+  /** Sets a new password from a reset or set-password link; every session of the account ends. */
+  async resetPassword(token: string, password: string): Promise<MessageResponse> {
+    const used = await this.tokens.consume(token, ['reset-password', 'set-password']);
+    const account = await this.accounts.findOneByOrFail({ id: used.accountId });
+    account.passwordHash = await this.passwords.hash(password);
+    // Following the e-mailed link proves the address.
+    account.emailVerifiedAt ??= new Date();
+    await this.accounts.save(account);
+    await this.sessions.revokeAll(account.id, 'password');
+    return { message: 'Your new password is set. Please sign in with it.' };
+  }
+
+  /** Changes the password of the signed-in account and ends every other session. */
+  async changePassword(
+    accountId: string,
+    sessionId: string | undefined,
+    current: string,
+    next: string,
+  ): Promise<MessageResponse> {
+    const account = await this.accounts.findOneByOrFail({ id: accountId });
+    if (!(await this.passwords.verify(current, account.passwordHash))) {
+      throw AppError.validation([{ field: 'currentPassword', reason: 'is not your current password' }]);
+    }
+    account.passwordHash = await this.passwords.hash(next);
+    await this.accounts.save(account);
+    await this.sessions.revokeAll(account.id, 'password', sessionId);
+    return { message: 'Your password is changed. Every other sign-in has ended.' };
+  }
+
+  /** Checks e-mail and password and starts a session. Unconfirmed e-mail addresses cannot sign in yet. */
   async signIn(email: string, password: string): Promise<{ account: Account; session: IssuedSession }> {
     const account = await this.findByEmail(email);
     const usable = account && account.status !== 'closed' ? account : null;
@@ -41,5 +172,34 @@ export class AuthService {
       .createQueryBuilder('a')
       .where('lower(a.email) = lower(:email)', { email: email.trim() })
       .getOne();
+  }
+
+  /** Creates (or finds) the registrar for an address and e-mails a set-password link; returns the link. */
+  async createRegistrar(email: string): Promise<{ account: Account; link: string; created: boolean }> {
+    let account = await this.findByEmail(email);
+    const created = !account;
+    if (account && account.role !== 'registrar') {
+      throw new AppError('conflict', `${email} already belongs to a ${account.role} account.`);
+    }
+    account ??= await this.accounts.save(
+      this.accounts.create({
+        role: 'registrar',
+        status: 'verified',
+        handle: `registrar-${randomBytes(3).toString('hex')}`,
+        email: email.trim(),
+        displayName: 'Registrar',
+        business: 'Beadroll registry',
+        town: '-',
+        country: '-',
+        passwordHash: null,
+        emailVerifiedAt: null,
+        verifiedAt: new Date(),
+        statusReason: null,
+      }),
+    );
+    const token = await this.tokens.issue(account.id, 'set-password');
+    const link = this.link('/reset-password', token);
+    await this.mail.send(account.email, accountLetters.setPassword(link));
+    return { account, link, created };
   }
 }

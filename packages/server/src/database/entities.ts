@@ -1,6 +1,21 @@
 import { Account } from '../accounts/entities/account.entity';
 import { EmailToken } from '../accounts/entities/email-token.entity';
 import { RefreshToken, Session } from '../accounts/entities/session.entity';
+import { EntryBodyEntity } from '../ledger/entities/entry-body.entity';
+import { EntryEntity } from '../ledger/entities/entry.entity';
+import { LotEntity } from '../ledger/entities/lot.entity';
+import { SealedFieldEntity } from '../ledger/entities/sealed-field.entity';
+import { LotViewEntity } from '../lots/entities/lot-view.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
-export const ENTITIES: Array<new (...args: never[]) => object> = [Account, Session, RefreshToken, EmailToken];
+export const ENTITIES: Array<new (...args: never[]) => object> = [
+  Account,
+  Session,
+  RefreshToken,
+  EmailToken,
+  LotEntity,
+  EntryEntity,
+  EntryBodyEntity,
+  SealedFieldEntity,
+  LotViewEntity,
+];

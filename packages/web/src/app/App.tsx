@@ -2,19 +2,37 @@ import { FluentProvider } from '@fluentui/react-components';
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router-dom';
+import { AccountPage } from '../features/accounts/AccountPage';
+import { ForgotPasswordPage } from '../features/accounts/ForgotPasswordPage';
+import { RegistryPage } from '../features/accounts/RegistryPage';
+import { ResetPasswordPage } from '../features/accounts/ResetPasswordPage';
+import { RoleShell } from '../features/accounts/RoleShell';
+import { SignInPage } from '../features/accounts/SignInPage';
+import { SignUpPage } from '../features/accounts/SignUpPage';
+import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { createQueryClient } from '../lib/query-client';
-import { Shell, type NavItem } from './Shell';
+import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
 
-const NAV: NavItem[] = [{ to: '/', label: 'Start' }];
+const NAV: NavItem[] = [
+  { to: '/', label: 'Start' },
+  { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+];
 
 export const routes: RouteObject[] = [
   {
-    element: <Shell nav={NAV} />,
+    element: <RoleShell nav={NAV} />,
     children: [
       { index: true, element: <HomePage /> },
+      { path: 'sign-in', element: <SignInPage /> },
+      { path: 'sign-up', element: <SignUpPage /> },
+      { path: 'verify-email', element: <VerifyEmailPage /> },
+      { path: 'forgot-password', element: <ForgotPasswordPage /> },
+      { path: 'reset-password', element: <ResetPasswordPage /> },
+      { path: 'account', element: <AccountPage /> },
+      { path: 'registry', element: <RegistryPage /> },
       { path: '*', element: <NotFoundPage /> },
     ],
   },

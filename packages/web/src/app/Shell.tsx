@@ -55,6 +55,12 @@ const useStyles = makeStyles({
 export interface NavItem {
   to: string;
   label: string;
+  /** Shown only to signed-in accounts with one of these roles. */
+  roles?: Array<'dealer' | 'assessor' | 'registrar'>;
+  /** Shown only to signed-in accounts. */
+  signedIn?: boolean;
+  /** Shown only to accounts the registrar has verified (they may write to rolls). */
+  writer?: boolean;
 }
 
 /** The app frame: product name, navigation, account area, page content. */

@@ -59,8 +59,42 @@ export async function toApiError(res: Response): Promise<ApiError> {
   return new ApiError(res.status, 'http_error', `The server answered ${res.status}. Please try again.`);
 }
 
-/** The one typed API client: JSON in and out, cookies included, errors as ApiError. */
+let refreshing: Promise<boolean> | undefined;
+
+/** Renews the session cookies once (shared by concurrent callers); false when the sign-in has ended. */
+function refreshSession(): Promise<boolean> {
+  refreshing ??= fetch('/api/auth/session/refresh', {
+    method: 'POST',
+    headers: { Accept: 'application/json', [CSRF_HEADER]: '1' },
+    credentials: 'same-origin',
+  })
+    .then((r) => r.ok)
+    .catch(() => false)
+    .finally(() => {
+      refreshing = undefined;
+    });
+  return refreshing;
+}
+
+/**
+ * The one typed API client: JSON in and out, cookies included, errors as ApiError. A lapsed
+ * access cookie is renewed once through the refresh route and the request repeated.
+ */
 export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+  try {
+    return await request<T>(path, opts);
+  } catch (err) {
+    const renewable =
+      err instanceof ApiError &&
+      err.status === 401 &&
+      err.code === 'unauthenticated' &&
+      !path.startsWith('/api/auth/');
+    if (renewable && (await refreshSession())) return request<T>(path, opts);
+    throw err;
+  }
+}
+
+async function request<T>(path: string, opts: RequestOptions): Promise<T> {
   const method = opts.method ?? (opts.body ? 'POST' : 'GET');
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (method !== 'GET') headers[CSRF_HEADER] = '1';

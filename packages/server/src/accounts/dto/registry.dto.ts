@@ -1,0 +1,83 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { Transform, Type } from 'class-transformer';
+import { IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import type { Account } from '../entities/account.entity';
+
+export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
+export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
+
+export class RegistryQueryDto {
+  @ApiPropertyOptional({ enum: QUEUE_STATUSES, default: 'pending' })
+  @IsOptional()
+  @IsIn(QUEUE_STATUSES, { message: `must be one of ${QUEUE_STATUSES.join(', ')}` })
+  status: (typeof QUEUE_STATUSES)[number] = 'pending';
+
+  @ApiPropertyOptional({ enum: QUEUE_SORTS, default: 'applied' })
+  @IsOptional()
+  @IsIn(QUEUE_SORTS, { message: `must be one of ${QUEUE_SORTS.join(', ')}` })
+  sort: (typeof QUEUE_SORTS)[number] = 'applied';
+
+  @ApiPropertyOptional({ default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'must be a whole number' })
+  @Min(1)
+  @Max(100000)
+  page = 1;
+
+  @ApiPropertyOptional({ default: 20 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'must be a whole number' })
+  @Min(1)
+  @Max(100)
+  pageSize = 20;
+}
+
+export class ReasonDto {
+  @ApiProperty({ description: 'Sent to the account holder by e-mail' })
+  @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
+  @IsString()
+  @MinLength(3, { message: 'must say why, in at least 3 characters' })
+  @MaxLength(500, { message: 'must be at most 500 characters' })
+  reason: string;
+}
+
+export interface ApplicantResponse {
+  id: string;
+  role: Account['role'];
+  status: Account['status'];
+  handle: string;
+  displayName: string;
+  email: string;
+  business: string;
+  town: string;
+  country: string;
+  appliedAt: string;
+  verifiedSince: string | null;
+  statusReason: string | null;
+}
+
+export interface RegistryPage {
+  items: ApplicantResponse[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+export function toApplicantResponse(a: Account): ApplicantResponse {
+  return {
+    id: a.id,
+    role: a.role,
+    status: a.status,
+    handle: a.handle,
+    displayName: a.displayName,
+    email: a.email,
+    business: a.business,
+    town: a.town,
+    country: a.country,
+    appliedAt: a.createdAt.toISOString(),
+    verifiedSince: a.verifiedAt?.toISOString() ?? null,
+    statusReason: a.statusReason,
+  };
+}

@@ -1,0 +1,48 @@
+import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { Roles } from '../auth/auth.decorators';
+import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
+import { RegistryService } from './registry.service';
+
+@ApiTags('registry')
+@Roles('registrar')
+@Controller('registry/accounts')
+export class RegistryController {
+  constructor(private readonly registry: RegistryService) {}
+
+  @Get()
+  @ApiOperation({
+    summary: 'Dealer and assessor accounts by status (the pending ones are the verification queue)',
+  })
+  list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
+    return this.registry.list(q);
+  }
+
+  @Post(':id/approve')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Verify an applicant' })
+  approve(@Param('id', ParseUUIDPipe) id: string): Promise<ApplicantResponse> {
+    return this.registry.approve(id);
+  }
+
+  @Post(':id/reject')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
+  reject(@Param('id', ParseUUIDPipe) id: string, @Body() dto: ReasonDto): Promise<ApplicantResponse> {
+    return this.registry.reject(id, dto.reason);
+  }
+
+  @Post(':id/suspend')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
+  suspend(@Param('id', ParseUUIDPipe) id: string, @Body() dto: ReasonDto): Promise<ApplicantResponse> {
+    return this.registry.suspend(id, dto.reason);
+  }
+
+  @Post(':id/reinstate')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Lift a suspension' })
+  reinstate(@Param('id', ParseUUIDPipe) id: string): Promise<ApplicantResponse> {
+    return this.registry.reinstate(id);
+  }
+}

@@ -1,0 +1,114 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import { In, IsNull, Not, Repository } from 'typeorm';
+import { SessionsService } from '../auth/sessions.service';
+import { AppError } from '../common/app-error';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { MailService } from '../mail/mail.service';
+import { accountLetters } from './account-letters';
+import {
+  type ApplicantResponse,
+  type RegistryPage,
+  type RegistryQueryDto,
+  toApplicantResponse,
+} from './dto/registry.dto';
+import { Account } from './entities/account.entity';
+
+const SORT_COLUMNS = { applied: 'createdAt', business: 'business', town: 'town' } as const;
+
+/** The registrar's work: the verification queue, approval, rejection, suspension. */
+@Injectable()
+export class RegistryService {
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly sessions: SessionsService,
+    private readonly mail: MailService,
+  ) {}
+
+  /** Dealer and assessor accounts by status; the pending queue holds only confirmed e-mail addresses. */
+  async list(q: RegistryQueryDto): Promise<RegistryPage> {
+    const desc = q.sort.startsWith('-');
+    const column = SORT_COLUMNS[q.sort.replace('-', '') as keyof typeof SORT_COLUMNS];
+    const [rows, total] = await this.accounts.findAndCount({
+      where: {
+        role: In(['dealer', 'assessor']),
+        status: q.status,
+        ...(q.status === 'pending' ? { emailVerifiedAt: Not(IsNull()) } : {}),
+      },
+      order: { [column]: desc ? 'DESC' : 'ASC', id: 'ASC' },
+      skip: (q.page - 1) * q.pageSize,
+      take: q.pageSize,
+    });
+    return { items: rows.map(toApplicantResponse), total, page: q.page, pageSize: q.pageSize };
+  }
+
+  async approve(id: string): Promise<ApplicantResponse> {
+    const a = await this.target(id);
+    if (a.status !== 'pending' && a.status !== 'rejected') {
+      throw new AppError(
+        'conflict',
+        `This account is ${a.status}; only pending or rejected applications can be approved.`,
+      );
+    }
+    if (!a.emailVerifiedAt)
+      throw new AppError('conflict', 'This applicant has not confirmed their e-mail address yet.');
+    a.status = 'verified';
+    a.verifiedAt ??= new Date();
+    a.statusReason = null;
+    await this.accounts.save(a);
+    await this.mail.send(
+      a.email,
+      accountLetters.approved(a.displayName, `${this.config.publicBaseUrl}/sign-in`),
+    );
+    return toApplicantResponse(a);
+  }
+
+  async reject(id: string, reason: string): Promise<ApplicantResponse> {
+    const a = await this.target(id);
+    if (a.status !== 'pending')
+      throw new AppError(
+        'conflict',
+        `This account is ${a.status}; only pending applications can be rejected.`,
+      );
+    a.status = 'rejected';
+    a.statusReason = reason;
+    await this.accounts.save(a);
+    await this.mail.send(a.email, accountLetters.rejected(a.displayName, reason));
+    return toApplicantResponse(a);
+  }
+
+  /** Suspends a verified account: it keeps reading, writes nothing, and is signed out everywhere. */
+  async suspend(id: string, reason: string): Promise<ApplicantResponse> {
+    const a = await this.target(id);
+    if (a.status !== 'verified')
+      throw new AppError('conflict', `This account is ${a.status}; only verified accounts can be suspended.`);
+    a.status = 'suspended';
+    a.statusReason = reason;
+    await this.accounts.save(a);
+    await this.sessions.revokeAll(a.id, 'suspended');
+    await this.mail.send(a.email, accountLetters.suspended(a.displayName, reason));
+    return toApplicantResponse(a);
+  }
+
+  async reinstate(id: string): Promise<ApplicantResponse> {
+    const a = await this.target(id);
+    if (a.status !== 'suspended')
+      throw new AppError(
+        'conflict',
+        `This account is ${a.status}; only suspended accounts can be reinstated.`,
+      );
+    a.status = 'verified';
+    a.statusReason = null;
+    await this.accounts.save(a);
+    await this.mail.send(a.email, accountLetters.reinstated(a.displayName));
+    return toApplicantResponse(a);
+  }
+
+  private async target(id: string): Promise<Account> {
+    const a = await this.accounts.findOne({ where: { id } });
+    if (!a || a.role === 'registrar') throw new AppError('not_found', 'No such dealer or assessor account.');
+    return a;
+  }
+}

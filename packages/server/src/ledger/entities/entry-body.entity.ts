@@ -1,0 +1,20 @@
+import { Column, Entity, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import { EntryEntity } from './entry.entity';
+
+/**
+ * The canonical body string of an entry, kept apart from its header so that a redaction can
+ * delete the body while the header (with the body's digest) stays. The database refuses any
+ * UPDATE, and a DELETE unless a `redacted` entry on the same roll names that entry.
+ */
+@Entity({ name: 'entry_bodies' })
+export class EntryBodyEntity {
+  @PrimaryColumn({ name: 'entry_id', type: 'bigint', primaryKeyConstraintName: 'pk_entry_bodies' })
+  entryId: string;
+
+  @OneToOne(() => EntryEntity, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_entry_bodies_entry' })
+  entry?: EntryEntity;
+
+  @Column({ type: 'text' })
+  body: string;
+}

@@ -1,0 +1,44 @@
+import { Check, Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { EntryEntity } from './entry.entity';
+
+/**
+ * One sealed field of an entry: its salt and value, which only the accounts in `visibleTo` may
+ * ever read (the dealer who recorded it; for a transfer price, both parties). The header holds
+ * only the root of the commitments. Rows never change.
+ */
+@Entity({ name: 'sealed_fields' })
+@Unique('uq_sealed_fields_entry_name', ['entryId', 'name'])
+@Check('ck_sealed_fields_salt', `"salt" ~ '^[0-9a-f]{32}$'`)
+@Check('ck_sealed_fields_commitment', `"commitment" ~ '^[0-9a-f]{64}$'`)
+export class SealedFieldEntity {
+  @PrimaryGeneratedColumn('identity', {
+    type: 'bigint',
+    generatedIdentity: 'ALWAYS',
+    primaryKeyConstraintName: 'pk_sealed_fields',
+  })
+  id: string;
+
+  @Column({ name: 'entry_id', type: 'bigint' })
+  entryId: string;
+
+  @ManyToOne(() => EntryEntity, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_sealed_fields_entry' })
+  entry?: EntryEntity;
+
+  @Column({ type: 'varchar', length: 40 })
+  name: string;
+
+  @Column({ type: 'char', length: 32 })
+  salt: string;
+
+  /** The value as canonical JSON, exactly as committed. */
+  @Column({ type: 'text' })
+  value: string;
+
+  @Column({ type: 'char', length: 64 })
+  commitment: string;
+
+  /** Account ids that may read this value. */
+  @Column({ name: 'visible_to', type: 'varchar', length: 64, array: true })
+  visibleTo: string[];
+}

@@ -1,0 +1,292 @@
+import { Inject, Injectable } from '@nestjs/common';
+import {
+  buildEntry,
+  canonicalise,
+  checkTransition,
+  generateLotCode,
+  isCanonicalLotCode,
+  reduceEntry,
+  ValidationError,
+  type BuiltEntry,
+  type CombinedBody,
+  type EntryKind,
+  type RedactionReason,
+  type RollState,
+  type SealedFieldName,
+  type SplitBody,
+} from '@beadroll/core';
+import { DataSource, type EntityManager } from 'typeorm';
+import { AppError } from '../common/app-error';
+import { LedgerClock } from './ledger.clock';
+import { LEDGER_RANDOM, type LedgerRandom } from './ledger.tokens';
+import type { AppendDraft, AppendedEntry, RegisterDraft, RollProjector } from './ledger.types';
+import { issuesToFields } from './roll-rule.error';
+
+interface LockedLot {
+  id: string;
+  code: string;
+  state: RollState;
+}
+
+/** Options of one append or registration. */
+export interface AppendOptions {
+  /** Renames core's field paths (`body.description`) to the request's field names in 400 answers. */
+  fields?: Record<string, string>;
+}
+
+function refusal(e: unknown, fields: Record<string, string> = {}): never {
+  if (e instanceof ValidationError) throw AppError.validation(issuesToFields(e.issues, fields));
+  throw e;
+}
+
+function transitionError(code: 'bad-actor' | 'bad-transition', message: string): AppError {
+  return code === 'bad-actor' ? new AppError('forbidden', message) : new AppError('roll_rule', message);
+}
+
+/**
+ * One transaction over one or more rolls, holding the row lock of every lot it touches. Every
+ * write to any roll goes through {@link RollTransaction.append} or {@link RollTransaction.register}:
+ * core checks the transition, core builds the entry, the entry is inserted and the head moves.
+ */
+export class RollTransaction {
+  private readonly locked = new Map<string, LockedLot>();
+
+  constructor(
+    readonly manager: EntityManager,
+    private readonly random: LedgerRandom,
+    private readonly projectors: RollProjector[],
+    /** One time for the whole transaction, so parent links never point into the future. */
+    private readonly time: string,
+  ) {}
+
+  /** Locks an existing lot (`SELECT … FOR UPDATE`); callers lock several in {@link LedgerService.withLots} order. */
+  async lock(code: string): Promise<LockedLot> {
+    const have = this.locked.get(code);
+    if (have) return have;
+    const rows: Array<{ id: string; code: string; state: RollState; head_hash: string }> =
+      await this.manager.query(
+        'SELECT "id", "code", "state", "head_hash" FROM "lots" WHERE "code" = $1 FOR UPDATE',
+        [code],
+      );
+    const row = rows[0];
+    if (!row) throw new AppError('not_found', 'Not found.');
+    if (row.state.head.hash !== row.head_hash)
+      throw new AppError('internal', `the stored state of lot ${code} does not match its head`);
+    const lot = { id: row.id, code: row.code, state: row.state };
+    this.locked.set(code, lot);
+    return lot;
+  }
+
+  /** The derived state of a locked lot (after any entries this transaction appended). */
+  state(code: string): RollState {
+    const lot = this.locked.get(code);
+    if (!lot) throw new Error(`lot ${code} is not locked in this transaction`);
+    return lot.state;
+  }
+
+  /** Draws a fresh lot code that no lot has yet. */
+  async newCode(): Promise<string> {
+    for (;;) {
+      const code = generateLotCode(this.random);
+      const rows: unknown[] = await this.manager.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
+      if (rows.length === 0) return code;
+    }
+  }
+
+  /** Appends one entry to a lot this transaction has locked (or locks it now). */
+  async append<K extends EntryKind>(
+    code: string,
+    draft: AppendDraft<K>,
+    options: AppendOptions = {},
+  ): Promise<AppendedEntry> {
+    const lot = await this.lock(code);
+    const state = lot.state;
+    const time = this.time < state.head.time ? state.head.time : this.time;
+    let built: BuiltEntry;
+    try {
+      built = buildEntry(
+        state.head,
+        { kind: draft.kind, actor: draft.actor, time, body: draft.body, sealed: draft.sealed },
+        { random: this.random },
+      );
+    } catch (e) {
+      refusal(e, options.fields);
+    }
+    const t = checkTransition(state, { kind: draft.kind, actor: draft.actor, body: built.body });
+    if (!t.ok) throw transitionError(t.code, t.message);
+    const next = reduceEntry(state, { header: built.header, hash: built.stored.hash, body: built.body });
+    const entry = await this.insert(lot.id, built, next, draft.sealedAlsoVisibleTo);
+    await this.manager.query(
+      'UPDATE "lots" SET "head_seq" = $2, "head_hash" = $3, "head_time" = $4, "state" = $5 WHERE "id" = $1',
+      [lot.id, built.header.seq, built.stored.hash, built.header.time, JSON.stringify(next)],
+    );
+    lot.state = next;
+    await this.project(lot.id, entry);
+    return entry;
+  }
+
+  /** Opens a new roll with its `registered` entry; the new lot stays locked in this transaction. */
+  async register(draft: RegisterDraft, options: AppendOptions = {}): Promise<AppendedEntry> {
+    const code = draft.code ?? (await this.newCode());
+    if (!isCanonicalLotCode(code)) throw new AppError('bad_request', 'not a canonical lot code');
+    let built: BuiltEntry;
+    try {
+      built = buildEntry(
+        null,
+        {
+          lot: code,
+          kind: 'registered',
+          actor: draft.actor,
+          time: this.time,
+          body: { description: draft.description },
+          parents: draft.parents,
+          sealed: draft.sealed,
+        },
+        { random: this.random },
+      );
+    } catch (e) {
+      refusal(e, options.fields);
+    }
+    const t = checkTransition(null, { kind: 'registered', actor: draft.actor, body: built.body });
+    if (!t.ok) throw transitionError(t.code, t.message);
+    for (const p of draft.parents ?? []) await this.checkParent(p, code);
+    const state = reduceEntry(null, { header: built.header, hash: built.stored.hash, body: built.body });
+    const rows: Array<{ id: string }> = await this.manager.query(
+      `INSERT INTO "lots" ("code", "head_seq", "head_hash", "head_time", "state")
+       VALUES ($1, 0, $2, $3, $4) ON CONFLICT ON CONSTRAINT "uq_lots_code" DO NOTHING RETURNING "id"`,
+      [code, built.stored.hash, built.header.time, JSON.stringify(state)],
+    );
+    if (rows.length === 0) throw new AppError('conflict', `lot ${code} already exists`);
+    const lot = { id: rows[0]!.id, code, state };
+    this.locked.set(code, lot);
+    const entry = await this.insert(lot.id, built, state, draft.sealedAlsoVisibleTo);
+    await this.project(lot.id, entry);
+    return entry;
+  }
+
+  /**
+   * Appends a `redacted` entry and deletes the target's body: the only path that removes
+   * anything, and the database admits the deletion only once the `redacted` entry is on the
+   * roll. Callers admit only the registrar.
+   */
+  async redact(code: string, actor: string, target: number, reason: RedactionReason): Promise<AppendedEntry> {
+    const entry = await this.append(code, { kind: 'redacted', actor, body: { target, reason } });
+    await this.manager.query(`SELECT set_config('beadroll.redaction', 'on', true)`);
+    await this.manager.query(
+      `DELETE FROM "entry_bodies" WHERE "entry_id" =
+         (SELECT e."id" FROM "entries" e WHERE e."lot_id" = $1 AND e."seq" = $2)`,
+      [this.locked.get(code)!.id, target],
+    );
+    await this.manager.query(`SELECT set_config('beadroll.redaction', 'off', true)`);
+    return entry;
+  }
+
+  private async checkParent(p: { lot: string; seq: number; hash: string }, child: string): Promise<void> {
+    const rows: Array<{ hash: string; kind: string; body: string | null }> = await this.manager.query(
+      `SELECT e."hash", e."kind", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
+      [p.lot, p.seq],
+    );
+    const row = rows[0];
+    const bad = (why: string) => new AppError('roll_rule', `parent ${p.lot} seq ${p.seq} ${why}`);
+    if (!row || row.hash !== p.hash) throw bad('is not on the ledger with that hash');
+    if ((row.kind !== 'split' && row.kind !== 'combined') || !row.body)
+      throw bad('is not a split or combined entry');
+    const body = JSON.parse(row.body) as SplitBody | CombinedBody;
+    const names = 'children' in body ? body.children.map((c) => c.lot) : [body.child];
+    if (!names.includes(child)) throw bad(`does not name ${child}`);
+  }
+
+  private async insert(
+    lotId: string,
+    built: BuiltEntry,
+    state: RollState,
+    alsoVisibleTo: Partial<Record<SealedFieldName, string[]>> = {},
+  ): Promise<AppendedEntry> {
+    const h = built.header;
+    const redacts = h.kind === 'redacted' ? (built.body as { target: number }).target : null;
+    const rows: Array<{ id: string }> = await this.manager.query(
+      `INSERT INTO "entries" ("lot_id", "seq", "kind", "actor", "time", "hash", "header", "redacts_seq")
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8) RETURNING "id"`,
+      [lotId, h.seq, h.kind, h.actor, h.time, built.stored.hash, built.stored.header, redacts],
+    );
+    const entryId = rows[0]!.id;
+    await this.manager.query('INSERT INTO "entry_bodies" ("entry_id", "body") VALUES ($1, $2)', [
+      entryId,
+      built.stored.body,
+    ]);
+    for (const f of built.sealed?.fields ?? []) {
+      const viewers = [...new Set([h.actor, ...(alsoVisibleTo[f.name] ?? [])])];
+      await this.manager.query(
+        `INSERT INTO "sealed_fields" ("entry_id", "name", "salt", "value", "commitment", "visible_to")
+         VALUES ($1, $2, $3, $4, $5, $6)`,
+        [entryId, f.name, f.salt, canonicalise(f.value), f.commitment, viewers],
+      );
+    }
+    return {
+      lot: h.lot,
+      seq: h.seq,
+      kind: h.kind,
+      hash: built.stored.hash,
+      time: h.time,
+      actor: h.actor,
+      header: built.stored.header,
+      body: built.stored.body!,
+      state,
+    };
+  }
+
+  private async project(lotId: string, entry: AppendedEntry): Promise<void> {
+    for (const p of this.projectors) await p.project(this.manager, lotId, entry);
+  }
+}
+
+/**
+ * The one append path of the ledger. Each call is one database transaction: the lots involved
+ * are locked in a fixed order (their codes, sorted), core's rules decide, core builds each
+ * entry, and the entries, bodies, sealed fields, heads and derived views are written together
+ * or not at all. Appends to one lot serialise on its row lock; different lots do not block each
+ * other.
+ */
+@Injectable()
+export class LedgerService {
+  private readonly projectors: RollProjector[] = [];
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly clock: LedgerClock,
+    @Inject(LEDGER_RANDOM) private readonly random: LedgerRandom,
+  ) {}
+
+  /** Adds a projector run inside every append transaction (the lot view, later others). */
+  addProjector(p: RollProjector): void {
+    this.projectors.push(p);
+  }
+
+  /**
+   * Runs `fn` in one transaction after locking every lot in `codes` (canonical codes), in
+   * sorted order so that two transactions over the same lots never deadlock. New lots made in
+   * `fn` (split and combined children) need no lock. An unknown code is a 404.
+   */
+  async withLots<T>(codes: string[], fn: (tx: RollTransaction) => Promise<T>): Promise<T> {
+    return this.dataSource.transaction('READ COMMITTED', async (manager) => {
+      const tx = new RollTransaction(manager, this.random, this.projectors, this.clock.now().toISOString());
+      for (const code of [...new Set(codes)].sort()) await tx.lock(code);
+      return fn(tx);
+    });
+  }
+
+  /** Appends one entry to one lot, in its own transaction. */
+  append<K extends EntryKind>(
+    code: string,
+    draft: AppendDraft<K>,
+    options?: AppendOptions,
+  ): Promise<AppendedEntry> {
+    return this.withLots([code], (tx) => tx.append(code, draft, options));
+  }
+
+  /** Registers one new lot, in its own transaction. */
+  register(draft: RegisterDraft, options?: AppendOptions): Promise<AppendedEntry> {
+    return this.withLots([], (tx) => tx.register(draft, options));
+  }
+}

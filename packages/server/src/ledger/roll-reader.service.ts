@@ -1,0 +1,116 @@
+import { Injectable } from '@nestjs/common';
+import { isLotCode, parseLotCode, type BundleEntry, type SealedFieldName } from '@beadroll/core';
+import { DataSource, type EntityManager } from 'typeorm';
+
+/** A stored entry with the columns other features read without decoding the header. */
+export interface StoredRollEntry extends BundleEntry {
+  seq: number;
+  kind: string;
+  actor: string;
+  time: string;
+}
+
+/** A sealed value the viewer may read, with what is needed to disclose it. */
+export interface ViewerSealedField {
+  seq: number;
+  name: SealedFieldName;
+  salt: string;
+  value: unknown;
+  commitment: string;
+}
+
+/** Identity and head of a stored lot. */
+export interface LotHead {
+  id: string;
+  code: string;
+  headSeq: number;
+  headHash: string;
+}
+
+/**
+ * Reads rolls as stored: exact header and body strings, for verifiers and bundles. Sealed
+ * values are read only through {@link sealedFor}, for one named viewer.
+ */
+@Injectable()
+export class RollReaderService {
+  constructor(private readonly dataSource: DataSource) {}
+
+  /** Canonical form of a code as typed (hyphens, case, I/L/O), or null when it is not a valid code. */
+  static canonicalCode(text: string): string | null {
+    if (typeof text !== 'string' || text.length > 20 || !isLotCode(text)) return null;
+    return parseLotCode(text);
+  }
+
+  async findLot(code: string, manager: EntityManager = this.dataSource.manager): Promise<LotHead | null> {
+    const rows: Array<{ id: string; code: string; head_seq: number; head_hash: string }> =
+      await manager.query('SELECT "id", "code", "head_seq", "head_hash" FROM "lots" WHERE "code" = $1', [
+        code,
+      ]);
+    const r = rows[0];
+    return r ? { id: r.id, code: r.code, headSeq: r.head_seq, headHash: r.head_hash } : null;
+  }
+
+  /** Entries of a lot in seq order, from `fromSeq`, at most `limit`. */
+  async entries(
+    lotId: string,
+    opts: { fromSeq?: number; limit?: number; kinds?: string[] } = {},
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<StoredRollEntry[]> {
+    const rows: Array<{
+      seq: number;
+      kind: string;
+      actor: string;
+      time: string;
+      hash: string;
+      header: string;
+      body: string | null;
+      log_index: string | null;
+    }> = await manager.query(
+      `SELECT e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body", e."log_index"
+       FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+       WHERE e."lot_id" = $1 AND e."seq" >= $2 AND ($4::text[] IS NULL OR e."kind" = ANY($4))
+       ORDER BY e."seq" LIMIT $3`,
+      [lotId, opts.fromSeq ?? 0, opts.limit ?? 1_000_000, opts.kinds ?? null],
+    );
+    return rows.map((r) => ({
+      seq: r.seq,
+      kind: r.kind,
+      actor: r.actor,
+      time: r.time,
+      hash: r.hash,
+      header: r.header,
+      body: r.body,
+      logIndex: r.log_index === null ? null : Number(r.log_index),
+    }));
+  }
+
+  /** The sealed fields of a lot's entries that `viewer` may read (none for anyone else). */
+  async sealedFor(lotId: string, viewer: string): Promise<ViewerSealedField[]> {
+    const rows: Array<{
+      seq: number;
+      name: SealedFieldName;
+      salt: string;
+      value: string;
+      commitment: string;
+    }> = await this.dataSource.query(
+      `SELECT e."seq", s."name", s."salt", s."value", s."commitment"
+         FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
+         WHERE e."lot_id" = $1 AND $2 = ANY(s."visible_to") ORDER BY e."seq", s."name"`,
+      [lotId, viewer],
+    );
+    return rows.map((r) => ({ ...r, value: JSON.parse(r.value) as unknown }));
+  }
+
+  /** Commitments of every sealed field of the given entries (names and digests only). */
+  async commitments(lotId: string, seqs: number[]): Promise<Map<number, Record<string, string>>> {
+    const out = new Map<number, Record<string, string>>();
+    if (seqs.length === 0) return out;
+    const rows: Array<{ seq: number; name: string; commitment: string }> = await this.dataSource.query(
+      `SELECT e."seq", s."name", s."commitment" FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
+       WHERE e."lot_id" = $1 AND e."seq" = ANY($2)`,
+      [lotId, seqs],
+    );
+    for (const r of rows) out.set(r.seq, { ...(out.get(r.seq) ?? {}), [r.name]: r.commitment });
+    return out;
+  }
+}

@@ -1,0 +1,155 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import {
+  BASE_GLASS,
+  DECORATIONS,
+  LIMITS,
+  LOT_FORMS,
+  type BaseGlass,
+  type Decoration,
+  type LotForm,
+} from '@beadroll/core';
+import { Type } from 'class-transformer';
+import {
+  ArrayMaxSize,
+  ArrayUnique,
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsNumber,
+  IsOptional,
+  IsString,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateNested,
+  registerDecorator,
+  type ValidationArguments,
+} from 'class-validator';
+
+/** The largest count core accepts. */
+const MAX_COUNT = 10_000_000;
+/** Lengths are stored in mm with at most one decimal (0.1 mm). */
+const MAX_MM = 100_000;
+
+/** A count of beads, exact or estimated. */
+export class CountDto {
+  @ApiProperty({ minimum: 0, maximum: MAX_COUNT, example: 120 })
+  @IsInt()
+  @Min(0)
+  @Max(MAX_COUNT)
+  value: number;
+
+  @ApiProperty({ description: 'true when the count is an estimate' })
+  @IsBoolean()
+  estimated: boolean;
+}
+
+function MinNotAboveMax() {
+  return (target: object, propertyName: string) =>
+    registerDecorator({
+      name: 'minNotAboveMax',
+      target: target.constructor,
+      propertyName,
+      validator: {
+        validate: (value: unknown, args: ValidationArguments) => {
+          const o = args.object as { max?: unknown };
+          return typeof value !== 'number' || typeof o.max !== 'number' || value <= o.max;
+        },
+        defaultMessage: () => 'the smallest diameter must not be larger than the largest',
+      },
+    });
+}
+
+/** Bead diameter range in mm. */
+export class DiameterDto {
+  @ApiProperty({ minimum: 0, maximum: MAX_MM, example: 6 })
+  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
+  @Min(0)
+  @Max(MAX_MM)
+  @MinNotAboveMax()
+  min: number;
+
+  @ApiProperty({ minimum: 0, maximum: MAX_MM, example: 9.5 })
+  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
+  @Min(0)
+  @Max(MAX_MM)
+  max: number;
+}
+
+/** The public description of a lot: each registration or new description holds a full one. */
+export class LotDescriptionDto {
+  @ApiProperty({ maxLength: LIMITS.title, example: 'Venetian wound beads with pink roses' })
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.title)
+  title: string;
+
+  @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'free-text description' })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  summary?: string;
+
+  @ApiProperty({ enum: LOT_FORMS })
+  @IsIn(LOT_FORMS)
+  form: LotForm;
+
+  @ApiProperty({ type: CountDto })
+  @ValidateNested()
+  @Type(() => CountDto)
+  count: CountDto;
+
+  @ApiPropertyOptional({ type: DiameterDto })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => DiameterDto)
+  diameterMm?: DiameterDto;
+
+  @ApiPropertyOptional({ description: 'strand length in mm (1 in = 25.4 mm)', minimum: 0, maximum: MAX_MM })
+  @IsOptional()
+  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
+  @Min(0)
+  @Max(MAX_MM)
+  strandLengthMm?: number;
+
+  @ApiProperty({ type: [String], maxItems: LIMITS.listItems, example: ['white', 'pink'] })
+  @IsArray()
+  @ArrayMaxSize(LIMITS.listItems)
+  @IsString({ each: true })
+  @MinLength(1, { each: true })
+  @MaxLength(LIMITS.shortText, { each: true })
+  colours: string[];
+
+  @ApiProperty({ enum: BASE_GLASS, isArray: true })
+  @IsArray()
+  @ArrayUnique()
+  @IsIn(BASE_GLASS, { each: true })
+  baseGlass: BaseGlass[];
+
+  @ApiProperty({ enum: DECORATIONS, isArray: true })
+  @IsArray()
+  @ArrayUnique()
+  @IsIn(DECORATIONS, { each: true })
+  decoration: Decoration[];
+
+  @ApiPropertyOptional({ maxLength: LIMITS.longText })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  decorationNote?: string;
+
+  @ApiPropertyOptional({ maxLength: LIMITS.longText })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  condition?: string;
+
+  @ApiProperty({ description: 'true: the lot has a public page' })
+  @IsBoolean()
+  listed: boolean;
+}

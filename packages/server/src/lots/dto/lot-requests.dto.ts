@@ -1,0 +1,134 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@beadroll/core';
+import { Transform, Type } from 'class-transformer';
+import {
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  Max,
+  MaxLength,
+  Min,
+  ValidateNested,
+} from 'class-validator';
+import { LotDescriptionDto } from './lot-description.dto';
+import { ObservationsDto } from './observations.dto';
+import { SealedDetailsDto } from './sealed-details.dto';
+
+/** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
+export class CreateLotDto {
+  @ApiProperty({ type: LotDescriptionDto })
+  @ValidateNested()
+  @Type(() => LotDescriptionDto)
+  description: LotDescriptionDto;
+
+  @ApiPropertyOptional({ type: ObservationsDto })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => ObservationsDto)
+  observations?: ObservationsDto;
+
+  @ApiPropertyOptional({ type: SealedDetailsDto, description: 'visible only to the registering dealer' })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => SealedDetailsDto)
+  sealed?: SealedDetailsDto;
+}
+
+/** A full new description (a `described` entry), optionally with new sealed details. */
+export class DescribeLotDto {
+  @ApiProperty({ type: LotDescriptionDto })
+  @ValidateNested()
+  @Type(() => LotDescriptionDto)
+  description: LotDescriptionDto;
+
+  @ApiPropertyOptional({ type: SealedDetailsDto })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => SealedDetailsDto)
+  sealed?: SealedDetailsDto;
+}
+
+/** New observations (an `observed` entry). */
+export class ObserveLotDto {
+  @ApiProperty({ type: ObservationsDto })
+  @ValidateNested()
+  @Type(() => ObservationsDto)
+  observations: ObservationsDto;
+}
+
+/** Lists or unlists a lot: written on the roll as a `described` entry. */
+export class SetListingDto {
+  @ApiProperty()
+  @IsBoolean()
+  listed: boolean;
+}
+
+const STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
+export const LOT_SORTS = ['registered', 'updated', 'title', 'code'] as const;
+
+const toBool = ({ value }: { value: unknown }) =>
+  value === 'true' ? true : value === 'false' ? false : value;
+
+/** Paging, sorting, filters and text search of the lot list. */
+export class ListLotsQueryDto {
+  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(100000)
+  page?: number;
+
+  @ApiPropertyOptional({ minimum: 1, maximum: 100, default: 20 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(100)
+  pageSize?: number;
+
+  @ApiPropertyOptional({ enum: LOT_SORTS, default: 'registered' })
+  @IsOptional()
+  @IsIn(LOT_SORTS)
+  sort?: (typeof LOT_SORTS)[number];
+
+  @ApiPropertyOptional({ enum: ['asc', 'desc'], default: 'desc' })
+  @IsOptional()
+  @IsIn(['asc', 'desc'])
+  order?: 'asc' | 'desc';
+
+  @ApiPropertyOptional({ enum: STATUSES })
+  @IsOptional()
+  @IsIn(STATUSES)
+  status?: LotStatus;
+
+  @ApiPropertyOptional({ enum: LOT_FORMS })
+  @IsOptional()
+  @IsIn(LOT_FORMS)
+  form?: LotForm;
+
+  @ApiPropertyOptional({ enum: ORIGINS, description: "origin of the holder's attribution" })
+  @IsOptional()
+  @IsIn(ORIGINS)
+  origin?: Origin;
+
+  @ApiPropertyOptional({ type: Boolean })
+  @IsOptional()
+  @Transform(toBool)
+  @IsBoolean()
+  listed?: boolean;
+
+  @ApiPropertyOptional({ type: Boolean, description: 'only lots the signed-in account holds' })
+  @IsOptional()
+  @Transform(toBool)
+  @IsBoolean()
+  mine?: boolean;
+
+  @ApiPropertyOptional({ maxLength: 200, description: 'words to find in the title and description' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(200)
+  q?: string;
+}

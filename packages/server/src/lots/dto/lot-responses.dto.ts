@@ -1,0 +1,94 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import type { BeadCount, LotDescription, LotStatus, Money, Observations } from '@beadroll/core';
+
+/** One row of the lot list. */
+export class LotSummaryResponse {
+  @ApiProperty({ description: 'canonical lot code' }) code: string;
+  @ApiProperty({ description: 'grouped for people, XXXX-XXXX-X' }) displayCode: string;
+  @ApiProperty() title: string;
+  @ApiProperty({ nullable: true }) form: string | null;
+  @ApiProperty() status: LotStatus;
+  @ApiProperty() listed: boolean;
+  @ApiProperty({ description: 'account id of the holder' }) holder: string;
+  @ApiProperty({ nullable: true, description: "origin of the holder's attribution" }) origin: string | null;
+  @ApiProperty() count: BeadCount;
+  @ApiProperty() dissents: number;
+  @ApiProperty() headSeq: number;
+  @ApiProperty() registeredAt: string;
+  @ApiProperty() updatedAt: string;
+}
+
+/** A page of the lot list. */
+export class LotListResponse {
+  @ApiProperty({ type: [LotSummaryResponse] }) items: LotSummaryResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+}
+
+/** The viewer's own sealed details, newest value of each. */
+export class OwnSealedDetails {
+  @ApiPropertyOptional() storageLocation?: string;
+  @ApiPropertyOptional() acquisitionDate?: string;
+  @ApiPropertyOptional() acquisitionSource?: string;
+  @ApiPropertyOptional() acquisitionCost?: Money;
+  @ApiPropertyOptional() privateNote?: string;
+}
+
+/** A lot as the signed-in viewer may see it (derived from its roll; the roll itself is at /roll). */
+export class LotDetailResponse extends LotSummaryResponse {
+  @ApiProperty({ nullable: true, description: 'null while the newest description is redacted' })
+  description: LotDescription | null;
+  @ApiProperty({ nullable: true }) observations: Observations | null;
+  @ApiProperty() remaining: BeadCount;
+  @ApiProperty({ nullable: true }) attribution: { seq: number; author: string; origin: string } | null;
+  @ApiProperty({ nullable: true }) openOffer: {
+    seq: number;
+    offerer: string;
+    recipient: string | null;
+  } | null;
+  @ApiProperty() headHash: string;
+  @ApiProperty({ description: 'true when the viewer holds the lot' }) viewerIsHolder: boolean;
+  @ApiProperty({ type: OwnSealedDetails }) sealed: OwnSealedDetails;
+}
+
+/** One sealed field the viewer recorded (or, for a transfer price, is a party to). */
+export class SealedFieldResponse {
+  @ApiProperty() name: string;
+  @ApiProperty() salt: string;
+  @ApiProperty() value: unknown;
+  @ApiProperty({ description: 'commitments of every sealed field of the entry, for disclosure' })
+  commitments: Record<string, string>;
+}
+
+/** One stored entry, with the exact strings a verifier checks. */
+export class RollEntryResponse {
+  @ApiProperty() seq: number;
+  @ApiProperty() kind: string;
+  @ApiProperty() actor: string;
+  @ApiProperty() time: string;
+  @ApiProperty() hash: string;
+  @ApiProperty({ description: 'canonical header string' }) header: string;
+  @ApiProperty({ nullable: true, type: String, description: 'canonical body string; null when redacted' })
+  body: string | null;
+  @ApiProperty({ nullable: true, type: Number }) logIndex: number | null;
+  @ApiPropertyOptional({ type: [SealedFieldResponse], description: "only the viewer's own sealed values" })
+  sealed?: SealedFieldResponse[];
+}
+
+/** A lot's whole roll. */
+export class RollResponse {
+  @ApiProperty() lot: string;
+  @ApiProperty({ type: [RollEntryResponse] }) entries: RollEntryResponse[];
+}
+
+/** Outcome of verifying a roll on the server with core's verifier. */
+export class VerifyResponse {
+  @ApiProperty() lot: string;
+  @ApiProperty() ok: boolean;
+  @ApiProperty() entries: number;
+  @ApiPropertyOptional() headSeq?: number;
+  @ApiPropertyOptional() headHash?: string;
+  @ApiPropertyOptional({ description: 'the first failing entry' })
+  failure?: { seq: number; reason: string; message: string };
+}

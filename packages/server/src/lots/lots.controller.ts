@@ -1,0 +1,114 @@
+import { Body, Controller, Get, Header, Param, Post, Put, Query, Res } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Bundle } from '@beadroll/core';
+import type { Response } from 'express';
+import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import {
+  CreateLotDto,
+  DescribeLotDto,
+  ListLotsQueryDto,
+  ObserveLotDto,
+  SetListingDto,
+} from './dto/lot-requests.dto';
+import { LotDetailResponse, LotListResponse, RollResponse, VerifyResponse } from './dto/lot-responses.dto';
+import { LotsService } from './lots.service';
+
+@ApiTags('lots')
+@Controller('lots')
+export class LotsController {
+  constructor(private readonly lots: LotsService) {}
+
+  @Post()
+  @Roles('dealer')
+  @RollWriter()
+  @ApiOperation({ summary: 'Register a lot (writes registered, and observed when observations are given)' })
+  @ApiOkResponse({ type: LotDetailResponse })
+  register(@CurrentAccount() me: Principal, @Body() dto: CreateLotDto): Promise<LotDetailResponse> {
+    return this.lots.register(me, dto);
+  }
+
+  @Get()
+  @ApiOperation({
+    summary: 'List the lots the signed-in account may read, with paging, sorting, filters and search',
+  })
+  @ApiOkResponse({ type: LotListResponse })
+  list(@CurrentAccount() me: Principal, @Query() q: ListLotsQueryDto): Promise<LotListResponse> {
+    return this.lots.list(me, q);
+  }
+
+  @Get(':code')
+  @ApiOperation({ summary: 'A lot, derived from its roll, with the viewer’s own sealed details' })
+  @ApiOkResponse({ type: LotDetailResponse })
+  detail(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<LotDetailResponse> {
+    return this.lots.detail(me, code);
+  }
+
+  @Post(':code/descriptions')
+  @Roles('dealer')
+  @RollWriter()
+  @ApiOperation({ summary: 'Write a full new description (described)' })
+  @ApiOkResponse({ type: LotDetailResponse })
+  describe(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: DescribeLotDto,
+  ): Promise<LotDetailResponse> {
+    return this.lots.describe(me, code, dto);
+  }
+
+  @Post(':code/observations')
+  @Roles('dealer')
+  @RollWriter()
+  @ApiOperation({ summary: 'Record observations (observed)' })
+  @ApiOkResponse({ type: LotDetailResponse })
+  observe(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: ObserveLotDto,
+  ): Promise<LotDetailResponse> {
+    return this.lots.observe(me, code, dto);
+  }
+
+  @Put(':code/listing')
+  @Roles('dealer')
+  @RollWriter()
+  @ApiOperation({ summary: 'List or unlist the lot (written on the roll as described)' })
+  @ApiOkResponse({ type: LotDetailResponse })
+  setListing(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: SetListingDto,
+  ): Promise<LotDetailResponse> {
+    return this.lots.setListing(me, code, dto.listed);
+  }
+
+  @Get(':code/roll')
+  @ApiOperation({
+    summary: 'The roll as stored: exact headers and bodies, and the viewer’s own sealed values',
+  })
+  @ApiOkResponse({ type: RollResponse })
+  roll(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<RollResponse> {
+    return this.lots.roll(me, code);
+  }
+
+  @Get(':code/verification')
+  @ApiOperation({ summary: 'Verify the stored roll with the ledger’s verifier' })
+  @ApiOkResponse({ type: VerifyResponse })
+  verify(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<VerifyResponse> {
+    return this.lots.verify(me, code);
+  }
+
+  @Get(':code/bundle')
+  @ApiOperation({ summary: 'Export bundle (verify offline with npm run verify)' })
+  @ApiProduces('application/json')
+  @Header('Cache-Control', 'no-store')
+  async bundle(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<Bundle> {
+    const bundle = await this.lots.bundle(me, code);
+    res.setHeader('Content-Disposition', `attachment; filename="${bundle.rolls[0]!.lot}.beadroll.json"`);
+    return bundle;
+  }
+}

@@ -1,0 +1,335 @@
+import { Injectable } from '@nestjs/common';
+import {
+  formatLotCode,
+  verifyRoll,
+  type Bundle,
+  type LotDescription,
+  type Money,
+  type RollState,
+  type SealedValues,
+} from '@beadroll/core';
+import { DataSource } from 'typeorm';
+import type { Principal } from '../auth/auth.decorators';
+import { AppError } from '../common/app-error';
+import { BundleService } from '../ledger/bundle.service';
+import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
+import type {
+  LotDetailResponse,
+  LotListResponse,
+  LotSummaryResponse,
+  OwnSealedDetails,
+  RollResponse,
+  VerifyResponse,
+} from './dto/lot-responses.dto';
+import type { ObservationsDto } from './dto/observations.dto';
+import type { SealedDetailsDto } from './dto/sealed-details.dto';
+
+/** Who is looking: the signed-in principal (id and role are what matter here). */
+export type Viewer = Pick<Principal, 'id' | 'role'>;
+
+interface LotViewRow {
+  lot_id: string;
+  code: string;
+  title: string;
+  form: string | null;
+  status: RollState['status'];
+  holder: string;
+  listed: boolean;
+  origin: string | null;
+  count_value: number;
+  count_estimated: boolean;
+  dissent_count: number;
+  offer_recipient: string | null;
+  observations: LotDetailResponse['observations'];
+  head_seq: number;
+  registered_at: Date;
+  updated_at: Date;
+}
+
+/** Core's field paths → request field names, for 400 answers. */
+const FIELD_NAMES = {
+  'body.description': 'description',
+  'body.observations': 'observations',
+  'sealed.storage-location': 'sealed.storageLocation',
+  'sealed.acquisition-date': 'sealed.acquisition.date',
+  'sealed.acquisition-source': 'sealed.acquisition.source',
+  'sealed.acquisition-cost': 'sealed.acquisition.cost',
+  'sealed.private-note': 'sealed.privateNote',
+};
+
+const SORT_COLUMNS: Record<NonNullable<ListLotsQueryDto['sort']>, string> = {
+  registered: 'v."registered_at"',
+  updated: 'v."updated_at"',
+  title: 'lower(v."title")',
+  code: 'v."code"',
+};
+
+/** Plain data from a validated DTO (class instances → the JSON shapes core expects). */
+function plain<T>(dto: unknown): T {
+  return JSON.parse(JSON.stringify(dto)) as T;
+}
+
+/** Sealed details of a request as core's sealed field values. */
+export function sealedValuesOf(dto: SealedDetailsDto | undefined): SealedValues | undefined {
+  if (!dto) return undefined;
+  const out: SealedValues = {};
+  if (dto.storageLocation !== undefined) out['storage-location'] = dto.storageLocation;
+  if (dto.privateNote !== undefined) out['private-note'] = dto.privateNote;
+  const a = dto.acquisition;
+  if (a?.date !== undefined) out['acquisition-date'] = a.date;
+  if (a?.source !== undefined) out['acquisition-source'] = a.source;
+  if (a?.cost !== undefined) out['acquisition-cost'] = { amount: a.cost.amount, currency: a.cost.currency };
+  return Object.keys(out).length > 0 ? out : undefined;
+}
+
+function toSummary(r: LotViewRow): LotSummaryResponse {
+  return {
+    code: r.code,
+    displayCode: formatLotCode(r.code),
+    title: r.title,
+    form: r.form,
+    status: r.status,
+    listed: r.listed,
+    holder: r.holder,
+    origin: r.origin,
+    count: { value: r.count_value, estimated: r.count_estimated },
+    dissents: r.dissent_count,
+    headSeq: r.head_seq,
+    registeredAt: new Date(r.registered_at).toISOString(),
+    updatedAt: new Date(r.updated_at).toISOString(),
+  };
+}
+
+/**
+ * Lots and their rolls as signed-in accounts see them. Every write goes through the
+ * LedgerService append path. A lot is readable by its holder, the recipient of its open offer,
+ * the registrar, and — when listed — every signed-in account; to anyone else it does not exist.
+ */
+@Injectable()
+export class LotsService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly ledger: LedgerService,
+    private readonly reader: RollReaderService,
+    private readonly bundles: BundleService,
+  ) {}
+
+  /** Registers a lot: `registered` with the sealed details, then `observed` if given, in one transaction. */
+  async register(actor: Viewer, dto: CreateLotDto): Promise<LotDetailResponse> {
+    const code = await this.ledger.withLots([], async (tx) => {
+      const reg = await tx.register(
+        {
+          actor: actor.id,
+          description: plain<LotDescription>(dto.description),
+          sealed: sealedValuesOf(dto.sealed),
+        },
+        { fields: FIELD_NAMES },
+      );
+      if (dto.observations && Object.keys(plain<object>(dto.observations)).length > 0) {
+        await tx.append(
+          reg.lot,
+          { kind: 'observed', actor: actor.id, body: { observations: plain(dto.observations) } },
+          { fields: FIELD_NAMES },
+        );
+      }
+      return reg.lot;
+    });
+    return this.detail(actor, code);
+  }
+
+  /** A full new description (`described`). */
+  async describe(actor: Viewer, text: string, dto: DescribeLotDto): Promise<LotDetailResponse> {
+    const code = await this.readableCode(actor, text);
+    await this.ledger.append(
+      code,
+      {
+        kind: 'described',
+        actor: actor.id,
+        body: { description: plain<LotDescription>(dto.description) },
+        sealed: sealedValuesOf(dto.sealed),
+      },
+      { fields: FIELD_NAMES },
+    );
+    return this.detail(actor, code);
+  }
+
+  /** New observations (`observed`). */
+  async observe(actor: Viewer, text: string, dto: ObserveLotDto): Promise<LotDetailResponse> {
+    const code = await this.readableCode(actor, text);
+    await this.ledger.append(
+      code,
+      { kind: 'observed', actor: actor.id, body: { observations: plain<ObservationsDto>(dto.observations) } },
+      { fields: FIELD_NAMES },
+    );
+    return this.detail(actor, code);
+  }
+
+  /** Lists or unlists: a `described` entry repeating the newest description with `listed` changed. */
+  async setListing(actor: Viewer, text: string, listed: boolean): Promise<LotDetailResponse> {
+    const code = await this.readableCode(actor, text);
+    await this.ledger.withLots([code], async (tx) => {
+      const d = tx.state(code).description;
+      if (!d)
+        throw new AppError('roll_rule', 'the newest description was redacted: write a new description first');
+      if (d.listed === listed) return;
+      await tx.append(code, { kind: 'described', actor: actor.id, body: { description: { ...d, listed } } });
+    });
+    return this.detail(actor, code);
+  }
+
+  async list(viewer: Viewer, q: ListLotsQueryDto): Promise<LotListResponse> {
+    const page = q.page ?? 1;
+    const pageSize = q.pageSize ?? 20;
+    const where: string[] = [];
+    const params: unknown[] = [];
+    const p = (v: unknown) => {
+      params.push(v);
+      return `$${params.length}`;
+    };
+    if (viewer.role !== 'registrar') {
+      const me = p(viewer.id);
+      where.push(`(v."listed" OR v."holder" = ${me} OR v."offer_recipient" = ${me})`);
+    }
+    if (q.mine) where.push(`v."holder" = ${p(viewer.id)}`);
+    if (q.status) where.push(`v."status" = ${p(q.status)}`);
+    if (q.form) where.push(`v."form" = ${p(q.form)}`);
+    if (q.origin) where.push(`v."origin" = ${p(q.origin)}`);
+    if (q.listed !== undefined) where.push(`v."listed" = ${p(q.listed)}`);
+    const text = q.q?.trim();
+    if (text) where.push(`v."search" @@ websearch_to_tsquery('english', ${p(text)})`);
+    const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
+    const order = `${SORT_COLUMNS[q.sort ?? 'registered']} ${q.order === 'asc' ? 'ASC' : 'DESC'}, v."code" ASC`;
+    const [{ total }] = (await this.dataSource.query(
+      `SELECT count(*)::int AS "total" FROM "lot_views" v ${clause}`,
+      params,
+    )) as Array<{ total: number }>;
+    const rows: LotViewRow[] = await this.dataSource.query(
+      `SELECT v.* FROM "lot_views" v ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
+      params,
+    );
+    return { items: rows.map(toSummary), total, page, pageSize };
+  }
+
+  async detail(viewer: Viewer, text: string): Promise<LotDetailResponse> {
+    const code = await this.readableCode(viewer, text);
+    const rows: Array<{ state: RollState; head_hash: string }> = await this.dataSource.query(
+      'SELECT "state", "head_hash" FROM "lots" WHERE "code" = $1',
+      [code],
+    );
+    const view = (await this.view(code))!;
+    const s = rows[0]!.state;
+    const sealed = await this.ownSealed(view.lot_id, viewer.id);
+    return {
+      ...toSummary(view),
+      description: s.description,
+      observations: view.observations,
+      remaining: s.remaining,
+      attribution: s.attribution?.body
+        ? { seq: s.attribution.seq, author: s.attribution.author, origin: s.attribution.body.origin }
+        : null,
+      openOffer: s.openOffer
+        ? { seq: s.openOffer.seq, offerer: s.openOffer.offerer, recipient: s.openOffer.recipient }
+        : null,
+      headHash: rows[0]!.head_hash,
+      viewerIsHolder: s.holder === viewer.id,
+      sealed,
+    };
+  }
+
+  /** The whole roll as stored, with the viewer's own sealed values on the entries that carry them. */
+  async roll(viewer: Viewer, text: string): Promise<RollResponse> {
+    const code = await this.readableCode(viewer, text);
+    const lot = (await this.reader.findLot(code))!;
+    const entries = await this.reader.entries(lot.id);
+    const mine = await this.reader.sealedFor(lot.id, viewer.id);
+    const commitments = await this.reader.commitments(lot.id, [...new Set(mine.map((f) => f.seq))]);
+    return {
+      lot: code,
+      entries: entries.map((e) => {
+        const fields = mine.filter((f) => f.seq === e.seq);
+        return {
+          seq: e.seq,
+          kind: e.kind,
+          actor: e.actor,
+          time: e.time,
+          hash: e.hash,
+          header: e.header,
+          body: e.body,
+          logIndex: e.logIndex,
+          ...(fields.length
+            ? {
+                sealed: fields.map((f) => ({
+                  name: f.name,
+                  salt: f.salt,
+                  value: f.value,
+                  commitments: commitments.get(e.seq) ?? {},
+                })),
+              }
+            : {}),
+        };
+      }),
+    };
+  }
+
+  /** Verifies the stored roll with core's verifier. */
+  async verify(viewer: Viewer, text: string): Promise<VerifyResponse> {
+    const code = await this.readableCode(viewer, text);
+    const lot = (await this.reader.findLot(code))!;
+    const r = verifyRoll(await this.reader.entries(lot.id), { lot: code });
+    if (r.ok) return { lot: code, ok: true, entries: r.entries, headSeq: r.head.seq, headHash: r.head.hash };
+    return {
+      lot: code,
+      ok: false,
+      entries: r.verified.length,
+      failure: { seq: r.seq, reason: r.reason, message: r.message },
+    };
+  }
+
+  /** The export bundle: this roll in full, ancestors in full when the viewer may read them. */
+  async bundle(viewer: Viewer, text: string): Promise<Bundle> {
+    const code = await this.readableCode(viewer, text);
+    const readable = new Map<string, boolean>();
+    const rows: Array<{ code: string; ok: boolean }> = await this.dataSource.query(
+      `SELECT v."code", (v."listed" OR v."holder" = $1 OR $2) AS "ok" FROM "lot_views" v`,
+      [viewer.id, viewer.role === 'registrar'],
+    );
+    for (const r of rows) readable.set(r.code, r.ok);
+    return (await this.bundles.bundleFor(code, (lot) => readable.get(lot) === true))!;
+  }
+
+  /** The canonical code of a lot the viewer may read; anything else is the same 404. */
+  async readableCode(viewer: Viewer, text: string): Promise<string> {
+    const code = RollReaderService.canonicalCode(text);
+    const view = code ? await this.view(code) : null;
+    if (!view || !this.canRead(viewer, view)) throw new AppError('not_found', 'Not found.');
+    return view.code;
+  }
+
+  private canRead(viewer: Viewer, v: Pick<LotViewRow, 'listed' | 'holder' | 'offer_recipient'>): boolean {
+    return (
+      v.listed || v.holder === viewer.id || v.offer_recipient === viewer.id || viewer.role === 'registrar'
+    );
+  }
+
+  private async view(code: string): Promise<LotViewRow | null> {
+    const rows: LotViewRow[] = await this.dataSource.query('SELECT * FROM "lot_views" WHERE "code" = $1', [
+      code,
+    ]);
+    return rows[0] ?? null;
+  }
+
+  private async ownSealed(lotId: string, viewer: string): Promise<OwnSealedDetails> {
+    const out: OwnSealedDetails = {};
+    for (const f of await this.reader.sealedFor(lotId, viewer)) {
+      // Ordered by seq, so the newest value of each field wins.
+      if (f.name === 'storage-location') out.storageLocation = f.value as string;
+      if (f.name === 'acquisition-date') out.acquisitionDate = f.value as string;
+      if (f.name === 'acquisition-source') out.acquisitionSource = f.value as string;
+      if (f.name === 'acquisition-cost') out.acquisitionCost = f.value as Money;
+      if (f.name === 'private-note') out.privateNote = f.value as string;
+    }
+    return out;
+  }
+}

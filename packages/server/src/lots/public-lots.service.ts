@@ -1,0 +1,100 @@
+import { Injectable } from '@nestjs/common';
+import { SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
+import { DataSource } from 'typeorm';
+import { AppError } from '../common/app-error';
+import { BundleService } from '../ledger/bundle.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
+
+/** The one answer to any code that is not a listed lot: no hint of why. */
+function notFound(): AppError {
+  return new AppError('not_found', 'Not found.');
+}
+
+/**
+ * Copies a bundle member by member into the public shape, so nothing but the ledger format's
+ * own fields can ever leave (the stored rows hold no sealed values, and this keeps it so).
+ */
+export function toPublicBundle(b: Bundle): PublicBundle {
+  return {
+    format: 'beadroll-bundle',
+    version: 1,
+    rolls: b.rolls.map((r) => ({
+      lot: r.lot,
+      scope: r.scope,
+      entries: r.entries.map((e) => ({ hash: e.hash, header: e.header, body: e.body, logIndex: e.logIndex })),
+    })),
+    checkpoints: [],
+  };
+}
+
+/** Source of the public dealer cards shown beside a roll. */
+export interface DealerCardSource {
+  cardsFor(ids: string[]): Promise<Map<string, PublicDealerCard>>;
+}
+
+function toPublicCard(c: PublicDealerCard): PublicDealerCard {
+  return {
+    id: c.id,
+    handle: c.handle,
+    displayName: c.displayName,
+    business: c.business ?? null,
+    town: c.town ?? null,
+    country: c.country ?? null,
+    verifiedSince: c.verifiedSince ?? null,
+    status: c.status,
+  };
+}
+
+/**
+ * Public data of listed lots, for buyers without an account. Any code that is not a listed lot
+ * — unknown, unlisted, malformed, with a wrong check symbol — gets the same bare 404.
+ */
+@Injectable()
+export class PublicLotsService {
+  private cards: DealerCardSource = { cardsFor: async () => new Map() };
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly bundles: BundleService,
+  ) {}
+
+  /** Sets where dealer cards come from (the accounts feature). */
+  useCards(source: DealerCardSource): void {
+    this.cards = source;
+  }
+
+  async lot(text: string): Promise<PublicLotResponse> {
+    const code = await this.listedCode(text);
+    const bundle = await this.bundle(code);
+    const ids = new Set<string>();
+    for (const r of bundle.rolls)
+      for (const e of r.entries) {
+        const h = JSON.parse(e.header) as EntryHeader;
+        if (h.actor !== SYSTEM_ACTOR) ids.add(h.actor);
+      }
+    const found = await this.cards.cardsFor([...ids]);
+    const cards: Record<string, PublicDealerCard> = {};
+    for (const [id, card] of found) cards[id] = toPublicCard(card);
+    return { code, bundle, cards };
+  }
+
+  /** The bundle of a listed lot: unlisted ancestors only in link scope. */
+  async bundle(code: string): Promise<PublicBundle> {
+    const b = await this.bundles.bundleFor(code, (_lot, state) => state.listed);
+    if (!b) throw notFound();
+    return toPublicBundle(b);
+  }
+
+  /** The canonical code of a listed lot, or the bare 404. */
+  async listedCode(text: string): Promise<string> {
+    const code = RollReaderService.canonicalCode(text);
+    if (!code) throw notFound();
+    const rows: unknown[] = await this.dataSource.query(
+      'SELECT 1 FROM "lot_views" WHERE "code" = $1 AND "listed"',
+      [code],
+    );
+    if (rows.length === 0) throw notFound();
+    return code;
+  }
+}

@@ -1,0 +1,247 @@
+import request from 'supertest';
+import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
+import { createAccount, signIn } from './support/accounts';
+import { lastMailTo, linkIn } from './support/mail';
+import { createTestApp, type TestApp } from './support/test-app';
+
+const BASE = 'http://beadroll.test';
+const W = { 'X-Beadroll-Request': '1' };
+
+function applicant(n: string) {
+  return {
+    role: 'dealer',
+    displayName: `Dana Vetro ${n}`,
+    handle: `dana-vetro-${n}`,
+    business: 'Vetro Trade Beads',
+    town: 'Marrowby',
+    country: 'Norland',
+    email: `dana.${n}@example.test`,
+    password: 'a long enough passphrase',
+  };
+}
+
+describe('accounts: sign-up, e-mail, verification by the registrar, passwords', () => {
+  let t: TestApp;
+  let http: () => ReturnType<typeof request>;
+  beforeAll(async () => {
+    t = await createTestApp();
+    http = () => request(t.app.getHttpServer());
+  });
+  afterAll(async () => {
+    await t.close();
+  });
+
+  it('sign-up → verification mail → link page → POST confirm → registrar approves → a verified dealer signs in', async () => {
+    const registrar = await createAccount(t, { role: 'registrar' });
+    const a = applicant('one');
+    const res = await http().post('/api/auth/sign-up').set(W).send(a).expect(202);
+    expect(res.body.message).toMatch(/check your e-mail/i);
+
+    // Not yet: the address is unconfirmed.
+    const early = await http()
+      .post('/api/auth/sign-in')
+      .set(W)
+      .send({ email: a.email, password: a.password });
+    expect(early.status).toBe(403);
+    expect(early.body.error.code).toBe('email_unverified');
+
+    const mail = lastMailTo(t, a.email);
+    expect(mail.subject).toMatch(/confirm your e-mail/i);
+    expect(mail.html).toContain('<a href=');
+    expect(mail.text).toMatch(/because someone signed up/i);
+    const link = linkIn(mail, `${BASE}/verify-email`);
+    const token = link.searchParams.get('token')!;
+    expect(token.length).toBeGreaterThanOrEqual(40);
+
+    await http().post('/api/auth/verify-email').set(W).send({ token }).expect(200);
+    // Single use.
+    const again = await http().post('/api/auth/verify-email').set(W).send({ token }).expect(400);
+    expect(again.body.error.code).toBe('token_invalid');
+    expect(lastMailTo(t, registrar.email).subject).toMatch(/new account to verify/i);
+
+    const dealer = await signIn(t, a.email, a.password);
+    const me = await dealer.get('/api/account').expect(200);
+    expect(me.body).toMatchObject({
+      status: 'pending',
+      handle: a.handle,
+      emailVerified: true,
+      verifiedSince: null,
+    });
+    await http().get(`/api/public/dealers/${a.handle}`).expect(404);
+
+    const queue = await registrar.agent.get('/api/registry/accounts?status=pending').expect(200);
+    const row = queue.body.items.find((i: { handle: string }) => i.handle === a.handle);
+    expect(row).toMatchObject({ business: 'Vetro Trade Beads', town: 'Marrowby', country: 'Norland' });
+    await registrar.agent.post(`/api/registry/accounts/${row.id}/approve`).set(W).expect(200);
+    expect(lastMailTo(t, a.email).subject).toMatch(/verified/i);
+
+    const after = await dealer.get('/api/auth/session').expect(200);
+    expect(after.body.account.status).toBe('verified');
+    const card = await http().get(`/api/public/dealers/${a.handle}`).expect(200);
+    expect(Object.keys(card.body).sort()).toEqual(
+      ['business', 'country', 'displayName', 'handle', 'id', 'status', 'town', 'verifiedSince'].sort(),
+    );
+    expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Marrowby' });
+  });
+
+  it('a second sign-up with a known address answers the same and mails the owner a notice', async () => {
+    const owner = await createAccount(t, { role: 'dealer' });
+    const res = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('two'), email: owner.email.toUpperCase() })
+      .expect(202);
+    expect(res.body.message).toMatch(/check your e-mail/i);
+    expect(lastMailTo(t, owner.email).subject).toMatch(/tried to sign up/i);
+    await http().get('/api/public/dealers/dana-vetro-two').expect(404);
+  });
+
+  it('refuses a taken handle, a weak password, over-long and unknown fields with 400 naming the field', async () => {
+    const taken = await createAccount(t, { role: 'dealer' });
+    const r1 = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('three'), handle: taken.handle })
+      .expect(400);
+    expect(r1.body.error.fields).toEqual([{ field: 'handle', reason: 'is already taken' }]);
+
+    const r2 = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('four'), password: 'short' })
+      .expect(400);
+    expect(r2.body.error.fields).toEqual([
+      { field: 'password', reason: 'must be 12 to 128 characters long' },
+    ]);
+
+    const r3 = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('five'), business: 'x'.repeat(121) })
+      .expect(400);
+    expect(r3.body.error.fields[0]).toMatchObject({ field: 'business' });
+
+    const r4 = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('six'), role: 'registrar', isAdmin: true })
+      .expect(400);
+    const fields = r4.body.error.fields.map((f: { field: string }) => f.field).sort();
+    expect(fields).toEqual(['isAdmin', 'role']);
+
+    const r5 = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('seven'), handle: 'Upper_Case' })
+      .expect(400);
+    expect(r5.body.error.fields[0].field).toBe('handle');
+    // Nothing was created by any of them.
+    for (const n of ['four', 'five', 'six', 'seven']) {
+      expect(t.app.get(FakeSmtp).to(`dana.${n}@example.test`)).toEqual([]);
+    }
+  });
+
+  it('forgotten password: mail, link, POST with the new password; old sessions end; token single-use', async () => {
+    const a = await createAccount(t, { role: 'dealer' });
+    await http().post('/api/auth/forgot-password').set(W).send({ email: a.email }).expect(202);
+    const unknown = await http()
+      .post('/api/auth/forgot-password')
+      .set(W)
+      .send({ email: 'nobody@example.test' })
+      .expect(202);
+    expect(unknown.body.message).toMatch(/check your e-mail/i);
+    const token = linkIn(lastMailTo(t, a.email), `${BASE}/reset-password`).searchParams.get('token')!;
+
+    const weak = await http()
+      .post('/api/auth/reset-password')
+      .set(W)
+      .send({ token, password: 'short' })
+      .expect(400);
+    expect(weak.body.error.fields[0]).toEqual({
+      field: 'password',
+      reason: 'must be 12 to 128 characters long',
+    });
+
+    await http()
+      .post('/api/auth/reset-password')
+      .set(W)
+      .send({ token, password: 'a brand new passphrase' })
+      .expect(200);
+    const reused = await http()
+      .post('/api/auth/reset-password')
+      .set(W)
+      .send({ token, password: 'another new passphrase' })
+      .expect(400);
+    expect(reused.body.error.code).toBe('token_invalid');
+    // The agent signed in before the reset is signed out.
+    expect((await a.agent.get('/api/auth/session')).body.account).toBeNull();
+    await http().post('/api/auth/sign-in').set(W).send({ email: a.email, password: a.password }).expect(401);
+    await signIn(t, a.email, 'a brand new passphrase');
+  });
+
+  it('change password ends every other session but keeps this one', async () => {
+    const a = await createAccount(t, { role: 'assessor' });
+    const other = await signIn(t, a.email, a.password);
+    const wrong = await a.agent
+      .post('/api/account/password')
+      .set(W)
+      .send({ currentPassword: 'wrong', newPassword: 'my second passphrase' })
+      .expect(400);
+    expect(wrong.body.error.fields[0].field).toBe('currentPassword');
+    await a.agent
+      .post('/api/account/password')
+      .set(W)
+      .send({ currentPassword: a.password, newPassword: 'my second passphrase' })
+      .expect(200);
+    expect((await a.agent.get('/api/account')).status).toBe(200);
+    expect((await other.get('/api/account')).status).toBe(401);
+  });
+
+  it('rejects with an e-mailed reason; suspends (revoking sessions, refusing writes), reinstates', async () => {
+    const registrar = await createAccount(t, { role: 'registrar' });
+    const pending = await createAccount(t, { role: 'dealer', status: 'pending' });
+    const bad = await registrar.agent
+      .post(`/api/registry/accounts/${pending.id}/reject`)
+      .set(W)
+      .send({})
+      .expect(400);
+    expect(bad.body.error.fields[0].field).toBe('reason');
+    await registrar.agent
+      .post(`/api/registry/accounts/${pending.id}/reject`)
+      .set(W)
+      .send({ reason: 'No trading address could be confirmed.' })
+      .expect(200);
+    const mail = lastMailTo(t, pending.email);
+    expect(mail.text).toContain('No trading address could be confirmed.');
+    expect(mail.html).toContain('No trading address could be confirmed.');
+
+    const dealer = await createAccount(t, { role: 'dealer' });
+    await registrar.agent
+      .post(`/api/registry/accounts/${dealer.id}/suspend`)
+      .set(W)
+      .send({ reason: 'Listed beads that were not theirs.' })
+      .expect(200);
+    expect((await dealer.agent.get('/api/account')).status).toBe(401);
+    const again = await signIn(t, dealer.email, dealer.password);
+    expect((await again.get('/api/account')).body.status).toBe('suspended');
+    expect((await http().get(`/api/public/dealers/${dealer.handle}`)).body.status).toBe('suspended');
+    const twice = await registrar.agent
+      .post(`/api/registry/accounts/${dealer.id}/suspend`)
+      .set(W)
+      .send({ reason: 'again' })
+      .expect(409);
+    expect(twice.body.error.code).toBe('conflict');
+    await registrar.agent.post(`/api/registry/accounts/${dealer.id}/reinstate`).set(W).expect(200);
+  });
+
+  it('shows received mail on the mailbox page to loopback requests only', async () => {
+    const a = await createAccount(t, { role: 'dealer' });
+    await http().post('/api/auth/forgot-password').set(W).send({ email: a.email }).expect(202);
+    const page = await http().get('/dev/mailbox').expect(200);
+    expect(page.headers['content-type']).toMatch(/text\/html/);
+    expect(page.text).toContain('Choose a new Beadroll password');
+    expect(page.text).toContain(`href="${BASE}/reset-password?token=`);
+    // A request relayed from elsewhere (RFC 7239 documentation address) is not loopback.
+    await http().get('/dev/mailbox').set('X-Forwarded-For', '203.0.113.7').expect(404);
+  });
+});

@@ -1,0 +1,111 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as { password: string; accounts: Array<{ role: string; email: string; displayName: string }> };
+const registrar = demo.accounts.find((a) => a.role === 'registrar')!;
+
+async function signIn(page: Page, baseUrl: string, email: string, password: string) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+}
+
+async function signOut(page: Page) {
+  await page.getByRole('button', { name: /account menu of/i }).click();
+  await page.getByRole('menuitem', { name: 'Sign out' }).click();
+  await page.getByRole('link', { name: 'Sign in' }).waitFor();
+}
+
+describe('accounts in Chromium', () => {
+  let browser: Browser;
+  const baseUrl = inject('baseUrl');
+  beforeAll(async () => {
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser.close();
+  });
+
+  it('sign up → open the mail in the mailbox → confirm → the registrar approves → sign in as a verified dealer', async () => {
+    const { page } = browser;
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    const email = `sela.${Date.now()}@example.test`;
+    const password = 'seven glass beads in a row';
+
+    await page.goto(`${baseUrl}/sign-up`);
+    await page.getByRole('textbox', { name: 'Your name' }).fill('Sela Marrowind');
+    await page.getByRole('textbox', { name: /handle/i }).fill(`sela-${Date.now()}`);
+    await page.getByRole('textbox', { name: 'Business name' }).fill('Marrowind Old Glass');
+    await page.getByRole('textbox', { name: 'Town' }).fill('Fernhollow');
+    await page.getByRole('textbox', { name: 'Country' }).fill('Estmark');
+    await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
+    await page.getByLabel('Password').fill('short');
+    await page.getByRole('button', { name: 'Apply' }).click();
+    await page.getByText('must be 12 to 128 characters long').waitFor();
+    await screenshot(page, 'accounts-sign-up-error-1280');
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Apply' }).click();
+    await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
+
+    await page.goto(`${baseUrl}/dev/mailbox`);
+    const mail = page.getByRole('article', { name: 'Confirm your e-mail address for Beadroll' }).filter({
+      hasText: email,
+    });
+    await mail.waitFor();
+    await screenshot(page, 'accounts-mailbox-1280');
+    const [response] = await Promise.all([
+      page.waitForResponse(
+        (r) => r.url().includes('/verify-email?token=') && r.request().isNavigationRequest(),
+      ),
+      mail.getByRole('link', { name: /verify-email/ }).click(),
+    ]);
+    expect(response.headers()['referrer-policy']).toBe('no-referrer');
+    await page.getByRole('heading', { name: 'Confirm your e-mail address' }).waitFor();
+    await page.getByRole('button', { name: 'Confirm my e-mail address' }).click();
+    await page.getByRole('heading', { name: 'E-mail address confirmed' }).waitFor();
+
+    await signIn(page, baseUrl, registrar.email, demo.password);
+    await page.getByRole('link', { name: 'Verification queue' }).click();
+    const row = page.getByRole('row').filter({ hasText: 'Sela Marrowind' });
+    await row.waitFor();
+    await screenshot(page, 'accounts-registry-1280');
+    await row.getByRole('button', { name: 'Approve' }).click();
+    await row.waitFor({ state: 'detached' });
+    await signOut(page);
+
+    await signIn(page, baseUrl, email, password);
+    await expect(page.locator('#account-title').textContent()).resolves.toBe('Sela Marrowind');
+    await page.getByText('Verified', { exact: true }).waitFor();
+    expect(await page.getByRole('link', { name: 'Verification queue' }).count()).toBe(0);
+    await screenshot(page, 'accounts-account-1280');
+    expect(errors).toEqual([]);
+  });
+
+  it('fits a phone screen (390 px): sign-in, account page and the queue', async () => {
+    const phone = await openBrowser({ width: 390, height: 844 });
+    try {
+      const { page } = phone;
+      await page.goto(`${baseUrl}/sign-in`);
+      await page.getByRole('button', { name: 'Sign in' }).waitFor();
+      await screenshot(page, 'accounts-sign-in-390');
+      await signIn(page, baseUrl, registrar.email, demo.password);
+      await screenshot(page, 'accounts-account-390');
+      await page.goto(`${baseUrl}/registry`);
+      await page.getByRole('heading', { name: 'Account verification' }).waitFor();
+      await page.getByRole('row').filter({ hasText: 'Pim Oyelaran' }).waitFor();
+      await screenshot(page, 'accounts-registry-390');
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+      expect(overflow).toBeLessThanOrEqual(0);
+    } finally {
+      await phone.close();
+    }
+  });
+});

@@ -1,0 +1,145 @@
+import {
+  Badge,
+  Button,
+  Card,
+  Field,
+  Input,
+  makeStyles,
+  MessageBar,
+  MessageBarBody,
+  Text,
+  Title2,
+  Title3,
+  tokens,
+} from '@fluentui/react-components';
+import { useMutation } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Navigate } from 'react-router-dom';
+import { accountsApi, useSession } from './accounts.api';
+import { fieldError, FormError, FormSuccess } from './FormPage';
+import { formatDate, ROLE_LABEL, STATUS_LABEL } from './labels';
+
+const useStyles = makeStyles({
+  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '720px' },
+  card: { padding: tokens.spacingHorizontalXL, display: 'grid', gap: tokens.spacingVerticalM },
+  facts: {
+    display: 'grid',
+    gridTemplateColumns: 'max-content 1fr',
+    columnGap: tokens.spacingHorizontalL,
+    rowGap: tokens.spacingVerticalS,
+    margin: 0,
+  },
+  term: { color: tokens.colorNeutralForeground3 },
+  detail: { margin: 0, overflowWrap: 'anywhere' },
+  form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '420px' },
+});
+
+function ChangePassword() {
+  const styles = useStyles();
+  const [current, setCurrent] = useState('');
+  const [next, setNext] = useState('');
+  const change = useMutation({
+    mutationFn: () => accountsApi.changePassword(current, next),
+    onSuccess: () => {
+      setCurrent('');
+      setNext('');
+    },
+  });
+  return (
+    <form
+      className={styles.form}
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        change.mutate();
+      }}
+    >
+      <Field
+        label="Current password"
+        required
+        validationMessage={fieldError(change.error, 'currentPassword')}
+      >
+        <Input
+          type="password"
+          autoComplete="current-password"
+          value={current}
+          onChange={(_, d) => setCurrent(d.value)}
+        />
+      </Field>
+      <Field
+        label="New password"
+        required
+        hint="At least 12 characters. Every other sign-in ends."
+        validationMessage={fieldError(change.error, 'newPassword')}
+      >
+        <Input
+          type="password"
+          autoComplete="new-password"
+          value={next}
+          onChange={(_, d) => setNext(d.value)}
+        />
+      </Field>
+      <FormError error={change.error} />
+      {change.isSuccess ? <FormSuccess>{change.data.message}</FormSuccess> : null}
+      <Button appearance="primary" type="submit" disabled={change.isPending}>
+        Change password
+      </Button>
+    </form>
+  );
+}
+
+export function AccountPage() {
+  const styles = useStyles();
+  const { account, isLoading } = useSession();
+  if (isLoading) return <Text>Loading…</Text>;
+  if (!account) return <Navigate to="/sign-in?next=/account" replace />;
+  const facts: Array<[string, string]> = [
+    ['Handle', account.handle],
+    ['Role', ROLE_LABEL[account.role]],
+    ['Business', account.business],
+    ['Town', account.town],
+    ['Country', account.country],
+    ['E-mail address', account.email],
+    ['Verified since', formatDate(account.verifiedSince)],
+  ];
+  return (
+    <section className={styles.page} aria-labelledby="account-title">
+      <Title2 as="h1" id="account-title">
+        {account.displayName}
+      </Title2>
+      <div>
+        <Badge appearance="tint" color={account.status === 'verified' ? 'success' : 'warning'}>
+          {STATUS_LABEL[account.status]}
+        </Badge>
+      </div>
+      {account.status === 'pending' ? (
+        <MessageBar intent="info">
+          <MessageBarBody>
+            The registrar has not verified your account yet. You can read; writing to rolls opens once you are
+            verified, and we will tell you by e-mail.
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
+      {(account.status === 'suspended' || account.status === 'rejected') && account.statusReason ? (
+        <MessageBar intent="warning">
+          <MessageBarBody>The registrar’s reason: {account.statusReason}</MessageBarBody>
+        </MessageBar>
+      ) : null}
+      <Card className={styles.card}>
+        <Title3 as="h2">Your details</Title3>
+        <dl className={styles.facts}>
+          {facts.map(([k, v]) => (
+            <div key={k} style={{ display: 'contents' }}>
+              <dt className={styles.term}>{k}</dt>
+              <dd className={styles.detail}>{v}</dd>
+            </div>
+          ))}
+        </dl>
+      </Card>
+      <Card className={styles.card}>
+        <Title3 as="h2">Password</Title3>
+        <ChangePassword />
+      </Card>
+    </section>
+  );
+}

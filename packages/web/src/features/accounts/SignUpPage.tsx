@@ -1,0 +1,79 @@
+import { Button, Field, Input, Radio, RadioGroup } from '@fluentui/react-components';
+import { useMutation } from '@tanstack/react-query';
+import { useState } from 'react';
+import { accountsApi } from './accounts.api';
+import { fieldError, FormError, FormPage, FormSuccess } from './FormPage';
+
+const FIELDS = [
+  { name: 'displayName', label: 'Your name', autoComplete: 'name', hint: 'Shown on your dealer card.' },
+  {
+    name: 'handle',
+    label: 'Handle',
+    autoComplete: 'username',
+    hint: 'Lower-case letters, digits and hyphens; part of your public address. It can never be changed.',
+  },
+  { name: 'business', label: 'Business name', autoComplete: 'organization' },
+  { name: 'town', label: 'Town', autoComplete: 'address-level2' },
+  { name: 'country', label: 'Country', autoComplete: 'country-name' },
+  { name: 'email', label: 'E-mail address', autoComplete: 'email', type: 'email' as const },
+  {
+    name: 'password',
+    label: 'Password',
+    autoComplete: 'new-password',
+    type: 'password' as const,
+    hint: 'At least 12 characters. A few unrelated words make a good one.',
+  },
+];
+
+export function SignUpPage() {
+  const [values, setValues] = useState<Record<string, string>>({ role: 'dealer' });
+  const signUp = useMutation({ mutationFn: () => accountsApi.signUp(values) });
+  if (signUp.isSuccess) {
+    return (
+      <FormPage title="Check your e-mail">
+        <FormSuccess>{signUp.data.message}</FormSuccess>
+      </FormPage>
+    );
+  }
+  return (
+    <FormPage
+      title="Apply for an account"
+      lead="The registrar verifies every dealer and assessor before they can write to a roll. Until then you can sign in and read."
+      onSubmit={() => signUp.mutate()}
+    >
+      <Field label="I am" required validationMessage={fieldError(signUp.error, 'role')}>
+        <RadioGroup
+          layout="horizontal"
+          value={values.role}
+          onChange={(_, d) => setValues((v) => ({ ...v, role: d.value }))}
+        >
+          <Radio value="dealer" label="a dealer" />
+          <Radio value="assessor" label="an assessor" />
+        </RadioGroup>
+      </Field>
+      {FIELDS.map((f) => (
+        <Field
+          key={f.name}
+          label={f.label}
+          required
+          hint={f.hint}
+          validationMessage={fieldError(signUp.error, f.name)}
+        >
+          <Input
+            name={f.name}
+            type={f.type ?? 'text'}
+            autoComplete={f.autoComplete}
+            value={values[f.name] ?? ''}
+            onChange={(_, d) =>
+              setValues((v) => ({ ...v, [f.name]: f.name === 'handle' ? d.value.toLowerCase() : d.value }))
+            }
+          />
+        </Field>
+      ))}
+      <FormError error={signUp.error} />
+      <Button appearance="primary" type="submit" disabled={signUp.isPending}>
+        Apply
+      </Button>
+    </FormPage>
+  );
+}

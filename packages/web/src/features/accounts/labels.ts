@@ -1,0 +1,19 @@
+import type { AccountStatus, Role } from './accounts.api';
+
+export const ROLE_LABEL: Record<Role, string> = {
+  dealer: 'Dealer',
+  assessor: 'Assessor',
+  registrar: 'Registrar',
+};
+
+export const STATUS_LABEL: Record<AccountStatus, string> = {
+  pending: 'Waiting for the registrar',
+  verified: 'Verified',
+  rejected: 'Not accepted',
+  suspended: 'Suspended',
+  closed: 'Closed',
+};
+
+export function formatDate(iso: string | null): string {
+  return iso ? new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' }) : '—';
+}
