@@ -24,7 +24,7 @@ export class ExhibitsController {
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
     @Body() dto: AddExhibitDto,
-    @UploadedFile() file: Express.Multer.File | undefined,
+    @UploadedFile() file: { path: string } | undefined,
   ): Promise<AddExhibitResponse> {
     return this.exhibits.add(account, code, dto, file);
   }

@@ -78,7 +78,7 @@ export class UploadGuardInterceptor implements NestInterceptor {
     const req = ctx.switchToHttp().getRequest<Request>();
     const res = ctx.switchToHttp().getResponse<Response>();
     const remove = () => {
-      const path = req.file?.path;
+      const path = (req as Request & { file?: { path: string } }).file?.path;
       if (path) void rm(path, { force: true });
     };
     res.once('close', remove);
