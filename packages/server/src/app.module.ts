@@ -13,6 +13,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { ExhibitsModule } from './exhibits/exhibits.module';
 
 @Module({
   imports: [
@@ -27,6 +28,7 @@ import { LotsModule } from './lots/lots.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    ExhibitsModule,
     AuditModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],

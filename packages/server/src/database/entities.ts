@@ -6,6 +6,7 @@ import { EntryEntity } from '../ledger/entities/entry.entity';
 import { LotEntity } from '../ledger/entities/lot.entity';
 import { SealedFieldEntity } from '../ledger/entities/sealed-field.entity';
 import { LotViewEntity } from '../lots/entities/lot-view.entity';
+import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -18,4 +19,5 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   EntryBodyEntity,
   SealedFieldEntity,
   LotViewEntity,
+  ExhibitEntity,
 ];

@@ -1,9 +1,11 @@
 import type { MigrationInterface } from 'typeorm';
 import { CreateAccounts1767200000000 } from '../migrations/1767200000000-CreateAccounts';
 import { CreateLedger1796157689568 } from '../migrations/1796157689568-CreateLedger';
+import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateAccounts1767200000000,
   CreateLedger1796157689568,
+  CreateExhibits1796160000000,
 ];

@@ -2,7 +2,7 @@ import { Body, Controller, Get, Param, Post, Req, Res, UploadedFile, UseIntercep
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import { CurrentAccount, Public, type Principal, RollWriter } from '../auth/auth.decorators';
+import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
 import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
 import type { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
 import { sendExhibitFile } from './exhibit-response';
@@ -15,6 +15,7 @@ export class ExhibitsController {
   constructor(private readonly exhibits: ExhibitsService) {}
 
   @Post()
+  @Roles('dealer', 'assessor')
   @RollWriter()
   @ApiOperation({ summary: 'Add one evidence file to a lot as an exhibit-added entry' })
   @ApiConsumes('multipart/form-data')

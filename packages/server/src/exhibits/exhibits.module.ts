@@ -8,6 +8,7 @@ import { LotsModule } from '../lots/lots.module';
 import { StorageModule } from '../storage/storage.module';
 import { ExhibitEntity } from './entities/exhibit.entity';
 import { ExhibitProcessor } from './exhibit-processor';
+import { ExhibitRedactionProjector } from './exhibit-redaction.projector';
 import { ExhibitsController, PublicExhibitsController } from './exhibits.controller';
 import { ExhibitsService } from './exhibits.service';
 import { multerOptions, UploadGuardInterceptor } from './upload';
@@ -22,7 +23,7 @@ import { multerOptions, UploadGuardInterceptor } from './upload';
     MulterModule.registerAsync({ inject: [APP_CONFIG], useFactory: (c: AppConfig) => multerOptions(c) }),
   ],
   controllers: [ExhibitsController, PublicExhibitsController],
-  providers: [ExhibitsService, ExhibitProcessor, UploadGuardInterceptor],
+  providers: [ExhibitsService, ExhibitProcessor, ExhibitRedactionProjector, UploadGuardInterceptor],
   exports: [ExhibitsService],
 })
 export class ExhibitsModule {}

@@ -84,6 +84,13 @@ export class UploadGuardInterceptor implements NestInterceptor {
     res.once('close', remove);
     return next.handle().pipe(
       catchError((err: unknown) => {
+        // The client went away mid-upload: multer has removed the partial file already.
+        if (err instanceof Error && /^Request (aborted|closed)$/.test(err.message))
+          return throwError(() =>
+            AppError.validation([
+              { field: 'file', reason: 'the upload stopped before the file was complete' },
+            ]),
+          );
         if (err instanceof HttpException && !(err instanceof AppError)) {
           const status = err.getStatus();
           const message = err.message;

@@ -52,6 +52,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
   'GET /api/audit/ledger': { roles: ['registrar'] },
+  // exhibits
+  'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
+  'GET /api/lots/:code/exhibits': 'signed-in',
+  'GET /api/lots/:code/exhibits/:seq/:variant': 'signed-in',
+  'GET /api/public/lots/:code/exhibits/:seq/:variant': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
