@@ -63,6 +63,8 @@ async function main(): Promise<void> {
   mkdirSync(resultsDir, { recursive: true });
 
   if (!quick && !existsSync('/usr/bin/chromium')) aptInstall(['chromium'], 'the browser tests');
+  // The tag tests rasterise PDFs with poppler's pdftoppm; they run in the quick suite too.
+  if (!existsSync('/usr/bin/pdftoppm')) aptInstall(['poppler-utils'], 'the tag PDF tests');
 
   let target: PgTarget;
   if (process.env.PGHOST) {

@@ -75,3 +75,14 @@ export class BundleError extends LedgerError {
     super(code, message);
   }
 }
+
+/** Codes of {@link TagError}. */
+export type TagErrorCode = 'bad-host';
+
+/** Thrown when a printed tag cannot be made from its parts, such as a host that is not a host. */
+export class TagError extends LedgerError {
+  declare readonly code: TagErrorCode;
+  constructor(code: TagErrorCode, message: string) {
+    super(code, message);
+  }
+}

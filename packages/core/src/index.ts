@@ -7,6 +7,7 @@ export {
   LotCodeError,
   MerkleError,
   BundleError,
+  TagError,
 } from './errors.js';
 export type {
   CanonicalErrorCode,
@@ -14,6 +15,7 @@ export type {
   LotCodeErrorCode,
   MerkleErrorCode,
   BundleErrorCode,
+  TagErrorCode,
 } from './errors.js';
 export { canonicalise, canonicaliseJcs, parseCanonical } from './canonical.js';
 export { secureRandom, seededRandom } from './random.js';
@@ -114,6 +116,21 @@ export {
   createBundle,
 } from './bundle.js';
 export type { BundleEntry, BundleRoll, Bundle, BundleRollResult, BundleVerification } from './bundle.js';
+export {
+  QR_ALPHANUMERIC_CHARSET,
+  QR_ALPHANUMERIC_CAPACITY,
+  QR_MAX_TABLED_VERSION,
+  QR_QUIET_ZONE_MODULES,
+  TAG_PATH_SEGMENT,
+  isQrAlphanumeric,
+  qrVersionForAlphanumeric,
+  qrModulesPerSide,
+  normaliseTagHost,
+  tagPayload,
+  parseTagPayload,
+  tagQrVersion,
+} from './tag.js';
+export type { QrEcLevel, TagPayload } from './tag.js';
 export { attributionAid, uvCaution } from './aid.js';
 export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
 export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES } from './aid-rules.js';

@@ -14,6 +14,7 @@ import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
+import { TagsModule } from './tags/tags.module';
 
 @Module({
   imports: [
@@ -30,6 +31,7 @@ import { ExhibitsModule } from './exhibits/exhibits.module';
     LotsModule,
     ExhibitsModule,
     AuditModule,
+    TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -44,11 +44,10 @@ it('gives demo lots drawn exhibits through the upload service, once', async () =
     const v = await dealer.agent.get(`/api/lots/${code}/verification`).expect(200);
     expect(v.body).toMatchObject({ ok: true });
   }
-  expect(ctx.report.publicLots.map((l) => l.code)).toEqual(codes);
   expect(leftovers(t)).toEqual([]);
 
   // A second load finds them and adds nothing.
   const before = (await rollOf(dealer.agent, roses)).length;
-  await seedExhibits(t.app, { ...ctx, report: { signIns: [], publicLots: [] } });
+  await seedExhibits(t.app, ctx);
   expect((await rollOf(dealer.agent, roses)).length).toBe(before);
 }, 120_000);

@@ -33,14 +33,12 @@ export const seedExhibits: SeedStep = async (app, ctx) => {
   try {
     const lots = JSON.parse(readFileSync(DEMO_EXHIBITS_FILE, 'utf8')) as DemoLotExhibits[];
     for (const lot of lots) {
-      const rows: Array<{ code: string; holder: string; listed: boolean }> = await data.query(
-        'SELECT "code", "holder", "listed" FROM "lot_views" WHERE "title" = $1 ORDER BY "code" LIMIT 1',
+      const rows: Array<{ code: string; holder: string }> = await data.query(
+        'SELECT "code", "holder" FROM "lot_views" WHERE "title" = $1 ORDER BY "code" LIMIT 1',
         [lot.lot],
       );
       const found = rows[0];
       if (!found) continue;
-      if (found.listed && !ctx.report.publicLots.some((l) => l.code === found.code))
-        ctx.report.publicLots.push({ code: found.code, why: `exhibit photos (illustrations): ${lot.lot}` });
       const has: unknown[] = await data.query('SELECT 1 FROM "exhibits" WHERE "lot_code" = $1 LIMIT 1', [
         found.code,
       ]);

@@ -14,6 +14,7 @@ import type { AccountStatus, Role } from '../auth/auth.decorators';
 import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { seedLots } from './demo-lots';
 import { seedExhibits } from './demo-exhibits';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
@@ -86,7 +87,7 @@ export const seedAccounts: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedExhibits];
+export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedExhibits];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

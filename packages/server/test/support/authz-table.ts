@@ -52,6 +52,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
   'GET /api/audit/ledger': { roles: ['registrar'] },
+  // tags: printing writes nothing; listing writes described entries
+  'GET /api/tags/layouts': { roles: ['dealer'] },
+  'GET /api/tags/lots/:code': { roles: ['dealer'] },
+  'POST /api/tags/pdf': { roles: ['dealer'] },
+  'POST /api/tags/list': { roles: ['dealer'], writer: true },
   // exhibits
   'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
   'GET /api/lots/:code/exhibits': 'signed-in',

@@ -19,6 +19,8 @@ import { beadrollTheme } from './theme';
 const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+  { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
+  { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
 
 export const routes: RouteObject[] = [
@@ -33,6 +35,21 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      // The scanner and the tag pages load on first use: they carry the QR decoder.
+      {
+        path: 'scan',
+        lazy: async () => ({ Component: (await import('../features/scanner/ScannerPage')).ScannerPage }),
+      },
+      {
+        path: 'scan/lots/:code',
+        lazy: async () => ({
+          Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
+        }),
+      },
+      {
+        path: 'tags',
+        lazy: async () => ({ Component: (await import('../features/tags/PrintTagsPage')).PrintTagsPage }),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },

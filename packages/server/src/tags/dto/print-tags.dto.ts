@@ -1,0 +1,125 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { Type } from 'class-transformer';
+import {
+  ArrayMaxSize,
+  ArrayMinSize,
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsNumber,
+  IsOptional,
+  IsString,
+  Max,
+  MaxLength,
+  Min,
+  ValidateNested,
+} from 'class-validator';
+import { GRID_LIMITS, LABEL_LIMITS, PAPERS, TAG_DESIGNS, type Paper, type TagDesign } from '../tag-layout';
+import { MAX_TAGS_PER_PDF } from '../tag-pdf.service';
+
+/** A label sheet: paper, grid and spacing in millimetres. */
+export class SheetDto {
+  @ApiProperty({ enum: Object.keys(PAPERS) })
+  @IsIn(Object.keys(PAPERS))
+  paper: Paper;
+
+  @ApiPropertyOptional({ description: 'columns of labels; omitted: as many as fit' })
+  @IsOptional()
+  @IsInt()
+  @Min(1)
+  @Max(GRID_LIMITS.maxCells)
+  columns?: number;
+
+  @ApiPropertyOptional({ description: 'rows of labels; omitted: as many as fit' })
+  @IsOptional()
+  @IsInt()
+  @Min(1)
+  @Max(GRID_LIMITS.maxCells)
+  rows?: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxMarginMm)
+  marginTopMm: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxMarginMm)
+  marginRightMm: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxMarginMm)
+  marginBottomMm: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxMarginMm)
+  marginLeftMm: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxGapMm)
+  gapXMm: number;
+
+  @IsNumber()
+  @Min(0)
+  @Max(GRID_LIMITS.maxGapMm)
+  gapYMm: number;
+
+  @ApiPropertyOptional({ description: 'cells already used on the first sheet' })
+  @IsOptional()
+  @IsInt()
+  @Min(0)
+  skip?: number;
+
+  @ApiPropertyOptional({ description: 'draw thin cutting lines around each cell' })
+  @IsOptional()
+  @IsBoolean()
+  outline?: boolean;
+}
+
+/** Tags for one lot or a selection, in one design, on a label printer or a sheet. */
+export class PrintTagsDto {
+  @ApiProperty({ type: [String], description: 'lot codes the dealer holds' })
+  @IsArray()
+  @ArrayMinSize(1)
+  @ArrayMaxSize(MAX_TAGS_PER_PDF)
+  @IsString({ each: true })
+  @MaxLength(20, { each: true })
+  lots: string[];
+
+  @ApiProperty({ enum: TAG_DESIGNS })
+  @IsIn(TAG_DESIGNS)
+  design: TagDesign;
+
+  @IsOptional()
+  @IsNumber()
+  @Min(LABEL_LIMITS.minMm)
+  @Max(LABEL_LIMITS.maxMm)
+  labelWidthMm?: number;
+
+  @IsOptional()
+  @IsNumber()
+  @Min(LABEL_LIMITS.minMm)
+  @Max(LABEL_LIMITS.maxMm)
+  labelHeightMm?: number;
+
+  @ApiPropertyOptional({ type: SheetDto, description: 'omitted: one label per page, for a label printer' })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => SheetDto)
+  sheet?: SheetDto;
+}
+
+/** Unlisted lots the holder confirms should get a public page. */
+export class ListLotsDto {
+  @ApiProperty({ type: [String] })
+  @IsArray()
+  @ArrayMinSize(1)
+  @ArrayMaxSize(MAX_TAGS_PER_PDF)
+  @IsString({ each: true })
+  @MaxLength(20, { each: true })
+  lots: string[];
+}
