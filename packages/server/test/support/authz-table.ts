@@ -38,6 +38,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/registry/accounts/:id/reject': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/suspend': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/reinstate': { roles: ['registrar'] },
+  'GET /api/public/dealers': 'public',
   'GET /api/public/dealers/:handle': 'public',
   // lots and their rolls
   'POST /api/lots': { roles: ['dealer'], writer: true },

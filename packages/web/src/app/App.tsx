@@ -11,6 +11,9 @@ import { SignInPage } from '../features/accounts/SignInPage';
 import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
+import { InventoryPage } from '../features/lots/InventoryPage';
+import { LotPage } from '../features/lots/LotPage';
+import { RegisterLotPage } from '../features/lots/RegisterLotPage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
@@ -19,6 +22,8 @@ import { beadrollTheme } from './theme';
 const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+  { to: '/lots', label: 'Inventory', roles: ['dealer'] },
+  { to: '/lots/new', label: 'Register a lot', roles: ['dealer'], writer: true },
   { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
   { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
@@ -35,6 +40,9 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
+      { path: 'lots', element: <InventoryPage /> },
+      { path: 'lots/new', element: <RegisterLotPage /> },
+      { path: 'lots/:code', element: <LotPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {
         path: 'scan',
