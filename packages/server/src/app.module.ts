@@ -18,6 +18,7 @@ import { TransfersModule } from './transfers/transfers.module';
 import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
+import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -36,6 +37,7 @@ import { TagsModule } from './tags/tags.module';
     LotsModule,
     OpinionsModule,
     LineageModule,
+    ExhibitsModule,
     AuditModule,
     TransfersModule,
     RegistryToolsModule,

@@ -13,6 +13,7 @@ import { BlockedDigest } from '../registry/entities/blocked-digest.entity';
 import { RedactionRequest } from '../registry/entities/redaction-request.entity';
 import { RegistrarAction } from '../registry/entities/registrar-action.entity';
 import { Report } from '../registry/entities/report.entity';
+import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -32,4 +33,5 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   BlockedDigest,
   RedactionRequest,
   Report,
+  ExhibitEntity,
 ];

@@ -18,6 +18,7 @@ import { seedTransfers } from '../transfers/demo-transfers';
 import { seedOpinions } from '../opinions/demo-opinions';
 import { seedLots } from './demo-lots';
 import { loadDemoLineage } from '../lineage/lineage.seed';
+import { seedExhibits } from './demo-exhibits';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
 export const SEED_DIR = resolve(__dirname, '..', '..', '..', '..', 'seed-demo');
@@ -96,7 +97,14 @@ export const seedLineage: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedOpinions, seedTransfers, seedLineage];
+export const SEED_STEPS: SeedStep[] = [
+  seedAccounts,
+  seedLots,
+  seedExhibits,
+  seedOpinions,
+  seedTransfers,
+  seedLineage,
+];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

@@ -94,6 +94,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
   'POST /api/tags/pdf': { roles: ['dealer'] },
   'POST /api/tags/list': { roles: ['dealer'], writer: true },
+  // exhibits
+  'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
+  'GET /api/lots/:code/exhibits': 'signed-in',
+  'GET /api/lots/:code/exhibits/:seq/:variant': 'signed-in',
+  'GET /api/public/lots/:code/exhibits/:seq/:variant': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
