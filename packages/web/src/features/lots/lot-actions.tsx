@@ -3,6 +3,8 @@ import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
+import { ExhibitsSection } from '../exhibits/ExhibitsSection';
+import { mayAddExhibits } from '../exhibits/exhibits-panel';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -82,4 +84,6 @@ export const LOT_ACTIONS: LotAction[] = [
 ];
 
 /** Sections of the lot page, in order. Features add one line each. */
-export const LOT_PANELS: LotPanel[] = [];
+export const LOT_PANELS: LotPanel[] = [
+  { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={mayAddExhibits(ctx)} /> },
+];
