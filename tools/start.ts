@@ -96,7 +96,10 @@ async function main(): Promise<void> {
     lines.push('demo sign-ins (demo mode only):');
     for (const s of report.signIns)
       lines.push(`  ${s.role.padEnd(9)} ${s.email}  password: ${s.password}  (${s.name})`);
-    for (const lot of report.publicLots.slice(0, 3)) lines.push(`demo public page: ${base}/l/${lot.code}`);
+    // Later seed steps push the lots that show the most (a dissent, a change of hands, a split
+    // child), so the newest three are printed; a code appears once.
+    const codes = [...new Set(report.publicLots.map((l) => l.code).reverse())].slice(0, 3).reverse();
+    for (const code of codes) lines.push(`demo public page: ${base}/l/${code}`);
   }
   lines.push('Press Ctrl+C to stop.', '');
   console.log(lines.join('\n'));

@@ -1,14 +1,18 @@
-import { randomUUID } from 'node:crypto';
-import { resolve } from 'node:path';
 import { formatLotCode, parseBundleText, verifyBundle, type Bundle } from '@beadroll/core';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
-import { loadDemoLots, readDemoLots, type LoadedDemoLot } from '../src/demo/demo-lots';
+import {
+  DEMO_LOTS_FILE,
+  loadDemoLots,
+  readDemoLots,
+  seedLots,
+  type LoadedDemoLot,
+} from '../src/demo/demo-lots';
+import { runSeed, seedAccounts, type DemoReport } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { createTestApp, type TestApp } from './support/test-app';
 
-const LOTS_FILE = resolve(__dirname, '../../../seed-demo/lots.json');
 /** Keys that name private facts; none may appear anywhere in public data (the header's `sealed` is only the root of salted digests). */
 const PRIVATE_KEYS =
   /^(salt|salts|commitments|cost|price|acquisition|storageLocation|visibleTo|privateNote)$/i;
@@ -38,17 +42,27 @@ function decodeStrings(v: unknown): unknown {
   return v;
 }
 
+const DEMO_LOT_STEPS = [seedAccounts, seedLots];
+
 describe('the demo lots', () => {
   let t: TestApp;
   let loaded: LoadedDemoLot[];
-  const dealers = Array.from({ length: 5 }, () => randomUUID());
+  let report: DemoReport;
+  const dealers: Record<string, string> = {};
 
   beforeAll(async () => {
     t = await createTestApp();
+    // The accounts and the lots, as npm start loads them (later steps add lots of their own).
+    report = await runSeed(t.app, DEMO_LOT_STEPS);
+    for (const row of (await t.app.get(DataSource).query('SELECT id, handle FROM accounts')) as Array<{
+      id: string;
+      handle: string;
+    }>)
+      dealers[row.handle] = row.id;
     loaded = await loadDemoLots(
       t.app.get(LedgerService),
       t.app.get(DataSource),
-      readDemoLots(LOTS_FILE),
+      readDemoLots(DEMO_LOTS_FILE),
       dealers,
     );
   });
@@ -63,7 +77,7 @@ describe('the demo lots', () => {
     const again = await loadDemoLots(
       t.app.get(LedgerService),
       t.app.get(DataSource),
-      readDemoLots(LOTS_FILE),
+      readDemoLots(DEMO_LOTS_FILE),
       dealers,
     );
     expect(again.map((l) => l.code)).toEqual(loaded.map((l) => l.code));
@@ -71,6 +85,14 @@ describe('the demo lots', () => {
       n: number;
     }>;
     expect(n).toBe(loaded.length);
+  });
+
+  it('gives the start banner exactly three listed lots', async () => {
+    expect(report.publicLots).toHaveLength(3);
+    const listed = new Set(loaded.filter((l) => l.listed).map((l) => l.code));
+    for (const p of report.publicLots) expect(listed.has(p.code)).toBe(true);
+    const again = await runSeed(t.app, DEMO_LOT_STEPS);
+    expect(again.publicLots).toEqual(report.publicLots);
   });
 
   it('every demo roll verifies', async () => {
@@ -119,6 +141,7 @@ describe('the demo lots', () => {
       }
       expect(page.status).toBe(200);
       expect(Object.keys(page.body).sort()).toEqual(['bundle', 'cards', 'code']);
+      expect(page.body.cards[dealers[l.holder]!]).toMatchObject({ handle: l.holder, status: 'verified' });
       expect(file.status).toBe(200);
       expect(file.headers['content-disposition']).toBe(`attachment; filename="${l.code}.beadroll.json"`);
       expect(verifyBundle(parseBundleText(file.text)).ok).toBe(true);

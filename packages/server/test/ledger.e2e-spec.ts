@@ -150,6 +150,41 @@ describe('the ledger on PostgreSQL', () => {
     }
   });
 
+  it('lets appends to other lots through while one lot is locked', async () => {
+    const me = dealer();
+    const a = await lots.register(me, { description: description() } as never);
+    const b = await lots.register(me, { description: description() } as never);
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    let locked!: () => void;
+    const isLocked = new Promise<void>((r) => (locked = r));
+    const holder = ledger.withLots([a.code], async () => {
+      locked();
+      await held;
+    });
+    await isLocked;
+    const onA = ledger.append(a.code, {
+      kind: 'observed',
+      actor: me.id,
+      body: { observations: { hole: 'clean' } },
+    });
+    // B is not blocked by A's lock.
+    const onB = await ledger.append(b.code, {
+      kind: 'observed',
+      actor: me.id,
+      body: { observations: { hole: 'clean' } },
+    });
+    expect(onB.seq).toBe(1);
+    const state = await Promise.race([
+      onA.then(() => 'written'),
+      new Promise((r) => setTimeout(() => r('waiting'), 200)),
+    ]);
+    expect(state).toBe('waiting');
+    release();
+    await holder;
+    expect((await onA).seq).toBe(1);
+  });
+
   it('refuses a write the rules do not allow, and leaves nothing behind', async () => {
     const me = dealer();
     const lot = await lots.register(me, { description: description() } as never);

@@ -1,14 +1,16 @@
 import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { generateLotCode, seededRandom, type LotDescription, type Observations } from '@beadroll/core';
-import type { DataSource } from 'typeorm';
-import type { LedgerService } from '../ledger/ledger.service';
+import { DataSource } from 'typeorm';
+import { LedgerService } from '../ledger/ledger.service';
 import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
 import { sealedValuesOf } from '../lots/lots.service';
+import type { SeedStep } from './seed';
 
 /** One invented lot of the demo scenario (seed-demo/lots.json). */
 export interface DemoLot {
-  /** Index into the demo dealers, in the order the scenario lists them. */
-  dealer: number;
+  /** Handle of the demo dealer who registers and holds the lot (seed-demo/accounts.json). */
+  holder: string;
   description: LotDescription;
   observations?: Observations;
   sealed?: SealedDetailsDto;
@@ -17,10 +19,13 @@ export interface DemoLot {
 /** A demo lot as loaded: its code and whether it is listed. */
 export interface LoadedDemoLot {
   code: string;
-  dealer: number;
+  holder: string;
   title: string;
   listed: boolean;
 }
+
+/** The scenario's lots (seed-demo/lots.json; the same folder as the loader's SEED_DIR). */
+export const DEMO_LOTS_FILE = resolve(__dirname, '..', '..', '..', '..', 'seed-demo', 'lots.json');
 
 /** Seed of the demo lot codes: the same codes on every machine and every run. */
 export const DEMO_LOT_SEED = 'beadroll demo scenario: lots';
@@ -31,7 +36,7 @@ export function readDemoLots(file: string): DemoLot[] {
 }
 
 /**
- * Registers the demo lots for the demo dealers (account ids in scenario order) through the
+ * Registers the demo lots for the demo dealers (account ids by handle) through the
  * ledger's one append path. Codes come from a fixed seed, so a lot already on the ledger is
  * recognised and skipped: loading twice changes nothing.
  */
@@ -39,18 +44,16 @@ export async function loadDemoLots(
   ledger: LedgerService,
   dataSource: DataSource,
   lots: DemoLot[],
-  dealerIds: string[],
+  accounts: Record<string, string>,
 ): Promise<LoadedDemoLot[]> {
   const random = seededRandom(DEMO_LOT_SEED);
   const out: LoadedDemoLot[] = [];
   for (const lot of lots) {
     const code = generateLotCode(random);
-    const actor = dealerIds[lot.dealer];
+    const actor = accounts[lot.holder];
     if (!actor)
-      throw new Error(
-        `demo lot "${lot.description.title}" names dealer ${lot.dealer}, which is not in the scenario`,
-      );
-    out.push({ code, dealer: lot.dealer, title: lot.description.title, listed: lot.description.listed });
+      throw new Error(`demo lot "${lot.description.title}" names ${lot.holder}, who is not in the scenario`);
+    out.push({ code, holder: lot.holder, title: lot.description.title, listed: lot.description.listed });
     const exists: unknown[] = await dataSource.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
     if (exists.length > 0) continue;
     await ledger.withLots([], async (tx) => {
@@ -61,3 +64,15 @@ export async function loadDemoLots(
   }
   return out;
 }
+
+/** Seed step: the demo lots, then three listed lots for the start banner's public pages. */
+export const seedLots: SeedStep = async (app, ctx) => {
+  const loaded = await loadDemoLots(
+    app.get(LedgerService),
+    app.get(DataSource),
+    readDemoLots(DEMO_LOTS_FILE),
+    ctx.accounts,
+  );
+  for (const lot of loaded.filter((l) => l.listed).slice(0, 3))
+    ctx.report.publicLots.push({ code: lot.code, why: `a listed lot: ${lot.title}` });
+};

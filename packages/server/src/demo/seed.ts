@@ -15,6 +15,7 @@ import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { loadDemoLineage } from '../lineage/lineage.seed';
+import { seedLots } from './demo-lots';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
 export const SEED_DIR = resolve(__dirname, '..', '..', '..', '..', 'seed-demo');
@@ -93,7 +94,7 @@ export const seedLineage: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLineage];
+export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedLineage];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { AccountsModule } from '../accounts/accounts.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { LotViewProjector } from './lot-view.projector';
 import { LotsController } from './lots.controller';
@@ -7,7 +8,7 @@ import { PublicLotsController } from './public-lots.controller';
 import { PublicLotsService } from './public-lots.service';
 
 @Module({
-  imports: [LedgerModule],
+  imports: [LedgerModule, AccountsModule],
   controllers: [LotsController, PublicLotsController],
   providers: [LotsService, LotViewProjector, PublicLotsService],
   exports: [LotsService],

@@ -1,6 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
 import { DataSource } from 'typeorm';
+import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -28,20 +29,15 @@ export function toPublicBundle(b: Bundle): PublicBundle {
   };
 }
 
-/** Source of the public dealer cards shown beside a roll. */
-export interface DealerCardSource {
-  cardsFor(ids: string[]): Promise<Map<string, PublicDealerCard>>;
-}
-
-function toPublicCard(c: PublicDealerCard): PublicDealerCard {
+function toPublicCard(c: DealerCard): PublicDealerCard {
   return {
     id: c.id,
     handle: c.handle,
     displayName: c.displayName,
-    business: c.business ?? null,
-    town: c.town ?? null,
-    country: c.country ?? null,
-    verifiedSince: c.verifiedSince ?? null,
+    business: c.business,
+    town: c.town,
+    country: c.country,
+    verifiedSince: c.verifiedSince,
     status: c.status,
   };
 }
@@ -52,17 +48,11 @@ function toPublicCard(c: PublicDealerCard): PublicDealerCard {
  */
 @Injectable()
 export class PublicLotsService {
-  private cards: DealerCardSource = { cardsFor: async () => new Map() };
-
   constructor(
     private readonly dataSource: DataSource,
     private readonly bundles: BundleService,
+    private readonly cards: DealerCardsService,
   ) {}
-
-  /** Sets where dealer cards come from (the accounts feature). */
-  useCards(source: DealerCardSource): void {
-    this.cards = source;
-  }
 
   async lot(text: string): Promise<PublicLotResponse> {
     const code = await this.listedCode(text);

@@ -14,6 +14,7 @@ import {
   ArrayUnique,
   IsArray,
   IsBoolean,
+  IsDefined,
   IsIn,
   IsInt,
   IsNumber,
@@ -98,6 +99,7 @@ export class LotDescriptionDto {
   form: LotForm;
 
   @ApiProperty({ type: CountDto })
+  @IsDefined()
   @ValidateNested()
   @Type(() => CountDto)
   count: CountDto;

@@ -35,6 +35,11 @@ describe('lot request validation', () => {
     expect(await fieldsOf(good)).toEqual([]);
   });
 
+  it('names missing required parts', async () => {
+    expect(await fieldsOf({})).toEqual(['description']);
+    expect(await fieldsOf(withDescription({ count: undefined }))).toEqual(['description.count']);
+  });
+
   it('names a negative count', async () => {
     expect(await fieldsOf(withDescription({ count: { value: -1, estimated: false } }))).toEqual([
       'description.count.value',

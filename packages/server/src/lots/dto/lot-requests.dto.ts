@@ -3,6 +3,7 @@ import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@
 import { Transform, Type } from 'class-transformer';
 import {
   IsBoolean,
+  IsDefined,
   IsIn,
   IsInt,
   IsOptional,
@@ -19,6 +20,7 @@ import { SealedDetailsDto } from './sealed-details.dto';
 /** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
 export class CreateLotDto {
   @ApiProperty({ type: LotDescriptionDto })
+  @IsDefined()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;
@@ -39,6 +41,7 @@ export class CreateLotDto {
 /** A full new description (a `described` entry), optionally with new sealed details. */
 export class DescribeLotDto {
   @ApiProperty({ type: LotDescriptionDto })
+  @IsDefined()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;
@@ -53,6 +56,7 @@ export class DescribeLotDto {
 /** New observations (an `observed` entry). */
 export class ObserveLotDto {
   @ApiProperty({ type: ObservationsDto })
+  @IsDefined()
   @ValidateNested()
   @Type(() => ObservationsDto)
   observations: ObservationsDto;

@@ -27,10 +27,10 @@ export class PublicDealerCard {
   @ApiProperty() id: string;
   @ApiProperty() handle: string;
   @ApiProperty() displayName: string;
-  @ApiProperty({ nullable: true, type: String }) business: string | null;
-  @ApiProperty({ nullable: true, type: String }) town: string | null;
-  @ApiProperty({ nullable: true, type: String }) country: string | null;
-  @ApiProperty({ nullable: true, type: String }) verifiedSince: string | null;
+  @ApiProperty() business: string;
+  @ApiProperty() town: string;
+  @ApiProperty() country: string;
+  @ApiProperty() verifiedSince: string;
   @ApiProperty({ enum: ['verified', 'suspended', 'former'] }) status: 'verified' | 'suspended' | 'former';
 }
 
