@@ -1,5 +1,6 @@
 import { type MiddlewareConsumer, Module, type NestModule } from '@nestjs/common';
 import { APP_FILTER } from '@nestjs/core';
+import { ScheduleModule } from '@nestjs/schedule';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG, AppConfigModule } from './config/config.module';
@@ -13,12 +14,16 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { TransfersModule } from './transfers/transfers.module';
+import { RegistryToolsModule } from './registry/registry.module';
+import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
   imports: [
     AppConfigModule,
+    ScheduleModule.forRoot(),
     TypeOrmModule.forRootAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
@@ -29,8 +34,11 @@ import { TagsModule } from './tags/tags.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    OpinionsModule,
     LineageModule,
     AuditModule,
+    TransfersModule,
+    RegistryToolsModule,
     TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],

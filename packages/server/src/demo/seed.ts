@@ -14,8 +14,10 @@ import type { AccountStatus, Role } from '../auth/auth.decorators';
 import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
-import { loadDemoLineage } from '../lineage/lineage.seed';
+import { seedTransfers } from '../transfers/demo-transfers';
+import { seedOpinions } from '../opinions/demo-opinions';
 import { seedLots } from './demo-lots';
+import { loadDemoLineage } from '../lineage/lineage.seed';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
 export const SEED_DIR = resolve(__dirname, '..', '..', '..', '..', 'seed-demo');
@@ -94,7 +96,7 @@ export const seedLineage: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedLineage];
+export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedTransfers, seedOpinions, seedLineage];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

@@ -1,0 +1,52 @@
+import { generateLotCode, seededRandom, type OpinionBody } from '@beadroll/core';
+import { DataSource } from 'typeorm';
+import { DEMO_LOT_SEED } from '../demo/demo-lots';
+import { readSeedFile, type SeedStep } from '../demo/seed';
+import { LedgerService } from '../ledger/ledger.service';
+
+/** One opinion of the demo scenario (seed-demo/opinions.json), on a demo lot named by its title. */
+interface DemoOpinion {
+  lot: string;
+  author: string;
+  opinion: Omit<OpinionBody, 'nonce'>;
+  /** When set, the lot goes into the start banner's public pages with this reason. */
+  why?: string;
+}
+
+/**
+ * Seed step: opinions on the demo lots, among them a dissent by the demo assessor on a listed
+ * lot. The lots' codes come from the demo lots' fixed seed; a lot that already has opinions, or
+ * is not loaded, is left as it is, so a second run changes nothing.
+ */
+export const seedOpinions: SeedStep = async (app, ctx) => {
+  const ledger = app.get(LedgerService);
+  const db = app.get(DataSource);
+  const random = seededRandom(DEMO_LOT_SEED);
+  const codes = new Map<string, string>();
+  for (const lot of readSeedFile<Array<{ description: { title: string } }>>('lots.json'))
+    codes.set(lot.description.title, generateLotCode(random));
+  const byLot = new Map<string, DemoOpinion[]>();
+  for (const o of readSeedFile<DemoOpinion[]>('opinions.json'))
+    byLot.set(o.lot, [...(byLot.get(o.lot) ?? []), o]);
+  for (const [title, opinions] of byLot) {
+    const code = codes.get(title);
+    if (!code) throw new Error(`demo opinion names the lot "${title}", which is not in the scenario`);
+    const exists: unknown[] = await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
+    if (exists.length === 0) continue;
+    const given: unknown[] = await db.query(
+      `SELECT 1 FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."kind" = 'opinion'`,
+      [code],
+    );
+    if (given.length === 0) {
+      await ledger.withLots([code], async (tx) => {
+        for (const o of opinions) {
+          const actor = ctx.accounts[o.author];
+          if (!actor) throw new Error(`demo opinion names ${o.author}, who is not in the scenario`);
+          await tx.append(code, { kind: 'opinion', actor, body: o.opinion });
+        }
+      });
+    }
+    const why = opinions.find((o) => o.why)?.why;
+    if (why) ctx.report.publicLots.push({ code, why });
+  }
+};

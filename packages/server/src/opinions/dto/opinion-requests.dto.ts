@@ -1,0 +1,127 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import {
+  CONFIDENCES,
+  LIMITS,
+  ORIGINS,
+  QUALIFIERS,
+  TECHNIQUES,
+  type Confidence,
+  type Origin,
+  type Qualifier,
+  type Technique,
+} from '@beadroll/core';
+import { Type } from 'class-transformer';
+import {
+  ArrayMaxSize,
+  ArrayUnique,
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateNested,
+} from 'class-validator';
+
+/** Earliest and latest years the ledger format accepts in a period. */
+export const YEAR_MIN = -5000;
+export const YEAR_MAX = 9999;
+
+/** A closed year range; `approximate` reads "about 1850–1900". */
+export class PeriodDto {
+  @ApiProperty({ minimum: YEAR_MIN, maximum: YEAR_MAX, example: 1850 })
+  @IsInt()
+  @Min(YEAR_MIN)
+  @Max(YEAR_MAX)
+  from: number;
+
+  @ApiProperty({ minimum: YEAR_MIN, maximum: YEAR_MAX, example: 1900 })
+  @IsInt()
+  @Min(YEAR_MIN)
+  @Max(YEAR_MAX)
+  to: number;
+
+  @ApiProperty()
+  @IsBoolean()
+  approximate: boolean;
+}
+
+/** An attribution opinion (an `opinion` entry). */
+export class RecordOpinionDto {
+  @ApiProperty({ enum: ORIGINS })
+  @IsIn(ORIGINS)
+  origin: Origin;
+
+  @ApiPropertyOptional({ maxLength: LIMITS.shortText, description: 'free text beside the region' })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.shortText)
+  originNote?: string;
+
+  @ApiProperty({ type: PeriodDto })
+  @ValidateNested()
+  @Type(() => PeriodDto)
+  period: PeriodDto;
+
+  @ApiProperty({ enum: TECHNIQUES })
+  @IsIn(TECHNIQUES)
+  technique: Technique;
+
+  @ApiPropertyOptional({ maxLength: LIMITS.longText })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  decoration?: string;
+
+  @ApiProperty({
+    enum: QUALIFIERS,
+    description: 'cataloguing certainty: by, attributed to, in the style of, later copy',
+  })
+  @IsIn(QUALIFIERS)
+  qualifier: Qualifier;
+
+  @ApiProperty({ enum: CONFIDENCES })
+  @IsIn(CONFIDENCES)
+  confidence: Confidence;
+
+  @ApiProperty({ maxLength: LIMITS.longText })
+  @IsString()
+  @MaxLength(LIMITS.longText)
+  rationale: string;
+
+  @ApiProperty({
+    type: [String],
+    description: 'SHA-256 of the original of each cited exhibit, already on this lot’s roll',
+  })
+  @IsArray()
+  @ArrayMaxSize(LIMITS.listItems)
+  @ArrayUnique()
+  @Matches(/^[0-9a-f]{64}$/, { each: true, message: 'each exhibit must be a SHA-256 in lower-case hex' })
+  exhibits: string[];
+}
+
+/** Withdraws one's own opinion (an `opinion-withdrawn` entry). */
+export class WithdrawOpinionDto {
+  @ApiPropertyOptional({ maxLength: LIMITS.longText })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  note?: string;
+}
+
+/** The holder's answer to an opinion (a `note` entry referring to it). */
+export class ReplyDto {
+  @ApiProperty({ minLength: 1, maxLength: LIMITS.longText })
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  text: string;
+}

@@ -1,0 +1,39 @@
+import { formatLotCode, type OpinionBody } from '@beadroll/core';
+import { type Letter, letter } from '../mail/letters';
+
+const ORIGIN_WORDS: Record<OpinionBody['origin'], string> = {
+  'venice-murano': 'Venice / Murano',
+  'bohemia-czech': 'Bohemia / Czech lands',
+  india: 'India',
+  china: 'China',
+  japan: 'Japan',
+  'other-european': 'other European',
+  unknown: 'unknown',
+  other: 'other',
+};
+
+function periodWords(p: OpinionBody['period']): string {
+  const y = (n: number) => (n < 0 ? `${-n} BC` : String(n));
+  return `${p.approximate ? 'about ' : ''}${y(p.from)}–${y(p.to)}`;
+}
+
+/** The opinion e-mails. Links are built from PUBLIC_BASE_URL by the caller. */
+export const opinionLetters = {
+  newDissent: (
+    holderName: string,
+    lot: { code: string; title: string },
+    author: string,
+    opinion: OpinionBody,
+    url: string,
+  ): Letter =>
+    letter({
+      subject: `A dissent on your lot ${formatLotCode(lot.code)}`,
+      greeting: `Hello ${holderName},`,
+      paragraphs: [
+        `${author} recorded an opinion on “${lot.title}” (${formatLotCode(lot.code)}) that disagrees with your attribution: ${ORIGIN_WORDS[opinion.origin]}${opinion.originNote ? ` (${opinion.originNote})` : ''}, ${periodWords(opinion.period)}.`,
+        'It is shown beside your attribution on the lot page and on its public page. You may answer it there; the answer goes on the roll as a note.',
+      ],
+      action: { label: 'Open the lot', url },
+      why: 'You got this because you hold this lot on Beadroll.',
+    }),
+};

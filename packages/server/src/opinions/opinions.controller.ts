@@ -1,0 +1,70 @@
+import { Body, Controller, Get, HttpCode, Param, Post } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import { AppError } from '../common/app-error';
+import { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
+import { LotOpinionsResponse, OpinionWriteResponse } from './dto/opinion-responses.dto';
+import { OpinionsService } from './opinions.service';
+
+function seqOf(text: string): number {
+  if (!/^\d{1,9}$/.test(text))
+    throw AppError.validation([{ field: 'seq', reason: 'must be a whole number' }]);
+  return Number(text);
+}
+
+@ApiTags('opinions')
+@Controller('lots/:code/opinions')
+export class OpinionsController {
+  constructor(private readonly opinions: OpinionsService) {}
+
+  @Get()
+  @ApiOperation({
+    summary: 'Standing opinions with the holder’s attribution and the dissents, from the verified roll',
+  })
+  @ApiOkResponse({ type: LotOpinionsResponse })
+  list(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<LotOpinionsResponse> {
+    return this.opinions.list(me, code);
+  }
+
+  @Post()
+  @Roles('dealer', 'assessor')
+  @RollWriter()
+  @ApiOperation({ summary: 'Record an attribution opinion (opinion): the holder, or anyone on a listed lot' })
+  @ApiOkResponse({ type: OpinionWriteResponse })
+  record(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: RecordOpinionDto,
+  ): Promise<OpinionWriteResponse> {
+    return this.opinions.record(me, code, dto);
+  }
+
+  @Post(':seq/withdrawal')
+  @HttpCode(200)
+  @Roles('dealer', 'assessor')
+  @RollWriter()
+  @ApiOperation({ summary: 'Withdraw one’s own opinion (opinion-withdrawn)' })
+  @ApiOkResponse({ type: OpinionWriteResponse })
+  withdraw(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Param('seq') seq: string,
+    @Body() dto: WithdrawOpinionDto,
+  ): Promise<OpinionWriteResponse> {
+    return this.opinions.withdraw(me, code, seqOf(seq), dto);
+  }
+
+  @Post(':seq/replies')
+  @Roles('dealer')
+  @RollWriter()
+  @ApiOperation({ summary: 'The holder answers an opinion (a note referring to it)' })
+  @ApiOkResponse({ type: OpinionWriteResponse })
+  reply(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Param('seq') seq: string,
+    @Body() dto: ReplyDto,
+  ): Promise<OpinionWriteResponse> {
+    return this.opinions.reply(me, code, seqOf(seq), dto);
+  }
+}

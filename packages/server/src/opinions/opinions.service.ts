@@ -1,0 +1,273 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import {
+  attributionAid,
+  verifyRoll,
+  type AidInput,
+  type AidResult,
+  type ExhibitAddedBody,
+  type NoteBody,
+  type OpinionBody,
+  type RollState,
+} from '@beadroll/core';
+import { Repository } from 'typeorm';
+import { Account } from '../accounts/entities/account.entity';
+import { DealerCardsService } from '../accounts/dealer-cards.service';
+import type { Principal } from '../auth/auth.decorators';
+import { AppError, type FieldProblem } from '../common/app-error';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { LedgerClock } from '../ledger/ledger.clock';
+import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { LotsService } from '../lots/lots.service';
+import { MailService } from '../mail/mail.service';
+import type { AttributionAidDto } from './dto/aid-request.dto';
+import type { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
+import type {
+  AuthorCard,
+  LotOpinionsResponse,
+  OpinionRole,
+  OpinionView,
+  OpinionWriteResponse,
+} from './dto/opinion-responses.dto';
+import { opinionLetters } from './opinion-letters';
+
+type Writer = Pick<Principal, 'id' | 'role'>;
+
+const DAY_MS = 86_400_000;
+
+/** Plain data from a validated DTO (class instances → the JSON shapes core expects). */
+function plain<T>(dto: unknown): T {
+  return JSON.parse(JSON.stringify(dto)) as T;
+}
+
+function roleOf(state: RollState, seq: number): OpinionRole {
+  if (state.attribution?.seq === seq) return 'attribution';
+  if (state.dissents.some((d) => d.seq === seq)) return 'dissent';
+  return 'other';
+}
+
+/**
+ * Attribution opinions on lots: recorded, withdrawn and answered through the ledger's one
+ * append path. Attribution and dissent are never stored by this feature: core's reducer derives
+ * them from the roll whenever it is read.
+ */
+@Injectable()
+export class OpinionsService {
+  constructor(
+    private readonly ledger: LedgerService,
+    private readonly lots: LotsService,
+    private readonly reader: RollReaderService,
+    private readonly cards: DealerCardsService,
+    private readonly mail: MailService,
+    private readonly clock: LedgerClock,
+    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+  ) {}
+
+  /** Runs core's attribution aid; it reads nothing and writes nothing. */
+  aid(dto: AttributionAidDto): AidResult {
+    return attributionAid(plain<AidInput>(dto));
+  }
+
+  /** Records an opinion; e-mails the holder when core's reducer reads it as a dissent. */
+  async record(me: Writer, text: string, dto: RecordOpinionDto): Promise<OpinionWriteResponse> {
+    const code = await this.lots.readableCode(me, text);
+    const now = this.clock.now();
+    const periodProblems: FieldProblem[] = [];
+    if (dto.period.from > dto.period.to)
+      periodProblems.push({ field: 'period.to', reason: 'must not be earlier than period.from' });
+    if (dto.period.to > now.getUTCFullYear())
+      periodProblems.push({
+        field: 'period.to',
+        reason: `must not be later than this year (${now.getUTCFullYear()})`,
+      });
+    if (periodProblems.length) throw AppError.validation(periodProblems);
+    const body = plain<Omit<OpinionBody, 'nonce'>>(dto);
+    const written = await this.ledger.withLots([code], async (tx) => {
+      const state = tx.state(code);
+      if (state.holder !== me.id && !state.listed)
+        throw new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
+      await this.checkExhibits(tx, code, body.exhibits);
+      await this.checkDailyLimit(tx, code, me.id, now);
+      const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });
+      return {
+        entry,
+        dissent: entry.state.dissents.some((d) => d.seq === entry.seq),
+        holder: entry.state.holder,
+        title: entry.state.description?.title ?? code,
+      };
+    });
+    if (written.dissent)
+      await this.tellHolder(written.holder, code, written.title, me.id, body as OpinionBody);
+    return {
+      seq: written.entry.seq,
+      hash: written.entry.hash,
+      dissent: written.dissent,
+      opinions: await this.list(me, code),
+    };
+  }
+
+  /** Withdraws one's own standing opinion (`opinion-withdrawn`); core admits only its author. */
+  async withdraw(
+    me: Writer,
+    text: string,
+    seq: number,
+    dto: WithdrawOpinionDto,
+  ): Promise<OpinionWriteResponse> {
+    const code = await this.lots.readableCode(me, text);
+    const entry = await this.ledger.withLots([code], async (tx) => {
+      const op = tx.state(code).opinions.find((o) => o.seq === seq);
+      if (!op) throw new AppError('not_found', `There is no standing opinion at seq ${seq} on this lot.`);
+      if (op.author !== me.id) throw new AppError('forbidden', 'Only its author may withdraw an opinion.');
+      return tx.append(code, {
+        kind: 'opinion-withdrawn',
+        actor: me.id,
+        body: { opinionSeq: seq, ...(dto.note !== undefined ? { note: dto.note } : {}) },
+      });
+    });
+    return { seq: entry.seq, hash: entry.hash, opinions: await this.list(me, code) };
+  }
+
+  /** The holder's answer to an opinion: a `note` whose `ref` is the opinion's seq. */
+  async reply(me: Writer, text: string, seq: number, dto: ReplyDto): Promise<OpinionWriteResponse> {
+    const code = await this.lots.readableCode(me, text);
+    const entry = await this.ledger.withLots([code], async (tx) => {
+      const state = tx.state(code);
+      if (state.holder !== me.id)
+        throw new AppError('forbidden', 'Only the holder answers opinions on a lot.');
+      if (!state.opinions.some((o) => o.seq === seq))
+        throw new AppError('not_found', `There is no standing opinion at seq ${seq} on this lot.`);
+      return tx.append(
+        code,
+        { kind: 'note', actor: me.id, body: { text: dto.text, ref: seq } },
+        {
+          fields: { 'body.text': 'text' },
+        },
+      );
+    });
+    return { seq: entry.seq, hash: entry.hash, opinions: await this.list(me, code) };
+  }
+
+  /** The standing opinions of a lot with their roles, derived by core from the verified roll. */
+  async list(viewer: Writer, text: string): Promise<LotOpinionsResponse> {
+    const code = await this.lots.readableCode(viewer, text);
+    const lot = (await this.reader.findLot(code))!;
+    const r = verifyRoll(await this.reader.entries(lot.id), { lot: code });
+    if (!r.ok)
+      throw new AppError('internal', `the roll of ${code} does not verify at seq ${r.seq}: ${r.reason}`);
+    const state = r.state;
+    const replies = new Map<number, OpinionView['replies']>();
+    for (const e of r.verified) {
+      if (e.header.kind !== 'note' || !e.body) continue;
+      const note = e.body as NoteBody;
+      if (note.ref === undefined) continue;
+      replies.set(note.ref, [
+        ...(replies.get(note.ref) ?? []),
+        { seq: e.header.seq, author: e.header.actor, time: e.header.time, text: note.text },
+      ]);
+    }
+    const opinions: OpinionView[] = state.opinions.map((o) => {
+      return {
+        seq: o.seq,
+        author: o.author,
+        time: o.time,
+        role: roleOf(state, o.seq),
+        body: o.body,
+        replies: replies.get(o.seq) ?? [],
+      };
+    });
+    const ids = [
+      state.holder,
+      ...opinions.map((o) => o.author),
+      ...opinions.flatMap((o) => o.replies.map((x) => x.author)),
+    ];
+    const cards: Record<string, AuthorCard> = {};
+    for (const [id, c] of await this.cards.cardsFor(ids)) {
+      cards[id] = {
+        id: c.id,
+        handle: c.handle,
+        displayName: c.displayName,
+        business: c.business,
+        town: c.town,
+        country: c.country,
+        status: c.status,
+      };
+    }
+    return {
+      lot: code,
+      holder: state.holder,
+      listed: state.listed,
+      attribution: state.attribution?.seq ?? null,
+      dissents: state.dissents.map((d) => d.seq),
+      opinions,
+      cards,
+    };
+  }
+
+  /** Every cited exhibit must be an `exhibit-added` entry on this lot's roll, named by its original's SHA-256. */
+  private async checkExhibits(tx: RollTransaction, code: string, cited: string[]): Promise<void> {
+    if (cited.length === 0) return;
+    const rows: Array<{ body: string }> = await tx.manager.query(
+      `SELECT b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       JOIN "entry_bodies" b ON b."entry_id" = e."id"
+       WHERE l."code" = $1 AND e."kind" = 'exhibit-added'`,
+      [code],
+    );
+    const known = new Set<string>();
+    for (const r of rows) {
+      const b = JSON.parse(r.body) as ExhibitAddedBody;
+      if ('exhibit' in b) known.add(b.exhibit.original.sha256);
+    }
+    const problems = cited
+      .map((sha, i) => ({ sha, i }))
+      .filter(({ sha }) => !known.has(sha))
+      .map(({ i }) => ({
+        field: `exhibits.${i}`,
+        reason: 'no exhibit with this SHA-256 is on this lot’s roll',
+      }));
+    if (problems.length) throw AppError.validation(problems);
+  }
+
+  /** At most `opinions.perDay` opinions by one author on one lot in any 24 hours. */
+  private async checkDailyLimit(tx: RollTransaction, code: string, actor: string, now: Date): Promise<void> {
+    const since = new Date(now.getTime() - DAY_MS).toISOString();
+    const [{ n }] = (await tx.manager.query(
+      `SELECT count(*)::int AS "n" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       WHERE l."code" = $1 AND e."kind" = 'opinion' AND e."actor" = $2 AND e."time" > $3`,
+      [code, actor, since],
+    )) as Array<{ n: number }>;
+    const limit = this.config.opinions.perDay;
+    if (n >= limit)
+      throw new AppError(
+        'rate_limited',
+        `You have recorded ${limit} ${limit === 1 ? 'opinion' : 'opinions'} on this lot in the last 24 hours; please wait before recording another.`,
+      );
+  }
+
+  private async tellHolder(
+    holder: string,
+    code: string,
+    title: string,
+    authorId: string,
+    opinion: OpinionBody,
+  ) {
+    const [to, author] = await Promise.all([
+      this.accounts.findOne({ where: { id: holder } }),
+      this.accounts.findOne({ where: { id: authorId } }),
+    ]);
+    if (!to) return;
+    const url = `${this.config.publicBaseUrl}/lots/${code}/opinions`;
+    await this.mail.send(
+      to.email,
+      opinionLetters.newDissent(
+        to.displayName,
+        { code, title },
+        author?.displayName ?? 'Another account',
+        opinion,
+        url,
+      ),
+    );
+  }
+}

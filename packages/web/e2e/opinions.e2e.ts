@@ -1,0 +1,124 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as {
+  password: string;
+  accounts: Array<{ role: string; handle: string; email: string; displayName: string }>;
+};
+const byHandle = (h: string) => demo.accounts.find((a) => a.handle === h)!;
+const holder = byHandle('odile-varnas');
+const second = byHandle('teodor-brasko');
+
+async function signIn(page: Page, baseUrl: string, email: string) {
+  await page.context().clearCookies();
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
+  await page.getByLabel('Password').fill(demo.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+}
+
+describe('opinions in Chromium', () => {
+  let browser: Browser;
+  const baseUrl = inject('baseUrl');
+  beforeAll(async () => {
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser.close();
+  });
+
+  it('a second dealer records a dissent with the aid beside the form; the holder sees it on the lot and finds the e-mail', async () => {
+    const { page } = browser;
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+
+    // The holder registers a listed lot and records an attribution (through the API, as a client would).
+    await signIn(page, baseUrl, holder.email);
+    const headers = { 'X-Beadroll-Request': '1' };
+    const lot = await page.request.post(`${baseUrl}/api/lots`, {
+      headers,
+      data: {
+        description: {
+          title: 'Rose beads from a house clearance',
+          form: 'strand',
+          count: { value: 32, estimated: false },
+          colours: ['white', 'pink'],
+          baseGlass: ['opaque'],
+          decoration: ['roses'],
+          listed: true,
+        },
+        observations: { hole: 'powder', windingMarks: 'seen' },
+      },
+    });
+    expect(lot.status()).toBe(201);
+    const { code, displayCode } = (await lot.json()) as { code: string; displayCode: string };
+    const mine = await page.request.post(`${baseUrl}/api/lots/${code}/opinions`, {
+      headers,
+      data: {
+        origin: 'venice-murano',
+        period: { from: 1880, to: 1920, approximate: true },
+        technique: 'wound-lampwork',
+        qualifier: 'attributed-to',
+        confidence: 'medium',
+        rationale: 'Raised roses over white, soft shapes.',
+        exhibits: [],
+      },
+    });
+    expect(mine.status()).toBe(201);
+
+    // A second dealer opens the lot's opinions and drafts a dissent; the aid reacts as fields change.
+    await signIn(page, baseUrl, second.email);
+    await page.goto(`${baseUrl}/lots/${code}/opinions`);
+    await page.getByRole('article', { name: /Holder’s attribution by Odile Varnas/ }).waitFor();
+    await page.getByRole('button', { name: 'Record an opinion' }).click();
+    const indications = page.getByRole('list', { name: 'Indications' });
+    await indications
+      .getByText(/release/)
+      .first()
+      .waitFor();
+    await expect(page.getByRole('note').textContent()).resolves.toMatch(/aid, not an authentication/);
+    await page.getByRole('combobox', { name: /^Origin/ }).selectOption('india');
+    await page.getByRole('textbox', { name: /^From year/ }).fill('1985');
+    await page.getByRole('textbox', { name: /^To year/ }).fill('2015');
+    await page.getByRole('combobox', { name: /^Certainty/ }).selectOption('later-copy');
+    await page
+      .getByRole('textbox', { name: /^Rationale/ })
+      .fill('Grey powder in the holes: wound on a release-coated mandrel. The roses are heavy and bright.');
+    await screenshot(page, 'opinions-form-1280');
+    await page.getByRole('button', { name: 'Record opinion' }).click();
+    const dissent = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
+    await dissent.waitFor();
+    await page.getByText('1 dissent from the holder’s attribution.').waitFor();
+
+    // The holder sees the dissent beside the attribution on the lot's page, answers it, and has the e-mail.
+    await signIn(page, baseUrl, holder.email);
+    await page.goto(`${baseUrl}/lots/${code}/opinions`);
+    const seen = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
+    await seen.waitFor();
+    expect(await seen.textContent()).toContain('India, about 1985–2015');
+    await page.getByRole('img', { name: 'Opinions by origin and period' }).waitFor();
+    await screenshot(page, 'opinions-panel-1280');
+    await seen.getByRole('button', { name: 'Answer' }).click();
+    await seen.getByRole('textbox', { name: 'Your answer' }).fill('The holes were reamed by a later owner.');
+    await seen.getByRole('button', { name: 'Add answer' }).click();
+    await seen.getByText(/^Answer by Odile Varnas/).waitFor();
+    expect(await seen.textContent()).toContain('The holes were reamed by a later owner.');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await screenshot(page, 'opinions-panel-390');
+    await page.setViewportSize({ width: 1280, height: 900 });
+
+    await page.goto(`${baseUrl}/dev/mailbox`);
+    const mail = page
+      .getByRole('article', { name: `A dissent on your lot ${displayCode}` })
+      .filter({ hasText: holder.email });
+    await mail.waitFor();
+    expect(await mail.textContent()).toContain('Teodor Brasko');
+    expect(errors).toEqual([]);
+  });
+});

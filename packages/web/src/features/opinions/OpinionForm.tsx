@@ -1,0 +1,305 @@
+import {
+  Button,
+  Checkbox,
+  Field,
+  Input,
+  makeStyles,
+  Select,
+  Subtitle1,
+  Text,
+  Textarea,
+  tokens,
+} from '@fluentui/react-components';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import {
+  attributionAid,
+  CONFIDENCES,
+  ORIGINS,
+  QUALIFIERS,
+  TECHNIQUES,
+  type Confidence,
+  type Decoration,
+  type ExhibitAddedBody,
+  type Observations,
+  type Origin,
+  type Qualifier,
+  type Technique,
+} from '@beadroll/core';
+import { useMemo, useState } from 'react';
+import { api } from '../../lib/api';
+import { fieldError, FormError } from '../accounts/FormPage';
+import { AidPanel } from './AidPanel';
+import { opinionsApi, type OpinionWrite } from './opinions.api';
+import { CONFIDENCE_LABELS, ORIGIN_LABELS, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
+
+const RATIONALE_MAX = 5000;
+
+const useStyles = makeStyles({
+  root: {
+    display: 'grid',
+    gap: tokens.spacingHorizontalXXL,
+    gridTemplateColumns: 'minmax(0, 3fr) minmax(0, 2fr)',
+    '@media (max-width: 800px)': { gridTemplateColumns: 'minmax(0, 1fr)' },
+  },
+  form: { display: 'grid', gap: tokens.spacingVerticalM, alignContent: 'start' },
+  row: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'end' },
+  year: { width: '8rem' },
+  yearInput: { minWidth: 0, width: '100%' },
+  actions: { display: 'flex', gap: tokens.spacingHorizontalM },
+});
+
+interface ExhibitChoice {
+  sha256: string;
+  label: string;
+}
+
+const exhibitsQuery = (code: string) => ({
+  queryKey: ['lots', 'detail', code, 'exhibits-on-roll'],
+  queryFn: async (): Promise<ExhibitChoice[]> => {
+    const roll = await api<{ entries: Array<{ seq: number; kind: string; body: string | null }> }>(
+      `/api/lots/${encodeURIComponent(code)}/roll`,
+    );
+    const out: ExhibitChoice[] = [];
+    for (const e of roll.entries) {
+      if (e.kind !== 'exhibit-added' || !e.body) continue;
+      const b = JSON.parse(e.body) as ExhibitAddedBody;
+      if (!('exhibit' in b)) continue;
+      const caption = b.exhibit.caption ? `: ${b.exhibit.caption}` : '';
+      out.push({ sha256: b.exhibit.original.sha256, label: `Entry ${e.seq}, ${b.exhibit.kind}${caption}` });
+    }
+    return out;
+  },
+});
+
+function yearOrNull(text: string): number | null {
+  return /^-?\d{1,4}$/.test(text.trim()) ? Number(text.trim()) : null;
+}
+
+/**
+ * The opinion form: origin, period, technique, decoration, qualifier, confidence, rationale and
+ * cited exhibits. The attribution aid runs in the browser as the fields change, so its
+ * plausibility warnings show before the opinion is recorded.
+ */
+export function OpinionForm({
+  code,
+  observations,
+  decoration,
+  onDone,
+}: {
+  code: string;
+  observations: Observations | null;
+  decoration: Decoration[];
+  onDone?: (r: OpinionWrite) => void;
+}) {
+  const styles = useStyles();
+  const client = useQueryClient();
+  const [origin, setOrigin] = useState<Origin>('unknown');
+  const [originNote, setOriginNote] = useState('');
+  const [from, setFrom] = useState('');
+  const [to, setTo] = useState('');
+  const [approximate, setApproximate] = useState(true);
+  const [technique, setTechnique] = useState<Technique>('wound-lampwork');
+  const [decorationText, setDecorationText] = useState('');
+  const [qualifier, setQualifier] = useState<Qualifier>('attributed-to');
+  const [confidence, setConfidence] = useState<Confidence>('medium');
+  const [rationale, setRationale] = useState('');
+  const [cited, setCited] = useState<string[]>([]);
+  const exhibits = useQuery(exhibitsQuery(code));
+
+  const fromYear = yearOrNull(from);
+  const toYear = yearOrNull(to);
+  const aid = useMemo(
+    () =>
+      attributionAid({
+        observations: observations ?? undefined,
+        decoration,
+        draft: {
+          origin,
+          technique,
+          period: fromYear !== null && toYear !== null ? { from: fromYear, to: toYear } : undefined,
+        },
+      }),
+    [observations, decoration, origin, technique, fromYear, toYear],
+  );
+  const thisYear = new Date().getUTCFullYear();
+  const periodProblem =
+    fromYear !== null && toYear !== null && fromYear > toYear
+      ? 'The period ends before it starts.'
+      : toYear !== null && toYear > thisYear
+        ? `The period cannot end after this year (${thisYear}).`
+        : undefined;
+
+  const record = useMutation({
+    mutationFn: () =>
+      opinionsApi.record(code, {
+        origin,
+        ...(originNote.trim() ? { originNote: originNote.trim() } : {}),
+        period: { from: fromYear ?? Number.NaN, to: toYear ?? Number.NaN, approximate },
+        technique,
+        ...(decorationText.trim() ? { decoration: decorationText.trim() } : {}),
+        qualifier,
+        confidence,
+        rationale,
+        exhibits: cited,
+      }),
+    onSuccess: async (r) => {
+      await client.invalidateQueries({ queryKey: ['lots', 'detail', code] });
+      onDone?.(r);
+    },
+  });
+  const err = record.error;
+  const yearMessage = (field: 'period.from' | 'period.to', value: string) =>
+    fieldError(err, field) ??
+    (value !== '' && yearOrNull(value) === null ? 'A whole year, for example 1880.' : undefined);
+
+  return (
+    <div className={styles.root}>
+      <form
+        className={styles.form}
+        noValidate
+        aria-labelledby="opinion-form-title"
+        onSubmit={(e) => {
+          e.preventDefault();
+          if (!periodProblem) record.mutate();
+        }}
+      >
+        <Subtitle1 as="h2" id="opinion-form-title">
+          Record an opinion
+        </Subtitle1>
+        <Field label="Origin" required validationMessage={fieldError(err, 'origin')}>
+          <Select value={origin} onChange={(_, d) => setOrigin(d.value as Origin)}>
+            {ORIGINS.map((o) => (
+              <option key={o} value={o}>
+                {ORIGIN_LABELS[o]}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field
+          label="Origin in your own words"
+          hint={origin === 'other' ? 'Say where.' : 'Optional: a town, a workshop, a region.'}
+          validationMessage={fieldError(err, 'originNote')}
+        >
+          <Input value={originNote} maxLength={200} onChange={(_, d) => setOriginNote(d.value)} />
+        </Field>
+        <div className={styles.row}>
+          <Field
+            label="From year"
+            required
+            className={styles.year}
+            validationMessage={yearMessage('period.from', from)}
+          >
+            <Input
+              className={styles.yearInput}
+              inputMode="numeric"
+              value={from}
+              onChange={(_, d) => setFrom(d.value)}
+            />
+          </Field>
+          <Field
+            label="To year"
+            required
+            className={styles.year}
+            validationMessage={periodProblem ?? yearMessage('period.to', to)}
+          >
+            <Input
+              className={styles.yearInput}
+              inputMode="numeric"
+              value={to}
+              onChange={(_, d) => setTo(d.value)}
+            />
+          </Field>
+          <Checkbox
+            label="Approximate years"
+            checked={approximate}
+            onChange={(_, d) => setApproximate(d.checked === true)}
+          />
+        </div>
+        <Field label="Technique" required validationMessage={fieldError(err, 'technique')}>
+          <Select value={technique} onChange={(_, d) => setTechnique(d.value as Technique)}>
+            {TECHNIQUES.map((t) => (
+              <option key={t} value={t}>
+                {TECHNIQUE_LABELS[t]}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field label="Decoration" validationMessage={fieldError(err, 'decoration')}>
+          <Input value={decorationText} onChange={(_, d) => setDecorationText(d.value)} />
+        </Field>
+        <Field
+          label="Certainty"
+          required
+          hint="As in a catalogue: by, attributed to, in the style of, or a later copy."
+          validationMessage={fieldError(err, 'qualifier')}
+        >
+          <Select value={qualifier} onChange={(_, d) => setQualifier(d.value as Qualifier)}>
+            {QUALIFIERS.map((q) => (
+              <option key={q} value={q}>
+                {QUALIFIER_LABELS[q]}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field label="Confidence" required validationMessage={fieldError(err, 'confidence')}>
+          <Select value={confidence} onChange={(_, d) => setConfidence(d.value as Confidence)}>
+            {CONFIDENCES.map((c) => (
+              <option key={c} value={c}>
+                {CONFIDENCE_LABELS[c]}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field
+          label="Rationale"
+          hint={`${rationale.length} of ${RATIONALE_MAX} characters. Plain text: the clues, the references, the reasoning.`}
+          validationMessage={fieldError(err, 'rationale')}
+        >
+          <Textarea
+            value={rationale}
+            resize="vertical"
+            rows={5}
+            maxLength={RATIONALE_MAX}
+            onChange={(_, d) => setRationale(d.value)}
+          />
+        </Field>
+        <Field
+          label="Cited exhibits"
+          hint="Exhibits on this lot’s roll. Add your own evidence to the lot first to cite it."
+          validationMessage={fieldError(err, 'exhibits')}
+        >
+          {exhibits.data && exhibits.data.length > 0 ? (
+            <div>
+              {exhibits.data.map((x) => (
+                <Checkbox
+                  key={x.sha256}
+                  label={x.label}
+                  checked={cited.includes(x.sha256)}
+                  onChange={(_, d) =>
+                    setCited((c) => (d.checked ? [...c, x.sha256] : c.filter((s) => s !== x.sha256)))
+                  }
+                />
+              ))}
+            </div>
+          ) : (
+            <Text>No exhibits on this lot’s roll yet.</Text>
+          )}
+        </Field>
+        {aid.warnings.length > 0 && (
+          <Text role="status">
+            The aid has {aid.warnings.length} plausibility{' '}
+            {aid.warnings.length === 1 ? 'warning' : 'warnings'} about this period: read{' '}
+            {aid.warnings.length === 1 ? 'it' : 'them'} before recording.
+          </Text>
+        )}
+        <FormError error={err} />
+        <div className={styles.actions}>
+          <Button appearance="primary" type="submit" disabled={record.isPending}>
+            Record opinion
+          </Button>
+        </div>
+      </form>
+      <AidPanel result={aid} />
+    </div>
+  );
+}
