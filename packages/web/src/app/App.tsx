@@ -14,7 +14,6 @@ import { HomePage } from '../features/home/HomePage';
 import { InventoryPage } from '../features/lots/InventoryPage';
 import { LotPage } from '../features/lots/LotPage';
 import { RegisterLotPage } from '../features/lots/RegisterLotPage';
-import { LineagePage } from '../features/lineage/LineagePage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { OfferPage } from '../features/transfers/OfferPage';
 import { OffersPage } from '../features/transfers/OffersPage';
@@ -71,7 +70,6 @@ export const routes: RouteObject[] = [
       { path: 'registry/audit', element: <AuditPage /> },
       { path: 'account/data', element: <MyDataPage /> },
       { path: 'lots/:code/opinions', element: <OpinionsPage /> },
-      { path: 'lineage/:code', element: <LineagePage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {
         path: 'scan',

@@ -11,7 +11,7 @@ const useStyles = makeStyles({
 });
 
 /** Where a lot's page is in the dealer app. */
-export const lotPageHref = (code: string) => `/lineage/${code}`;
+export const lotPageHref = (code: string) => `/lots/${code}`;
 
 /**
  * The ancestry section of a dealer's lot page: the diagram of ancestors and descendants, and

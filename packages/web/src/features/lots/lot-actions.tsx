@@ -5,6 +5,9 @@ import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
 import { ExhibitsSection } from '../exhibits/ExhibitsSection';
 import { mayAddExhibits } from '../exhibits/exhibits-panel';
+import { AncestryPanel } from '../lineage/AncestryPanel';
+import { CombineDialog } from '../lineage/CombineDialog';
+import { SplitDialog } from '../lineage/SplitDialog';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -81,9 +84,22 @@ export const LOT_ACTIONS: LotAction[] = [
       <RecordSaleDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />
     ),
   },
+  {
+    id: 'split',
+    label: 'Split',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    render: (ctx) => <SplitDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+  },
+  {
+    id: 'combine',
+    label: 'Combine with other lots',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    render: (ctx) => <CombineDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+  },
 ];
 
 /** Sections of the lot page, in order. Features add one line each. */
 export const LOT_PANELS: LotPanel[] = [
   { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={mayAddExhibits(ctx)} /> },
+  { id: 'ancestry', render: (ctx) => <AncestryPanel code={ctx.code} /> },
 ];
