@@ -1,12 +1,13 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform, Type } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { Transform } from 'class-transformer';
+import { IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { PageQueryDto } from '../../common/page-query.dto';
 import type { Account } from '../entities/account.entity';
 
 export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
 export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
 
-export class RegistryQueryDto {
+export class RegistryQueryDto extends PageQueryDto {
   @ApiPropertyOptional({ enum: QUEUE_STATUSES, default: 'pending' })
   @IsOptional()
   @IsIn(QUEUE_STATUSES, { message: `must be one of ${QUEUE_STATUSES.join(', ')}` })
@@ -16,22 +17,6 @@ export class RegistryQueryDto {
   @IsOptional()
   @IsIn(QUEUE_SORTS, { message: `must be one of ${QUEUE_SORTS.join(', ')}` })
   sort: (typeof QUEUE_SORTS)[number] = 'applied';
-
-  @ApiPropertyOptional({ default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(100000)
-  page = 1;
-
-  @ApiPropertyOptional({ default: 20 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(100)
-  pageSize = 20;
 }
 
 export class ReasonDto {

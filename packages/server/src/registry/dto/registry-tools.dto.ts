@@ -2,6 +2,7 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { REDACTION_REASONS, type RedactionReason } from '@beadroll/core';
 import { Transform, Type } from 'class-transformer';
 import { IsEmail, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { PageQueryDto } from '../../common/page-query.dto';
 import { REGISTRAR_ACTIONS, type RegistrarActionKind } from '../entities/registrar-action.entity';
 import { REQUEST_STATUSES, type RedactionRequestStatus } from '../entities/redaction-request.entity';
 import {
@@ -107,7 +108,7 @@ export class ReportDto {
 
 export const REPORT_SORTS = ['created', '-created', 'lot', '-lot', 'category', '-category'] as const;
 
-export class ReportQueryDto {
+export class ReportQueryDto extends PageQueryDto {
   @ApiPropertyOptional({ enum: REPORT_STATUSES })
   @IsOptional()
   @IsIn(REPORT_STATUSES, { message: `must be one of ${REPORT_STATUSES.join(', ')}` })
@@ -117,22 +118,6 @@ export class ReportQueryDto {
   @IsOptional()
   @IsIn(REPORT_SORTS, { message: `must be one of ${REPORT_SORTS.join(', ')}` })
   sort: (typeof REPORT_SORTS)[number] = '-created';
-
-  @ApiPropertyOptional({ default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(100000)
-  page = 1;
-
-  @ApiPropertyOptional({ default: 20 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(100)
-  pageSize = 20;
 }
 
 export class CloseReportDto {

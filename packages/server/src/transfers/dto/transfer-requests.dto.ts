@@ -5,18 +5,16 @@ import {
   IsDefined,
   IsEmail,
   IsIn,
-  IsInt,
   IsOptional,
   IsString,
   IsUUID,
   Matches,
-  Max,
   MaxLength,
-  Min,
   MinLength,
   ValidateIf,
   ValidateNested,
 } from 'class-validator';
+import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
 
@@ -106,28 +104,10 @@ export class RecordSaleDto {
   buyerEmail?: string;
 }
 
-class PageDto {
-  @ApiPropertyOptional({ minimum: 1, default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'page must be a whole number' })
-  @Min(1)
-  @Max(100000)
-  page?: number;
-
-  @ApiPropertyOptional({ minimum: 1, maximum: 100, default: 20 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'pageSize must be a whole number' })
-  @Min(1)
-  @Max(100)
-  pageSize?: number;
-}
-
 export const OFFER_BOXES = ['incoming', 'outgoing'] as const;
 
 /** The signed-in dealer's incoming or outgoing offers. */
-export class ListOffersQueryDto extends PageDto {
+export class ListOffersQueryDto extends PageQueryDto {
   @ApiProperty({ enum: OFFER_BOXES })
   @IsIn(OFFER_BOXES, { message: `box must be one of ${OFFER_BOXES.join(', ')}` })
   box: (typeof OFFER_BOXES)[number];
@@ -139,7 +119,7 @@ export class ListOffersQueryDto extends PageDto {
 }
 
 /** The signed-in dealer's sales. */
-export class ListSalesQueryDto extends PageDto {
+export class ListSalesQueryDto extends PageQueryDto {
   @ApiPropertyOptional({ description: 'sold on or after, YYYY-MM-DD' })
   @IsOptional()
   @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'from must be a date YYYY-MM-DD' })
