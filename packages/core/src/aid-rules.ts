@@ -237,16 +237,33 @@ export const PERIOD_RULES: readonly PeriodRule[] = [
   },
 ];
 
+/**
+ * The UV-A caution, point by point: the one wording every screen shows. The 365 nm preference
+ * is the trade's habit (from memory: 395 nm torches leak violet light that hides a weak glow).
+ */
+export const UV_A_POINTS: readonly string[] = [
+  'Use a long-wave UV-A torch, near 365 nm, made for checking glass.',
+  'Never use a germicidal (UV-C) lamp: even a short look at one can burn the eyes and skin.',
+  'Never point the torch into anyone’s eyes, your own included; keep skin exposure short.',
+  'Wear eyewear rated for UV; ordinary safety glasses may only be rated for impact.',
+  'Follow your local safety rules and the maker’s instructions; they come first.',
+];
+
 /** Safety notes. They defer to local codes and licensed practice. */
 export const CAUTION_RULES: readonly CautionRule[] = [
   {
     id: 'uv-a-torch',
     when: 'always-with-uv-test',
-    text: 'Use a UV-A torch (about 365 nm), never a germicidal UV-C lamp. Never shine it into anyone’s eyes, wear UV-rated eyewear (ordinary safety glasses may not block UV), and keep skin exposure short. Follow local rules for UV equipment.',
+    text: UV_A_POINTS.join(' '),
     sources: [
       {
         title: 'UV Radiation Safety (University of Arizona)',
         url: 'https://research.arizona.edu/compliance/RLSS/radiation-safety/uv-radiation-safety',
+        standing: 'standard',
+      },
+      {
+        title: 'Beware UVC Lamps as COVID-19 Disinfectant (Prevent Blindness, citing the U.S. FDA)',
+        url: 'https://lowvision.preventblindness.org/beware-uvc-lamps-as-covid-19-disinfectant/',
         standing: 'standard',
       },
       {

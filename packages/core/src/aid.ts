@@ -3,6 +3,7 @@ import {
   CAUTION_RULES,
   INDICATION_RULES,
   PERIOD_RULES,
+  UV_A_POINTS,
   type AidCondition,
   type AidSource,
   type SourceStanding,
@@ -124,7 +125,7 @@ export function attributionAid(input: AidInput): AidResult {
 }
 
 /** The UV-A caution on its own, for screens where a UV test is chosen. */
-export function uvCaution(): { text: string; sources: AidSource[] } {
+export function uvCaution(): { text: string; points: readonly string[]; sources: AidSource[] } {
   const rule = CAUTION_RULES.find((r) => r.id === 'uv-a-torch')!;
-  return { text: rule.text, sources: bySourceStanding(rule.sources) };
+  return { text: rule.text, points: UV_A_POINTS, sources: bySourceStanding(rule.sources) };
 }

@@ -133,7 +133,7 @@ export {
 export type { QrEcLevel, TagPayload } from './tag.js';
 export { attributionAid, uvCaution } from './aid.js';
 export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
-export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES } from './aid-rules.js';
+export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES, UV_A_POINTS } from './aid-rules.js';
 export type {
   AidSource,
   AidCondition,
