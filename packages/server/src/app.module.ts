@@ -1,5 +1,6 @@
 import { type MiddlewareConsumer, Module, type NestModule } from '@nestjs/common';
 import { APP_FILTER } from '@nestjs/core';
+import { ScheduleModule } from '@nestjs/schedule';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG, AppConfigModule } from './config/config.module';
@@ -14,11 +15,13 @@ import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
 import { OpinionsModule } from './opinions/opinions.module';
+import { TransfersModule } from './transfers/transfers.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
   imports: [
     AppConfigModule,
+    ScheduleModule.forRoot(),
     TypeOrmModule.forRootAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
@@ -31,6 +34,7 @@ import { TagsModule } from './tags/tags.module';
     LotsModule,
     OpinionsModule,
     AuditModule,
+    TransfersModule,
     TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],

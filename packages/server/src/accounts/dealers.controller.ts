@@ -1,13 +1,22 @@
-import { Controller, Get, Param } from '@nestjs/common';
+import { Controller, Get, Param, Query } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/auth.decorators';
 import { type DealerCard, DealerCardsService } from './dealer-cards.service';
+import { DealerCardsQueryDto } from './dto/dealer-cards.dto';
 
 @ApiTags('public')
 @Public()
 @Controller('public/dealers')
 export class DealersController {
   constructor(private readonly cards: DealerCardsService) {}
+
+  @Get()
+  @ApiOperation({
+    summary: 'Public cards for account ids seen on rolls; ids never verified are left out',
+  })
+  async cardsByIds(@Query() q: DealerCardsQueryDto): Promise<{ cards: Record<string, DealerCard> }> {
+    return { cards: Object.fromEntries(await this.cards.cardsFor(q.ids)) };
+  }
 
   @Get(':handle')
   @ApiOperation({ summary: 'The public card of a verified dealer or assessor, as reported by the registry' })

@@ -1,4 +1,4 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Not, Repository } from 'typeorm';
 import { SessionsService } from '../auth/sessions.service';
@@ -20,12 +20,23 @@ const SORT_COLUMNS = { applied: 'createdAt', business: 'business', town: 'town' 
 /** The registrar's work: the verification queue, approval, rejection, suspension. */
 @Injectable()
 export class RegistryService {
+  private readonly logger = new Logger('registry');
+  private readonly approvalListeners: Array<(account: Account) => Promise<void>> = [];
+
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @InjectRepository(Account) private readonly accounts: Repository<Account>,
     private readonly sessions: SessionsService,
     private readonly mail: MailService,
   ) {}
+
+  /**
+   * Adds work to run after an account is verified (for example offers waiting for it). A
+   * listener's failure is logged; it never undoes the approval.
+   */
+  onApproved(listener: (account: Account) => Promise<void>): void {
+    this.approvalListeners.push(listener);
+  }
 
   /** Dealer and assessor accounts by status; the pending queue holds only confirmed e-mail addresses. */
   async list(q: RegistryQueryDto): Promise<RegistryPage> {
@@ -62,6 +73,13 @@ export class RegistryService {
       a.email,
       accountLetters.approved(a.displayName, `${this.config.publicBaseUrl}/sign-in`),
     );
+    for (const listener of this.approvalListeners) {
+      try {
+        await listener(a);
+      } catch (err) {
+        this.logger.error(`after approving ${a.id}: ${(err as Error).message}`);
+      }
+    }
     return toApplicantResponse(a);
   }
 

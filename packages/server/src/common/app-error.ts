@@ -25,6 +25,8 @@ export const ERROR_STATUS = {
   conflict: HttpStatus.CONFLICT,
   /** A write the rules of a roll do not allow in the lot's present state. */
   roll_rule: HttpStatus.CONFLICT,
+  /** The offer was already answered, withdrawn or lapsed. */
+  offer_closed: HttpStatus.CONFLICT,
   payload_too_large: HttpStatus.PAYLOAD_TOO_LARGE,
   unsupported_media_type: HttpStatus.UNSUPPORTED_MEDIA_TYPE,
   rate_limited: HttpStatus.TOO_MANY_REQUESTS,

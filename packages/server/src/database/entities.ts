@@ -6,6 +6,9 @@ import { EntryEntity } from '../ledger/entities/entry.entity';
 import { LotEntity } from '../ledger/entities/lot.entity';
 import { SealedFieldEntity } from '../ledger/entities/sealed-field.entity';
 import { LotViewEntity } from '../lots/entities/lot-view.entity';
+import { SaleEntity } from '../transfers/entities/sale.entity';
+import { TransferInvitationEntity } from '../transfers/entities/transfer-invitation.entity';
+import { TransferOfferEntity } from '../transfers/entities/transfer-offer.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -18,4 +21,7 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   EntryBodyEntity,
   SealedFieldEntity,
   LotViewEntity,
+  TransferOfferEntity,
+  SaleEntity,
+  TransferInvitationEntity,
 ];

@@ -15,6 +15,7 @@ import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { seedOpinions } from '../opinions/demo-opinions';
+import { seedTransfers } from '../transfers/demo-transfers';
 import { seedLots } from './demo-lots';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
@@ -87,7 +88,7 @@ export const seedAccounts: SeedStep = async (app, ctx) => {
 };
 
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedOpinions];
+export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedTransfers, seedOpinions];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

@@ -5,6 +5,7 @@ import {
   type Bundle,
   type LotDescription,
   type Money,
+  type ObservedBody,
   type RollState,
   type SealedValues,
 } from '@beadroll/core';
@@ -28,6 +29,21 @@ import type { SealedDetailsDto } from './dto/sealed-details.dto';
 
 /** Who is looking: the signed-in principal (id and role are what matter here). */
 export type Viewer = Pick<Principal, 'id' | 'role'>;
+
+/**
+ * Read access other features give to a lot the viewer may not otherwise read: the roll up to
+ * seq `upTo` (for example a former holder, up to the entry that handed the lot on), or null.
+ */
+export interface LotReadGrant {
+  upTo(viewer: Viewer, lotId: string): Promise<number | null>;
+}
+
+/** What a viewer may read of a lot: all of it (`upTo` null) or its roll up to a seq. */
+interface ReadAccess {
+  code: string;
+  lotId: string;
+  upTo: number | null;
+}
 
 interface LotViewRow {
   lot_id: string;
@@ -109,12 +125,19 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
  */
 @Injectable()
 export class LotsService {
+  private readonly grants: LotReadGrant[] = [];
+
   constructor(
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
     private readonly reader: RollReaderService,
     private readonly bundles: BundleService,
   ) {}
+
+  /** Adds a read grant, consulted for lots the viewer may not read in full. */
+  addReadGrant(grant: LotReadGrant): void {
+    this.grants.push(grant);
+  }
 
   /** Registers a lot: `registered` with the sealed details, then `observed` if given, in one transaction. */
   async register(actor: Viewer, dto: CreateLotDto): Promise<LotDetailResponse> {
@@ -213,7 +236,9 @@ export class LotsService {
   }
 
   async detail(viewer: Viewer, text: string): Promise<LotDetailResponse> {
-    const code = await this.readableCode(viewer, text);
+    const access = await this.readAccess(viewer, text);
+    if (access.upTo !== null) return this.detailUpTo(viewer, access);
+    const code = access.code;
     const rows: Array<{ state: RollState; head_hash: string }> = await this.dataSource.query(
       'SELECT "state", "head_hash" FROM "lots" WHERE "code" = $1',
       [code],
@@ -240,11 +265,12 @@ export class LotsService {
 
   /** The whole roll as stored, with the viewer's own sealed values on the entries that carry them. */
   async roll(viewer: Viewer, text: string): Promise<RollResponse> {
-    const code = await this.readableCode(viewer, text);
-    const lot = (await this.reader.findLot(code))!;
-    const entries = await this.reader.entries(lot.id);
-    const mine = await this.reader.sealedFor(lot.id, viewer.id);
-    const commitments = await this.reader.commitments(lot.id, [...new Set(mine.map((f) => f.seq))]);
+    const { code, lotId, upTo } = await this.readAccess(viewer, text);
+    const entries = await this.reader.entries(lotId, upTo === null ? {} : { limit: upTo + 1 });
+    const mine = (await this.reader.sealedFor(lotId, viewer.id)).filter(
+      (f) => upTo === null || f.seq <= upTo,
+    );
+    const commitments = await this.reader.commitments(lotId, [...new Set(mine.map((f) => f.seq))]);
     return {
       lot: code,
       entries: entries.map((e) => {
@@ -275,9 +301,10 @@ export class LotsService {
 
   /** Verifies the stored roll with core's verifier. */
   async verify(viewer: Viewer, text: string): Promise<VerifyResponse> {
-    const code = await this.readableCode(viewer, text);
-    const lot = (await this.reader.findLot(code))!;
-    const r = verifyRoll(await this.reader.entries(lot.id), { lot: code });
+    const { code, lotId, upTo } = await this.readAccess(viewer, text);
+    const r = verifyRoll(await this.reader.entries(lotId, upTo === null ? {} : { limit: upTo + 1 }), {
+      lot: code,
+    });
     if (r.ok) return { lot: code, ok: true, entries: r.entries, headSeq: r.head.seq, headHash: r.head.hash };
     return {
       lot: code,
@@ -289,14 +316,17 @@ export class LotsService {
 
   /** The export bundle: this roll in full, ancestors in full when the viewer may read them. */
   async bundle(viewer: Viewer, text: string): Promise<Bundle> {
-    const code = await this.readableCode(viewer, text);
+    const { code, upTo } = await this.readAccess(viewer, text);
     const readable = new Map<string, boolean>();
     const rows: Array<{ code: string; ok: boolean }> = await this.dataSource.query(
       `SELECT v."code", (v."listed" OR v."holder" = $1 OR $2) AS "ok" FROM "lot_views" v`,
       [viewer.id, viewer.role === 'registrar'],
     );
     for (const r of rows) readable.set(r.code, r.ok);
-    return (await this.bundles.bundleFor(code, (lot) => readable.get(lot) === true))!;
+    const bundle = (await this.bundles.bundleFor(code, (lot) => readable.get(lot) === true))!;
+    // A prefix of a roll verifies on its own: a former holder exports what they may read.
+    if (upTo !== null) bundle.rolls[0]!.entries = bundle.rolls[0]!.entries.slice(0, upTo + 1);
+    return bundle;
   }
 
   /** The canonical code of a lot the viewer may read; anything else is the same 404. */
@@ -305,6 +335,58 @@ export class LotsService {
     const view = code ? await this.view(code) : null;
     if (!view || !this.canRead(viewer, view)) throw new AppError('not_found', 'Not found.');
     return view.code;
+  }
+
+  /** The viewer's access to a lot: in full, up to a seq through a grant, or the same 404. */
+  private async readAccess(viewer: Viewer, text: string): Promise<ReadAccess> {
+    const code = RollReaderService.canonicalCode(text);
+    const view = code ? await this.view(code) : null;
+    if (view && this.canRead(viewer, view)) return { code: view.code, lotId: view.lot_id, upTo: null };
+    if (view) {
+      for (const g of this.grants) {
+        const upTo = await g.upTo(viewer, view.lot_id);
+        if (upTo !== null) return { code: view.code, lotId: view.lot_id, upTo };
+      }
+    }
+    throw new AppError('not_found', 'Not found.');
+  }
+
+  /** A lot as it stood at seq `upTo`, derived from that prefix of its roll alone. */
+  private async detailUpTo(viewer: Viewer, access: ReadAccess): Promise<LotDetailResponse> {
+    const entries = await this.reader.entries(access.lotId, { limit: access.upTo! + 1 });
+    const r = verifyRoll(entries, { lot: access.code });
+    if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
+    const s = r.state;
+    const view = (await this.view(access.code))!;
+    const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
+    const head = entries[entries.length - 1]!;
+    const sealed = await this.ownSealed(access.lotId, viewer.id, access.upTo!);
+    return {
+      code: s.lot,
+      displayCode: formatLotCode(s.lot),
+      title: s.description?.title ?? '',
+      form: s.description?.form ?? null,
+      status: s.status,
+      listed: s.listed,
+      holder: s.holder,
+      origin: s.attribution?.body?.origin ?? null,
+      count: s.remaining,
+      dissents: s.dissents.length,
+      headSeq: s.head.seq,
+      registeredAt: new Date(view.registered_at).toISOString(),
+      updatedAt: new Date(head.time).toISOString(),
+      description: s.description,
+      observations: observed ? (JSON.parse(observed.body!) as ObservedBody).observations : null,
+      remaining: s.remaining,
+      attribution: s.attribution?.body
+        ? { seq: s.attribution.seq, author: s.attribution.author, origin: s.attribution.body.origin }
+        : null,
+      openOffer: null,
+      headHash: s.head.hash,
+      viewerIsHolder: false,
+      sealed,
+      historyUpTo: access.upTo!,
+    };
   }
 
   private canRead(viewer: Viewer, v: Pick<LotViewRow, 'listed' | 'holder' | 'offer_recipient'>): boolean {
@@ -320,9 +402,10 @@ export class LotsService {
     return rows[0] ?? null;
   }
 
-  private async ownSealed(lotId: string, viewer: string): Promise<OwnSealedDetails> {
+  private async ownSealed(lotId: string, viewer: string, upTo = Infinity): Promise<OwnSealedDetails> {
     const out: OwnSealedDetails = {};
     for (const f of await this.reader.sealedFor(lotId, viewer)) {
+      if (f.seq > upTo) continue;
       // Ordered by seq, so the newest value of each field wins.
       if (f.name === 'storage-location') out.storageLocation = f.value as string;
       if (f.name === 'acquisition-date') out.acquisitionDate = f.value as string;

@@ -38,6 +38,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/registry/accounts/:id/reject': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/suspend': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/reinstate': { roles: ['registrar'] },
+  'GET /api/public/dealers': 'public',
   'GET /api/public/dealers/:handle': 'public',
   // lots and their rolls
   'POST /api/lots': { roles: ['dealer'], writer: true },
@@ -58,6 +59,19 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
   'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
   'POST /api/attribution-aid': 'public',
+  // transfers between dealers and sales to private buyers
+  'GET /api/transfers/dealers': { roles: ['dealer'] },
+  'POST /api/transfers/offers': { roles: ['dealer'], writer: true },
+  'GET /api/transfers/offers': { roles: ['dealer'] },
+  'GET /api/transfers/offers/:id': { roles: ['dealer'] },
+  'POST /api/transfers/offers/:id/accept': { roles: ['dealer'], writer: true },
+  'POST /api/transfers/offers/:id/decline': { roles: ['dealer'], writer: true },
+  'POST /api/transfers/offers/:id/withdraw': { roles: ['dealer'], writer: true },
+  'GET /api/transfers/invitations': { roles: ['dealer'] },
+  'POST /api/transfers/invitations/:id/offer': { roles: ['dealer'], writer: true },
+  'POST /api/transfers/invitations/:id/cancel': { roles: ['dealer'] },
+  'POST /api/transfers/sales': { roles: ['dealer'], writer: true },
+  'GET /api/transfers/sales': { roles: ['dealer'] },
   // tags: printing writes nothing; listing writes described entries
   'GET /api/tags/layouts': { roles: ['dealer'] },
   'GET /api/tags/lots/:code': { roles: ['dealer'] },

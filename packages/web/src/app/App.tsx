@@ -11,8 +11,13 @@ import { SignInPage } from '../features/accounts/SignInPage';
 import { SignUpPage } from '../features/accounts/SignUpPage';
 import { VerifyEmailPage } from '../features/accounts/VerifyEmailPage';
 import { HomePage } from '../features/home/HomePage';
+import { InventoryPage } from '../features/lots/InventoryPage';
+import { LotPage } from '../features/lots/LotPage';
+import { RegisterLotPage } from '../features/lots/RegisterLotPage';
 import { NotFoundPage } from '../features/not-found/NotFoundPage';
-import { OpinionsPage } from '../features/opinions/OpinionsPage';
+import { OfferPage } from '../features/transfers/OfferPage';
+import { OffersPage } from '../features/transfers/OffersPage';
+import { SalesPage } from '../features/transfers/SalesPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -20,6 +25,11 @@ import { beadrollTheme } from './theme';
 const NAV: NavItem[] = [
   { to: '/', label: 'Start' },
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
+  { to: '/lots', label: 'Inventory', roles: ['dealer'] },
+  { to: '/lots/new', label: 'Register a lot', roles: ['dealer'], writer: true },
+  { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
+  { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
+  { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
   { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
   { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
@@ -36,7 +46,13 @@ export const routes: RouteObject[] = [
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
       { path: 'registry', element: <RegistryPage /> },
-      { path: 'lots/:code/opinions', element: <OpinionsPage /> },
+      { path: 'lots', element: <InventoryPage /> },
+      { path: 'lots/new', element: <RegisterLotPage /> },
+      { path: 'lots/:code', element: <LotPage /> },
+      { path: 'transfers/incoming', element: <OffersPage box="incoming" key="incoming" /> },
+      { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },
+      { path: 'transfers/offers/:id', element: <OfferPage /> },
+      { path: 'transfers/sales', element: <SalesPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {
         path: 'scan',

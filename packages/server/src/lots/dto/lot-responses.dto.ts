@@ -50,6 +50,11 @@ export class LotDetailResponse extends LotSummaryResponse {
   @ApiProperty() headHash: string;
   @ApiProperty({ description: 'true when the viewer holds the lot' }) viewerIsHolder: boolean;
   @ApiProperty({ type: OwnSealedDetails }) sealed: OwnSealedDetails;
+  @ApiPropertyOptional({
+    description:
+      'set when the viewer may read the roll only up to this seq (a former holder, up to the handover)',
+  })
+  historyUpTo?: number;
 }
 
 /** One sealed field the viewer recorded (or, for a transfer price, is a party to). */

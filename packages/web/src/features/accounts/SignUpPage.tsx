@@ -1,6 +1,7 @@
 import { Button, Field, Input, Radio, RadioGroup } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
 import { fieldError, FormError, FormPage, FormSuccess } from './FormPage';
 
@@ -26,7 +27,12 @@ const FIELDS = [
 ];
 
 export function SignUpPage() {
-  const [values, setValues] = useState<Record<string, string>>({ role: 'dealer' });
+  const [search] = useSearchParams();
+  // An invitation link carries the invited address, so the offer finds this account later.
+  const [values, setValues] = useState<Record<string, string>>(() => ({
+    role: 'dealer',
+    ...(search.get('email') ? { email: search.get('email')! } : {}),
+  }));
   const signUp = useMutation({ mutationFn: () => accountsApi.signUp(values) });
   if (signUp.isSuccess) {
     return (

@@ -1,0 +1,137 @@
+import { join } from 'node:path';
+import { generateLotCode, seededRandom, SYSTEM_ACTOR, type LotDescription, type Money } from '@beadroll/core';
+import { DataSource } from 'typeorm';
+import { readSeedFile, type SeedStep } from '../demo/seed';
+import { LedgerService } from '../ledger/ledger.service';
+import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
+import { sealedValuesOf } from '../lots/lots.service';
+import { TransfersService } from './transfers.service';
+
+type Then = 'accept' | 'decline' | 'withdraw' | 'lapse' | 'open';
+
+/** One invented lot of seed-demo/transfers.json and what happens to it. */
+export interface DemoTransferLot {
+  holder: string;
+  description: LotDescription;
+  sealed?: SealedDetailsDto;
+  story: Array<
+    | { offer: string; note?: string; price?: Money; then: Then; answerNote?: string }
+    | { sale: { date: string; price: Money; buyerNote?: string } }
+  >;
+  /** Set on the lot the start banner shows as one that changed hands. */
+  publicWhy?: string;
+}
+
+/** Seed of these lots' codes, so a second load finds them. */
+export const DEMO_TRANSFERS_SEED = 'beadroll demo scenario: transfers and sales';
+
+export const DEMO_TRANSFERS_FILE = 'transfers.json';
+
+/**
+ * Seed step: invented lots that change hands between the demo dealers (accepted, declined,
+ * withdrawn, lapsed and still open offers, with sealed prices) and a few sales at fairs. Every
+ * entry goes through the ledger's append path; a lot already on the ledger is skipped whole.
+ * The lapse is written straight away as the system account, as the lapse job would after
+ * the configured days.
+ */
+export const seedTransfers: SeedStep = async (app, ctx) => {
+  const ledger = app.get(LedgerService);
+  const transfers = app.get(TransfersService);
+  const db = app.get(DataSource);
+  const random = seededRandom(DEMO_TRANSFERS_SEED);
+  const id = (handle: string) => {
+    const found = ctx.accounts[handle];
+    if (!found)
+      throw new Error(
+        `${join('seed-demo', DEMO_TRANSFERS_FILE)} names ${handle}, who is not in the scenario`,
+      );
+    return found;
+  };
+  // The first lot the start banner prints changes hands from its holder to the next dealer, so
+  // one printed page shows a transfer.
+  const banner = ctx.report.publicLots[0];
+  if (banner) {
+    const rows: Array<{ holder: string; status: string; head_seq: number }> = await db.query(
+      'SELECT "holder", "status", "head_seq" FROM "lot_views" WHERE "code" = $1',
+      [banner.code],
+    );
+    const dealers = Object.keys(ctx.accounts).filter((h) => ctx.accounts[h] !== rows[0]?.holder);
+    const to = ['teodor-brasko', 'odile-varnas'].find((h) => dealers.includes(h));
+    const done: unknown[] = await db.query(
+      `SELECT 1 FROM "transfer_offers" WHERE "code" = $1 AND "status" = 'accepted'`,
+      [banner.code],
+    );
+    const row = rows[0];
+    if (row && to && (done.length > 0 || row.status === 'held')) {
+      if (done.length === 0) {
+        await ledger.withLots([banner.code], async (tx) => {
+          const o = await transfers.writeOffer(
+            tx,
+            row.holder,
+            banner.code,
+            id(to),
+            'as agreed at the spring fair',
+            {
+              amount: 14500,
+              currency: 'EUR',
+            },
+          );
+          await tx.append(banner.code, {
+            kind: 'transfer-accepted',
+            actor: id(to),
+            body: { offerSeq: o.offerSeq, note: 'collected in person' },
+          });
+        });
+      }
+      banner.why = `changed hands: ${banner.why.replace(/^a listed lot: /, '')}`;
+    }
+  }
+  for (const lot of readSeedFile<DemoTransferLot[]>(DEMO_TRANSFERS_FILE)) {
+    const code = generateLotCode(random);
+    // Shown by the start banner only when no other step printed a lot (see below).
+    if (lot.publicWhy && ctx.report.publicLots.length === 0)
+      ctx.report.publicLots.push({ code, why: lot.publicWhy });
+    const exists: unknown[] = await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
+    if (exists.length > 0) continue;
+    let holder = id(lot.holder);
+    await ledger.withLots([], async (tx) => {
+      await tx.register({
+        code,
+        actor: holder,
+        description: lot.description,
+        sealed: sealedValuesOf(lot.sealed),
+      });
+    });
+    for (const step of lot.story) {
+      await ledger.withLots([code], async (tx) => {
+        if ('sale' in step) {
+          const s = step.sale;
+          await tx.append(code, {
+            kind: 'sold',
+            actor: holder,
+            body: { date: s.date },
+            sealed: { 'sale-price': s.price, ...(s.buyerNote ? { 'buyer-note': s.buyerNote } : {}) },
+          });
+          return;
+        }
+        const to = id(step.offer);
+        const offer = await transfers.writeOffer(tx, holder, code, to, step.note, step.price);
+        const note = step.answerNote ? { note: step.answerNote } : {};
+        const body = { offerSeq: offer.offerSeq, ...note };
+        if (step.then === 'accept') {
+          await tx.append(code, { kind: 'transfer-accepted', actor: to, body });
+          holder = to;
+        } else if (step.then === 'decline')
+          await tx.append(code, { kind: 'transfer-declined', actor: to, body });
+        else if (step.then === 'withdraw')
+          await tx.append(code, { kind: 'transfer-withdrawn', actor: holder, body });
+        else if (step.then === 'lapse')
+          await tx.append(code, {
+            kind: 'transfer-lapsed',
+            actor: SYSTEM_ACTOR,
+            body: { offerSeq: offer.offerSeq },
+          });
+      });
+    }
+  }
+};

@@ -1,0 +1,167 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { LIMITS } from '@beadroll/core';
+import { Transform, Type } from 'class-transformer';
+import {
+  IsDefined,
+  IsEmail,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateIf,
+  ValidateNested,
+} from 'class-validator';
+import { MoneyDto } from '../../lots/dto/sealed-details.dto';
+import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
+
+const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+
+/**
+ * Offers a lot to a verified dealer (by account id, from the dealer search) or to an e-mail
+ * address (an invitation when no verified dealer has it). Exactly one of the two.
+ */
+export class CreateOfferDto {
+  @ApiProperty({ description: 'lot code, with or without hyphens', example: '7K2Q-M9XA-T' })
+  @IsString()
+  @MaxLength(20)
+  lot: string;
+
+  @ApiPropertyOptional({ description: 'account id of a verified dealer (from the dealer search)' })
+  @ValidateIf((o: CreateOfferDto) => o.email === undefined || o.recipient !== undefined)
+  @IsUUID('all', { message: 'recipient must be a dealer chosen from the search, or give an e-mail address' })
+  recipient?: string;
+
+  @ApiPropertyOptional({ description: 'e-mail address of a dealer who may not have an account yet' })
+  @ValidateIf((o: CreateOfferDto) => o.email !== undefined)
+  @Transform(trim)
+  @IsEmail({}, { message: 'email must be an e-mail address' })
+  @MaxLength(254)
+  email?: string;
+
+  @ApiPropertyOptional({
+    maxLength: LIMITS.longText,
+    description: 'shown on the roll to everyone who reads it',
+  })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  note?: string;
+
+  @ApiPropertyOptional({ type: MoneyDto, description: 'sealed: visible to the two dealers only' })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => MoneyDto)
+  price?: MoneyDto;
+}
+
+/** Accepts, declines or withdraws an offer, optionally with a note (public on the roll). */
+export class AnswerOfferDto {
+  @ApiPropertyOptional({ maxLength: LIMITS.longText })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  note?: string;
+}
+
+/** Records a sale to a private buyer (`sold`). */
+export class RecordSaleDto {
+  @ApiProperty({ description: 'lot code, with or without hyphens' })
+  @IsString()
+  @MaxLength(20)
+  lot: string;
+
+  @ApiProperty({ example: '2026-05-16', description: 'day of the sale, YYYY-MM-DD' })
+  @IsString({ message: 'date must be a date YYYY-MM-DD' })
+  @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'date must be a date YYYY-MM-DD' })
+  date: string;
+
+  @ApiProperty({ type: MoneyDto, description: 'sealed: visible to the seller only' })
+  @IsDefined({ message: 'price is required: the amount and its currency' })
+  @ValidateNested()
+  @Type(() => MoneyDto)
+  price: MoneyDto;
+
+  @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'sealed: visible to the seller only' })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  buyerNote?: string;
+
+  @ApiPropertyOptional({
+    description: 'used once to send the buyer a receipt with the public page; never stored',
+  })
+  @IsOptional()
+  @Transform(trim)
+  @IsEmail({}, { message: 'buyerEmail must be an e-mail address' })
+  @MaxLength(254)
+  buyerEmail?: string;
+}
+
+class PageDto {
+  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'page must be a whole number' })
+  @Min(1)
+  @Max(100000)
+  page?: number;
+
+  @ApiPropertyOptional({ minimum: 1, maximum: 100, default: 20 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'pageSize must be a whole number' })
+  @Min(1)
+  @Max(100)
+  pageSize?: number;
+}
+
+export const OFFER_BOXES = ['incoming', 'outgoing'] as const;
+
+/** The signed-in dealer's incoming or outgoing offers. */
+export class ListOffersQueryDto extends PageDto {
+  @ApiProperty({ enum: OFFER_BOXES })
+  @IsIn(OFFER_BOXES, { message: `box must be one of ${OFFER_BOXES.join(', ')}` })
+  box: (typeof OFFER_BOXES)[number];
+
+  @ApiPropertyOptional({ enum: OFFER_STATUSES })
+  @IsOptional()
+  @IsIn(OFFER_STATUSES, { message: `status must be one of ${OFFER_STATUSES.join(', ')}` })
+  status?: OfferStatus;
+}
+
+/** The signed-in dealer's sales. */
+export class ListSalesQueryDto extends PageDto {
+  @ApiPropertyOptional({ description: 'sold on or after, YYYY-MM-DD' })
+  @IsOptional()
+  @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'from must be a date YYYY-MM-DD' })
+  from?: string;
+
+  @ApiPropertyOptional({ description: 'sold on or before, YYYY-MM-DD' })
+  @IsOptional()
+  @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'to must be a date YYYY-MM-DD' })
+  to?: string;
+
+  @ApiPropertyOptional({ enum: ['sent', 'none'], description: 'whether a receipt went to the buyer' })
+  @IsOptional()
+  @IsIn(['sent', 'none'], { message: 'receipt must be sent or none' })
+  receipt?: 'sent' | 'none';
+}
+
+/** Searches verified dealers by name, handle or business. */
+export class DealerSearchQueryDto {
+  @ApiProperty({ minLength: 2, maxLength: 80 })
+  @Transform(trim)
+  @IsString()
+  @MinLength(2, { message: 'q must be at least 2 characters' })
+  @MaxLength(80)
+  q: string;
+}

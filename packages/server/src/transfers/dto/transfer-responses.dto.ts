@@ -1,0 +1,96 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import type { Money } from '@beadroll/core';
+import type { InvitationStatus } from '../entities/transfer-invitation.entity';
+import type { OfferStatus } from '../entities/transfer-offer.entity';
+
+/** A dealer as the transfer screens show them (from their dealer card). */
+export class PartyResponse {
+  @ApiProperty() id: string;
+  @ApiProperty() handle: string;
+  @ApiProperty() displayName: string;
+  @ApiProperty() business: string;
+  @ApiProperty() town: string;
+  @ApiProperty() country: string;
+  @ApiProperty({ enum: ['verified', 'suspended', 'former'] }) status: string;
+}
+
+/** The lot an offer or sale is about. */
+export class TransferLotResponse {
+  @ApiProperty() code: string;
+  @ApiProperty() displayCode: string;
+  @ApiProperty({ description: 'title when it was offered or sold' }) title: string;
+}
+
+/** One offer, as either of its two dealers sees it. */
+export class OfferResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ type: TransferLotResponse }) lot: TransferLotResponse;
+  @ApiProperty({ description: 'seq of the transfer-offered entry' }) offerSeq: number;
+  @ApiProperty({ enum: ['open', 'accepted', 'declined', 'withdrawn', 'lapsed'] }) status: OfferStatus;
+  @ApiProperty({ type: PartyResponse, nullable: true }) offerer: PartyResponse | null;
+  @ApiProperty({ type: PartyResponse, nullable: true }) recipient: PartyResponse | null;
+  @ApiProperty({ enum: ['offerer', 'recipient'] }) viewerIs: 'offerer' | 'recipient';
+  @ApiPropertyOptional() note?: string;
+  @ApiProperty() offeredAt: string;
+  @ApiPropertyOptional({ description: 'when an open offer lapses if nobody answers' }) lapsesAt?: string;
+  @ApiPropertyOptional() answeredAt?: string;
+  @ApiPropertyOptional() answerSeq?: number;
+  @ApiPropertyOptional() answerNote?: string;
+  @ApiPropertyOptional({ description: 'sealed transfer price, shown to the two dealers only' })
+  price?: Money;
+}
+
+export class OfferListResponse {
+  @ApiProperty({ type: [OfferResponse] }) items: OfferResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+}
+
+/** An offer waiting for the invited dealer to join and be verified. */
+export class InvitationResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ type: TransferLotResponse }) lot: TransferLotResponse;
+  @ApiProperty() email: string;
+  @ApiProperty({ enum: ['waiting', 'offered', 'stalled', 'cancelled'] }) status: InvitationStatus;
+  @ApiPropertyOptional() statusReason?: string;
+  @ApiPropertyOptional() note?: string;
+  @ApiPropertyOptional() price?: Money;
+  @ApiPropertyOptional({ description: 'the offer made from it' }) offerId?: string;
+  @ApiProperty() createdAt: string;
+}
+
+/** What an offer request made: an offer on the roll, or an invitation waiting for the recipient. */
+export class CreateOfferResponse {
+  @ApiProperty({ enum: ['offer', 'invitation'] }) made: 'offer' | 'invitation';
+  @ApiPropertyOptional({ type: OfferResponse }) offer?: OfferResponse;
+  @ApiPropertyOptional({ type: InvitationResponse }) invitation?: InvitationResponse;
+}
+
+/** A sale to a private buyer, as its seller sees it. */
+export class SaleResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ type: TransferLotResponse }) lot: TransferLotResponse;
+  @ApiProperty({ description: 'seq of the sold entry' }) seq: number;
+  @ApiProperty({ description: 'YYYY-MM-DD' }) date: string;
+  @ApiPropertyOptional({ description: 'sealed sale price' }) price?: Money;
+  @ApiPropertyOptional({ description: 'sealed buyer note' }) buyerNote?: string;
+  @ApiProperty() recordedAt: string;
+  @ApiProperty() receiptSent: boolean;
+  @ApiProperty() listed: boolean;
+}
+
+export class SaleListResponse {
+  @ApiProperty({ type: [SaleResponse] }) items: SaleResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+}
+
+export class InvitationListResponse {
+  @ApiProperty({ type: [InvitationResponse] }) items: InvitationResponse[];
+}
+
+export class DealerSearchResponse {
+  @ApiProperty({ type: [PartyResponse] }) items: PartyResponse[];
+}

@@ -1,0 +1,162 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import { formatLotCode, type Money } from '@beadroll/core';
+import { DataSource, Repository } from 'typeorm';
+import { Account } from '../accounts/entities/account.entity';
+import type { Principal } from '../auth/auth.decorators';
+import { AppError } from '../common/app-error';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { LedgerClock } from '../ledger/ledger.clock';
+import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { LotsService, type Viewer } from '../lots/lots.service';
+import { MailService } from '../mail/mail.service';
+import type { ListSalesQueryDto, RecordSaleDto } from './dto/transfer-requests.dto';
+import type { SaleListResponse, SaleResponse } from './dto/transfer-responses.dto';
+import { transferLetters } from './transfer-letters';
+import { notAvailable } from './transfers.service';
+
+const FIELD_NAMES = {
+  'body.date': 'date',
+  'sealed.sale-price': 'price',
+  'sealed.buyer-note': 'buyerNote',
+};
+
+interface SaleRow {
+  id: string;
+  lot_id: string;
+  code: string;
+  title: string;
+  seq: number;
+  sold_on: string;
+  recorded_at: Date;
+  receipt_sent_at: Date | null;
+  listed: boolean;
+  price: string | null;
+  buyer_note: string | null;
+}
+
+/** Sales to private buyers: the `sold` entry with its sealed price, and the seller's list. */
+@Injectable()
+export class SalesService {
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly dataSource: DataSource,
+    private readonly ledger: LedgerService,
+    private readonly lots: LotsService,
+    private readonly clock: LedgerClock,
+    private readonly mail: MailService,
+    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+  ) {}
+
+  /** Writes `sold` (date; sealed price and buyer note) and, if asked, e-mails the buyer a receipt. */
+  async record(me: Principal, dto: RecordSaleDto): Promise<SaleResponse> {
+    const code = RollReaderService.canonicalCode(dto.lot);
+    if (!code)
+      throw AppError.validation([{ field: 'lot', reason: 'lot must be a lot code such as 7K2Q-M9XA-T' }]);
+    // A day ahead of UTC is still today somewhere; later than that is a typing slip.
+    const latest = new Date(this.clock.now().getTime() + 86_400_000).toISOString().slice(0, 10);
+    if (dto.date > latest)
+      throw AppError.validation([{ field: 'date', reason: 'date cannot be in the future' }]);
+    await this.lots.readableCode(me, code);
+    const sealed: { 'sale-price': Money; 'buyer-note'?: string } = {
+      'sale-price': { amount: dto.price.amount, currency: dto.price.currency },
+    };
+    if (dto.buyerNote !== undefined) sealed['buyer-note'] = dto.buyerNote;
+    const listed = await this.ledger.withLots([code], async (tx) => {
+      const state = tx.state(code);
+      if (state.holder !== me.id)
+        throw new AppError('forbidden', 'Only the dealer who holds this lot can record its sale.');
+      const blocked = notAvailable(state, 'sold');
+      if (blocked) throw blocked;
+      if (dto.buyerEmail !== undefined && !state.listed) {
+        throw AppError.validation([
+          {
+            field: 'buyerEmail',
+            reason:
+              'this lot is not listed, so it has no public page to send; list it first or leave the address empty',
+          },
+        ]);
+      }
+      await tx.append(
+        code,
+        { kind: 'sold', actor: me.id, body: { date: dto.date }, sealed },
+        { fields: FIELD_NAMES },
+      );
+      return state.listed;
+    });
+    if (dto.buyerEmail !== undefined && listed) {
+      const seller = (await this.accounts.findOne({ where: { id: me.id } }))!;
+      const [{ title }] = (await this.dataSource.query('SELECT "title" FROM "sales" WHERE "code" = $1', [
+        code,
+      ])) as Array<{ title: string }>;
+      const sent = await this.mail.send(
+        dto.buyerEmail,
+        transferLetters.receipt(
+          seller.displayName,
+          seller.business,
+          { code, title },
+          dto.date,
+          `${this.config.publicBaseUrl}/l/${code}`,
+        ),
+      );
+      if (sent)
+        await this.dataSource.query('UPDATE "sales" SET "receipt_sent_at" = now() WHERE "code" = $1', [code]);
+    }
+    const rows = await this.rows(' AND s."code" = $2', [me.id, code]);
+    return toSale(rows[0]!);
+  }
+
+  async list(me: Viewer, q: ListSalesQueryDto): Promise<SaleListResponse> {
+    const page = q.page ?? 1;
+    const pageSize = q.pageSize ?? 20;
+    const cond: string[] = [];
+    const params: unknown[] = [me.id];
+    const p = (v: unknown) => {
+      params.push(v);
+      return `$${params.length}`;
+    };
+    if (q.from) cond.push(`s."sold_on" >= ${p(q.from)}::date`);
+    if (q.to) cond.push(`s."sold_on" <= ${p(q.to)}::date`);
+    if (q.receipt === 'sent') cond.push(`s."receipt_sent_at" IS NOT NULL`);
+    if (q.receipt === 'none') cond.push(`s."receipt_sent_at" IS NULL`);
+    const where = cond.map((c) => ` AND ${c}`).join('');
+    const [{ total }] = (await this.dataSource.query(
+      `SELECT count(*)::int AS "total" FROM "sales" s WHERE s."seller" = $1${where}`,
+      params,
+    )) as Array<{ total: number }>;
+    const tail = `${where} ORDER BY s."sold_on" DESC, s."recorded_at" DESC LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`;
+    const rows = await this.rows(tail, params);
+    return { items: rows.map(toSale), total, page, pageSize };
+  }
+
+  /** Sales of the seller `params[0]`, with their sealed price and note; `tail` follows the WHERE clause. */
+  private rows(tail: string, params: unknown[]): Promise<SaleRow[]> {
+    const sealed = (name: string) =>
+      `(SELECT f."value" FROM "sealed_fields" f JOIN "entries" e ON e."id" = f."entry_id"
+         WHERE e."lot_id" = s."lot_id" AND e."seq" = s."seq" AND f."name" = '${name}' AND $1 = ANY(f."visible_to"))`;
+    return this.dataSource.query(
+      `SELECT s."id", s."lot_id", s."code", s."title", s."seq", to_char(s."sold_on", 'YYYY-MM-DD') AS "sold_on",
+         s."recorded_at", s."receipt_sent_at", v."listed",
+         ${sealed('sale-price')} AS "price", ${sealed('buyer-note')} AS "buyer_note"
+       FROM "sales" s JOIN "lot_views" v ON v."lot_id" = s."lot_id"
+       WHERE s."seller" = $1${tail}`,
+      params,
+    );
+  }
+}
+
+function toSale(r: SaleRow): SaleResponse {
+  return {
+    id: r.id,
+    lot: { code: r.code, displayCode: formatLotCode(r.code), title: r.title },
+    seq: r.seq,
+    date: r.sold_on,
+    ...(r.price ? { price: JSON.parse(r.price) as Money } : {}),
+    ...(r.buyer_note ? { buyerNote: JSON.parse(r.buyer_note) as string } : {}),
+    recordedAt: new Date(r.recorded_at).toISOString(),
+    receiptSent: r.receipt_sent_at !== null,
+    listed: r.listed,
+  };
+}

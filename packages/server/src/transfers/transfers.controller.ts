@@ -1,0 +1,145 @@
+import { Body, Controller, Get, HttpCode, Param, Post, Query } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import {
+  AnswerOfferDto,
+  CreateOfferDto,
+  DealerSearchQueryDto,
+  ListOffersQueryDto,
+  ListSalesQueryDto,
+  RecordSaleDto,
+} from './dto/transfer-requests.dto';
+import {
+  CreateOfferResponse,
+  DealerSearchResponse,
+  InvitationListResponse,
+  InvitationResponse,
+  OfferListResponse,
+  OfferResponse,
+  SaleListResponse,
+  SaleResponse,
+} from './dto/transfer-responses.dto';
+import { SalesService } from './sales.service';
+import { TransfersService } from './transfers.service';
+
+@ApiTags('transfers')
+@Controller('transfers')
+@Roles('dealer')
+export class TransfersController {
+  constructor(
+    private readonly transfers: TransfersService,
+    private readonly sales: SalesService,
+  ) {}
+
+  @Get('dealers')
+  @ApiOperation({ summary: 'Find verified dealers to offer a lot to, by name, handle or business' })
+  @ApiOkResponse({ type: DealerSearchResponse })
+  async searchDealers(
+    @CurrentAccount() me: Principal,
+    @Query() q: DealerSearchQueryDto,
+  ): Promise<DealerSearchResponse> {
+    return { items: await this.transfers.searchDealers(me, q.q) };
+  }
+
+  @Post('offers')
+  @RollWriter()
+  @ApiOperation({
+    summary: 'Offer a lot to a verified dealer (transfer-offered), or invite an e-mail address to take it',
+  })
+  @ApiOkResponse({ type: CreateOfferResponse })
+  offer(@CurrentAccount() me: Principal, @Body() dto: CreateOfferDto): Promise<CreateOfferResponse> {
+    return this.transfers.offer(me, dto);
+  }
+
+  @Get('offers')
+  @ApiOperation({ summary: 'Incoming or outgoing offers of the signed-in dealer, with a status filter' })
+  @ApiOkResponse({ type: OfferListResponse })
+  list(@CurrentAccount() me: Principal, @Query() q: ListOffersQueryDto): Promise<OfferListResponse> {
+    return this.transfers.list(me, q);
+  }
+
+  @Get('offers/:id')
+  @ApiOperation({ summary: 'One offer, for either of its two dealers (with the sealed price)' })
+  @ApiOkResponse({ type: OfferResponse })
+  get(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<OfferResponse> {
+    return this.transfers.get(me, id);
+  }
+
+  @Post('offers/:id/accept')
+  @HttpCode(200)
+  @RollWriter()
+  @ApiOperation({ summary: 'Accept an open offer (transfer-accepted): the lot is yours' })
+  @ApiOkResponse({ type: OfferResponse })
+  accept(
+    @CurrentAccount() me: Principal,
+    @Param('id') id: string,
+    @Body() dto: AnswerOfferDto,
+  ): Promise<OfferResponse> {
+    return this.transfers.answer(me, id, 'accept', dto);
+  }
+
+  @Post('offers/:id/decline')
+  @HttpCode(200)
+  @RollWriter()
+  @ApiOperation({ summary: 'Decline an open offer (transfer-declined)' })
+  @ApiOkResponse({ type: OfferResponse })
+  decline(
+    @CurrentAccount() me: Principal,
+    @Param('id') id: string,
+    @Body() dto: AnswerOfferDto,
+  ): Promise<OfferResponse> {
+    return this.transfers.answer(me, id, 'decline', dto);
+  }
+
+  @Post('offers/:id/withdraw')
+  @HttpCode(200)
+  @RollWriter()
+  @ApiOperation({ summary: 'Withdraw your open offer (transfer-withdrawn)' })
+  @ApiOkResponse({ type: OfferResponse })
+  withdraw(
+    @CurrentAccount() me: Principal,
+    @Param('id') id: string,
+    @Body() dto: AnswerOfferDto,
+  ): Promise<OfferResponse> {
+    return this.transfers.answer(me, id, 'withdraw', dto);
+  }
+
+  @Get('invitations')
+  @ApiOperation({ summary: 'Offers waiting for an invited dealer to join and be verified' })
+  @ApiOkResponse({ type: InvitationListResponse })
+  async invitations(@CurrentAccount() me: Principal): Promise<InvitationListResponse> {
+    return { items: await this.transfers.listInvitations(me) };
+  }
+
+  @Post('invitations/:id/offer')
+  @HttpCode(200)
+  @RollWriter()
+  @ApiOperation({ summary: 'Make the offer of an invitation now that the invitee is verified' })
+  @ApiOkResponse({ type: InvitationResponse })
+  offerInvitation(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<InvitationResponse> {
+    return this.transfers.offerInvitation(me, id);
+  }
+
+  @Post('invitations/:id/cancel')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Cancel an invitation (nothing was written on the roll)' })
+  @ApiOkResponse({ type: InvitationResponse })
+  cancelInvitation(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<InvitationResponse> {
+    return this.transfers.cancelInvitation(me, id);
+  }
+
+  @Post('sales')
+  @RollWriter()
+  @ApiOperation({ summary: 'Record a sale to a private buyer (sold), with a sealed price' })
+  @ApiOkResponse({ type: SaleResponse })
+  recordSale(@CurrentAccount() me: Principal, @Body() dto: RecordSaleDto): Promise<SaleResponse> {
+    return this.sales.record(me, dto);
+  }
+
+  @Get('sales')
+  @ApiOperation({ summary: 'Sales of the signed-in dealer, with filters' })
+  @ApiOkResponse({ type: SaleListResponse })
+  listSales(@CurrentAccount() me: Principal, @Query() q: ListSalesQueryDto): Promise<SaleListResponse> {
+    return this.sales.list(me, q);
+  }
+}

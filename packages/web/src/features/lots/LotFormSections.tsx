@@ -1,0 +1,405 @@
+import { BASE_GLASS, DECORATIONS, LOT_FORMS } from '@beadroll/core';
+import {
+  Button,
+  Checkbox,
+  Field,
+  Input,
+  makeStyles,
+  Radio,
+  RadioGroup,
+  Switch,
+  Text,
+  Textarea,
+  Title3,
+  tokens,
+} from '@fluentui/react-components';
+import { useState, type ReactNode } from 'react';
+import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
+import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
+import { PrivateMark } from './PrivateMark';
+
+const useStyles = makeStyles({
+  section: {
+    display: 'grid',
+    gap: tokens.spacingVerticalM,
+    padding: tokens.spacingHorizontalL,
+    borderRadius: tokens.borderRadiusLarge,
+    backgroundColor: tokens.colorNeutralBackground1,
+    border: `${tokens.strokeWidthThin} solid ${tokens.colorNeutralStroke2}`,
+    margin: 0,
+    minWidth: 0,
+  },
+  private: {
+    border: `${tokens.strokeWidthThick} dashed ${tokens.colorPaletteMarigoldBorder2}`,
+    backgroundColor: tokens.colorPaletteMarigoldBackground1,
+  },
+  row: {
+    display: 'grid',
+    gridTemplateColumns: 'repeat(auto-fit, minmax(11rem, 1fr))',
+    gap: tokens.spacingHorizontalM,
+    alignItems: 'start',
+  },
+  checks: { display: 'flex', flexWrap: 'wrap', columnGap: tokens.spacingHorizontalM },
+  helper: {
+    display: 'flex',
+    flexWrap: 'wrap',
+    alignItems: 'center',
+    gap: tokens.spacingHorizontalS,
+    padding: tokens.spacingHorizontalS,
+    borderRadius: tokens.borderRadiusMedium,
+    backgroundColor: tokens.colorNeutralBackground3,
+  },
+  lead: { color: tokens.colorNeutralForeground3 },
+});
+
+export type Change = <K extends keyof LotDraft>(key: K, value: LotDraft[K]) => void;
+export type ErrorOf = (field: string) => string | undefined;
+
+/** One titled section of the form. */
+export function Section({
+  id,
+  title,
+  lead,
+  privateSection,
+  children,
+}: {
+  id: string;
+  title: string;
+  lead?: ReactNode;
+  privateSection?: boolean;
+  children: ReactNode;
+}) {
+  const styles = useStyles();
+  return (
+    <section
+      className={privateSection ? `${styles.section} ${styles.private}` : styles.section}
+      aria-labelledby={`${id}-title`}
+    >
+      <Title3 as="h2" id={`${id}-title`}>
+        {title}
+      </Title3>
+      {privateSection ? <PrivateMark /> : null}
+      {lead ? <Text className={styles.lead}>{lead}</Text> : null}
+      {children}
+    </section>
+  );
+}
+
+function toggle<T>(list: T[], item: T, on: boolean): T[] {
+  return on ? [...list.filter((x) => x !== item), item] : list.filter((x) => x !== item);
+}
+
+function inchesHint(mm: string): string | undefined {
+  const n = Number(mm.replace(',', '.'));
+  return mm.trim() && Number.isFinite(n) && n > 0 ? `= ${inchesOf(n)} in` : undefined;
+}
+
+/** The public description: what it is, size and count, look, condition. */
+export function DescriptionSections({
+  draft,
+  change,
+  error,
+}: {
+  draft: LotDraft;
+  change: Change;
+  error: ErrorOf;
+}) {
+  const styles = useStyles();
+  const size = Number(draft.diameterMax || draft.diameterMin);
+  const strand = Number(draft.strandLengthMm);
+  const estimate = estimateBeads(strand, size);
+  const [inchText, setInchText] = useState('');
+  const typed = Number(inchText.replace(',', '.'));
+  // Keep what was typed in inches while it still matches the length in mm.
+  const inches =
+    inchText && typed > 0 && inchesToMm(typed) === strand
+      ? inchText
+      : draft.strandLengthMm.trim() && strand > 0
+        ? inchesOf(strand)
+        : '';
+  return (
+    <>
+      <Section id="lot-what" title="What it is">
+        <Field label="Title" required validationMessage={error('description.title')}>
+          <Input
+            value={draft.title}
+            maxLength={200}
+            placeholder="Blue wound beads with pink roses"
+            onChange={(_, d) => change('title', d.value)}
+          />
+        </Field>
+        <Field label="Form" validationMessage={error('description.form')}>
+          <RadioGroup
+            layout="horizontal"
+            value={draft.form}
+            onChange={(_, d) => change('form', d.value as LotDraft['form'])}
+          >
+            {LOT_FORMS.map((f) => (
+              <Radio key={f} value={f} label={FORM_LABEL[f]} />
+            ))}
+          </RadioGroup>
+        </Field>
+        <Field
+          label="Description"
+          hint="Anything a buyer should know: where the lot came from in general terms, how it is strung."
+          validationMessage={error('description.summary')}
+        >
+          <Textarea value={draft.summary} onChange={(_, d) => change('summary', d.value)} resize="vertical" />
+        </Field>
+      </Section>
+
+      <Section
+        id="lot-size"
+        title="Size and count"
+        lead="Sizes in millimetres; inches are shown beside them."
+      >
+        <div className={styles.row}>
+          <Field
+            label="Bead size, smallest (mm)"
+            hint={inchesHint(draft.diameterMin)}
+            validationMessage={error('description.diameterMm.min') ?? error('description.diameterMm')}
+          >
+            <Input
+              inputMode="decimal"
+              value={draft.diameterMin}
+              contentAfter={<Text size={200}>mm</Text>}
+              onChange={(_, d) => change('diameterMin', d.value)}
+            />
+          </Field>
+          <Field
+            label="Bead size, largest (mm)"
+            hint={inchesHint(draft.diameterMax)}
+            validationMessage={error('description.diameterMm.max')}
+          >
+            <Input
+              inputMode="decimal"
+              value={draft.diameterMax}
+              contentAfter={<Text size={200}>mm</Text>}
+              onChange={(_, d) => change('diameterMax', d.value)}
+            />
+          </Field>
+        </div>
+        <div className={styles.row}>
+          <Field label="Strand length (mm)" validationMessage={error('description.strandLengthMm')}>
+            <Input
+              inputMode="decimal"
+              value={draft.strandLengthMm}
+              contentAfter={<Text size={200}>mm</Text>}
+              onChange={(_, d) => change('strandLengthMm', d.value)}
+            />
+          </Field>
+          <Field label="or in inches" hint={`1 in = ${MM_PER_INCH} mm`}>
+            <Input
+              inputMode="decimal"
+              value={inches}
+              contentAfter={<Text size={200}>in</Text>}
+              onChange={(_, d) => {
+                setInchText(d.value);
+                const n = Number(d.value.replace(',', '.'));
+                change('strandLengthMm', d.value.trim() && n > 0 ? String(inchesToMm(n)) : '');
+              }}
+            />
+          </Field>
+        </div>
+        <div className={styles.row}>
+          <Field
+            label="Number of beads"
+            required
+            validationMessage={error('description.count.value') ?? error('description.count')}
+          >
+            <Input
+              inputMode="numeric"
+              value={draft.countValue}
+              onChange={(_, d) => change('countValue', d.value)}
+            />
+          </Field>
+          <Checkbox
+            label="This is an estimate"
+            checked={draft.countEstimated}
+            onChange={(_, d) => change('countEstimated', d.checked === true)}
+          />
+        </div>
+        <div className={styles.helper} role="status" aria-label="Count helper">
+          {estimate !== null ? (
+            <>
+              <Text>
+                Count helper: {strand} mm ÷ {size} mm ≈ <strong>{estimate} beads</strong> (knots and spacers
+                make it fewer).
+              </Text>
+              <Button
+                size="small"
+                onClick={() => {
+                  change('countValue', String(estimate));
+                  change('countEstimated', true);
+                }}
+              >
+                Use {estimate} as an estimate
+              </Button>
+            </>
+          ) : (
+            <Text size={200}>
+              Count helper: give a strand length and a bead size, and the number of beads is estimated as
+              length ÷ size.
+            </Text>
+          )}
+        </div>
+      </Section>
+
+      <Section id="lot-look" title="Look">
+        <Field
+          label="Colours"
+          hint="Separate with commas: white, rose pink, green"
+          validationMessage={error('description.colours')}
+        >
+          <Input value={draft.colours} onChange={(_, d) => change('colours', d.value)} />
+        </Field>
+        <Field label="Base glass" validationMessage={error('description.baseGlass')}>
+          <div className={styles.checks}>
+            {BASE_GLASS.map((g) => (
+              <Checkbox
+                key={g}
+                label={BASE_GLASS_LABEL[g]}
+                checked={draft.baseGlass.includes(g)}
+                onChange={(_, d) => change('baseGlass', toggle(draft.baseGlass, g, d.checked === true))}
+              />
+            ))}
+          </div>
+        </Field>
+        <Field label="Decoration" validationMessage={error('description.decoration')}>
+          <div className={styles.checks}>
+            {DECORATIONS.map((x) => (
+              <Checkbox
+                key={x}
+                label={DECORATION_LABEL[x]}
+                checked={draft.decoration.includes(x)}
+                onChange={(_, d) => change('decoration', toggle(draft.decoration, x, d.checked === true))}
+              />
+            ))}
+          </div>
+        </Field>
+        <Field label="About the decoration" validationMessage={error('description.decorationNote')}>
+          <Textarea
+            value={draft.decorationNote}
+            onChange={(_, d) => change('decorationNote', d.value)}
+            resize="vertical"
+          />
+        </Field>
+      </Section>
+
+      <Section id="lot-condition" title="Condition">
+        <Field
+          label="Condition"
+          hint="Chips, cracks, worn foil, missing decoration, restringing."
+          validationMessage={error('description.condition')}
+        >
+          <Textarea
+            value={draft.condition}
+            onChange={(_, d) => change('condition', d.value)}
+            resize="vertical"
+          />
+        </Field>
+      </Section>
+    </>
+  );
+}
+
+/** Where the lot is kept and how it was acquired: sealed, seen only by the recording dealer. */
+export function PrivateSections({
+  draft,
+  change,
+  error,
+}: {
+  draft: LotDraft;
+  change: Change;
+  error: ErrorOf;
+}) {
+  const styles = useStyles();
+  return (
+    <>
+      <Section id="lot-kept" title="Where it is kept" privateSection>
+        <Field
+          label="Storage location"
+          hint="Shelf, box or drawer."
+          validationMessage={error('sealed.storageLocation')}
+        >
+          <Input value={draft.storageLocation} onChange={(_, d) => change('storageLocation', d.value)} />
+        </Field>
+      </Section>
+      <Section id="lot-private" title="Private details" privateSection>
+        <div className={styles.row}>
+          <Field label="Acquired on" validationMessage={error('sealed.acquisition.date')}>
+            <Input
+              type="date"
+              value={draft.acquisitionDate}
+              onChange={(_, d) => change('acquisitionDate', d.value)}
+            />
+          </Field>
+          <Field label="Acquired from" validationMessage={error('sealed.acquisition.source')}>
+            <Input
+              value={draft.acquisitionSource}
+              placeholder="estate sale, auction, another dealer"
+              onChange={(_, d) => change('acquisitionSource', d.value)}
+            />
+          </Field>
+        </div>
+        <div className={styles.row}>
+          <Field
+            label="Cost"
+            validationMessage={error('sealed.acquisition.cost.amount') ?? error('sealed.acquisition.cost')}
+          >
+            <Input
+              inputMode="decimal"
+              value={draft.costAmount}
+              onChange={(_, d) => change('costAmount', d.value)}
+            />
+          </Field>
+          <Field
+            label="Currency"
+            hint="ISO 4217 code"
+            validationMessage={error('sealed.acquisition.cost.currency')}
+          >
+            <Input
+              value={draft.costCurrency}
+              maxLength={3}
+              onChange={(_, d) => change('costCurrency', d.value.toUpperCase())}
+            />
+          </Field>
+        </div>
+        <Field label="Private note" validationMessage={error('sealed.privateNote')}>
+          <Textarea
+            value={draft.privateNote}
+            onChange={(_, d) => change('privateNote', d.value)}
+            resize="vertical"
+          />
+        </Field>
+      </Section>
+    </>
+  );
+}
+
+/** Listed or not. */
+export function ListingSection({
+  draft,
+  change,
+  error,
+}: {
+  draft: LotDraft;
+  change: Change;
+  error: ErrorOf;
+}) {
+  return (
+    <Section
+      id="lot-listing"
+      title="Public page"
+      lead="A listed lot has a public page that anyone with its tag or link can read. Private details are never shown there."
+    >
+      <Field validationMessage={error('description.listed')}>
+        <Switch
+          label={draft.listed ? 'Listed: the lot has a public page' : 'Unlisted: only you can see the lot'}
+          checked={draft.listed}
+          onChange={(_, d) => change('listed', d.checked)}
+        />
+      </Field>
+    </Section>
+  );
+}

@@ -1,0 +1,87 @@
+import type { RollState } from '@beadroll/core';
+import type { ReactNode } from 'react';
+import type { Me } from '../accounts/accounts.api';
+import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
+import { OpinionsPanel } from '../opinions/OpinionsPanel';
+import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
+
+/**
+ * What an action or a panel on the lot page gets: the lot's canonical code, the state core's
+ * reducer derived from the verified roll, and the signed-in account (null when nobody is).
+ */
+export interface LotActionContext {
+  code: string;
+  state: RollState;
+  viewer: Me | null;
+}
+
+/**
+ * An action on the lot page: a button labelled `label`, shown when `visible` says so; pressing it
+ * renders `render` (usually a dialog), which calls `close` when done. After a write, invalidate
+ * the query keys under ['lots'] so the page reloads and re-verifies the roll.
+ */
+export interface LotAction {
+  id: string;
+  label: string;
+  visible: (ctx: LotActionContext) => boolean;
+  render: (ctx: LotActionContext & { close: () => void }) => ReactNode;
+}
+
+/** A section of the lot page below the timeline (gallery, opinions, ancestry...). */
+export interface LotPanel {
+  id: string;
+  render: (ctx: LotActionContext) => ReactNode;
+}
+
+const ACTIVE: ReadonlyArray<RollState['status']> = ['held', 'offered'];
+
+/** The holder of a lot that is still held (not sold, split away, combined or retired). */
+export function viewerHolds(ctx: LotActionContext): boolean {
+  return (
+    ctx.viewer !== null &&
+    ctx.viewer.role === 'dealer' &&
+    ctx.viewer.status === 'verified' &&
+    ctx.state.holder === ctx.viewer.id
+  );
+}
+
+/** Actions in the order they appear. Features add one line each. */
+export const LOT_ACTIONS: LotAction[] = [
+  {
+    id: 'describe',
+    label: 'Describe',
+    visible: (ctx) => viewerHolds(ctx),
+    render: (ctx) => <DescribeAction {...ctx} />,
+  },
+  {
+    id: 'observe',
+    label: 'Record observations',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => <ObserveAction {...ctx} />,
+  },
+  {
+    id: 'listing',
+    label: 'List / unlist',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.description !== null,
+    render: (ctx) => <ListingAction {...ctx} />,
+  },
+  {
+    id: 'opinion',
+    label: 'Record an opinion',
+    visible: mayRecordOpinion,
+    render: (ctx) => <OpinionAction {...ctx} />,
+  },
+];
+
+/** Sections of the lot page, in order. Features add one line each. */
+export const LOT_PANELS: LotPanel[] = [
+  {
+    id: 'opinions',
+    render: (ctx) => (
+      <OpinionsPanel
+        code={ctx.code}
+        viewer={ctx.viewer && { id: ctx.viewer.id, canWrite: ctx.viewer.status === 'verified' }}
+      />
+    ),
+  },
+];

@@ -1,0 +1,332 @@
+import {
+  buildEntry,
+  discloseSealedField,
+  generateLotCode,
+  seededRandom,
+  type BuiltEntry,
+  type LotDescription,
+  type RollHead,
+} from '@beadroll/core';
+import { QueryClient } from '@tanstack/react-query';
+import { render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { Providers, routes } from '../../app/App';
+import { csvCell, toCsv } from './csv';
+import { LOT_ACTIONS } from './lot-actions';
+import { draftToRequest, EMPTY_DRAFT, estimateBeads, inchesToMm, loadDraft, saveDraft } from './lot-draft';
+import type { RawRoll } from './lots.api';
+
+// jsdom has no ResizeObserver; Fluent's message bar only needs it to exist.
+beforeEach(() =>
+  vi.stubGlobal(
+    'ResizeObserver',
+    class {
+      observe() {}
+      unobserve() {}
+      disconnect() {}
+    },
+  ),
+);
+afterEach(() => vi.unstubAllGlobals());
+
+const ME = {
+  id: '5b0c3f7e-2a1d-4c3e-9f00-1a2b3c4d5e6f',
+  role: 'dealer',
+  status: 'verified',
+  handle: 'mira-tallow',
+  displayName: 'Mira Tallow',
+  email: 'mira@example.test',
+  business: 'Tallow Old Glass',
+  town: 'Wendle',
+  country: 'Ostmark',
+  emailVerified: true,
+  verifiedSince: '2026-01-01T00:00:00.000Z',
+  statusReason: null,
+  createdAt: '2026-01-01T00:00:00.000Z',
+};
+
+const DESCRIPTION: LotDescription = {
+  title: 'Pink rose wound beads',
+  form: 'strand',
+  count: { value: 50, estimated: true },
+  strandLengthMm: 406.4,
+  diameterMm: { min: 8, max: 8 },
+  colours: ['white', 'pink'],
+  baseGlass: ['opaque'],
+  decoration: ['roses'],
+  listed: false,
+};
+
+/** A real two-entry roll built with core, with the viewer's sealed storage location. */
+function makeRoll(): { roll: RawRoll; code: string } {
+  const random = seededRandom('lot page test');
+  const code = generateLotCode(random);
+  const reg: BuiltEntry = buildEntry(
+    null,
+    {
+      lot: code,
+      kind: 'registered',
+      time: '2026-03-01T10:00:00.000Z',
+      actor: ME.id,
+      body: { description: DESCRIPTION },
+      sealed: { 'storage-location': 'Box 4, top shelf' },
+    },
+    { random },
+  );
+  const head: RollHead = { lot: code, seq: 0, hash: reg.stored.hash, time: reg.header.time };
+  const obs = buildEntry(
+    head,
+    {
+      kind: 'observed',
+      time: '2026-03-01T10:05:00.000Z',
+      actor: ME.id,
+      body: { observations: { hole: 'powder', windingMarks: 'seen' } },
+    },
+    { random },
+  );
+  const d = discloseSealedField(reg.sealed!, 'storage-location');
+  return {
+    code,
+    roll: {
+      lot: code,
+      entries: [
+        {
+          ...reg.stored,
+          seq: 0,
+          kind: 'registered',
+          actor: ME.id,
+          time: reg.header.time,
+          logIndex: null,
+          sealed: [d],
+        },
+        { ...obs.stored, seq: 1, kind: 'observed', actor: ME.id, time: obs.header.time, logIndex: null },
+      ],
+    },
+  };
+}
+
+function json(body: unknown, status = 200) {
+  return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+}
+
+function renderAt(path: string) {
+  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  const router = createMemoryRouter(routes, { initialEntries: [path] });
+  render(
+    <Providers client={client}>
+      <RouterProvider router={router} />
+    </Providers>,
+  );
+  return router;
+}
+
+describe('count helper', () => {
+  it('estimates a 16 in strand of 8 mm beads at about 50', () => {
+    // Worked value: 16 in × 25.4 = 406.4 mm; 406.4 ÷ 8 = 50.8, and bead charts list 50 for a
+    // 16 in strand of 8 mm rounds ("Sizing and Bead Quantity for Round Bead Strands",
+    // http://taszel14.blogspot.com/2008/02/sizing-and-bead-quantity-for-round-bead.html;
+    // formula from "How Many Beads in a Strand", WireJewelry.com,
+    // https://www.wirejewelry.com/jewelry_making_tips_techniques/How-Many-Beads-in-a-Strand_416.html).
+    const mm = inchesToMm(16);
+    expect(mm).toBe(406.4);
+    const n = estimateBeads(mm, 8)!;
+    expect(Math.abs(n - 50)).toBeLessThanOrEqual(1);
+    // 18 in of 8 mm = 457.2 ÷ 8 = 57.15 ("How many beads per inch?", artbeads.com,
+    // https://artbeads.com/how-many-beads-per-inch/).
+    expect(estimateBeads(inchesToMm(18), 8)).toBe(57);
+    expect(estimateBeads(0, 8)).toBeNull();
+    expect(estimateBeads(400, 0)).toBeNull();
+  });
+
+  it('inches are 25.4 mm exactly (the international yard and pound agreement, 1959)', () => {
+    expect(inchesToMm(1)).toBe(25.4);
+    expect(inchesToMm(28)).toBe(711.2);
+  });
+});
+
+describe('register form validation', () => {
+  it('refuses a draft without a title or count and names the fields', () => {
+    const { input, errors } = draftToRequest(EMPTY_DRAFT);
+    expect(input).toBeNull();
+    expect(Object.keys(errors).sort()).toEqual(['description.count.value', 'description.title']);
+  });
+
+  it('refuses bad lengths, a smallest size above the largest, and a bad currency', () => {
+    const { errors } = draftToRequest({
+      ...EMPTY_DRAFT,
+      title: 'Lot',
+      countValue: '10',
+      diameterMin: '9',
+      diameterMax: '6',
+      strandLengthMm: '40.25',
+      costAmount: '12.50',
+      costCurrency: 'E1',
+    });
+    expect(errors['description.diameterMm.min']).toMatch(/larger than the largest/);
+    expect(errors['description.strandLengthMm']).toMatch(/one decimal/);
+    expect(errors['sealed.acquisition.cost.currency']).toMatch(/currency code/);
+  });
+
+  it('builds the request: minor units of the currency, one size for both ends, observations kept', () => {
+    const { input, errors } = draftToRequest({
+      ...EMPTY_DRAFT,
+      title: '  Green satin strand ',
+      countValue: '48',
+      countEstimated: true,
+      diameterMax: '8',
+      strandLengthMm: '406.4',
+      colours: 'green, , white',
+      costAmount: '45.5',
+      costCurrency: 'EUR',
+      storageLocation: 'Drawer B',
+      observations: { uvA: 'none', note: ' ' },
+    });
+    expect(errors).toEqual({});
+    expect(input).toEqual({
+      description: {
+        title: 'Green satin strand',
+        form: 'strand',
+        count: { value: 48, estimated: true },
+        diameterMm: { min: 8, max: 8 },
+        strandLengthMm: 406.4,
+        colours: ['green', 'white'],
+        baseGlass: [],
+        decoration: [],
+        listed: false,
+      },
+      observations: { uvA: 'none' },
+      // EUR has 2 minor digits, JPY none (ISO 4217).
+      sealed: { storageLocation: 'Drawer B', acquisition: { cost: { amount: 4550, currency: 'EUR' } } },
+    });
+    const yen = draftToRequest({
+      ...EMPTY_DRAFT,
+      title: 'x',
+      countValue: '1',
+      costAmount: '3000',
+      costCurrency: 'JPY',
+    });
+    expect(yen.input?.sealed?.acquisition?.cost).toEqual({ amount: 3000, currency: 'JPY' });
+  });
+
+  it('keeps the draft in storage', () => {
+    saveDraft({ ...EMPTY_DRAFT, title: 'kept' }, localStorage);
+    expect(loadDraft(localStorage).title).toBe('kept');
+  });
+});
+
+describe('CSV export', () => {
+  it('escapes cells a spreadsheet would run as formulas (= + - @) and quotes per RFC 4180', () => {
+    // OWASP, "CSV Injection": prefix cells starting with = + - @ (and tab, CR) with an apostrophe.
+    expect(csvCell('=HYPERLINK("x")')).toBe(`"'=HYPERLINK(""x"")"`);
+    expect(csvCell('+1')).toBe("'+1");
+    expect(csvCell('-2')).toBe("'-2");
+    expect(csvCell('@SUM(A1)')).toBe("'@SUM(A1)");
+    expect(csvCell('\tx')).toBe("'\tx");
+    expect(csvCell('roses, trailing')).toBe('"roses, trailing"');
+    expect(csvCell('plain')).toBe('plain');
+    expect(toCsv(['a', 'b'], [[1, null]])).toBe('a,b\r\n1,\r\n');
+  });
+});
+
+describe('register form', () => {
+  beforeEach(() => {
+    localStorage.clear();
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string, init?: RequestInit) => {
+        if (url === '/api/auth/session') return json({ account: ME });
+        if (url === '/api/lots' && init?.method === 'POST')
+          return json(
+            {
+              error: {
+                code: 'validation',
+                message: 'Invalid',
+                fields: [{ field: 'description.title', reason: 'title is already taken by the moon' }],
+              },
+            },
+            400,
+          );
+        return json({}, 404);
+      }),
+    );
+  });
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('shows field errors from the form and from the server, keeps what was typed, marks private details', async () => {
+    const user = userEvent.setup({ delay: null });
+    renderAt('/lots/new');
+    await screen.findByRole('heading', { name: 'Register a lot' });
+    expect(screen.getAllByText(/seen only by you/).length).toBeGreaterThanOrEqual(2);
+    await user.click(screen.getByRole('button', { name: 'Register the lot' }));
+    expect(await screen.findByText(/Give the lot a title/)).toBeInTheDocument();
+    expect(screen.getByText(/whole number/)).toBeInTheDocument();
+
+    await user.type(screen.getByRole('textbox', { name: /Title/ }), 'Rose strand');
+    await user.type(screen.getByRole('textbox', { name: /or in inches/ }), '16');
+    await user.type(screen.getByRole('textbox', { name: /largest/ }), '8');
+    expect(screen.getByRole('status', { name: 'Count helper' })).toHaveTextContent('≈ 51 beads');
+    await user.click(screen.getByRole('button', { name: /Use 51 as an estimate/ }));
+    expect(screen.getByRole('textbox', { name: /Number of beads/ })).toHaveValue('51');
+
+    await user.click(screen.getByRole('radio', { name: /Green glow/ }));
+    expect(screen.getByText(/365 nm/)).toBeInTheDocument();
+
+    await user.click(screen.getByRole('button', { name: 'Register the lot' }));
+    expect(await screen.findByText('title is already taken by the moon')).toBeInTheDocument();
+    expect(screen.getByRole('textbox', { name: /Title/ })).toHaveValue('Rose strand');
+    expect(loadDraft(localStorage)).toMatchObject({ title: 'Rose strand', strandLengthMm: '406.4' });
+  }, 30_000);
+});
+
+describe('lot page', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('verifies the raw roll in the browser and renders its timeline and the holder’s actions', async () => {
+    const { roll, code } = makeRoll();
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string) => {
+        if (url === '/api/auth/session') return json({ account: ME });
+        if (url === `/api/lots/${code}/roll`) return json(roll);
+        return json({ error: { code: 'not_found', message: 'Not found.' } }, 404);
+      }),
+    );
+    renderAt(`/lots/${code}`);
+    expect(await screen.findByText('Verified in this browser')).toBeInTheDocument();
+    expect(screen.getByRole('heading', { level: 1 })).toHaveTextContent('Pink rose wound beads');
+    const history = screen.getByRole('list');
+    const items = within(history).getAllByRole('listitem');
+    expect(items.map((i) => i.getAttribute('data-kind'))).toEqual(['observed', 'registered']);
+    expect(items[0]).toHaveTextContent(/You recorded observations/);
+    expect(items[0]).toHaveTextContent(roll.entries[1]!.hash.slice(0, 12));
+    expect(screen.getByText('Box 4, top shelf')).toBeInTheDocument();
+    expect(screen.getByText('406.4 mm (16 in)')).toBeInTheDocument();
+    const actions = within(screen.getByRole('group', { name: 'Actions' })).getAllByRole('button');
+    expect(actions.slice(0, 3).map((b) => b.textContent)).toEqual([
+      'Describe',
+      'Record observations',
+      'List / unlist',
+    ]);
+    expect(LOT_ACTIONS.slice(0, 3).map((a) => a.id)).toEqual(['describe', 'observe', 'listing']);
+  });
+
+  it('says so when the roll was tampered with, and shows no state from it', async () => {
+    const { roll, code } = makeRoll();
+    const body = roll.entries[1]!.body!.replace('powder', 'clean');
+    roll.entries[1] = { ...roll.entries[1]!, body };
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string) => {
+        if (url === '/api/auth/session') return json({ account: ME });
+        if (url === `/api/lots/${code}/roll`) return json(roll);
+        return json({}, 404);
+      }),
+    );
+    renderAt(`/lots/${code}`);
+    expect(await screen.findByText('This roll does not verify')).toBeInTheDocument();
+    expect(screen.queryByText('Box 4, top shelf')).not.toBeInTheDocument();
+    expect(screen.queryByRole('group', { name: 'Actions' })).not.toBeInTheDocument();
+  });
+});
