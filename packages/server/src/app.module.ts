@@ -14,8 +14,11 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
-import { OpinionsModule } from './opinions/opinions.module';
 import { TransfersModule } from './transfers/transfers.module';
+import { RegistryToolsModule } from './registry/registry.module';
+import { OpinionsModule } from './opinions/opinions.module';
+import { LineageModule } from './lineage/lineage.module';
+import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -33,8 +36,11 @@ import { TagsModule } from './tags/tags.module';
     LedgerModule,
     LotsModule,
     OpinionsModule,
+    LineageModule,
+    ExhibitsModule,
     AuditModule,
     TransfersModule,
+    RegistryToolsModule,
     TagsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],

@@ -1,6 +1,6 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
-import { Roles } from '../auth/auth.decorators';
+import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
 
@@ -21,28 +21,42 @@ export class RegistryController {
   @Post(':id/approve')
   @HttpCode(200)
   @ApiOperation({ summary: 'Verify an applicant' })
-  approve(@Param('id', ParseUUIDPipe) id: string): Promise<ApplicantResponse> {
-    return this.registry.approve(id);
+  approve(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+  ): Promise<ApplicantResponse> {
+    return this.registry.approve(id, me.id);
   }
 
   @Post(':id/reject')
   @HttpCode(200)
   @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
-  reject(@Param('id', ParseUUIDPipe) id: string, @Body() dto: ReasonDto): Promise<ApplicantResponse> {
-    return this.registry.reject(id, dto.reason);
+  reject(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+    @Body() dto: ReasonDto,
+  ): Promise<ApplicantResponse> {
+    return this.registry.reject(id, dto.reason, me.id);
   }
 
   @Post(':id/suspend')
   @HttpCode(200)
   @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
-  suspend(@Param('id', ParseUUIDPipe) id: string, @Body() dto: ReasonDto): Promise<ApplicantResponse> {
-    return this.registry.suspend(id, dto.reason);
+  suspend(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+    @Body() dto: ReasonDto,
+  ): Promise<ApplicantResponse> {
+    return this.registry.suspend(id, dto.reason, me.id);
   }
 
   @Post(':id/reinstate')
   @HttpCode(200)
   @ApiOperation({ summary: 'Lift a suspension' })
-  reinstate(@Param('id', ParseUUIDPipe) id: string): Promise<ApplicantResponse> {
-    return this.registry.reinstate(id);
+  reinstate(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+  ): Promise<ApplicantResponse> {
+    return this.registry.reinstate(id, me.id);
   }
 }

@@ -17,11 +17,24 @@ import { Account } from './entities/account.entity';
 
 const SORT_COLUMNS = { applied: 'createdAt', business: 'business', town: 'town' } as const;
 
+/** One decision of the registrar about an account, as listeners hear of it after it is saved. */
+export interface RegistryDecision {
+  action: 'approved' | 'rejected' | 'suspended' | 'reinstated';
+  /** The registrar's account id. */
+  registrar: string;
+  account: string;
+  reason: string | null;
+}
+
+/** Told of every decision once it is saved (the registrar's record, lapsing a suspended account's offers). */
+export type RegistryDecisionListener = (d: RegistryDecision) => Promise<void>;
+
 /** The registrar's work: the verification queue, approval, rejection, suspension. */
 @Injectable()
 export class RegistryService {
   private readonly logger = new Logger('registry');
   private readonly approvalListeners: Array<(account: Account) => Promise<void>> = [];
+  private readonly listeners: RegistryDecisionListener[] = [];
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -36,6 +49,15 @@ export class RegistryService {
    */
   onApproved(listener: (account: Account) => Promise<void>): void {
     this.approvalListeners.push(listener);
+  }
+
+  /** Adds a listener told of every decision after it is saved. */
+  onDecision(listener: RegistryDecisionListener): void {
+    this.listeners.push(listener);
+  }
+
+  private async decided(d: RegistryDecision): Promise<void> {
+    for (const l of this.listeners) await l(d);
   }
 
   /** Dealer and assessor accounts by status; the pending queue holds only confirmed e-mail addresses. */
@@ -55,7 +77,7 @@ export class RegistryService {
     return { items: rows.map(toApplicantResponse), total, page: q.page, pageSize: q.pageSize };
   }
 
-  async approve(id: string): Promise<ApplicantResponse> {
+  async approve(id: string, registrar: string): Promise<ApplicantResponse> {
     const a = await this.target(id);
     if (a.status !== 'pending' && a.status !== 'rejected') {
       throw new AppError(
@@ -69,6 +91,7 @@ export class RegistryService {
     a.verifiedAt ??= new Date();
     a.statusReason = null;
     await this.accounts.save(a);
+    await this.decided({ action: 'approved', registrar, account: a.id, reason: null });
     await this.mail.send(
       a.email,
       accountLetters.approved(a.displayName, `${this.config.publicBaseUrl}/sign-in`),
@@ -83,7 +106,7 @@ export class RegistryService {
     return toApplicantResponse(a);
   }
 
-  async reject(id: string, reason: string): Promise<ApplicantResponse> {
+  async reject(id: string, reason: string, registrar: string): Promise<ApplicantResponse> {
     const a = await this.target(id);
     if (a.status !== 'pending')
       throw new AppError(
@@ -93,12 +116,13 @@ export class RegistryService {
     a.status = 'rejected';
     a.statusReason = reason;
     await this.accounts.save(a);
+    await this.decided({ action: 'rejected', registrar, account: a.id, reason });
     await this.mail.send(a.email, accountLetters.rejected(a.displayName, reason));
     return toApplicantResponse(a);
   }
 
   /** Suspends a verified account: it keeps reading, writes nothing, and is signed out everywhere. */
-  async suspend(id: string, reason: string): Promise<ApplicantResponse> {
+  async suspend(id: string, reason: string, registrar: string): Promise<ApplicantResponse> {
     const a = await this.target(id);
     if (a.status !== 'verified')
       throw new AppError('conflict', `This account is ${a.status}; only verified accounts can be suspended.`);
@@ -106,11 +130,12 @@ export class RegistryService {
     a.statusReason = reason;
     await this.accounts.save(a);
     await this.sessions.revokeAll(a.id, 'suspended');
+    await this.decided({ action: 'suspended', registrar, account: a.id, reason });
     await this.mail.send(a.email, accountLetters.suspended(a.displayName, reason));
     return toApplicantResponse(a);
   }
 
-  async reinstate(id: string): Promise<ApplicantResponse> {
+  async reinstate(id: string, registrar: string): Promise<ApplicantResponse> {
     const a = await this.target(id);
     if (a.status !== 'suspended')
       throw new AppError(
@@ -120,6 +145,7 @@ export class RegistryService {
     a.status = 'verified';
     a.statusReason = null;
     await this.accounts.save(a);
+    await this.decided({ action: 'reinstated', registrar, account: a.id, reason: null });
     await this.mail.send(a.email, accountLetters.reinstated(a.displayName));
     return toApplicantResponse(a);
   }

@@ -27,6 +27,8 @@ export const ERROR_STATUS = {
   roll_rule: HttpStatus.CONFLICT,
   /** The offer was already answered, withdrawn or lapsed. */
   offer_closed: HttpStatus.CONFLICT,
+  /** An upload of bytes the registrar removed (their digest is on the blocked list). */
+  blocked_content: HttpStatus.CONFLICT,
   payload_too_large: HttpStatus.PAYLOAD_TOO_LARGE,
   unsupported_media_type: HttpStatus.UNSUPPORTED_MEDIA_TYPE,
   rate_limited: HttpStatus.TOO_MANY_REQUESTS,

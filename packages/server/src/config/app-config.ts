@@ -26,14 +26,14 @@ export interface AppConfig {
   readonly jwtSecretFile: string;
   readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
   readonly throttle: { readonly limit: number; readonly ttlMs: number };
-  /** Opinions one author may record on one lot in any 24 hours. */
-  readonly opinions: { readonly perDay: number };
   readonly transfers: {
     /** An offer nobody answered lapses after this many days. */
     readonly lapseDays: number;
     /** How often each server looks for offers to lapse (0 = never; the job can still be run by hand). */
     readonly lapseCheckSeconds: number;
   };
+  /** Opinions one author may record on one lot in any 24 hours. */
+  readonly opinions: { readonly perDay: number };
   readonly session: {
     /** Lifetime of the access-token cookie (a signed JWT). */
     readonly accessTtlSeconds: number;
@@ -173,11 +173,11 @@ export function loadConfig(env: Env = process.env): AppConfig {
       limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),
       ttlMs: int(env, 'THROTTLE_TTL_MS', 60_000, 1, 86_400_000),
     },
-    opinions: { perDay: int(env, 'OPINIONS_PER_DAY', 3, 1, 1000) },
     transfers: {
       lapseDays: int(env, 'OFFER_LAPSE_DAYS', 14, 1, 365),
       lapseCheckSeconds: int(env, 'OFFER_LAPSE_CHECK_SECONDS', 300, 0, 86_400),
     },
+    opinions: { perDay: int(env, 'OPINIONS_PER_DAY', 3, 1, 1000) },
     session: {
       accessTtlSeconds: int(env, 'ACCESS_TOKEN_TTL_SECONDS', 900, 1, 86_400),
       refreshTtlSeconds: int(env, 'REFRESH_TOKEN_TTL_SECONDS', 30 * 86_400, 60, 365 * 86_400),

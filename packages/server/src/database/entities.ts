@@ -9,6 +9,11 @@ import { LotViewEntity } from '../lots/entities/lot-view.entity';
 import { SaleEntity } from '../transfers/entities/sale.entity';
 import { TransferInvitationEntity } from '../transfers/entities/transfer-invitation.entity';
 import { TransferOfferEntity } from '../transfers/entities/transfer-offer.entity';
+import { BlockedDigest } from '../registry/entities/blocked-digest.entity';
+import { RedactionRequest } from '../registry/entities/redaction-request.entity';
+import { RegistrarAction } from '../registry/entities/registrar-action.entity';
+import { Report } from '../registry/entities/report.entity';
+import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -24,4 +29,9 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   TransferOfferEntity,
   SaleEntity,
   TransferInvitationEntity,
+  RegistrarAction,
+  BlockedDigest,
+  RedactionRequest,
+  Report,
+  ExhibitEntity,
 ];

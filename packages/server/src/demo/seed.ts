@@ -14,9 +14,11 @@ import type { AccountStatus, Role } from '../auth/auth.decorators';
 import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
-import { seedOpinions } from '../opinions/demo-opinions';
 import { seedTransfers } from '../transfers/demo-transfers';
+import { seedOpinions } from '../opinions/demo-opinions';
 import { seedLots } from './demo-lots';
+import { loadDemoLineage } from '../lineage/lineage.seed';
+import { seedExhibits } from './demo-exhibits';
 
 /** Where the scenario files live (the repository's seed-demo folder). */
 export const SEED_DIR = resolve(__dirname, '..', '..', '..', '..', 'seed-demo');
@@ -87,8 +89,22 @@ export const seedAccounts: SeedStep = async (app, ctx) => {
   }
 };
 
+/** A split strand and a combined necklace; one listed split child goes on the start banner. */
+export const seedLineage: SeedStep = async (app, ctx) => {
+  const { splitChildren, piece } = await loadDemoLineage(app, readSeedFile('lineage.json'), ctx.accounts);
+  ctx.report.publicLots.push({ code: splitChildren[0]!, why: 'split child' });
+  ctx.report.publicLots.push({ code: piece, why: 'combined piece' });
+};
+
 /** Every step, in order. A feature adds its own with one line here. */
-export const SEED_STEPS: SeedStep[] = [seedAccounts, seedLots, seedTransfers, seedOpinions];
+export const SEED_STEPS: SeedStep[] = [
+  seedAccounts,
+  seedLots,
+  seedExhibits,
+  seedOpinions,
+  seedTransfers,
+  seedLineage,
+];
 
 /** Runs every step on an application context and writes the report. */
 export async function runSeed(

@@ -55,8 +55,12 @@ export class RollTransaction {
     readonly manager: EntityManager,
     private readonly random: LedgerRandom,
     private readonly projectors: RollProjector[],
-    /** One time for the whole transaction, so parent links never point into the future. */
-    private readonly time: string,
+    /**
+     * One time for the whole transaction, so parent links never point into the future. It moves
+     * forward only when a locked lot's head is later (a transaction that committed while this
+     * one waited for its lock), and then stays there for every later entry of this transaction.
+     */
+    private time: string,
   ) {}
 
   /** Locks an existing lot (`SELECT … FOR UPDATE`); callers lock several in {@link LedgerService.withLots} order. */
@@ -101,7 +105,8 @@ export class RollTransaction {
   ): Promise<AppendedEntry> {
     const lot = await this.lock(code);
     const state = lot.state;
-    const time = this.time < state.head.time ? state.head.time : this.time;
+    if (this.time < state.head.time) this.time = state.head.time;
+    const time = this.time;
     let built: BuiltEntry;
     try {
       built = buildEntry(

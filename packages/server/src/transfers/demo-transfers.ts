@@ -47,9 +47,19 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
       );
     return found;
   };
-  // The first lot the start banner prints changes hands from its holder to the next dealer, so
-  // one printed page shows a transfer.
-  const banner = ctx.report.publicLots[0];
+  // The first listed demo lot without opinions changes hands from its holder to the next dealer,
+  // so one printed page shows a transfer (and the holder's attribution elsewhere stays theirs).
+  let banner: { code: string; why: string } | undefined;
+  for (const candidate of ctx.report.publicLots) {
+    const opinions: unknown[] = await db.query(
+      `SELECT 1 FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."kind" = 'opinion' LIMIT 1`,
+      [candidate.code],
+    );
+    if (opinions.length === 0) {
+      banner = candidate;
+      break;
+    }
+  }
   if (banner) {
     const rows: Array<{ holder: string; status: string; head_seq: number }> = await db.query(
       'SELECT "holder", "status", "head_seq" FROM "lot_views" WHERE "code" = $1',
@@ -83,7 +93,10 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
           });
         });
       }
-      banner.why = `changed hands: ${banner.why.replace(/^a listed lot: /, '')}`;
+      ctx.report.publicLots.push({
+        code: banner.code,
+        why: `changed hands: ${banner.why.replace(/^a listed lot: /, '')}`,
+      });
     }
   }
   for (const lot of readSeedFile<DemoTransferLot[]>(DEMO_TRANSFERS_FILE)) {

@@ -52,13 +52,11 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/lots/:code/bundle': 'signed-in',
   'GET /api/public/lots/:code': 'public',
   'GET /api/public/lots/:code/bundle': 'public',
+  // splits, combinations and ancestry
+  'POST /api/lots/:code/splits': { roles: ['dealer'], writer: true },
+  'POST /api/combinations': { roles: ['dealer'], writer: true },
+  'GET /api/lots/:code/ancestry': 'signed-in',
   'GET /api/audit/ledger': { roles: ['registrar'] },
-  // opinions and the attribution aid (the aid is pure computation over what is sent: public)
-  'GET /api/lots/:code/opinions': 'signed-in',
-  'POST /api/lots/:code/opinions': { roles: ['dealer', 'assessor'], writer: true },
-  'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
-  'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
-  'POST /api/attribution-aid': 'public',
   // transfers between dealers and sales to private buyers
   'GET /api/transfers/dealers': { roles: ['dealer'] },
   'POST /api/transfers/offers': { roles: ['dealer'], writer: true },
@@ -72,11 +70,35 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/transfers/invitations/:id/cancel': { roles: ['dealer'] },
   'POST /api/transfers/sales': { roles: ['dealer'], writer: true },
   'GET /api/transfers/sales': { roles: ['dealer'] },
+  // registrar's tools: redaction, reports, the record, a dealer's own data
+  'POST /api/registry/redactions': { roles: ['registrar'] },
+  'GET /api/registry/redaction-requests': { roles: ['registrar'] },
+  'POST /api/registry/redaction-requests/:id/approve': { roles: ['registrar'] },
+  'POST /api/registry/redaction-requests/:id/decline': { roles: ['registrar'] },
+  'POST /api/lots/:code/redaction-requests': { roles: ['dealer'] },
+  'POST /api/public/lots/:code/reports': 'public',
+  'GET /api/registry/reports': { roles: ['registrar'] },
+  'POST /api/registry/reports/:id/close': { roles: ['registrar'] },
+  'GET /api/registry/actions': { roles: ['registrar'] },
+  'GET /api/registry/actions/export': { roles: ['registrar'] },
+  'GET /api/account/personal-data': 'signed-in',
+  'POST /api/account/close': { roles: ['dealer', 'assessor'] },
+  // opinions and the attribution aid (the aid is pure computation over what is sent: public)
+  'GET /api/lots/:code/opinions': 'signed-in',
+  'POST /api/lots/:code/opinions': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/withdrawal': { roles: ['dealer', 'assessor'], writer: true },
+  'POST /api/lots/:code/opinions/:seq/replies': { roles: ['dealer'], writer: true },
+  'POST /api/attribution-aid': 'public',
   // tags: printing writes nothing; listing writes described entries
   'GET /api/tags/layouts': { roles: ['dealer'] },
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
   'POST /api/tags/pdf': { roles: ['dealer'] },
   'POST /api/tags/list': { roles: ['dealer'], writer: true },
+  // exhibits
+  'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
+  'GET /api/lots/:code/exhibits': 'signed-in',
+  'GET /api/lots/:code/exhibits/:seq/:variant': 'signed-in',
+  'GET /api/public/lots/:code/exhibits/:seq/:variant': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

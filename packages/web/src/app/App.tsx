@@ -18,6 +18,11 @@ import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { OfferPage } from '../features/transfers/OfferPage';
 import { OffersPage } from '../features/transfers/OffersPage';
 import { SalesPage } from '../features/transfers/SalesPage';
+import { AuditPage } from '../features/registry/AuditPage';
+import { MyDataPage } from '../features/registry/MyDataPage';
+import { RecordPage } from '../features/registry/RecordPage';
+import { RedactionsPage } from '../features/registry/RedactionsPage';
+import { ReportsPage } from '../features/registry/ReportsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -30,6 +35,11 @@ const NAV: NavItem[] = [
   { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
   { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
   { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
+  { to: '/registry/reports', label: 'Reports', roles: ['registrar'] },
+  { to: '/registry/redactions', label: 'Redaction', roles: ['registrar'] },
+  { to: '/registry/record', label: 'Record', roles: ['registrar'] },
+  { to: '/registry/audit', label: 'Audit', roles: ['registrar'] },
+  { to: '/account/data', label: 'Your data', signedIn: true },
   { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
   { to: '/tags', label: 'Print tags', roles: ['dealer'] },
 ];
@@ -53,6 +63,11 @@ export const routes: RouteObject[] = [
       { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },
       { path: 'transfers/offers/:id', element: <OfferPage /> },
       { path: 'transfers/sales', element: <SalesPage /> },
+      { path: 'registry/reports', element: <ReportsPage /> },
+      { path: 'registry/redactions', element: <RedactionsPage /> },
+      { path: 'registry/record', element: <RecordPage /> },
+      { path: 'registry/audit', element: <AuditPage /> },
+      { path: 'account/data', element: <MyDataPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {
         path: 'scan',

@@ -16,7 +16,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useId, useRef, useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { UvACaution } from '../safety/UvACaution';
-import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, exhibitKeys, uploadExhibit } from './exhibits.api';
+import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, uploadExhibit } from './exhibits.api';
 
 /** What the file picker offers; the server decides the real type from the bytes. */
 export const ACCEPTED_TYPES = 'image/jpeg,image/png,image/webp,image/avif,application/pdf';
@@ -120,7 +120,8 @@ export function ExhibitUploader({ code }: { code: string }) {
         update(item.id, { status: 'failed', error });
       }
     }
-    await client.invalidateQueries({ queryKey: exhibitKeys.list(code) });
+    // Everything under ['lots'] (the gallery, and the roll the lot page verifies) reloads.
+    await client.invalidateQueries({ queryKey: ['lots'] });
   };
 
   const sending = items.some((x) => x.status === 'sending');

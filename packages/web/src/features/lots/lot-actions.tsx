@@ -1,6 +1,13 @@
 import type { RollState } from '@beadroll/core';
 import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
+import { OfferDialog } from '../transfers/OfferDialog';
+import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
+import { ExhibitsSection } from '../exhibits/ExhibitsSection';
+import { mayAddExhibits } from '../exhibits/exhibits-panel';
+import { AncestryPanel } from '../lineage/AncestryPanel';
+import { CombineDialog } from '../lineage/CombineDialog';
+import { SplitDialog } from '../lineage/SplitDialog';
 import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
@@ -66,6 +73,32 @@ export const LOT_ACTIONS: LotAction[] = [
     render: (ctx) => <ListingAction {...ctx} />,
   },
   {
+    id: 'offer',
+    label: 'Offer to a dealer',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    render: (ctx) => <OfferDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />,
+  },
+  {
+    id: 'sale',
+    label: 'Record a sale',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    render: (ctx) => (
+      <RecordSaleDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />
+    ),
+  },
+  {
+    id: 'split',
+    label: 'Split',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    render: (ctx) => <SplitDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+  },
+  {
+    id: 'combine',
+    label: 'Combine with other lots',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    render: (ctx) => <CombineDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+  },
+  {
     id: 'opinion',
     label: 'Record an opinion',
     visible: mayRecordOpinion,
@@ -75,6 +108,7 @@ export const LOT_ACTIONS: LotAction[] = [
 
 /** Sections of the lot page, in order. Features add one line each. */
 export const LOT_PANELS: LotPanel[] = [
+  { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={mayAddExhibits(ctx)} /> },
   {
     id: 'opinions',
     render: (ctx) => (
@@ -84,4 +118,5 @@ export const LOT_PANELS: LotPanel[] = [
       />
     ),
   },
+  { id: 'ancestry', render: (ctx) => <AncestryPanel code={ctx.code} /> },
 ];

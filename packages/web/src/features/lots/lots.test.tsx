@@ -304,6 +304,7 @@ describe('lot page', () => {
     expect(screen.getByText('Box 4, top shelf')).toBeInTheDocument();
     expect(screen.getByText('406.4 mm (16 in)')).toBeInTheDocument();
     const actions = within(screen.getByRole('group', { name: 'Actions' })).getAllByRole('button');
+    // The lot page's own actions come first; other features add theirs after.
     expect(actions.slice(0, 3).map((b) => b.textContent)).toEqual([
       'Describe',
       'Record observations',

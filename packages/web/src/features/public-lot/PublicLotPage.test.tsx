@@ -190,7 +190,9 @@ describe('public lot page: opinions, dissent and a removed body', () => {
     const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' }).format(
       new Date('2025-03-08T10:00:00.000Z'),
     );
-    expect(screen.getByText(`Removed by the registrar on ${when} (personal data).`)).toBeInTheDocument();
+    expect(
+      screen.getByText(`Removed by the registrar on ${when}, reason: personal data.`),
+    ).toBeInTheDocument();
     expect(document.body.textContent).not.toContain('private number');
   });
 });

@@ -2,6 +2,7 @@ import { formatLotCode, type RollState } from '@beadroll/core';
 import { QueryClientProvider, useQuery, type QueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { createQueryClient } from '../../lib/query-client';
+import { ReportProblem } from '../registry/ReportProblem';
 import { Ancestry } from './Ancestry';
 import { brandVars } from './brand-vars';
 import { checkLot, checkTag, type LotCheck } from './check-lot';
@@ -40,7 +41,7 @@ function Frame({ children }: { children: ReactNode }) {
       <footer className="pl-foot">
         <p>
           Beadroll keeps the history of lots of glass beads as dealers record it. This page checked it in your
-          browser; nothing you type here is sent anywhere.
+          browser; nothing you type here is sent anywhere, except a report you choose to send.
         </p>
       </footer>
     </div>
@@ -89,6 +90,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
         )}
       </div>
       {check && <Body check={check} cards={cards} tagRef={tagRef} />}
+      {data && <ReportProblem code={code} />}
     </>
   );
 }

@@ -36,7 +36,7 @@ export function Timeline({
             )}
             {it.removed && (
               <p className="pl-tl-removed-note">
-                Removed by the registrar on {it.removed.on} ({it.removed.reason}).
+                Removed by the registrar on {it.removed.on}, reason: {it.removed.reason}.
               </p>
             )}
             {it.sealed && (

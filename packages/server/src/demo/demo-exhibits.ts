@@ -1,0 +1,72 @@
+import { randomBytes } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { mkdir, rm } from 'node:fs/promises';
+import { join, resolve } from 'node:path';
+import type { ExhibitKind } from '@beadroll/core';
+import sharp from 'sharp';
+import { DataSource } from 'typeorm';
+import { Account } from '../accounts/entities/account.entity';
+import type { Principal } from '../auth/auth.decorators';
+import { ExhibitsService } from '../exhibits/exhibits.service';
+import { drawDemoPicture, type DemoPicture } from './demo-pictures';
+import type { SeedStep } from './seed';
+
+/** The scenario's exhibits (the seed-demo folder, as the loader's SEED_DIR). */
+const DEMO_EXHIBITS_FILE = resolve(__dirname, '..', '..', '..', '..', 'seed-demo', 'exhibits.json');
+
+/** The exhibits of one demo lot (seed-demo/exhibits.json), named by the lot's title. */
+interface DemoLotExhibits {
+  lot: string;
+  exhibits: Array<{ kind: ExhibitKind; caption: string; sealed?: boolean; picture: DemoPicture }>;
+}
+
+/**
+ * Seed step: gives several demo lots exhibits, drawn at load time and sent through the same
+ * service as an upload (so they are checked, normalised, stored and put on the roll the same
+ * way), added by the lot's holder. A lot that already has exhibits, or is not loaded, is skipped.
+ */
+export const seedExhibits: SeedStep = async (app, ctx) => {
+  const data = app.get(DataSource);
+  const exhibits = app.get(ExhibitsService);
+  const work = join(ctx.config.dataDir, 'tmp', `demo-exhibits-${randomBytes(8).toString('hex')}`);
+  await mkdir(work, { recursive: true, mode: 0o700 });
+  try {
+    const lots = JSON.parse(readFileSync(DEMO_EXHIBITS_FILE, 'utf8')) as DemoLotExhibits[];
+    for (const lot of lots) {
+      const rows: Array<{ code: string; holder: string }> = await data.query(
+        'SELECT "code", "holder" FROM "lot_views" WHERE "title" = $1 ORDER BY "code" LIMIT 1',
+        [lot.lot],
+      );
+      const found = rows[0];
+      if (!found) continue;
+      const has: unknown[] = await data.query('SELECT 1 FROM "exhibits" WHERE "lot_code" = $1 LIMIT 1', [
+        found.code,
+      ]);
+      if (has.length > 0) continue;
+      const a = await data.getRepository(Account).findOneByOrFail({ id: found.holder });
+      const holder: Principal = {
+        id: a.id,
+        role: a.role,
+        status: a.status,
+        handle: a.handle,
+        displayName: a.displayName,
+      };
+      for (const [i, x] of lot.exhibits.entries()) {
+        const path = join(work, `${found.code}-${i}.jpg`);
+        await sharp(Buffer.from(drawDemoPicture(x.picture)))
+          .flatten({ background: '#ffffff' })
+          .jpeg({ quality: 88 })
+          .toFile(path);
+        await exhibits.add(
+          holder,
+          found.code,
+          { kind: x.kind, caption: x.caption, sealed: x.sealed ? 'true' : 'false' },
+          { path },
+        );
+        await rm(path, { force: true });
+      }
+    }
+  } finally {
+    await rm(work, { recursive: true, force: true });
+  }
+};

@@ -1,0 +1,72 @@
+import { Body, Controller, Get, Param, Post, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
+import { FileInterceptor } from '@nestjs/platform-express';
+import { ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
+import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
+import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
+import type { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
+import { sendExhibitFile } from './exhibit-response';
+import { ExhibitsService } from './exhibits.service';
+import { UploadGuardInterceptor } from './upload';
+
+@ApiTags('exhibits')
+@Controller('lots/:code/exhibits')
+export class ExhibitsController {
+  constructor(private readonly exhibits: ExhibitsService) {}
+
+  @Post()
+  @Roles('dealer', 'assessor')
+  @RollWriter()
+  @ApiOperation({ summary: 'Add one evidence file to a lot as an exhibit-added entry' })
+  @ApiConsumes('multipart/form-data')
+  @ApiBody({ type: AddExhibitBodyDoc })
+  @UseInterceptors(UploadGuardInterceptor, FileInterceptor('file'))
+  add(
+    @CurrentAccount() account: Principal,
+    @Param('code') code: string,
+    @Body() dto: AddExhibitDto,
+    @UploadedFile() file: { path: string } | undefined,
+  ): Promise<AddExhibitResponse> {
+    return this.exhibits.add(account, code, dto, file);
+  }
+
+  @Get()
+  @ApiOperation({ summary: 'The exhibits of a lot the viewer may read (own sealed ones included)' })
+  list(@CurrentAccount() account: Principal, @Param('code') code: string): Promise<ExhibitListResponse> {
+    return this.exhibits.list(account, code);
+  }
+
+  @Get(':seq/:variant')
+  @ApiOperation({
+    summary: 'A file of an exhibit, for a viewer who may read the lot; sealed ones for their adder',
+  })
+  async file(
+    @CurrentAccount() account: Principal,
+    @Param('code') code: string,
+    @Param('seq') seq: string,
+    @Param('variant') variant: string,
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
+    sendExhibitFile(req, res, await this.exhibits.viewerFile(account, code, seq, variant), false);
+  }
+}
+
+@ApiTags('public')
+@Controller('public/lots/:code/exhibits')
+export class PublicExhibitsController {
+  constructor(private readonly exhibits: ExhibitsService) {}
+
+  @Get(':seq/:variant')
+  @Public()
+  @ApiOperation({ summary: 'A file of a public exhibit of a listed lot (variant original, web or thumb)' })
+  async file(
+    @Param('code') code: string,
+    @Param('seq') seq: string,
+    @Param('variant') variant: string,
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
+    sendExhibitFile(req, res, await this.exhibits.publicFile(code, seq, variant), true);
+  }
+}

@@ -1,0 +1,215 @@
+import { stat } from 'node:fs/promises';
+import type { Readable } from 'node:stream';
+import type { ExhibitDerivative, ExhibitFile, ExhibitRef } from '@beadroll/core';
+import { Inject, Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository } from 'typeorm';
+import type { Principal } from '../auth/auth.decorators';
+import { AppError } from '../common/app-error';
+import type { AppConfig } from '../config/app-config';
+import { APP_CONFIG } from '../config/config.module';
+import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { LotsService } from '../lots/lots.service';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
+import { hashFile } from '../storage/hashing';
+import type { AddExhibitDto } from './dto/add-exhibit.dto';
+import {
+  fileOfVariant,
+  toExhibitResponse,
+  type AddExhibitResponse,
+  type ExhibitListResponse,
+  type ExhibitVariant,
+} from './dto/exhibit-response.dto';
+import { ExhibitEntity } from './entities/exhibit.entity';
+import { ExhibitProcessor, type ProcessedFile } from './exhibit-processor';
+
+/** A stored file ready to send, with what the response headers need. */
+export interface ServedExhibitFile {
+  stream: Readable;
+  file: ExhibitFile;
+  /** A name for the download, made from the lot and entry (never the uploader's file name). */
+  downloadName: string;
+}
+
+const NOT_FOUND = () => new AppError('not_found', 'Not found.');
+
+const EXTENSIONS: Record<string, string> = {
+  'image/jpeg': 'jpg',
+  'image/png': 'png',
+  'image/webp': 'webp',
+  'image/avif': 'avif',
+  'application/pdf': 'pdf',
+};
+
+@Injectable()
+export class ExhibitsService {
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @Inject(BLOB_STORE) private readonly store: BlobStore,
+    @InjectRepository(ExhibitEntity) private readonly exhibits: Repository<ExhibitEntity>,
+    private readonly dataSource: DataSource,
+    private readonly processor: ExhibitProcessor,
+    private readonly ledger: LedgerService,
+    private readonly lots: LotsService,
+  ) {}
+
+  /**
+   * Turns one uploaded file into one `exhibit-added` entry: checks and normalises it, then in
+   * one transaction appends the entry, records where its files are and stores them. A sealed
+   * exhibit (receipts always) goes on the roll only as a sealed-field commitment.
+   */
+  async add(
+    actor: Principal,
+    codeText: string,
+    dto: AddExhibitDto,
+    upload: { path: string } | undefined,
+  ): Promise<AddExhibitResponse> {
+    if (!upload)
+      throw AppError.validation([{ field: 'file', reason: 'is missing: attach one file as "file"' }]);
+    const code = await this.lots.readableCode(actor, codeText);
+    await this.checkQuota(actor.id, (await stat(upload.path)).size);
+
+    const processed = await this.processor.process(upload.path);
+    try {
+      const files = [processed.original, ...processed.derivatives];
+      const described = await Promise.all(files.map((f) => describe(f)));
+      const bytes = described.reduce((n, f) => n + f.size, 0);
+      await this.checkQuota(actor.id, bytes);
+      const [original, ...derivatives] = described;
+      const ref: ExhibitRef = {
+        kind: dto.kind,
+        original,
+        derivatives: derivatives as ExhibitDerivative[],
+        ...(dto.caption?.trim() ? { caption: dto.caption.trim() } : {}),
+      };
+      const sealed = dto.sealed === 'true' || dto.kind === 'receipt';
+
+      const row = await this.ledger.withLots([code], async (tx) => {
+        const entry = await tx.append(
+          code,
+          sealed
+            ? {
+                kind: 'exhibit-added',
+                actor: actor.id,
+                body: { sealedOnly: true },
+                sealed: { 'sealed-exhibit': ref },
+              }
+            : { kind: 'exhibit-added', actor: actor.id, body: { exhibit: ref } },
+          { fields: { 'body.exhibit.caption': 'caption', 'body.exhibit.kind': 'kind' } },
+        );
+        const lot = await tx.lock(code);
+        const saved = await tx.manager.getRepository(ExhibitEntity).save(
+          tx.manager.getRepository(ExhibitEntity).create({
+            lotId: lot.id,
+            lotCode: code,
+            seq: entry.seq,
+            addedBy: actor.id,
+            sealed,
+            originalSha256: original.sha256,
+            ref,
+            bytes,
+          }),
+        );
+        // Stored inside the transaction: if a put fails, no entry names missing files.
+        for (const [i, f] of files.entries()) {
+          const put = await this.store.put({ path: f.path });
+          if (put.sha256 !== described[i].sha256)
+            throw new AppError('internal', 'a file changed while it was being stored');
+        }
+        return saved;
+      });
+      return {
+        exhibit: toExhibitResponse(row, row.createdAt.toISOString(), this.base(code, false)),
+        notes: processed.notes,
+      };
+    } finally {
+      await processed.cleanup();
+    }
+  }
+
+  /** The exhibits of a lot the viewer may read; sealed ones only to the dealer who added them. */
+  async list(viewer: Principal, codeText: string): Promise<ExhibitListResponse> {
+    const code = await this.lots.readableCode(viewer, codeText);
+    const rows = await this.exhibits.find({ where: { lotCode: code }, order: { seq: 'ASC' } });
+    return {
+      exhibits: rows
+        .filter((r) => !r.sealed || r.addedBy === viewer.id)
+        .map((r) => toExhibitResponse(r, r.createdAt.toISOString(), this.base(code, false))),
+    };
+  }
+
+  /** A file of a listed lot's public exhibit; anything else is the same bare 404. */
+  async publicFile(codeText: string, seqText: string, variant: string): Promise<ServedExhibitFile> {
+    const code = RollReaderService.canonicalCode(codeText);
+    if (!code) throw NOT_FOUND();
+    const listed: Array<{ listed: boolean }> = await this.dataSource.query(
+      'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
+      [code],
+    );
+    if (listed[0]?.listed !== true) throw NOT_FOUND();
+    const row = await this.row(code, seqText);
+    if (!row || row.sealed) throw NOT_FOUND();
+    return this.serve(row, variant);
+  }
+
+  /** A file for a signed-in viewer who may read the lot; a sealed one only for its adder. */
+  async viewerFile(
+    viewer: Principal,
+    codeText: string,
+    seqText: string,
+    variant: string,
+  ): Promise<ServedExhibitFile> {
+    const code = await this.lots.readableCode(viewer, codeText);
+    const row = await this.row(code, seqText);
+    if (!row || (row.sealed && row.addedBy !== viewer.id)) throw NOT_FOUND();
+    return this.serve(row, variant);
+  }
+
+  private async row(code: string, seqText: string): Promise<ExhibitEntity | null> {
+    if (!/^[1-9]\d{0,8}$/.test(seqText)) return null;
+    return this.exhibits.findOne({ where: { lotCode: code, seq: Number(seqText) } });
+  }
+
+  private async serve(row: ExhibitEntity, variant: string): Promise<ServedExhibitFile> {
+    const file = fileOfVariant(row.ref, variant as ExhibitVariant);
+    if (!file || !['original', 'web', 'thumb'].includes(variant)) throw NOT_FOUND();
+    const stream = await this.store.get(file.sha256).catch(() => {
+      throw NOT_FOUND();
+    });
+    const ext = EXTENSIONS[file.mediaType] ?? 'bin';
+    return { stream, file, downloadName: `${row.lotCode}-${row.seq}-${variant}.${ext}` };
+  }
+
+  private base(code: string, isPublic: boolean): string {
+    return isPublic ? `/api/public/lots/${code}/exhibits` : `/api/lots/${code}/exhibits`;
+  }
+
+  private async checkQuota(account: string, adding: number): Promise<void> {
+    const quota = this.config.exhibits.quotaBytes;
+    const rows: Array<{ used: string | null }> = await this.dataSource.query(
+      'SELECT SUM("bytes") AS "used" FROM "exhibits" WHERE "added_by" = $1',
+      [account],
+    );
+    const used = Number(rows[0]?.used ?? 0);
+    if (used + adding > quota)
+      throw new AppError('payload_too_large', 'This account has used its exhibit storage.', [
+        {
+          field: 'file',
+          reason: `would bring this account's exhibits to ${used + adding} bytes; the allowance is ${quota} bytes`,
+        },
+      ]);
+  }
+}
+
+async function describe(f: ProcessedFile): Promise<ExhibitFile | ExhibitDerivative> {
+  const { sha256, size } = await hashFile(f.path);
+  return {
+    ...(f.role ? { role: f.role } : {}),
+    sha256,
+    size,
+    mediaType: f.mediaType,
+    ...(f.width ? { width: f.width } : {}),
+    ...(f.height ? { height: f.height } : {}),
+  };
+}

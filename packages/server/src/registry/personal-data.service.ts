@@ -1,0 +1,198 @@
+import { Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import { DataSource, type Repository } from 'typeorm';
+import { Account } from '../accounts/entities/account.entity';
+import { PasswordsService } from '../auth/passwords.service';
+import { SessionsService } from '../auth/sessions.service';
+import { AppError } from '../common/app-error';
+import { MailService } from '../mail/mail.service';
+import { OfferLapseService } from './offer-lapse.service';
+import { registryLetters } from './registry-letters';
+
+/** Everything Beadroll holds about one account, as the account's own download. */
+export interface PersonalDataExport {
+  format: 'beadroll-personal-data';
+  version: 1;
+  exportedAt: string;
+  account: {
+    id: string;
+    role: string;
+    status: string;
+    handle: string;
+    email: string;
+    displayName: string;
+    business: string;
+    town: string;
+    country: string;
+    emailConfirmedAt: string | null;
+    verifiedSince: string | null;
+    statusReason: string | null;
+    createdAt: string;
+  };
+  sessions: Array<{ createdAt: string; revokedAt: string | null; revokedWhy: string | null }>;
+  /** Every roll entry the account wrote, with its exact header and body (null once redacted). */
+  entries: Array<{
+    lot: string;
+    seq: number;
+    kind: string;
+    time: string;
+    hash: string;
+    header: string;
+    body: string | null;
+  }>;
+  /** The sealed values the account may read: the ones it recorded, and transfer prices it was party to. */
+  sealedDetails: Array<{
+    lot: string;
+    seq: number;
+    name: string;
+    value: unknown;
+    salt: string;
+    commitment: string;
+  }>;
+  lotsHeld: string[];
+  redactionRequests: Array<{ lot: string; seq: number; note: string; status: string; createdAt: string }>;
+  /** The registrar's recorded decisions about this account. */
+  registrarDecisions: Array<{ at: string; action: string; reason: string | null }>;
+}
+
+const FORMER_NAME = 'Former dealer';
+
+/** A dealer's own data: the download of everything held about them, and closing the account. */
+@Injectable()
+export class PersonalDataService {
+  constructor(
+    private readonly dataSource: DataSource,
+    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly passwords: PasswordsService,
+    private readonly sessions: SessionsService,
+    private readonly lapse: OfferLapseService,
+    private readonly mail: MailService,
+  ) {}
+
+  async export(accountId: string): Promise<PersonalDataExport> {
+    const a = await this.accounts.findOneByOrFail({ id: accountId });
+    const q = <T>(sql: string): Promise<T[]> => this.dataSource.query(sql, [accountId]);
+    const sessions = await q<{ created_at: Date; revoked_at: Date | null; revoked_why: string | null }>(
+      `SELECT "created_at", "revoked_at", "revoked_why" FROM "sessions" WHERE "account_id" = $1 ORDER BY "created_at"`,
+    );
+    const entries = await q<{
+      lot: string;
+      seq: number;
+      kind: string;
+      time: string;
+      hash: string;
+      header: string;
+      body: string | null;
+    }>(
+      `SELECT l."code" AS "lot", e."seq", e."kind", e."time", e."hash", e."header", b."body"
+         FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+        WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
+    );
+    const sealed = await q<{
+      lot: string;
+      seq: number;
+      name: string;
+      value: string;
+      salt: string;
+      commitment: string;
+    }>(
+      `SELECT l."code" AS "lot", e."seq", s."name", s."value", s."salt", s."commitment"
+         FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id" JOIN "lots" l ON l."id" = e."lot_id"
+        WHERE $1::text = ANY(s."visible_to") ORDER BY l."code", e."seq", s."name"`,
+    );
+    const held = await q<{ code: string }>(
+      `SELECT "code" FROM "lot_views" WHERE "holder" = $1::text ORDER BY "code"`,
+    );
+    const requests = await q<{ lot: string; seq: number; note: string; status: string; created_at: Date }>(
+      `SELECT "lot", "seq", "note", "status", "created_at" FROM "redaction_requests" WHERE "requester" = $1 ORDER BY "created_at"`,
+    );
+    const decisions = await q<{ at: Date; action: string; reason: string | null }>(
+      `SELECT "at", "action", "reason" FROM "registrar_actions" WHERE "subject" = $1::text ORDER BY "at", "id"`,
+    );
+    return {
+      format: 'beadroll-personal-data',
+      version: 1,
+      exportedAt: new Date().toISOString(),
+      account: {
+        id: a.id,
+        role: a.role,
+        status: a.status,
+        handle: a.handle,
+        email: a.email,
+        displayName: a.displayName,
+        business: a.business,
+        town: a.town,
+        country: a.country,
+        emailConfirmedAt: a.emailVerifiedAt?.toISOString() ?? null,
+        verifiedSince: a.verifiedAt?.toISOString() ?? null,
+        statusReason: a.statusReason,
+        createdAt: a.createdAt.toISOString(),
+      },
+      sessions: sessions.map((s) => ({
+        createdAt: s.created_at.toISOString(),
+        revokedAt: s.revoked_at?.toISOString() ?? null,
+        revokedWhy: s.revoked_why,
+      })),
+      entries,
+      sealedDetails: sealed.map((s) => ({ ...s, value: JSON.parse(s.value) as unknown })),
+      lotsHeld: held.map((h) => h.code),
+      redactionRequests: requests.map((r) => ({
+        lot: r.lot,
+        seq: r.seq,
+        note: r.note,
+        status: r.status,
+        createdAt: r.created_at.toISOString(),
+      })),
+      registrarDecisions: decisions.map((d) => ({
+        at: d.at.toISOString(),
+        action: d.action,
+        reason: d.reason,
+      })),
+    };
+  }
+
+  /**
+   * Closes the account: its name and contact details are replaced, its password and sign-ins
+   * end, the sealed values it recorded for itself are deleted (their salted commitments stay in the
+   * headers, so every roll still verifies) and its open offers lapse. Roll entries keep the
+   * opaque account id.
+   */
+  async close(accountId: string, password: string): Promise<{ message: string }> {
+    const a = await this.accounts.findOneByOrFail({ id: accountId });
+    if (a.role === 'registrar') throw new AppError('forbidden', 'A registrar account cannot be closed here.');
+    if (!(await this.passwords.verify(password, a.passwordHash)))
+      throw AppError.validation([{ field: 'password', reason: 'is not your current password' }]);
+    const oldEmail = a.email;
+    const oldName = a.displayName;
+    const anon = a.id.replace(/-/g, '');
+    await this.dataSource.transaction(async (m) => {
+      await m.getRepository(Account).update(
+        { id: a.id },
+        {
+          status: 'closed',
+          handle: `former-${anon.slice(0, 24)}`,
+          email: `${anon}@closed.beadroll.invalid`,
+          displayName: FORMER_NAME,
+          business: '',
+          town: '',
+          country: '',
+          passwordHash: null,
+          statusReason: null,
+        },
+      );
+      await m.query(`SELECT set_config('beadroll.closing_account', $1, true)`, [a.id]);
+      await m.query(
+        // A value shared with the other party of a transfer is that party's record too: it stays.
+        `DELETE FROM "sealed_fields" s USING "entries" e
+          WHERE e."id" = s."entry_id" AND e."actor" = $1::text AND s."visible_to" = ARRAY[$1::varchar]`,
+        [a.id],
+      );
+      await m.query(`SELECT set_config('beadroll.closing_account', '', true)`);
+      await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
+    });
+    await this.sessions.revokeAll(a.id, 'closed');
+    await this.lapse.lapseOffersOf(a.id);
+    await this.mail.send(oldEmail, registryLetters.accountClosed(oldName));
+    return { message: 'Your account is closed.' };
+  }
+}

@@ -1,0 +1,76 @@
+import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
+import {
+  DecisionNoteDto,
+  DeclineDto,
+  RedactDto,
+  RedactionRequestDto,
+  RequestQueryDto,
+} from './dto/registry-tools.dto';
+import {
+  type RedactionRequestResponse,
+  type RedactionResponse,
+  RedactionsService,
+} from './redactions.service';
+
+@ApiTags('registry')
+@Roles('registrar')
+@Controller('registry')
+export class RedactionsController {
+  constructor(private readonly redactions: RedactionsService) {}
+
+  @Post('redactions')
+  @HttpCode(200)
+  @ApiOperation({
+    summary: 'Remove the body of an entry (a redacted entry goes on the roll; the digest stays)',
+  })
+  redact(@CurrentAccount() me: Principal, @Body() dto: RedactDto): Promise<RedactionResponse> {
+    return this.redactions.redact(me.id, dto.lot, dto.seq, dto.reason, dto.note ?? null);
+  }
+
+  @Get('redaction-requests')
+  @ApiOperation({ summary: 'Holders’ requests to remove their own entries' })
+  requests(@Query() q: RequestQueryDto): Promise<RedactionRequestResponse[]> {
+    return this.redactions.listRequests(q.status);
+  }
+
+  @Post('redaction-requests/:id/approve')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Grant a holder’s request: the entry is redacted at the holder’s request' })
+  approve(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+    @Body() dto: DecisionNoteDto,
+  ): Promise<RedactionResponse> {
+    return this.redactions.approve(me.id, id, dto.note ?? null);
+  }
+
+  @Post('redaction-requests/:id/decline')
+  @HttpCode(200)
+  @ApiOperation({ summary: 'Decline a holder’s request, saying why' })
+  decline(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+    @Body() dto: DeclineDto,
+  ): Promise<RedactionRequestResponse> {
+    return this.redactions.decline(me.id, id, dto.reason);
+  }
+}
+
+@ApiTags('lots')
+@Controller('lots')
+export class RedactionRequestsController {
+  constructor(private readonly redactions: RedactionsService) {}
+
+  @Post(':code/redaction-requests')
+  @Roles('dealer')
+  @ApiOperation({ summary: 'The holder asks the registrar to remove one of their own entries' })
+  request(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: RedactionRequestDto,
+  ): Promise<RedactionRequestResponse> {
+    return this.redactions.request(me.id, code, dto.seq, dto.note);
+  }
+}

@@ -1,0 +1,217 @@
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import type { ExhibitAddedBody, RedactionReason } from '@beadroll/core';
+import type { Repository } from 'typeorm';
+import { AppError } from '../common/app-error';
+import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
+import { BlockedDigestsService } from './blocked-digests.service';
+import { RedactionRequest, type RedactionRequestStatus } from './entities/redaction-request.entity';
+import { RegistrarRecordService } from './registrar-record.service';
+
+/** What a redaction did. */
+export interface RedactionResponse {
+  lot: string;
+  /** The entry whose body was removed. */
+  seq: number;
+  /** The `redacted` entry now on the roll. */
+  redactionSeq: number;
+  reason: RedactionReason;
+  time: string;
+  /** SHA-256 of the files removed with an exhibit (now on the blocked list). */
+  blockedDigests: string[];
+}
+
+export interface RedactionRequestResponse {
+  id: string;
+  lot: string;
+  seq: number;
+  kind: string;
+  requester: string;
+  note: string;
+  status: RedactionRequestStatus;
+  decidedBy: string | null;
+  decidedAt: string | null;
+  decisionNote: string | null;
+  createdAt: string;
+}
+
+function toRequestResponse(r: RedactionRequest, kind: string): RedactionRequestResponse {
+  return {
+    id: r.id,
+    lot: r.lot,
+    seq: r.seq,
+    kind,
+    requester: r.requester,
+    note: r.note,
+    status: r.status,
+    decidedBy: r.decidedBy,
+    decidedAt: r.decidedAt?.toISOString() ?? null,
+    decisionNote: r.decisionNote,
+    createdAt: r.createdAt.toISOString(),
+  };
+}
+
+function seqProblem(reason: string): AppError {
+  return AppError.validation([{ field: 'seq', reason }]);
+}
+
+/** Digests of every stored file an exhibit entry names (original and derivatives). */
+export function exhibitDigests(body: ExhibitAddedBody): string[] {
+  if (!('exhibit' in body)) return [];
+  return [body.exhibit.original.sha256, ...body.exhibit.derivatives.map((d) => d.sha256)];
+}
+
+/**
+ * Redaction: the registrar removes an entry's body (and an exhibit's files) through the
+ * ledger's one redaction path; the `redacted` entry names the entry and the reason, the
+ * digests stay and the roll still verifies. Holders may ask for their own entries.
+ */
+@Injectable()
+export class RedactionsService {
+  private readonly log = new Logger(RedactionsService.name);
+
+  constructor(
+    private readonly ledger: LedgerService,
+    private readonly reader: RollReaderService,
+    private readonly blocked: BlockedDigestsService,
+    private readonly record: RegistrarRecordService,
+    @InjectRepository(RedactionRequest) private readonly requests: Repository<RedactionRequest>,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
+  ) {}
+
+  private async codeOf(text: string): Promise<string> {
+    const code = RollReaderService.canonicalCode(text);
+    if (!code) throw AppError.validation([{ field: 'lot', reason: 'is not a lot code' }]);
+    if (!(await this.reader.findLot(code))) throw new AppError('not_found', 'No lot with this code.');
+    return code;
+  }
+
+  /** Removes the body of entry `seq` of `lotText`. Nothing changes when anything is refused. */
+  async redact(
+    registrar: string,
+    lotText: string,
+    seq: number,
+    reason: RedactionReason,
+    note: string | null,
+    requestId?: string,
+  ): Promise<RedactionResponse> {
+    const code = await this.codeOf(lotText);
+    const result = await this.ledger.withLots([code], async (tx) => {
+      const head = tx.state(code).head.seq;
+      if (seq > head) throw seqProblem(`lot ${code} has no entry ${seq} (its newest is ${head})`);
+      const lot = await this.reader.findLot(code, tx.manager);
+      const [target] = await this.reader.entries(lot!.id, { fromSeq: seq, limit: 1 }, tx.manager);
+      if (!target || target.seq !== seq) throw seqProblem(`lot ${code} has no entry ${seq}`);
+      if (target.body === null) throw seqProblem(`entry ${seq} is already redacted`);
+      let entry;
+      try {
+        entry = await tx.redact(code, registrar, seq, reason);
+      } catch (e) {
+        if (e instanceof AppError && e.code === 'roll_rule') throw seqProblem(e.message);
+        throw e;
+      }
+      const digests =
+        target.kind === 'exhibit-added' ? exhibitDigests(JSON.parse(target.body) as ExhibitAddedBody) : [];
+      await this.blocked.block(digests, { lot: code, seq, reason }, tx.manager);
+      await this.record.record(
+        {
+          actor: registrar,
+          action: 'redacted',
+          subject: `${code}/${seq}`,
+          reason: note,
+          details: { lot: code, seq, kind: target.kind, reason, redactionSeq: entry.seq, requestId },
+        },
+        tx.manager,
+      );
+      if (requestId) {
+        await tx.manager.getRepository(RedactionRequest).update(
+          { id: requestId, status: 'open' },
+          {
+            status: 'approved',
+            decidedBy: registrar,
+            decidedAt: new Date(),
+            decisionNote: note,
+          },
+        );
+      }
+      return { lot: code, seq, redactionSeq: entry.seq, reason, time: entry.time, blockedDigests: digests };
+    });
+    // Files go after the transaction commits: a failed commit must not lose a file still named.
+    // Blobs are named by their bytes, so a copy of the same file on another lot goes too: the
+    // bytes are blocked everywhere from now on.
+    for (const d of result.blockedDigests) await this.blobs.delete(d);
+    this.log.log(`redacted ${code} seq ${seq} (${reason})`);
+    return result;
+  }
+
+  /** A holder asks the registrar to remove one of the holder's own entries. */
+  async request(
+    requester: string,
+    lotText: string,
+    seq: number,
+    note: string,
+  ): Promise<RedactionRequestResponse> {
+    const code = await this.codeOf(lotText);
+    const lot = await this.reader.findLot(code);
+    const [target] = await this.reader.entries(lot!.id, { fromSeq: seq, limit: 1 });
+    if (!target || target.seq !== seq) throw seqProblem(`lot ${code} has no entry ${seq}`);
+    const rows: Array<{ holder: string }> = await this.requests.manager.query(
+      `SELECT "holder" FROM "lot_views" WHERE "code" = $1`,
+      [code],
+    );
+    if (rows[0]?.holder !== requester || target.actor !== requester)
+      throw new AppError('forbidden', 'Only the holder can ask for the removal of their own entries.');
+    if (target.body === null) throw seqProblem(`entry ${seq} is already redacted`);
+    const open = await this.requests.findOne({ where: { lot: code, seq, status: 'open' } });
+    if (open) throw new AppError('conflict', 'A request to remove this entry is already waiting.');
+    const saved = await this.requests.save(this.requests.create({ lot: code, seq, requester, note }));
+    return toRequestResponse(saved, target.kind);
+  }
+
+  async listRequests(status: RedactionRequestStatus): Promise<RedactionRequestResponse[]> {
+    const rows = await this.requests.find({ where: { status }, order: { createdAt: 'ASC' }, take: 500 });
+    const kinds = new Map<string, string>();
+    for (const r of rows) {
+      const lot = await this.reader.findLot(r.lot);
+      const [e] = lot ? await this.reader.entries(lot.id, { fromSeq: r.seq, limit: 1 }) : [];
+      kinds.set(r.id, e?.kind ?? 'unknown');
+    }
+    return rows.map((r) => toRequestResponse(r, kinds.get(r.id)!));
+  }
+
+  private async openRequest(id: string): Promise<RedactionRequest> {
+    const r = await this.requests.findOne({ where: { id } });
+    if (!r) throw new AppError('not_found', 'No such redaction request.');
+    if (r.status !== 'open') throw new AppError('conflict', `This request was already ${r.status}.`);
+    return r;
+  }
+
+  async approve(registrar: string, id: string, note: string | null): Promise<RedactionResponse> {
+    const r = await this.openRequest(id);
+    return this.redact(registrar, r.lot, r.seq, 'holder-request', note, r.id);
+  }
+
+  async decline(registrar: string, id: string, note: string): Promise<RedactionRequestResponse> {
+    const r = await this.openRequest(id);
+    return this.requests.manager.transaction(async (m) => {
+      r.status = 'declined';
+      r.decidedBy = registrar;
+      r.decidedAt = new Date();
+      r.decisionNote = note;
+      await m.getRepository(RedactionRequest).save(r);
+      await this.record.record(
+        {
+          actor: registrar,
+          action: 'redaction-declined',
+          subject: `${r.lot}/${r.seq}`,
+          reason: note,
+          details: { lot: r.lot, seq: r.seq, requestId: r.id },
+        },
+        m,
+      );
+      return toRequestResponse(r, 'unknown');
+    });
+  }
+}

@@ -1,0 +1,36 @@
+import { Controller, Get, Query, Res } from '@nestjs/common';
+import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import { Roles } from '../auth/auth.decorators';
+import { ActionsQueryDto, ExportQueryDto } from './dto/registry-tools.dto';
+import { type RegistrarActionResponse, RegistrarRecordService } from './registrar-record.service';
+
+@ApiTags('registry')
+@Roles('registrar')
+@Controller('registry/actions')
+export class RegistrarRecordController {
+  constructor(private readonly record: RegistrarRecordService) {}
+
+  @Get()
+  @ApiOperation({ summary: 'The registrar’s record of decisions, newest first' })
+  list(
+    @Query() q: ActionsQueryDto,
+  ): Promise<{ items: RegistrarActionResponse[]; total: number; page: number; pageSize: number }> {
+    return this.record.list(q);
+  }
+
+  @Get('export')
+  @ApiOperation({ summary: 'The whole record as a file, oldest first (JSON or CSV)' })
+  @ApiProduces('application/json', 'text/csv')
+  async export(@Query() q: ExportQueryDto, @Res() res: Response): Promise<void> {
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('Content-Disposition', `attachment; filename="registrar-record.${q.format}"`);
+    if (q.format === 'csv') {
+      res.type('text/csv; charset=utf-8').send(await this.record.csv());
+    } else {
+      res
+        .type('application/json; charset=utf-8')
+        .send(JSON.stringify({ actions: await this.record.all() }, null, 2));
+    }
+  }
+}

@@ -1,0 +1,59 @@
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  ParseUUIDPipe,
+  Post,
+  Query,
+  UseGuards,
+} from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, type Principal, Public, Roles } from '../auth/auth.decorators';
+import { RateLimitGuard } from '../auth/rate-limit.guard';
+import { CloseReportDto, ReportDto, ReportQueryDto } from './dto/registry-tools.dto';
+import { type ReportResponse, ReportsService } from './reports.service';
+
+@ApiTags('public')
+@Controller('public/lots')
+export class PublicReportsController {
+  constructor(private readonly reports: ReportsService) {}
+
+  @Public()
+  @UseGuards(RateLimitGuard)
+  @Post(':code/reports')
+  @HttpCode(202)
+  @ApiOperation({ summary: 'Report a problem with a listed lot’s public page' })
+  file(@Param('code') code: string, @Body() dto: ReportDto): Promise<{ id: string; message: string }> {
+    return this.reports.file(code, dto);
+  }
+}
+
+@ApiTags('registry')
+@Roles('registrar')
+@Controller('registry/reports')
+export class ReportsController {
+  constructor(private readonly reports: ReportsService) {}
+
+  @Get()
+  @ApiOperation({ summary: 'Reports from public pages, by status' })
+  list(
+    @Query() q: ReportQueryDto,
+  ): Promise<{ items: ReportResponse[]; total: number; page: number; pageSize: number }> {
+    return this.reports.list(q);
+  }
+
+  @Post(':id/close')
+  @HttpCode(200)
+  @ApiOperation({
+    summary: 'Close a report with an answer (e-mailed to the reporter if they left an address)',
+  })
+  close(
+    @CurrentAccount() me: Principal,
+    @Param('id', ParseUUIDPipe) id: string,
+    @Body() dto: CloseReportDto,
+  ): Promise<ReportResponse> {
+    return this.reports.close(me.id, id, dto.resolution);
+  }
+}

@@ -1,0 +1,116 @@
+import { request as httpRequest } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import request from 'supertest';
+import { createAccount, type TestAccount } from './support/accounts';
+import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
+import { leftovers, rollOf, storedBlobs, upload } from './support/exhibit-http';
+import { description } from './support/lot-fixtures';
+import { createTestApp, type TestApp } from './support/test-app';
+
+// Small limits so that a test file can go over them: 64 KiB per file, 2000 bytes per account.
+const MAX_BYTES = 64 * 1024;
+const QUOTA = 2000;
+
+let t: TestApp;
+let dealer: TestAccount;
+let code: string;
+
+beforeAll(async () => {
+  t = await createTestApp({ EXHIBIT_MAX_BYTES: String(MAX_BYTES), EXHIBIT_QUOTA_BYTES: String(QUOTA) });
+  dealer = await createAccount(t, { role: 'dealer' });
+  const res = await dealer.agent
+    .post('/api/lots')
+    .set('X-Beadroll-Request', '1')
+    .send({ description: description() })
+    .expect(201);
+  code = (res.body as { code: string }).code;
+}, 60_000);
+afterAll(() => t?.close());
+
+async function until(check: () => boolean, ms = 5000): Promise<void> {
+  const end = Date.now() + ms;
+  while (!check() && Date.now() < end) await new Promise((r) => setTimeout(r, 50));
+}
+
+it('refuses a file over the size limit with 413, naming the limit, and keeps nothing', async () => {
+  // A photo padded past the limit.
+  const big = Buffer.concat([await jpegWithGps(), Buffer.alloc(MAX_BYTES + 1, 0x41)]);
+  const entries = (await rollOf(dealer.agent, code)).length;
+  const res = await upload(dealer.agent, code, big).expect(413);
+  expect(res.body.error).toMatchObject({
+    code: 'payload_too_large',
+    fields: [{ field: 'file', reason: `is over the limit of ${MAX_BYTES} bytes` }],
+  });
+  expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+  expect(storedBlobs(t)).toEqual([]);
+  await until(() => leftovers(t).length === 0);
+  expect(leftovers(t)).toEqual([]);
+});
+
+it('removes the temporary file when the client goes away mid-upload, and adds no entry', async () => {
+  const server = t.app.getHttpServer();
+  if (!server.listening) await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const { port } = server.address() as AddressInfo;
+  const signIn = await request(server)
+    .post('/api/auth/sign-in')
+    .set('X-Beadroll-Request', '1')
+    .send({ email: dealer.email, password: dealer.password })
+    .expect(200);
+  const cookie = (signIn.headers['set-cookie'] as unknown as string[]).map((c) => c.split(';')[0]).join('; ');
+  const entries = (await rollOf(dealer.agent, code)).length;
+
+  const boundary = 'exhibit-abort-boundary';
+  const head = Buffer.from(
+    `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nclose-up\r\n` +
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="a.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`,
+  );
+  const req = httpRequest({
+    host: '127.0.0.1',
+    port,
+    method: 'POST',
+    path: `/api/lots/${code}/exhibits`,
+    headers: {
+      cookie,
+      'x-beadroll-request': '1',
+      'content-type': `multipart/form-data; boundary=${boundary}`,
+      'content-length': String(head.length + 60_000),
+    },
+  });
+  req.on('error', () => undefined);
+  req.write(head);
+  req.write(Buffer.alloc(30_000, 0x42));
+  // Multer has started the temporary file by now; then the connection drops.
+  await until(() => leftovers(t).length > 0, 3000);
+  req.destroy();
+  await until(() => leftovers(t).length === 0);
+  expect(leftovers(t)).toEqual([]);
+  expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+});
+
+it('stops an account at its storage quota, with a 413 naming the allowance', async () => {
+  // A 120 × 80 PNG keeps well under 2000 bytes with its two JPEG derivatives (about 1100).
+  const png = await imageOf('png');
+  const first = await upload(dealer.agent, code, png, { kind: 'hole' }).expect(201);
+  const used =
+    (first.body.exhibit.original.size as number) +
+    (first.body.exhibit.derivatives as Array<{ size: number }>).reduce((n, d) => n + d.size, 0);
+  expect(used).toBeLessThanOrEqual(QUOTA);
+  expect(used * 2).toBeGreaterThan(QUOTA);
+  const entries = (await rollOf(dealer.agent, code)).length;
+  const res = await upload(dealer.agent, code, png, { kind: 'hole' }).expect(413);
+  expect(res.body.error).toMatchObject({
+    code: 'payload_too_large',
+    fields: [{ field: 'file', reason: expect.stringMatching(`the allowance is ${QUOTA} bytes`) }],
+  });
+  expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+  expect(leftovers(t)).toEqual([]);
+
+  // The quota is per account: another dealer still has all of theirs.
+  const second = await createAccount(t, { role: 'dealer' });
+  const lot = await second.agent
+    .post('/api/lots')
+    .set('X-Beadroll-Request', '1')
+    .send({ description: description() })
+    .expect(201);
+  await upload(second.agent, (lot.body as { code: string }).code, png, { kind: 'hole' }).expect(201);
+});

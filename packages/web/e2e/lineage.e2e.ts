@@ -1,0 +1,103 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as { password: string; accounts: Array<{ role: string; email: string; handle: string }> };
+const ines = demo.accounts.find((a) => a.handle === 'ines-calloway-rue')!;
+
+describe('splitting a strand in Chromium', () => {
+  let browser: Browser;
+  const baseUrl = inject('baseUrl');
+  beforeAll(async () => {
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser.close();
+  });
+
+  it('splits a strand into two and shows the ancestry on a new lot’s dealer and public pages', async () => {
+    const { page } = browser;
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto(`${baseUrl}/sign-in`);
+    await page.getByRole('textbox', { name: 'E-mail address' }).fill(ines.email);
+    await page.getByLabel('Password').fill(demo.password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+
+    // A fresh strand to split, registered through the API as the signed-in dealer.
+    const code = await page.evaluate(async () => {
+      const res = await fetch('/api/lots', {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
+        body: JSON.stringify({
+          description: {
+            title: 'Green striped wound beads',
+            form: 'strand',
+            count: { value: 40, estimated: false },
+            colours: ['green', 'yellow'],
+            baseGlass: ['opaque'],
+            decoration: ['trailing'],
+            listed: true,
+          },
+        }),
+      });
+      return ((await res.json()) as { code: string }).code;
+    });
+
+    await page.goto(`${baseUrl}/lots/${code}`);
+    await page.getByRole('button', { name: 'Split', exact: true }).click();
+    const dialog = page.getByRole('dialog', { name: /Split lot/ });
+    const counts = dialog.getByRole('spinbutton', { name: 'Beads' });
+    await counts.nth(0).fill('25');
+    await counts.nth(1).fill('20');
+    await dialog.getByText('The new lots hold 45 beads; the lot has 40.').waitFor();
+    await counts.nth(1).fill('10');
+    await dialog.getByText('5 beads stay with this lot.').waitFor();
+    await screenshot(page, 'lineage-split-dialog-1280');
+    await dialog.getByRole('button', { name: 'Split', exact: true }).click();
+    const done = dialog.getByText(/^Split into /);
+    await done.waitFor();
+    const childDisplay = /Split into ([0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z])/.exec(
+      (await done.textContent()) ?? '',
+    )![1]!;
+    await dialog.getByRole('button', { name: 'Close' }).click();
+
+    // The new lot's page shows where its beads came from, the parent box linking to its page.
+    await page.goto(`${baseUrl}/lots/${childDisplay.replace(/-/g, '')}`);
+    const diagram = page.getByRole('group', { name: /Where the beads of lot/ });
+    await diagram.waitFor();
+    const parentLink = diagram.getByRole('link', { name: /Green striped wound beads/ });
+    expect(await parentLink.getAttribute('href')).toBe(`/lots/${code}`);
+    await screenshot(page, 'lineage-child-1280');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await screenshot(page, 'lineage-child-390');
+    await page.setViewportSize({ width: 1280, height: 900 });
+
+    // The new lot's public page draws its ancestry from the verified bundle, the parent linked.
+    const childCode = childDisplay.replace(/-/g, '');
+    await page.goto(`${baseUrl}/l/${childCode}`);
+    const tree = page.getByRole('region', { name: 'Where the beads came from and went' });
+    await tree.waitFor();
+    const parentDisplay = `${code.slice(0, 4)}-${code.slice(4, 8)}-${code.slice(8)}`;
+    expect(await tree.getByRole('link', { name: parentDisplay }).getAttribute('href')).toBe(`/l/${code}`);
+    await screenshot(page, 'lineage-child-public-1280');
+
+    // The public data of the new lot carries the parent's roll, and it verifies.
+    const pub = await page.evaluate(
+      async (c) => {
+        const res = await fetch(`/api/public/lots/${c}`);
+        return (await res.json()) as { bundle: { rolls: Array<{ lot: string; scope: string }> } };
+      },
+      childDisplay.replace(/-/g, ''),
+    );
+    expect(pub.bundle.rolls.map((r) => [r.lot, r.scope])).toEqual([
+      [childDisplay.replace(/-/g, ''), 'full'],
+      [code, 'full'],
+    ]);
+    expect(errors).toEqual([]);
+  });
+});

@@ -1,0 +1,11 @@
+import type { LotActionContext } from '../lots/lot-actions';
+
+/**
+ * Whether the viewer may add evidence to the lot on its page: a verified dealer or assessor who
+ * holds it, or anyone such on a listed lot (the roll's rule for `exhibit-added`).
+ */
+export function mayAddExhibits(ctx: LotActionContext): boolean {
+  const v = ctx.viewer;
+  if (!v || v.status !== 'verified' || (v.role !== 'dealer' && v.role !== 'assessor')) return false;
+  return ctx.state.holder === v.id || ctx.state.listed;
+}

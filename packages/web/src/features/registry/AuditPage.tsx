@@ -1,0 +1,149 @@
+import {
+  Button,
+  makeStyles,
+  MessageBar,
+  MessageBarBody,
+  ProgressBar,
+  Field,
+  Table,
+  TableBody,
+  TableCell,
+  TableHeader,
+  TableHeaderCell,
+  TableRow,
+  Text,
+  Title2,
+  tokens,
+} from '@fluentui/react-components';
+import { formatLotCode } from '@beadroll/core';
+import { useRef, useState } from 'react';
+import { runAudit, type AuditEvent } from './registry.api';
+import { RegistrarOnly } from './RegistrarOnly';
+
+const useStyles = makeStyles({
+  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '960px' },
+  scroller: { overflowX: 'auto' },
+  sub: { color: tokens.colorNeutralForeground3 },
+});
+
+type Broken = Extract<AuditEvent, { type: 'broken' }>;
+type Done = Extract<AuditEvent, { type: 'done' }>;
+
+/** The full-ledger audit as a page: progress while every roll is verified, then the broken ones. */
+export function AuditPage() {
+  return (
+    <RegistrarOnly>
+      <Audit />
+    </RegistrarOnly>
+  );
+}
+
+function Audit() {
+  const styles = useStyles();
+  const [running, setRunning] = useState(false);
+  const [progress, setProgress] = useState<{
+    lotsChecked: number;
+    lots: number;
+    entriesChecked: number;
+  } | null>(null);
+  const [broken, setBroken] = useState<Broken[]>([]);
+  const [done, setDone] = useState<Done | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const abort = useRef<AbortController | null>(null);
+
+  const start = async () => {
+    abort.current = new AbortController();
+    setRunning(true);
+    setBroken([]);
+    setDone(null);
+    setError(null);
+    setProgress(null);
+    try {
+      await runAudit((e) => {
+        if (e.type === 'start') setProgress({ lotsChecked: 0, lots: e.lots, entriesChecked: 0 });
+        else if (e.type === 'progress') setProgress(e);
+        else if (e.type === 'broken') setBroken((b) => [...b, e]);
+        else setDone(e);
+      }, abort.current.signal);
+    } catch (e) {
+      if ((e as Error).name !== 'AbortError') setError((e as Error).message);
+    } finally {
+      setRunning(false);
+    }
+  };
+
+  const share =
+    progress && progress.lots > 0 ? progress.lotsChecked / progress.lots : running ? undefined : 0;
+  return (
+    <section className={styles.page} aria-labelledby="audit-title">
+      <Title2 as="h1" id="audit-title">
+        Full-ledger audit
+      </Title2>
+      <Text className={styles.sub}>
+        Verifies every roll in the database from its first entry: hashes, links between entries, the rules of
+        each entry, parent links of split and combined lots, and that each lot’s stored head is its last
+        entry.
+      </Text>
+      <div>
+        {running ? (
+          <Button onClick={() => abort.current?.abort()}>Stop</Button>
+        ) : (
+          <Button appearance="primary" onClick={() => void start()}>
+            {done ? 'Run the audit again' : 'Run the audit'}
+          </Button>
+        )}
+      </div>
+      {(running || progress) && (
+        <Field
+          label="Progress"
+          validationState="none"
+          validationMessage={
+            progress
+              ? `${progress.lotsChecked} of ${progress.lots} lots checked, ${progress.entriesChecked} entries`
+              : 'Starting…'
+          }
+        >
+          <ProgressBar value={share} max={1} aria-label="Lots checked" />
+        </Field>
+      )}
+      {error && (
+        <MessageBar intent="error">
+          <MessageBarBody>{error}</MessageBarBody>
+        </MessageBar>
+      )}
+      {done && (
+        <MessageBar intent={done.ok ? 'success' : 'error'} role="status">
+          <MessageBarBody>
+            {done.ok
+              ? `Every roll is intact: ${done.lotsChecked} lots, ${done.entriesChecked} entries.`
+              : `${done.broken} of ${done.lotsChecked} rolls are broken.`}
+          </MessageBarBody>
+        </MessageBar>
+      )}
+      {broken.length > 0 && (
+        <div className={styles.scroller}>
+          <Table aria-label="Broken rolls">
+            <TableHeader>
+              <TableRow>
+                <TableHeaderCell>Lot</TableHeaderCell>
+                <TableHeaderCell>First bad entry</TableHeaderCell>
+                <TableHeaderCell>Reason</TableHeaderCell>
+                <TableHeaderCell>Detail</TableHeaderCell>
+              </TableRow>
+            </TableHeader>
+            <TableBody>
+              {broken.map((b) => (
+                <TableRow key={b.lot}>
+                  <TableCell>{formatLotCode(b.lot)}</TableCell>
+                  <TableCell>{b.seq}</TableCell>
+                  <TableCell>{b.reason}</TableCell>
+                  <TableCell>{b.message}</TableCell>
+                </TableRow>
+              ))}
+            </TableBody>
+          </Table>
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,111 @@
+import {
+  Button,
+  Field,
+  Input,
+  Link,
+  makeStyles,
+  MessageBar,
+  MessageBarBody,
+  Text,
+  Title2,
+  Title3,
+  tokens,
+} from '@fluentui/react-components';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Navigate } from 'react-router-dom';
+import { useSession } from '../accounts/accounts.api';
+import { fieldError, FormError } from '../accounts/FormPage';
+import { registryToolsApi } from './registry.api';
+
+const useStyles = makeStyles({
+  page: { display: 'grid', gap: tokens.spacingVerticalXL, maxWidth: '40rem' },
+  block: { display: 'grid', gap: tokens.spacingVerticalM },
+});
+
+/** A dealer's own data: download everything Beadroll holds about them, or close the account. */
+export function MyDataPage() {
+  const styles = useStyles();
+  const client = useQueryClient();
+  const { account, isLoading } = useSession();
+  const [password, setPassword] = useState('');
+  const [confirming, setConfirming] = useState(false);
+  const close = useMutation({
+    mutationFn: () => registryToolsApi.closeAccount(password),
+    onSuccess: () => client.invalidateQueries({ queryKey: ['session'] }),
+  });
+  if (close.isSuccess) {
+    return (
+      <MessageBar intent="success" role="status">
+        <MessageBarBody>
+          Your account is closed. Thank you for keeping lots’ histories with Beadroll.
+        </MessageBarBody>
+      </MessageBar>
+    );
+  }
+  if (isLoading) return <Text>Loading…</Text>;
+  if (!account) return <Navigate to="/sign-in?next=/account/data" replace />;
+  return (
+    <section className={styles.page} aria-labelledby="data-title">
+      <Title2 as="h1" id="data-title">
+        Your data
+      </Title2>
+      <div className={styles.block}>
+        <Title3 as="h2">Download</Title3>
+        <Text>
+          One JSON file with everything Beadroll holds about your account: your details, sign-ins, every entry
+          you wrote on any roll, the private details only you can see, and the registrar’s decisions about
+          you.
+        </Text>
+        <Link href="/api/account/personal-data" download>
+          Download my data
+        </Link>
+      </div>
+      {account.role !== 'registrar' && (
+        <div className={styles.block}>
+          <Title3 as="h2">Close your account</Title3>
+          <Text>
+            Your name, business and contact details are removed and the private details you recorded for
+            yourself are deleted. The entries you wrote stay on their lots’ rolls under an anonymous account
+            number, so every history still checks out; public pages show them as written by a former dealer.
+            Open offers lapse. This cannot be undone.
+          </Text>
+          {confirming ? (
+            <form
+              className={styles.block}
+              noValidate
+              onSubmit={(e) => {
+                e.preventDefault();
+                close.mutate();
+              }}
+            >
+              <Field
+                label="Your password, to confirm"
+                required
+                validationMessage={fieldError(close.error, 'password')}
+              >
+                <Input
+                  type="password"
+                  autoComplete="current-password"
+                  value={password}
+                  onChange={(_, d) => setPassword(d.value)}
+                />
+              </Field>
+              <FormError error={close.error} />
+              <div>
+                <Button appearance="primary" type="submit" disabled={close.isPending}>
+                  Close my account for good
+                </Button>{' '}
+                <Button onClick={() => setConfirming(false)}>Keep my account</Button>
+              </div>
+            </form>
+          ) : (
+            <div>
+              <Button onClick={() => setConfirming(true)}>Close my account…</Button>
+            </div>
+          )}
+        </div>
+      )}
+    </section>
+  );
+}

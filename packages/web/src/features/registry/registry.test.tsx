@@ -1,0 +1,195 @@
+import { render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { Providers, routes } from '../../app/App';
+import type { Me } from '../accounts/accounts.api';
+import { ReportProblem } from './ReportProblem';
+
+beforeEach(() =>
+  vi.stubGlobal(
+    'ResizeObserver',
+    class {
+      observe() {}
+      unobserve() {}
+      disconnect() {}
+    },
+  ),
+);
+afterEach(() => vi.unstubAllGlobals());
+
+const registrar: Me = {
+  id: '6f1c1f7e-8a55-4b43-9a43-000000000001',
+  role: 'registrar',
+  status: 'verified',
+  handle: 'registry-desk',
+  displayName: 'Juno Pellarin',
+  email: 'juno@example.test',
+  business: 'Registry',
+  town: 'Kestrel Ford',
+  country: 'Valdaria',
+  emailVerified: true,
+  verifiedSince: '2025-03-01T09:00:00Z',
+  statusReason: null,
+  createdAt: '2025-03-01T09:00:00Z',
+};
+
+function json(status: number, body: unknown) {
+  return new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+}
+
+function client() {
+  return new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
+}
+
+describe('report a problem (public page)', () => {
+  it('opens from the link, checks the form before sending, and sends category, text and address', async () => {
+    const calls: Array<{ url: string; body: string }> = [];
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string, init?: RequestInit) => {
+        calls.push({ url, body: String(init?.body) });
+        return json(202, { id: 'r1', message: 'Thank you. The registrar will look at your report.' });
+      }),
+    );
+    const user = userEvent.setup();
+    render(
+      <QueryClientProvider client={client()}>
+        <ReportProblem code="7K2QM9XAT" />
+      </QueryClientProvider>,
+    );
+    await user.click(screen.getByRole('button', { name: 'Report a problem with this page' }));
+    await user.click(screen.getByRole('button', { name: 'Send the report' }));
+    expect(screen.getByText('Choose what the problem is.')).toBeInTheDocument();
+    expect(screen.getByText('Say what is wrong, in a few words.')).toBeInTheDocument();
+    expect(calls).toHaveLength(0);
+
+    await user.click(screen.getByRole('radio', { name: 'Suspected counterfeit or imitation' }));
+    await user.type(screen.getByLabelText('What is wrong'), 'The holes are drilled, not wound.');
+    await user.type(screen.getByLabelText(/Your e-mail address/), 'buyer@example.test');
+    await user.click(screen.getByRole('button', { name: 'Send the report' }));
+    expect(await screen.findByRole('status')).toHaveTextContent('The registrar will look at your report.');
+    expect(calls[0]!.url).toBe('/api/public/lots/7K2QM9XAT/reports');
+    expect(JSON.parse(calls[0]!.body)).toEqual({
+      category: 'counterfeit',
+      text: 'The holes are drilled, not wound.',
+      email: 'buyer@example.test',
+    });
+  });
+
+  it('shows the server’s reason beside the field it names', async () => {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () =>
+        json(400, {
+          error: {
+            code: 'validation',
+            message: 'x',
+            fields: [{ field: 'email', reason: 'must be an e-mail address' }],
+          },
+        }),
+      ),
+    );
+    const user = userEvent.setup();
+    render(
+      <QueryClientProvider client={client()}>
+        <ReportProblem code="7K2QM9XAT" />
+      </QueryClientProvider>,
+    );
+    await user.click(screen.getByRole('button', { name: 'Report a problem with this page' }));
+    await user.click(screen.getByRole('radio', { name: 'Something else' }));
+    await user.type(screen.getByLabelText('What is wrong'), 'Entry 3 names my street.');
+    await user.type(screen.getByLabelText(/Your e-mail address/), 'nope');
+    await user.click(screen.getByRole('button', { name: 'Send the report' }));
+    expect(await screen.findByText('must be an e-mail address')).toBeInTheDocument();
+  });
+});
+
+describe('registrar pages', () => {
+  function serve(extra: (url: string) => Response | undefined) {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string) => {
+        if (url === '/api/auth/session') return json(200, { account: registrar });
+        return extra(url) ?? json(404, { error: { code: 'not_found', message: 'Not found.' } });
+      }),
+    );
+  }
+  function open(path: string) {
+    const router = createMemoryRouter(routes, { initialEntries: [path] });
+    render(
+      <Providers client={client()}>
+        <RouterProvider router={router} />
+      </Providers>,
+    );
+  }
+
+  it('runs the audit with progress and lists the broken rolls', async () => {
+    const lines = [
+      { type: 'start', lots: 3, startedAt: '2026-05-01T10:00:00Z' },
+      {
+        type: 'broken',
+        lot: '7K2QM9XAT',
+        seq: 2,
+        reason: 'bad-body-digest',
+        message: 'the body does not match',
+      },
+      { type: 'progress', lotsChecked: 3, lots: 3, entriesChecked: 11 },
+      {
+        type: 'done',
+        lotsChecked: 3,
+        entriesChecked: 11,
+        broken: 1,
+        ok: false,
+        finishedAt: '2026-05-01T10:00:01Z',
+      },
+    ];
+    serve((url) =>
+      url === '/api/audit/ledger'
+        ? new Response(lines.map((l) => JSON.stringify(l)).join('\n') + '\n', {
+            headers: { 'Content-Type': 'application/x-ndjson' },
+          })
+        : undefined,
+    );
+    const user = userEvent.setup();
+    open('/registry/audit');
+    await user.click(await screen.findByRole('button', { name: 'Run the audit' }));
+    expect(await screen.findByText('1 of 3 rolls are broken.')).toBeInTheDocument();
+    expect(screen.getByText('3 of 3 lots checked, 11 entries')).toBeInTheDocument();
+    const table = screen.getByRole('table', { name: 'Broken rolls' });
+    expect(within(table).getByText('7K2Q-M9XA-T')).toBeInTheDocument();
+    expect(within(table).getByText('bad-body-digest')).toBeInTheDocument();
+  });
+
+  it('shows the report queue as a table with status', async () => {
+    serve((url) =>
+      url.startsWith('/api/registry/reports')
+        ? json(200, {
+            items: [
+              {
+                id: 'r1',
+                lot: '7K2QM9XAT',
+                category: 'wrong-attribution',
+                text: 'These are later copies.',
+                answerWanted: false,
+                reporterEmail: null,
+                status: 'open',
+                resolution: null,
+                closedAt: null,
+                createdAt: '2026-05-01T10:00:00Z',
+              },
+            ],
+            total: 1,
+            page: 1,
+            pageSize: 20,
+          })
+        : undefined,
+    );
+    open('/registry/reports');
+    const table = await screen.findByRole('table', { name: 'Reports' });
+    expect(await within(table).findByText('These are later copies.')).toBeInTheDocument();
+    expect(within(table).getByText('Wrong attribution claim')).toBeInTheDocument();
+    expect(within(table).getByText('Open')).toBeInTheDocument();
+  });
+});
