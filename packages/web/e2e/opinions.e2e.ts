@@ -72,33 +72,38 @@ describe('opinions in Chromium', () => {
     });
     expect(mine.status()).toBe(201);
 
-    // A second dealer opens the lot's opinions and drafts a dissent; the aid reacts as fields change.
+    // A second dealer opens the lot page and drafts a dissent; the aid reacts as fields change.
     await signIn(page, baseUrl, second.email);
-    await page.goto(`${baseUrl}/lots/${code}/opinions`);
+    await page.goto(`${baseUrl}/lots/${code}`);
     await page.getByRole('article', { name: /Holder’s attribution by Odile Varnas/ }).waitFor();
-    await page.getByRole('button', { name: 'Record an opinion' }).click();
-    const indications = page.getByRole('list', { name: 'Indications' });
-    await indications
+    await page
+      .getByRole('group', { name: 'Actions' })
+      .getByRole('button', { name: 'Record an opinion' })
+      .click();
+    const dialog = page.getByRole('dialog');
+    await dialog
+      .getByRole('list', { name: 'Indications' })
       .getByText(/release/)
       .first()
       .waitFor();
-    await expect(page.getByRole('note').textContent()).resolves.toMatch(/aid, not an authentication/);
-    await page.getByRole('combobox', { name: /^Origin/ }).selectOption('india');
-    await page.getByRole('textbox', { name: /^From year/ }).fill('1985');
-    await page.getByRole('textbox', { name: /^To year/ }).fill('2015');
-    await page.getByRole('combobox', { name: /^Certainty/ }).selectOption('later-copy');
-    await page
+    await expect(dialog.getByRole('note').textContent()).resolves.toMatch(/aid, not an authentication/);
+    await dialog.getByRole('combobox', { name: /^Origin/ }).selectOption('india');
+    await dialog.getByRole('textbox', { name: /^From year/ }).fill('1985');
+    await dialog.getByRole('textbox', { name: /^To year/ }).fill('2015');
+    await dialog.getByRole('combobox', { name: /^Certainty/ }).selectOption('later-copy');
+    await dialog
       .getByRole('textbox', { name: /^Rationale/ })
       .fill('Grey powder in the holes: wound on a release-coated mandrel. The roses are heavy and bright.');
     await screenshot(page, 'opinions-form-1280');
-    await page.getByRole('button', { name: 'Record opinion' }).click();
+    await dialog.getByRole('button', { name: 'Record opinion' }).click();
+    await dialog.waitFor({ state: 'detached' });
     const dissent = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
     await dissent.waitFor();
     await page.getByText('1 dissent from the holder’s attribution.').waitFor();
 
     // The holder sees the dissent beside the attribution on the lot's page, answers it, and has the e-mail.
     await signIn(page, baseUrl, holder.email);
-    await page.goto(`${baseUrl}/lots/${code}/opinions`);
+    await page.goto(`${baseUrl}/lots/${code}`);
     const seen = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
     await seen.waitFor();
     expect(await seen.textContent()).toContain('India, about 1985–2015');

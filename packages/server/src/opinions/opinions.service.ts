@@ -258,7 +258,7 @@ export class OpinionsService {
       this.accounts.findOne({ where: { id: authorId } }),
     ]);
     if (!to) return;
-    const url = `${this.config.publicBaseUrl}/lots/${code}/opinions`;
+    const url = `${this.config.publicBaseUrl}/lots/${code}`;
     await this.mail.send(
       to.email,
       opinionLetters.newDissent(

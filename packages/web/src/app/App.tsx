@@ -23,7 +23,6 @@ import { MyDataPage } from '../features/registry/MyDataPage';
 import { RecordPage } from '../features/registry/RecordPage';
 import { RedactionsPage } from '../features/registry/RedactionsPage';
 import { ReportsPage } from '../features/registry/ReportsPage';
-import { OpinionsPage } from '../features/opinions/OpinionsPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -69,7 +68,6 @@ export const routes: RouteObject[] = [
       { path: 'registry/record', element: <RecordPage /> },
       { path: 'registry/audit', element: <AuditPage /> },
       { path: 'account/data', element: <MyDataPage /> },
-      { path: 'lots/:code/opinions', element: <OpinionsPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {
         path: 'scan',

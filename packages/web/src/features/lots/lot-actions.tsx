@@ -8,6 +8,8 @@ import { mayAddExhibits } from '../exhibits/exhibits-panel';
 import { AncestryPanel } from '../lineage/AncestryPanel';
 import { CombineDialog } from '../lineage/CombineDialog';
 import { SplitDialog } from '../lineage/SplitDialog';
+import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
+import { OpinionsPanel } from '../opinions/OpinionsPanel';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -96,10 +98,25 @@ export const LOT_ACTIONS: LotAction[] = [
     visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
     render: (ctx) => <CombineDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
   },
+  {
+    id: 'opinion',
+    label: 'Record an opinion',
+    visible: mayRecordOpinion,
+    render: (ctx) => <OpinionAction {...ctx} />,
+  },
 ];
 
 /** Sections of the lot page, in order. Features add one line each. */
 export const LOT_PANELS: LotPanel[] = [
   { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={mayAddExhibits(ctx)} /> },
+  {
+    id: 'opinions',
+    render: (ctx) => (
+      <OpinionsPanel
+        code={ctx.code}
+        viewer={ctx.viewer && { id: ctx.viewer.id, canWrite: ctx.viewer.status === 'verified' }}
+      />
+    ),
+  },
   { id: 'ancestry', render: (ctx) => <AncestryPanel code={ctx.code} /> },
 ];

@@ -26,8 +26,8 @@ import {
   type Technique,
 } from '@beadroll/core';
 import { useMemo, useState } from 'react';
-import { api } from '../../lib/api';
 import { fieldError, FormError } from '../accounts/FormPage';
+import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';
 import { CONFIDENCE_LABELS, ORIGIN_LABELS, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
@@ -53,23 +53,18 @@ interface ExhibitChoice {
   label: string;
 }
 
-const exhibitsQuery = (code: string) => ({
-  queryKey: ['lots', 'detail', code, 'exhibits-on-roll'],
-  queryFn: async (): Promise<ExhibitChoice[]> => {
-    const roll = await api<{ entries: Array<{ seq: number; kind: string; body: string | null }> }>(
-      `/api/lots/${encodeURIComponent(code)}/roll`,
-    );
-    const out: ExhibitChoice[] = [];
-    for (const e of roll.entries) {
-      if (e.kind !== 'exhibit-added' || !e.body) continue;
-      const b = JSON.parse(e.body) as ExhibitAddedBody;
-      if (!('exhibit' in b)) continue;
-      const caption = b.exhibit.caption ? `: ${b.exhibit.caption}` : '';
-      out.push({ sha256: b.exhibit.original.sha256, label: `Entry ${e.seq}, ${b.exhibit.kind}${caption}` });
-    }
-    return out;
-  },
-});
+/** The exhibits on the roll that an opinion can cite (named by the SHA-256 of the original). */
+function exhibitsOnRoll(roll: RawRoll): ExhibitChoice[] {
+  const out: ExhibitChoice[] = [];
+  for (const e of roll.entries) {
+    if (e.kind !== 'exhibit-added' || !e.body) continue;
+    const b = JSON.parse(e.body) as ExhibitAddedBody;
+    if (!('exhibit' in b)) continue;
+    const caption = b.exhibit.caption ? `: ${b.exhibit.caption}` : '';
+    out.push({ sha256: b.exhibit.original.sha256, label: `Entry ${e.seq}, ${b.exhibit.kind}${caption}` });
+  }
+  return out;
+}
 
 function yearOrNull(text: string): number | null {
   return /^-?\d{1,4}$/.test(text.trim()) ? Number(text.trim()) : null;
@@ -104,7 +99,7 @@ export function OpinionForm({
   const [confidence, setConfidence] = useState<Confidence>('medium');
   const [rationale, setRationale] = useState('');
   const [cited, setCited] = useState<string[]>([]);
-  const exhibits = useQuery(exhibitsQuery(code));
+  const exhibits = useQuery({ ...lotsQueries.roll(code), select: exhibitsOnRoll });
 
   const fromYear = yearOrNull(from);
   const toYear = yearOrNull(to);
@@ -143,7 +138,7 @@ export function OpinionForm({
         exhibits: cited,
       }),
     onSuccess: async (r) => {
-      await client.invalidateQueries({ queryKey: ['lots', 'detail', code] });
+      await client.invalidateQueries({ queryKey: ['lots'] });
       onDone?.(r);
     },
   });

@@ -94,7 +94,7 @@ function OpinionCard({
   const [text, setText] = useState('');
   const done = (r: { opinions: LotOpinions }) => {
     client.setQueryData(opinionsQuery(code).queryKey, r.opinions);
-    void client.invalidateQueries({ queryKey: ['lots', 'detail', code] });
+    void client.invalidateQueries({ queryKey: ['lots'] });
   };
   const withdraw = useMutation({
     mutationFn: () => opinionsApi.withdraw(code, opinion.seq),

@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { Decoration, LotDescription, Observations, OpinionBody } from '@beadroll/core';
+import type { OpinionBody } from '@beadroll/core';
 import { api } from '../../lib/api';
 
 export type OpinionRole = 'attribution' | 'dissent' | 'other';
@@ -49,34 +49,11 @@ export interface OpinionWrite {
   opinions: LotOpinions;
 }
 
-/** What the form needs of the lot: its clues and decoration, for the attribution aid. */
-export interface LotForAid {
-  code: string;
-  displayCode: string;
-  title: string;
-  listed: boolean;
-  holder: string;
-  viewerIsHolder: boolean;
-  description: LotDescription | null;
-  observations: Observations | null;
-}
-
 export const opinionsQuery = (code: string) =>
   queryOptions({
     queryKey: ['lots', 'detail', code, 'opinions'],
     queryFn: () => api<LotOpinions>(`/api/lots/${encodeURIComponent(code)}/opinions`),
   });
-
-export const lotForAidQuery = (code: string) =>
-  queryOptions({
-    queryKey: ['lots', 'detail', code],
-    queryFn: () => api<LotForAid>(`/api/lots/${encodeURIComponent(code)}`),
-  });
-
-/** The lot's decoration, as the attribution aid reads it. */
-export function decorationOf(lot: LotForAid | undefined): Decoration[] {
-  return lot?.description?.decoration ?? [];
-}
 
 export const opinionsApi = {
   record: (code: string, body: OpinionDraft) =>
