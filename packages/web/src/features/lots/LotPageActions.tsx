@@ -1,22 +1,10 @@
 import type { Observations } from '@beadroll/core';
-import {
-  Button,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
-  makeStyles,
-  MessageBar,
-  MessageBarBody,
-  Text,
-  tokens,
-} from '@fluentui/react-components';
+import { MessageBar, MessageBarBody, Text } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import { useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { FormError } from '../accounts/FormPage';
+import { ActionDialog } from './ActionDialog';
 import type { LotActionContext } from './lot-actions';
 import {
   draftFromDescription,
@@ -30,53 +18,6 @@ import { lotsApi } from './lots.api';
 import { ObservationChecklist } from './ObservationChecklist';
 
 type Props = LotActionContext & { close: () => void };
-
-const useStyles = makeStyles({
-  surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
-  content: { display: 'grid', gap: tokens.spacingVerticalM, maxHeight: '70vh', overflowY: 'auto' },
-});
-
-function ActionDialog({
-  title,
-  close,
-  onSubmit,
-  submitLabel,
-  pending,
-  children,
-}: {
-  title: string;
-  close: () => void;
-  onSubmit: () => void;
-  submitLabel: string;
-  pending: boolean;
-  children: ReactNode;
-}) {
-  const styles = useStyles();
-  return (
-    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
-      <DialogSurface className={styles.surface}>
-        <form
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            onSubmit();
-          }}
-        >
-          <DialogBody>
-            <DialogTitle>{title}</DialogTitle>
-            <DialogContent className={styles.content}>{children}</DialogContent>
-            <DialogActions>
-              <Button onClick={close}>Cancel</Button>
-              <Button appearance="primary" type="submit" disabled={pending}>
-                {submitLabel}
-              </Button>
-            </DialogActions>
-          </DialogBody>
-        </form>
-      </DialogSurface>
-    </Dialog>
-  );
-}
 
 /** After a write: reload the lot's roll (re-verified on arrival) and the lists. */
 function useLotWrite<T>(fn: (v: T) => Promise<unknown>, close: () => void) {

@@ -1,0 +1,72 @@
+import {
+  Button,
+  Dialog,
+  DialogActions,
+  DialogBody,
+  DialogContent,
+  DialogSurface,
+  DialogTitle,
+  makeStyles,
+  tokens,
+} from '@fluentui/react-components';
+import type { ReactNode } from 'react';
+
+const useStyles = makeStyles({
+  surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
+  narrow: { maxWidth: 'min(560px, 100vw - 16px)' },
+  content: { display: 'grid', gap: tokens.spacingVerticalM, maxHeight: '70vh', overflowY: 'auto' },
+});
+
+/**
+ * The frame of a lot-page action: a modal form with a title, Cancel and one submit button.
+ * Once `done`, only a Close button is left (the content then says what happened).
+ */
+export function ActionDialog({
+  title,
+  close,
+  onSubmit,
+  submitLabel,
+  pending,
+  done = false,
+  narrow = false,
+  submitDisabled = false,
+  children,
+}: {
+  title: string;
+  close: () => void;
+  onSubmit: () => void;
+  submitLabel: string;
+  pending: boolean;
+  done?: boolean;
+  narrow?: boolean;
+  submitDisabled?: boolean;
+  children: ReactNode;
+}) {
+  const styles = useStyles();
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
+      <DialogSurface className={narrow ? `${styles.surface} ${styles.narrow}` : styles.surface}>
+        <form
+          noValidate
+          onSubmit={(e) => {
+            e.preventDefault();
+            onSubmit();
+          }}
+        >
+          <DialogBody>
+            <DialogTitle>{title}</DialogTitle>
+            <DialogContent className={styles.content}>{children}</DialogContent>
+            <DialogActions>
+              <Button onClick={close}>{done ? 'Close' : 'Cancel'}</Button>
+              {!done && (
+                <Button appearance="primary" type="submit" disabled={pending || submitDisabled}>
+                  {submitLabel}
+                </Button>
+              )}
+            </DialogActions>
+          </DialogBody>
+        </form>
+      </DialogSurface>
+    </Dialog>
+  );
+}
