@@ -59,6 +59,11 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   return config;
 }
 
+/** Paths the server answers itself (the API and the development pages), never the web app. */
+function isServerPath(path: string): boolean {
+  return path.startsWith('/api/') || path === '/api' || path.startsWith('/dev/');
+}
+
 /** Serves the built web app; unknown non-API paths fall back to the right HTML entry. */
 function serveWeb(app: NestExpressApplication, webDist: string): void {
   const appHtml = join(webDist, 'index.html');
@@ -68,10 +73,14 @@ function serveWeb(app: NestExpressApplication, webDist: string): void {
     '/assets',
     express.static(join(webDist, 'assets'), { immutable: true, maxAge: '365d', index: false }),
   );
-  app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+  // API and development paths never name a file: skip the file lookup for them.
+  const files = express.static(webDist, { index: false, maxAge: '1h' });
+  app.use((req: Request, res: Response, next: NextFunction) =>
+    isServerPath(req.path) ? next() : files(req, res, next),
+  );
   app.use((req: Request, res: Response, next: NextFunction) => {
     if (req.method !== 'GET' && req.method !== 'HEAD') return next();
-    if (req.path.startsWith('/api/') || req.path === '/api' || req.path.startsWith('/dev/')) return next();
+    if (isServerPath(req.path)) return next();
     const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(isPublic ? publicHtml : appHtml);

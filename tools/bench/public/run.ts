@@ -1,5 +1,6 @@
 // Benchmark of the public lot data: GET /api/public/lots/{code} of a listed 50-entry lot, served
-// by the built app and by a bare node:http + pg server running the same SQL (baseline.mjs), both
+// by the built app and by a bare node:http + pg server running the same SQL (baseline.mjs) and
+// answering the same JSON text (checked byte for byte before measuring), both
 // on the same throw-away PostgreSQL, measured with autocannon at 64 connections, interleaved
 // three times in one run. Prints both throughputs and p99 latencies, the ratio of the medians
 // (target ≥ 0.8), and the public page's JS+CSS gzip size (target ≤ 120 KB).
@@ -138,18 +139,16 @@ async function main(): Promise<void> {
   await up(`${app}/api/health`, 'the app');
   console.log(`writing a listed lot of ${ENTRIES} entries through the API…`);
   const code = await makeLot(app, dataDir);
-  const check = (await (await fetch(`${app}/api/public/lots/${code}`)).json()) as {
-    bundle: { rolls: { entries: unknown[] }[] };
-  };
+  const served = await (await fetch(`${app}/api/public/lots/${code}`)).text();
+  const check = JSON.parse(served) as { bundle: { rolls: { entries: unknown[] }[] } };
   if (check.bundle.rolls[0]!.entries.length !== ENTRIES) throw new Error('the lot does not have 50 entries');
 
   const basePort = await freePort();
   startNode(join(REPO, 'tools/bench/public/baseline.mjs'), { ...env, PORT: String(basePort) });
   const bare = `http://127.0.0.1:${basePort}`;
   await up(`${bare}/api/public/lots/${code}`, 'the baseline');
-  const same = await (await fetch(`${bare}/api/public/lots/${code}`)).json();
-  if (JSON.stringify((same as typeof check).bundle) !== JSON.stringify(check.bundle))
-    throw new Error('the baseline does not serve the same bundle');
+  if ((await (await fetch(`${bare}/api/public/lots/${code}`)).text()) !== served)
+    throw new Error('the baseline does not serve the same JSON text');
 
   const targets = { beadroll: `${app}/api/public/lots/${code}`, baseline: `${bare}/api/public/lots/${code}` };
   console.log(`warming up both for 2 s…`);

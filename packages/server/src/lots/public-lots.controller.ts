@@ -1,4 +1,4 @@
-import { Controller, Get, Param, Res } from '@nestjs/common';
+import { Controller, Get, Header, Param, Res } from '@nestjs/common';
 import { ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { Public } from '../auth/auth.decorators';
@@ -17,8 +17,9 @@ export class PublicLotsController {
   })
   @ApiOkResponse({ type: PublicLotResponse })
   @ApiNotFoundResponse({ description: 'any code that is not a listed lot' })
-  lot(@Param('code') code: string): Promise<PublicLotResponse> {
-    return this.lots.lot(code);
+  @Header('Content-Type', 'application/json; charset=utf-8')
+  lot(@Param('code') code: string): Promise<string> {
+    return this.lots.lotText(code);
   }
 
   @Get(':code/bundle')

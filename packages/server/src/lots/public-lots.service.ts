@@ -6,6 +6,7 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
+import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
 
 /** The one answer to any code that is not a listed lot: no hint of why. */
 function notFound(): AppError {
@@ -54,6 +55,22 @@ export class PublicLotsService {
     private readonly cards: DealerCardsService,
   ) {}
 
+  /**
+   * The serialised {@link PublicLotResponse} of a listed lot. A lot without parents — nearly
+   * every lot — takes one statement and is written by PostgreSQL; a split child or combined piece
+   * takes the bundle walk over its ancestors.
+   */
+  async lotText(text: string): Promise<string> {
+    const code = RollReaderService.canonicalCode(text);
+    if (!code) throw notFound();
+    const rows: PublicLotRow[] = await this.dataSource.query(PUBLIC_LOT_SQL, [code]);
+    const row = rows[0];
+    if (!row) throw notFound();
+    if (!row.has_parents) return publicLotText(code, row);
+    return JSON.stringify(await this.lot(code));
+  }
+
+  /** The public data of a listed lot, built from its bundle (ancestors included). */
   async lot(text: string): Promise<PublicLotResponse> {
     const code = await this.listedCode(text);
     const bundle = await this.bundle(code);
