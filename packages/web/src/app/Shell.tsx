@@ -1,6 +1,6 @@
 import { makeStyles, mergeClasses, Text, tokens } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
-import { NavLink, Outlet } from 'react-router-dom';
+import { Link, Outlet, useLocation } from 'react-router-dom';
 
 const useStyles = makeStyles({
   root: {
@@ -63,24 +63,40 @@ export interface NavItem {
   writer?: boolean;
 }
 
+/**
+ * The navigation item of the page at `pathname`: the one whose path is the page's own or the
+ * longest one it lies under, so `/lots/new` is "Register a lot", not also "Inventory".
+ */
+export function currentNavItem(nav: NavItem[], pathname: string): NavItem | undefined {
+  let best: NavItem | undefined;
+  for (const item of nav) {
+    const under =
+      item.to === '/' ? pathname === '/' : pathname === item.to || pathname.startsWith(`${item.to}/`);
+    if (under && (!best || item.to.length > best.to.length)) best = item;
+  }
+  return best;
+}
+
 /** The app frame: product name, navigation, account area, page content. */
 export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode }) {
   const styles = useStyles();
+  const current = currentNavItem(nav, useLocation().pathname);
   return (
     <div className={styles.root}>
       <header className={styles.header}>
-        <NavLink to="/" className={styles.brand}>
+        <Link to="/" className={styles.brand}>
           Beadroll
-        </NavLink>
+        </Link>
         <nav aria-label="Main" className={styles.nav}>
           {nav.map((item) => (
-            <NavLink
+            <Link
               key={item.to}
               to={item.to}
-              className={({ isActive }) => mergeClasses(styles.link, isActive && styles.active)}
+              aria-current={item === current ? 'page' : undefined}
+              className={mergeClasses(styles.link, item === current && styles.active)}
             >
               {item.label}
-            </NavLink>
+            </Link>
           ))}
         </nav>
         <div className={styles.account}>{account}</div>
