@@ -1,6 +1,20 @@
-import { makeStyles, mergeClasses, Text, tokens } from '@fluentui/react-components';
+import {
+  makeStyles,
+  Menu,
+  MenuButton,
+  MenuItem,
+  MenuList,
+  MenuPopover,
+  MenuTrigger,
+  mergeClasses,
+  Text,
+  tokens,
+} from '@fluentui/react-components';
 import type { ReactNode } from 'react';
-import { Link, Outlet, useLocation } from 'react-router-dom';
+import { Link, Outlet, useLocation, useNavigate } from 'react-router-dom';
+
+/** Below this width the navigation folds into one menu button. */
+const PHONE = '@media (max-width: 700px)';
 
 const useStyles = makeStyles({
   root: {
@@ -26,7 +40,15 @@ const useStyles = makeStyles({
     fontWeight: tokens.fontWeightBold,
     fontSize: tokens.fontSizeBase500,
   },
-  nav: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, flexGrow: 1 },
+  nav: {
+    display: 'flex',
+    flexWrap: 'wrap',
+    gap: tokens.spacingHorizontalM,
+    flexGrow: 1,
+    [PHONE]: { display: 'none' },
+  },
+  compact: { display: 'none', flexGrow: 1, [PHONE]: { display: 'flex' } },
+  currentItem: { fontWeight: tokens.fontWeightSemibold },
   link: {
     color: tokens.colorNeutralForegroundOnBrand,
     textDecorationLine: 'none',
@@ -77,6 +99,35 @@ export function currentNavItem(nav: NavItem[], pathname: string): NavItem | unde
   return best;
 }
 
+/** The navigation folded into one menu, for phone screens. */
+function CompactNav({ nav, current }: { nav: NavItem[]; current: NavItem | undefined }) {
+  const styles = useStyles();
+  const navigate = useNavigate();
+  return (
+    <nav aria-label="Main menu" className={styles.compact}>
+      <Menu>
+        <MenuTrigger disableButtonEnhancement>
+          <MenuButton appearance="primary">Menu</MenuButton>
+        </MenuTrigger>
+        <MenuPopover>
+          <MenuList>
+            {nav.map((item) => (
+              <MenuItem
+                key={item.to}
+                aria-current={item === current ? 'page' : undefined}
+                className={item === current ? styles.currentItem : undefined}
+                onClick={() => navigate(item.to)}
+              >
+                {item.label}
+              </MenuItem>
+            ))}
+          </MenuList>
+        </MenuPopover>
+      </Menu>
+    </nav>
+  );
+}
+
 /** The app frame: product name, navigation, account area, page content. */
 export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode }) {
   const styles = useStyles();
@@ -99,6 +150,7 @@ export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode })
             </Link>
           ))}
         </nav>
+        <CompactNav nav={nav} current={current} />
         <div className={styles.account}>{account}</div>
       </header>
       <main className={styles.main}>

@@ -34,8 +34,14 @@ import { lotsApi } from './lots.api';
 import { ObservationChecklist } from './ObservationChecklist';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '880px' },
-  form: { display: 'grid', gap: tokens.spacingVerticalL },
+  // One column that may shrink below its content's widest line, so nothing pushes past a phone screen.
+  page: {
+    display: 'grid',
+    gridTemplateColumns: 'minmax(0, 1fr)',
+    gap: tokens.spacingVerticalL,
+    maxWidth: '880px',
+  },
+  form: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
   buttons: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'center' },
 });
 
