@@ -84,8 +84,8 @@ export function RegisterLotPage() {
         Register a lot
       </Title2>
       <Text>
-        Registering writes the first entry of the lot’s roll. Everything you type is kept in this browser
-        until the lot is registered.
+        Registering writes the first entry of the lot’s roll. What you type is kept in this browser until the
+        lot is registered; the private details only until you close the browser.
       </Text>
       <form
         className={styles.form}
