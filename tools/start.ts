@@ -96,10 +96,17 @@ async function main(): Promise<void> {
     lines.push('demo sign-ins (demo mode only):');
     for (const s of report.signIns)
       lines.push(`  ${s.role.padEnd(9)} ${s.email}  password: ${s.password}  (${s.name})`);
-    // Later seed steps push the lots that show the most (a dissent, a change of hands, a split
-    // child), so the newest three are printed; a code appears once.
-    const codes = [...new Set(report.publicLots.map((l) => l.code).reverse())].slice(0, 3).reverse();
-    for (const code of codes) lines.push(`demo public page: ${base}/l/${code}`);
+    // Each later seed step pushes the lot that shows its story (a dissent, a change of hands, a
+    // split child, a combined piece); every plain listed lot is pushed too. Print the stories,
+    // each code once, or the first listed lot when the scenario has none.
+    const stories = report.publicLots.filter((l) => !l.why.startsWith('a listed lot'));
+    const shown = stories.length > 0 ? stories : report.publicLots.slice(0, 1);
+    const seen = new Set<string>();
+    for (const lot of shown) {
+      if (seen.has(lot.code)) continue;
+      seen.add(lot.code);
+      lines.push(`demo public page (${lot.why}): ${base}/l/${lot.code}`);
+    }
   }
   lines.push('Press Ctrl+C to stop.', '');
   console.log(lines.join('\n'));

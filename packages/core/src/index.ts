@@ -142,3 +142,4 @@ export type {
   PeriodRule,
   SourceStanding,
 } from './aid-rules.js';
+export { periodWords, yearWords } from './period.js';

@@ -101,11 +101,19 @@ export function normaliseTagHost(host: string): string {
  * character is in QR alphanumeric mode and the symbol is as small as it can be. `host` as
  * {@link normaliseTagHost} accepts it; `code` any spelling {@link parseLotCode} accepts; `ref`
  * the tag reference H of the entry the tag is printed at (any spelling
- * {@link parseTagReference} accepts). Throws {@link TagError} or {@link LotCodeError}.
+ * {@link parseTagReference} accepts). `scheme` is `https` unless the public site is served
+ * over plain HTTP (a local demo), where a tag must say `HTTP` to be followed at all.
+ * Throws {@link TagError} or {@link LotCodeError}.
  */
-export function tagPayload(host: string, code: string, ref: string): string {
+export function tagPayload(
+  host: string,
+  code: string,
+  ref: string,
+  scheme: 'https' | 'http' = 'https',
+): string {
   const h = normaliseTagHost(host);
-  return `HTTPS://${h}/${TAG_PATH_SEGMENT}/${parseLotCode(code)}/${parseTagReference(ref)}`;
+  const s = scheme === 'http' ? 'HTTP' : 'HTTPS';
+  return `${s}://${h}/${TAG_PATH_SEGMENT}/${parseLotCode(code)}/${parseTagReference(ref)}`;
 }
 
 /** What a scanned tag names: the canonical lot code and the tag reference H it was printed at. */

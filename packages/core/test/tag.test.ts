@@ -94,6 +94,14 @@ describe('tag payload', () => {
     });
   }
 
+  it('says HTTP for a site served over plain HTTP, and reads back the same code and reference', () => {
+    const text = tagPayload('127.0.0.1:8080', '7K2QM9XAT', 'ABCDEFGHJK', 'http');
+    expect(text).toBe('HTTP://127.0.0.1:8080/L/7K2QM9XAT/ABCDEFGHJK');
+    // Every character is in the alphanumeric set of ISO/IEC 18004 (digits, A–Z, space, $%*+-./:).
+    expect(isQrAlphanumeric(text)).toBe(true);
+    expect(parseTagPayload(text)).toEqual({ code: '7K2QM9XAT', ref: 'ABCDEFGHJK' });
+  });
+
   for (const c of payloads.badHosts) {
     it(`refuses a host: ${c.desc}`, () => {
       expect(() => tagPayload(c.host, '7K2QM9XAT', 'ABCDEFGHJK')).toThrow(TagError);

@@ -91,7 +91,9 @@ describe('tags API', () => {
     expect(Math.abs(box![3]! - 841.89)).toBeLessThanOrEqual(0.01);
     const read = decodeCells(rasterise(pdf), planTags(host, layout, 2));
     [listedLot, unlistedLot].forEach((code, i) => {
-      const payload = tagPayload(host, code, tagReference(before[i]!.headHash));
+      // The test site is served over plain HTTP, so its tags say HTTP.
+      const payload = tagPayload(host, code, tagReference(before[i]!.headHash), 'http');
+      expect(payload).toMatch(/^HTTP:\/\//);
       expect(payload.length).toBeLessThanOrEqual(V2_L_CAPACITY);
       expect(read[i]?.data).toBe(payload);
       expect(read[i]?.version).toBe(2);

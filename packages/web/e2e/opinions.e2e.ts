@@ -1,6 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { parseBundle, type OpinionBody } from '@beadroll/core';
 import type { Page } from 'playwright-core';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { openBrowser, screenshot, type Browser } from './support/browser';
 
@@ -33,7 +35,7 @@ describe('opinions in Chromium', () => {
     await browser.close();
   });
 
-  it('a second dealer records a dissent with the aid beside the form; the holder sees it on the lot and finds the e-mail', async () => {
+  it('a second dealer adds an exhibit and records a dissent citing it, with the aid beside the form; the holder sees it on the lot and finds the e-mail', async () => {
     const { page } = browser;
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
@@ -72,10 +74,25 @@ describe('opinions in Chromium', () => {
     });
     expect(mine.status()).toBe(201);
 
-    // A second dealer opens the lot page and drafts a dissent; the aid reacts as fields change.
+    // A second dealer opens the lot page and first adds evidence of their own: a close-up of a hole.
     await signIn(page, baseUrl, second.email);
     await page.goto(`${baseUrl}/lots/${code}`);
     await page.getByRole('article', { name: /Holder’s attribution by Odile Varnas/ }).waitFor();
+    const closeUp = await sharp({
+      create: { width: 640, height: 480, channels: 3, background: { r: 150, g: 150, b: 160 } },
+    })
+      .jpeg()
+      .toBuffer();
+    const uploader = page.getByRole('region', { name: 'Add exhibits' });
+    await uploader
+      .getByTestId('exhibit-files')
+      .setInputFiles([{ name: 'hole-powder.jpg', mimeType: 'image/jpeg', buffer: closeUp }]);
+    const item = uploader.getByRole('listitem', { name: 'hole-powder.jpg' });
+    await item.getByLabel('Caption').fill('Grey powder inside the hole');
+    await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
+    await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
+
+    // Then drafts a dissent citing it; the aid reacts as fields change.
     await page
       .getByRole('group', { name: 'Actions' })
       .getByRole('button', { name: 'Record an opinion' })
@@ -94,12 +111,24 @@ describe('opinions in Chromium', () => {
     await dialog
       .getByRole('textbox', { name: /^Rationale/ })
       .fill('Grey powder in the holes: wound on a release-coated mandrel. The roses are heavy and bright.');
+    await dialog.getByRole('checkbox', { name: /Grey powder inside the hole/ }).check();
     await screenshot(page, 'opinions-form-1280');
     await dialog.getByRole('button', { name: 'Record opinion' }).click();
     await dialog.waitFor({ state: 'detached' });
     const dissent = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
     await dissent.waitFor();
     await page.getByText('1 dissent from the holder’s attribution.').waitFor();
+    expect(await dissent.textContent()).toContain('cites 1 exhibit');
+
+    // The opinion on the roll names the new exhibit by the SHA-256 of its stored original.
+    const served = await page.request.get(`${baseUrl}/api/public/lots/${code}`);
+    const entries = parseBundle(((await served.json()) as { bundle: unknown }).bundle).rolls[0]!.entries;
+    const kinds = entries.map((e) => JSON.parse(e.header).kind as string);
+    const exhibit = JSON.parse(entries[kinds.lastIndexOf('exhibit-added')]!.body!) as {
+      exhibit: { original: { sha256: string } };
+    };
+    const opinion = JSON.parse(entries[kinds.lastIndexOf('opinion')]!.body!) as OpinionBody;
+    expect(opinion.exhibits).toEqual([exhibit.exhibit.original.sha256]);
 
     // The holder sees the dissent beside the attribution on the lot's page, answers it, and has the e-mail.
     await signIn(page, baseUrl, holder.email);

@@ -7,8 +7,12 @@ import { openBrowser, screenshot, type Browser } from './support/browser';
 
 const demo = JSON.parse(
   readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; displayName: string }> };
+) as {
+  password: string;
+  accounts: Array<{ role: string; status: string; email: string; displayName: string }>;
+};
 const registrar = demo.accounts.find((a) => a.role === 'registrar')!;
+const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
 
 async function signIn(page: Page, baseUrl: string, email: string, password: string) {
   await page.goto(`${baseUrl}/sign-in`);
@@ -110,6 +114,81 @@ describe("the registrar's tools in Chromium", () => {
 
       await page.goto(`${baseUrl}/registry/record`);
       await page.getByRole('heading', { name: 'Registrar’s record' }).waitFor();
+      expect(errors).toEqual([]);
+    });
+  });
+  describe('a holder asks for the removal of an entry and the registrar removes it', () => {
+    let browser: Browser;
+    beforeAll(async () => {
+      browser = await openBrowser({ width: 1280, height: 900 });
+    });
+    afterAll(async () => {
+      await browser.close();
+    });
+
+    it('asks from the lot page; the request waits in the registrar’s queue; removal keeps the roll verifying', async () => {
+      const { page } = browser;
+      const errors: string[] = [];
+      page.on('pageerror', (e) => errors.push(e.message));
+      await signIn(page, baseUrl, dealer.email, demo.password);
+      const headers = { 'X-Beadroll-Request': '1' };
+      const made = await page.request.post(`${baseUrl}/api/lots`, {
+        headers,
+        data: {
+          description: {
+            title: 'Strand of green drawn seed beads',
+            form: 'strand',
+            count: { value: 120, estimated: true },
+            colours: ['green'],
+            baseGlass: ['transparent'],
+            decoration: [],
+            listed: true,
+          },
+        },
+      });
+      expect(made.status()).toBe(201);
+      const mine = ((await made.json()) as { code: string }).code;
+      const observed = await page.request.post(`${baseUrl}/api/lots/${mine}/observations`, {
+        headers,
+        data: {
+          observations: { note: 'Bought from the stall beside the bakery on Ostrel Lane, number 14.' },
+        },
+      });
+      expect(observed.status()).toBe(201);
+
+      await page.goto(`${baseUrl}/lots/${mine}`);
+      await page.getByText('Verified in this browser').waitFor();
+      await page
+        .getByRole('group', { name: 'Actions' })
+        .getByRole('button', { name: 'Ask for a removal' })
+        .click();
+      const dialog = page.getByRole('dialog');
+      await dialog.getByRole('combobox', { name: /^Entry/ }).selectOption('1');
+      await dialog
+        .getByRole('textbox', { name: /Why it should go/ })
+        .fill('The note names a private address.');
+      await dialog.getByRole('button', { name: 'Send the request' }).click();
+      await dialog.getByText(/Your request is with the registrar/).waitFor();
+      await screenshot(page, 'registry-removal-request-1280');
+      await dialog.getByRole('button', { name: 'Close' }).click();
+
+      await page.context().clearCookies();
+      await signIn(page, baseUrl, registrar.email, demo.password);
+      await page.goto(`${baseUrl}/registry/redactions`);
+      const row = page
+        .getByRole('table', { name: 'Holders’ requests' })
+        .getByRole('row')
+        .filter({ hasText: 'The note names a private address.' });
+      await row.getByRole('button', { name: 'Remove it' }).click();
+      await row.waitFor({ state: 'detached' });
+
+      await page.goto(`${baseUrl}/l/${mine}`);
+      await page.getByText(/Unbroken history as served/).waitFor();
+      await page
+        .getByText(/removed by the registrar on/i)
+        .first()
+        .waitFor();
+      expect(await page.content()).not.toContain('Ostrel Lane');
       expect(errors).toEqual([]);
     });
   });

@@ -1,4 +1,4 @@
-import { formatLotCode, type OpinionBody } from '@beadroll/core';
+import { formatLotCode, periodWords, type OpinionBody } from '@beadroll/core';
 import { type Letter, letter } from '../mail/letters';
 
 const ORIGIN_WORDS: Record<OpinionBody['origin'], string> = {
@@ -11,11 +11,6 @@ const ORIGIN_WORDS: Record<OpinionBody['origin'], string> = {
   unknown: 'unknown',
   other: 'other',
 };
-
-function periodWords(p: OpinionBody['period']): string {
-  const y = (n: number) => (n < 0 ? `${-n} BC` : String(n));
-  return `${p.approximate ? 'about ' : ''}${y(p.from)}–${y(p.to)}`;
-}
 
 /** The opinion e-mails. Links are built from PUBLIC_BASE_URL by the caller. */
 export const opinionLetters = {

@@ -54,15 +54,20 @@ function groupRef(ref: string): string {
 export class TagPdfService {
   /**
    * A PDF of one label per item, laid out as `layout` asks, whose symbols hold the tag payload
-   * for `host`. Throws AppError `validation` (400) naming the field when the layout cannot
+   * for `host` (over `scheme`, https unless the public site is plain HTTP). Throws AppError `validation` (400) naming the field when the layout cannot
    * carry a readable symbol or the grid does not fit the page.
    */
-  async render(items: TagItem[], layout: TagLayoutRequest, host: string): Promise<Buffer> {
+  async render(
+    items: TagItem[],
+    layout: TagLayoutRequest,
+    host: string,
+    scheme: 'https' | 'http' = 'https',
+  ): Promise<Buffer> {
     if (items.length === 0) throw AppError.validation([{ field: 'lots', reason: 'choose at least one lot' }]);
     if (items.length > MAX_TAGS_PER_PDF)
       throw AppError.validation([{ field: 'lots', reason: `at most ${MAX_TAGS_PER_PDF} tags at a time` }]);
     const plan = planTags(host, layout, items.length);
-    const symbols = items.map((item) => this.symbol(host, item, plan.label.qr.version));
+    const symbols = items.map((item) => this.symbol(host, scheme, item, plan.label.qr.version));
 
     const doc = new PDFDocument({
       autoFirstPage: false,
@@ -92,10 +97,10 @@ export class TagPdfService {
     return done;
   }
 
-  private symbol(host: string, item: TagItem, version: number): QRCode.QRCode {
+  private symbol(host: string, scheme: 'https' | 'http', item: TagItem, version: number): QRCode.QRCode {
     let payload: string;
     try {
-      payload = tagPayload(host, item.code, item.ref);
+      payload = tagPayload(host, item.code, item.ref, scheme);
     } catch (e) {
       throw AppError.validation([{ field: 'lots', reason: (e as Error).message }]);
     }

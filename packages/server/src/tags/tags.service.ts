@@ -60,6 +60,11 @@ export class TagsService {
     return new URL(this.config.publicBaseUrl).host;
   }
 
+  /** `http` only when the public site is served over plain HTTP (a local demo). */
+  get scheme(): 'https' | 'http' {
+    return new URL(this.config.publicBaseUrl).protocol === 'http:' ? 'http' : 'https';
+  }
+
   layouts(): TagLayoutsResponse {
     const fit = tagFit(this.host);
     return { ...fit, defaults: DESIGN_DEFAULTS, papers: PAPERS };
@@ -99,6 +104,7 @@ export class TagsService {
         sheet: dto.sheet && { ...dto.sheet },
       },
       this.host,
+      this.scheme,
     );
     const filename = codes.length === 1 ? `tag-${codes[0]}.pdf` : `tags-${printedOn}-${codes.length}.pdf`;
     return { pdf, filename };

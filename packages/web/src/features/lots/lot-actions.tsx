@@ -10,6 +10,7 @@ import { CombineDialog } from '../lineage/CombineDialog';
 import { SplitDialog } from '../lineage/SplitDialog';
 import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
+import { RemovalRequestAction } from '../registry/RemovalRequestAction';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -103,6 +104,12 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'Record an opinion',
     visible: mayRecordOpinion,
     render: (ctx) => <OpinionAction {...ctx} />,
+  },
+  {
+    id: 'removal',
+    label: 'Ask for a removal',
+    visible: (ctx) => viewerHolds(ctx),
+    render: (ctx) => <RemovalRequestAction {...ctx} />,
   },
 ];
 

@@ -10,7 +10,6 @@ import type {
   LotStatus,
   Observations,
   Origin,
-  Period,
   Qualifier,
   ReasonCode,
   RedactionReason,
@@ -151,16 +150,8 @@ export function observationPhrases(o: Observations): string[] {
   return out;
 }
 
-/** A year, with BCE for years before 1 (the format allows −5000). */
-export function yearWords(y: number): string {
-  return y < 1 ? `${1 - y} BCE` : String(y);
-}
-
-/** "about 1850–1900", "1860". */
-export function periodWords(p: Period): string {
-  const range = p.from === p.to ? yearWords(p.from) : `${yearWords(p.from)}–${yearWords(p.to)}`;
-  return p.approximate ? `about ${range}` : range;
-}
+/** Years and periods in words come from core, so e-mails and pages say the same. */
+export { periodWords, yearWords } from '@beadroll/core';
 
 /** "40 beads", "about 25 beads". */
 export function countWords(c: BeadCount): string {

@@ -26,6 +26,17 @@ export function ReportProblem({ code }: { code: string }) {
   const [text, setText] = useState('');
   const [email, setEmail] = useState('');
   const [local, setLocal] = useState<Record<string, string>>({});
+  // Fields changed since the last attempt: their old errors no longer apply.
+  const [edited, setEdited] = useState<ReadonlySet<string>>(new Set());
+  const touch = (field: string) => {
+    setEdited((s) => (s.has(field) ? s : new Set(s).add(field)));
+    setLocal((l) => {
+      if (!(field in l)) return l;
+      const rest = { ...l };
+      delete rest[field];
+      return rest;
+    });
+  };
   const send = useMutation({
     mutationFn: () =>
       registryToolsApi.fileReport(code, {
@@ -52,7 +63,7 @@ export function ReportProblem({ code }: { code: string }) {
       </section>
     );
   }
-  const err = (field: string) => local[field] ?? problem(send.error, field);
+  const err = (field: string) => local[field] ?? (edited.has(field) ? undefined : problem(send.error, field));
   const submit = (e: React.FormEvent) => {
     e.preventDefault();
     const found: Record<string, string> = {};
@@ -60,6 +71,7 @@ export function ReportProblem({ code }: { code: string }) {
     if (text.trim().length < 3) found.text = 'Say what is wrong, in a few words.';
     if (text.length > REPORT_TEXT_MAX) found.text = `At most ${REPORT_TEXT_MAX} characters, please.`;
     setLocal(found);
+    setEdited(new Set());
     if (Object.keys(found).length === 0) send.mutate();
   };
   const other =
@@ -81,7 +93,10 @@ export function ReportProblem({ code }: { code: string }) {
                 name={`${id}-category`}
                 value={c}
                 checked={category === c}
-                onChange={() => setCategory(c)}
+                onChange={() => {
+                  setCategory(c);
+                  touch('category');
+                }}
               />{' '}
               {REPORT_CATEGORY_LABEL[c]}
             </label>
@@ -100,7 +115,10 @@ export function ReportProblem({ code }: { code: string }) {
           maxLength={REPORT_TEXT_MAX + 200}
           aria-invalid={Boolean(err('text'))}
           aria-describedby={`${id}-text-count${err('text') ? ` ${id}-text-err` : ''}`}
-          onChange={(e) => setText(e.target.value)}
+          onChange={(e) => {
+            setText(e.target.value);
+            touch('text');
+          }}
         />
         <p className="pl-hint" id={`${id}-text-count`}>
           {text.length} of {REPORT_TEXT_MAX} characters
@@ -118,7 +136,10 @@ export function ReportProblem({ code }: { code: string }) {
           autoComplete="email"
           aria-invalid={Boolean(err('email'))}
           aria-describedby={err('email') ? `${id}-email-err` : undefined}
-          onChange={(e) => setEmail(e.target.value)}
+          onChange={(e) => {
+            setEmail(e.target.value);
+            touch('email');
+          }}
         />
         {err('email') && (
           <p className="pl-field-error" id={`${id}-email-err`}>

@@ -119,6 +119,8 @@ export const registryToolsApi = {
     api<Redaction>(`/api/registry/redaction-requests/${id}/approve`, { body: {} }),
   declineRequest: (id: string, reason: string) =>
     api<RedactionRequest>(`/api/registry/redaction-requests/${id}/decline`, { body: { reason } }),
+  requestRemoval: (code: string, body: { seq: number; note: string }) =>
+    api<RedactionRequest>(`/api/lots/${encodeURIComponent(code)}/redaction-requests`, { body }),
   closeAccount: (password: string) => api<{ message: string }>('/api/account/close', { body: { password } }),
 };
 

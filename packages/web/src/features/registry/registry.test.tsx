@@ -5,6 +5,7 @@ import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { Providers, routes } from '../../app/App';
 import type { Me } from '../accounts/accounts.api';
+import { ownRemovableEntries, RemovalRequestAction } from './RemovalRequestAction';
 import { ReportProblem } from './ReportProblem';
 
 beforeEach(() =>
@@ -103,6 +104,68 @@ describe('report a problem (public page)', () => {
     await user.type(screen.getByLabelText(/Your e-mail address/), 'nope');
     await user.click(screen.getByRole('button', { name: 'Send the report' }));
     expect(await screen.findByText('must be an e-mail address')).toBeInTheDocument();
+    // Nothing typed is lost, and mending the field takes its old error away.
+    expect(screen.getByLabelText('What is wrong')).toHaveValue('Entry 3 names my street.');
+    await user.type(screen.getByLabelText(/Your e-mail address/), '@example.test');
+    expect(screen.queryByText('must be an e-mail address')).not.toBeInTheDocument();
+  });
+});
+
+describe('asking the registrar to remove an entry (lot page)', () => {
+  const holder = { ...registrar, id: '6f1c1f7e-8a55-4b43-9a43-0000000000d1', role: 'dealer' as const };
+  const entry = (seq: number, kind: string, actor: string, body: string | null) => ({
+    seq,
+    kind,
+    actor,
+    time: `2026-0${seq + 1}-02T10:00:00Z`,
+    logIndex: null,
+    header: '{}',
+    body,
+  });
+  const roll = {
+    lot: '7K2QM9XAT',
+    entries: [
+      entry(0, 'registered', holder.id, '{}'),
+      entry(1, 'exhibit-added', holder.id, '{}'),
+      entry(2, 'opinion', '6f1c1f7e-8a55-4b43-9a43-0000000000e2', '{}'),
+      entry(3, 'note', holder.id, null),
+    ],
+  };
+
+  it('offers only the holder’s own entries that still have a body, and sends the choice and the reason', async () => {
+    expect(ownRemovableEntries(roll as never, holder.id).map((c) => c.seq)).toEqual([1]);
+    const calls: Array<{ url: string; body: string }> = [];
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string, init?: RequestInit) => {
+        if (url.endsWith('/roll')) return json(200, roll);
+        calls.push({ url, body: String(init?.body) });
+        if (JSON.parse(String(init?.body)).note.length < 3)
+          return json(400, {
+            error: { code: 'validation', message: 'x', fields: [{ field: 'note', reason: 'must say why' }] },
+          });
+        return json(201, { id: 'q1', lot: '7K2QM9XAT', seq: 1, kind: 'exhibit-added', status: 'open' });
+      }),
+    );
+    const user = userEvent.setup();
+    render(
+      <QueryClientProvider client={client()}>
+        <RemovalRequestAction code="7K2QM9XAT" state={{} as never} viewer={holder} close={() => undefined} />
+      </QueryClientProvider>,
+    );
+    const dialog = await screen.findByRole('dialog');
+    await within(dialog).findByRole('option', { name: /Entry 1 · exhibit-added/ });
+    await user.type(within(dialog).getByRole('textbox', { name: /Why it should go/ }), 'no');
+    await user.click(within(dialog).getByRole('button', { name: 'Send the request' }));
+    expect(await within(dialog).findByText('must say why')).toBeInTheDocument();
+    await user.type(
+      within(dialog).getByRole('textbox', { name: /Why it should go/ }),
+      ': my house is in the photo',
+    );
+    await user.click(within(dialog).getByRole('button', { name: 'Send the request' }));
+    await within(dialog).findByText(/Your request is with the registrar/);
+    expect(calls.at(-1)!.url).toBe('/api/lots/7K2QM9XAT/redaction-requests');
+    expect(JSON.parse(calls.at(-1)!.body)).toEqual({ seq: 1, note: 'no: my house is in the photo' });
   });
 });
 
