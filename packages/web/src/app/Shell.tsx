@@ -1,6 +1,20 @@
-import { makeStyles, mergeClasses, Text, tokens } from '@fluentui/react-components';
+import {
+  makeStyles,
+  Menu,
+  MenuButton,
+  MenuItem,
+  MenuList,
+  MenuPopover,
+  MenuTrigger,
+  mergeClasses,
+  Text,
+  tokens,
+} from '@fluentui/react-components';
 import type { ReactNode } from 'react';
-import { NavLink, Outlet } from 'react-router-dom';
+import { Link, Outlet, useLocation, useNavigate } from 'react-router-dom';
+
+/** Below this width the navigation folds into one menu button. */
+const PHONE = '@media (max-width: 700px)';
 
 const useStyles = makeStyles({
   root: {
@@ -26,7 +40,15 @@ const useStyles = makeStyles({
     fontWeight: tokens.fontWeightBold,
     fontSize: tokens.fontSizeBase500,
   },
-  nav: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, flexGrow: 1 },
+  nav: {
+    display: 'flex',
+    flexWrap: 'wrap',
+    gap: tokens.spacingHorizontalM,
+    flexGrow: 1,
+    [PHONE]: { display: 'none' },
+  },
+  compact: { display: 'none', flexGrow: 1, [PHONE]: { display: 'flex' } },
+  currentItem: { fontWeight: tokens.fontWeightSemibold },
   link: {
     color: tokens.colorNeutralForegroundOnBrand,
     textDecorationLine: 'none',
@@ -63,26 +85,72 @@ export interface NavItem {
   writer?: boolean;
 }
 
+/**
+ * The navigation item of the page at `pathname`: the one whose path is the page's own or the
+ * longest one it lies under, so `/lots/new` is "Register a lot", not also "Inventory".
+ */
+export function currentNavItem(nav: NavItem[], pathname: string): NavItem | undefined {
+  let best: NavItem | undefined;
+  for (const item of nav) {
+    const under =
+      item.to === '/' ? pathname === '/' : pathname === item.to || pathname.startsWith(`${item.to}/`);
+    if (under && (!best || item.to.length > best.to.length)) best = item;
+  }
+  return best;
+}
+
+/** The navigation folded into one menu, for phone screens. */
+function CompactNav({ nav, current }: { nav: NavItem[]; current: NavItem | undefined }) {
+  const styles = useStyles();
+  const navigate = useNavigate();
+  return (
+    <nav aria-label="Main menu" className={styles.compact}>
+      <Menu>
+        <MenuTrigger disableButtonEnhancement>
+          <MenuButton appearance="primary">Menu</MenuButton>
+        </MenuTrigger>
+        <MenuPopover>
+          <MenuList>
+            {nav.map((item) => (
+              <MenuItem
+                key={item.to}
+                aria-current={item === current ? 'page' : undefined}
+                className={item === current ? styles.currentItem : undefined}
+                onClick={() => navigate(item.to)}
+              >
+                {item.label}
+              </MenuItem>
+            ))}
+          </MenuList>
+        </MenuPopover>
+      </Menu>
+    </nav>
+  );
+}
+
 /** The app frame: product name, navigation, account area, page content. */
 export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode }) {
   const styles = useStyles();
+  const current = currentNavItem(nav, useLocation().pathname);
   return (
     <div className={styles.root}>
       <header className={styles.header}>
-        <NavLink to="/" className={styles.brand}>
+        <Link to="/" className={styles.brand}>
           Beadroll
-        </NavLink>
+        </Link>
         <nav aria-label="Main" className={styles.nav}>
           {nav.map((item) => (
-            <NavLink
+            <Link
               key={item.to}
               to={item.to}
-              className={({ isActive }) => mergeClasses(styles.link, isActive && styles.active)}
+              aria-current={item === current ? 'page' : undefined}
+              className={mergeClasses(styles.link, item === current && styles.active)}
             >
               {item.label}
-            </NavLink>
+            </Link>
           ))}
         </nav>
+        <CompactNav nav={nav} current={current} />
         <div className={styles.account}>{account}</div>
       </header>
       <main className={styles.main}>

@@ -48,7 +48,7 @@ const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', '
 const SORT_OF: Record<string, ListSort> = { code: 'code', title: 'title', updatedAt: 'updated' };
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL },
+  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
   top: {
     display: 'flex',
     flexWrap: 'wrap',
@@ -62,6 +62,8 @@ const useStyles = makeStyles({
     gap: tokens.spacingHorizontalM,
     alignItems: 'end',
   },
+  // Fluent's dropdown is at least 250 px wide; here each control fills its own cell instead.
+  control: { minWidth: 0, width: '100%' },
   code: { fontFamily: tokens.fontFamilyMonospace, whiteSpace: 'nowrap' },
   wide: { '@media (max-width: 700px)': { display: 'none' } },
   cards: {
@@ -265,10 +267,16 @@ export function InventoryPage() {
       </div>
       <div className={styles.filters} role="search" aria-label="Find lots">
         <Field label="Search">
-          <SearchBox value={text} placeholder="Title or description" onChange={(_, d) => setText(d.value)} />
+          <SearchBox
+            className={styles.control}
+            value={text}
+            placeholder="Title or description"
+            onChange={(_, d) => setText(d.value)}
+          />
         </Field>
         <Field label="Whose">
           <Dropdown
+            className={styles.control}
             value={params.mine ? 'Lots I hold' : 'All I can see'}
             selectedOptions={[params.mine ? 'mine' : 'all']}
             onOptionSelect={(_, d) => update({ scope: d.optionValue === 'all' ? 'all' : undefined })}
@@ -429,10 +437,12 @@ function FilterDropdown({
   options: Array<[string, string]>;
   onChange: (v: string | undefined) => void;
 }) {
+  const styles = useStyles();
   const current = options.find(([v]) => v === value);
   return (
     <Field label={label}>
       <Dropdown
+        className={styles.control}
         value={current ? current[1] : 'Any'}
         selectedOptions={[value ?? '']}
         onOptionSelect={(_, d) => onChange(d.optionValue || undefined)}

@@ -21,6 +21,7 @@ import { PrivateMark } from './PrivateMark';
 const useStyles = makeStyles({
   section: {
     display: 'grid',
+    gridTemplateColumns: 'minmax(0, 1fr)',
     gap: tokens.spacingVerticalM,
     padding: tokens.spacingHorizontalL,
     borderRadius: tokens.borderRadiusLarge,
@@ -40,6 +41,8 @@ const useStyles = makeStyles({
     alignItems: 'start',
   },
   checks: { display: 'flex', flexWrap: 'wrap', columnGap: tokens.spacingHorizontalM },
+  // Fluent's horizontal radio group keeps to one line; five forms do not fit a phone.
+  choices: { flexWrap: 'wrap' },
   helper: {
     display: 'flex',
     flexWrap: 'wrap',
@@ -131,6 +134,7 @@ export function DescriptionSections({
         <Field label="Form" validationMessage={error('description.form')}>
           <RadioGroup
             layout="horizontal"
+            className={styles.choices}
             value={draft.form}
             onChange={(_, d) => change('form', d.value as LotDraft['form'])}
           >

@@ -37,7 +37,7 @@ import { checkedSealedDetails } from './sealed-details';
 import { timelineOf } from './timeline';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL },
+  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
   head: { display: 'grid', gap: tokens.spacingVerticalXS },
   code: { fontFamily: tokens.fontFamilyMonospace, color: tokens.colorNeutralForeground2 },
   badges: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
@@ -145,7 +145,7 @@ function SealedDetails({ sealed }: { sealed: OwnSealedDetails }) {
 function Verification({ result }: { result: ReturnType<typeof verifyRoll> }) {
   if (result.ok)
     return (
-      <MessageBar intent="success" aria-label="Verification">
+      <MessageBar intent="success" layout="multiline" aria-label="Verification">
         <MessageBarBody>
           <MessageBarTitle>Verified in this browser</MessageBarTitle>
           All {result.entries} entries link up by their hashes; newest entry {result.head.seq}, hash{' '}
@@ -154,7 +154,7 @@ function Verification({ result }: { result: ReturnType<typeof verifyRoll> }) {
       </MessageBar>
     );
   return (
-    <MessageBar intent="error" aria-label="Verification">
+    <MessageBar intent="error" layout="multiline" aria-label="Verification">
       <MessageBarBody>
         <MessageBarTitle>This roll does not verify</MessageBarTitle>
         Entry {result.seq} fails: {result.message}. Do not rely on what the server shows for this lot.

@@ -34,8 +34,14 @@ import { lotsApi } from './lots.api';
 import { ObservationChecklist } from './ObservationChecklist';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '880px' },
-  form: { display: 'grid', gap: tokens.spacingVerticalL },
+  // One column that may shrink below its content's widest line, so nothing pushes past a phone screen.
+  page: {
+    display: 'grid',
+    gridTemplateColumns: 'minmax(0, 1fr)',
+    gap: tokens.spacingVerticalL,
+    maxWidth: '880px',
+  },
+  form: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
   buttons: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'center' },
 });
 
@@ -78,8 +84,8 @@ export function RegisterLotPage() {
         Register a lot
       </Title2>
       <Text>
-        Registering writes the first entry of the lot’s roll. Everything you type is kept in this browser
-        until the lot is registered.
+        Registering writes the first entry of the lot’s roll. What you type is kept in this browser until the
+        lot is registered; the private details only until you close the browser.
       </Text>
       <form
         className={styles.form}

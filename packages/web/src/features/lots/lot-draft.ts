@@ -4,7 +4,7 @@ import type { CreateLotInput, SealedInput } from './lots.api';
 
 /**
  * What the register form holds, as typed: numbers stay strings until sent, so nothing a dealer
- * types is lost to parsing, and the whole draft can be kept in localStorage.
+ * types is lost to parsing, and the draft can be kept in the browser (see saveDraft).
  */
 export interface LotDraft {
   title: string;
@@ -201,30 +201,89 @@ export function draftToRequest(d: LotDraft): { input: CreateLotInput | null; err
 }
 
 const DRAFT_KEY = 'beadroll.register-draft.v1';
+const SEALED_KEY = 'beadroll.register-draft.sealed.v1';
 
-/** The kept draft of the register form, or the empty one. */
-export function loadDraft(storage: Storage | undefined = globalThis.localStorage): LotDraft {
+/** The draft's sealed fields: what it costs, where from, where kept, private notes. */
+export const SEALED_DRAFT_FIELDS = [
+  'storageLocation',
+  'acquisitionDate',
+  'acquisitionSource',
+  'costAmount',
+  'costCurrency',
+  'privateNote',
+] as const satisfies ReadonlyArray<keyof LotDraft>;
+
+type Split = { open: Partial<LotDraft>; sealed: Partial<LotDraft> };
+
+function split(d: Partial<LotDraft>): Split {
+  const open: Record<string, unknown> = { ...d };
+  const sealed: Record<string, unknown> = {};
+  for (const k of SEALED_DRAFT_FIELDS) {
+    if (k in open) sealed[k] = open[k];
+    delete open[k];
+  }
+  return { open: open as Partial<LotDraft>, sealed: sealed as Partial<LotDraft> };
+}
+
+function read(storage: Storage | undefined, key: string): Partial<LotDraft> {
   try {
-    const raw = storage?.getItem(DRAFT_KEY);
-    if (!raw) return EMPTY_DRAFT;
-    return { ...EMPTY_DRAFT, ...(JSON.parse(raw) as Partial<LotDraft>) };
+    const raw = storage?.getItem(key);
+    return raw ? (JSON.parse(raw) as Partial<LotDraft>) : {};
   } catch {
-    return EMPTY_DRAFT;
+    return {};
   }
 }
 
-export function saveDraft(d: LotDraft, storage: Storage | undefined = globalThis.localStorage): void {
+/** Where the draft is kept. */
+export interface DraftStores {
+  /** The description and observations, kept until the lot is registered. */
+  local?: Storage;
+  /** The sealed fields, kept only for this tab's session: they survive a reload, not closing the browser. */
+  session?: Storage;
+}
+
+function stores(s: DraftStores | undefined): DraftStores {
+  if (s) return s;
   try {
-    storage?.setItem(DRAFT_KEY, JSON.stringify(d));
+    return { local: globalThis.localStorage, session: globalThis.sessionStorage };
+  } catch {
+    return {};
+  }
+}
+
+/**
+ * The kept draft of the register form, or the empty one. Sealed fields are taken only from the
+ * session store, never from the lasting one (where older versions kept them).
+ */
+export function loadDraft(s?: DraftStores): LotDraft {
+  const { local, session } = stores(s);
+  return {
+    ...EMPTY_DRAFT,
+    ...split(read(local, DRAFT_KEY)).open,
+    ...split(read(session, SEALED_KEY)).sealed,
+  };
+}
+
+function write(storage: Storage | undefined, key: string, value: Partial<LotDraft> | null): void {
+  try {
+    if (value) storage?.setItem(key, JSON.stringify(value));
+    else storage?.removeItem(key);
   } catch {
     // A full or blocked storage only loses the draft-on-reload convenience.
   }
 }
 
-export function clearDraft(storage: Storage | undefined = globalThis.localStorage): void {
-  try {
-    storage?.removeItem(DRAFT_KEY);
-  } catch {
-    // see saveDraft
-  }
+/** Keeps the draft: the open part in the lasting store, the sealed part in the session store. */
+export function saveDraft(d: LotDraft, s?: DraftStores): void {
+  const { local, session } = stores(s);
+  const { open, sealed } = split(d);
+  write(local, DRAFT_KEY, open);
+  write(session, SEALED_KEY, sealed);
+}
+
+/** Forgets the draft in both stores (once the lot is registered). */
+export function clearDraft(s?: DraftStores): void {
+  const { local, session } = stores(s);
+  write(local, DRAFT_KEY, null);
+  write(session, SEALED_KEY, null);
 }

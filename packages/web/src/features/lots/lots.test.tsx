@@ -15,7 +15,15 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { Providers, routes } from '../../app/App';
 import { csvCell, toCsv } from './csv';
 import { LOT_ACTIONS } from './lot-actions';
-import { draftToRequest, EMPTY_DRAFT, estimateBeads, inchesToMm, loadDraft, saveDraft } from './lot-draft';
+import {
+  clearDraft,
+  draftToRequest,
+  EMPTY_DRAFT,
+  estimateBeads,
+  inchesToMm,
+  loadDraft,
+  saveDraft,
+} from './lot-draft';
 import type { RawRoll } from './lots.api';
 
 // jsdom has no ResizeObserver; Fluent's message bar only needs it to exist.
@@ -210,9 +218,47 @@ describe('register form validation', () => {
     expect(yen.input?.sealed?.acquisition?.cost).toEqual({ amount: 3000, currency: 'JPY' });
   });
 
-  it('keeps the draft in storage', () => {
-    saveDraft({ ...EMPTY_DRAFT, title: 'kept' }, localStorage);
-    expect(loadDraft(localStorage).title).toBe('kept');
+  it('keeps the description in local storage and the sealed fields only in session storage', () => {
+    localStorage.clear();
+    sessionStorage.clear();
+    const stores = { local: localStorage, session: sessionStorage };
+    const draft = {
+      ...EMPTY_DRAFT,
+      title: 'kept',
+      storageLocation: 'Drawer B',
+      acquisitionSource: 'Estate of Ada Quill',
+      costAmount: '45.50',
+      costCurrency: 'GBP',
+      privateNote: 'paid too much',
+    };
+    saveDraft(draft, stores);
+    expect(loadDraft(stores)).toEqual(draft);
+    const lasting = Object.values({ ...localStorage }).join(' ');
+    expect(lasting).toContain('kept');
+    for (const secret of ['Drawer B', 'Ada Quill', '45.50', 'GBP', 'paid too much'])
+      expect(lasting).not.toContain(secret);
+    expect(Object.values({ ...sessionStorage }).join(' ')).toContain('45.50');
+
+    // Closing the browser empties session storage: the description comes back, the sealed part does not.
+    sessionStorage.clear();
+    expect(loadDraft(stores)).toEqual({ ...EMPTY_DRAFT, title: 'kept' });
+
+    clearDraft(stores);
+    expect(localStorage.length).toBe(0);
+    expect(sessionStorage.length).toBe(0);
+  });
+
+  it('never reads sealed fields from local storage, where an older draft may hold them', () => {
+    localStorage.clear();
+    sessionStorage.clear();
+    localStorage.setItem(
+      'beadroll.register-draft.v1',
+      JSON.stringify({ title: 'old draft', costAmount: '12', acquisitionSource: 'auction' }),
+    );
+    const stores = { local: localStorage, session: sessionStorage };
+    expect(loadDraft(stores)).toEqual({ ...EMPTY_DRAFT, title: 'old draft' });
+    saveDraft(loadDraft(stores), stores);
+    expect(localStorage.getItem('beadroll.register-draft.v1')).not.toMatch(/auction|costAmount/);
   });
 });
 
@@ -233,6 +279,7 @@ describe('CSV export', () => {
 describe('register form', () => {
   beforeEach(() => {
     localStorage.clear();
+    sessionStorage.clear();
     vi.stubGlobal(
       'fetch',
       vi.fn(async (url: string, init?: RequestInit) => {
@@ -276,7 +323,39 @@ describe('register form', () => {
     await user.click(screen.getByRole('button', { name: 'Register the lot' }));
     expect(await screen.findByText('title is already taken by the moon')).toBeInTheDocument();
     expect(screen.getByRole('textbox', { name: /Title/ })).toHaveValue('Rose strand');
-    expect(loadDraft(localStorage)).toMatchObject({ title: 'Rose strand', strandLengthMm: '406.4' });
+    expect(loadDraft()).toMatchObject({ title: 'Rose strand', strandLengthMm: '406.4' });
+  }, 30_000);
+
+  it('keeps typed private details out of local storage, and forgets the whole draft once registered', async () => {
+    const { code } = makeRoll();
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string, init?: RequestInit) => {
+        if (url === '/api/auth/session') return json({ account: ME });
+        if (url === '/api/lots' && init?.method === 'POST') return json({ code }, 201);
+        return json({ error: { code: 'not_found', message: 'Not found.' } }, 404);
+      }),
+    );
+    const user = userEvent.setup({ delay: null });
+    renderAt('/lots/new');
+    await screen.findByRole('heading', { name: 'Register a lot' });
+    await user.type(screen.getByRole('textbox', { name: /Title/ }), 'Rose strand');
+    await user.type(screen.getByRole('textbox', { name: /Number of beads/ }), '50');
+    await user.type(screen.getByRole('textbox', { name: 'Acquired from' }), 'Estate of Ada Quill');
+    await user.type(screen.getByRole('textbox', { name: 'Cost' }), '45.50');
+    await user.type(screen.getByRole('textbox', { name: 'Storage location' }), 'Drawer B');
+
+    const lasting = () => Object.values({ ...localStorage }).join(' ');
+    const session = () => Object.values({ ...sessionStorage }).join(' ');
+    expect(lasting()).toContain('Rose strand');
+    for (const secret of ['Ada Quill', '45.50', 'Drawer B']) {
+      expect(lasting()).not.toContain(secret);
+      expect(session()).toContain(secret);
+    }
+
+    await user.click(screen.getByRole('button', { name: 'Register the lot' }));
+    await vi.waitFor(() => expect(lasting()).toBe(''));
+    expect(session()).toBe('');
   }, 30_000);
 });
 
