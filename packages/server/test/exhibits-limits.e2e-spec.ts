@@ -1,6 +1,7 @@
 import { request as httpRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { createAccount, type TestAccount } from './support/accounts';
 import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
 import { leftovers, rollOf, storedBlobs, upload } from './support/exhibit-http';
@@ -113,4 +114,60 @@ it('stops an account at its storage quota, with a 413 naming the allowance', asy
     .send({ description: description() })
     .expect(201);
   await upload(second.agent, (lot.body as { code: string }).code, png, { kind: 'hole' }).expect(201);
+});
+
+it('lets exactly one of two simultaneous uploads through when together they go over the quota', async () => {
+  const owner = await createAccount(t, { role: 'dealer' });
+  // Two lots, so that the lots' own row locks do not line the two uploads up.
+  const lots: string[] = [];
+  for (let i = 0; i < 2; i++) {
+    const res = await owner.agent
+      .post('/api/lots')
+      .set('X-Beadroll-Request', '1')
+      .send({ description: description() })
+      .expect(201);
+    lots.push((res.body as { code: string }).code);
+  }
+  // Two different images (other bytes, so no shared blobs), about 1100 bytes each with derivatives.
+  const images = [await imageOf('png', 118, 80), await imageOf('png', 119, 80)];
+  const storedBefore = storedBlobs(t).length;
+  // Each exhibit row takes half a second to insert, which holds the time between an upload's
+  // quota check and its commit wide open: a check outside the commit's lock lets both through.
+  const db = t.app.get(DataSource);
+  await db.query(`CREATE FUNCTION test_slow_exhibit() RETURNS trigger LANGUAGE plpgsql AS $$
+    BEGIN PERFORM pg_sleep(0.5); RETURN NEW; END $$`);
+  await db.query(`CREATE TRIGGER test_slow_exhibit BEFORE INSERT ON "exhibits"
+    FOR EACH ROW EXECUTE FUNCTION test_slow_exhibit()`);
+  let results: Awaited<ReturnType<typeof upload>>[];
+  try {
+    results = await Promise.all(
+      lots.map((lot, i) => upload(owner.agent, lot, images[i]!, { kind: 'hole' }, `${i}.png`, 'image/png')),
+    );
+  } finally {
+    await db.query('DROP TRIGGER test_slow_exhibit ON "exhibits"');
+    await db.query('DROP FUNCTION test_slow_exhibit()');
+  }
+  expect(results.map((r) => r.status).sort()).toEqual([201, 413]);
+  expect(results.find((r) => r.status === 413)!.body.error).toMatchObject({
+    code: 'payload_too_large',
+    fields: [{ field: 'file', reason: expect.stringMatching(`the allowance is ${QUOTA} bytes`) }],
+  });
+  const rows: Array<{ n: string; used: string }> = await db.query(
+    'SELECT COUNT(*) AS "n", SUM("bytes") AS "used" FROM "exhibits" WHERE "added_by" = $1',
+    [owner.id],
+  );
+  expect(Number(rows[0]!.n)).toBe(1);
+  expect(Number(rows[0]!.used)).toBeLessThanOrEqual(QUOTA);
+  // The refused upload left no entry on its lot and no file in the store: only the accepted
+  // exhibit's original and two derivatives were added.
+  const refusedLot = lots[results.findIndex((r) => r.status === 413)]!;
+  expect((await rollOf(owner.agent, refusedLot)).length).toBe(1);
+  const accepted = results.find((r) => r.status === 201)!.body.exhibit as {
+    original: { sha256: string };
+    derivatives: Array<{ sha256: string }>;
+  };
+  const names = storedBlobs(t).map((p) => p.split('/').pop());
+  for (const d of [accepted.original, ...accepted.derivatives]) expect(names).toContain(d.sha256);
+  expect(names.length).toBe(storedBefore + 3);
+  expect(leftovers(t)).toEqual([]);
 });

@@ -188,6 +188,39 @@ describe('lots over HTTP', () => {
     expect(afterRegister).toBe(before + 1);
   });
 
+  const MISSING = 'description should not be null or undefined';
+  it.each([
+    ['without a description', {}, 'description', MISSING],
+    ['with a null description', { description: null }, 'description', MISSING],
+    [
+      'with a text description',
+      { description: 'wound beads' },
+      'description',
+      'description must be an object',
+    ],
+    ['with a list for a description', { description: [] }, 'description', 'description must be an object'],
+    [
+      'with a list for a count',
+      { description: { ...description(), count: [] } },
+      'description.count',
+      'count must be an object',
+    ],
+    [
+      'with a list for observations',
+      { description: description(), observations: [] },
+      'observations',
+      'observations must be an object',
+    ],
+  ])(
+    'answers a registration %s with 400 naming the field, and writes nothing',
+    async (_what, body, field, reason) => {
+      const before = await entryCount();
+      const res = await ana.agent.post('/api/lots').set(W).send(body).expect(400);
+      expect(res.body.error).toMatchObject({ code: 'validation', fields: [{ field, reason }] });
+      expect(await entryCount()).toBe(before);
+    },
+  );
+
   it('lets only the holder write, only verified dealers register, and hides unlisted lots', async () => {
     const lot = await register(ana, { listed: false });
     await ben.agent.get(`/api/lots/${lot.code}`).expect(404);

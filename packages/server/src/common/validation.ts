@@ -1,12 +1,26 @@
 import { ValidationPipe, type ValidationError } from '@nestjs/common';
 import { AppError, type FieldProblem } from './app-error';
 
+/**
+ * The reasons worth showing for one field: a missing value is only "missing" (not also "not an
+ * object"), and a value that is not an object is not also "not a nested object" (nor are its
+ * elements examined, below).
+ */
+function reasonsOf(constraints: Record<string, string>): string[] {
+  if (constraints.isDefined) return [constraints.isDefined];
+  const skip = constraints.isObject ? 'nestedValidation' : undefined;
+  return Object.entries(constraints)
+    .filter(([name]) => name !== skip)
+    .map(([, reason]) => reason);
+}
+
 function flatten(errors: ValidationError[], prefix = ''): FieldProblem[] {
   const out: FieldProblem[] = [];
   for (const e of errors) {
     const field = prefix ? `${prefix}.${e.property}` : e.property;
-    for (const reason of Object.values(e.constraints ?? {})) out.push({ field, reason });
-    if (e.children?.length) out.push(...flatten(e.children, field));
+    for (const reason of reasonsOf(e.constraints ?? {})) out.push({ field, reason });
+    // Inside a value that is not an object there is nothing more to say.
+    if (e.children?.length && !e.constraints?.isObject) out.push(...flatten(e.children, field));
   }
   return out;
 }

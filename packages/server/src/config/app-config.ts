@@ -61,6 +61,8 @@ export interface AppConfig {
     readonly maxPixels: number;
     /** Bytes of exhibits one account may add in all. */
     readonly quotaBytes: number;
+    /** Uploads whose images are decoded and re-encoded at the same time; the rest wait their turn. */
+    readonly processingConcurrency: number;
   };
 }
 
@@ -188,6 +190,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
       maxFileBytes: int(env, 'EXHIBIT_MAX_BYTES', 20 * 1024 * 1024, 1024, 1024 * 1024 * 1024),
       maxPixels: int(env, 'EXHIBIT_MAX_PIXELS', 50_000_000, 10_000, 268_402_689),
       quotaBytes: int(env, 'EXHIBIT_QUOTA_BYTES', 2 * 1024 * 1024 * 1024, 0, Number.MAX_SAFE_INTEGER),
+      processingConcurrency: int(env, 'EXHIBIT_PROCESSING_CONCURRENCY', 2, 1, 64),
     },
   };
 }

@@ -5,6 +5,7 @@ import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { LotsModule } from '../lots/lots.module';
+import { BlockedDigestsModule } from '../registry/blocked-digests.module';
 import { StorageModule } from '../storage/storage.module';
 import { ExhibitEntity } from './entities/exhibit.entity';
 import { ExhibitProcessor } from './exhibit-processor';
@@ -19,6 +20,7 @@ import { multerOptions, UploadGuardInterceptor } from './upload';
     StorageModule,
     LedgerModule,
     LotsModule,
+    BlockedDigestsModule,
     TypeOrmModule.forFeature([ExhibitEntity]),
     MulterModule.registerAsync({ inject: [APP_CONFIG], useFactory: (c: AppConfig) => multerOptions(c) }),
   ],

@@ -1,9 +1,10 @@
 import { stat } from 'node:fs/promises';
 import type { Readable } from 'node:stream';
 import type { ExhibitDerivative, ExhibitFile, ExhibitRef } from '@beadroll/core';
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { DataSource, Repository } from 'typeorm';
+import pLimit from 'p-limit';
+import { DataSource, type EntityManager, Repository } from 'typeorm';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
@@ -11,6 +12,7 @@ import { APP_CONFIG } from '../config/config.module';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService } from '../lots/lots.service';
+import { BlockedDigestsService } from '../registry/blocked-digests.service';
 import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { hashFile } from '../storage/hashing';
 import type { AddExhibitDto } from './dto/add-exhibit.dto';
@@ -34,6 +36,17 @@ export interface ServedExhibitFile {
 
 const NOT_FOUND = () => new AppError('not_found', 'Not found.');
 
+/** First key of the transaction advisory locks on an account's uploads ("BRQU"). */
+const QUOTA_LOCK = 0x42525155;
+/** First key of the transaction advisory locks on a blob name ("BRBL"). */
+const BLOB_LOCK = 0x4252424c;
+
+/** Locks a blob name until the transaction ends: shared while storing it, exclusive to delete it. */
+async function lockBlobName(m: EntityManager, sha256: string, mode: 'shared' | 'exclusive'): Promise<void> {
+  const fn = mode === 'shared' ? 'pg_advisory_xact_lock_shared' : 'pg_advisory_xact_lock';
+  await m.query(`SELECT ${fn}($1, hashtext($2))`, [BLOB_LOCK, sha256]);
+}
+
 const EXTENSIONS: Record<string, string> = {
   'image/jpeg': 'jpg',
   'image/png': 'png',
@@ -44,6 +57,10 @@ const EXTENSIONS: Record<string, string> = {
 
 @Injectable()
 export class ExhibitsService {
+  private readonly log = new Logger(ExhibitsService.name);
+  /** Decoding a photo takes tens of MB: only a few uploads are processed at once. */
+  private readonly processing: pLimit.Limit;
+
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @Inject(BLOB_STORE) private readonly store: BlobStore,
@@ -52,12 +69,18 @@ export class ExhibitsService {
     private readonly processor: ExhibitProcessor,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
-  ) {}
+    private readonly blocked: BlockedDigestsService,
+  ) {
+    this.processing = pLimit(config.exhibits.processingConcurrency);
+  }
 
   /**
    * Turns one uploaded file into one `exhibit-added` entry: checks and normalises it, then in
    * one transaction appends the entry, records where its files are and stores them. A sealed
-   * exhibit (receipts always) goes on the roll only as a sealed-field commitment.
+   * exhibit (receipts always) goes on the roll only as a sealed-field commitment. Bytes the
+   * registrar removed are refused (409 `blocked_content`); the quota is checked under a lock
+   * held by the account's uploads until commit. When the transaction fails after files were
+   * stored, the files this request wrote, and that no exhibit names, are removed again.
    */
   async add(
     actor: Principal,
@@ -68,14 +91,20 @@ export class ExhibitsService {
     if (!upload)
       throw AppError.validation([{ field: 'file', reason: 'is missing: attach one file as "file"' }]);
     const code = await this.lots.readableCode(actor, codeText);
-    await this.checkQuota(actor.id, (await stat(upload.path)).size);
+    // Early refusals, before any decoding; the binding checks are repeated in the transaction.
+    await this.checkQuota(this.dataSource.manager, actor.id, (await stat(upload.path)).size);
+    // The bytes as sent: a stored original downloaded and sent again is caught here, since
+    // re-encoding it would give other bytes.
+    const sent = await hashFile(upload.path);
+    await this.blocked.assertAllowed([sent.sha256]);
 
-    const processed = await this.processor.process(upload.path);
+    const processed = await this.processing(() => this.processor.process(upload.path));
     try {
       const files = [processed.original, ...processed.derivatives];
       const described = await Promise.all(files.map((f) => describe(f)));
       const bytes = described.reduce((n, f) => n + f.size, 0);
-      await this.checkQuota(actor.id, bytes);
+      const digests = [...new Set([sent.sha256, ...described.map((f) => f.sha256)])];
+      await this.blocked.assertAllowed(digests);
       const [original, ...derivatives] = described;
       const ref: ExhibitRef = {
         kind: dto.kind,
@@ -85,46 +114,88 @@ export class ExhibitsService {
       };
       const sealed = dto.sealed === 'true' || dto.kind === 'receipt';
 
-      const row = await this.ledger.withLots([code], async (tx) => {
-        const entry = await tx.append(
-          code,
-          sealed
-            ? {
-                kind: 'exhibit-added',
-                actor: actor.id,
-                body: { sealedOnly: true },
-                sealed: { 'sealed-exhibit': ref },
-              }
-            : { kind: 'exhibit-added', actor: actor.id, body: { exhibit: ref } },
-          { fields: { 'body.exhibit.caption': 'caption', 'body.exhibit.kind': 'kind' } },
-        );
-        const lot = await tx.lock(code);
-        const saved = await tx.manager.getRepository(ExhibitEntity).save(
-          tx.manager.getRepository(ExhibitEntity).create({
-            lotId: lot.id,
-            lotCode: code,
-            seq: entry.seq,
-            addedBy: actor.id,
-            sealed,
-            originalSha256: original.sha256,
-            ref,
-            bytes,
-          }),
-        );
-        // Stored inside the transaction: if a put fails, no entry names missing files.
-        for (const [i, f] of files.entries()) {
-          const put = await this.store.put({ path: f.path });
-          if (put.sha256 !== described[i].sha256)
-            throw new AppError('internal', 'a file changed while it was being stored');
-        }
-        return saved;
-      });
+      const written: string[] = [];
+      let row: ExhibitEntity;
+      try {
+        row = await this.ledger.withLots([code], async (tx) => {
+          const m = tx.manager;
+          // One upload of an account at a time from here to commit, on every server.
+          await m.query('SELECT pg_advisory_xact_lock($1, hashtext($2))', [QUOTA_LOCK, actor.id]);
+          await this.checkQuota(m, actor.id, bytes);
+          // A redaction may have committed since the first look.
+          await this.blocked.assertAllowed(digests, m);
+          const entry = await tx.append(
+            code,
+            sealed
+              ? {
+                  kind: 'exhibit-added',
+                  actor: actor.id,
+                  body: { sealedOnly: true },
+                  sealed: { 'sealed-exhibit': ref },
+                }
+              : { kind: 'exhibit-added', actor: actor.id, body: { exhibit: ref } },
+            { fields: { 'body.exhibit.caption': 'caption', 'body.exhibit.kind': 'kind' } },
+          );
+          const lot = await tx.lock(code);
+          const saved = await m.getRepository(ExhibitEntity).save(
+            m.getRepository(ExhibitEntity).create({
+              lotId: lot.id,
+              lotCode: code,
+              seq: entry.seq,
+              addedBy: actor.id,
+              sealed,
+              originalSha256: original.sha256,
+              ref,
+              bytes,
+            }),
+          );
+          // Stored inside the transaction: if a put fails, no entry names missing files. The
+          // shared lock on each name keeps a failed upload's clean-up away from these files
+          // until this transaction has committed and its row names them.
+          for (const [i, f] of files.entries()) {
+            await lockBlobName(m, described[i].sha256, 'shared');
+            const put = await this.store.put({ path: f.path });
+            if (put.created) written.push(put.sha256);
+            if (put.sha256 !== described[i].sha256)
+              throw new AppError('internal', 'a file changed while it was being stored');
+          }
+          return saved;
+        });
+      } catch (err) {
+        await this.removeUnnamed(written);
+        throw err;
+      }
       return {
         exhibit: toExhibitResponse(row, row.createdAt.toISOString(), this.base(code, false)),
         notes: processed.notes,
       };
     } finally {
       await processed.cleanup();
+    }
+  }
+
+  /**
+   * Deletes blobs a failed upload wrote, unless an exhibit names them (the same bytes may have
+   * been added elsewhere meanwhile: blobs are shared by content). Each name is checked and
+   * deleted under an exclusive lock, so an upload storing the same bytes waits or re-writes.
+   */
+  private async removeUnnamed(digests: string[]): Promise<void> {
+    for (const digest of new Set(digests)) {
+      try {
+        await this.dataSource.transaction(async (m) => {
+          await lockBlobName(m, digest, 'exclusive');
+          const named: unknown[] = await m.query(
+            `SELECT 1 FROM "exhibits"
+              WHERE "original_sha256" = $1
+                 OR "ref" -> 'derivatives' @> jsonb_build_array(jsonb_build_object('sha256', $1::text))
+              LIMIT 1`,
+            [digest],
+          );
+          if (named.length === 0) await this.store.delete(digest);
+        });
+      } catch (err) {
+        this.log.warn(`could not remove unnamed blob ${digest}: ${(err as Error).message}`);
+      }
     }
   }
 
@@ -185,9 +256,9 @@ export class ExhibitsService {
     return isPublic ? `/api/public/lots/${code}/exhibits` : `/api/lots/${code}/exhibits`;
   }
 
-  private async checkQuota(account: string, adding: number): Promise<void> {
+  private async checkQuota(m: EntityManager, account: string, adding: number): Promise<void> {
     const quota = this.config.exhibits.quotaBytes;
-    const rows: Array<{ used: string | null }> = await this.dataSource.query(
+    const rows: Array<{ used: string | null }> = await m.query(
       'SELECT SUM("bytes") AS "used" FROM "exhibits" WHERE "added_by" = $1',
       [account],
     );

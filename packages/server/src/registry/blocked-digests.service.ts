@@ -30,10 +30,14 @@ export class BlockedDigestsService {
     return (await this.blocked.count({ where: { digest } })) > 0;
   }
 
-  /** Refuses an upload whose bytes (any of the given digests) were removed by the registrar. */
-  async assertAllowed(digests: string[]): Promise<void> {
+  /**
+   * Refuses an upload whose bytes (any of the given digests) were removed by the registrar:
+   * 409 `blocked_content`. Pass the upload's transaction as `manager` to see what it sees.
+   */
+  async assertAllowed(digests: string[], manager?: EntityManager): Promise<void> {
     if (!digests.length) return;
-    const hit = await this.blocked.count({ where: { digest: In(digests) } });
+    const repo = manager ? manager.getRepository(BlockedDigest) : this.blocked;
+    const hit = await repo.count({ where: { digest: In([...new Set(digests)]) } });
     if (hit > 0)
       throw new AppError(
         'blocked_content',

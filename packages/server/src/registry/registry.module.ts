@@ -5,8 +5,7 @@ import { RegistryService } from '../accounts/registry.service';
 import { AuthModule } from '../auth/auth.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { StorageModule } from '../storage/storage.module';
-import { BlockedDigestsService } from './blocked-digests.service';
-import { BlockedDigest } from './entities/blocked-digest.entity';
+import { BlockedDigestsModule } from './blocked-digests.module';
 import { RedactionRequest } from './entities/redaction-request.entity';
 import { RegistrarAction } from './entities/registrar-action.entity';
 import { Report } from './entities/report.entity';
@@ -23,12 +22,13 @@ import { ReportsService } from './reports.service';
 /**
  * The registrar's tools: redaction (and holders' requests), the blocked-digest list, reports
  * from public pages, the append-only record of decisions, lapsing a suspended account's open
- * offers, and a dealer's own data (download, closing the account). Import it for
- * BlockedDigestsService: uploads consult it before storing a file.
+ * offers, and a dealer's own data (download, closing the account). The blocked-digest list is
+ * its own small module (BlockedDigestsModule), which uploads import.
  */
 @Module({
   imports: [
-    TypeOrmModule.forFeature([RegistrarAction, BlockedDigest, RedactionRequest, Report]),
+    TypeOrmModule.forFeature([RegistrarAction, RedactionRequest, Report]),
+    BlockedDigestsModule,
     AuthModule,
     AccountsModule,
     LedgerModule,
@@ -44,13 +44,12 @@ import { ReportsService } from './reports.service';
   ],
   providers: [
     RegistrarRecordService,
-    BlockedDigestsService,
     RedactionsService,
     ReportsService,
     OfferLapseService,
     PersonalDataService,
   ],
-  exports: [BlockedDigestsService, RedactionsService, RegistrarRecordService, OfferLapseService],
+  exports: [BlockedDigestsModule, RedactionsService, RegistrarRecordService, OfferLapseService],
 })
 export class RegistryToolsModule implements OnModuleInit {
   constructor(

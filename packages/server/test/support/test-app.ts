@@ -44,10 +44,18 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   return {
     name,
     async drop() {
-      const client = adminClient();
-      await client.connect();
-      await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
-      await client.end();
+      // FORCE ends the database's other sessions; one that is not the app role's (an autovacuum
+      // worker, a tamper test's superuser) only a superuser may end, so drop as one if the run
+      // has one. The client is closed however the drop goes: an open one keeps Jest running.
+      const client = process.env.BEADROLL_TEST_PG_SUPERUSER
+        ? await superuserClient(ADMIN_DATABASE!)
+        : adminClient();
+      try {
+        if (!process.env.BEADROLL_TEST_PG_SUPERUSER) await client.connect();
+        await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+      } finally {
+        await client.end();
+      }
     },
   };
 }

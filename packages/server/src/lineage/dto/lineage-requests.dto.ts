@@ -8,6 +8,8 @@ import {
   MaxLength,
   IsOptional,
   ValidateNested,
+  IsObject,
+  IsDefined,
 } from 'class-validator';
 import { CountDto, LotDescriptionDto } from '../../lots/dto/lot-description.dto';
 
@@ -19,6 +21,8 @@ export const MAX_COMBINED_PARTS = 100;
 /** One new lot of a split: its full description, whose count is the beads it takes. */
 export class SplitChildDto {
   @ApiProperty({ type: LotDescriptionDto, description: 'the count is the beads this child takes' })
+  @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;
@@ -30,6 +34,7 @@ export class SplitLotDto {
   @IsArray()
   @ArrayMinSize(2, { message: 'a split makes at least two lots' })
   @ArrayMaxSize(MAX_SPLIT_CHILDREN)
+  @IsObject({ each: true })
   @ValidateNested({ each: true })
   @Type(() => SplitChildDto)
   children: SplitChildDto[];
@@ -44,6 +49,7 @@ export class CombinedPartDto {
 
   @ApiPropertyOptional({ type: CountDto, description: 'left out: every bead the lot still holds' })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => CountDto)
   count?: CountDto;
@@ -57,6 +63,7 @@ export class CombineLotsDto {
     message: 'a combination takes beads from at least two lots (to divide one lot, split it)',
   })
   @ArrayMaxSize(MAX_COMBINED_PARTS)
+  @IsObject({ each: true })
   @ValidateNested({ each: true })
   @Type(() => CombinedPartDto)
   parts: CombinedPartDto[];
@@ -65,6 +72,8 @@ export class CombineLotsDto {
     type: LotDescriptionDto,
     description: 'the new lot; its count is the sum of the beads taken (estimated if any part is)',
   })
+  @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;

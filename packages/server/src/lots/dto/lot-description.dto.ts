@@ -18,6 +18,7 @@ import {
   IsIn,
   IsInt,
   IsNumber,
+  IsObject,
   IsOptional,
   IsString,
   Max,
@@ -100,12 +101,14 @@ export class LotDescriptionDto {
 
   @ApiProperty({ type: CountDto })
   @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => CountDto)
   count: CountDto;
 
   @ApiPropertyOptional({ type: DiameterDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => DiameterDto)
   diameterMm?: DiameterDto;

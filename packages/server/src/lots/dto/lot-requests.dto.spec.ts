@@ -1,6 +1,9 @@
 import { AppError } from '../../common/app-error';
 import { createValidationPipe } from '../../common/validation';
-import { CreateLotDto, ListLotsQueryDto } from './lot-requests.dto';
+import { CombineLotsDto, SplitLotDto } from '../../lineage/dto/lineage-requests.dto';
+import { RecordOpinionDto } from '../../opinions/dto/opinion-requests.dto';
+import { CreateOfferDto, RecordSaleDto } from '../../transfers/dto/transfer-requests.dto';
+import { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './lot-requests.dto';
 
 const good = {
   description: {
@@ -38,6 +41,53 @@ describe('lot request validation', () => {
   it('names missing required parts', async () => {
     expect(await fieldsOf({})).toEqual(['description']);
     expect(await fieldsOf(withDescription({ count: undefined }))).toEqual(['description.count']);
+  });
+
+  it('names a nested part that is missing or not an object, once', async () => {
+    const problems = async (value: unknown, metatype: new () => object = CreateLotDto) => {
+      try {
+        await createValidationPipe().transform(value, { type: 'body', metatype });
+      } catch (e) {
+        return (e as AppError).fields!;
+      }
+      return [];
+    };
+    for (const description of [undefined, null]) {
+      expect(await problems({ description })).toEqual([
+        { field: 'description', reason: 'description should not be null or undefined' },
+      ]);
+    }
+    for (const description of ['a lot', 5, true, [], [good.description]]) {
+      expect(await problems({ description })).toEqual([
+        { field: 'description', reason: 'description must be an object' },
+      ]);
+    }
+    expect(await fieldsOf({ description: [] }, DescribeLotDto)).toEqual(['description']);
+    expect(await fieldsOf({ observations: [] }, ObserveLotDto)).toEqual(['observations']);
+    expect(await fieldsOf({ ...good, observations: ['powder'] })).toEqual(['observations']);
+    expect(await fieldsOf({ ...good, sealed: [] })).toEqual(['sealed']);
+    expect(await fieldsOf({ ...good, sealed: { acquisition: 'an estate' } })).toEqual(['sealed.acquisition']);
+    expect(await fieldsOf(withDescription({ count: [{ value: 1, estimated: false }] }))).toEqual([
+      'description.count',
+    ]);
+    expect(await fieldsOf(withDescription({ diameterMm: [8, 10] }))).toEqual(['description.diameterMm']);
+  });
+
+  it('names a missing or non-object part in the other writes that nest objects', async () => {
+    const child = { description: good.description };
+    expect(await fieldsOf({ children: [child, {}] }, SplitLotDto)).toEqual(['children.1.description']);
+    expect(await fieldsOf({ children: [child, 'x'] }, SplitLotDto)).toEqual(['children']);
+    expect(
+      await fieldsOf({ parts: [{ lot: 'A' }, { lot: 'B', count: [] }], description: [] }, CombineLotsDto),
+    ).toEqual(['parts.1.count', 'description']);
+    expect(await fieldsOf({ parts: [{ lot: 'A' }, { lot: 'B' }] }, CombineLotsDto)).toEqual(['description']);
+    const opinion = await fieldsOf(
+      { origin: 'venice', technique: 'wound', confidence: 'probable' },
+      RecordOpinionDto,
+    );
+    expect(opinion).toContain('period');
+    expect(await fieldsOf({ to: 'someone', price: [] }, CreateOfferDto)).toContain('price');
+    expect(await fieldsOf({ date: '2026-05-01', price: 'EUR 40' }, RecordSaleDto)).toContain('price');
   });
 
   it('names a negative count', async () => {

@@ -6,6 +6,7 @@ import {
   IsDefined,
   IsIn,
   IsInt,
+  IsObject,
   IsOptional,
   IsString,
   Max,
@@ -21,18 +22,21 @@ import { SealedDetailsDto } from './sealed-details.dto';
 export class CreateLotDto {
   @ApiProperty({ type: LotDescriptionDto })
   @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;
 
   @ApiPropertyOptional({ type: ObservationsDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => ObservationsDto)
   observations?: ObservationsDto;
 
   @ApiPropertyOptional({ type: SealedDetailsDto, description: 'visible only to the registering dealer' })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => SealedDetailsDto)
   sealed?: SealedDetailsDto;
@@ -42,12 +46,14 @@ export class CreateLotDto {
 export class DescribeLotDto {
   @ApiProperty({ type: LotDescriptionDto })
   @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => LotDescriptionDto)
   description: LotDescriptionDto;
 
   @ApiPropertyOptional({ type: SealedDetailsDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => SealedDetailsDto)
   sealed?: SealedDetailsDto;
@@ -57,6 +63,7 @@ export class DescribeLotDto {
 export class ObserveLotDto {
   @ApiProperty({ type: ObservationsDto })
   @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => ObservationsDto)
   observations: ObservationsDto;

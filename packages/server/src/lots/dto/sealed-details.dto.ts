@@ -12,6 +12,7 @@ import {
   Min,
   MinLength,
   ValidateNested,
+  IsObject,
 } from 'class-validator';
 
 /** Money in integer minor units of an ISO 4217 currency. */
@@ -45,6 +46,7 @@ export class AcquisitionDto {
 
   @ApiPropertyOptional({ type: MoneyDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => MoneyDto)
   cost?: MoneyDto;
@@ -61,6 +63,7 @@ export class SealedDetailsDto {
 
   @ApiPropertyOptional({ type: AcquisitionDto, description: 'sealed' })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => AcquisitionDto)
   acquisition?: AcquisitionDto;

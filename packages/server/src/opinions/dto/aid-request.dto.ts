@@ -8,7 +8,17 @@ import {
   type Technique,
 } from '@beadroll/core';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsIn, IsInt, IsOptional, Max, Min, ValidateNested } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsOptional,
+  Max,
+  Min,
+  ValidateNested,
+  IsObject,
+} from 'class-validator';
 import { ObservationsDto } from '../../lots/dto/observations.dto';
 import { YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
 
@@ -41,6 +51,7 @@ export class AidDraftDto {
 
   @ApiPropertyOptional({ type: AidPeriodDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => AidPeriodDto)
   period?: AidPeriodDto;
@@ -50,6 +61,7 @@ export class AidDraftDto {
 export class AttributionAidDto {
   @ApiPropertyOptional({ type: ObservationsDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => ObservationsDto)
   observations?: ObservationsDto;
@@ -63,6 +75,7 @@ export class AttributionAidDto {
 
   @ApiPropertyOptional({ type: AidDraftDto })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => AidDraftDto)
   draft?: AidDraftDto;

@@ -26,6 +26,8 @@ import {
   Min,
   MinLength,
   ValidateNested,
+  IsObject,
+  IsDefined,
 } from 'class-validator';
 
 /** Earliest and latest years the ledger format accepts in a period. */
@@ -65,6 +67,8 @@ export class RecordOpinionDto {
   originNote?: string;
 
   @ApiProperty({ type: PeriodDto })
+  @IsDefined()
+  @IsObject()
   @ValidateNested()
   @Type(() => PeriodDto)
   period: PeriodDto;

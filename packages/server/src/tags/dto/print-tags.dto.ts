@@ -14,6 +14,7 @@ import {
   MaxLength,
   Min,
   ValidateNested,
+  IsObject,
 } from 'class-validator';
 import { GRID_LIMITS, LABEL_LIMITS, PAPERS, TAG_DESIGNS, type Paper, type TagDesign } from '../tag-layout';
 import { MAX_TAGS_PER_PDF } from '../tag-pdf.service';
@@ -108,6 +109,7 @@ export class PrintTagsDto {
 
   @ApiPropertyOptional({ type: SheetDto, description: 'omitted: one label per page, for a label printer' })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => SheetDto)
   sheet?: SheetDto;

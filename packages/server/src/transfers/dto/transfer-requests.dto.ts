@@ -13,6 +13,7 @@ import {
   MinLength,
   ValidateIf,
   ValidateNested,
+  IsObject,
 } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
@@ -54,6 +55,7 @@ export class CreateOfferDto {
 
   @ApiPropertyOptional({ type: MoneyDto, description: 'sealed: visible to the two dealers only' })
   @IsOptional()
+  @IsObject()
   @ValidateNested()
   @Type(() => MoneyDto)
   price?: MoneyDto;
@@ -83,6 +85,7 @@ export class RecordSaleDto {
 
   @ApiProperty({ type: MoneyDto, description: 'sealed: visible to the seller only' })
   @IsDefined({ message: 'price is required: the amount and its currency' })
+  @IsObject()
   @ValidateNested()
   @Type(() => MoneyDto)
   price: MoneyDto;

@@ -1,0 +1,161 @@
+import { DataSource } from 'typeorm';
+import { createAccount, type TestAccount } from './support/accounts';
+import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
+import { binary, leftovers, rollOf, sha256, storedBlobs, upload } from './support/exhibit-http';
+import { description } from './support/lot-fixtures';
+import { createTestApp, type TestApp } from './support/test-app';
+
+// A caption that the test trigger below refuses when the upload's transaction commits.
+const FAIL_AT_COMMIT = 'refused when the transaction commits';
+
+let t: TestApp;
+let registrar: TestAccount;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  registrar = await createAccount(t, { role: 'registrar' });
+}, 60_000);
+afterAll(() => t?.close());
+
+async function newLot(dealer: TestAccount): Promise<string> {
+  const res = await dealer.agent
+    .post('/api/lots')
+    .set('X-Beadroll-Request', '1')
+    .send({ description: description() })
+    .expect(201);
+  return (res.body as { code: string }).code;
+}
+
+/** A small PNG; each width gives other bytes, so tests never share blobs by accident. */
+const png = (width: number) => imageOf('png', width, 80);
+
+function blobsOf(exhibit: { original: { sha256: string }; derivatives: Array<{ sha256: string }> }) {
+  return [exhibit.original.sha256, ...exhibit.derivatives.map((d) => d.sha256)];
+}
+
+function storedNames(): string[] {
+  return storedBlobs(t)
+    .map((p) => p.split('/').pop()!)
+    .sort();
+}
+
+describe('bytes the registrar removed', () => {
+  it('are refused with 409 when sent again, with no entry and no blob written', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const code = await newLot(dealer);
+    // A photo with EXIF and GPS: the stored original is a re-encoding without them.
+    const photo = await jpegWithGps(241, 160);
+    const added = await upload(dealer.agent, code, photo, { kind: 'hole' }).expect(201);
+    const { seq } = added.body.exhibit as { seq: number };
+    const stored = await dealer.agent
+      .get(`/api/lots/${code}/exhibits/${seq}/original`)
+      .buffer(true)
+      .parse(binary);
+    expect(stored.status).toBe(200);
+    const storedOriginal = stored.body as Buffer;
+    expect(sha256(storedOriginal)).not.toBe(sha256(photo));
+
+    await registrar.agent
+      .post('/api/registry/redactions')
+      .set('X-Beadroll-Request', '1')
+      .send({ lot: code, seq, reason: 'unlawful-content' })
+      .expect(200);
+
+    const entries = (await rollOf(dealer.agent, code)).length;
+    const blobs = storedNames();
+    for (const bytes of [photo, storedOriginal]) {
+      const res = await upload(dealer.agent, code, bytes, { kind: 'hole' });
+      expect(res.status).toBe(409);
+      expect(res.body.error).toMatchObject({
+        code: 'blocked_content',
+        message: expect.stringMatching(/removed by the registrar/),
+      });
+    }
+    // Another dealer, on another lot, is refused the same bytes too.
+    const other = await createAccount(t, { role: 'dealer' });
+    const res = await upload(other.agent, await newLot(other), photo, { kind: 'hole' });
+    expect(res.status).toBe(409);
+
+    expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+    expect(storedNames()).toEqual(blobs);
+    expect(leftovers(t)).toEqual([]);
+  });
+});
+
+describe('an upload whose transaction fails after its files were stored', () => {
+  const db = () => t.app.get(DataSource);
+  beforeAll(async () => {
+    // A deferred constraint trigger runs at COMMIT, after the files went into the store.
+    await db().query(`
+      CREATE FUNCTION test_refuse_exhibit() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN
+        IF NEW."ref" ->> 'caption' = '${FAIL_AT_COMMIT}' THEN
+          RAISE EXCEPTION 'exhibit refused at commit (test)';
+        END IF;
+        RETURN NEW;
+      END $$`);
+    await db().query(`
+      CREATE CONSTRAINT TRIGGER test_refuse_exhibit AFTER INSERT ON "exhibits"
+      DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION test_refuse_exhibit()`);
+  });
+  afterAll(async () => {
+    await db().query('DROP TRIGGER test_refuse_exhibit ON "exhibits"');
+    await db().query('DROP FUNCTION test_refuse_exhibit()');
+  });
+
+  it('leaves no blob behind that it wrote', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const code = await newLot(dealer);
+    const entries = (await rollOf(dealer.agent, code)).length;
+    const before = storedNames();
+    const res = await upload(dealer.agent, code, await png(124), { kind: 'hole', caption: FAIL_AT_COMMIT });
+    expect(res.status).toBe(500);
+    expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+    expect(storedNames()).toEqual(before);
+    expect(leftovers(t)).toEqual([]);
+  });
+
+  it('keeps blobs that another exhibit names (files are shared by their bytes)', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const [kept, failing] = [await newLot(dealer), await newLot(dealer)];
+    const photo = await png(125);
+    const ok = await upload(dealer.agent, kept, photo, { kind: 'hole' }, 'a.png', 'image/png').expect(201);
+    const names = blobsOf(ok.body.exhibit);
+    const res = await upload(dealer.agent, failing, photo, { kind: 'hole', caption: FAIL_AT_COMMIT });
+    expect(res.status).toBe(500);
+    for (const d of names) expect(storedNames()).toContain(d);
+    const got = await dealer.agent
+      .get(`/api/lots/${kept}/exhibits/${ok.body.exhibit.seq}/original`)
+      .buffer(true)
+      .parse(binary)
+      .expect(200);
+    expect(sha256(got.body as Buffer)).toBe(names[0]);
+  });
+
+  it('keeps the files of a simultaneous upload of the same bytes that succeeds', async () => {
+    // Two dealers, so that neither the lots' locks nor an account's upload lock line them up;
+    // whichever way the two interleave, the exhibit that was added keeps its files.
+    for (const width of [126, 127, 128]) {
+      const [keeps, fails] = [
+        await createAccount(t, { role: 'dealer' }),
+        await createAccount(t, { role: 'dealer' }),
+      ];
+      const [good, bad] = [await newLot(keeps), await newLot(fails)];
+      const photo = await png(width);
+      const [ok, refused] = await Promise.all([
+        upload(keeps.agent, good, photo, { kind: 'hole' }, 'a.png', 'image/png'),
+        upload(fails.agent, bad, photo, { kind: 'hole', caption: FAIL_AT_COMMIT }, 'b.png', 'image/png'),
+      ]);
+      expect([ok.status, refused.status]).toEqual([201, 500]);
+      const names = storedNames();
+      for (const n of blobsOf(ok.body.exhibit)) expect(names).toContain(n);
+      const got = await keeps.agent
+        .get(`/api/lots/${good}/exhibits/${ok.body.exhibit.seq}/original`)
+        .buffer(true)
+        .parse(binary)
+        .expect(200);
+      expect(sha256(got.body as Buffer)).toBe(ok.body.exhibit.original.sha256);
+    }
+    expect(leftovers(t)).toEqual([]);
+  });
+});
