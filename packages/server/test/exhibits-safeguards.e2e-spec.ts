@@ -3,7 +3,7 @@ import { createAccount, type TestAccount } from './support/accounts';
 import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
 import { binary, leftovers, rollOf, sha256, storedBlobs, upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { createTestApp, superuserClient, type TestApp } from './support/test-app';
 
 // A caption that the test trigger below refuses when the upload's transaction commits.
 const FAIL_AT_COMMIT = 'refused when the transaction commits';
@@ -76,6 +76,68 @@ describe('bytes the registrar removed', () => {
     const res = await upload(other.agent, await newLot(other), photo, { kind: 'hole' });
     expect(res.status).toBe(409);
 
+    expect((await rollOf(dealer.agent, code)).length).toBe(entries);
+    expect(storedNames()).toEqual(blobs);
+    expect(leftovers(t)).toEqual([]);
+  });
+});
+
+describe('the file as the dealer sent it', () => {
+  it('is blocked by a redaction on its own, apart from the digests of the stored files', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const code = await newLot(dealer);
+    const photo = await jpegWithGps(243, 160);
+    const sent = sha256(photo);
+    const added = await upload(dealer.agent, code, photo, { kind: 'hole' }).expect(201);
+    const exhibit = added.body.exhibit as Parameters<typeof blobsOf>[0] & { seq: number };
+    const stored = blobsOf(exhibit);
+    expect(stored).not.toContain(sent);
+    // Kept on the server only: the bytes as sent may still hold the GPS position.
+    const rows: Array<{ sent_sha256: string }> = await t.app
+      .get(DataSource)
+      .query('SELECT "sent_sha256" FROM "exhibits" WHERE "lot_code" = $1 AND "seq" = $2', [
+        code,
+        exhibit.seq,
+      ]);
+    expect(rows).toEqual([{ sent_sha256: sent }]);
+    const listed = await dealer.agent.get(`/api/lots/${code}/exhibits`).expect(200);
+    for (const body of [added.body, listed.body]) expect(JSON.stringify(body)).not.toContain(sent);
+
+    const redacted = await registrar.agent
+      .post('/api/registry/redactions')
+      .set('X-Beadroll-Request', '1')
+      .send({ lot: code, seq: exhibit.seq, reason: 'personal-data' })
+      .expect(200);
+    expect([...redacted.body.blockedDigests].sort()).toEqual([...stored].sort());
+    expect(JSON.stringify(redacted.body)).not.toContain(sent);
+    const record = await registrar.agent.get('/api/registry/actions/export?format=json').expect(200);
+    expect(JSON.stringify(record.body)).not.toContain(sent);
+    const blockedRows: Array<{ digest: string; lot: string; seq: number }> = await t.app
+      .get(DataSource)
+      .query('SELECT "digest", "lot", "seq" FROM "blocked_digests" WHERE "digest" = $1', [sent]);
+    expect(blockedRows).toEqual([{ digest: sent, lot: code, seq: exhibit.seq }]);
+
+    // As if normalising had changed since: the stored files' digests would no longer match
+    // what the same photo now becomes. The list is append-only, so the superuser lifts the
+    // stored digests with triggers off for one transaction.
+    const su = await superuserClient(t.db.name);
+    try {
+      await su.query('BEGIN');
+      await su.query(`SET LOCAL session_replication_role = 'replica'`);
+      await su.query('DELETE FROM "blocked_digests" WHERE "digest" = ANY($1)', [stored]);
+      await su.query('COMMIT');
+    } finally {
+      await su.end();
+    }
+    const left: unknown[] = await t.app
+      .get(DataSource)
+      .query('SELECT 1 FROM "blocked_digests" WHERE "digest" = ANY($1)', [stored]);
+    expect(left).toEqual([]);
+    const entries = (await rollOf(dealer.agent, code)).length;
+    const blobs = storedNames();
+    const again = await upload(dealer.agent, code, photo, { kind: 'hole' });
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ code: 'blocked_content' });
     expect((await rollOf(dealer.agent, code)).length).toBe(entries);
     expect(storedNames()).toEqual(blobs);
     expect(leftovers(t)).toEqual([]);

@@ -4,6 +4,7 @@ import { CreateLedger1796157689568 } from '../migrations/1796157689568-CreateLed
 import { CreateTransfers1796159943028 } from '../migrations/1796159943028-CreateTransfers';
 import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-CreateRegistrarTools';
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
+import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -12,4 +13,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateTransfers1796159943028,
   CreateExhibits1796160000000,
   CreateRegistrarTools1796161169142,
+  AddExhibitSentDigest1796172657749,
 ];

@@ -145,6 +145,7 @@ export class ExhibitsService {
               addedBy: actor.id,
               sealed,
               originalSha256: original.sha256,
+              sentSha256: sent.sha256,
               ref,
               bytes,
             }),

@@ -105,6 +105,16 @@ export class RedactionsService {
       const [target] = await this.reader.entries(lot!.id, { fromSeq: seq, limit: 1 }, tx.manager);
       if (!target || target.seq !== seq) throw seqProblem(`lot ${code} has no entry ${seq}`);
       if (target.body === null) throw seqProblem(`entry ${seq} is already redacted`);
+      // Read before the redaction deletes the exhibit's row: the file as the dealer sent it is
+      // blocked too, so the same upload is refused even if normalising it would now give other
+      // bytes. That digest stays on the server: it is not in the response or the record.
+      const sent: Array<{ sent_sha256: string | null }> =
+        target.kind === 'exhibit-added'
+          ? await tx.manager.query(
+              'SELECT "sent_sha256" FROM "exhibits" WHERE "lot_id" = $1 AND "seq" = $2',
+              [lot!.id, seq],
+            )
+          : [];
       let entry;
       try {
         entry = await tx.redact(code, registrar, seq, reason);
@@ -114,7 +124,8 @@ export class RedactionsService {
       }
       const digests =
         target.kind === 'exhibit-added' ? exhibitDigests(JSON.parse(target.body) as ExhibitAddedBody) : [];
-      await this.blocked.block(digests, { lot: code, seq, reason }, tx.manager);
+      const asSent = sent.flatMap((r) => (r.sent_sha256 ? [r.sent_sha256] : []));
+      await this.blocked.block([...digests, ...asSent], { lot: code, seq, reason }, tx.manager);
       await this.record.record(
         {
           actor: registrar,
