@@ -1,4 +1,5 @@
 import { DataSource } from 'typeorm';
+import { BLOB_LOCK } from '../src/storage/blob-locks';
 import { createAccount, type TestAccount } from './support/accounts';
 import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
 import { binary, leftovers, rollOf, sha256, storedBlobs, upload } from './support/exhibit-http';
@@ -218,6 +219,85 @@ describe('an upload whose transaction fails after its files were stored', () => 
         .expect(200);
       expect(sha256(got.body as Buffer)).toBe(ok.body.exhibit.original.sha256);
     }
+    expect(leftovers(t)).toEqual([]);
+  });
+});
+
+describe('an upload of the same bytes while a redaction is under way', () => {
+  const db = () => t.app.get(DataSource);
+  // An advisory key only this test takes: a trigger makes the redaction wait on it just before
+  // it records its decision, that is after it has blocked the bytes and locked the files' names.
+  const PAUSE = [0x54455354, 1] as const;
+  beforeAll(async () => {
+    await db().query(`
+      CREATE FUNCTION test_pause_record() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN
+        PERFORM pg_advisory_xact_lock(${PAUSE[0]}, ${PAUSE[1]});
+        RETURN NEW;
+      END $$`);
+    await db().query(`
+      CREATE TRIGGER test_pause_record BEFORE INSERT ON "registrar_actions"
+      FOR EACH ROW EXECUTE FUNCTION test_pause_record()`);
+  });
+  afterAll(async () => {
+    await db().query('DROP TRIGGER test_pause_record ON "registrar_actions"');
+    await db().query('DROP FUNCTION test_pause_record()');
+  });
+
+  /** Waits until some session of this database waits for an advisory lock whose first key is `key`. */
+  async function waitingOn(key: number): Promise<void> {
+    for (let i = 0; i < 400; i++) {
+      const rows: unknown[] = await db().query(
+        `SELECT 1 FROM pg_locks l JOIN pg_database d ON d.oid = l.database
+          WHERE l.locktype = 'advisory' AND NOT l.granted AND l.classid = $1::bigint::oid
+            AND d.datname = current_database()`,
+        [key],
+      );
+      if (rows.length) return;
+      await new Promise((r) => setTimeout(r, 25));
+    }
+    throw new Error(`nothing waited for advisory lock ${key}`);
+  }
+
+  it('waits for the redaction to commit, is then refused, and stores nothing', async () => {
+    const [holder, other] = [
+      await createAccount(t, { role: 'dealer' }),
+      await createAccount(t, { role: 'dealer' }),
+    ];
+    const [code, otherCode] = [await newLot(holder), await newLot(other)];
+    const photo = await png(133);
+    const added = await upload(holder.agent, code, photo, { kind: 'hole' }, 'a.png', 'image/png').expect(201);
+    const names = blobsOf(added.body.exhibit);
+    const entries = (await rollOf(other.agent, otherCode)).length;
+
+    const pause = db().createQueryRunner();
+    await pause.connect();
+    let redaction: Promise<{ status: number }> | undefined;
+    let again: Promise<{ status: number; body: { error?: { code: string } } }> | undefined;
+    try {
+      await pause.startTransaction();
+      await pause.query('SELECT pg_advisory_xact_lock($1, $2)', [...PAUSE]);
+      redaction = registrar.agent
+        .post('/api/registry/redactions')
+        .set('X-Beadroll-Request', '1')
+        .send({ lot: code, seq: added.body.exhibit.seq, reason: 'unlawful-content' })
+        .then((r) => r);
+      await waitingOn(PAUSE[0]);
+      // The redaction has blocked the bytes, not yet committed, and holds the names. The early
+      // look at the blocked list cannot see the block yet; the upload gets as far as the lock.
+      again = upload(other.agent, otherCode, photo, { kind: 'hole' }, 'b.png', 'image/png').then((r) => r);
+      await waitingOn(BLOB_LOCK);
+      for (const n of names) expect(storedNames()).toContain(n);
+    } finally {
+      await pause.commitTransaction();
+      await pause.release();
+    }
+    expect((await redaction).status).toBe(200);
+    const res = await again!;
+    expect(res.status).toBe(409);
+    expect(res.body.error).toMatchObject({ code: 'blocked_content' });
+    expect((await rollOf(other.agent, otherCode)).length).toBe(entries);
+    for (const n of names) expect(storedNames()).not.toContain(n);
     expect(leftovers(t)).toEqual([]);
   });
 });

@@ -13,6 +13,7 @@ import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService } from '../lots/lots.service';
 import { BlockedDigestsService } from '../registry/blocked-digests.service';
+import { lockBlobNames } from '../storage/blob-locks';
 import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { hashFile } from '../storage/hashing';
 import type { AddExhibitDto } from './dto/add-exhibit.dto';
@@ -38,15 +39,6 @@ const NOT_FOUND = () => new AppError('not_found', 'Not found.');
 
 /** First key of the transaction advisory locks on an account's uploads ("BRQU"). */
 const QUOTA_LOCK = 0x42525155;
-/** First key of the transaction advisory locks on a blob name ("BRBL"). */
-const BLOB_LOCK = 0x4252424c;
-
-/** Locks a blob name until the transaction ends: shared while storing it, exclusive to delete it. */
-async function lockBlobName(m: EntityManager, sha256: string, mode: 'shared' | 'exclusive'): Promise<void> {
-  const fn = mode === 'shared' ? 'pg_advisory_xact_lock_shared' : 'pg_advisory_xact_lock';
-  await m.query(`SELECT ${fn}($1, hashtext($2))`, [BLOB_LOCK, sha256]);
-}
-
 const EXTENSIONS: Record<string, string> = {
   'image/jpeg': 'jpg',
   'image/png': 'png',
@@ -122,7 +114,17 @@ export class ExhibitsService {
           // One upload of an account at a time from here to commit, on every server.
           await m.query('SELECT pg_advisory_xact_lock($1, hashtext($2))', [QUOTA_LOCK, actor.id]);
           await this.checkQuota(m, actor.id, bytes);
-          // A redaction may have committed since the first look.
+          // Shared locks on the names of every file to store, then a second look at the blocked
+          // list. A redaction of the same bytes blocks them and holds these names exclusively
+          // until it commits, so this look either comes after that commit and sees them blocked,
+          // or the redaction waits for this upload to commit and then removes its files with
+          // every other copy of those bytes. The locks stay until this transaction ends: a
+          // failed upload's clean-up cannot sweep these files before the row names them.
+          await lockBlobNames(
+            m,
+            described.map((f) => f.sha256),
+            'shared',
+          );
           await this.blocked.assertAllowed(digests, m);
           const entry = await tx.append(
             code,
@@ -150,11 +152,8 @@ export class ExhibitsService {
               bytes,
             }),
           );
-          // Stored inside the transaction: if a put fails, no entry names missing files. The
-          // shared lock on each name keeps a failed upload's clean-up away from these files
-          // until this transaction has committed and its row names them.
+          // Stored inside the transaction: if a put fails, no entry names missing files.
           for (const [i, f] of files.entries()) {
-            await lockBlobName(m, described[i].sha256, 'shared');
             const put = await this.store.put({ path: f.path });
             if (put.created) written.push(put.sha256);
             if (put.sha256 !== described[i].sha256)
@@ -184,7 +183,7 @@ export class ExhibitsService {
     for (const digest of new Set(digests)) {
       try {
         await this.dataSource.transaction(async (m) => {
-          await lockBlobName(m, digest, 'exclusive');
+          await lockBlobNames(m, [digest], 'exclusive');
           const named: unknown[] = await m.query(
             `SELECT 1 FROM "exhibits"
               WHERE "original_sha256" = $1

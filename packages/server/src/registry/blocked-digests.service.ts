@@ -9,13 +9,16 @@ import { BlockedDigest } from './entities/blocked-digest.entity';
 export class BlockedDigestsService {
   constructor(@InjectRepository(BlockedDigest) private readonly blocked: Repository<BlockedDigest>) {}
 
-  /** Adds digests (already blocked ones are left as they are), inside `manager`'s transaction. */
+  /**
+   * Adds digests (already blocked ones are left as they are), inside `manager`'s transaction.
+   * Sorted, so two redactions blocking some of the same bytes wait for each other in one order.
+   */
   async block(
     digests: string[],
     from: { lot: string; seq: number; reason: string },
     manager: EntityManager,
   ): Promise<void> {
-    const unique = [...new Set(digests)];
+    const unique = [...new Set(digests)].sort();
     if (!unique.length) return;
     await manager
       .createQueryBuilder()

@@ -5,6 +5,7 @@ import type { Repository } from 'typeorm';
 import { AppError } from '../common/app-error';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { lockBlobNames } from '../storage/blob-locks';
 import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { BlockedDigestsService } from './blocked-digests.service';
 import { RedactionRequest, type RedactionRequestStatus } from './entities/redaction-request.entity';
@@ -126,6 +127,11 @@ export class RedactionsService {
         target.kind === 'exhibit-added' ? exhibitDigests(JSON.parse(target.body) as ExhibitAddedBody) : [];
       const asSent = sent.flatMap((r) => (r.sent_sha256 ? [r.sent_sha256] : []));
       await this.blocked.block([...digests, ...asSent], { lot: code, seq, reason }, tx.manager);
+      // The names of the files to delete, exclusively until commit, after blocking their bytes in
+      // this transaction. An upload storing the same bytes holds them shared: this waits until it
+      // has committed, and its entry then loses the files with every other copy. An upload that
+      // comes later waits for this commit and its look at the blocked list afterwards refuses it.
+      await lockBlobNames(tx.manager, digests, 'exclusive');
       await this.record.record(
         {
           actor: registrar,
@@ -151,7 +157,9 @@ export class RedactionsService {
     });
     // Files go after the transaction commits: a failed commit must not lose a file still named.
     // Blobs are named by their bytes, so a copy of the same file on another lot goes too: the
-    // bytes are blocked everywhere from now on.
+    // bytes are blocked everywhere from now on. No upload can store them again from the commit
+    // on (it would have to pass the blocked list after taking the names' lock), so deleting
+    // needs no lock of its own.
     for (const d of result.blockedDigests) await this.blobs.delete(d);
     this.log.log(`redacted ${code} seq ${seq} (${reason})`);
     return result;
