@@ -1,3 +1,4 @@
+import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { BLOB_LOCK } from '../src/storage/blob-locks';
 import { createAccount, type TestAccount } from './support/accounts';
@@ -101,8 +102,20 @@ describe('the file as the dealer sent it', () => {
         exhibit.seq,
       ]);
     expect(rows).toEqual([{ sent_sha256: sent }]);
-    const listed = await dealer.agent.get(`/api/lots/${code}/exhibits`).expect(200);
-    for (const body of [added.body, listed.body]) expect(JSON.stringify(body)).not.toContain(sent);
+    const seen = [
+      added.body,
+      (await dealer.agent.get(`/api/lots/${code}/exhibits`).expect(200)).body,
+      (await dealer.agent.get(`/api/lots/${code}/roll`).expect(200)).body,
+      (await request(t.app.getHttpServer()).get(`/api/public/lots/${code}`).expect(200)).body,
+      (await request(t.app.getHttpServer()).get(`/api/public/lots/${code}/bundle`).expect(200)).text,
+    ];
+    for (const body of seen) expect(JSON.stringify(body)).not.toContain(sent);
+    // The dealer's own download of what Beadroll holds about them names it; no one else's does.
+    const own = await dealer.agent.get('/api/account/personal-data').expect(200);
+    expect(own.body.exhibitsAsSent).toEqual([{ lot: code, seq: exhibit.seq, sha256: sent }]);
+    const someoneElse = await createAccount(t, { role: 'dealer' });
+    const theirs = await someoneElse.agent.get('/api/account/personal-data').expect(200);
+    expect(JSON.stringify(theirs.body)).not.toContain(sent);
 
     const redacted = await registrar.agent
       .post('/api/registry/redactions')

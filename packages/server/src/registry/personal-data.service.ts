@@ -50,6 +50,12 @@ export interface PersonalDataExport {
     commitment: string;
   }>;
   lotsHeld: string[];
+  /**
+   * The SHA-256 of each exhibit file exactly as the account sent it, before it was normalised.
+   * Beadroll keeps it on the server only (never on a roll or in any other response), so that a
+   * file the registrar removes is refused if sent again.
+   */
+  exhibitsAsSent: Array<{ lot: string; seq: number; sha256: string }>;
   redactionRequests: Array<{ lot: string; seq: number; note: string; status: string; createdAt: string }>;
   /** The registrar's recorded decisions about this account. */
   registrarDecisions: Array<{ at: string; action: string; reason: string | null }>;
@@ -103,6 +109,10 @@ export class PersonalDataService {
     const held = await q<{ code: string }>(
       `SELECT "code" FROM "lot_views" WHERE "holder" = $1::text ORDER BY "code"`,
     );
+    const asSent = await q<{ lot: string; seq: number; sha256: string }>(
+      `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
+        WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
+    );
     const requests = await q<{ lot: string; seq: number; note: string; status: string; created_at: Date }>(
       `SELECT "lot", "seq", "note", "status", "created_at" FROM "redaction_requests" WHERE "requester" = $1 ORDER BY "created_at"`,
     );
@@ -136,6 +146,7 @@ export class PersonalDataService {
       entries,
       sealedDetails: sealed.map((s) => ({ ...s, value: JSON.parse(s.value) as unknown })),
       lotsHeld: held.map((h) => h.code),
+      exhibitsAsSent: asSent,
       redactionRequests: requests.map((r) => ({
         lot: r.lot,
         seq: r.seq,

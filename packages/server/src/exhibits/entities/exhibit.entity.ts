@@ -37,8 +37,8 @@ export class ExhibitEntity {
   /**
    * SHA-256 of the file exactly as the dealer sent it, before normalisation (null on rows from
    * before it was kept). Server-side only: it names bytes that may still hold what the stored
-   * file had removed (a photo's GPS position), so it goes on no roll and in no response. A
-   * redaction blocks it with the stored files.
+   * file had removed (a photo's GPS position), so it goes on no roll and in no response but the
+   * dealer's own personal-data download. A redaction blocks it with the stored files.
    */
   @Column({ name: 'sent_sha256', type: 'char', length: 64, nullable: true, select: false })
   sentSha256: string | null;
