@@ -84,6 +84,43 @@ describe('bytes the registrar removed', () => {
   });
 });
 
+describe('a sealed exhibit the registrar removes', () => {
+  it('loses its stored files too, though its public body names none, and its bytes are blocked', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const code = await newLot(dealer);
+    const receipt = await png(233);
+    const added = await upload(
+      dealer.agent,
+      code,
+      receipt,
+      { kind: 'receipt' },
+      'receipt.png',
+      'image/png',
+    ).expect(201);
+    const exhibit = added.body.exhibit as {
+      seq: number;
+      sealed: boolean;
+      original: { sha256: string };
+      derivatives: Array<{ sha256: string }>;
+    };
+    expect(exhibit.sealed).toBe(true);
+    const files = blobsOf(exhibit);
+    for (const f of files) expect(storedNames()).toContain(f);
+
+    const res = await registrar.agent
+      .post('/api/registry/redactions')
+      .set('X-Beadroll-Request', '1')
+      .send({ lot: code, seq: exhibit.seq, reason: 'personal-data' })
+      .expect(200);
+    // The registrar's answer names no sealed digest.
+    expect(res.body.blockedDigests).toEqual([]);
+    for (const f of files) expect(storedNames()).not.toContain(f);
+    const again = await upload(dealer.agent, code, receipt, { kind: 'receipt' }, 'receipt.png', 'image/png');
+    expect(again.status).toBe(409);
+    expect(again.body.error.code).toBe('blocked_content');
+  });
+});
+
 describe('the file as the dealer sent it', () => {
   it('is blocked by a redaction on its own, apart from the digests of the stored files', async () => {
     const dealer = await createAccount(t, { role: 'dealer' });

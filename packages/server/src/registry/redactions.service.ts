@@ -1,6 +1,6 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import type { ExhibitAddedBody, RedactionReason } from '@beadroll/core';
+import type { ExhibitAddedBody, ExhibitRef, RedactionReason } from '@beadroll/core';
 import type { Repository } from 'typeorm';
 import { AppError } from '../common/app-error';
 import { LedgerService } from '../ledger/ledger.service';
@@ -109,10 +109,11 @@ export class RedactionsService {
       // Read before the redaction deletes the exhibit's row: the file as the dealer sent it is
       // blocked too, so the same upload is refused even if normalising it would now give other
       // bytes. That digest stays on the server: it is not in the response or the record.
-      const sent: Array<{ sent_sha256: string | null }> =
+      // The row also names the stored files of a sealed exhibit, whose public body does not.
+      const rows: Array<{ sent_sha256: string | null; ref: ExhibitRef | null }> =
         target.kind === 'exhibit-added'
           ? await tx.manager.query(
-              'SELECT "sent_sha256" FROM "exhibits" WHERE "lot_id" = $1 AND "seq" = $2',
+              'SELECT "sent_sha256", "ref" FROM "exhibits" WHERE "lot_id" = $1 AND "seq" = $2',
               [lot!.id, seq],
             )
           : [];
@@ -125,13 +126,22 @@ export class RedactionsService {
       }
       const digests =
         target.kind === 'exhibit-added' ? exhibitDigests(JSON.parse(target.body) as ExhibitAddedBody) : [];
-      const asSent = sent.flatMap((r) => (r.sent_sha256 ? [r.sent_sha256] : []));
-      await this.blocked.block([...digests, ...asSent], { lot: code, seq, reason }, tx.manager);
+      // Every stored file goes, a sealed exhibit's too; the answer names only the public ones.
+      const stored = [
+        ...new Set([
+          ...digests,
+          ...rows.flatMap((r) =>
+            r.ref ? [r.ref.original.sha256, ...r.ref.derivatives.map((d) => d.sha256)] : [],
+          ),
+        ]),
+      ];
+      const asSent = rows.flatMap((r) => (r.sent_sha256 ? [r.sent_sha256] : []));
+      await this.blocked.block([...stored, ...asSent], { lot: code, seq, reason }, tx.manager);
       // The names of the files to delete, exclusively until commit, after blocking their bytes in
       // this transaction. An upload storing the same bytes holds them shared: this waits until it
       // has committed, and its entry then loses the files with every other copy. An upload that
       // comes later waits for this commit and its look at the blocked list afterwards refuses it.
-      await lockBlobNames(tx.manager, digests, 'exclusive');
+      await lockBlobNames(tx.manager, stored, 'exclusive');
       await this.record.record(
         {
           actor: registrar,
@@ -153,16 +163,26 @@ export class RedactionsService {
           },
         );
       }
-      return { lot: code, seq, redactionSeq: entry.seq, reason, time: entry.time, blockedDigests: digests };
+      return {
+        response: {
+          lot: code,
+          seq,
+          redactionSeq: entry.seq,
+          reason,
+          time: entry.time,
+          blockedDigests: digests,
+        },
+        stored,
+      };
     });
     // Files go after the transaction commits: a failed commit must not lose a file still named.
     // Blobs are named by their bytes, so a copy of the same file on another lot goes too: the
     // bytes are blocked everywhere from now on. No upload can store them again from the commit
     // on (it would have to pass the blocked list after taking the names' lock), so deleting
     // needs no lock of its own.
-    for (const d of result.blockedDigests) await this.blobs.delete(d);
+    for (const d of result.stored) await this.blobs.delete(d);
     this.log.log(`redacted ${code} seq ${seq} (${reason})`);
-    return result;
+    return result.response;
   }
 
   /** A holder asks the registrar to remove one of the holder's own entries. */
