@@ -9,39 +9,40 @@ import helmet from 'helmet';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG } from './config/config.module';
 import { createValidationPipe } from './common/validation';
+import { publicLotFastPath } from './lots/public-lot-fast-path';
 
 /** Paths served outside the /api prefix (development pages). */
 const UNPREFIXED = [{ path: 'dev/{*rest}', method: RequestMethod.ALL }];
 
 /**
- * Applies everything a running server needs on top of the module graph: security headers,
- * cookies, the /api prefix, validation, the OpenAPI document and the built web app.
+ * Applies everything a running server needs on top of the module graph: the public lot data's
+ * fast path, security headers, cookies, the /api prefix, validation, the OpenAPI document and the built web app.
  * Used by main.ts and by the e2e tests, so both run the same stack.
  */
 export function configureApp(app: NestExpressApplication): AppConfig {
   const config = app.get<AppConfig>(APP_CONFIG);
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'"],
-          // Fluent UI inserts its generated styles at run time.
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          fontSrc: ["'self'"],
-          connectSrc: ["'self'"],
-          mediaSrc: ["'self'", 'blob:'],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-          upgradeInsecureRequests: null,
-        },
+  const securityHeaders = helmet({
+    contentSecurityPolicy: {
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        // Fluent UI inserts its generated styles at run time.
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        fontSrc: ["'self'"],
+        connectSrc: ["'self'"],
+        mediaSrc: ["'self'", 'blob:'],
+        objectSrc: ["'none'"],
+        frameAncestors: ["'none'"],
+        upgradeInsecureRequests: null,
       },
-      crossOriginEmbedderPolicy: false,
-    }),
-  );
+    },
+    crossOriginEmbedderPolicy: false,
+  });
+  app.use(publicLotFastPath(app, securityHeaders));
+  app.use(securityHeaders);
   app.use(cookieParser());
   app.setGlobalPrefix('api', { exclude: UNPREFIXED });
   app.useGlobalPipes(createValidationPipe());

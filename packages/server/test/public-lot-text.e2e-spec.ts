@@ -78,4 +78,25 @@ describe('public lot data as one statement', () => {
     expect(bare(a)).toEqual(bare(b));
     expect(bare(a)).toEqual({ error: { code: 'not_found', message: 'Not found.' } });
   });
+
+  it('answers a plain anonymous GET ahead of the router exactly as the controller does', async () => {
+    // A cookie header sends the request through the controller; a plain GET takes the fast path.
+    const server = t.app.getHttpServer();
+    const comparable = (r: request.Response) => {
+      const headers: Record<string, string> = { ...(r.headers as Record<string, string>) };
+      expect(headers['x-request-id']).toMatch(/^[0-9a-f-]{36}$/);
+      delete headers['x-request-id'];
+      delete headers['date'];
+      return { status: r.status, headers, text: r.text };
+    };
+    for (const { code } of lots.filter((l) => l.listed).slice(0, 5)) {
+      const fast = await request(server).get(`/api/public/lots/${code}`).expect(200);
+      const routed = await request(server)
+        .get(`/api/public/lots/${code}`)
+        .set('Cookie', 'unrelated=1')
+        .expect(200);
+      expect(comparable(fast)).toEqual(comparable(routed));
+      expect(Object.keys(fast.headers)).toEqual(Object.keys(routed.headers));
+    }
+  });
 });

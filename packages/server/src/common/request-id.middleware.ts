@@ -3,6 +3,7 @@ import { Injectable, Logger, type NestMiddleware } from '@nestjs/common';
 import type { NextFunction, Request, Response } from 'express';
 
 const REQUEST_ID = Symbol('requestId');
+const logger = new Logger('http');
 
 /** The id given to a request by RequestIdMiddleware (or "-" before it ran). */
 export function requestIdOf(req: Request): string {
@@ -10,23 +11,28 @@ export function requestIdOf(req: Request): string {
 }
 
 /**
- * Gives every request an id (echoed as X-Request-Id) and logs one line per request.
- * Logs carry the path only: query strings can hold one-time tokens.
+ * Gives a request its id (echoed as X-Request-Id) and logs one line when its answer is sent,
+ * timed from `started` (process.hrtime.bigint()). Logs carry the path only: query strings can
+ * hold one-time tokens.
  */
+export function tagRequest(req: Request, res: Response, started = process.hrtime.bigint()): void {
+  const id = randomUUID();
+  (req as unknown as Record<symbol, string>)[REQUEST_ID] = id;
+  res.setHeader('X-Request-Id', id);
+  res.on('finish', () => {
+    const ms = Number(process.hrtime.bigint() - started) / 1e6;
+    const url = req.originalUrl ?? req.url;
+    const query = url.indexOf('?');
+    const path = query < 0 ? url : url.slice(0, query);
+    logger.log(`${id} ${req.method} ${path} ${res.statusCode} ${ms.toFixed(1)}ms`);
+  });
+}
+
+/** Gives every request an id and a log line (see {@link tagRequest}). */
 @Injectable()
 export class RequestIdMiddleware implements NestMiddleware {
-  private readonly logger = new Logger('http');
-
   use(req: Request, res: Response, next: NextFunction): void {
-    const id = randomUUID();
-    (req as unknown as Record<symbol, string>)[REQUEST_ID] = id;
-    res.setHeader('X-Request-Id', id);
-    const started = process.hrtime.bigint();
-    res.on('finish', () => {
-      const ms = Number(process.hrtime.bigint() - started) / 1e6;
-      const path = (req.originalUrl ?? req.url).split('?')[0];
-      this.logger.log(`${id} ${req.method} ${path} ${res.statusCode} ${ms.toFixed(1)}ms`);
-    });
+    tagRequest(req, res);
     next();
   }
 }
