@@ -1,5 +1,24 @@
-import { ValidationPipe, type ValidationError } from '@nestjs/common';
+import { applyDecorators, ValidationPipe, type ValidationError } from '@nestjs/common';
+import { Type } from 'class-transformer';
+import { IsDefined, IsObject, IsOptional, ValidateNested } from 'class-validator';
 import { AppError, type FieldProblem } from './app-error';
+
+/**
+ * A field holding one nested object of class `type`: required (unless `optional`), an object and
+ * not a list or a scalar, and validated as `type`. `missing` replaces the message for a missing
+ * value.
+ */
+export function NestedObject(
+  type: () => new () => object,
+  opts: { optional?: boolean; missing?: string } = {},
+): PropertyDecorator {
+  return applyDecorators(
+    opts.optional ? IsOptional() : IsDefined(opts.missing ? { message: opts.missing } : undefined),
+    IsObject(),
+    ValidateNested(),
+    Type(type),
+  );
+}
 
 /**
  * The reasons worth showing for one field: a missing value is only "missing" (not also "not an

@@ -6,12 +6,11 @@ import {
   IsArray,
   IsString,
   MaxLength,
-  IsOptional,
   ValidateNested,
   IsObject,
-  IsDefined,
 } from 'class-validator';
 import { CountDto, LotDescriptionDto } from '../../lots/dto/lot-description.dto';
+import { NestedObject } from '../../common/validation';
 
 /** The largest number of lots one split makes (the ledger format allows 500 children). */
 export const MAX_SPLIT_CHILDREN = 500;
@@ -21,10 +20,7 @@ export const MAX_COMBINED_PARTS = 100;
 /** One new lot of a split: its full description, whose count is the beads it takes. */
 export class SplitChildDto {
   @ApiProperty({ type: LotDescriptionDto, description: 'the count is the beads this child takes' })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => LotDescriptionDto)
+  @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
 }
 
@@ -48,10 +44,7 @@ export class CombinedPartDto {
   lot: string;
 
   @ApiPropertyOptional({ type: CountDto, description: 'left out: every bead the lot still holds' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => CountDto)
+  @NestedObject(() => CountDto, { optional: true })
   count?: CountDto;
 }
 
@@ -72,9 +65,6 @@ export class CombineLotsDto {
     type: LotDescriptionDto,
     description: 'the new lot; its count is the sum of the beads taken (estimated if any part is)',
   })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => LotDescriptionDto)
+  @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
 }

@@ -8,27 +8,24 @@ import {
   type Decoration,
   type LotForm,
 } from '@beadroll/core';
-import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
   ArrayUnique,
   IsArray,
   IsBoolean,
-  IsDefined,
   IsIn,
   IsInt,
   IsNumber,
-  IsObject,
   IsOptional,
   IsString,
   Max,
   MaxLength,
   Min,
   MinLength,
-  ValidateNested,
   registerDecorator,
   type ValidationArguments,
 } from 'class-validator';
+import { NestedObject } from '../../common/validation';
 
 /** The largest count core accepts. */
 const MAX_COUNT = 10_000_000;
@@ -100,17 +97,11 @@ export class LotDescriptionDto {
   form: LotForm;
 
   @ApiProperty({ type: CountDto })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => CountDto)
+  @NestedObject(() => CountDto)
   count: CountDto;
 
   @ApiPropertyOptional({ type: DiameterDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => DiameterDto)
+  @NestedObject(() => DiameterDto, { optional: true })
   diameterMm?: DiameterDto;
 
   @ApiPropertyOptional({ description: 'strand length in mm (1 in = 25.4 mm)', minimum: 0, maximum: MAX_MM })

@@ -1,71 +1,42 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@beadroll/core';
 import { Transform, Type } from 'class-transformer';
-import {
-  IsBoolean,
-  IsDefined,
-  IsIn,
-  IsInt,
-  IsObject,
-  IsOptional,
-  IsString,
-  Max,
-  MaxLength,
-  Min,
-  ValidateNested,
-} from 'class-validator';
+import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
 import { LotDescriptionDto } from './lot-description.dto';
 import { ObservationsDto } from './observations.dto';
 import { SealedDetailsDto } from './sealed-details.dto';
+import { NestedObject } from '../../common/validation';
 
 /** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
 export class CreateLotDto {
   @ApiProperty({ type: LotDescriptionDto })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => LotDescriptionDto)
+  @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
 
   @ApiPropertyOptional({ type: ObservationsDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => ObservationsDto)
+  @NestedObject(() => ObservationsDto, { optional: true })
   observations?: ObservationsDto;
 
   @ApiPropertyOptional({ type: SealedDetailsDto, description: 'visible only to the registering dealer' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => SealedDetailsDto)
+  @NestedObject(() => SealedDetailsDto, { optional: true })
   sealed?: SealedDetailsDto;
 }
 
 /** A full new description (a `described` entry), optionally with new sealed details. */
 export class DescribeLotDto {
   @ApiProperty({ type: LotDescriptionDto })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => LotDescriptionDto)
+  @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
 
   @ApiPropertyOptional({ type: SealedDetailsDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => SealedDetailsDto)
+  @NestedObject(() => SealedDetailsDto, { optional: true })
   sealed?: SealedDetailsDto;
 }
 
 /** New observations (an `observed` entry). */
 export class ObserveLotDto {
   @ApiProperty({ type: ObservationsDto })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => ObservationsDto)
+  @NestedObject(() => ObservationsDto)
   observations: ObservationsDto;
 }
 

@@ -1,6 +1,5 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { LIMITS } from '@beadroll/core';
-import { Type } from 'class-transformer';
 import {
   IsInt,
   IsISO4217CurrencyCode,
@@ -11,9 +10,8 @@ import {
   MaxLength,
   Min,
   MinLength,
-  ValidateNested,
-  IsObject,
 } from 'class-validator';
+import { NestedObject } from '../../common/validation';
 
 /** Money in integer minor units of an ISO 4217 currency. */
 export class MoneyDto {
@@ -45,10 +43,7 @@ export class AcquisitionDto {
   source?: string;
 
   @ApiPropertyOptional({ type: MoneyDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => MoneyDto)
+  @NestedObject(() => MoneyDto, { optional: true })
   cost?: MoneyDto;
 }
 
@@ -62,10 +57,7 @@ export class SealedDetailsDto {
   storageLocation?: string;
 
   @ApiPropertyOptional({ type: AcquisitionDto, description: 'sealed' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => AcquisitionDto)
+  @NestedObject(() => AcquisitionDto, { optional: true })
   acquisition?: AcquisitionDto;
 
   @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'private note (sealed)' })

@@ -7,20 +7,10 @@ import {
   type Origin,
   type Technique,
 } from '@beadroll/core';
-import { Type } from 'class-transformer';
-import {
-  ArrayMaxSize,
-  IsArray,
-  IsIn,
-  IsInt,
-  IsOptional,
-  Max,
-  Min,
-  ValidateNested,
-  IsObject,
-} from 'class-validator';
+import { ArrayMaxSize, IsArray, IsIn, IsInt, IsOptional, Max, Min } from 'class-validator';
 import { ObservationsDto } from '../../lots/dto/observations.dto';
 import { YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
+import { NestedObject } from '../../common/validation';
 
 /** A drafted period for the plausibility checks (the approximate flag does not matter to them). */
 export class AidPeriodDto {
@@ -50,20 +40,14 @@ export class AidDraftDto {
   technique?: Technique;
 
   @ApiPropertyOptional({ type: AidPeriodDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => AidPeriodDto)
+  @NestedObject(() => AidPeriodDto, { optional: true })
   period?: AidPeriodDto;
 }
 
 /** What the attribution aid reads: clues, decoration and a draft; every part optional. */
 export class AttributionAidDto {
   @ApiPropertyOptional({ type: ObservationsDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => ObservationsDto)
+  @NestedObject(() => ObservationsDto, { optional: true })
   observations?: ObservationsDto;
 
   @ApiPropertyOptional({ enum: DECORATIONS, isArray: true })
@@ -74,9 +58,6 @@ export class AttributionAidDto {
   decoration?: Decoration[];
 
   @ApiPropertyOptional({ type: AidDraftDto })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => AidDraftDto)
+  @NestedObject(() => AidDraftDto, { optional: true })
   draft?: AidDraftDto;
 }

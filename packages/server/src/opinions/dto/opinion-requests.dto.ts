@@ -10,7 +10,6 @@ import {
   type Qualifier,
   type Technique,
 } from '@beadroll/core';
-import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
   ArrayUnique,
@@ -25,10 +24,8 @@ import {
   MaxLength,
   Min,
   MinLength,
-  ValidateNested,
-  IsObject,
-  IsDefined,
 } from 'class-validator';
+import { NestedObject } from '../../common/validation';
 
 /** Earliest and latest years the ledger format accepts in a period. */
 export const YEAR_MIN = -5000;
@@ -67,10 +64,7 @@ export class RecordOpinionDto {
   originNote?: string;
 
   @ApiProperty({ type: PeriodDto })
-  @IsDefined()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => PeriodDto)
+  @NestedObject(() => PeriodDto)
   period: PeriodDto;
 
   @ApiProperty({ enum: TECHNIQUES })

@@ -1,5 +1,4 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
   ArrayMinSize,
@@ -13,11 +12,10 @@ import {
   Max,
   MaxLength,
   Min,
-  ValidateNested,
-  IsObject,
 } from 'class-validator';
 import { GRID_LIMITS, LABEL_LIMITS, PAPERS, TAG_DESIGNS, type Paper, type TagDesign } from '../tag-layout';
 import { MAX_TAGS_PER_PDF } from '../tag-pdf.service';
+import { NestedObject } from '../../common/validation';
 
 /** A label sheet: paper, grid and spacing in millimetres. */
 export class SheetDto {
@@ -108,10 +106,7 @@ export class PrintTagsDto {
   labelHeightMm?: number;
 
   @ApiPropertyOptional({ type: SheetDto, description: 'omitted: one label per page, for a label printer' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => SheetDto)
+  @NestedObject(() => SheetDto, { optional: true })
   sheet?: SheetDto;
 }
 

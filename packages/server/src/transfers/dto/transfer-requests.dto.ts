@@ -1,8 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { LIMITS } from '@beadroll/core';
-import { Transform, Type } from 'class-transformer';
+import { Transform } from 'class-transformer';
 import {
-  IsDefined,
   IsEmail,
   IsIn,
   IsOptional,
@@ -12,12 +11,11 @@ import {
   MaxLength,
   MinLength,
   ValidateIf,
-  ValidateNested,
-  IsObject,
 } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
+import { NestedObject } from '../../common/validation';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -54,10 +52,7 @@ export class CreateOfferDto {
   note?: string;
 
   @ApiPropertyOptional({ type: MoneyDto, description: 'sealed: visible to the two dealers only' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => MoneyDto)
+  @NestedObject(() => MoneyDto, { optional: true })
   price?: MoneyDto;
 }
 
@@ -84,10 +79,7 @@ export class RecordSaleDto {
   date: string;
 
   @ApiProperty({ type: MoneyDto, description: 'sealed: visible to the seller only' })
-  @IsDefined({ message: 'price is required: the amount and its currency' })
-  @IsObject()
-  @ValidateNested()
-  @Type(() => MoneyDto)
+  @NestedObject(() => MoneyDto, { missing: 'price is required: the amount and its currency' })
   price: MoneyDto;
 
   @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'sealed: visible to the seller only' })
