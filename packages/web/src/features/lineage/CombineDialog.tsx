@@ -1,12 +1,5 @@
 import {
-  Button,
   Checkbox,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
   Field,
   Input,
   MessageBar,
@@ -22,6 +15,7 @@ import { LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadrol
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
+import { ActionDialog } from '../lots/ActionDialog';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { beadsText } from './words';
 
@@ -45,18 +39,16 @@ interface Choice {
 /** Makes a new lot from beads of this lot and others the dealer holds, each whole or in part. */
 export function CombineDialog({
   lot,
-  open,
   onClose,
   onDone,
 }: {
   lot: LotBasics;
-  open: boolean;
   onClose: () => void;
   onDone?: (r: CombineResult) => void;
 }) {
   const styles = useStyles();
   const client = useQueryClient();
-  const held = useQuery({ ...heldLotsQuery(), enabled: open });
+  const held = useQuery(heldLotsQuery());
   const [choices, setChoices] = useState<Record<string, Choice>>({
     [lot.code]: { on: true, whole: true, count: String(lot.remaining.value) },
   });
@@ -119,126 +111,99 @@ export function CombineDialog({
   };
 
   return (
-    <Dialog open={open} onOpenChange={(_e, d) => !d.open && onClose()}>
-      <DialogSurface aria-describedby="combine-intro">
-        <form
-          onSubmit={(e) => {
-            e.preventDefault();
-            if (chosen.length >= 2 && !badPart && title.trim()) mutation.mutate();
-          }}
-        >
-          <DialogBody>
-            <DialogTitle>Combine into a new lot</DialogTitle>
-            <DialogContent className={styles.grid}>
-              {done ? (
-                <MessageBar intent="success">
-                  <MessageBarBody>
-                    New lot {done.lot.displayCode} made from {done.parents.length} lots (
-                    {beadsText(done.lot.count)}).
-                  </MessageBarBody>
-                </MessageBar>
-              ) : (
-                <>
-                  <Text id="combine-intro">
-                    Choose the lots the new piece is made from, and how many beads each gives. Each of them
-                    records that its beads went into the new lot; a lot that gives all its beads leaves your
-                    inventory.
-                  </Text>
-                  {held.isLoading && <Spinner size="tiny" label="Loading your lots…" />}
-                  <div className={styles.grid} role="group" aria-label="Lots to take beads from">
-                    {lots.map((l) => {
-                      const c = choices[l.code];
-                      return (
-                        <Field key={l.code} validationMessage={partMessage(l.code)}>
-                          <div className={styles.part}>
-                            <Checkbox
-                              label={`${l.displayCode} · ${l.title} (${beadsText(l.count)})`}
-                              checked={c?.on ?? false}
-                              onChange={(_e, d) => set(l.code, { on: d.checked === true }, l)}
-                            />
-                            {c?.on && (
-                              <Checkbox
-                                label="Whole lot"
-                                checked={c.whole}
-                                onChange={(_e, d) => set(l.code, { whole: d.checked === true }, l)}
-                              />
-                            )}
-                            {c?.on && !c.whole && (
-                              <Input
-                                aria-label={`Beads from ${l.displayCode}`}
-                                type="number"
-                                min={1}
-                                value={c.count}
-                                onChange={(_e, d) => set(l.code, { count: d.value }, l)}
-                              />
-                            )}
-                          </div>
-                        </Field>
-                      );
-                    })}
+    <ActionDialog
+      title="Combine into a new lot"
+      close={onClose}
+      describedBy="combine-intro"
+      done={done !== null}
+      pending={mutation.isPending}
+      submitDisabled={chosen.length < 2 || badPart || !title.trim() || !lot.description}
+      submitLabel={mutation.isPending ? 'Combining…' : 'Combine'}
+      onSubmit={() => {
+        if (chosen.length >= 2 && !badPart && title.trim()) mutation.mutate();
+      }}
+    >
+      {done ? (
+        <MessageBar intent="success">
+          <MessageBarBody>
+            New lot {done.lot.displayCode} made from {done.parents.length} lots ({beadsText(done.lot.count)}).
+          </MessageBarBody>
+        </MessageBar>
+      ) : (
+        <>
+          <Text id="combine-intro">
+            Choose the lots the new piece is made from, and how many beads each gives. Each of them records
+            that its beads went into the new lot; a lot that gives all its beads leaves your inventory.
+          </Text>
+          {held.isLoading && <Spinner size="tiny" label="Loading your lots…" />}
+          <div className={styles.grid} role="group" aria-label="Lots to take beads from">
+            {lots.map((l) => {
+              const c = choices[l.code];
+              return (
+                <Field key={l.code} validationMessage={partMessage(l.code)}>
+                  <div className={styles.part}>
+                    <Checkbox
+                      label={`${l.displayCode} · ${l.title} (${beadsText(l.count)})`}
+                      checked={c?.on ?? false}
+                      onChange={(_e, d) => set(l.code, { on: d.checked === true }, l)}
+                    />
+                    {c?.on && (
+                      <Checkbox
+                        label="Whole lot"
+                        checked={c.whole}
+                        onChange={(_e, d) => set(l.code, { whole: d.checked === true }, l)}
+                      />
+                    )}
+                    {c?.on && !c.whole && (
+                      <Input
+                        aria-label={`Beads from ${l.displayCode}`}
+                        type="number"
+                        min={1}
+                        value={c.count}
+                        onChange={(_e, d) => set(l.code, { count: d.value }, l)}
+                      />
+                    )}
                   </div>
-                  <Field
-                    label="Title of the new lot"
-                    required
-                    validationMessage={err?.fieldMessage('description.title')}
-                  >
-                    <Input value={title} maxLength={200} onChange={(_e, d) => setTitle(d.value)} />
-                  </Field>
-                  <Field label="Form">
-                    <Select value={form} onChange={(_e, d) => setForm(d.value as LotForm)}>
-                      {LOT_FORMS.map((f) => (
-                        <option key={f} value={f}>
-                          {f}
-                        </option>
-                      ))}
-                    </Select>
-                  </Field>
-                  <Switch
-                    label="Listed (has a public page)"
-                    checked={listed}
-                    onChange={(_e, d) => setListed(d.checked)}
-                  />
-                  <Field
-                    validationMessage={
-                      chosen.length < 2 ? 'Choose at least two lots.' : err?.fieldMessage('description.count')
-                    }
-                    validationState={
-                      chosen.length < 2 || err?.fieldMessage('description.count') ? 'error' : 'none'
-                    }
-                  >
-                    <Text role="status">The new lot holds {beadsText({ value: total, estimated })}.</Text>
-                  </Field>
-                  {err && !err.fields.length && (
-                    <MessageBar intent="error">
-                      <MessageBarBody>{err.message}</MessageBarBody>
-                    </MessageBar>
-                  )}
-                </>
-              )}
-            </DialogContent>
-            <DialogActions>
-              {done ? (
-                <Button appearance="primary" onClick={onClose}>
-                  Close
-                </Button>
-              ) : (
-                <>
-                  <Button onClick={onClose}>Cancel</Button>
-                  <Button
-                    appearance="primary"
-                    type="submit"
-                    disabled={
-                      chosen.length < 2 || badPart || !title.trim() || mutation.isPending || !lot.description
-                    }
-                  >
-                    {mutation.isPending ? 'Combining…' : 'Combine'}
-                  </Button>
-                </>
-              )}
-            </DialogActions>
-          </DialogBody>
-        </form>
-      </DialogSurface>
-    </Dialog>
+                </Field>
+              );
+            })}
+          </div>
+          <Field
+            label="Title of the new lot"
+            required
+            validationMessage={err?.fieldMessage('description.title')}
+          >
+            <Input value={title} maxLength={200} onChange={(_e, d) => setTitle(d.value)} />
+          </Field>
+          <Field label="Form">
+            <Select value={form} onChange={(_e, d) => setForm(d.value as LotForm)}>
+              {LOT_FORMS.map((f) => (
+                <option key={f} value={f}>
+                  {f}
+                </option>
+              ))}
+            </Select>
+          </Field>
+          <Switch
+            label="Listed (has a public page)"
+            checked={listed}
+            onChange={(_e, d) => setListed(d.checked)}
+          />
+          <Field
+            validationMessage={
+              chosen.length < 2 ? 'Choose at least two lots.' : err?.fieldMessage('description.count')
+            }
+            validationState={chosen.length < 2 || err?.fieldMessage('description.count') ? 'error' : 'none'}
+          >
+            <Text role="status">The new lot holds {beadsText({ value: total, estimated })}.</Text>
+          </Field>
+          {err && !err.fields.length && (
+            <MessageBar intent="error">
+              <MessageBarBody>{err.message}</MessageBarBody>
+            </MessageBar>
+          )}
+        </>
+      )}
+    </ActionDialog>
   );
 }

@@ -1,12 +1,6 @@
 import {
   Button,
   Checkbox,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
   Field,
   Input,
   MessageBar,
@@ -21,6 +15,7 @@ import { LOT_FORMS, formatLotCode, type LotDescription, type LotForm } from '@be
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
+import { ActionDialog } from '../lots/ActionDialog';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
 import { beadsText } from './words';
 
@@ -70,12 +65,10 @@ function childDescription(base: LotDescription, r: Row): LotDescription {
 /** Divides a lot into two or more new lots; what they do not take stays with the lot. */
 export function SplitDialog({
   lot,
-  open,
   onClose,
   onDone,
 }: {
   lot: LotBasics;
-  open: boolean;
   onClose: () => void;
   onDone?: (r: SplitResult) => void;
 }) {
@@ -105,161 +98,126 @@ export function SplitDialog({
   const fieldMsg = (i: number, f: string) => err?.fieldMessage(`children.${i}.description.${f}`);
 
   return (
-    <Dialog open={open} onOpenChange={(_e, d) => !d.open && onClose()}>
-      <DialogSurface aria-describedby="split-intro">
-        <form
-          onSubmit={(e) => {
-            e.preventDefault();
-            if (!over && !badCount) mutation.mutate();
-          }}
-        >
-          <DialogBody>
-            <DialogTitle>Split lot {formatLotCode(lot.code)}</DialogTitle>
-            <DialogContent className={styles.rows}>
-              {done ? (
-                <MessageBar intent="success">
-                  <MessageBarBody>
-                    Split into {done.children.map((c) => c.displayCode).join(', ')}.{' '}
-                    {done.remaining.value > 0
-                      ? `${beadsText(done.remaining)} stay with this lot.`
-                      : 'This lot is used up and leaves your inventory.'}
-                  </MessageBarBody>
-                </MessageBar>
-              ) : (
-                <>
-                  <Text id="split-intro">
-                    The lot has {beadsText(lot.remaining)}. Give each new lot its title and count; beads you
-                    do not give to a new lot stay with this one. The new lots start their own rolls, which
-                    link back to this one.
-                  </Text>
-                  {rows.map((r, i) => (
-                    <fieldset
-                      key={i}
-                      className={styles.rows}
-                      style={{ border: 'none', padding: 0, margin: 0 }}
-                    >
-                      <legend>
-                        <Text weight="semibold">New lot {i + 1}</Text>
-                      </legend>
-                      <div className={styles.row}>
-                        <Field label="Title" required validationMessage={fieldMsg(i, 'title')}>
-                          <Input
-                            value={r.title}
-                            maxLength={200}
-                            onChange={(_e, d) => set(i, { title: d.value })}
-                          />
-                        </Field>
-                        <Field
-                          label="Beads"
-                          required
-                          validationMessage={
-                            fieldMsg(i, 'count') ??
-                            (/^\d+$/.test(r.count) && Number(r.count) >= 1 ? undefined : 'At least one bead')
-                          }
-                        >
-                          <Input
-                            type="number"
-                            min={1}
-                            inputMode="numeric"
-                            value={r.count}
-                            onChange={(_e, d) => set(i, { count: d.value })}
-                          />
-                        </Field>
-                        <Field label="Form">
-                          <Select value={r.form} onChange={(_e, d) => set(i, { form: d.value as LotForm })}>
-                            {LOT_FORMS.map((f) => (
-                              <option key={f} value={f}>
-                                {f}
-                              </option>
-                            ))}
-                          </Select>
-                        </Field>
-                      </div>
-                      <div className={styles.flags}>
-                        <Checkbox
-                          label="Count is an estimate"
-                          checked={r.estimated}
-                          onChange={(_e, d) => set(i, { estimated: d.checked === true })}
-                        />
-                        <Switch
-                          label="Listed (has a public page)"
-                          checked={r.listed}
-                          onChange={(_e, d) => set(i, { listed: d.checked })}
-                        />
-                        {rows.length > 2 && (
-                          <Button
-                            appearance="subtle"
-                            onClick={() => setRows(rows.filter((_r, j) => j !== i))}
-                          >
-                            Remove
-                          </Button>
-                        )}
-                      </div>
-                    </fieldset>
-                  ))}
-                  <div>
-                    <Button
-                      onClick={() =>
-                        setRows([
-                          ...rows,
-                          {
-                            ...rows[rows.length - 1]!,
-                            title: `${lot.description?.title ?? 'Lot'} (part ${rows.length + 1})`.slice(
-                              0,
-                              200,
-                            ),
-                          },
-                        ])
-                      }
-                    >
-                      Add another new lot
-                    </Button>
-                  </div>
-                  <Field
-                    validationMessage={
-                      over
-                        ? `The new lots hold ${total} beads; the lot has ${lot.remaining.value}.`
-                        : err?.fieldMessage('children')
-                    }
-                    validationState={over || err?.fieldMessage('children') ? 'error' : 'none'}
-                  >
-                    <Text role="status">
-                      {over
-                        ? `${total} beads in the new lots`
-                        : left > 0
-                          ? `${lot.remaining.estimated ? 'About ' : ''}${left} ${left === 1 ? 'bead stays' : 'beads stay'} with this lot.`
-                          : 'Every bead goes into the new lots: this lot will be used up.'}
-                    </Text>
-                  </Field>
-                  {err && !err.fields.length && (
-                    <MessageBar intent="error">
-                      <MessageBarBody>{err.message}</MessageBarBody>
-                    </MessageBar>
-                  )}
-                </>
-              )}
-            </DialogContent>
-            <DialogActions>
-              {done ? (
-                <Button appearance="primary" onClick={onClose}>
-                  Close
-                </Button>
-              ) : (
-                <>
-                  <Button onClick={onClose}>Cancel</Button>
-                  <Button
-                    appearance="primary"
-                    type="submit"
-                    disabled={over || badCount || mutation.isPending || !lot.description}
-                  >
-                    {mutation.isPending ? 'Splitting…' : 'Split'}
+    <ActionDialog
+      title={`Split lot ${formatLotCode(lot.code)}`}
+      close={onClose}
+      describedBy="split-intro"
+      done={done !== null}
+      pending={mutation.isPending}
+      submitDisabled={over || badCount || !lot.description}
+      submitLabel={mutation.isPending ? 'Splitting…' : 'Split'}
+      onSubmit={() => {
+        if (!over && !badCount) mutation.mutate();
+      }}
+    >
+      {done ? (
+        <MessageBar intent="success">
+          <MessageBarBody>
+            Split into {done.children.map((c) => c.displayCode).join(', ')}.{' '}
+            {done.remaining.value > 0
+              ? `${beadsText(done.remaining)} stay with this lot.`
+              : 'This lot is used up and leaves your inventory.'}
+          </MessageBarBody>
+        </MessageBar>
+      ) : (
+        <>
+          <Text id="split-intro">
+            The lot has {beadsText(lot.remaining)}. Give each new lot its title and count; beads you do not
+            give to a new lot stay with this one. The new lots start their own rolls, which link back to this
+            one.
+          </Text>
+          {rows.map((r, i) => (
+            <fieldset key={i} className={styles.rows} style={{ border: 'none', padding: 0, margin: 0 }}>
+              <legend>
+                <Text weight="semibold">New lot {i + 1}</Text>
+              </legend>
+              <div className={styles.row}>
+                <Field label="Title" required validationMessage={fieldMsg(i, 'title')}>
+                  <Input value={r.title} maxLength={200} onChange={(_e, d) => set(i, { title: d.value })} />
+                </Field>
+                <Field
+                  label="Beads"
+                  required
+                  validationMessage={
+                    fieldMsg(i, 'count') ??
+                    (/^\d+$/.test(r.count) && Number(r.count) >= 1 ? undefined : 'At least one bead')
+                  }
+                >
+                  <Input
+                    type="number"
+                    min={1}
+                    inputMode="numeric"
+                    value={r.count}
+                    onChange={(_e, d) => set(i, { count: d.value })}
+                  />
+                </Field>
+                <Field label="Form">
+                  <Select value={r.form} onChange={(_e, d) => set(i, { form: d.value as LotForm })}>
+                    {LOT_FORMS.map((f) => (
+                      <option key={f} value={f}>
+                        {f}
+                      </option>
+                    ))}
+                  </Select>
+                </Field>
+              </div>
+              <div className={styles.flags}>
+                <Checkbox
+                  label="Count is an estimate"
+                  checked={r.estimated}
+                  onChange={(_e, d) => set(i, { estimated: d.checked === true })}
+                />
+                <Switch
+                  label="Listed (has a public page)"
+                  checked={r.listed}
+                  onChange={(_e, d) => set(i, { listed: d.checked })}
+                />
+                {rows.length > 2 && (
+                  <Button appearance="subtle" onClick={() => setRows(rows.filter((_r, j) => j !== i))}>
+                    Remove
                   </Button>
-                </>
-              )}
-            </DialogActions>
-          </DialogBody>
-        </form>
-      </DialogSurface>
-    </Dialog>
+                )}
+              </div>
+            </fieldset>
+          ))}
+          <div>
+            <Button
+              onClick={() =>
+                setRows([
+                  ...rows,
+                  {
+                    ...rows[rows.length - 1]!,
+                    title: `${lot.description?.title ?? 'Lot'} (part ${rows.length + 1})`.slice(0, 200),
+                  },
+                ])
+              }
+            >
+              Add another new lot
+            </Button>
+          </div>
+          <Field
+            validationMessage={
+              over
+                ? `The new lots hold ${total} beads; the lot has ${lot.remaining.value}.`
+                : err?.fieldMessage('children')
+            }
+            validationState={over || err?.fieldMessage('children') ? 'error' : 'none'}
+          >
+            <Text role="status">
+              {over
+                ? `${total} beads in the new lots`
+                : left > 0
+                  ? `${lot.remaining.estimated ? 'About ' : ''}${left} ${left === 1 ? 'bead stays' : 'beads stay'} with this lot.`
+                  : 'Every bead goes into the new lots: this lot will be used up.'}
+            </Text>
+          </Field>
+          {err && !err.fields.length && (
+            <MessageBar intent="error">
+              <MessageBarBody>{err.message}</MessageBarBody>
+            </MessageBar>
+          )}
+        </>
+      )}
+    </ActionDialog>
   );
 }

@@ -207,7 +207,6 @@ describe('the split dialog', () => {
     render(
       <Providers client={new QueryClient({ defaultOptions: { queries: { retry: false } } })}>
         <SplitDialog
-          open
           onClose={() => {}}
           lot={{
             code: 'KVFZJJKET',

@@ -30,6 +30,7 @@ export function ActionDialog({
   done = false,
   narrow = false,
   submitDisabled = false,
+  describedBy,
   children,
 }: {
   title: string;
@@ -40,12 +41,17 @@ export function ActionDialog({
   done?: boolean;
   narrow?: boolean;
   submitDisabled?: boolean;
+  /** The id of the text that explains the dialog, for screen readers. */
+  describedBy?: string;
   children: ReactNode;
 }) {
   const styles = useStyles();
   return (
     <Dialog open onOpenChange={(_, d) => !d.open && close()}>
-      <DialogSurface className={narrow ? `${styles.surface} ${styles.narrow}` : styles.surface}>
+      <DialogSurface
+        className={narrow ? `${styles.surface} ${styles.narrow}` : styles.surface}
+        aria-describedby={describedBy}
+      >
         <form
           noValidate
           onSubmit={(e) => {
@@ -57,7 +63,9 @@ export function ActionDialog({
             <DialogTitle>{title}</DialogTitle>
             <DialogContent className={styles.content}>{children}</DialogContent>
             <DialogActions>
-              <Button onClick={close}>{done ? 'Close' : 'Cancel'}</Button>
+              <Button appearance={done ? 'primary' : 'secondary'} onClick={close}>
+                {done ? 'Close' : 'Cancel'}
+              </Button>
               {!done && (
                 <Button appearance="primary" type="submit" disabled={pending || submitDisabled}>
                   {submitLabel}

@@ -91,13 +91,13 @@ export const LOT_ACTIONS: LotAction[] = [
     id: 'split',
     label: 'Split',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
-    render: (ctx) => <SplitDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+    render: (ctx) => <SplitDialog lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
   },
   {
     id: 'combine',
     label: 'Combine with other lots',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
-    render: (ctx) => <CombineDialog open lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
+    render: (ctx) => <CombineDialog lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
   },
   {
     id: 'opinion',
