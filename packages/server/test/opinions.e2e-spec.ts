@@ -201,7 +201,7 @@ describe('opinions, dissent and the attribution aid over HTTP', () => {
     expect(mails[0]!.subject).toMatch(/^A dissent on your lot /);
     expect(mails[0]!.text).toContain('Thea Quill');
     expect(mails[0]!.text).toContain('India, about 1980–2020');
-    expect(mails[0]!.text).toContain(`http://beadroll.test/lots/${code}`);
+    expect(mails[0]!.text).toContain(`http://beadroll.example/lots/${code}`);
   });
 
   it('the holder answers an opinion with a note that refers to it; nobody else may', async () => {
