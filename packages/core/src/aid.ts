@@ -8,19 +8,27 @@ import {
   type AidSource,
   type SourceStanding,
 } from './aid-rules.js';
-import type { Decoration, Observations, Origin, Period, Technique } from './types.js';
+import type { Decoration, Observations, Origin, Period, Qualifier, Technique } from './types.js';
 
-/** What the aid looks at: the lot's clues, its decoration, and optionally an opinion being drafted. */
+/**
+ * What the aid looks at: the lot's clues, its decoration, what is written on it (title,
+ * description, notes, opinions' words), the origins its recorded opinions name, and optionally
+ * an opinion being drafted.
+ */
 export interface AidInput {
   observations?: Observations;
   decoration?: Decoration[];
+  words?: string[];
+  recordedOrigins?: Origin[];
   draft?: { origin?: Origin; technique?: Technique; period?: Pick<Period, 'from' | 'to'> };
 }
 
-/** One ranked pointer towards an origin or technique, with every reason behind it. */
+/** One ranked pointer towards an origin, a technique or a later copy, with every reason behind it. */
 export interface Indication {
   origin?: Origin;
   technique?: Technique;
+  /** Set when the clues point to recent work in an older style rather than to a place. */
+  qualifier?: Qualifier;
   score: number;
   reasons: { rule: string; text: string; sources: AidSource[] }[];
 }
@@ -32,6 +40,8 @@ export interface PlausibilityWarning {
   notBefore: number;
   /** true: the whole period is earlier; false: only its start is. */
   wholePeriod: boolean;
+  /** true when the clue behind it is itself only a hint: the period may, not must, be too early. */
+  clueIsHint: boolean;
   sources: AidSource[];
 }
 
@@ -47,6 +57,7 @@ const STANDING_ORDER: SourceStanding[] = [
   'standard',
   'scholar',
   'trade-page',
+  'student-page',
   'common-practice',
   'from-memory',
 ];
@@ -55,7 +66,13 @@ function bySourceStanding(sources: readonly AidSource[]): AidSource[] {
   return [...sources].sort((a, b) => STANDING_ORDER.indexOf(a.standing) - STANDING_ORDER.indexOf(b.standing));
 }
 
-function holds(when: AidCondition, input: AidInput): boolean {
+/** Whether `text` holds `word` as a whole word or phrase, in any case. */
+function mentions(text: string, word: string): boolean {
+  const escaped = word.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  return new RegExp(`(^|[^\\p{L}\\p{N}])${escaped}($|[^\\p{L}\\p{N}])`, 'iu').test(text);
+}
+
+function holds(when: AidCondition, input: AidInput, indicated: readonly Origin[] = []): boolean {
   for (const [key, allowed] of Object.entries(when.observations ?? {})) {
     const value = input.observations?.[key as keyof Observations];
     if (value === undefined || !(allowed as string[]).includes(value as string)) return false;
@@ -64,7 +81,24 @@ function holds(when: AidCondition, input: AidInput): boolean {
   if (when.origin && !(input.draft?.origin && when.origin.includes(input.draft.origin))) return false;
   if (when.technique && !(input.draft?.technique && when.technique.includes(input.draft.technique)))
     return false;
+  if (when.words && !when.words.some((w) => (input.words ?? []).some((t) => mentions(t, w)))) return false;
+  if (when.indicated && !when.indicated.some((o) => indicated.includes(o))) return false;
+  if (when.recordedOrigin && !when.recordedOrigin.some((o) => input.recordedOrigins?.includes(o)))
+    return false;
   return true;
+}
+
+function cautionsFor(input: AidInput, indicated: readonly Origin[]): AidResult['cautions'] {
+  const uvTested = input.observations?.uvA !== undefined && input.observations.uvA !== 'not-tested';
+  return CAUTION_RULES.filter((rule) =>
+    rule.when === 'always-with-uv-test'
+      ? uvTested
+      : rule.when.some((condition) => holds(condition, input, indicated)),
+  ).map((rule) => ({
+    rule: rule.id,
+    text: rule.text,
+    sources: bySourceStanding(rule.sources),
+  }));
 }
 
 /**
@@ -86,15 +120,20 @@ export function attributionAid(input: AidInput): AidResult {
     byKey.set(key, ind);
   };
   for (const rule of INDICATION_RULES) {
-    if (!holds(rule.when, input)) continue;
+    if (!holds(rule.when, input) || (rule.unless && holds(rule.unless, input))) continue;
     const reason = { rule: rule.id, text: rule.reason, sources: bySourceStanding(rule.sources) };
     for (const origin of rule.points.origins ?? []) add(`origin:${origin}`, { origin }, rule.weight, reason);
-    if (rule.points.technique)
-      add(`technique:${rule.points.technique}`, { technique: rule.points.technique }, rule.weight, reason);
+    const techniques = [
+      ...(rule.points.technique ? [rule.points.technique] : []),
+      ...(rule.points.techniques ?? []),
+    ];
+    for (const technique of techniques) add(`technique:${technique}`, { technique }, rule.weight, reason);
+    if (rule.points.qualifier)
+      add(`qualifier:${rule.points.qualifier}`, { qualifier: rule.points.qualifier }, rule.weight, reason);
   }
+  const label = (i: Indication) => i.origin ?? i.technique ?? i.qualifier ?? '';
   const indications = [...byKey.values()].sort(
-    (a, b) =>
-      b.score - a.score || (a.origin ?? a.technique ?? '').localeCompare(b.origin ?? b.technique ?? ''),
+    (a, b) => b.score - a.score || label(a).localeCompare(label(b)),
   );
 
   const warnings: PlausibilityWarning[] = [];
@@ -107,21 +146,26 @@ export function attributionAid(input: AidInput): AidResult {
         message: rule.message,
         notBefore: rule.notBefore,
         wholePeriod: period.to < rule.notBefore,
+        clueIsHint: rule.clueIsHint === true,
         sources: bySourceStanding(rule.sources),
       });
     }
   }
 
-  const uvTested = input.observations?.uvA !== undefined && input.observations.uvA !== 'not-tested';
-  const cautions = CAUTION_RULES.filter((rule) =>
-    rule.when === 'always-with-uv-test' ? uvTested : holds(rule.when, input),
-  ).map((rule) => ({
-    rule: rule.id,
-    text: rule.text,
-    sources: bySourceStanding(rule.sources),
-  }));
+  const indicated = indications.flatMap((i) => (i.origin ? [i.origin] : []));
+  const cautions = cautionsFor(input, indicated);
 
   return { indications, warnings, cautions, disclaimer: AID_DISCLAIMER };
+}
+
+/**
+ * The safety cautions a lot's record calls for wherever it is shown (a dealer's lot page, the
+ * public page, a form being filled in): uranium handling for a green glow or uranium named in
+ * its words, lead for lead glass or crystal named, an origin in China recorded or suggested by
+ * the clues, and the others of the aid. Pure; the same rules as `attributionAid`.
+ */
+export function safetyCautions(input: AidInput): AidResult['cautions'] {
+  return attributionAid(input).cautions;
 }
 
 /** The UV-A caution on its own, for screens where a UV test is chosen. */
