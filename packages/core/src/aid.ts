@@ -9,6 +9,7 @@ import {
   type SourceStanding,
 } from './aid-rules.js';
 import type { Decoration, Observations, Origin, Period, Qualifier, Technique } from './types.js';
+import type { VerifiedEntry } from './verify.js';
 
 /**
  * What the aid looks at: the lot's clues, its decoration, what is written on it (title,
@@ -172,4 +173,65 @@ export function safetyCautions(input: AidInput): AidResult['cautions'] {
 export function uvCaution(): { text: string; points: readonly string[]; sources: AidSource[] } {
   const rule = CAUTION_RULES.find((r) => r.id === 'uv-a-torch')!;
   return { text: rule.text, points: UV_A_POINTS, sources: bySourceStanding(rule.sources) };
+}
+
+/** The cautions about handling a lot itself, shown with its record: uranium, lead, foil. */
+export const HANDLING_CAUTIONS: readonly string[] = ['uranium-handling', 'lead-glass', 'foil-cleaning'];
+
+/**
+ * What a lot's record says that bears on safety, gathered from its verified entries (bodies that
+ * were redacted are skipped): every observation recorded, every word written (titles,
+ * descriptions, notes, opinions, captions), every origin an opinion names. Feed it to
+ * `safetyCautions`. Pure; reads only the bodies given.
+ */
+export function safetyInputOf(entries: readonly Pick<VerifiedEntry, 'body'>[]): AidInput {
+  const observations: Observations = {};
+  const decoration = new Set<Decoration>();
+  const words: string[] = [];
+  const recordedOrigins = new Set<Origin>();
+  const add = (...texts: (string | undefined)[]) => {
+    for (const t of texts) if (t) words.push(t);
+  };
+  for (const { body } of entries) {
+    if (!body) continue;
+    const b = body as unknown as Record<string, unknown>;
+    const d = b.description as
+      | {
+          title?: string;
+          summary?: string;
+          colours?: string[];
+          decoration?: Decoration[];
+          decorationNote?: string;
+          condition?: string;
+        }
+      | undefined;
+    if (d) {
+      add(d.title, d.summary, d.decorationNote, d.condition, ...(d.colours ?? []));
+      for (const x of d.decoration ?? []) decoration.add(x);
+    }
+    const o = b.observations as Observations | undefined;
+    if (o) {
+      // A green glow recorded once stays on the record, even if a later look left the test out.
+      for (const [k, v] of Object.entries(o)) {
+        if (k === 'note') add(v as string);
+        else if (!(k === 'uvA' && observations.uvA === 'green-glow'))
+          (observations as Record<string, unknown>)[k] = v;
+      }
+    }
+    if (typeof b.origin === 'string') {
+      recordedOrigins.add(b.origin as Origin);
+      add(b.originNote as string | undefined, b.rationale as string | undefined);
+      if (typeof b.decoration === 'string') add(b.decoration);
+    }
+    if (typeof b.text === 'string') add(b.text);
+    if (typeof b.note === 'string') add(b.note);
+    const exhibit = b.exhibit as { caption?: string } | undefined;
+    if (exhibit?.caption) add(exhibit.caption);
+  }
+  return { observations, decoration: [...decoration], words, recordedOrigins: [...recordedOrigins] };
+}
+
+/** The handling cautions a lot's verified record calls for (see `HANDLING_CAUTIONS`). */
+export function recordCautions(entries: readonly Pick<VerifiedEntry, 'body'>[]): AidResult['cautions'] {
+  return safetyCautions(safetyInputOf(entries)).filter((c) => HANDLING_CAUTIONS.includes(c.rule));
 }

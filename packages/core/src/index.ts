@@ -131,7 +131,14 @@ export {
   tagQrVersion,
 } from './tag.js';
 export type { QrEcLevel, TagPayload } from './tag.js';
-export { attributionAid, safetyCautions, uvCaution } from './aid.js';
+export {
+  attributionAid,
+  HANDLING_CAUTIONS,
+  recordCautions,
+  safetyCautions,
+  safetyInputOf,
+  uvCaution,
+} from './aid.js';
 export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
 export {
   AID_DISCLAIMER,

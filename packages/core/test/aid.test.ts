@@ -5,7 +5,9 @@ import {
   CAUTION_RULES,
   INDICATION_RULES,
   PERIOD_RULES,
+  recordCautions,
   safetyCautions,
+  safetyInputOf,
   uvCaution,
   type AidInput,
   type Indication,
@@ -149,5 +151,57 @@ describe('attribution aid against trade facts', () => {
   it('says it is an aid, not an authentication', () => {
     expect(AID_DISCLAIMER).toMatch(/aid, not an authentication/);
     expect(AID_DISCLAIMER).toMatch(/consumer-protection/);
+  });
+});
+
+describe('cautions from a lot’s record', () => {
+  const body = (b: Record<string, unknown>) => ({ body: { nonce: '00', ...b } as never });
+
+  it('a green glow recorded on the roll brings the uranium handling caution, even after a later look', () => {
+    // Handling uranium glass: US NRC NUREG-1717 (exposure pathways); the glow is a hint only.
+    const entries = [
+      body({ observations: { uvA: 'green-glow' } }),
+      body({ observations: { uvA: 'none', hole: 'clean' } }),
+    ];
+    expect(recordCautions(entries).map((c) => c.rule)).toEqual(['uranium-handling']);
+  });
+
+  it('uranium named in a title, and lead crystal in an opinion’s words, bring their cautions', () => {
+    // Lead crystal roughly 20–30% lead: "Crystal" (tamararubin.com); Health Canada figures quoted
+    // in "What exactly is Czech, Austrian etc. crystal glass?" (getcrafty.com).
+    const entries = [
+      body({
+        description: { title: 'Uranium glass pressed beads', colours: ['yellow-green'], decoration: [] },
+      }),
+      body({ origin: 'bohemia-czech', rationale: 'Lead crystal, cut and fire-polished.' }),
+    ];
+    expect(recordCautions(entries).map((c) => c.rule)).toEqual(['uranium-handling', 'lead-glass']);
+  });
+
+  it('an opinion on record naming China brings the lead caution; a redacted body is skipped', () => {
+    // "Chinese Glass Beads: New Evidence" (Peter Francis Jr.): Chinese historical glass is lead-based.
+    expect(
+      recordCautions([{ body: null }, body({ origin: 'china', rationale: 'Furnace-wound.' })]),
+    ).toHaveLength(1);
+    expect(recordCautions([{ body: null }])).toEqual([]);
+  });
+
+  it('gathers observations, words and origins for the aid', () => {
+    const input = safetyInputOf([
+      body({
+        description: { title: 'Blue beads', summary: 'Old strand', colours: ['blue'], decoration: ['roses'] },
+      }),
+      body({ observations: { hole: 'powder', note: 'Grey powder.' } }),
+      body({ text: 'Restrung on silk.' }),
+    ]);
+    expect(input).toEqual({
+      observations: { hole: 'powder' },
+      decoration: ['roses'],
+      words: ['Blue beads', 'Old strand', 'blue', 'Grey powder.', 'Restrung on silk.'],
+      recordedOrigins: [],
+    });
+    // Powder in the hole suggests Chinese production, so the lead caution follows
+    // ("Chinese Glass Beads: New Evidence", Francis).
+    expect(safetyCautions(input).map((c) => c.rule)).toContain('lead-glass');
   });
 });
