@@ -328,7 +328,7 @@ export const CAUTION_RULES: readonly CautionRule[] = [
         url: 'https://ehs.umass.edu/ultraviolet-light-fact-sheet',
         standing: 'standard',
       },
-      { title: '365 nm rather than 395 nm: from memory', standing: 'from-memory' },
+      { title: 'the torch wavelength advice: from memory', standing: 'from-memory' },
     ],
   },
   {
