@@ -79,7 +79,7 @@ describe('the description form', () => {
     const helper = screen.getByRole('status', { name: 'Count helper' });
     expect(within(helper).getByRole('link', { name: 'WireJewelry.com' })).toHaveAttribute(
       'href',
-      'https://www.wirejewelry.com/jewelry_making_tips_techniques/How-Many-Beads-in-a-Strand_416.html',
+      expect.stringContaining('wirejewelry.com/jewelry_making_tips_techniques/How-Many-Beads-in-a-Strand'),
     );
     expect(helper).toHaveTextContent(/× 25.4 ÷ bead size/);
   }, 30_000);
