@@ -1,11 +1,5 @@
 import { recordCautions, type VerifiedEntry } from '@beadroll/core';
 
-const TITLES: Record<string, string> = {
-  'uranium-handling': 'Possible uranium glass',
-  'lead-glass': 'Lead in glass',
-  'foil-cleaning': 'Cleaning foiled beads',
-};
-
 /**
  * The handling cautions this lot's verified record calls for (a green glow recorded, uranium,
  * lead or crystal named, an origin in China), with their sources. Words and rules come from core.
@@ -18,9 +12,7 @@ export function HandlingCautions({ entries }: { entries: VerifiedEntry[] }) {
       <h2 id="pl-cautions-h">Handling this lot</h2>
       {cautions.map((c) => (
         <div key={c.rule} className="pl-caution-block">
-          <p className="pl-caution">
-            <strong>{TITLES[c.rule] ?? 'Caution'}.</strong> {c.text}
-          </p>
+          <p className="pl-caution">{c.text}</p>
           <p className="pl-caution-sources">
             Sources:{' '}
             {c.sources.map((s, i) => (

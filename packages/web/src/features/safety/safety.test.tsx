@@ -109,7 +109,7 @@ describe('the public page’s handling cautions', () => {
       />,
     );
     const section = screen.getByRole('region', { name: 'Handling this lot' });
-    expect(section).toHaveTextContent(/Possible uranium glass\. Possible uranium glass: low risk/);
+    expect(section).toHaveTextContent(/Possible uranium glass: low risk/);
     expect(within(section).getByRole('link', { name: /NUREG-1717/ })).toBeInTheDocument();
   });
 
