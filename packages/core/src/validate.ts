@@ -273,13 +273,14 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
       o.observations,
       p,
       [],
-      ['hole', 'holeShape', 'windingMarks', 'beadShape', 'surface', 'foil', 'uvA', 'note'],
+      ['hole', 'holeShape', 'windingMarks', 'beadShape', 'mouldSeam', 'surface', 'foil', 'uvA', 'note'],
     );
     if (!ob) return;
     c.oneOf(ob, 'hole', p, ['clean', 'powder', 'green-traces', 'not-seen'], true);
     c.oneOf(ob, 'holeShape', p, ['irregular', 'regular'], true);
     c.oneOf(ob, 'windingMarks', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'beadShape', p, ['irregular', 'uniform'], true);
+    c.oneOf(ob, 'mouldSeam', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'surface', p, ['glossy', 'satin', 'matte', 'worn'], true);
     c.oneOf(ob, 'foil', p, ['none', 'intact', 'worn'], true);
     c.oneOf(ob, 'uvA', p, ['not-tested', 'none', 'green-glow', 'other'], true);
