@@ -119,8 +119,17 @@ const RAW_BODIES: Array<{ raw: string; type: string }> = [
   },
 ];
 
+/** Percent-encodes a path segment; one holding a lone surrogate becomes bytes that are not UTF-8 at all. */
+function segment(value: string): string {
+  try {
+    return encodeURIComponent(value);
+  } catch {
+    return '%ED%A0%80';
+  }
+}
+
 function concretePath(path: string, values: Record<string, string>): string {
-  return path.replace(/\{([^}]+)\}/g, (_m, name: string) => encodeURIComponent(values[name] ?? 'x'));
+  return path.replace(/\{([^}]+)\}/g, (_m, name: string) => segment(values[name] ?? 'x'));
 }
 
 export async function fuzzSection(
@@ -192,10 +201,13 @@ export async function fuzzSection(
         key: fc.option(fc.oneof(fc.uuid(), hostileText), { nil: undefined }),
       });
       for (const sample of fc.sample(arb, { numRuns: runsPerRoute, seed: seed + n++ })) {
-        const qs = new URLSearchParams();
+        const query: string[] = [];
         for (const [k, v] of Object.entries(sample.query as Record<string, unknown>))
-          if (v !== undefined) qs.set(k, typeof v === 'string' ? v : JSON.stringify(v));
-        const url = concretePath(path, sample.path as Record<string, string>) + (qs.size ? `?${qs}` : '');
+          if (v !== undefined)
+            query.push(`${k}=${segment(typeof v === 'string' ? v : (JSON.stringify(v) ?? ''))}`);
+        const url =
+          concretePath(path, sample.path as Record<string, string>) +
+          (query.length ? `?${query.join('&')}` : '');
         const key =
           typeof sample.key === 'string' && /^[\x21-\x7e]*$/.test(sample.key) ? sample.key : undefined;
         for (const c of who) await send(c, m, url, m === 'GET' ? undefined : sample.body, undefined, key);

@@ -9,7 +9,8 @@ import { pgEnv, startPrivateCluster, type PrivateCluster } from '../lib/pg.ts';
 import { freePort, onShutdown, UserFacingError } from '../lib/proc.ts';
 import { crashSection } from './crashes.ts';
 import { fuzzSection } from './fuzz.ts';
-import { type Row, ServerProcess, sql } from './harness.ts';
+import { description, type Row, ServerProcess, signedIn, sql } from './harness.ts';
+import { PNG } from 'pngjs';
 import { memorySection } from './memory.ts';
 import { raceSection } from './races.ts';
 import { tamperSection } from './tamper.ts';
@@ -99,6 +100,17 @@ async function main(): Promise<number> {
   await section('fuzz', () => fuzzSection(server, target, target.database, 12, 20261205));
   await section('memory', () => memorySection(target, target.database, work, 20));
   await section('backup', async () => {
+    // A lot with a photo, so the backup carries exhibit files whose digests the restore checks.
+    const dealer = await signedIn(server, target, target.database, 'dealer');
+    const lot = await dealer.write('POST', '/api/lots', { description: description('Backed-up lot') });
+    const code = (lot.body as { code: string }).code;
+    const png = new PNG({ width: 64, height: 48 });
+    png.data.fill(180);
+    const form = new FormData();
+    form.append('kind', 'close-up');
+    form.append('file', new Blob([new Uint8Array(PNG.sync.write(png))], { type: 'image/png' }), 'photo.png');
+    const added = await dealer.send('POST', `/api/lots/${code}/exhibits`, undefined, { raw: form });
+    if (added.status !== 201) throw new Error(`adding a photo answered ${added.status}`);
     await server.stop();
     const dir = join(work, 'backup');
     const env = { ...process.env, ...pgEnv(target), DATA_DIR: join(work, 'main') };

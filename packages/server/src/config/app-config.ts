@@ -183,7 +183,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
       cost: int(env, 'SCRYPT_COST', 131072, 2, 1 << 22),
       blockSize: int(env, 'SCRYPT_BLOCK_SIZE', 8, 1, 64),
       parallelization: int(env, 'SCRYPT_PARALLELIZATION', 1, 1, 16),
-      concurrency: int(env, 'SCRYPT_CONCURRENCY', 2, 1, 64),
+      concurrency: int(env, 'SCRYPT_CONCURRENCY', 1, 1, 64),
     },
     requests: {
       maxJsonBytes: int(env, 'REQUEST_MAX_JSON_BYTES', 256 * 1024, 1024, 64 * 1024 * 1024),
