@@ -5,8 +5,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
  * so a repeated request is answered again without writing again. Rows older than 24 hours are
  * ignored and swept.
  */
-export class CreateIdempotencyKeys1796180000000 implements MigrationInterface {
-  name = 'CreateIdempotencyKeys1796180000000';
+export class CreateIdempotencyKeys1796480000000 implements MigrationInterface {
+  name = 'CreateIdempotencyKeys1796480000000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`CREATE TABLE "idempotency_keys" (
