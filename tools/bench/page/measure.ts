@@ -70,7 +70,7 @@ export async function loadOnce(
     seen.set(e.requestId, {
       url: e.response.url,
       encoding: enc,
-      fromCache: Boolean(e.response.fromDiskCache || e.response.fromMemoryCache),
+      fromCache: Boolean(e.response.fromDiskCache || e.response.fromPrefetchCache),
     });
   });
   cdp.on('Network.loadingFinished', (e) => {

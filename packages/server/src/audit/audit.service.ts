@@ -19,6 +19,11 @@ export type AuditEvent =
 
 const LOT_BATCH = 200;
 const ENTRY_BATCH = 500;
+/** Rolls this short are read together, a batch of lots in one statement. */
+const SHORT_ROLL = 50;
+
+type LotRow = { id: string; code: string; head_seq: number; head_hash: string };
+type AuditEntry = { seq: number; hash: string; header: string; body: string | null };
 
 /**
  * The registrar's full-ledger audit: every roll is streamed from the database in pages through
@@ -43,15 +48,16 @@ export class AuditService {
     let broken = 0;
     let after = '';
     for (;;) {
-      const lots: Array<{ id: string; code: string; head_seq: number; head_hash: string }> =
-        await this.dataSource.query(
-          `SELECT "id", "code", "head_seq", "head_hash" FROM "lots" WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
-          [after, LOT_BATCH],
-        );
+      const lots: LotRow[] = await this.dataSource.query(
+        `SELECT "id", "code", "head_seq", "head_hash" FROM "lots" WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
+        [after, LOT_BATCH],
+      );
       if (lots.length === 0) break;
+      const short = await this.shortRolls(lots);
       for (const lot of lots) {
         after = lot.code;
-        const problem = await this.checkLot(lot, (n) => (entriesChecked += n));
+        const problem = await this.checkLot(lot, (n) => (entriesChecked += n), short.get(lot.id));
+        short.delete(lot.id);
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -72,22 +78,49 @@ export class AuditService {
     };
   }
 
+  /**
+   * The entries of the batch's short rolls (by their stored head), read in one statement
+   * instead of one per lot: at most LOT_BATCH × SHORT_ROLL entries in memory at once. Longer
+   * rolls are read a page at a time by {@link checkLot}.
+   */
+  private async shortRolls(lots: LotRow[]): Promise<Map<string, AuditEntry[]>> {
+    const ids = lots.filter((l) => l.head_seq < SHORT_ROLL).map((l) => l.id);
+    const out = new Map<string, AuditEntry[]>();
+    if (ids.length === 0) return out;
+    const rows: Array<AuditEntry & { lot_id: string }> = await this.dataSource.query(
+      `SELECT e."lot_id", e."seq", e."hash", e."header", b."body"
+       FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+       WHERE e."lot_id" = ANY($1::uuid[]) AND e."seq" < $2 ORDER BY e."lot_id", e."seq"`,
+      [ids, SHORT_ROLL],
+    );
+    for (const r of rows) {
+      let list = out.get(r.lot_id);
+      if (!list) out.set(r.lot_id, (list = []));
+      list.push({ seq: r.seq, hash: r.hash, header: r.header, body: r.body });
+    }
+    // A roll that grew past its stored head while the audit ran is read again page by page.
+    for (const l of lots) if (out.get(l.id)?.length === SHORT_ROLL) out.delete(l.id);
+    return out;
+  }
+
   private async checkLot(
-    lot: { id: string; code: string; head_seq: number; head_hash: string },
+    lot: LotRow,
     counted: (n: number) => void,
+    prefetched?: AuditEntry[],
   ): Promise<{ seq: number; reason: string; message: string } | null> {
     const v = createRollVerifier(lot.code);
     let from = 0;
     let first: EntryHeader | null = null;
     for (;;) {
-      const page = await this.reader.entries(lot.id, { fromSeq: from, limit: ENTRY_BATCH });
+      const page: AuditEntry[] =
+        prefetched ?? (await this.reader.entries(lot.id, { fromSeq: from, limit: ENTRY_BATCH }));
       counted(page.length);
       for (const e of page) {
         const f = v.push(e);
         if (f) return { seq: f.seq, reason: f.reason, message: f.message };
         if (e.seq === 0) first = v.last!.header;
       }
-      if (page.length < ENTRY_BATCH) break;
+      if (prefetched || page.length < ENTRY_BATCH) break;
       from = page[page.length - 1]!.seq + 1;
     }
     const r = v.finish();

@@ -43,6 +43,11 @@ function toPublicCard(c: DealerCard): PublicDealerCard {
   };
 }
 
+/** What PostgresDriver's `master` pool (a `pg.Pool`) offers for a plain statement. */
+interface Queryable {
+  query(sql: string, params: unknown[]): Promise<{ rows: PublicLotRow[] }>;
+}
+
 /**
  * Public data of listed lots, for buyers without an account. Any code that is not a listed lot
  * — unknown, unlisted, malformed, with a wrong check symbol — gets the same bare 404.
@@ -63,11 +68,21 @@ export class PublicLotsService {
   async lotText(text: string): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
-    const rows: PublicLotRow[] = await this.dataSource.query(PUBLIC_LOT_SQL, [code]);
-    const row = rows[0];
+    const row = (await this.publicLotRows(code))[0];
     if (!row) throw notFound();
     if (!row.has_parents) return publicLotText(code, row);
     return JSON.stringify(await this.lot(code));
+  }
+
+  /**
+   * The one statement of {@link lotText}, on the driver's pool itself: TypeORM's `query` would
+   * take and release a query runner for it, work this hottest of reads can do without.
+   * The statement is read-only and runs in no transaction, so the pool's own query is enough.
+   */
+  private async publicLotRows(code: string): Promise<PublicLotRow[]> {
+    const pool = (this.dataSource.driver as { master?: Queryable }).master;
+    if (!pool || typeof pool.query !== 'function') return this.dataSource.query(PUBLIC_LOT_SQL, [code]);
+    return (await pool.query(PUBLIC_LOT_SQL, [code])).rows;
   }
 
   /** The public data of a listed lot, built from its bundle (ancestors included). */
