@@ -151,6 +151,13 @@ async function main(): Promise<void> {
     sink.server.close();
     console.log(`exhibits: ${COUNT} photos to lot ${code}…`);
     const measured = await uploadAll(() => `${origin}/api/lots/${code}/exhibits`, files, headers);
+    // A slow machine can outlast the 15-minute access token: renew it (no password hashing, so
+    // the memory peak stays the uploads' own).
+    const renewed = await fetch(`${origin}/api/auth/session/refresh`, { method: 'POST', headers });
+    if (!renewed.ok) throw new Error(`renewing the session answered ${renewed.status}`);
+    const fresh = new Map(cookie.split('; ').map((c) => [c.split('=')[0], c] as const));
+    for (const c of renewed.headers.getSetCookie()) fresh.set(c.split('=')[0]!, c.split(';')[0]!);
+    headers.Cookie = [...fresh.values()].join('; ');
     console.log(`exhibits: the same ${COUNT} photos again, 4 at a time, to lot ${code}…`);
     const together = await uploadAll(() => `${origin}/api/lots/${code}/exhibits`, files, headers, 4);
     const peakMb = vm(pid, 'VmHWM');
