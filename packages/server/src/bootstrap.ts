@@ -44,6 +44,11 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     },
     crossOriginEmbedderPolicy: false,
   });
+  // Which server process answered: with several behind a load balancer, logs and people can tell.
+  app.use((_req: Request, res: Response, next: NextFunction) => {
+    res.setHeader('Beadroll-Instance', config.instanceName);
+    next();
+  });
   // Dynamic answers over 1 KB (the roll JSON, bundles, lists) are compressed for clients that
   // ask; the built web files are compressed at build time and served as they are (serveWeb).
   app.use(compression({ threshold: 1024 }));
