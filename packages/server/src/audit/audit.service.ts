@@ -1,13 +1,68 @@
 import { Injectable } from '@nestjs/common';
-import { createRollVerifier, type CombinedBody, type EntryHeader, type SplitBody } from '@beadroll/core';
+import {
+  decodeHeader,
+  entryHash,
+  isHeaderProblem,
+  sealedFieldCommitment,
+  sealedRoot,
+  type CombinedBody,
+  type EntryHeader,
+  type ObservedBody,
+  type Observations,
+  type RedactedBody,
+  type RollState,
+  type SplitBody,
+} from '@beadroll/core';
 import { DataSource } from 'typeorm';
-import { RollReaderService } from '../ledger/roll-reader.service';
+import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
+import { lotViewValues } from '../lots/lot-view.projector';
+
+/**
+ * The audit's reason for a lot whose roll verifies but whose stored copies (the columns kept
+ * beside each entry's header, the cached state and head, the lot view, sealed commitments) say
+ * something else.
+ */
+export const STORED_COPY = 'stored-copy';
+
+/** One stored value that differs from what the roll says. */
+export interface StoredCopyDifference {
+  table: string;
+  column: string;
+  /** The entry, for a column of one entry; null for a value of the lot. */
+  seq: number | null;
+  stored: string;
+  roll: string;
+}
+
+interface LotRow {
+  id: string;
+  code: string;
+  head_seq: number;
+  head_hash: string;
+  head_time: string;
+  state: RollState;
+}
+
+interface LotProblem {
+  seq: number;
+  reason: string;
+  message: string;
+  differences?: StoredCopyDifference[];
+}
 
 /** One event of a full-ledger audit, streamed as it runs. */
 export type AuditEvent =
   | { type: 'start'; lots: number; startedAt: string }
   | { type: 'progress'; lotsChecked: number; lots: number; entriesChecked: number }
-  | { type: 'broken'; lot: string; seq: number; reason: string; message: string }
+  | {
+      type: 'broken';
+      lot: string;
+      seq: number;
+      reason: string;
+      message: string;
+      /** For `stored-copy`: each stored value that differs from the roll. */
+      differences?: StoredCopyDifference[];
+    }
   | {
       type: 'done';
       lotsChecked: number;
@@ -18,20 +73,19 @@ export type AuditEvent =
     };
 
 const LOT_BATCH = 200;
-const ENTRY_BATCH = 500;
 
 /**
  * The registrar's full-ledger audit: every roll is streamed from the database in pages through
- * core's incremental verifier (memory stays flat however long a roll is), its stored head is
- * compared with the last verified entry, and every parent link a child names is checked
- * against the parent's stored entry.
+ * core's incremental verifier (memory stays flat however long a roll is), every parent link a
+ * child names is checked against the parent's stored entry, and every copy the database keeps
+ * beside the canonical strings is compared with what the roll says: the `seq`, `kind`, `actor`,
+ * `time` and `redacts_seq` columns of each entry with its header, the lot's cached head and
+ * state with a replay through core's reducer, its `lot_views` row with the same projection the
+ * append path writes, and sealed commitments with their values and the header's root.
  */
 @Injectable()
 export class AuditService {
-  constructor(
-    private readonly dataSource: DataSource,
-    private readonly reader: RollReaderService,
-  ) {}
+  constructor(private readonly dataSource: DataSource) {}
 
   async *run(progressEvery = 50): AsyncGenerator<AuditEvent> {
     const [{ n }] = (await this.dataSource.query('SELECT count(*)::int AS "n" FROM "lots"')) as Array<{
@@ -43,11 +97,11 @@ export class AuditService {
     let broken = 0;
     let after = '';
     for (;;) {
-      const lots: Array<{ id: string; code: string; head_seq: number; head_hash: string }> =
-        await this.dataSource.query(
-          `SELECT "id", "code", "head_seq", "head_hash" FROM "lots" WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
-          [after, LOT_BATCH],
-        );
+      const lots: LotRow[] = await this.dataSource.query(
+        `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state" FROM "lots"
+          WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
+        [after, LOT_BATCH],
+      );
       if (lots.length === 0) break;
       for (const lot of lots) {
         after = lot.code;
@@ -72,49 +126,133 @@ export class AuditService {
     };
   }
 
-  private async checkLot(
-    lot: { id: string; code: string; head_seq: number; head_hash: string },
-    counted: (n: number) => void,
-  ): Promise<{ seq: number; reason: string; message: string } | null> {
-    const v = createRollVerifier(lot.code);
-    let from = 0;
+  private async checkLot(lot: LotRow, counted: (n: number) => void): Promise<LotProblem | null> {
+    const diffs: StoredCopyDifference[] = [];
+    const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
+      diffs.push({ table, column, seq, stored: shown(stored), roll: shown(roll) });
     let first: EntryHeader | null = null;
-    for (;;) {
-      const page = await this.reader.entries(lot.id, { fromSeq: from, limit: ENTRY_BATCH });
-      counted(page.length);
-      for (const e of page) {
-        const f = v.push(e);
-        if (f) return { seq: f.seq, reason: f.reason, message: f.message };
-        if (e.seq === 0) first = v.last!.header;
+    let observations: Observations | null = null;
+    const sealedRoots = new Map<number, string>();
+    const { result, entries } = await replayStoredRoll(this.dataSource.manager, lot, (row, e) => {
+      const h = e.header;
+      if (h.seq === 0) first = h;
+      // Every column kept beside the canonical header must say what the header says.
+      if (row.seq !== h.seq) differs('entries', 'seq', h.seq, row.seq, h.seq);
+      if (row.kind !== h.kind) differs('entries', 'kind', h.seq, row.kind, h.kind);
+      if (row.actor !== h.actor) differs('entries', 'actor', h.seq, row.actor, h.actor);
+      if (row.time !== h.time) differs('entries', 'time', h.seq, row.time, h.time);
+      const target = h.kind === 'redacted' && e.body ? (e.body as RedactedBody).target : null;
+      if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
+      if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
+      if (h.sealed) sealedRoots.set(h.seq, h.sealed);
+    });
+    counted(entries);
+    if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
+    const state = JSON.parse(JSON.stringify(result.state)) as RollState;
+    const head = result.head;
+
+    if (lot.head_seq !== head.seq) differs('lots', 'head_seq', null, lot.head_seq, head.seq);
+    if (lot.head_hash !== head.hash) differs('lots', 'head_hash', null, lot.head_hash, head.hash);
+    if (lot.head_time !== head.time) differs('lots', 'head_time', null, lot.head_time, head.time);
+    for (const d of jsonDifferences(lot.state, state))
+      differs('lots', `state.${d.path}`, null, d.stored, d.expected);
+
+    const views: Array<Record<string, unknown>> = await this.dataSource.query(
+      'SELECT * FROM "lot_views" WHERE "lot_id" = $1',
+      [lot.id],
+    );
+    const view = views[0];
+    if (!view) differs('lot_views', '(row)', null, 'missing', 'one row');
+    else {
+      const want = lotViewValues(state, observations);
+      for (const [column, value] of Object.entries(want)) {
+        for (const d of jsonDifferences(view[column], value)) {
+          const at = d.path === '(whole value)' ? column : `${column}.${d.path}`;
+          differs('lot_views', at, null, d.stored, d.expected);
+        }
       }
-      if (page.length < ENTRY_BATCH) break;
-      from = page[page.length - 1]!.seq + 1;
+      const times: Array<[string, string]> = [
+        ['registered_at', (first as EntryHeader | null)?.time ?? ''],
+        ['updated_at', head.time],
+      ];
+      for (const [column, time] of times) {
+        const stored = view[column] instanceof Date ? (view[column] as Date).getTime() : NaN;
+        if (stored !== new Date(time).getTime())
+          differs(
+            'lot_views',
+            column,
+            null,
+            view[column] instanceof Date ? (view[column] as Date).toISOString() : view[column],
+            time,
+          );
+      }
     }
-    const r = v.finish();
-    if (!r.ok) return { seq: r.seq, reason: r.reason, message: r.message };
-    if (r.head.seq !== lot.head_seq || r.head.hash !== lot.head_hash) {
-      return {
-        seq: r.head.seq,
-        reason: 'bad-seq',
-        message: `the stored head (seq ${lot.head_seq}) is not the last entry on the roll (seq ${r.head.seq})`,
-      };
+
+    // Sealed values: each commitment recomputed from its salt and value, the commitments of an
+    // entry hashed to the root in its header. (A closed account's own values may be gone.)
+    const sealed: Array<{ seq: number; name: string; salt: string; value: string; commitment: string }> =
+      await this.dataSource.query(
+        `SELECT e."seq", s."name", s."salt", s."value", s."commitment" FROM "sealed_fields" s
+           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = $1 ORDER BY e."seq", s."name"`,
+        [lot.id],
+      );
+    const bySeq = new Map<number, Record<string, string>>();
+    for (const f of sealed) {
+      let value: unknown;
+      try {
+        value = JSON.parse(f.value);
+      } catch {
+        value = f.value;
+      }
+      const commitment = sealedFieldCommitment(f.name, f.salt, value);
+      if (commitment !== f.commitment)
+        differs('sealed_fields', `${f.name} (value or salt)`, f.seq, f.commitment, commitment);
+      bySeq.set(f.seq, { ...(bySeq.get(f.seq) ?? {}), [f.name]: f.commitment });
     }
-    for (const p of first?.parents ?? []) {
-      const rows: Array<{ hash: string; kind: string; body: string | null }> = await this.dataSource.query(
-        `SELECT e."hash", e."kind", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+    for (const [seq, commitments] of bySeq) {
+      const root = sealedRoots.get(seq) ?? null;
+      const got = sealedRoot(commitments);
+      if (got !== root) differs('sealed_fields', 'commitment', seq, got, root);
+    }
+
+    const parents = (first as EntryHeader | null)?.parents ?? [];
+    for (const p of parents) {
+      const rows: Array<{ hash: string; header: string; body: string | null }> = await this.dataSource.query(
+        `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
          LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
         [p.lot, p.seq],
       );
       const row = rows[0];
       let named = false;
-      if (row?.body && (row.kind === 'split' || row.kind === 'combined')) {
+      const h = row ? decodeHeader(row.header) : null;
+      if (row?.body && h && !isHeaderProblem(h) && (h.kind === 'split' || h.kind === 'combined')) {
         const b = JSON.parse(row.body) as SplitBody | CombinedBody;
         named = 'children' in b ? b.children.some((c) => c.lot === lot.code) : b.child === lot.code;
       }
-      if (!row || row.hash !== p.hash || !named) {
+      if (!row || row.hash !== p.hash || entryHash(row.header) !== p.hash || !named) {
         return { seq: 0, reason: 'bad-parent', message: `parent entry ${p.lot} seq ${p.seq} does not match` };
       }
     }
-    return null;
+
+    if (diffs.length === 0) return null;
+    const seqs = diffs.map((d) => d.seq).filter((x): x is number => x !== null);
+    return {
+      seq: seqs.length > 0 ? Math.min(...seqs) : head.seq,
+      reason: STORED_COPY,
+      message: `a stored copy differs from the roll: ${diffs
+        .slice(0, 8)
+        .map(
+          (d) =>
+            `${d.table}.${d.column}${d.seq === null ? '' : ` at seq ${d.seq}`} is ${d.stored}, the roll says ${d.roll}`,
+        )
+        .join('; ')}${diffs.length > 8 ? `; and ${diffs.length - 8} more` : ''}`,
+      differences: diffs,
+    };
   }
+}
+
+/** Shows a stored or derived value in a message, briefly. */
+function shown(value: unknown): string {
+  const text = value === undefined ? 'absent' : (JSON.stringify(value) ?? String(value));
+  return text.length > 80 ? `${text.slice(0, 77)}…` : text;
 }
