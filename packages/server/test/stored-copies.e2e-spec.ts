@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { AuditService, STORED_COPY, type AuditEvent } from '../src/audit/audit.service';
+import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
@@ -98,6 +99,14 @@ describe('stored copies of a roll', () => {
     const { broken, done } = await audit();
     expect(broken).toEqual([]);
     expect(done).toMatchObject({ type: 'done', ok: true });
+  });
+
+  it('finds nothing to report on the demo scenario (transfers, lapses, opinions, splits, combinations, exhibits)', async () => {
+    await runSeed(t.app);
+    const { broken, done } = await audit();
+    expect(broken).toEqual([]);
+    expect(done).toMatchObject({ type: 'done', ok: true });
+    expect((done as { lotsChecked: number }).lotsChecked).toBeGreaterThan(10);
   });
 
   it("names the lot and the column when an entry's time, actor or seq column is changed", async () => {
