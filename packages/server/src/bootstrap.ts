@@ -11,8 +11,12 @@ import { APP_CONFIG } from './config/config.module';
 import { createValidationPipe } from './common/validation';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 
-/** Paths served outside the /api prefix (development pages). */
-const UNPREFIXED = [{ path: 'dev/{*rest}', method: RequestMethod.ALL }];
+/** Paths served outside the /api prefix (development pages, the offline verifier page). */
+const UNPREFIXED = [
+  { path: 'dev/{*rest}', method: RequestMethod.ALL },
+  { path: 'verify', method: RequestMethod.GET },
+  { path: 'verify/download', method: RequestMethod.GET },
+];
 
 /**
  * Applies everything a running server needs on top of the module graph: the public lot data's
@@ -60,9 +64,15 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   return config;
 }
 
-/** Paths the server answers itself (the API and the development pages), never the web app. */
+/** Paths the server answers itself (the API, the development pages, the verifier page), never the web app. */
 function isServerPath(path: string): boolean {
-  return path.startsWith('/api/') || path === '/api' || path.startsWith('/dev/');
+  return (
+    path.startsWith('/api/') ||
+    path === '/api' ||
+    path.startsWith('/dev/') ||
+    path === '/verify' ||
+    path === '/verify/download'
+  );
 }
 
 /** Serves the built web app; unknown non-API paths fall back to the right HTML entry. */

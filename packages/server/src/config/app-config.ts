@@ -7,6 +7,8 @@ export interface AppConfig {
   readonly publicBaseUrl: string;
   readonly dataDir: string;
   readonly webDist: string;
+  /** The offline verifier page built by packages/verify, served at /verify. */
+  readonly verifyPage: string;
   readonly demoMode: boolean;
   readonly devMailbox: boolean;
   readonly db: {
@@ -150,6 +152,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
     publicBaseUrl,
     dataDir,
     webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
+    verifyPage: path(env, 'VERIFY_PAGE', 'packages/verify/dist/verify.html'),
     demoMode,
     devMailbox: bool(env, 'DEV_MAILBOX', demoMode),
     db: {
