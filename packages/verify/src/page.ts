@@ -86,7 +86,7 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
     }
     for (const n of report.notes) parts.push(el('p', { class: 'v-note' }, n));
   }
-  parts.push(el('p', { class: 'v-meta' }, `Command-line form: ${report.headline}`));
+  parts.push(el('p', { class: 'v-meta' }, `In one line: ${report.headline}`));
   target.replaceChildren(...parts);
   target.hidden = false;
   target.dataset.exit = String(report.exitCode);
