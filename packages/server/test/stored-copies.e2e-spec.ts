@@ -1,4 +1,5 @@
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { AuditService, STORED_COPY, type AuditEvent } from '../src/audit/audit.service';
 import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
@@ -232,6 +233,41 @@ describe('stored copies of a roll', () => {
     expect(of(sealedLot)).toContainEqual(expect.objectContaining({ table: 'sealed_fields', seq: 0 }));
     for (const code of [headLot, viewLot, sealedLot])
       expect(broken.find((x) => x.lot === code)!.message).toContain('differs from the roll');
+  });
+
+  it('reports a changed exhibit row, transfer offer row or sale row', async () => {
+    const offered = await newLot();
+    await ledger.append(offered, {
+      kind: 'transfer-offered',
+      actor: holder.id,
+      body: { recipient: other.id },
+    });
+    const sold = await newLot();
+    await ledger.append(sold, { kind: 'sold', actor: holder.id, body: { date: '2026-11-28' } });
+    // An exhibit of the demo scenario (loaded by an earlier test).
+    const [exhibit] = (await t.app
+      .get(DataSource)
+      .query('SELECT "lot_code", "seq" FROM "exhibits" ORDER BY "lot_code", "seq" LIMIT 1')) as Array<{
+      lot_code: string;
+      seq: number;
+    }>;
+    expect(exhibit).toBeDefined();
+    await tamper(`UPDATE "transfer_offers" SET "recipient" = $2 WHERE "code" = $1`, [offered, registrar.id]);
+    await tamper(`UPDATE "sales" SET "seller" = $2, "sold_on" = '2026-01-01' WHERE "code" = $1`, [
+      sold,
+      other.id,
+    ]);
+    await tamper(`UPDATE "exhibits" SET "added_by" = $3 WHERE "lot_code" = $1 AND "seq" = $2`, [
+      exhibit!.lot_code,
+      exhibit!.seq,
+      other.id,
+    ]);
+    const { broken } = await audit();
+    const of = (code: string) =>
+      (broken.find((x) => x.lot === code)?.differences ?? []).map((d) => `${d.table}.${d.column}`);
+    expect(of(offered)).toContain('transfer_offers.recipient');
+    expect(of(sold)).toEqual(expect.arrayContaining(['sales.seller', 'sales.sold_on']));
+    expect(of(exhibit!.lot_code)).toContain('exhibits.added_by');
   });
 
   async function entryCount(code: string): Promise<number> {

@@ -7,15 +7,21 @@ import {
   sealedRoot,
   type CombinedBody,
   type EntryHeader,
+  type ExhibitAddedBody,
+  type ExhibitRef,
   type ObservedBody,
   type Observations,
   type RedactedBody,
   type RollState,
+  type SoldBody,
   type SplitBody,
+  type TransferAnswerBody,
+  type TransferOfferedBody,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
 import { lotViewValues } from '../lots/lot-view.projector';
+import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 
 /**
  * The audit's reason for a lot whose roll verifies but whose stored copies (the columns kept
@@ -32,6 +38,24 @@ export interface StoredCopyDifference {
   seq: number | null;
   stored: string;
   roll: string;
+}
+
+/** Entries other features keep a row for, remembered while a roll is replayed (a few per lot). */
+const KEPT_KINDS = new Set([
+  'exhibit-added',
+  'transfer-offered',
+  'transfer-accepted',
+  'transfer-declined',
+  'transfer-withdrawn',
+  'transfer-lapsed',
+  'sold',
+]);
+
+interface KeptEntry {
+  kind: string;
+  actor: string;
+  time: string;
+  body: unknown;
 }
 
 interface LotRow {
@@ -133,6 +157,7 @@ export class AuditService {
     let first: EntryHeader | null = null;
     let observations: Observations | null = null;
     const sealedRoots = new Map<number, string>();
+    const kept = new Map<number, KeptEntry>();
     const { result, entries } = await replayStoredRoll(this.dataSource.manager, lot, (row, e) => {
       const h = e.header;
       if (h.seq === 0) first = h;
@@ -145,6 +170,8 @@ export class AuditService {
       if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
       if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
       if (h.sealed) sealedRoots.set(h.seq, h.sealed);
+      if (KEPT_KINDS.has(h.kind))
+        kept.set(h.seq, { kind: h.kind, actor: h.actor, time: h.time, body: e.body });
     });
     counted(entries);
     if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
@@ -215,6 +242,8 @@ export class AuditService {
       if (got !== root) differs('sealed_fields', 'commitment', seq, got, root);
     }
 
+    await this.checkFeatureRows(lot, kept, sealed, differs);
+
     const parents = (first as EntryHeader | null)?.parents ?? [];
     for (const p of parents) {
       const rows: Array<{ hash: string; header: string; body: string | null }> = await this.dataSource.query(
@@ -248,6 +277,132 @@ export class AuditService {
         .join('; ')}${diffs.length > 8 ? `; and ${diffs.length - 8} more` : ''}`,
       differences: diffs,
     };
+  }
+
+  /**
+   * The rows other features write in the append transaction, each a copy of one entry: the
+   * exhibit rows files are served by, the transfer offers and the sales lists.
+   */
+  private async checkFeatureRows(
+    lot: LotRow,
+    kept: Map<number, KeptEntry>,
+    sealed: Array<{ seq: number; name: string; value: string }>,
+    differs: (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) => void,
+  ): Promise<void> {
+    const same = (a: unknown, b: unknown) => jsonDifferences(a, b, 1).length === 0;
+    const sameTime = (stored: unknown, time: string) =>
+      stored instanceof Date && stored.getTime() === new Date(time).getTime();
+    const exhibits: Array<{
+      seq: number;
+      lot_code: string;
+      added_by: string;
+      sealed: boolean;
+      original_sha256: string;
+      ref: ExhibitRef;
+    }> = await this.dataSource.query(
+      `SELECT "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
+        WHERE "lot_id" = $1 ORDER BY "seq"`,
+      [lot.id],
+    );
+    for (const x of exhibits) {
+      const e = kept.get(x.seq);
+      if (e?.kind !== 'exhibit-added') {
+        differs('exhibits', '(row)', x.seq, 'an exhibit', e ? `a ${e.kind} entry` : 'no such entry');
+        continue;
+      }
+      if (x.lot_code !== lot.code) differs('exhibits', 'lot_code', x.seq, x.lot_code, lot.code);
+      if (x.added_by !== e.actor) differs('exhibits', 'added_by', x.seq, x.added_by, e.actor);
+      if (x.original_sha256 !== x.ref?.original?.sha256)
+        differs('exhibits', 'original_sha256', x.seq, x.original_sha256, x.ref?.original?.sha256);
+      const body = e.body as ExhibitAddedBody | null;
+      if (!body) {
+        differs('exhibits', '(row)', x.seq, 'an exhibit', 'a removed exhibit');
+        continue;
+      }
+      const isSealed = !('exhibit' in body);
+      if (x.sealed !== isSealed) differs('exhibits', 'sealed', x.seq, x.sealed, isSealed);
+      const committed =
+        'exhibit' in body
+          ? body.exhibit
+          : (() => {
+              const f = sealed.find((s) => s.seq === x.seq && s.name === 'sealed-exhibit');
+              return f ? (JSON.parse(f.value) as unknown) : undefined;
+            })();
+      if (committed !== undefined && !same(x.ref, committed))
+        differs('exhibits', 'ref', x.seq, x.ref, committed);
+    }
+
+    const offers: Array<{
+      code: string;
+      offer_seq: number;
+      offerer: string;
+      recipient: string | null;
+      status: string;
+      offered_at: Date;
+      answer_seq: number | null;
+      answered_at: Date | null;
+    }> = await this.dataSource.query(
+      `SELECT "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
+         FROM "transfer_offers" WHERE "lot_id" = $1 ORDER BY "offer_seq"`,
+      [lot.id],
+    );
+    const offerSeqs = [...kept].filter(([, e]) => e.kind === 'transfer-offered').map(([seq]) => seq);
+    for (const seq of offerSeqs)
+      if (!offers.some((o) => o.offer_seq === seq))
+        differs('transfer_offers', '(row)', seq, 'missing', 'an offer');
+    for (const o of offers) {
+      const e = kept.get(o.offer_seq);
+      if (e?.kind !== 'transfer-offered') {
+        differs(
+          'transfer_offers',
+          '(row)',
+          o.offer_seq,
+          'an offer',
+          e ? `a ${e.kind} entry` : 'no such entry',
+        );
+        continue;
+      }
+      if (o.code !== lot.code) differs('transfer_offers', 'code', o.offer_seq, o.code, lot.code);
+      if (o.offerer !== e.actor) differs('transfer_offers', 'offerer', o.offer_seq, o.offerer, e.actor);
+      const recipient = (e.body as TransferOfferedBody | null)?.recipient;
+      if (recipient !== undefined && o.recipient !== recipient)
+        differs('transfer_offers', 'recipient', o.offer_seq, o.recipient, recipient);
+      if (!sameTime(o.offered_at, e.time))
+        differs('transfer_offers', 'offered_at', o.offer_seq, o.offered_at, e.time);
+      const answer = [...kept].find(
+        ([, a]) =>
+          OFFER_ENDINGS[a.kind] !== undefined &&
+          (a.body as TransferAnswerBody | null)?.offerSeq === o.offer_seq,
+      );
+      // An answer whose body was removed no longer says which offer it answered.
+      const unknown = [...kept].some(([, a]) => OFFER_ENDINGS[a.kind] !== undefined && a.body === null);
+      if (!answer && unknown) continue;
+      const status = answer ? OFFER_ENDINGS[answer[1].kind]! : 'open';
+      if (o.status !== status) differs('transfer_offers', 'status', o.offer_seq, o.status, status);
+      if (o.answer_seq !== (answer?.[0] ?? null))
+        differs('transfer_offers', 'answer_seq', o.offer_seq, o.answer_seq, answer?.[0] ?? null);
+      if (answer ? !sameTime(o.answered_at, answer[1].time) : o.answered_at !== null)
+        differs('transfer_offers', 'answered_at', o.offer_seq, o.answered_at, answer?.[1].time ?? null);
+    }
+
+    const sales: Array<{ code: string; seq: number; seller: string; sold_on: string; recorded_at: Date }> =
+      await this.dataSource.query(
+        `SELECT "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
+          WHERE "lot_id" = $1 ORDER BY "seq"`,
+        [lot.id],
+      );
+    for (const x of sales) {
+      const e = kept.get(x.seq);
+      if (e?.kind !== 'sold') {
+        differs('sales', '(row)', x.seq, 'a sale', e ? `a ${e.kind} entry` : 'no such entry');
+        continue;
+      }
+      if (x.code !== lot.code) differs('sales', 'code', x.seq, x.code, lot.code);
+      if (x.seller !== e.actor) differs('sales', 'seller', x.seq, x.seller, e.actor);
+      const date = (e.body as SoldBody | null)?.date;
+      if (date !== undefined && x.sold_on !== date) differs('sales', 'sold_on', x.seq, x.sold_on, date);
+      if (!sameTime(x.recorded_at, e.time)) differs('sales', 'recorded_at', x.seq, x.recorded_at, e.time);
+    }
   }
 }
 
