@@ -9,6 +9,9 @@ const VERDICT: Record<Report['exitCode'], string> = {
   2: 'Not a lot history file: nothing in it could be checked.',
 };
 
+const INTACT_WITH_NOTES =
+  'Intact as far as it can be checked: nothing is broken, but read the notes below before relying on it.';
+
 function el<K extends keyof HTMLElementTagNameMap>(
   tag: K,
   attrs: Record<string, string> = {},
@@ -30,7 +33,14 @@ function sizeWords(n: number): string {
 function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Report): void {
   const parts: Node[] = [];
   parts.push(el('h2', {}, 'Result'));
-  parts.push(el('p', { class: 'v-verdict', 'data-exit': String(report.exitCode) }, VERDICT[report.exitCode]));
+  const noted = report.notes.length > 0 || report.rolls.some((r) => r.notes.length > 0);
+  parts.push(
+    el(
+      'p',
+      { class: 'v-verdict', 'data-exit': String(report.exitCode), 'data-noted': String(noted) },
+      report.exitCode === 0 && noted ? INTACT_WITH_NOTES : VERDICT[report.exitCode],
+    ),
+  );
   parts.push(
     el(
       'p',
@@ -54,7 +64,11 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
           'div',
           { class: 'v-roll-head' },
           el('span', { class: 'v-code' }, `Lot ${r.code}`),
-          el('span', { class: 'v-state' }, r.ok ? 'intact' : 'broken'),
+          el(
+            'span',
+            { class: 'v-state' },
+            r.ok ? (r.notes.length > 0 ? 'intact, with a note' : 'intact') : 'broken',
+          ),
           el('span', {}, `${what}${r.status ? `, ${r.status}` : ''}`),
         ),
       );

@@ -127,17 +127,21 @@ export function reportVerification(result: BundleVerification): Report {
   const problems = result.failures.filter((f) => !attached.has(key(f))).map(problemOf);
   const ok = result.ok && rolls.every((r) => r.ok) && problems.length === 0;
   const first = result.failures[0];
+  const notes = extraNotes(result, RESULT_KEYS);
+  const noted = notes.length + rolls.reduce((n, r) => n + r.notes.length, 0);
   return {
     exitCode: ok ? 0 : 1,
     headline: ok
-      ? 'verified: every roll is unbroken and every link checks both ways'
+      ? noted > 0
+        ? `verified with ${plural(noted, 'note')}: every roll is unbroken and every link checks both ways, as far as the notes above allow`
+        : 'verified: every roll is unbroken and every link checks both ways'
       : first
         ? `broken: lot ${codeOf(first.lot)}${first.seq === undefined ? '' : ` seq ${first.seq}`} (${first.reason})`
         : 'broken',
     summary: `${plural(rolls.length, 'lot')}, ${plural(result.entries, 'entry', 'entries')}, ${plural(result.links, 'cross-lot link')}`,
     rolls,
     problems,
-    notes: extraNotes(result, RESULT_KEYS),
+    notes,
     unreadable: null,
   };
 }
