@@ -114,6 +114,9 @@ async function check(file: File, target: HTMLElement): Promise<void> {
 }
 
 function start(): void {
+  // Served by a Beadroll server, the page offers itself as a download; a saved copy does not.
+  if (location.protocol === 'http:' || location.protocol === 'https:')
+    document.getElementById('save')!.hidden = false;
   const input = document.getElementById('file') as HTMLInputElement;
   const drop = document.getElementById('drop')!;
   const result = document.getElementById('result')!;

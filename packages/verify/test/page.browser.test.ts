@@ -104,6 +104,10 @@ describe('the offline verifier page', () => {
     expect(await page.locator('#result').textContent()).toContain('dropped.beadroll.json');
   });
 
+  it('offers no download of itself when opened from a file', async () => {
+    expect(await page.locator('#save').isHidden()).toBe(true);
+  });
+
   it('made no request but for the page file itself, and its own policy refused nothing it needs', () => {
     expect(requests.filter((u) => !u.startsWith('file:'))).toEqual([]);
     expect(errors).toEqual([]);

@@ -209,6 +209,8 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
     await page.getByRole('link', { name: 'Beadroll’s checking page' }).click();
     await page.getByRole('heading', { name: 'Check a lot history file' }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/verify');
+    const save = page.getByRole('link', { name: 'Save this page' });
+    expect(await save.getAttribute('href')).toBe('/verify/download');
     await context.setOffline(true);
     try {
       await page.setInputFiles('#file', file);
