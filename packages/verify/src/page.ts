@@ -10,7 +10,7 @@ const VERDICT: Record<Report['exitCode'], string> = {
 };
 
 const INTACT_WITH_NOTES =
-  'Intact as far as it can be checked: nothing is broken, but read the notes below before relying on it.';
+  'Intact as far as it can be checked: nothing is broken, but some of it could not be checked. Read the notes below before relying on it.';
 
 function el<K extends keyof HTMLElementTagNameMap>(
   tag: K,
@@ -33,7 +33,8 @@ function sizeWords(n: number): string {
 function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Report): void {
   const parts: Node[] = [];
   parts.push(el('h2', {}, 'Result'));
-  const noted = report.notes.length > 0 || report.rolls.some((r) => r.notes.length > 0);
+  const noted =
+    report.notes.length > 0 || report.rolls.some((r) => r.notes.length > 0 || r.unchecked.length > 0);
   parts.push(
     el(
       'p',
@@ -59,7 +60,12 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
         r.scope === 'link' ? 'link entries only' : `${r.entries} ${r.entries === 1 ? 'entry' : 'entries'}`;
       const item = el(
         'li',
-        { class: 'v-roll', 'data-ok': String(r.ok), 'data-lot': r.lot },
+        {
+          class: 'v-roll',
+          'data-ok': String(r.ok),
+          'data-lot': r.lot ?? '',
+          'data-partial': String(r.unchecked.length > 0),
+        },
         el(
           'div',
           { class: 'v-roll-head' },
@@ -67,7 +73,13 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
           el(
             'span',
             { class: 'v-state' },
-            r.ok ? (r.notes.length > 0 ? 'intact, with a note' : 'intact') : 'broken',
+            !r.ok
+              ? 'broken'
+              : r.unchecked.length > 0
+                ? 'intact, not fully checkable after a removal'
+                : r.notes.length > 0
+                  ? 'intact, with a note'
+                  : 'intact',
           ),
           el('span', {}, `${what}${r.status ? `, ${r.status}` : ''}`),
         ),
@@ -83,6 +95,14 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
           ),
         );
       }
+      for (const u of r.unchecked)
+        item.append(
+          el(
+            'p',
+            { class: 'v-note' },
+            `${u.seq === null ? '' : `At entry ${u.seq}: `}could not check ${u.message}. A removal took away what this rule needs.`,
+          ),
+        );
       for (const n of r.notes) item.append(el('p', { class: 'v-note' }, n));
       list.append(item);
     }

@@ -2,8 +2,10 @@ import {
   BundleError,
   DEFAULT_MAX_BUNDLE_BYTES,
   formatLotCode,
+  parseBundleBytes,
   parseBundleText,
   verifyBundle,
+  type Bundle,
   type BundleVerification,
 } from '@beadroll/core';
 
@@ -17,10 +19,16 @@ export interface RollProblem {
   message: string;
 }
 
+/** A rule core could not apply to one entry of an intact roll (a version-1 roll after a removal). */
+export interface UncheckedLine {
+  seq: number | null;
+  message: string;
+}
+
 /** One roll of a verified bundle, ready to print or show. */
 export interface RollLine {
-  /** Canonical lot code. */
-  lot: string;
+  /** Canonical lot code, or null when the roll names none. */
+  lot: string | null;
   /** The code as printed on tags (with its hyphens). */
   code: string;
   scope: string;
@@ -29,7 +37,9 @@ export interface RollLine {
   /** Where the lot stands, when its whole roll is in the bundle and intact. */
   status: string | null;
   problem: RollProblem | null;
-  /** Anything else the verifier said about this roll (for instance a caveat after a removal). */
+  /** Rules that could not be checked after a removal: the roll is intact but not fully checkable. */
+  unchecked: UncheckedLine[];
+  /** Anything else the verifier said about this roll, in words. */
   notes: string[];
 }
 
@@ -43,13 +53,15 @@ export interface Report {
   rolls: RollLine[];
   /** Problems the verifier reported that belong to no single roll of the bundle. */
   problems: RollProblem[];
+  /** Every failure core reported, one per broken roll or link, in its order. */
+  failures: Array<RollProblem & { lot: string | null }>;
   /** Anything else the verifier said about the bundle as a whole. */
   notes: string[];
   /** Why the file is not a bundle at all (exit 2). */
   unreadable: { code: string; message: string } | null;
 }
 
-const ROLL_KEYS = new Set(['lot', 'scope', 'entries', 'ok', 'failure', 'state']);
+const ROLL_KEYS = new Set(['lot', 'scope', 'entries', 'ok', 'failure', 'state', 'unchecked']);
 const RESULT_KEYS = new Set(['ok', 'rolls', 'entries', 'links', 'failures']);
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
@@ -93,8 +105,8 @@ function extraNotes(result: object, known: Set<string>): string[] {
   return out;
 }
 
-function codeOf(lot: string | null): string {
-  if (!lot) return '(unknown lot)';
+function codeOf(lot: string | null | undefined): string {
+  if (!lot) return '(no valid lot code)';
   try {
     return formatLotCode(lot);
   } catch {
@@ -110,6 +122,14 @@ function problemOf(f: { seq?: unknown; reason?: unknown; message?: unknown }): R
   };
 }
 
+function uncheckedOf(value: unknown): UncheckedLine[] {
+  if (!Array.isArray(value)) return [];
+  return value.map((u: { seq?: unknown; message?: unknown }) => ({
+    seq: typeof u?.seq === 'number' ? u.seq : null,
+    message: typeof u?.message === 'string' ? u.message : JSON.stringify(u),
+  }));
+}
+
 /** Turns core's bundle verification into a report. */
 export function reportVerification(result: BundleVerification): Report {
   const rolls: RollLine[] = result.rolls.map((r) => ({
@@ -120,30 +140,36 @@ export function reportVerification(result: BundleVerification): Report {
     entries: r.entries,
     status: r.state ? r.state.status : null,
     problem: r.failure ? problemOf(r.failure) : null,
+    unchecked: r.ok ? uncheckedOf((r as { unchecked?: unknown }).unchecked) : [],
     notes: extraNotes(r, ROLL_KEYS),
   }));
   const key = (f: { lot?: unknown; seq?: unknown; reason?: unknown }) => `${f.lot}/${f.seq}/${f.reason}`;
   const attached = new Set(result.rolls.flatMap((r) => (r.failure ? [key(r.failure)] : [])));
   const problems = result.failures.filter((f) => !attached.has(key(f))).map(problemOf);
+  const failures = result.failures.map((f) => ({ ...problemOf(f), lot: f.lot ?? null }));
   const ok = result.ok && rolls.every((r) => r.ok) && problems.length === 0;
-  const first = result.failures[0];
   const notes = extraNotes(result, RESULT_KEYS);
+  const partial = rolls.filter((r) => r.unchecked.length > 0).length;
   const noted = notes.length + rolls.reduce((n, r) => n + r.notes.length, 0);
+  const first = failures[0];
+  let headline = 'verified: every roll is unbroken and every link checks both ways';
+  if (partial > 0)
+    headline += `; ${plural(partial, 'roll')} ${partial === 1 ? 'is' : 'are'} not fully checkable after a removal`;
+  if (noted > 0) headline += `; ${plural(noted, 'note')} above`;
   return {
     exitCode: ok ? 0 : 1,
-    headline: ok
-      ? noted > 0
-        ? `verified with ${plural(noted, 'note')}: every roll is unbroken and every link checks both ways, as far as the notes above allow`
-        : 'verified: every roll is unbroken and every link checks both ways'
-      : first
-        ? `broken: lot ${codeOf(first.lot)}${first.seq === undefined ? '' : ` seq ${first.seq}`} (${first.reason})`
-        : 'broken',
+    headline: ok ? headline : first ? brokenLine(first) : 'broken',
     summary: `${plural(rolls.length, 'lot')}, ${plural(result.entries, 'entry', 'entries')}, ${plural(result.links, 'cross-lot link')}`,
     rolls,
     problems,
+    failures,
     notes,
     unreadable: null,
   };
+}
+
+function brokenLine(f: RollProblem & { lot: string | null }): string {
+  return `broken: lot ${codeOf(f.lot)}${f.seq === null ? '' : ` seq ${f.seq}`} (${f.reason})`;
 }
 
 /** A report for a file that is not a bundle at all. */
@@ -154,33 +180,29 @@ export function unreadableReport(code: string, message: string): Report {
     summary: null,
     rolls: [],
     problems: [],
+    failures: [],
     notes: [],
     unreadable: { code, message },
   };
 }
 
 /**
- * Checks the bytes of a file: the size limit first, then UTF-8, then JSON and the bundle's
- * shape (exit 2 when any of these fail), then every roll and link with core's verifier.
- * Never throws.
+ * Checks the bytes of a file with core: the size limit, strict UTF-8, JSON and the bundle's
+ * shape (exit 2 when any of these fail), then every roll and link (exit 0 or 1). Never throws.
  */
 export function reportBundleBytes(bytes: Uint8Array, maxBytes = DEFAULT_MAX_BUNDLE_BYTES): Report {
-  if (bytes.length > maxBytes)
-    return unreadableReport('too-large', `the file is ${bytes.length} bytes, over the limit of ${maxBytes}`);
-  let text: string;
-  try {
-    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    return unreadableReport('not-utf8', 'the file is not UTF-8 text');
-  }
-  return reportBundleText(text, maxBytes);
+  return reportParsed(() => parseBundleBytes(bytes, maxBytes));
 }
 
 /** Like {@link reportBundleBytes}, for text already decoded. Never throws. */
 export function reportBundleText(text: string, maxBytes = DEFAULT_MAX_BUNDLE_BYTES): Report {
+  return reportParsed(() => parseBundleText(text, maxBytes));
+}
+
+function reportParsed(parse: () => Bundle): Report {
   let result: BundleVerification;
   try {
-    result = verifyBundle(parseBundleText(text, maxBytes));
+    result = verifyBundle(parse());
   } catch (e) {
     if (e instanceof BundleError) return unreadableReport(e.code, e.message);
     return unreadableReport('not-a-bundle', e instanceof Error ? e.message : String(e));
@@ -196,17 +218,23 @@ export function reportLines(report: Report): string[] {
   const width = Math.max(0, ...report.rolls.map((r) => r.code.length));
   for (const r of report.rolls) {
     const what = r.scope === 'link' ? 'link entries only' : plural(r.entries, 'entry', 'entries');
-    const head = `  ${r.code.padEnd(width)}  ${r.ok ? 'intact' : 'BROKEN'}`;
-    if (r.ok || !r.problem) out.push(`${head}   (${what}${r.status ? `, ${r.status}` : ''})`);
-    else
+    const name = r.code.padEnd(width);
+    if (!r.ok && r.problem)
       out.push(
-        `${head}   ${r.problem.seq === null ? '' : `at seq ${r.problem.seq}: `}${r.problem.reason} — ${r.problem.message}`,
+        `  ${name}  BROKEN   ${r.problem.seq === null ? '' : `at seq ${r.problem.seq}: `}${r.problem.reason} — ${r.problem.message}`,
       );
+    else if (!r.ok) out.push(`  ${name}  BROKEN`);
+    else if (r.unchecked.length > 0) {
+      out.push(`  ${name}  intact, not fully checkable after a removal   (${what})`);
+      for (const u of r.unchecked)
+        out.push(`      ${u.seq === null ? '' : `seq ${u.seq}: `}could not check ${u.message}`);
+    } else out.push(`  ${name}  intact   (${what}${r.status ? `, ${r.status}` : ''})`);
     for (const n of r.notes) out.push(`      note: ${n}`);
   }
   for (const p of report.problems)
     out.push(`  bundle  BROKEN   ${p.seq === null ? '' : `at seq ${p.seq}: `}${p.reason} — ${p.message}`);
   for (const n of report.notes) out.push(`  note: ${n}`);
-  out.push(report.headline);
+  if (report.exitCode === 0) out.push(report.headline);
+  else for (const f of report.failures) out.push(brokenLine(f));
   return out;
 }

@@ -7,7 +7,7 @@ import { mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { EXAMPLE, filesIn, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
+import { EXAMPLE, EXAMPLE_V1, filesIn, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
 
 interface Run {
   code: number | null;
@@ -19,6 +19,7 @@ const tampered = tamperedExample();
 const formatted = (lot: string) => `${lot.slice(0, 4)}-${lot.slice(4, 8)}-${lot.slice(8)}`;
 const dir = filesIn({
   'intact.json': EXAMPLE,
+  'v1.json': EXAMPLE_V1,
   'broken.json': tampered.text,
   ...Object.fromEntries(NOT_BUNDLES.map((f) => [f.name, f.bytes])),
 });
@@ -35,6 +36,14 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
       expect(r.out).toContain('6 lots, 17 entries, 3 cross-lot links');
       expect(r.out.match(/ intact /g)).toHaveLength(6);
       expect(r.out).toMatch(/^verified: /m);
+    });
+
+    it('exits 0 on a version-1 bundle and names the roll that is not fully checkable after a removal', () => {
+      const r = run(join(dir, 'v1.json'));
+      expect(r.code).toBe(0);
+      expect(r.out).toMatch(/^ {2}[0-9A-Z-]{11} {2}intact, not fully checkable after a removal/m);
+      expect(r.out).toMatch(/^ {6}seq \d+: could not check /m);
+      expect(r.out).toMatch(/^verified: .*; 1 roll is not fully checkable after a removal$/m);
     });
 
     it('exits 1 on a broken roll, naming the lot, the entry and the reason', () => {

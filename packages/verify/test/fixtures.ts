@@ -9,6 +9,12 @@ export const REPO = fileURLToPath(new URL('../../../', import.meta.url));
 /** The format document's example bundle (docs/ledger-format.md §11): invented lots, every roll intact. */
 export const EXAMPLE = readFileSync(join(REPO, 'docs/examples/bundle.json'), 'utf8');
 
+/**
+ * The same example as format version 1 wrote it, frozen in core's tests: one roll has a note
+ * whose body was removed, so it verifies as intact but not fully checkable after a removal.
+ */
+export const EXAMPLE_V1 = readFileSync(join(REPO, 'packages/core/test/fixtures/bundle-v1.json'), 'utf8');
+
 interface ExampleRoll {
   lot: string;
   entries: Array<{ hash: string; header: string; body: string | null; logIndex: number | null }>;
@@ -30,6 +36,8 @@ export function tamperedExample(): { text: string; lot: string; seq: number } {
 export const NOT_BUNDLES: Array<{ name: string; bytes: Uint8Array | string; why: string }> = [
   // 0xFF and 0xFE never appear in UTF-8 (RFC 3629 §1).
   { name: 'not-utf8.json', bytes: new Uint8Array([0xff, 0xfe, 0x7b, 0x7d]), why: 'not-utf8' },
+  // A byte-order mark is not part of a JSON text (RFC 8259 §8.1: implementations MUST NOT add one).
+  { name: 'bom.json', bytes: new Uint8Array([0xef, 0xbb, 0xbf, 0x7b, 0x7d]), why: 'not-utf8' },
   { name: 'not-json.json', bytes: '{"format":', why: 'not-json' },
   { name: 'list.json', bytes: '[1,2,3]', why: 'not-a-bundle' },
   {

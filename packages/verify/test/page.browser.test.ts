@@ -8,7 +8,7 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildVerifier, PAGE_FILE } from '../build.mjs';
 import { reportBundleText } from '../src/report.js';
-import { EXAMPLE, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
+import { EXAMPLE, EXAMPLE_V1, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
 
 const ARTIFACTS = join(REPO, 'test-artifacts');
 const tampered = tamperedExample();
@@ -84,6 +84,18 @@ describe('the offline verifier page', () => {
     expect(await bad.textContent()).toContain(`At entry ${tampered.seq}`);
     expect(await page.locator('#result').textContent()).toContain(reportBundleText(tampered.text).headline);
     await page.screenshot({ path: join(ARTIFACTS, 'verify-page-broken-390.png'), fullPage: true });
+  });
+
+  it('shows a version-1 roll whose removed body hid a rule fact as intact but not fully checkable', async () => {
+    await choose('old.beadroll.json', EXAMPLE_V1);
+    await expect.poll(resultExit).toBe('0');
+    expect(await verdict().getAttribute('data-noted')).toBe('true');
+    expect(await verdict().textContent()).toContain('could not be checked');
+    const partial = page.locator('.v-roll[data-partial="true"]');
+    expect(await partial.count()).toBe(1);
+    expect(await partial.textContent()).toContain('not fully checkable after a removal');
+    expect(await page.locator('#result').textContent()).toContain(reportBundleText(EXAMPLE_V1).headline);
+    await page.screenshot({ path: join(ARTIFACTS, 'verify-page-v1-390.png'), fullPage: true });
   });
 
   it('says a file that is not a bundle is not one', async () => {

@@ -3,7 +3,7 @@
 import type { BundleVerification } from '@beadroll/core';
 import { describe, expect, it } from 'vitest';
 import { reportBundleBytes, reportBundleText, reportLines, reportVerification } from '../src/report.js';
-import { EXAMPLE, tamperedExample } from './fixtures.js';
+import { EXAMPLE, EXAMPLE_V1, tamperedExample } from './fixtures.js';
 
 describe('the verifier report', () => {
   it('shows every roll of the example as intact, with exit 0', () => {
@@ -64,6 +64,8 @@ describe('the verifier report', () => {
     expect(r.problems).toEqual([{ seq: 0, reason: 'orphan-link', message: 'a link entry no child names' }]);
     expect(r.notes).toEqual(['removal caveat']);
     const text = reportLines(r).join('\n');
+    expect(text).toContain('broken: lot ZZZZZZZZZ seq 0 (bad-facts)');
+    expect(text).toContain('broken: lot (no valid lot code) seq 0 (orphan-link)');
     for (const s of ['bad-facts', 'orphan-link', 'not-fully-checkable', 'removal caveat'])
       expect(text).toContain(s);
   });
@@ -79,7 +81,16 @@ describe('the verifier report', () => {
       ],
     } as unknown as BundleVerification);
     expect(r.exitCode).toBe(0);
-    expect(r.headline).toMatch(/^verified with 1 note: /);
+    expect(r.headline).toMatch(/^verified: .*; 1 note above$/);
+  });
+
+  it('shows a version-1 roll whose removed body hid a rule fact as intact but not fully checkable', () => {
+    const r = reportBundleText(EXAMPLE_V1);
+    expect(r.exitCode).toBe(0);
+    const partial = r.rolls.filter((x) => x.unchecked.length > 0);
+    expect(partial).toHaveLength(1);
+    expect(partial[0]!.ok).toBe(true);
+    expect(r.headline).toContain('1 roll is not fully checkable after a removal');
   });
 
   it('refuses bytes that are not UTF-8 or over the limit before reading them as text', () => {
