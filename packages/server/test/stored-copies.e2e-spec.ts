@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { AuditService, STORED_COPY, type AuditEvent } from '../src/audit/audit.service';
+import { refreshStoredCopies } from '../src/audit/refresh-stored-copies';
 import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
@@ -268,6 +269,19 @@ describe('stored copies of a roll', () => {
     expect(of(offered)).toContain('transfer_offers.recipient');
     expect(of(sold)).toEqual(expect.arrayContaining(['sales.seller', 'sales.sold_on']));
     expect(of(exhibit!.lot_code)).toContain('exhibits.added_by');
+  });
+
+  it('rewrites caches an older reducer wrote from the rolls, after which the audit is clean again', async () => {
+    const code = await newLot();
+    // A state as the version-1 reducer cached it: none of the fields version 2 added.
+    await tamper(
+      `UPDATE "lots" SET "state" = "state" - 'count' - 'taken' - 'exhibits' - 'version' WHERE "code" = $1`,
+      [code],
+    );
+    await tamper(`UPDATE "lot_views" SET "count_value" = 3 WHERE "code" = $1`, [code]);
+    expect((await audit()).broken.find((x) => x.lot === code)).toMatchObject({ reason: STORED_COPY });
+    expect(await refreshStoredCopies(t.app.get(DataSource).manager)).toBeGreaterThan(0);
+    expect((await audit()).broken.find((x) => x.lot === code)).toBeUndefined();
   });
 
   async function entryCount(code: string): Promise<number> {
