@@ -114,7 +114,7 @@ export class RollTransaction {
     });
     if (stale.length > 0)
       log.error(
-        `lot ${code}: the cached ${stale.map((d) => d.path).join(', ')} differ from the roll; the roll decides`,
+        `lot ${code}: cached copies differ from the roll (${stale.map((d) => d.path).join(', ')}); the roll decides`,
       );
     const lot = { id: row.id, code: row.code, state: derived };
     this.locked.set(code, lot);
