@@ -21,6 +21,7 @@ import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
 import { VerifyPageModule } from './verify-page/verify-page.module';
+import { StandbyModule } from './standby/standby.module';
 
 @Module({
   imports: [
@@ -30,6 +31,7 @@ import { VerifyPageModule } from './verify-page/verify-page.module';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
+    StandbyModule,
     HealthModule,
     MailModule,
     AuthModule,
