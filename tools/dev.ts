@@ -34,6 +34,7 @@ async function main(): Promise<void> {
     DEV_MAILBOX: 'true',
   };
   await runInherit('npm', ['run', '--silent', 'build', '-w', '@beadroll/core'], { cwd: REPO });
+  await runInherit('npm', ['run', '--silent', 'build', '-w', '@beadroll/verify'], { cwd: REPO });
   await runInherit('npm', ['run', '--silent', 'build', '-w', '@beadroll/server'], { cwd: REPO });
   await runInherit('node', ['packages/server/dist/migrate.js'], { cwd: REPO, env });
   const server = join(REPO, 'packages/server');

@@ -69,7 +69,7 @@ async function main(): Promise<void> {
     MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '131072',
   };
 
-  console.log('building core, server and web…');
+  console.log('building core, the verifier, server and web…');
   if ((await runInherit('npm', ['run', '--silent', 'build'], { cwd: REPO })) !== 0) {
     throw new UserFacingError('the build failed (see above).');
   }

@@ -163,6 +163,24 @@ async function main(): Promise<void> {
   );
   results.push(
     await suite(
+      'verifier',
+      'npx',
+      [
+        'vitest',
+        'run',
+        '--root',
+        'packages/verify',
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${report('verifier')}`,
+      ],
+      report('verifier'),
+      // The quick suite has no browser: it leaves out the offline page's browser test.
+      quick ? { ...env, VERIFY_SKIP_BROWSER: '1' } : env,
+    ),
+  );
+  results.push(
+    await suite(
       'server',
       'npx',
       [

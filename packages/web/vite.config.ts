@@ -48,6 +48,7 @@ export default defineConfig({
     proxy: {
       '/api': `http://127.0.0.1:${apiPort}`,
       '/dev': `http://127.0.0.1:${apiPort}`,
+      '/verify': `http://127.0.0.1:${apiPort}`,
     },
   },
   test: {

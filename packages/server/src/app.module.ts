@@ -21,6 +21,7 @@ import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
 import { IdempotencyModule } from './idempotency/idempotency.module';
+import { VerifyPageModule } from './verify-page/verify-page.module';
 import { StandbyModule } from './standby/standby.module';
 
 @Module({
@@ -46,6 +47,7 @@ import { StandbyModule } from './standby/standby.module';
     TransfersModule,
     RegistryToolsModule,
     TagsModule,
+    VerifyPageModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -15,8 +15,12 @@ import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 
-/** Paths served outside the /api prefix (development pages). */
-const UNPREFIXED = [{ path: 'dev/{*rest}', method: RequestMethod.ALL }];
+/** Paths served outside the /api prefix (development pages, the offline verifier page). */
+const UNPREFIXED = [
+  { path: 'dev/{*rest}', method: RequestMethod.ALL },
+  { path: 'verify', method: RequestMethod.GET },
+  { path: 'verify/download', method: RequestMethod.GET },
+];
 
 /**
  * Applies everything a running server needs on top of the module graph: the public lot data's
@@ -91,9 +95,15 @@ function preloadPublicLot(path: string, res: Response): void {
   if (code) res.setHeader('Link', `</api/public/lots/${code}>; rel=preload; as=fetch; crossorigin=anonymous`);
 }
 
-/** Paths the server answers itself (the API and the development pages), never the web app. */
+/** Paths the server answers itself (the API, the development pages, the verifier page), never the web app. */
 function isServerPath(path: string): boolean {
-  return path.startsWith('/api/') || path === '/api' || path.startsWith('/dev/');
+  return (
+    path.startsWith('/api/') ||
+    path === '/api' ||
+    path.startsWith('/dev/') ||
+    path === '/verify' ||
+    path === '/verify/download'
+  );
 }
 
 /**

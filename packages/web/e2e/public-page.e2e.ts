@@ -194,4 +194,37 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
       await tamper(original);
     }
   });
+  it('links to the history file and to the checking page, which checks that file with the network off', async () => {
+    const { page, context } = browser;
+    await page.goto(`${baseUrl}/l/${code}`);
+    await status()
+      .getByText(/Unbroken history as served/)
+      .waitFor();
+    expect(await page.locator('body').textContent()).not.toMatch(/\bnpm\b|\bnpx\b/);
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: `Download the history of lot ${formatLotCode(code)}` }).click(),
+    ]);
+    const file = await download.path();
+    await page.getByRole('link', { name: 'Beadroll’s checking page' }).click();
+    await page.getByRole('heading', { name: 'Check a lot history file' }).waitFor();
+    expect(new URL(page.url()).pathname).toBe('/verify');
+    const save = page.getByRole('link', { name: 'Save this page' });
+    expect(await save.getAttribute('href')).toBe('/verify/download');
+    await context.setOffline(true);
+    try {
+      await page.setInputFiles('#file', file);
+      await page.locator('#result[data-exit="0"]').waitFor();
+      const rolls = page.locator('.v-roll');
+      expect(await rolls.count()).toBe(bundle.rolls.length);
+      expect(await page.locator('.v-roll[data-ok="false"]').count()).toBe(0);
+      await expect(page.locator(`.v-roll[data-lot="${code}"]`).textContent()).resolves.toContain(
+        `${entries().length} entries`,
+      );
+      await screenshot(page, 'verify-page-served-390');
+      expect(await axeProblems()).toEqual([]);
+    } finally {
+      await context.setOffline(false);
+    }
+  });
 });

@@ -1,22 +1,92 @@
 import { Injectable } from '@nestjs/common';
 import {
-  createRollVerifier,
+  decodeHeader,
+  entryHash,
+  isHeaderProblem,
   sealedFieldCommitment,
   sealedRoot,
   type CombinedBody,
   type EntryHeader,
+  type ExhibitAddedBody,
+  type ExhibitRef,
+  type ObservedBody,
+  type Observations,
   type RedactedBody,
+  type RollState,
+  type SoldBody,
   type SplitBody,
-  type StoredEntry,
+  type TransferAnswerBody,
   type TransferOfferedBody,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
+import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
+import { lotViewValues } from '../lots/lot-view.projector';
+import { OFFER_ENDINGS } from '../transfers/transfer.projector';
+
+/**
+ * The audit's reason for a lot whose roll verifies but whose stored copies (the columns kept
+ * beside each entry's header, the cached state and head, the lot view, sealed commitments) say
+ * something else.
+ */
+export const STORED_COPY = 'stored-copy';
+
+/** One stored value that differs from what the roll says. */
+export interface StoredCopyDifference {
+  table: string;
+  column: string;
+  /** The entry, for a column of one entry; null for a value of the lot. */
+  seq: number | null;
+  stored: string;
+  roll: string;
+}
+
+/** Entries other features keep a row for, remembered while a roll is replayed (a few per lot). */
+const KEPT_KINDS = new Set([
+  'exhibit-added',
+  'transfer-offered',
+  'transfer-accepted',
+  'transfer-declined',
+  'transfer-withdrawn',
+  'transfer-lapsed',
+  'sold',
+]);
+
+interface KeptEntry {
+  kind: string;
+  actor: string;
+  time: string;
+  body: unknown;
+}
+
+interface LotRow {
+  id: string;
+  code: string;
+  head_seq: number;
+  head_hash: string;
+  head_time: string;
+  state: RollState;
+}
+
+interface LotProblem {
+  seq: number;
+  reason: string;
+  message: string;
+  differences?: StoredCopyDifference[];
+}
 
 /** One event of a full-ledger audit, streamed as it runs. */
 export type AuditEvent =
   | { type: 'start'; lots: number; startedAt: string }
   | { type: 'progress'; lotsChecked: number; lots: number; entriesChecked: number }
-  | { type: 'broken'; lot: string; seq: number; reason: string; message: string }
+  | {
+      type: 'broken';
+      lot: string;
+      seq: number;
+      reason: string;
+      message: string;
+      /** For `stored-copy`: each stored value that differs from the roll. */
+      differences?: StoredCopyDifference[];
+    }
   | {
       type: 'done';
       lotsChecked: number;
@@ -28,95 +98,14 @@ export type AuditEvent =
 
 const LOT_BATCH = 200;
 
-interface LotRow {
-  id: string;
-  code: string;
-  head_seq: number;
-  head_hash: string;
-  head_time: string;
-  state: unknown;
-}
-const ENTRY_BATCH = 500;
-
-/** One stored entry with every column the audit compares, and its sealed fields. */
-interface AuditRow extends StoredEntry {
-  seq: number;
-  kind: string;
-  actor: string;
-  time: string;
-  redacts_seq: number | null;
-  sealed: Array<{
-    name: string;
-    salt: string;
-    value: string;
-    commitment: string;
-    visible_to: string[];
-  }> | null;
-  actor_closed: boolean;
-}
-
-type Problem = { seq: number; reason: string; message: string };
-
-/** JSON with its object keys sorted, so a jsonb round trip compares equal to the original. */
-function stable(value: unknown): string {
-  return JSON.stringify(value, (_k, v: unknown) =>
-    v && typeof v === 'object' && !Array.isArray(v)
-      ? Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : 1)))
-      : v,
-  );
-}
-
-/**
- * What the stored columns of a verified entry must say: the copies of header fields the
- * database keeps beside the header (seq, kind, actor, time, the redaction's target), and the
- * sealed fields, each reproducing its commitment, together reproducing the header's sealed root
- * (unless some were deleted with their closed account), and readable only by the actor and,
- * for a transfer price, the offer's recipient.
- */
-function columnProblem(row: AuditRow, h: EntryHeader, body: unknown): Problem | null {
-  const bad = (what: string): Problem => ({
-    seq: h.seq,
-    reason: 'bad-column',
-    message: `the stored ${what} does not match the entry`,
-  });
-  if (row.seq !== h.seq) return bad('seq');
-  if (row.kind !== h.kind) return bad('kind');
-  if (row.actor !== h.actor) return bad('actor');
-  if (row.time !== h.time) return bad('time');
-  const target = h.kind === 'redacted' && body ? (body as RedactedBody).target : null;
-  if (h.kind === 'redacted' ? body !== null && row.redacts_seq !== target : row.redacts_seq !== null)
-    return bad('redaction target');
-  const fields = row.sealed ?? [];
-  if (fields.length === 0) return h.sealed === undefined || row.actor_closed ? null : bad('sealed fields');
-  if (h.sealed === undefined) return bad('sealed fields');
-  const commitments: Record<string, string> = {};
-  for (const f of fields) {
-    let value: unknown;
-    try {
-      value = JSON.parse(f.value);
-    } catch {
-      return bad(`sealed field ${f.name}`);
-    }
-    if (sealedFieldCommitment(f.name, f.salt, value) !== f.commitment) return bad(`sealed field ${f.name}`);
-    commitments[f.name] = f.commitment;
-    const recipient =
-      h.kind === 'transfer-offered' && f.name === 'transfer-price' && body
-        ? (body as TransferOfferedBody).recipient
-        : undefined;
-    const others = f.visible_to.filter((v) => v !== h.actor);
-    if (!f.visible_to.includes(h.actor) || others.some((v) => v !== recipient) || others.length > 1)
-      return bad(`readers of sealed field ${f.name}`);
-  }
-  if (!row.actor_closed && sealedRoot(commitments) !== h.sealed) return bad('sealed fields');
-  return null;
-}
-
 /**
  * The registrar's full-ledger audit: every roll is streamed from the database in pages through
- * core's incremental verifier (memory stays flat however long a roll is), the columns stored
- * beside each entry are compared with it, its sealed fields with their commitments, the stored
- * head and derived state with the verified roll's, and every parent link a child names is
- * checked against the parent's stored entry.
+ * core's incremental verifier (memory stays flat however long a roll is), every parent link a
+ * child names is checked against the parent's stored entry, and every copy the database keeps
+ * beside the canonical strings is compared with what the roll says: the `seq`, `kind`, `actor`,
+ * `time` and `redacts_seq` columns of each entry with its header, the lot's cached head and
+ * state with a replay through core's reducer, its `lot_views` row with the same projection the
+ * append path writes, and sealed commitments with their values and the header's root.
  */
 @Injectable()
 export class AuditService {
@@ -133,7 +122,8 @@ export class AuditService {
     let after = '';
     for (;;) {
       const lots: LotRow[] = await this.dataSource.query(
-        `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state" FROM "lots" WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
+        `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state" FROM "lots"
+          WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
         [after, LOT_BATCH],
       );
       if (lots.length === 0) break;
@@ -160,68 +150,264 @@ export class AuditService {
     };
   }
 
-  /** Entries of a lot from `fromSeq` with every column the audit compares. */
-  private page(lotId: string, fromSeq: number): Promise<AuditRow[]> {
-    return this.dataSource.query(
-      `SELECT e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body", e."redacts_seq",
-              (SELECT json_agg(json_build_object('name', s."name", 'salt', s."salt", 'value', s."value",
-                                                 'commitment', s."commitment", 'visible_to', s."visible_to"))
-                 FROM "sealed_fields" s WHERE s."entry_id" = e."id") AS "sealed",
-              EXISTS (SELECT 1 FROM "accounts" a WHERE a."id"::text = e."actor" AND a."status" = 'closed') AS "actor_closed"
-         FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-        WHERE e."lot_id" = $1 AND e."seq" >= $2 ORDER BY e."seq" LIMIT $3`,
-      [lotId, fromSeq, ENTRY_BATCH],
-    );
-  }
-
-  private async checkLot(lot: LotRow, counted: (n: number) => void): Promise<Problem | null> {
-    const v = createRollVerifier(lot.code);
-    let from = 0;
+  private async checkLot(lot: LotRow, counted: (n: number) => void): Promise<LotProblem | null> {
+    const diffs: StoredCopyDifference[] = [];
+    const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
+      diffs.push({ table, column, seq, stored: shown(stored), roll: shown(roll) });
     let first: EntryHeader | null = null;
-    for (;;) {
-      const page = await this.page(lot.id, from);
-      counted(page.length);
-      for (const e of page) {
-        const f = v.push(e);
-        if (f) return { seq: f.seq, reason: f.reason, message: f.message };
-        const column = columnProblem(e, v.last!.header, v.last!.body);
-        if (column) return column;
-        if (e.seq === 0) first = v.last!.header;
+    let observations: Observations | null = null;
+    const sealedRoots = new Map<number, string>();
+    const kept = new Map<number, KeptEntry>();
+    const { result, entries } = await replayStoredRoll(this.dataSource.manager, lot, (row, e) => {
+      const h = e.header;
+      if (h.seq === 0) first = h;
+      // Every column kept beside the canonical header must say what the header says.
+      if (row.seq !== h.seq) differs('entries', 'seq', h.seq, row.seq, h.seq);
+      if (row.kind !== h.kind) differs('entries', 'kind', h.seq, row.kind, h.kind);
+      if (row.actor !== h.actor) differs('entries', 'actor', h.seq, row.actor, h.actor);
+      if (row.time !== h.time) differs('entries', 'time', h.seq, row.time, h.time);
+      const target = h.kind === 'redacted' && e.body ? (e.body as RedactedBody).target : null;
+      if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
+      if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
+      if (h.sealed) sealedRoots.set(h.seq, h.sealed);
+      if (KEPT_KINDS.has(h.kind))
+        kept.set(h.seq, { kind: h.kind, actor: h.actor, time: h.time, body: e.body });
+    });
+    counted(entries);
+    if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
+    const state = JSON.parse(JSON.stringify(result.state)) as RollState;
+    const head = result.head;
+
+    if (lot.head_seq !== head.seq) differs('lots', 'head_seq', null, lot.head_seq, head.seq);
+    if (lot.head_hash !== head.hash) differs('lots', 'head_hash', null, lot.head_hash, head.hash);
+    if (lot.head_time !== head.time) differs('lots', 'head_time', null, lot.head_time, head.time);
+    for (const d of jsonDifferences(lot.state, state))
+      differs('lots', `state.${d.path}`, null, d.stored, d.expected);
+
+    const views: Array<Record<string, unknown>> = await this.dataSource.query(
+      'SELECT * FROM "lot_views" WHERE "lot_id" = $1',
+      [lot.id],
+    );
+    const view = views[0];
+    if (!view) differs('lot_views', '(row)', null, 'missing', 'one row');
+    else {
+      const want = lotViewValues(state, observations);
+      for (const [column, value] of Object.entries(want)) {
+        for (const d of jsonDifferences(view[column], value)) {
+          const at = d.path === '(whole value)' ? column : `${column}.${d.path}`;
+          differs('lot_views', at, null, d.stored, d.expected);
+        }
       }
-      if (page.length < ENTRY_BATCH) break;
-      from = page[page.length - 1]!.seq + 1;
+      const times: Array<[string, string]> = [
+        ['registered_at', (first as EntryHeader | null)?.time ?? ''],
+        ['updated_at', head.time],
+      ];
+      for (const [column, time] of times) {
+        const stored = view[column] instanceof Date ? (view[column] as Date).getTime() : NaN;
+        if (stored !== new Date(time).getTime())
+          differs(
+            'lot_views',
+            column,
+            null,
+            view[column] instanceof Date ? (view[column] as Date).toISOString() : view[column],
+            time,
+          );
+      }
     }
-    const r = v.finish();
-    if (!r.ok) return { seq: r.seq, reason: r.reason, message: r.message };
-    if (r.head.seq !== lot.head_seq || r.head.hash !== lot.head_hash || r.head.time !== lot.head_time) {
-      return {
-        seq: r.head.seq,
-        reason: 'bad-seq',
-        message: `the stored head (seq ${lot.head_seq}) is not the last entry on the roll (seq ${r.head.seq})`,
-      };
+
+    // Sealed values: each commitment recomputed from its salt and value, the commitments of an
+    // entry hashed to the root in its header. (A closed account's own values may be gone.)
+    const sealed: Array<{ seq: number; name: string; salt: string; value: string; commitment: string }> =
+      await this.dataSource.query(
+        `SELECT e."seq", s."name", s."salt", s."value", s."commitment" FROM "sealed_fields" s
+           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = $1 ORDER BY e."seq", s."name"`,
+        [lot.id],
+      );
+    const bySeq = new Map<number, Record<string, string>>();
+    for (const f of sealed) {
+      let value: unknown;
+      try {
+        value = JSON.parse(f.value);
+      } catch {
+        value = f.value;
+      }
+      const commitment = sealedFieldCommitment(f.name, f.salt, value);
+      if (commitment !== f.commitment)
+        differs('sealed_fields', `${f.name} (value or salt)`, f.seq, f.commitment, commitment);
+      bySeq.set(f.seq, { ...(bySeq.get(f.seq) ?? {}), [f.name]: f.commitment });
     }
-    if (stable(lot.state) !== stable(JSON.parse(JSON.stringify(r.state))))
-      return {
-        seq: r.head.seq,
-        reason: 'bad-state',
-        message: 'the stored state of the lot is not what its roll gives',
-      };
-    for (const p of first?.parents ?? []) {
-      const rows: Array<{ hash: string; kind: string; body: string | null }> = await this.dataSource.query(
-        `SELECT e."hash", e."kind", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+    for (const [seq, commitments] of bySeq) {
+      const root = sealedRoots.get(seq) ?? null;
+      const got = sealedRoot(commitments);
+      if (got !== root) differs('sealed_fields', 'commitment', seq, got, root);
+    }
+
+    await this.checkFeatureRows(lot, kept, sealed, differs);
+
+    const parents = (first as EntryHeader | null)?.parents ?? [];
+    for (const p of parents) {
+      const rows: Array<{ hash: string; header: string; body: string | null }> = await this.dataSource.query(
+        `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
          LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
         [p.lot, p.seq],
       );
       const row = rows[0];
       let named = false;
-      if (row?.body && (row.kind === 'split' || row.kind === 'combined')) {
+      const h = row ? decodeHeader(row.header) : null;
+      if (row?.body && h && !isHeaderProblem(h) && (h.kind === 'split' || h.kind === 'combined')) {
         const b = JSON.parse(row.body) as SplitBody | CombinedBody;
         named = 'children' in b ? b.children.some((c) => c.lot === lot.code) : b.child === lot.code;
       }
-      if (!row || row.hash !== p.hash || !named) {
+      if (!row || row.hash !== p.hash || entryHash(row.header) !== p.hash || !named) {
         return { seq: 0, reason: 'bad-parent', message: `parent entry ${p.lot} seq ${p.seq} does not match` };
       }
     }
-    return null;
+
+    if (diffs.length === 0) return null;
+    const seqs = diffs.map((d) => d.seq).filter((x): x is number => x !== null);
+    return {
+      seq: seqs.length > 0 ? Math.min(...seqs) : head.seq,
+      reason: STORED_COPY,
+      message: `a stored copy differs from the roll: ${diffs
+        .slice(0, 8)
+        .map(
+          (d) =>
+            `${d.table}.${d.column}${d.seq === null ? '' : ` at seq ${d.seq}`} is ${d.stored}, the roll says ${d.roll}`,
+        )
+        .join('; ')}${diffs.length > 8 ? `; and ${diffs.length - 8} more` : ''}`,
+      differences: diffs,
+    };
   }
+
+  /**
+   * The rows other features write in the append transaction, each a copy of one entry: the
+   * exhibit rows files are served by, the transfer offers and the sales lists.
+   */
+  private async checkFeatureRows(
+    lot: LotRow,
+    kept: Map<number, KeptEntry>,
+    sealed: Array<{ seq: number; name: string; value: string }>,
+    differs: (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) => void,
+  ): Promise<void> {
+    const same = (a: unknown, b: unknown) => jsonDifferences(a, b, 1).length === 0;
+    const sameTime = (stored: unknown, time: string) =>
+      stored instanceof Date && stored.getTime() === new Date(time).getTime();
+    const exhibits: Array<{
+      seq: number;
+      lot_code: string;
+      added_by: string;
+      sealed: boolean;
+      original_sha256: string;
+      ref: ExhibitRef;
+    }> = await this.dataSource.query(
+      `SELECT "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
+        WHERE "lot_id" = $1 ORDER BY "seq"`,
+      [lot.id],
+    );
+    for (const x of exhibits) {
+      const e = kept.get(x.seq);
+      if (e?.kind !== 'exhibit-added') {
+        differs('exhibits', '(row)', x.seq, 'an exhibit', e ? `a ${e.kind} entry` : 'no such entry');
+        continue;
+      }
+      if (x.lot_code !== lot.code) differs('exhibits', 'lot_code', x.seq, x.lot_code, lot.code);
+      if (x.added_by !== e.actor) differs('exhibits', 'added_by', x.seq, x.added_by, e.actor);
+      if (x.original_sha256 !== x.ref?.original?.sha256)
+        differs('exhibits', 'original_sha256', x.seq, x.original_sha256, x.ref?.original?.sha256);
+      const body = e.body as ExhibitAddedBody | null;
+      if (!body) {
+        differs('exhibits', '(row)', x.seq, 'an exhibit', 'a removed exhibit');
+        continue;
+      }
+      const isSealed = !('exhibit' in body);
+      if (x.sealed !== isSealed) differs('exhibits', 'sealed', x.seq, x.sealed, isSealed);
+      const committed =
+        'exhibit' in body
+          ? body.exhibit
+          : (() => {
+              const f = sealed.find((s) => s.seq === x.seq && s.name === 'sealed-exhibit');
+              return f ? (JSON.parse(f.value) as unknown) : undefined;
+            })();
+      if (committed !== undefined && !same(x.ref, committed))
+        differs('exhibits', 'ref', x.seq, x.ref, committed);
+    }
+
+    const offers: Array<{
+      code: string;
+      offer_seq: number;
+      offerer: string;
+      recipient: string | null;
+      status: string;
+      offered_at: Date;
+      answer_seq: number | null;
+      answered_at: Date | null;
+    }> = await this.dataSource.query(
+      `SELECT "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
+         FROM "transfer_offers" WHERE "lot_id" = $1 ORDER BY "offer_seq"`,
+      [lot.id],
+    );
+    const offerSeqs = [...kept].filter(([, e]) => e.kind === 'transfer-offered').map(([seq]) => seq);
+    for (const seq of offerSeqs)
+      if (!offers.some((o) => o.offer_seq === seq))
+        differs('transfer_offers', '(row)', seq, 'missing', 'an offer');
+    for (const o of offers) {
+      const e = kept.get(o.offer_seq);
+      if (e?.kind !== 'transfer-offered') {
+        differs(
+          'transfer_offers',
+          '(row)',
+          o.offer_seq,
+          'an offer',
+          e ? `a ${e.kind} entry` : 'no such entry',
+        );
+        continue;
+      }
+      if (o.code !== lot.code) differs('transfer_offers', 'code', o.offer_seq, o.code, lot.code);
+      if (o.offerer !== e.actor) differs('transfer_offers', 'offerer', o.offer_seq, o.offerer, e.actor);
+      const recipient = (e.body as TransferOfferedBody | null)?.recipient;
+      if (recipient !== undefined && o.recipient !== recipient)
+        differs('transfer_offers', 'recipient', o.offer_seq, o.recipient, recipient);
+      if (!sameTime(o.offered_at, e.time))
+        differs('transfer_offers', 'offered_at', o.offer_seq, o.offered_at, e.time);
+      const answer = [...kept].find(
+        ([, a]) =>
+          OFFER_ENDINGS[a.kind] !== undefined &&
+          (a.body as TransferAnswerBody | null)?.offerSeq === o.offer_seq,
+      );
+      // An answer whose body was removed no longer says which offer it answered.
+      const unknown = [...kept].some(([, a]) => OFFER_ENDINGS[a.kind] !== undefined && a.body === null);
+      if (!answer && unknown) continue;
+      const status = answer ? OFFER_ENDINGS[answer[1].kind]! : 'open';
+      if (o.status !== status) differs('transfer_offers', 'status', o.offer_seq, o.status, status);
+      if (o.answer_seq !== (answer?.[0] ?? null))
+        differs('transfer_offers', 'answer_seq', o.offer_seq, o.answer_seq, answer?.[0] ?? null);
+      if (answer ? !sameTime(o.answered_at, answer[1].time) : o.answered_at !== null)
+        differs('transfer_offers', 'answered_at', o.offer_seq, o.answered_at, answer?.[1].time ?? null);
+    }
+
+    const sales: Array<{ code: string; seq: number; seller: string; sold_on: string; recorded_at: Date }> =
+      await this.dataSource.query(
+        `SELECT "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
+          WHERE "lot_id" = $1 ORDER BY "seq"`,
+        [lot.id],
+      );
+    for (const x of sales) {
+      const e = kept.get(x.seq);
+      if (e?.kind !== 'sold') {
+        differs('sales', '(row)', x.seq, 'a sale', e ? `a ${e.kind} entry` : 'no such entry');
+        continue;
+      }
+      if (x.code !== lot.code) differs('sales', 'code', x.seq, x.code, lot.code);
+      if (x.seller !== e.actor) differs('sales', 'seller', x.seq, x.seller, e.actor);
+      const date = (e.body as SoldBody | null)?.date;
+      if (date !== undefined && x.sold_on !== date) differs('sales', 'sold_on', x.seq, x.sold_on, date);
+      if (!sameTime(x.recorded_at, e.time)) differs('sales', 'recorded_at', x.seq, x.recorded_at, e.time);
+    }
+  }
+}
+
+/** Shows a stored or derived value in a message, briefly. */
+function shown(value: unknown): string {
+  const text = value === undefined ? 'absent' : (JSON.stringify(value) ?? String(value));
+  return text.length > 80 ? `${text.slice(0, 77)}…` : text;
 }

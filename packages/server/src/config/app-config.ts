@@ -8,6 +8,8 @@ export interface AppConfig {
   readonly publicBaseUrl: string;
   readonly dataDir: string;
   readonly webDist: string;
+  /** The offline verifier page built by packages/verify, served at /verify. */
+  readonly verifyPage: string;
   readonly demoMode: boolean;
   readonly devMailbox: boolean;
   /** Name of this server process, shown by /api/health and on every response (`Beadroll-Instance`). */
@@ -171,6 +173,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
     publicBaseUrl,
     dataDir,
     webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
+    verifyPage: path(env, 'VERIFY_PAGE', 'packages/verify/dist/verify.html'),
     demoMode,
     devMailbox: bool(env, 'DEV_MAILBOX', demoMode),
     instanceName: str(env, 'INSTANCE_NAME', `${hostname()}:${port}`, 100),

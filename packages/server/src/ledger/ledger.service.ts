@@ -1,7 +1,11 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import {
+  bodyDigest,
   buildEntry,
   canonicalise,
+  decodeHeader,
+  entryHash,
+  isHeaderProblem,
   checkTransition,
   generateLotCode,
   isCanonicalLotCode,
@@ -20,7 +24,10 @@ import { AppError } from '../common/app-error';
 import { LedgerClock } from './ledger.clock';
 import { LEDGER_RANDOM, type LedgerRandom } from './ledger.tokens';
 import type { AppendDraft, AppendedEntry, RegisterDraft, RollProjector } from './ledger.types';
+import { replayStoredRoll, jsonDifferences } from './roll-replay';
 import { issuesToFields } from './roll-rule.error';
+
+const log = new Logger('ledger');
 
 interface LockedLot {
   id: string;
@@ -63,20 +70,53 @@ export class RollTransaction {
     private time: string,
   ) {}
 
-  /** Locks an existing lot (`SELECT … FOR UPDATE`); callers lock several in {@link LedgerService.withLots} order. */
+  /**
+   * Locks an existing lot (`SELECT … FOR UPDATE`); callers lock several in {@link LedgerService.withLots}
+   * order. The state every rule of this transaction checks against is derived here, under the
+   * lock, by replaying the stored roll through core's verifier: the cached state and head in
+   * `lots` are never trusted for a decision. A roll that does not verify takes no entry; a
+   * cached copy the roll contradicts is logged, and the append rewrites it from the roll.
+   */
   async lock(code: string): Promise<LockedLot> {
     const have = this.locked.get(code);
     if (have) return have;
-    const rows: Array<{ id: string; code: string; state: RollState; head_hash: string }> =
-      await this.manager.query(
-        'SELECT "id", "code", "state", "head_hash" FROM "lots" WHERE "code" = $1 FOR UPDATE',
-        [code],
-      );
+    const rows: Array<{
+      id: string;
+      code: string;
+      state: RollState;
+      head_seq: number;
+      head_hash: string;
+      head_time: string;
+    }> = await this.manager.query(
+      'SELECT "id", "code", "state", "head_seq", "head_hash", "head_time" FROM "lots" WHERE "code" = $1 FOR UPDATE',
+      [code],
+    );
     const row = rows[0];
     if (!row) throw new AppError('not_found', 'Not found.');
-    if (row.state.head.hash !== row.head_hash)
-      throw new AppError('internal', `the stored state of lot ${code} does not match its head`);
-    const lot = { id: row.id, code: row.code, state: row.state };
+    const { result } = await replayStoredRoll(this.manager, row);
+    if (!result.ok) {
+      log.error(
+        `lot ${code}: the stored roll does not verify at seq ${result.seq} (${result.reason}: ${result.message}); nothing is appended to it`,
+      );
+      throw new AppError(
+        'internal',
+        `The stored history of lot ${code} does not check out, so nothing can be added to it until the registrar has looked into it.`,
+      );
+    }
+    const derived = JSON.parse(JSON.stringify(result.state)) as RollState;
+    const cached = {
+      state: row.state,
+      head: { seq: row.head_seq, hash: row.head_hash, time: row.head_time },
+    };
+    const stale = jsonDifferences(cached, {
+      state: derived,
+      head: { seq: derived.head.seq, hash: derived.head.hash, time: derived.head.time },
+    });
+    if (stale.length > 0)
+      log.error(
+        `lot ${code}: cached copies differ from the roll (${stale.map((d) => d.path).join(', ')}); the roll decides`,
+      );
+    const lot = { id: row.id, code: row.code, state: derived };
     this.locked.set(code, lot);
     return lot;
   }
@@ -186,16 +226,28 @@ export class RollTransaction {
     return entry;
   }
 
+  /**
+   * A parent named by a new child must be a `split`/`combined` entry naming the child. Read from
+   * the entry's canonical header and body (their hash and digest checked), never from the
+   * `kind` column beside them.
+   */
   private async checkParent(p: { lot: string; seq: number; hash: string }, child: string): Promise<void> {
-    const rows: Array<{ hash: string; kind: string; body: string | null }> = await this.manager.query(
-      `SELECT e."hash", e."kind", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+    const rows: Array<{ hash: string; header: string; body: string | null }> = await this.manager.query(
+      `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
        LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
       [p.lot, p.seq],
     );
     const row = rows[0];
     const bad = (why: string) => new AppError('roll_rule', `parent ${p.lot} seq ${p.seq} ${why}`);
-    if (!row || row.hash !== p.hash) throw bad('is not on the ledger with that hash');
-    if ((row.kind !== 'split' && row.kind !== 'combined') || !row.body)
+    if (!row || row.hash !== p.hash || entryHash(row.header) !== p.hash)
+      throw bad('is not on the ledger with that hash');
+    const header = decodeHeader(row.header);
+    if (
+      isHeaderProblem(header) ||
+      (header.kind !== 'split' && header.kind !== 'combined') ||
+      !row.body ||
+      bodyDigest(row.body) !== header.body
+    )
       throw bad('is not a split or combined entry');
     const body = JSON.parse(row.body) as SplitBody | CombinedBody;
     const names = 'children' in body ? body.children.map((c) => c.lot) : [body.child];

@@ -1,5 +1,5 @@
 import { Injectable, type OnModuleInit } from '@nestjs/common';
-import type { ObservedBody, Observations, RedactedBody } from '@beadroll/core';
+import type { ObservedBody, Observations, RedactedBody, RollState } from '@beadroll/core';
 import type { EntityManager } from 'typeorm';
 import { LedgerService } from '../ledger/ledger.service';
 import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
@@ -15,7 +15,6 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
 
   async project(m: EntityManager, lotId: string, entry: AppendedEntry): Promise<void> {
     const s = entry.state;
-    const d = s.description;
     let observations: Observations | null;
     if (entry.kind === 'observed') {
       observations = (JSON.parse(entry.body) as ObservedBody).observations;
@@ -34,10 +33,7 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
       );
       observations = rows[0]?.observations ?? null;
     }
-    const searchText = d
-      ? [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' ')
-      : '';
-    const origin = s.attribution?.body?.origin ?? null;
+    const v = lotViewValues(s, observations);
     await m.query(
       `INSERT INTO "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
          "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
@@ -49,22 +45,66 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
          "updated_at" = $16`,
       [
         lotId,
-        s.lot,
-        d?.title ?? '',
-        d?.form ?? null,
-        s.status,
-        s.holder,
-        s.listed,
-        origin,
-        s.remaining.value,
-        s.remaining.estimated,
-        s.dissents.length,
-        s.openOffer?.recipient ?? null,
-        observations ? JSON.stringify(observations) : null,
-        s.head.seq,
-        searchText,
+        v.code,
+        v.title,
+        v.form,
+        v.status,
+        v.holder,
+        v.listed,
+        v.origin,
+        v.count_value,
+        v.count_estimated,
+        v.dissent_count,
+        v.offer_recipient,
+        v.observations ? JSON.stringify(v.observations) : null,
+        v.head_seq,
+        v.search_text,
         entry.time,
       ],
     );
   }
+}
+
+/** The columns of `lot_views` derived from a lot's state (all but the two timestamps), by column name. */
+export interface LotViewValues {
+  code: string;
+  title: string;
+  form: string | null;
+  status: string;
+  holder: string;
+  listed: boolean;
+  origin: string | null;
+  count_value: number;
+  count_estimated: boolean;
+  dissent_count: number;
+  offer_recipient: string | null;
+  observations: Observations | null;
+  head_seq: number;
+  search_text: string;
+}
+
+/**
+ * What `lot_views` holds for a lot with state `s` whose newest observations (with a body) are
+ * `observations`. The one definition, shared by the projector and the audit that checks it.
+ */
+export function lotViewValues(s: RollState, observations: Observations | null): LotViewValues {
+  const d = s.description;
+  return {
+    code: s.lot,
+    title: d?.title ?? '',
+    form: d?.form ?? null,
+    status: s.status,
+    holder: s.holder,
+    listed: s.listed,
+    origin: s.attribution?.body?.origin ?? null,
+    count_value: s.remaining.value,
+    count_estimated: s.remaining.estimated,
+    dissent_count: s.dissents.length,
+    offer_recipient: s.openOffer?.recipient ?? null,
+    observations,
+    head_seq: s.head.seq,
+    search_text: d
+      ? [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' ')
+      : '',
+  };
 }

@@ -99,7 +99,7 @@ export class LotsController {
   }
 
   @Get(':code/bundle')
-  @ApiOperation({ summary: 'Export bundle (verify offline with npm run verify)' })
+  @ApiOperation({ summary: 'Export bundle (check it offline at /verify or with beadroll-verify)' })
   @ApiProduces('application/json')
   @Header('Cache-Control', 'no-store')
   async bundle(

@@ -5,7 +5,8 @@ import { LedgerService } from '../ledger/ledger.service';
 import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
 import type { OfferStatus } from './entities/transfer-offer.entity';
 
-const ENDINGS: Partial<Record<string, OfferStatus>> = {
+/** The status an offer's row takes after each answering kind (the audit checks rows against it). */
+export const OFFER_ENDINGS: Partial<Record<string, OfferStatus>> = {
   'transfer-accepted': 'accepted',
   'transfer-declined': 'declined',
   'transfer-withdrawn': 'withdrawn',
@@ -32,7 +33,7 @@ export class TransferProjector implements RollProjector, OnModuleInit {
       );
       return;
     }
-    const ending = ENDINGS[entry.kind];
+    const ending = OFFER_ENDINGS[entry.kind];
     if (ending) {
       const b = JSON.parse(entry.body) as TransferAnswerBody & { note?: string };
       await m.query(

@@ -355,9 +355,8 @@ export class TransfersService implements OnModuleInit {
   ): Promise<InvitationResponse> {
     await this.lots.readableCode(me, code);
     const lot = (await this.reader.findLot(code))!;
-    const [{ state }] = (await this.dataSource.query('SELECT "state" FROM "lots" WHERE "id" = $1', [
-      lot.id,
-    ])) as Array<{ state: RollState }>;
+    // Who holds the lot is read from its roll (replayed under the lot's lock), never the cached copy.
+    const state = await this.ledger.withLots([code], async (tx) => tx.state(code));
     if (state.holder !== me.id)
       throw new AppError('forbidden', 'Only the dealer who holds this lot can offer it.');
     const blocked = notAvailable(state, 'offered');

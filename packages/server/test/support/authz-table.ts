@@ -99,6 +99,9 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/lots/:code/exhibits': 'signed-in',
   'GET /api/lots/:code/exhibits/:seq/:variant': 'signed-in',
   'GET /api/public/lots/:code/exhibits/:seq/:variant': 'public',
+  // the offline verifier page
+  'GET /verify': 'public',
+  'GET /verify/download': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

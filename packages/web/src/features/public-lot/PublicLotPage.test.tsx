@@ -114,14 +114,19 @@ describe('public lot page: a lot that changed hands', () => {
     expect(screen.getByText('7–9.5 mm')).toBeInTheDocument();
   });
 
-  it('links to the bundle and gives the command to verify it offline', async () => {
+  it('links to the bundle and to the offline checking page, with no command to type', async () => {
     serve(lot);
     open(`/l/${lot.code}`);
     const link = await screen.findByRole('link', {
       name: `Download the history of lot ${core.formatLotCode(lot.code)}`,
     });
     expect(link).toHaveAttribute('href', `/api/public/lots/${lot.code}/bundle`);
-    expect(screen.getByText(`npm run verify -- ${lot.code}.beadroll.json`)).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Beadroll’s checking page' })).toHaveAttribute('href', '/verify');
+    expect(screen.getByRole('link', { name: 'Keep a copy of the checking page' })).toHaveAttribute(
+      'href',
+      '/verify/download',
+    );
+    expect(document.body.textContent).not.toMatch(/\bnpm\b|\bnpx\b/);
   });
 
   it('says a tag whose entry is not in the roll no longer matches', async () => {

@@ -1,6 +1,10 @@
 import { formatLotCode, tagReference, type RollHead } from '@beadroll/core';
 import { publicBundlePath } from './public-lot.api';
 
+/** The offline checking page the server serves (one self-contained HTML file). */
+export const VERIFY_PAGE_PATH = '/verify';
+export const VERIFY_PAGE_DOWNLOAD_PATH = '/verify/download';
+
 /** How to check the same history without this page. */
 export function VerifyYourself({ code, head }: { code: string; head: RollHead | null }) {
   const file = `${code}.beadroll.json`;
@@ -8,15 +12,23 @@ export function VerifyYourself({ code, head }: { code: string; head: RollHead | 
   return (
     <section className="pl-section pl-verify" aria-labelledby="pl-verify-h">
       <h2 id="pl-verify-h">Verify it yourself</h2>
-      <p>
-        <a href={publicBundlePath(code)} download={file}>
-          Download the history of lot {formatLotCode(code)}
-        </a>{' '}
-        ({file}), then check it offline with Beadroll’s verifier:
-      </p>
-      <pre className="pl-cmd">
-        <code>npm run verify -- {file}</code>
-      </pre>
+      <ol className="pl-steps">
+        <li>
+          <a href={publicBundlePath(code)} download={file}>
+            Download the history of lot {formatLotCode(code)}
+          </a>{' '}
+          ({file}).
+        </li>
+        <li>
+          Open <a href={VERIFY_PAGE_PATH}>Beadroll’s checking page</a> and choose the file there (or drop it
+          on the page). It checks the file on your own device, even with no connection, and shows each roll as
+          intact or broken.{' '}
+          <a href={VERIFY_PAGE_DOWNLOAD_PATH} download="beadroll-verify.html">
+            Keep a copy of the checking page
+          </a>{' '}
+          to check files later without this site.
+        </li>
+      </ol>
       <p className="pl-hint">
         The ledger format is published, so you can also check the file with code of your own.
         {head && ref && (

@@ -81,8 +81,10 @@ function Audit() {
       </Title2>
       <Text className={styles.sub}>
         Verifies every roll in the database from its first entry: hashes, links between entries, the rules of
-        each entry, parent links of split and combined lots, and that each lot’s stored head is its last
-        entry.
+        each entry, parent links of split and combined lots. Then it compares every copy the database keeps
+        beside a roll with what the roll says: each entry’s time, author and number, the lot’s stored head and
+        state, its row in the lot lists, and sealed values. A lot whose copies differ is listed with the
+        reason “stored-copy” and each value that differs.
       </Text>
       <div>
         {running ? (

@@ -1,0 +1,106 @@
+import {
+  createRollVerifier,
+  type RollVerification,
+  type StoredEntry,
+  type VerifiedEntry,
+} from '@beadroll/core';
+import type { EntityManager } from 'typeorm';
+
+/** One stored entry row with every column the ledger keeps beside the canonical strings. */
+export interface StoredEntryRow extends StoredEntry {
+  id: string;
+  seq: number;
+  kind: string;
+  actor: string;
+  time: string;
+  redactsSeq: number | null;
+}
+
+/** How many entries are read from the database at once while a roll is replayed. */
+export const REPLAY_PAGE = 500;
+
+/**
+ * Replays a stored roll through core's incremental verifier, a page of entries at a time (memory
+ * stays flat however long the roll is), and returns core's verdict: the derived state and head,
+ * or the first failure. `visit` sees each row once core has accepted it, with its decoded entry.
+ * Run it inside the transaction that holds the lot's row lock when the result decides a write.
+ */
+export async function replayStoredRoll(
+  manager: EntityManager,
+  lot: { id: string; code: string },
+  visit?: (row: StoredEntryRow, entry: VerifiedEntry) => void,
+): Promise<{ result: RollVerification; entries: number }> {
+  const v = createRollVerifier(lot.code);
+  let from = 0;
+  let entries = 0;
+  for (;;) {
+    const rows: Array<{
+      id: string;
+      seq: number;
+      kind: string;
+      actor: string;
+      time: string;
+      hash: string;
+      header: string;
+      body: string | null;
+      redacts_seq: number | null;
+    }> = await manager.query(
+      `SELECT e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body", e."redacts_seq"
+         FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+        WHERE e."lot_id" = $1 AND e."seq" >= $2 ORDER BY e."seq" LIMIT $3`,
+      [lot.id, from, REPLAY_PAGE],
+    );
+    entries += rows.length;
+    for (const r of rows) {
+      const row: StoredEntryRow = {
+        id: r.id,
+        seq: r.seq,
+        kind: r.kind,
+        actor: r.actor,
+        time: r.time,
+        hash: r.hash,
+        header: r.header,
+        body: r.body,
+        redactsSeq: r.redacts_seq,
+      };
+      const failure = v.push(row);
+      if (failure) return { result: failure, entries };
+      visit?.(row, v.last!);
+    }
+    if (rows.length < REPLAY_PAGE) break;
+    from = rows[rows.length - 1]!.seq + 1;
+  }
+  return { result: v.finish(), entries };
+}
+
+/** One place where a stored JSON value differs from the expected one. */
+export interface JsonDifference {
+  path: string;
+  stored: unknown;
+  expected: unknown;
+}
+
+/**
+ * Where two JSON values differ, by path (`holder`, `openOffer.recipient`, `opinions[2]`), at
+ * most `limit` places. Key order does not count (PostgreSQL's jsonb keeps its own).
+ */
+export function jsonDifferences(stored: unknown, expected: unknown, limit = 10): JsonDifference[] {
+  const out: JsonDifference[] = [];
+  const walk = (a: unknown, b: unknown, at: string): void => {
+    if (out.length >= limit || a === b) return;
+    if (Array.isArray(a) && Array.isArray(b) && a.length === b.length) {
+      a.forEach((x, i) => walk(x, b[i], `${at}[${i}]`));
+      return;
+    }
+    if (a && b && typeof a === 'object' && typeof b === 'object' && !Array.isArray(a) && !Array.isArray(b)) {
+      const ao = a as Record<string, unknown>;
+      const bo = b as Record<string, unknown>;
+      const keys = [...new Set([...Object.keys(ao), ...Object.keys(bo)])].sort();
+      for (const k of keys) walk(ao[k], bo[k], at ? `${at}.${k}` : k);
+      return;
+    }
+    out.push({ path: at || '(whole value)', stored: a, expected: b });
+  };
+  walk(stored, expected, '');
+  return out;
+}
