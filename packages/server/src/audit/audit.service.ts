@@ -157,6 +157,8 @@ export class AuditService {
     let first: EntryHeader | null = null;
     let observations: Observations | null = null;
     const sealedRoots = new Map<number, string>();
+    const sealedActors = new Map<number, string>();
+    const offerRecipients = new Map<number, string>();
     const kept = new Map<number, KeptEntry>();
     const { result, entries } = await replayStoredRoll(this.dataSource.manager, lot, (row, e) => {
       const h = e.header;
@@ -170,6 +172,11 @@ export class AuditService {
       if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
       if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
       if (h.sealed) sealedRoots.set(h.seq, h.sealed);
+      if (h.sealed) sealedActors.set(h.seq, h.actor);
+      if (h.kind === 'transfer-offered') {
+        const r = h.facts?.recipient ?? (e.body as TransferOfferedBody | null)?.recipient;
+        if (r) offerRecipients.set(h.seq, r);
+      }
       if (KEPT_KINDS.has(h.kind))
         kept.set(h.seq, { kind: h.kind, actor: h.actor, time: h.time, body: e.body });
     });
@@ -217,12 +224,18 @@ export class AuditService {
 
     // Sealed values: each commitment recomputed from its salt and value, the commitments of an
     // entry hashed to the root in its header. (A closed account's own values may be gone.)
-    const sealed: Array<{ seq: number; name: string; salt: string; value: string; commitment: string }> =
-      await this.dataSource.query(
-        `SELECT e."seq", s."name", s."salt", s."value", s."commitment" FROM "sealed_fields" s
+    const sealed: Array<{
+      seq: number;
+      name: string;
+      salt: string;
+      value: string;
+      commitment: string;
+      visible_to: string[];
+    }> = await this.dataSource.query(
+      `SELECT e."seq", s."name", s."salt", s."value", s."commitment", s."visible_to" FROM "sealed_fields" s
            JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = $1 ORDER BY e."seq", s."name"`,
-        [lot.id],
-      );
+      [lot.id],
+    );
     const bySeq = new Map<number, Record<string, string>>();
     for (const f of sealed) {
       let value: unknown;
@@ -235,12 +248,36 @@ export class AuditService {
       if (commitment !== f.commitment)
         differs('sealed_fields', `${f.name} (value or salt)`, f.seq, f.commitment, commitment);
       bySeq.set(f.seq, { ...(bySeq.get(f.seq) ?? {}), [f.name]: f.commitment });
+      // Readable by the dealer who recorded it, and a transfer price by that offer's recipient too.
+      const actor = sealedActors.get(f.seq);
+      const recipient = f.name === 'transfer-price' ? offerRecipients.get(f.seq) : undefined;
+      const readers = [actor, ...(recipient ? [recipient] : [])].filter((x): x is string => !!x).sort();
+      if (JSON.stringify([...f.visible_to].sort()) !== JSON.stringify(readers))
+        differs('sealed_fields', `${f.name} (readers)`, f.seq, f.visible_to.join(', '), readers.join(', '));
     }
-    for (const [seq, commitments] of bySeq) {
-      const root = sealedRoots.get(seq) ?? null;
+    // The values of a closed account's own entries are deleted on purpose; every other entry
+    // whose header commits sealed fields keeps them.
+    const closed = new Set(
+      (
+        (await this.dataSource.query(
+          `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
+          [[...new Set(sealedActors.values())]],
+        )) as Array<{ id: string }>
+      ).map((r) => r.id),
+    );
+    for (const [seq, root] of sealedRoots) {
+      const commitments = bySeq.get(seq);
+      if (!commitments) {
+        if (!closed.has(sealedActors.get(seq)!))
+          differs('sealed_fields', '(missing)', seq, 'none', 'its fields');
+        continue;
+      }
       const got = sealedRoot(commitments);
-      if (got !== root) differs('sealed_fields', 'commitment', seq, got, root);
+      if (got !== root && !closed.has(sealedActors.get(seq)!))
+        differs('sealed_fields', 'commitment', seq, got, root);
     }
+    for (const seq of bySeq.keys())
+      if (!sealedRoots.has(seq)) differs('sealed_fields', 'commitment', seq, 'fields', 'no sealed root');
 
     await this.checkFeatureRows(lot, kept, sealed, differs);
 
