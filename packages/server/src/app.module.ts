@@ -20,6 +20,7 @@ import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
+import { LogModule } from './log/log.module';
 
 @Module({
   imports: [
@@ -42,6 +43,7 @@ import { TagsModule } from './tags/tags.module';
     TransfersModule,
     RegistryToolsModule,
     TagsModule,
+    LogModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -5,9 +5,11 @@ import { LedgerClock } from './ledger.clock';
 import { LedgerService } from './ledger.service';
 import { LEDGER_RANDOM } from './ledger.tokens';
 import { RollReaderService } from './roll-reader.service';
+import { LogModule } from '../log/log.module';
 
 /** The ledger: the one append path, roll reading and bundles. */
 @Module({
+  imports: [LogModule],
   providers: [
     LedgerService,
     RollReaderService,
@@ -15,6 +17,6 @@ import { RollReaderService } from './roll-reader.service';
     LedgerClock,
     { provide: LEDGER_RANDOM, useValue: secureRandom },
   ],
-  exports: [LedgerService, RollReaderService, BundleService, LedgerClock],
+  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogModule],
 })
 export class LedgerModule {}

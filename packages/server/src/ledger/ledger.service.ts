@@ -21,6 +21,7 @@ import { LedgerClock } from './ledger.clock';
 import { LEDGER_RANDOM, type LedgerRandom } from './ledger.tokens';
 import type { AppendDraft, AppendedEntry, RegisterDraft, RollProjector } from './ledger.types';
 import { issuesToFields } from './roll-rule.error';
+import { sequenceEntries } from './log-sequencer';
 
 interface LockedLot {
   id: string;
@@ -50,6 +51,8 @@ function transitionError(code: 'bad-actor' | 'bad-transition', message: string):
  */
 export class RollTransaction {
   private readonly locked = new Map<string, LockedLot>();
+  /** Ids of the entries this transaction inserted, in the order written. */
+  readonly written: string[] = [];
 
   constructor(
     readonly manager: EntityManager,
@@ -216,6 +219,7 @@ export class RollTransaction {
       [lotId, h.seq, h.kind, h.actor, h.time, built.stored.hash, built.stored.header, redacts],
     );
     const entryId = rows[0]!.id;
+    this.written.push(entryId);
     await this.manager.query('INSERT INTO "entry_bodies" ("entry_id", "body") VALUES ($1, $2)', [
       entryId,
       built.stored.body,
@@ -251,7 +255,8 @@ export class RollTransaction {
  * are locked in a fixed order (their codes, sorted), core's rules decide, core builds each
  * entry, and the entries, bodies, sealed fields, heads and derived views are written together
  * or not at all. Appends to one lot serialise on its row lock; different lots do not block each
- * other.
+ * other until their last statement, when the log sequencer gives their entries the next log
+ * indices (see {@link sequenceEntries}).
  */
 @Injectable()
 export class LedgerService {
@@ -277,7 +282,9 @@ export class LedgerService {
     return this.dataSource.transaction('READ COMMITTED', async (manager) => {
       const tx = new RollTransaction(manager, this.random, this.projectors, this.clock.now().toISOString());
       for (const code of [...new Set(codes)].sort()) await tx.lock(code);
-      return fn(tx);
+      const result = await fn(tx);
+      await sequenceEntries(manager, tx.written);
+      return result;
     });
   }
 

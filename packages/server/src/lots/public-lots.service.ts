@@ -1,10 +1,11 @@
 import { Injectable } from '@nestjs/common';
-import { SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
+import { SYSTEM_ACTOR, type Bundle, type BundleCheckpoint, type EntryHeader } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
 import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
 
@@ -26,7 +27,15 @@ export function toPublicBundle(b: Bundle): PublicBundle {
       scope: r.scope,
       entries: r.entries.map((e) => ({ hash: e.hash, header: e.header, body: e.body, logIndex: e.logIndex })),
     })),
-    checkpoints: [],
+    checkpoints: (b.checkpoints as BundleCheckpoint[]).map((c) => ({
+      note: c.note,
+      inclusions: c.inclusions.map((i) => ({
+        lot: i.lot,
+        seq: i.seq,
+        logIndex: i.logIndex,
+        proof: [...i.proof],
+      })),
+    })),
   };
 }
 
@@ -53,6 +62,7 @@ export class PublicLotsService {
     private readonly dataSource: DataSource,
     private readonly bundles: BundleService,
     private readonly cards: DealerCardsService,
+    private readonly log: LogService,
   ) {}
 
   /**
@@ -66,7 +76,14 @@ export class PublicLotsService {
     const rows: PublicLotRow[] = await this.dataSource.query(PUBLIC_LOT_SQL, [code]);
     const row = rows[0];
     if (!row) throw notFound();
-    if (!row.has_parents) return publicLotText(code, row);
+    if (!row.has_parents) {
+      const head = {
+        seq: row.head_seq,
+        logIndex: row.head_log_index === null ? null : Number(row.head_log_index),
+      };
+      const checkpoint = await this.log.rollCheckpoint(code, head);
+      return publicLotText(code, row, checkpoint ? JSON.stringify([checkpoint]) : '[]');
+    }
     return JSON.stringify(await this.lot(code));
   }
 
