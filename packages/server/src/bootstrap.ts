@@ -1,4 +1,4 @@
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
@@ -10,6 +10,7 @@ import type { AppConfig } from './config/app-config';
 import { APP_CONFIG } from './config/config.module';
 import { createValidationPipe } from './common/validation';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
+import { CheckpointsService } from './log/checkpoints.service';
 
 /** Paths served outside the /api prefix (development pages). */
 const UNPREFIXED = [{ path: 'dev/{*rest}', method: RequestMethod.ALL }];
@@ -56,7 +57,7 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     jsonDocumentUrl: 'api/docs-json',
   });
 
-  serveWeb(app, config.webDist);
+  serveWeb(app, config.webDist, app.get(CheckpointsService, { strict: false }).verifierKey());
   return config;
 }
 
@@ -65,8 +66,17 @@ function isServerPath(path: string): boolean {
   return path.startsWith('/api/') || path === '/api' || path.startsWith('/dev/');
 }
 
-/** Serves the built web app; unknown non-API paths fall back to the right HTML entry. */
-function serveWeb(app: NestExpressApplication, webDist: string): void {
+/** The public page with the log's verifier key written into its `beadroll-log-key` meta element. */
+function withLogKey(html: string, logKey: string): string {
+  const safe = logKey.replace(/[^A-Za-z0-9./:+=_-]/g, '');
+  return html.replace(/(<meta name="beadroll-log-key" content=")[^"]*(")/, `$1${safe}$2`);
+}
+
+/**
+ * Serves the built web app; unknown non-API paths fall back to the right HTML entry. The public
+ * lot page carries the log's verifier key built in, so it can check checkpoints without asking.
+ */
+function serveWeb(app: NestExpressApplication, webDist: string, logKey: string): void {
   const appHtml = join(webDist, 'index.html');
   const publicHtml = join(webDist, 'public.html');
   if (!existsSync(appHtml)) return;
@@ -84,6 +94,7 @@ function serveWeb(app: NestExpressApplication, webDist: string): void {
     if (isServerPath(req.path)) return next();
     const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
     res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(isPublic ? publicHtml : appHtml);
+    if (!isPublic) return res.sendFile(appHtml);
+    res.type('html').send(withLogKey(readFileSync(publicHtml, 'utf8'), logKey));
   });
 }

@@ -25,6 +25,13 @@ export class LogController {
     return `${this.checkpoints.verifierKey()}\n`;
   }
 
+  @Get('witnesses')
+  @Header('Content-Type', 'text/plain; charset=utf-8')
+  @ApiOperation({ summary: 'Verifier keys of the registered witnesses, one a line' })
+  async witnessKeys(): Promise<string> {
+    return (await this.witnesses.list()).map((w) => `${w.key}\n`).join('');
+  }
+
   @Get('checkpoint')
   @Header('Content-Type', 'text/plain; charset=utf-8')
   @Header('Cache-Control', 'no-cache')

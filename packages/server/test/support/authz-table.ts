@@ -82,6 +82,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/registry/witnesses': { roles: ['registrar'] },
   'GET /api/log/key': 'public',
   'GET /api/log/checkpoint': 'public',
+  'GET /api/log/witnesses': 'public',
   'GET /api/log/proof/inclusion': 'public',
   'GET /api/log/proof/consistency': 'public',
   'GET /api/log/leaves': 'public',
