@@ -1,6 +1,5 @@
 import {
   checkConsistency,
-  openCheckpoint,
   parseVerifierKey,
   verifyBundleCheckpoint,
   base64Decode,
@@ -78,7 +77,7 @@ export async function checkLog(code: string, bundle: Bundle, deps: LogCheckDeps)
   } catch {
     return fail('The registry’s log key is not a valid key.');
   }
-  let witnessKeys: VerifierKey[] = [];
+  let witnessKeys: VerifierKey[];
   try {
     witnessKeys = (await deps.fetchWitnessKeys())
       .split('\n')
