@@ -56,7 +56,7 @@ export interface SignRun {
 @Injectable()
 export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap, OnModuleDestroy {
   private readonly logger = new Logger('log');
-  private signer!: NoteSigner;
+  private signerValue?: NoteSigner;
   private running?: Promise<SignRun>;
   private latestCache?: { at: number; value: LatestCheckpoint | null };
 
@@ -67,8 +67,13 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     private readonly scheduler: SchedulerRegistry,
   ) {}
 
+  /** The log's signer, its key read (or made) on first use, which may come before module init. */
+  private get signer(): NoteSigner {
+    this.signerValue ??= noteSigner(logOrigin(this.config.publicBaseUrl), loadLogSeed(this.config.log.keyFile));
+    return this.signerValue;
+  }
+
   onModuleInit(): void {
-    this.signer = noteSigner(logOrigin(this.config.publicBaseUrl), loadLogSeed(this.config.log.keyFile));
     const timer = setInterval(() => {
       this.signIfDue().catch((err: unknown) =>
         this.logger.error(`checkpoint pass failed: ${(err as Error).message}`),
