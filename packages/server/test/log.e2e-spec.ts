@@ -19,6 +19,7 @@ import { DataSource } from 'typeorm';
 import { runWitness, witnessVerifierKey, loadWitnessSigner } from '@beadroll/witness';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { CheckpointsService } from '../src/log/checkpoints.service';
+import { LogSequencer } from '../src/ledger/log-sequencer';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { createTestApp, superuserClient, type TestApp } from './support/test-app';
@@ -29,6 +30,7 @@ describe('the ledger-wide log', () => {
   let t: TestApp;
   let ledger: LedgerService;
   let checkpoints: CheckpointsService;
+  let sequencer: LogSequencer;
   let actor: string;
   let base: string;
   const lots: string[] = [];
@@ -37,6 +39,7 @@ describe('the ledger-wide log', () => {
     t = await createTestApp({ CHECKPOINT_SECONDS: '3600' });
     ledger = t.app.get(LedgerService);
     checkpoints = t.app.get(CheckpointsService);
+    sequencer = t.app.get(LogSequencer);
     const d = await createAccount(t, { role: 'dealer' });
     actor = d.id;
     await t.app.listen(0, '127.0.0.1');
@@ -47,6 +50,11 @@ describe('the ledger-wide log', () => {
   });
 
   const http = () => request(t.app.getHttpServer());
+  /** Numbers every committed entry, then signs a checkpoint now. */
+  const sign = async () => {
+    await sequencer.settle();
+    return checkpoints.signIfDue(true);
+  };
 
   async function logKey() {
     const res = await http().get('/api/log/key').expect(200);
@@ -67,6 +75,7 @@ describe('the ledger-wide log', () => {
         ledger.append(lots[i % 3]!, { kind: 'note', actor, body: { text: `note ${i}` } }),
       ),
     );
+    await sequencer.settle();
     const rows: Array<{ log_index: string; lot_id: string; seq: number }> = await t.app
       .get(DataSource)
       .query('SELECT "log_index", "lot_id", "seq" FROM "entries" ORDER BY "log_index"');
@@ -80,7 +89,7 @@ describe('the ledger-wide log', () => {
   });
 
   it('signs a C2SP checkpoint of the whole log with the key it serves; proofs and leaves agree with it', async () => {
-    expect((await checkpoints.signIfDue(true)).signed).toBe(true);
+    expect((await sign()).signed).toBe(true);
     const { cp } = await checkpoint();
     expect(cp.origin).toBe('beadroll.test/log');
     expect(cp.size).toBe(27);
@@ -102,7 +111,7 @@ describe('the ledger-wide log', () => {
     await ledger.append(lots[0]!, { kind: 'note', actor, body: { text: 'one more' } });
     // Not due yet: at most one checkpoint per CHECKPOINT_SECONDS.
     expect((await checkpoints.signIfDue()).signed).toBe(false);
-    expect((await checkpoints.signIfDue(true)).signed).toBe(true);
+    expect((await sign()).signed).toBe(true);
     const after = (await checkpoint()).cp;
     expect(after.size).toBe(before.size + 1);
     const c = await http().get(`/api/log/proof/consistency?from=${before.size}&to=${after.size}`).expect(200);
@@ -181,7 +190,7 @@ describe('the ledger-wide log', () => {
       .set(...CSRF)
       .send({ key: wkey })
       .expect(201);
-    await checkpoints.signIfDue(true);
+    await sign();
     const out = await runWitness(opts);
     expect(out).toMatchObject({ status: 'cosigned' });
     checkpoints.invalidate();
@@ -229,7 +238,7 @@ describe('the ledger-wide log', () => {
       await su.end();
     }
     await ledger.append(lots[2]!, { kind: 'note', actor, body: { text: 'after the rewrite' } });
-    const refused = await checkpoints.signIfDue(true);
+    const refused = await sign();
     expect(refused).toMatchObject({ signed: false, refused: expect.stringContaining('not consistent') });
 
     // An operator who also deletes the signed checkpoints gets a new one signed…
@@ -239,7 +248,7 @@ describe('the ledger-wide log', () => {
     } finally {
       await su2.end();
     }
-    expect((await checkpoints.signIfDue(true)).signed).toBe(true);
+    expect((await sign()).signed).toBe(true);
     checkpoints.invalidate();
     // …and the witness refuses it, keeping both signed checkpoints.
     const out = await runWitness(opts);

@@ -6,6 +6,7 @@ import { LedgerService } from './ledger.service';
 import { LEDGER_RANDOM } from './ledger.tokens';
 import { RollReaderService } from './roll-reader.service';
 import { LogModule } from '../log/log.module';
+import { LogSequencer } from './log-sequencer';
 
 /** The ledger: the one append path, roll reading and bundles. */
 @Module({
@@ -15,8 +16,9 @@ import { LogModule } from '../log/log.module';
     RollReaderService,
     BundleService,
     LedgerClock,
+    LogSequencer,
     { provide: LEDGER_RANDOM, useValue: secureRandom },
   ],
-  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogModule],
+  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogSequencer, LogModule],
 })
 export class LedgerModule {}

@@ -21,7 +21,7 @@ import { LedgerClock } from './ledger.clock';
 import { LEDGER_RANDOM, type LedgerRandom } from './ledger.tokens';
 import type { AppendDraft, AppendedEntry, RegisterDraft, RollProjector } from './ledger.types';
 import { issuesToFields } from './roll-rule.error';
-import { sequenceEntries } from './log-sequencer';
+import { LogSequencer } from './log-sequencer';
 
 interface LockedLot {
   id: string;
@@ -255,8 +255,8 @@ export class RollTransaction {
  * are locked in a fixed order (their codes, sorted), core's rules decide, core builds each
  * entry, and the entries, bodies, sealed fields, heads and derived views are written together
  * or not at all. Appends to one lot serialise on its row lock; different lots do not block each
- * other until their last statement, when the log sequencer gives their entries the next log
- * indices (see {@link sequenceEntries}).
+ * other. After each commit the log sequencer is asked to number the new entries (see
+ * {@link LogSequencer}); the append does not wait for it.
  */
 @Injectable()
 export class LedgerService {
@@ -266,6 +266,7 @@ export class LedgerService {
     private readonly dataSource: DataSource,
     private readonly clock: LedgerClock,
     @Inject(LEDGER_RANDOM) private readonly random: LedgerRandom,
+    private readonly sequencer: LogSequencer,
   ) {}
 
   /** Adds a projector run inside every append transaction (the lot view, later others). */
@@ -279,13 +280,13 @@ export class LedgerService {
    * `fn` (split and combined children) need no lock. An unknown code is a 404.
    */
   async withLots<T>(codes: string[], fn: (tx: RollTransaction) => Promise<T>): Promise<T> {
-    return this.dataSource.transaction('READ COMMITTED', async (manager) => {
+    const result = await this.dataSource.transaction('READ COMMITTED', async (manager) => {
       const tx = new RollTransaction(manager, this.random, this.projectors, this.clock.now().toISOString());
       for (const code of [...new Set(codes)].sort()) await tx.lock(code);
-      const result = await fn(tx);
-      await sequenceEntries(manager, tx.written);
-      return result;
+      return fn(tx);
     });
+    this.sequencer.kick();
+    return result;
   }
 
   /** Appends one entry to one lot, in its own transaction. */

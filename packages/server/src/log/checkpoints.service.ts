@@ -69,7 +69,10 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
 
   /** The log's signer, its key read (or made) on first use, which may come before module init. */
   private get signer(): NoteSigner {
-    this.signerValue ??= noteSigner(logOrigin(this.config.publicBaseUrl), loadLogSeed(this.config.log.keyFile));
+    this.signerValue ??= noteSigner(
+      logOrigin(this.config.publicBaseUrl),
+      loadLogSeed(this.config.log.keyFile),
+    );
     return this.signerValue;
   }
 
