@@ -81,7 +81,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       this.signIfDue().catch((err: unknown) =>
         this.logger.error(`checkpoint pass failed: ${(err as Error).message}`),
       );
-    }, this.config.log.checkpointSeconds * 1000);
+    }, CheckpointsService.tickMs(this.config.log.checkpointSeconds));
     timer.unref();
     this.scheduler.addInterval(JOB, timer);
   }
@@ -92,6 +92,14 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     await this.signIfDue().catch((err: unknown) =>
       this.logger.error(`checkpoint pass failed: ${(err as Error).message}`),
     );
+  }
+
+  /**
+   * How often each instance looks whether a checkpoint is due: a tenth of the period (at least a
+   * second), so a checkpoint follows growth within about CHECKPOINT_SECONDS and never sooner.
+   */
+  static tickMs(checkpointSeconds: number): number {
+    return Math.max(1, Math.floor(checkpointSeconds / 10)) * 1000;
   }
 
   onModuleDestroy(): void {

@@ -22,7 +22,7 @@ export class LogController {
   @Header('Content-Type', 'text/plain; charset=utf-8')
   @ApiOperation({ summary: 'The log’s verifier key: name+keyid+base64key' })
   key(): string {
-    return `${this.checkpoints.verifierKey()}\n`;
+    return this.checkpoints.verifierKey();
   }
 
   @Get('witnesses')
