@@ -214,19 +214,18 @@ export function isReservedActor(actor: string): boolean {
   return actor.startsWith(RESERVED_ACTOR_PREFIX);
 }
 
-/** Kinds with a rule that reads the entry's own facts. */
+/**
+ * Kinds with a version-1 rule that reads the entry's own body and whose body can be removed
+ * (split, combined and redacted bodies never are; a version-1 opinion has no such rule).
+ */
 const FACT_RULE_KINDS = new Set<EntryKind>([
   'described',
-  'opinion',
   'opinion-withdrawn',
   'transfer-offered',
   'transfer-accepted',
   'transfer-declined',
   'transfer-withdrawn',
   'transfer-lapsed',
-  'split',
-  'combined',
-  'redacted',
   'note',
 ]);
 

@@ -436,3 +436,17 @@ describe('link-scope rolls', () => {
     ).toThrow(/same lot twice/);
   });
 });
+
+describe('what a version-1 removal leaves unchecked', () => {
+  it('a removed version-1 opinion or observation leaves nothing unchecked; a removed offer does', () => {
+    const r = fortyBeads(1);
+    r.add('opinion', OTHER, opinion('venice-murano', 1850, 1900)); // 1
+    r.add('observed', HOLDER, { observations: { hole: 'clean' } }); // 2
+    r.add('transfer-offered', HOLDER, { recipient: OTHER }); // 3
+    r.add('transfer-withdrawn', HOLDER, { offerSeq: 3 }); // 4
+    for (const t of [1, 2, 3]) r.add('redacted', THIRD, { target: t, reason: 'abuse' });
+    const v = verifyRoll(r.stored.map((e, i) => ([1, 2, 3].includes(i) ? { ...e, body: null } : e)));
+    expect(v.ok).toBe(true);
+    if (v.ok) expect(v.unchecked.map((u) => u.seq)).toEqual([3]);
+  });
+});

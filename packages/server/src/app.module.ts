@@ -21,6 +21,7 @@ import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
 import { LogModule } from './log/log.module';
+import { StandbyModule } from './standby/standby.module';
 
 @Module({
   imports: [
@@ -30,6 +31,7 @@ import { LogModule } from './log/log.module';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
+    StandbyModule,
     HealthModule,
     MailModule,
     AuthModule,

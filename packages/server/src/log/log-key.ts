@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, linkSync, mkdirSync, readFileSync, unlinkSync, writeFileSync } from 'node:fs';
 import { dirname } from 'node:path';
 
 /**
@@ -10,11 +10,16 @@ import { dirname } from 'node:path';
 export function loadLogSeed(file: string): Uint8Array {
   if (!existsSync(file)) {
     mkdirSync(dirname(file), { recursive: true, mode: 0o700 });
+    // Written whole beside it, then linked into place: instances starting together all read
+    // the one key that got there first, never a half-written file.
+    const tmp = `${file}.${process.pid}.${randomBytes(4).toString('hex')}`;
+    writeFileSync(tmp, randomBytes(32).toString('hex'), { mode: 0o600, flag: 'wx' });
     try {
-      writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600, flag: 'wx' });
+      linkSync(tmp, file);
     } catch (e) {
-      // Another process made it first: read theirs.
       if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
+    } finally {
+      unlinkSync(tmp);
     }
   }
   const hex = readFileSync(file, 'utf8').trim();

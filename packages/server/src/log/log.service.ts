@@ -96,7 +96,8 @@ export class LogService {
 
   /**
    * The checkpoint member of a bundle holding one roll whose head is `head` (seq and log
-   * index); when the head is newer than the checkpoint, the roll's latest covered entry is read.
+   * index); when the head is newer than the checkpoint, the roll's latest covered entry up to
+   * the head is read.
    */
   async rollCheckpoint(
     lot: string,
@@ -108,8 +109,8 @@ export class LogService {
       return this.bundleCheckpoint([{ lot, entries: [head] }]);
     const rows: Array<{ seq: number; log_index: string }> = await this.dataSource.query(
       `SELECT e."seq", e."log_index" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
-        WHERE l."code" = $1 AND e."log_index" < $2 ORDER BY e."seq" DESC LIMIT 1`,
-      [lot, latest.size],
+        WHERE l."code" = $1 AND e."log_index" < $2 AND e."seq" <= $3 ORDER BY e."seq" DESC LIMIT 1`,
+      [lot, latest.size, head.seq],
     );
     const entries = rows.map((r) => ({ seq: r.seq, logIndex: Number(r.log_index) }));
     return this.bundleCheckpoint([{ lot, entries }]);
