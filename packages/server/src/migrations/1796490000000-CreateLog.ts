@@ -6,8 +6,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
  * the registrar registered and the cosignatures they sent. Entries written before this
  * migration get their log indices in the order they were recorded.
  */
-export class CreateLog1796480000000 implements MigrationInterface {
-  name = 'CreateLog1796480000000';
+export class CreateLog1796490000000 implements MigrationInterface {
+  name = 'CreateLog1796490000000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`
