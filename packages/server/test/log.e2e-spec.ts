@@ -91,7 +91,8 @@ describe('the ledger-wide log', () => {
   it('signs a C2SP checkpoint of the whole log with the key it serves; proofs and leaves agree with it', async () => {
     expect((await sign()).signed).toBe(true);
     const { cp } = await checkpoint();
-    expect(cp.origin).toBe('beadroll.test/log');
+    // The host of PUBLIC_BASE_URL (with its port, if any), then /log.
+    expect(cp.origin).toBe(`${new URL(process.env.PUBLIC_BASE_URL!).host}/log`);
     expect(cp.size).toBe(27);
     const leaves = await http().get('/api/log/leaves?start=0&end=27').expect(200);
     expect(leaves.body.start).toBe(0);
