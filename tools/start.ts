@@ -99,6 +99,8 @@ async function main(): Promise<void> {
   const report = readDemoReport(DATA_DIR);
   const lines = ['', `Beadroll is running at ${env.PUBLIC_BASE_URL}/`, `API documentation: ${base}/api/docs`];
   lines.push(`development mailbox: ${base}/dev/mailbox`);
+  const logKey = await fetch(`${base}/api/log/key`).then((r) => (r.ok ? r.text() : ''));
+  if (logKey) lines.push(`public log verifier key (also at ${base}/api/log/key): ${logKey.trim()}`);
   if (report) lines.push(...demoBanner(report, base));
   lines.push('Press Ctrl+C to stop.', '');
   console.log(lines.join('\n'));

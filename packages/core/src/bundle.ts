@@ -7,6 +7,7 @@ import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
 import { bodyIssues, isHex64 } from './validate.js';
+import type { BundleCheckpoint } from './log.js';
 import { verifyRoll, type UncheckedRule, type VerifiedEntry, type VerifyFailure } from './verify.js';
 
 // The WHATWG decoder that Node and every browser provide (core's build names no DOM types).
@@ -40,7 +41,7 @@ export interface BundleRoll {
   entries: BundleEntry[];
 }
 
-/** An export bundle. `checkpoints` is reserved for signed checkpoints. */
+/** An export bundle. `checkpoints` holds signed checkpoints with inclusion proofs (format §14.5). */
 export interface Bundle {
   format: typeof BUNDLE_FORMAT;
   version: (typeof BUNDLE_VERSIONS)[number];
@@ -387,6 +388,7 @@ export function createBundle(
     scope?: 'full' | 'link';
     entries: ReadonlyArray<StoredEntry & { logIndex?: number | null }>;
   }>,
+  checkpoints: readonly BundleCheckpoint[] = [],
 ): Bundle {
   return {
     format: BUNDLE_FORMAT,
@@ -401,6 +403,6 @@ export function createBundle(
         logIndex: e.logIndex ?? null,
       })),
     })),
-    checkpoints: [],
+    checkpoints: [...checkpoints],
   };
 }

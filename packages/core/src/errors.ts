@@ -86,3 +86,14 @@ export class TagError extends LedgerError {
     super(code, message);
   }
 }
+
+/** Codes of {@link NoteError}. */
+export type NoteErrorCode = 'bad-note' | 'bad-key' | 'bad-checkpoint' | 'bad-signature';
+
+/** Thrown when a signed note, a verifier key or a checkpoint text is malformed. */
+export class NoteError extends LedgerError {
+  declare readonly code: NoteErrorCode;
+  constructor(code: NoteErrorCode, message: string) {
+    super(code, message);
+  }
+}

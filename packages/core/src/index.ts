@@ -8,6 +8,7 @@ export {
   MerkleError,
   BundleError,
   TagError,
+  NoteError,
 } from './errors.js';
 export type {
   CanonicalErrorCode,
@@ -16,6 +17,7 @@ export type {
   MerkleErrorCode,
   BundleErrorCode,
   TagErrorCode,
+  NoteErrorCode,
 } from './errors.js';
 export { canonicalise, canonicaliseJcs, parseCanonical } from './canonical.js';
 export { secureRandom, seededRandom } from './random.js';
@@ -110,6 +112,57 @@ export {
   verifyInclusion,
   verifyConsistency,
 } from './merkle.js';
+export { MerkleTree } from './merkle-tree.js';
+export {
+  NOTE_SIG_ED25519,
+  NOTE_SIG_COSIGNATURE,
+  base64Encode,
+  base64Decode,
+  isKeyName,
+  noteKeyId,
+  formatVerifierKey,
+  parseVerifierKey,
+  noteSigner,
+  ed25519PublicKey,
+  ed25519Sign,
+  ed25519Verify,
+  parseNote,
+  signatureLine,
+  signNote,
+  addSignatures,
+  verifyNoteSignature,
+  formatCheckpoint,
+  parseCheckpoint,
+  cosignatureMessage,
+  cosignatureLine,
+  verifyCosignature,
+  openCheckpoint,
+} from './note.js';
+export type {
+  VerifierKey,
+  NoteSigner,
+  NoteSignature,
+  ParsedNote,
+  Checkpoint,
+  VerifiedCheckpoint,
+} from './note.js';
+export {
+  LOG_ORIGIN_SUFFIX,
+  logOrigin,
+  entryLeafHash,
+  decodeProof,
+  checkInclusion,
+  checkConsistency,
+  hashHex,
+  verifyBundleCheckpoint,
+} from './log.js';
+export type {
+  LogInclusion,
+  BundleCheckpoint,
+  InclusionCheck,
+  BundleInclusionResult,
+  BundleCheckpointResult,
+} from './log.js';
 export {
   BUNDLE_FORMAT,
   BUNDLE_VERSION,

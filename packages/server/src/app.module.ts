@@ -20,6 +20,7 @@ import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
+import { LogModule } from './log/log.module';
 import { IdempotencyModule } from './idempotency/idempotency.module';
 import { VerifyPageModule } from './verify-page/verify-page.module';
 import { StandbyModule } from './standby/standby.module';
@@ -48,6 +49,7 @@ import { StandbyModule } from './standby/standby.module';
     RegistryToolsModule,
     TagsModule,
     VerifyPageModule,
+    LogModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

@@ -1,4 +1,4 @@
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
@@ -14,6 +14,7 @@ import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
+import { CheckpointsService } from './log/checkpoints.service';
 
 /** Paths served outside the /api prefix (development pages, the offline verifier page). */
 const UNPREFIXED = [
@@ -74,7 +75,7 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     jsonDocumentUrl: 'api/docs-json',
   });
 
-  serveWeb(app, config.webDist);
+  serveWeb(app, config.webDist, app.get(CheckpointsService, { strict: false }).verifierKey());
   return config;
 }
 
@@ -106,13 +107,20 @@ function isServerPath(path: string): boolean {
   );
 }
 
+/** The public page with the log's verifier key written into its `beadroll-log-key` meta element. */
+function withLogKey(html: string, logKey: string): string {
+  const safe = logKey.replace(/[^A-Za-z0-9./:+=_-]/g, '');
+  return html.replace(/(<meta name="beadroll-log-key" content=")[^"]*(")/, `$1${safe}$2`);
+}
+
 /**
  * Serves the built web app; unknown non-API paths fall back to the right HTML entry. The build
  * writes a brotli (`.br`) and a gzip (`.gz`) copy beside each compressible file; the one the
  * browser accepts is sent with its Content-Encoding and `Vary: Accept-Encoding`. Files under
- * /assets have a content hash in their names, so they never change: cached as immutable.
+ * /assets have a content hash in their names, so they never change: cached as immutable. The
+ * public lot page carries the log's verifier key built in, so it can check checkpoints with it.
  */
-function serveWeb(app: NestExpressApplication, webDist: string): void {
+function serveWeb(app: NestExpressApplication, webDist: string, logKey: string): void {
   const appHtml = join(webDist, 'index.html');
   const publicHtml = join(webDist, 'public.html');
   if (!existsSync(appHtml)) return;
@@ -137,7 +145,8 @@ function serveWeb(app: NestExpressApplication, webDist: string): void {
     if (isServerPath(req.path)) return next();
     const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
     res.setHeader('Cache-Control', 'no-cache');
-    if (isPublic) preloadPublicLot(req.path, res);
-    res.sendFile(isPublic ? publicHtml : appHtml); // under 1 KB: compression gains nothing
+    if (!isPublic) return res.sendFile(appHtml); // under 1 KB: compression gains nothing
+    preloadPublicLot(req.path, res);
+    res.type('html').send(withLogKey(readFileSync(publicHtml, 'utf8'), logKey));
   });
 }

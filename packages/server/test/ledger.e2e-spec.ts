@@ -14,6 +14,7 @@ import { AuditService, type AuditEvent } from '../src/audit/audit.service';
 import { AppError } from '../src/common/app-error';
 import { BundleService } from '../src/ledger/bundle.service';
 import { LedgerService } from '../src/ledger/ledger.service';
+import { LogSequencer } from '../src/ledger/log-sequencer';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { dealer, description } from './support/lot-fixtures';
@@ -353,12 +354,14 @@ describe('the ledger on PostgreSQL', () => {
       expect(verifyRoll(await storedRoll(code), { lot: code }).ok).toBe(true);
     });
 
-    it('lets the reserved log index be filled in once, and nothing else', async () => {
+    it('lets the log index be filled in once (by the log sequencer), and never changed after', async () => {
+      await t.app.get(LogSequencer).settle();
       const lot = await reader.findLot(code);
-      await db.query(
-        'UPDATE entries SET log_index = (SELECT coalesce(max(log_index), -1) + 1 FROM entries) WHERE lot_id = $1',
+      const [{ n }] = await db.query(
+        'SELECT count(*) FILTER (WHERE log_index IS NULL) AS n FROM entries WHERE lot_id = $1',
         [lot!.id],
       );
+      expect(Number(n)).toBe(0);
       await expect(
         db.query('UPDATE entries SET log_index = log_index + 1000 WHERE lot_id = $1', [lot!.id]),
       ).rejects.toThrow(/refused/);

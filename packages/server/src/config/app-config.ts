@@ -34,6 +34,12 @@ export interface AppConfig {
     readonly fakeSmtp: boolean;
   };
   readonly jwtSecretFile: string;
+  /** The ledger-wide log: its Ed25519 signing key (made on first start) and how often it signs. */
+  readonly log: {
+    readonly keyFile: string;
+    /** A new checkpoint is signed when the log has grown, at most this often. */
+    readonly checkpointSeconds: number;
+  };
   readonly scrypt: {
     readonly cost: number;
     readonly blockSize: number;
@@ -192,6 +198,10 @@ export function loadConfig(env: Env = process.env): AppConfig {
       fakeSmtp: bool(env, 'FAKE_SMTP', demoMode),
     },
     jwtSecretFile: path(env, 'JWT_SECRET_FILE', resolve(dataDir, 'secrets', 'jwt.key')),
+    log: {
+      keyFile: path(env, 'LOG_KEY_FILE', resolve(dataDir, 'secrets', 'log.key')),
+      checkpointSeconds: int(env, 'CHECKPOINT_SECONDS', 10, 1, 86_400),
+    },
     scrypt: {
       cost: int(env, 'SCRYPT_COST', 131072, 2, 1 << 22),
       blockSize: int(env, 'SCRYPT_BLOCK_SIZE', 8, 1, 64),

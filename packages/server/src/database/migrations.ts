@@ -8,6 +8,7 @@ import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-A
 import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-CreateRateLimits';
 import { RefreshCachedRollState1796471607047 } from '../migrations/1796471607047-RefreshCachedRollState';
 import { CreateIdempotencyKeys1796480000000 } from '../migrations/1796480000000-CreateIdempotencyKeys';
+import { CreateLog1796490000000 } from '../migrations/1796490000000-CreateLog';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -20,4 +21,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateRateLimits1796470946374,
   RefreshCachedRollState1796471607047,
   CreateIdempotencyKeys1796480000000,
+  CreateLog1796490000000,
 ];

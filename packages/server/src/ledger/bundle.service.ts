@@ -1,6 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { createBundle, type Bundle, type EntryHeader, type RollState } from '@beadroll/core';
 import { DataSource } from 'typeorm';
+import { LogService } from '../log/log.service';
 import { RollReaderService, type StoredRollEntry } from './roll-reader.service';
 
 interface RollPart {
@@ -21,6 +22,7 @@ export class BundleService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly reader: RollReaderService,
+    private readonly log: LogService,
   ) {}
 
   async bundleFor(
@@ -63,6 +65,9 @@ export class BundleService {
         else parts.push({ lot: p.lot, scope: 'link', entries });
       }
     }
+    const checkpoint = await this.log.bundleCheckpoint(
+      parts.filter((r) => r.scope === 'full').map((r) => ({ lot: r.lot, entries: r.entries })),
+    );
     return createBundle(
       parts.map((r) => ({
         lot: r.lot,
@@ -74,6 +79,7 @@ export class BundleService {
           logIndex: e.logIndex,
         })),
       })),
+      checkpoint ? [checkpoint] : [],
     );
   }
 }

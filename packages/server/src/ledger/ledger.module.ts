@@ -5,16 +5,20 @@ import { LedgerClock } from './ledger.clock';
 import { LedgerService } from './ledger.service';
 import { LEDGER_RANDOM } from './ledger.tokens';
 import { RollReaderService } from './roll-reader.service';
+import { LogModule } from '../log/log.module';
+import { LogSequencer } from './log-sequencer';
 
 /** The ledger: the one append path, roll reading and bundles. */
 @Module({
+  imports: [LogModule],
   providers: [
     LedgerService,
     RollReaderService,
     BundleService,
     LedgerClock,
+    LogSequencer,
     { provide: LEDGER_RANDOM, useValue: secureRandom },
   ],
-  exports: [LedgerService, RollReaderService, BundleService, LedgerClock],
+  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogSequencer, LogModule],
 })
 export class LedgerModule {}

@@ -26,6 +26,7 @@ import { LEDGER_RANDOM, type LedgerRandom } from './ledger.tokens';
 import type { AppendDraft, AppendedEntry, RegisterDraft, RollProjector } from './ledger.types';
 import { replayStoredRoll, jsonDifferences } from './roll-replay';
 import { issuesToFields } from './roll-rule.error';
+import { LogSequencer } from './log-sequencer';
 
 const log = new Logger('ledger');
 
@@ -57,6 +58,8 @@ function transitionError(code: 'bad-actor' | 'bad-transition', message: string):
  */
 export class RollTransaction {
   private readonly locked = new Map<string, LockedLot>();
+  /** Ids of the entries this transaction inserted, in the order written. */
+  readonly written: string[] = [];
 
   constructor(
     readonly manager: EntityManager,
@@ -268,6 +271,7 @@ export class RollTransaction {
       [lotId, h.seq, h.kind, h.actor, h.time, built.stored.hash, built.stored.header, redacts],
     );
     const entryId = rows[0]!.id;
+    this.written.push(entryId);
     await this.manager.query('INSERT INTO "entry_bodies" ("entry_id", "body") VALUES ($1, $2)', [
       entryId,
       built.stored.body,
@@ -303,7 +307,8 @@ export class RollTransaction {
  * are locked in a fixed order (their codes, sorted), core's rules decide, core builds each
  * entry, and the entries, bodies, sealed fields, heads and derived views are written together
  * or not at all. Appends to one lot serialise on its row lock; different lots do not block each
- * other.
+ * other. After each commit the log sequencer is asked to number the new entries (see
+ * {@link LogSequencer}); the append does not wait for it.
  */
 @Injectable()
 export class LedgerService {
@@ -313,6 +318,7 @@ export class LedgerService {
     private readonly dataSource: DataSource,
     private readonly clock: LedgerClock,
     @Inject(LEDGER_RANDOM) private readonly random: LedgerRandom,
+    private readonly sequencer: LogSequencer,
   ) {}
 
   /** Adds a projector run inside every append transaction (the lot view, later others). */
@@ -326,11 +332,13 @@ export class LedgerService {
    * `fn` (split and combined children) need no lock. An unknown code is a 404.
    */
   async withLots<T>(codes: string[], fn: (tx: RollTransaction) => Promise<T>): Promise<T> {
-    return this.dataSource.transaction('READ COMMITTED', async (manager) => {
+    const result = await this.dataSource.transaction('READ COMMITTED', async (manager) => {
       const tx = new RollTransaction(manager, this.random, this.projectors, this.clock.now().toISOString());
       for (const code of [...new Set(codes)].sort()) await tx.lock(code);
       return fn(tx);
     });
+    this.sequencer.kick();
+    return result;
   }
 
   /** Appends one entry to one lot, in its own transaction. */

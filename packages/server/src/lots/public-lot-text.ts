@@ -6,7 +6,7 @@ import type { PublicDealerCard } from './dto/public-lot.dto';
  * unless the code is a listed lot. PostgreSQL writes the roll's entries as JSON text, member by
  * member in the order toPublicBundle (public-lots.service) gives them (hash, header, body, logIndex), so the
  * stored strings go out without being decoded and encoded again; `to_json(text)` escapes exactly
- * the characters JSON.stringify escapes. `cards` are the verified accounts among the roll's
+ * the characters JSON.stringify escapes. `checkpoints` is the bundle's checkpoint list as JSON text. `cards` are the verified accounts among the roll's
  * actors in the order they first appear on it, shaped as {@link PublicDealerCard} with the same
  * status rule as DealerCardsService.
  * `has_parents` says the first entry names parent lots: those need the bundle walk over ancestors.
@@ -24,6 +24,9 @@ SELECT
                ',' ORDER BY e."seq") || ']'
               FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
               WHERE e."lot_id" = v."lot_id"), '[]') AS "entries",
+  (SELECT e."seq" FROM "entries" e WHERE e."lot_id" = v."lot_id" ORDER BY e."seq" DESC LIMIT 1) AS "head_seq",
+  (SELECT e."log_index" FROM "entries" e WHERE e."lot_id" = v."lot_id" ORDER BY e."seq" DESC LIMIT 1)
+    AS "head_log_index",
   (SELECT json_agg(json_build_object(
             'id', a."id",
             'handle', a."handle",
@@ -47,6 +50,9 @@ export interface PublicLotRow {
   has_parents: boolean;
   /** JSON array text of the roll's entries. */
   entries: string;
+  /** seq and log index (bigint as text, or null) of the roll's head, for its checkpoint proof. */
+  head_seq: number;
+  head_log_index: string | null;
   cards: PublicDealerCard[] | null;
 }
 
@@ -54,13 +60,13 @@ export interface PublicLotRow {
  * The serialised PublicLotResponse of a lot whose bundle is its own roll alone (no parents), with
  * the members in the order the DTO has them; the entries text is inserted as PostgreSQL wrote it.
  */
-export function publicLotText(code: string, row: PublicLotRow): string {
+export function publicLotText(code: string, row: PublicLotRow, checkpoints = '[]'): string {
   const cards: Record<string, PublicDealerCard> = {};
   for (const card of row.cards ?? []) cards[card.id] = card;
   const lot = JSON.stringify(code);
   return (
     `{"code":${lot},"bundle":{"format":"beadroll-bundle","version":${BUNDLE_VERSION},` +
-    `"rolls":[{"lot":${lot},"scope":"full","entries":${row.entries}}],"checkpoints":[]},` +
+    `"rolls":[{"lot":${lot},"scope":"full","entries":${row.entries}}],"checkpoints":${checkpoints}},` +
     `"cards":${JSON.stringify(cards)}}`
   );
 }

@@ -1,11 +1,18 @@
 import { Injectable } from '@nestjs/common';
-import { BUNDLE_VERSION, SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
+import {
+  BUNDLE_VERSION,
+  SYSTEM_ACTOR,
+  type Bundle,
+  type BundleCheckpoint,
+  type EntryHeader,
+} from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { StandbyService, type ReadSource } from '../standby/standby.service';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
 import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
 
@@ -30,7 +37,15 @@ export function toPublicBundle(b: Bundle): PublicBundle {
       scope: r.scope,
       entries: r.entries.map((e) => ({ hash: e.hash, header: e.header, body: e.body, logIndex: e.logIndex })),
     })),
-    checkpoints: [],
+    checkpoints: (b.checkpoints as BundleCheckpoint[]).map((c) => ({
+      note: c.note,
+      inclusions: c.inclusions.map((i) => ({
+        lot: i.lot,
+        seq: i.seq,
+        logIndex: i.logIndex,
+        proof: [...i.proof],
+      })),
+    })),
   };
 }
 
@@ -58,6 +73,7 @@ export class PublicLotsService {
     private readonly bundles: BundleService,
     private readonly cards: DealerCardsService,
     private readonly standby: StandbyService,
+    private readonly log: LogService,
   ) {}
 
   /**
@@ -83,7 +99,15 @@ export class PublicLotsService {
     const rows: PublicLotRow[] = await manager.query(PUBLIC_LOT_SQL, [code]);
     const row = rows[0];
     if (!row) throw notFound();
-    if (!row.has_parents) return { text: publicLotText(code, row), from };
+    if (!row.has_parents) {
+      // The proof is of the head as this read saw it (the standby may be a moment behind).
+      const head = {
+        seq: row.head_seq,
+        logIndex: row.head_log_index === null ? null : Number(row.head_log_index),
+      };
+      const checkpoint = await this.log.rollCheckpoint(code, head);
+      return { text: publicLotText(code, row, checkpoint ? JSON.stringify([checkpoint]) : '[]'), from };
+    }
     return { text: JSON.stringify(await this.lot(code)), from: 'primary' };
   }
 

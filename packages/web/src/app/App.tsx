@@ -23,6 +23,7 @@ import { MyDataPage } from '../features/registry/MyDataPage';
 import { RecordPage } from '../features/registry/RecordPage';
 import { RedactionsPage } from '../features/registry/RedactionsPage';
 import { ReportsPage } from '../features/registry/ReportsPage';
+import { WitnessesPage } from '../features/transparency/WitnessesPage';
 import { createQueryClient } from '../lib/query-client';
 import type { NavItem } from './Shell';
 import { beadrollTheme } from './theme';
@@ -39,6 +40,7 @@ const NAV: NavItem[] = [
   { to: '/registry/redactions', label: 'Redaction', roles: ['registrar'] },
   { to: '/registry/record', label: 'Record', roles: ['registrar'] },
   { to: '/registry/audit', label: 'Audit', roles: ['registrar'] },
+  { to: '/registry/witnesses', label: 'Witnesses', roles: ['registrar'] },
   { to: '/account/data', label: 'Your data', signedIn: true },
   { to: '/scan', label: 'Scan a tag', roles: ['dealer'] },
   { to: '/tags', label: 'Print tags', roles: ['dealer'] },
@@ -67,6 +69,7 @@ export const routes: RouteObject[] = [
       { path: 'registry/redactions', element: <RedactionsPage /> },
       { path: 'registry/record', element: <RecordPage /> },
       { path: 'registry/audit', element: <AuditPage /> },
+      { path: 'registry/witnesses', element: <WitnessesPage /> },
       { path: 'account/data', element: <MyDataPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {

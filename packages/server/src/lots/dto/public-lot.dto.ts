@@ -14,12 +14,26 @@ export class PublicBundleRoll {
   @ApiProperty({ type: [PublicBundleEntry] }) entries: PublicBundleEntry[];
 }
 
+/** An inclusion proof of a roll's entry in the checkpoint (ledger format §14.5). */
+export class PublicLogInclusion {
+  @ApiProperty() lot: string;
+  @ApiProperty() seq: number;
+  @ApiProperty() logIndex: number;
+  @ApiProperty({ type: [String], description: 'base64 hashes, leaf side first' }) proof: string[];
+}
+
+/** A signed checkpoint of the ledger-wide log with inclusion proofs (ledger format §14.5). */
+export class PublicBundleCheckpoint {
+  @ApiProperty({ description: 'signed checkpoint note, with witness cosignatures' }) note: string;
+  @ApiProperty({ type: [PublicLogInclusion] }) inclusions: PublicLogInclusion[];
+}
+
 /** An export bundle as served publicly (ledger format §11); it never holds a sealed salt or value. */
 export class PublicBundle {
   @ApiProperty({ enum: ['beadroll-bundle'] }) format: 'beadroll-bundle';
   @ApiProperty({ enum: [1, 2], description: 'bundle version; 2 is written now' }) version: 1 | 2;
   @ApiProperty({ type: [PublicBundleRoll] }) rolls: PublicBundleRoll[];
-  @ApiProperty({ type: [Object] }) checkpoints: unknown[];
+  @ApiProperty({ type: [PublicBundleCheckpoint] }) checkpoints: PublicBundleCheckpoint[];
 }
 
 /** A public dealer card, keyed by account id in {@link PublicLotResponse.cards}. */

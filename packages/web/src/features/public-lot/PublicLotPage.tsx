@@ -3,6 +3,7 @@ import { QueryClientProvider, useQuery, type QueryClient } from '@tanstack/react
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { createQueryClient } from '../../lib/query-client';
 import { ReportProblem } from '../registry/ReportProblem';
+import { LogPanel } from '../transparency/LogPanel';
 import { Ancestry } from './Ancestry';
 import { brandVars } from './brand-vars';
 import { checkLot, checkTag, type LotCheck } from './check-lot';
@@ -73,6 +74,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
         </div>
         <div className="pl-side">
           <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
+          {check?.ok && data && <LogPanel code={code} bundle={data.bundle} />}
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
           {check?.ok && <LotFacts state={check.state} />}
           {check?.ok && <HandlingCautions entries={check.entries} />}

@@ -1,0 +1,72 @@
+import { Injectable } from '@nestjs/common';
+import { entryLeafHash, MerkleTree } from '@beadroll/core';
+import { DataSource } from 'typeorm';
+
+const PAGE = 10_000;
+
+/**
+ * This instance's copy of the ledger-wide Merkle tree, read from the entries by log index and
+ * extended as the log grows. The signer rebuilds it from the database before every signature,
+ * so what is signed is always what the database holds.
+ */
+@Injectable()
+export class LogTreeService {
+  private tree = new MerkleTree();
+  private hashes: string[] = [];
+  private loading?: Promise<void>;
+
+  constructor(private readonly dataSource: DataSource) {}
+
+  /** The tree, holding at least `size` leaves. Precondition: `size` ≤ the committed log size. */
+  async atLeast(size: number): Promise<MerkleTree> {
+    while (this.tree.size < size) {
+      this.loading ??= this.extend(size).finally(() => {
+        this.loading = undefined;
+      });
+      await this.loading;
+    }
+    return this.tree;
+  }
+
+  /** Entry hashes (hex) of leaves [start, end). Precondition: end ≤ the tree's size. */
+  hashesIn(start: number, end: number): string[] {
+    return this.hashes.slice(start, end);
+  }
+
+  /** Reads every leaf up to `size` again from the database and replaces the cached tree. */
+  async rebuild(size: number): Promise<MerkleTree> {
+    const hashes = await this.read(0, size);
+    const tree = new MerkleTree(hashes.map(entryLeafHash));
+    this.tree = tree;
+    this.hashes = hashes;
+    return tree;
+  }
+
+  private async extend(size: number): Promise<void> {
+    const from = this.tree.size;
+    const hashes = await this.read(from, size);
+    if (this.tree.size !== from) return; // a rebuild ran meanwhile
+    for (const h of hashes) {
+      this.tree.append(entryLeafHash(h));
+      this.hashes.push(h);
+    }
+  }
+
+  private async read(from: number, to: number): Promise<string[]> {
+    const out: string[] = [];
+    for (let start = from; start < to; start += PAGE) {
+      const end = Math.min(to, start + PAGE);
+      const rows: Array<{ hash: string; log_index: string }> = await this.dataSource.query(
+        `SELECT "hash", "log_index" FROM "entries" WHERE "log_index" >= $1 AND "log_index" < $2
+          ORDER BY "log_index"`,
+        [start, end],
+      );
+      rows.forEach((r, i) => {
+        if (Number(r.log_index) !== start + i) throw new Error(`the log has no leaf ${start + i}`);
+        out.push(r.hash);
+      });
+      if (rows.length !== end - start) throw new Error(`the log has no leaf ${start + rows.length}`);
+    }
+    return out;
+  }
+}

@@ -1,0 +1,29 @@
+import { Body, Controller, Get, Post } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
+import { RegisterWitnessDto } from './dto/log.dto';
+import { type WitnessResponse, WitnessesService } from './witnesses.service';
+import { CheckpointsService } from './checkpoints.service';
+
+/** The registrar's list of the log's witnesses. */
+@ApiTags('registry')
+@Roles('registrar')
+@Controller('registry/witnesses')
+export class WitnessesController {
+  constructor(
+    private readonly witnesses: WitnessesService,
+    private readonly checkpoints: CheckpointsService,
+  ) {}
+
+  @Get()
+  @ApiOperation({ summary: 'Witnesses of the log and when each last cosigned' })
+  async list(): Promise<{ logKey: string; items: WitnessResponse[] }> {
+    return { logKey: this.checkpoints.verifierKey(), items: await this.witnesses.list() };
+  }
+
+  @Post()
+  @ApiOperation({ summary: 'Register a witness by its cosignature key' })
+  register(@CurrentAccount() me: Principal, @Body() dto: RegisterWitnessDto): Promise<WitnessResponse> {
+    return this.witnesses.register(me.id, dto.key);
+  }
+}
