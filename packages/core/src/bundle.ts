@@ -5,6 +5,7 @@ import { bodyDigest, entryHash } from './hash.js';
 import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
+import { INHERITED_SCOPE, verifyInheritedRoll } from './inherited.js';
 import { bodyIssues, isHex64 } from './validate.js';
 import { verifyRoll, type VerifiedEntry, type VerifyFailure } from './verify.js';
 
@@ -22,11 +23,16 @@ export interface BundleEntry extends StoredEntry {
 
 /**
  * One roll in a bundle: `full` = every entry from seq 0; `link` = only the `split`/`combined`
- * entries another roll in the bundle links to (an unlisted ancestor), with their bodies.
+ * entries another roll in the bundle links to (an unlisted ancestor), with their bodies;
+ * `inherited` = an unlisted ancestor's link entries with the entries that travel to its
+ * descendants (see {@link verifyInheritedRoll}).
  */
+export type BundleScope = 'full' | 'link' | typeof INHERITED_SCOPE;
+
+/** One roll in a bundle (see {@link BundleScope}). */
 export interface BundleRoll {
   lot: string;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   entries: BundleEntry[];
 }
 
@@ -65,7 +71,8 @@ export function parseBundle(value: unknown): Bundle {
     if (!isCanonicalLotCode(o.lot)) bad(`${at}.lot is not a canonical lot code`);
     if (seen.has(o.lot as string)) bad(`lot ${o.lot as string} appears twice`);
     seen.add(o.lot as string);
-    if (o.scope !== 'full' && o.scope !== 'link') bad(`${at}.scope is not full or link`);
+    if (o.scope !== 'full' && o.scope !== 'link' && o.scope !== INHERITED_SCOPE)
+      bad(`${at}.scope is not full, link or inherited`);
     if (!Array.isArray(o.entries)) bad(`${at}.entries is not a list`);
     (o.entries as unknown[]).forEach((e, j) => {
       const eat = `${at}.entries[${j}]`;
@@ -105,7 +112,7 @@ export function parseBundleText(text: string, maxBytes = DEFAULT_MAX_BUNDLE_BYTE
 /** Result for one roll of a bundle. */
 export interface BundleRollResult {
   lot: string;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   entries: number;
   ok: boolean;
   failure: VerifyFailure | null;
@@ -176,6 +183,24 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
   let entries = 0;
   for (const r of bundle.rolls) {
     entries += r.entries.length;
+    if (r.scope === INHERITED_SCOPE) {
+      const { failure, entries: ie } = verifyInheritedRoll(r);
+      for (const e of ie) {
+        if (e.header.kind === 'split' || e.header.kind === 'combined')
+          linkEntries.set(`${r.lot}/${e.header.seq}`, e as LinkEntry);
+        else if (e.header.kind === 'registered' && !failure) firstEntries.set(r.lot, e);
+      }
+      rolls.push({
+        lot: r.lot,
+        scope: r.scope,
+        entries: r.entries.length,
+        ok: !failure,
+        failure,
+        state: null,
+      });
+      if (failure) failures.push(failure);
+      continue;
+    }
     if (r.scope === 'link') {
       const { failure, entries: le } = verifyLinkRoll(r);
       for (const e of le) linkEntries.set(`${r.lot}/${e.header.seq}`, e);
@@ -244,9 +269,9 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
         markBroken(child, 0, `registered before its parent entry ${p.lot} seq ${p.seq}`);
       else if (le.header.kind === 'split') {
         const c = (le.body as SplitBody).children.find((x) => x.lot === child);
-        const count = (reg.body as RegisteredBody).description.count;
+        const count = (reg.body as RegisteredBody | null)?.description.count;
         if (!c) markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} does not name this lot`);
-        else if (c.count.value !== count.value)
+        else if (count && c.count.value !== count.value)
           markBroken(child, 0, `split gave ${c.count.value} beads, registered ${count.value}`);
       } else if ((le.body as CombinedBody).child !== child) {
         markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} does not name this lot`);
@@ -281,7 +306,7 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
 export function createBundle(
   rolls: ReadonlyArray<{
     lot: string;
-    scope?: 'full' | 'link';
+    scope?: BundleScope;
     entries: ReadonlyArray<StoredEntry & { logIndex?: number | null }>;
   }>,
 ): Bundle {
