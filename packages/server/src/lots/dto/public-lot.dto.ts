@@ -10,7 +10,7 @@ export class PublicBundleEntry {
 
 export class PublicBundleRoll {
   @ApiProperty() lot: string;
-  @ApiProperty({ enum: ['full', 'link'] }) scope: 'full' | 'link';
+  @ApiProperty({ enum: ['full', 'link', 'inherited'] }) scope: 'full' | 'link' | 'inherited';
   @ApiProperty({ type: [PublicBundleEntry] }) entries: PublicBundleEntry[];
 }
 
