@@ -99,6 +99,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/lots/:code/exhibits': 'signed-in',
   'GET /api/lots/:code/exhibits/:seq/:variant': 'signed-in',
   'GET /api/public/lots/:code/exhibits/:seq/:variant': 'public',
+  'GET /api/public/lots/:code/inherited/:lot/exhibits/:seq/:variant': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',
