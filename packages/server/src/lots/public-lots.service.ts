@@ -1,5 +1,5 @@
 import { Injectable } from '@nestjs/common';
-import { SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
+import { SYSTEM_ACTOR, type Bundle, type EntryHeader, type TransferOfferedBody } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
@@ -40,6 +40,7 @@ function toPublicCard(c: DealerCard): PublicDealerCard {
     country: c.country,
     verifiedSince: c.verifiedSince,
     status: c.status,
+    role: c.role,
   };
 }
 
@@ -79,6 +80,8 @@ export class PublicLotsService {
       for (const e of r.entries) {
         const h = JSON.parse(e.header) as EntryHeader;
         if (h.actor !== SYSTEM_ACTOR) ids.add(h.actor);
+        if (h.kind === 'transfer-offered' && e.body !== null)
+          ids.add((JSON.parse(e.body) as TransferOfferedBody).recipient);
       }
     const found = await this.cards.cardsFor([...ids]);
     const cards: Record<string, PublicDealerCard> = {};

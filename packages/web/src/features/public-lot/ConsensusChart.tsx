@@ -135,5 +135,5 @@ export function ConsensusChart({
 }
 
 export function roleWords(role: OpinionRole): string {
-  return role === 'attribution' ? 'Holder’s attribution' : role === 'dissent' ? 'Dissent' : 'Opinion';
+  return role === 'attribution' ? 'Attribution on record' : role === 'dissent' ? 'Dissent' : 'Opinion';
 }

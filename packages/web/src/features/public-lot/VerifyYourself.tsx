@@ -1,5 +1,8 @@
-import { formatLotCode, tagReference, type RollHead } from '@beadroll/core';
+import { formatLotCode, printedTagCode, tagReference, type RollHead } from '@beadroll/core';
 import { publicBundlePath } from './public-lot.api';
+
+/** Where the offline verifier lives: a page that checks a downloaded history without the network. */
+export const VERIFIER_PATH = '/verify';
 
 /** How to check the same history without this page. */
 export function VerifyYourself({ code, head }: { code: string; head: RollHead | null }) {
@@ -8,25 +11,25 @@ export function VerifyYourself({ code, head }: { code: string; head: RollHead | 
   return (
     <section className="pl-section pl-verify" aria-labelledby="pl-verify-h">
       <h2 id="pl-verify-h">Verify it yourself</h2>
-      <p>
-        <a href={publicBundlePath(code)} download={file}>
-          Download the history of lot {formatLotCode(code)}
-        </a>{' '}
-        ({file}), then check it offline with Beadroll’s verifier:
-      </p>
-      <pre className="pl-cmd">
-        <code>npm run verify -- {file}</code>
-      </pre>
+      <ol className="pl-verify-steps">
+        <li>
+          <a href={publicBundlePath(code)} download={file}>
+            Download the history of lot {formatLotCode(code)}
+          </a>{' '}
+          ({file}) and keep it.
+        </li>
+        <li>
+          Open <a href={VERIFIER_PATH}>Beadroll’s offline verifier</a> and give it the file: it checks every
+          entry on your own device, with no connection needed.
+        </li>
+      </ol>
       <p className="pl-hint">
-        The ledger format is published, so you can also check the file with code of your own.
+        The ledger format is published, so anyone can also check the file with a verifier of their own.
         {head && ref && (
           <>
             {' '}
-            The newest entry served is entry {head.seq}, reference{' '}
-            <span className="pl-nowrap">
-              {ref.slice(0, 5)}-{ref.slice(5)}
-            </span>
-            .
+            The newest entry served is entry {head.seq}, code{' '}
+            <span className="pl-nowrap">{printedTagCode(ref)}</span>.
           </>
         )}
       </p>
