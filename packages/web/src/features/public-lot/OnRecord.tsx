@@ -1,7 +1,9 @@
 import { type AttributionOnRecord, type InheritedEntry } from '@beadroll/core';
 import type { DealerCard } from './public-lot.api';
 import { recordWhoWords } from './record-words';
-import { ORIGIN_WORDS, periodWords, QUALIFIER_WORDS } from './words';
+import { ORIGIN_WORDS, periodWords } from './words';
+
+const capitalised = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 /**
  * The first thing a buyer reads: the attribution on record and how many opinions agree and
@@ -30,12 +32,11 @@ export function OnRecord({
         <>
           <p className="pl-record-what">
             <a href="#pl-op-record">
-              {ORIGIN_WORDS[r.body.origin]}
+              {capitalised(ORIGIN_WORDS[r.body.origin])}
               {r.body.originNote ? ` (${r.body.originNote})` : ''}, {periodWords(r.body.period)}
-            </a>{' '}
-            <span className="pl-record-qualifier">· {QUALIFIER_WORDS[r.body.qualifier]}</span>
+            </a>
           </p>
-          <p className="pl-record-who">{recordWhoWords(record, cards, inherited)}.</p>
+          <p className="pl-record-who">{capitalised(recordWhoWords(record, cards, inherited))}.</p>
           <p className="pl-record-counts">
             <a href="#pl-op-agree" className="pl-count-agree">
               {agree} {agree === 1 ? 'opinion agrees' : 'opinions agree'}

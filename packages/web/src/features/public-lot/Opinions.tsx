@@ -123,7 +123,7 @@ function OpinionCard({
     <article className={`pl-opinion pl-opinion-${role}`} aria-label={`${label} by ${author}`}>
       <p className="pl-opinion-role">{label}</p>
       <p className="pl-opinion-head">
-        {ORIGIN_WORDS[o.origin]}
+        {ORIGIN_WORDS[o.origin].charAt(0).toUpperCase() + ORIGIN_WORDS[o.origin].slice(1)}
         {o.originNote ? ` (${o.originNote})` : ''}, {periodWords(o.period)}
       </p>
       <p className="pl-opinion-facts">

@@ -199,7 +199,7 @@ describe('public lot page: opinions, dissent and a removed body', () => {
       'href',
       '#pl-op-agree',
     );
-    expect(onRecord).toHaveTextContent(`attributed by the holder, ${nameOf(DEALER_B)}`);
+    expect(onRecord).toHaveTextContent(`Attributed by the holder, ${nameOf(DEALER_B)}`);
     const attribution = screen.getByRole('article', { name: `Attribution on record by ${nameOf(DEALER_B)}` });
     expect(within(attribution).getByText('Venice / Murano, about 1880–1920')).toBeInTheDocument();
     // The assessor's role shows on their opinion.
