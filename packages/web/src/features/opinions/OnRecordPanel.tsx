@@ -83,7 +83,7 @@ export function OnRecordPanel({
   const r = record.record;
   const isHolder = viewer?.id === holder;
   return (
-    <Card className={styles.card} aria-labelledby="on-record-title">
+    <Card className={styles.card} role="region" aria-labelledby="on-record-title">
       <Subtitle2 as="h2" id="on-record-title">
         Attribution on record
       </Subtitle2>
@@ -96,7 +96,7 @@ export function OnRecordPanel({
           </Body1>
           <Caption1>
             {record.source === 'holder'
-              ? `Attributed by the holder, ${name(r.author, false)}${record.adopted ? `, adopting the attribution ${whereText(record.adopted)}` : ''}.`
+              ? `${r.author === viewer?.id ? 'Your attribution' : `Attributed by the holder, ${name(r.author, false)}`}${record.adopted ? `, adopting the attribution ${whereText(record.adopted)} by ${name(record.adopted.author, false)}` : ''}.`
               : record.source === 'earlier-holder'
                 ? `Attributed by the previous holder, ${name(r.author, false)}, on ${new Date(r.time).toLocaleDateString()}.`
                 : `Attributed by ${name(r.author, false)} as holder of lot ${formatLotCode(r.lot)}, which these beads came from, on ${new Date(r.time).toLocaleDateString()}.`}
