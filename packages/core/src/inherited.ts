@@ -1,4 +1,5 @@
-import { parseCanonical } from './canonical.js';
+import { canonicalise, parseCanonical } from './canonical.js';
+import { factsOf } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode } from './entry.js';
 import { bodyDigest, entryHash } from './hash.js';
 import { opinionsDisagree, type RollState } from './rules.js';
@@ -74,6 +75,8 @@ export function verifyInheritedRoll(r: InheritedRollInput): {
         return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
       const issues = bodyIssues(h.kind, body);
       if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
+      if (h.facts && canonicalise(factsOf(h.kind, body as AnyBody)) !== canonicalise(h.facts))
+        return fail(h.seq, 'bad-facts', 'the header facts differ from the body');
       if (h.kind === 'exhibit-added' && !('exhibit' in (body as ExhibitAddedBody)))
         return fail(h.seq, 'bad-body', 'an inherited exhibit is a public one');
       out.push({ hash: e.hash, header: h, body: body as AnyBody });

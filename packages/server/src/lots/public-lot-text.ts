@@ -1,3 +1,4 @@
+import { BUNDLE_VERSION } from '@beadroll/core';
 import type { PublicDealerCard } from './dto/public-lot.dto';
 
 /**
@@ -6,8 +7,8 @@ import type { PublicDealerCard } from './dto/public-lot.dto';
  * member in the order toPublicBundle (public-lots.service) gives them (hash, header, body, logIndex), so the
  * stored strings go out without being decoded and encoded again; `to_json(text)` escapes exactly
  * the characters JSON.stringify escapes. `cards` are the verified accounts among the roll's
- * actors and the recipients of its transfer offers, in the order they first appear on it, shaped as {@link PublicDealerCard} with the same
- * status rule as DealerCardsService.
+ * actors and the recipients of its transfer offers, in the order they first appear on it,
+ * shaped as {@link PublicDealerCard} with the same status rule as DealerCardsService.
  * `has_parents` says the first entry names parent lots: those need the bundle walk over ancestors.
  * Framework-free so the public-data benchmark's bare server can run the very same text.
  */
@@ -64,7 +65,7 @@ export function publicLotText(code: string, row: PublicLotRow): string {
   for (const card of row.cards ?? []) cards[card.id] = card;
   const lot = JSON.stringify(code);
   return (
-    `{"code":${lot},"bundle":{"format":"beadroll-bundle","version":1,` +
+    `{"code":${lot},"bundle":{"format":"beadroll-bundle","version":${BUNDLE_VERSION},` +
     `"rolls":[{"lot":${lot},"scope":"full","entries":${row.entries}}],"checkpoints":[]},` +
     `"cards":${JSON.stringify(cards)}}`
   );

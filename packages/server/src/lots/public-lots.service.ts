@@ -1,5 +1,11 @@
 import { Injectable } from '@nestjs/common';
-import { SYSTEM_ACTOR, type Bundle, type EntryHeader, type TransferOfferedBody } from '@beadroll/core';
+import {
+  BUNDLE_VERSION,
+  SYSTEM_ACTOR,
+  type Bundle,
+  type EntryHeader,
+  type TransferOfferedBody,
+} from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
@@ -20,7 +26,7 @@ function notFound(): AppError {
 export function toPublicBundle(b: Bundle): PublicBundle {
   return {
     format: 'beadroll-bundle',
-    version: 1,
+    version: BUNDLE_VERSION,
     rolls: b.rolls.map((r) => ({
       lot: r.lot,
       scope: r.scope,

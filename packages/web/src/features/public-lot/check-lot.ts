@@ -14,6 +14,7 @@ import {
   type Bundle,
   type BundleRoll,
   type InheritedEntry,
+  type UncheckedRule,
   type ReasonCode,
   type RollState,
   type TagCodeCheck,
@@ -55,6 +56,11 @@ export type LotCheck =
       record: AttributionOnRecord;
       /** Entries checked across the whole bundle (this roll and its ancestors). */
       bundleEntries: number;
+      /**
+       * Rules an old (format version 1) entry could not be checked against because a removed
+       * body held the fact they need; empty when the history is fully checked.
+       */
+      unchecked: UncheckedRule[];
     }
   | {
       ok: false;
@@ -126,6 +132,7 @@ export function checkLot(code: string, raw: unknown): LotCheck {
     inherited,
     record: attributionOnRecord(own.verified, own.state, inherited),
     bundleEntries: all.entries,
+    unchecked: all.rolls.flatMap((r) => r.unchecked),
   };
 }
 
