@@ -54,7 +54,12 @@ console.log(
 );
 const lotName = (lot) => (lot ? formatLotCode(lot) : '(no valid lot code)');
 for (const r of result.rolls) {
-  const what = r.scope === 'link' ? 'link entries only' : `${r.entries} entries`;
+  const what =
+    r.scope === 'link'
+      ? 'link entries only'
+      : r.scope === 'inherited'
+        ? `${r.entries} entries that travel from an unlisted lot (links, opinions, cited exhibits)`
+        : `${r.entries} entries`;
   if (!r.ok)
     console.log(
       `  ${lotName(r.lot)}  BROKEN   at seq ${r.failure.seq}: ${r.failure.reason} — ${r.failure.message}`,
