@@ -20,6 +20,7 @@ import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
+import { StandbyModule } from './standby/standby.module';
 
 @Module({
   imports: [
@@ -29,6 +30,7 @@ import { TagsModule } from './tags/tags.module';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
+    StandbyModule,
     HealthModule,
     MailModule,
     AuthModule,

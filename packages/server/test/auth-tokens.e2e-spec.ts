@@ -169,7 +169,7 @@ describe('rate limits and the development mailbox', () => {
       request(t.app.getHttpServer())
         .post('/api/auth/sign-in')
         .set(W)
-        .send({ email: 'who@example.test', password: 'guess guess guess' });
+        .send({ email: 'who@example.invalid', password: 'guess guess guess' });
     for (let i = 0; i < 3; i++) expect((await attempt()).status).toBe(401);
     const locked = await attempt();
     expect(locked.status).toBe(429);

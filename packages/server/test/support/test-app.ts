@@ -101,7 +101,7 @@ export async function createTestApp(env: Record<string, string> = {}): Promise<T
     FAKE_SMTP: 'true',
     SMTP_PORT: '0',
     DEV_MAILBOX: 'true',
-    PUBLIC_BASE_URL: 'http://beadroll.test',
+    PUBLIC_BASE_URL: 'http://beadroll.example',
     ...env,
   });
   const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();

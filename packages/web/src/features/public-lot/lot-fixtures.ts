@@ -30,7 +30,7 @@ const card = (
 
 export const CARDS: Record<string, DealerCard> = {
   [DEALER_A]: card(DEALER_A, 'Ines Varro', 'Varro Old Glass', 'Larkmoor'),
-  [DEALER_B]: card(DEALER_B, 'Osric Pell', 'Pell & Daughter Beads', 'Oldbridge'),
+  [DEALER_B]: card(DEALER_B, 'Osric Pell', 'Pell & Daughter Beads', 'Sommerso Bridge'),
   [ASSESSOR]: card(ASSESSOR, 'Wren Abelard', 'Abelard Bead Studies', 'Fennick', 'assessor'),
 };
 
