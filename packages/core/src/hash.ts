@@ -1,19 +1,55 @@
 import { sha256 } from '@noble/hashes/sha2.js';
 import { bytesToHex, utf8ToBytes } from '@noble/hashes/utils.js';
 
+/** One-shot SHA-256 of bytes as lower-case hex, from the host's own crypto library. */
+type HostSha256 = (bytes: Uint8Array) => string;
+
+/**
+ * In Node (20.16 and later) the digest comes from node:crypto, which hashes several times
+ * faster than script; it is reached through `process.getBuiltinModule`, so nothing is imported
+ * and a browser bundle is unaffected. Elsewhere (browsers, where WebCrypto only hashes
+ * asynchronously) @noble/hashes computes it. Both are SHA-256 (FIPS 180-4): the same bytes give
+ * the same digest, whichever runs.
+ */
+const hostSha256: HostSha256 | null = (() => {
+  type NodeCrypto = {
+    hash?: (algorithm: string, data: Uint8Array, encoding: 'hex') => string;
+    createHash?: (algorithm: string) => { update(d: Uint8Array): { digest(e: 'hex'): string } };
+  };
+  try {
+    const proc = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
+    const c = proc?.getBuiltinModule?.('node:crypto') as NodeCrypto | undefined;
+    if (typeof c?.hash === 'function') {
+      const hash = c.hash;
+      return (bytes) => hash('sha256', bytes, 'hex');
+    }
+    if (typeof c?.createHash === 'function') {
+      const createHash = c.createHash;
+      return (bytes) => createHash('sha256').update(bytes).digest('hex');
+    }
+  } catch {
+    // no host library: script it is
+  }
+  return null;
+})();
+
+function sha256Hex(bytes: Uint8Array): string {
+  return hostSha256 ? hostSha256(bytes) : bytesToHex(sha256(bytes));
+}
+
 /**
  * SHA-256 of the UTF-8 encoding of `text`, as 64 lower-case hex digits.
  * Precondition: `text` is a well-formed string (lone surrogates are encoded as U+FFFD).
  */
 export function sha256HexOfText(text: string): string {
-  return bytesToHex(sha256(utf8ToBytes(text)));
+  return sha256Hex(utf8ToBytes(text));
 }
 
 /**
  * SHA-256 of raw bytes, as 64 lower-case hex digits.
  */
 export function sha256HexOfBytes(bytes: Uint8Array): string {
-  return bytesToHex(sha256(bytes));
+  return sha256Hex(bytes);
 }
 
 /**
@@ -56,7 +92,7 @@ export function domainHash(domain: Domain, text: string): string {
   if (scratch.length < need) scratch = new Uint8Array(Math.max(need, scratch.length * 2));
   scratch.set(tag);
   const { written } = encoder.encodeInto(text, scratch.subarray(tag.length));
-  return bytesToHex(sha256(scratch.subarray(0, tag.length + written)));
+  return sha256Hex(scratch.subarray(0, tag.length + written));
 }
 
 interface Utf8Encoder {

@@ -20,6 +20,7 @@ import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
+import { IdempotencyModule } from './idempotency/idempotency.module';
 import { StandbyModule } from './standby/standby.module';
 
 @Module({
@@ -31,6 +32,7 @@ import { StandbyModule } from './standby/standby.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     StandbyModule,
+    IdempotencyModule,
     HealthModule,
     MailModule,
     AuthModule,

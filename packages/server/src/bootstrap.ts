@@ -3,12 +3,16 @@ import { join } from 'node:path';
 import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
-import express, { type NextFunction, type Request, type Response } from 'express';
+import type { NextFunction, Request, Response } from 'express';
+import expressStaticGzip from 'express-static-gzip';
 import helmet from 'helmet';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG } from './config/config.module';
+import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
+import { RollReaderService } from './ledger/roll-reader.service';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 
 /** Paths served outside the /api prefix (development pages). */
@@ -46,11 +50,16 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     res.setHeader('Beadroll-Instance', config.instanceName);
     next();
   });
+  // Dynamic answers over 1 KB (the roll JSON, bundles, lists) are compressed for clients that
+  // ask; the built web files are compressed at build time and served as they are (serveWeb).
+  app.use(compression({ threshold: 1024 }));
   app.use(publicLotFastPath(app, securityHeaders));
   app.use(securityHeaders);
   app.use(cookieParser());
+  const limits = { maxBytes: config.requests.maxJsonBytes, maxDepth: config.requests.maxDepth };
+  for (const parser of bodyParsers(limits)) app.use(parser);
   app.setGlobalPrefix('api', { exclude: UNPREFIXED });
-  app.useGlobalPipes(createValidationPipe());
+  app.useGlobalPipes(new InputSafetyPipe(limits.maxDepth), createValidationPipe());
 
   const openApi = new DocumentBuilder()
     .setTitle('Beadroll API')
@@ -65,22 +74,51 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   return config;
 }
 
+/**
+ * A public lot page needs the lot's data before it can show anything: name it in a preload
+ * link, so the browser fetches it while it still loads the page's script. The address is the
+ * one the page itself asks for (the canonical code), fetched the same way (CORS mode, cookies
+ * of this site only), so the browser hands the preloaded answer to the page.
+ */
+function preloadPublicLot(path: string, res: Response): void {
+  const segment = /^\/[lL]\/([^/]+)(?:\/[^/]+)?\/?$/.exec(path)?.[1];
+  let code: string | null;
+  try {
+    code = segment === undefined ? null : RollReaderService.canonicalCode(decodeURIComponent(segment));
+  } catch {
+    code = null; // a malformed %-escape: no preload; the page says the lot was not found
+  }
+  if (code) res.setHeader('Link', `</api/public/lots/${code}>; rel=preload; as=fetch; crossorigin=anonymous`);
+}
+
 /** Paths the server answers itself (the API and the development pages), never the web app. */
 function isServerPath(path: string): boolean {
   return path.startsWith('/api/') || path === '/api' || path.startsWith('/dev/');
 }
 
-/** Serves the built web app; unknown non-API paths fall back to the right HTML entry. */
+/**
+ * Serves the built web app; unknown non-API paths fall back to the right HTML entry. The build
+ * writes a brotli (`.br`) and a gzip (`.gz`) copy beside each compressible file; the one the
+ * browser accepts is sent with its Content-Encoding and `Vary: Accept-Encoding`. Files under
+ * /assets have a content hash in their names, so they never change: cached as immutable.
+ */
 function serveWeb(app: NestExpressApplication, webDist: string): void {
   const appHtml = join(webDist, 'index.html');
   const publicHtml = join(webDist, 'public.html');
   if (!existsSync(appHtml)) return;
+  const precompressed = { enableBrotli: true, orderPreference: ['br', 'gzip'], index: false };
   app.use(
     '/assets',
-    express.static(join(webDist, 'assets'), { immutable: true, maxAge: '365d', index: false }),
+    expressStaticGzip(join(webDist, 'assets'), {
+      ...precompressed,
+      serveStatic: { immutable: true, maxAge: '365d', index: false },
+    }),
   );
   // API and development paths never name a file: skip the file lookup for them.
-  const files = express.static(webDist, { index: false, maxAge: '1h' });
+  const files = expressStaticGzip(webDist, {
+    ...precompressed,
+    serveStatic: { index: false, maxAge: '1h' },
+  });
   app.use((req: Request, res: Response, next: NextFunction) =>
     isServerPath(req.path) ? next() : files(req, res, next),
   );
@@ -89,6 +127,7 @@ function serveWeb(app: NestExpressApplication, webDist: string): void {
     if (isServerPath(req.path)) return next();
     const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
     res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(isPublic ? publicHtml : appHtml);
+    if (isPublic) preloadPublicLot(req.path, res);
+    res.sendFile(isPublic ? publicHtml : appHtml); // under 1 KB: compression gains nothing
   });
 }

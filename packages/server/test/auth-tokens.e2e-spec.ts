@@ -137,7 +137,7 @@ describe('session tokens: tampering, expiry, rotation and reuse', () => {
 
   it('hashes at the production scrypt cost (N=2^17, r=8, p=1) and verifies the result', async () => {
     const production = loadConfig({});
-    expect(production.scrypt).toEqual({ cost: 131072, blockSize: 8, parallelization: 1 });
+    expect(production.scrypt).toEqual({ cost: 131072, blockSize: 8, parallelization: 1, concurrency: 1 });
     const service = new PasswordsService(production);
     const hash = await service.hash('correct horse battery staple');
     expect(hash).toMatch(/^scrypt\$131072\$8\$1\$/);

@@ -6,6 +6,7 @@ import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-C
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
 import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-CreateRateLimits';
+import { CreateIdempotencyKeys1796480000000 } from '../migrations/1796480000000-CreateIdempotencyKeys';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -16,4 +17,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
   CreateRateLimits1796470946374,
+  CreateIdempotencyKeys1796480000000,
 ];

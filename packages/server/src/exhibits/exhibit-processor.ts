@@ -38,7 +38,7 @@ export interface ProcessedExhibit {
   cleanup(): Promise<void>;
 }
 
-/** Long side in pixels of each derivative; derivatives are JPEG, which every browser shows. */
+/** Long side in pixels of each derivative, largest first; derivatives are JPEG, which every browser shows. */
 const DERIVATIVES = [
   { role: 'web', size: 1600, quality: 82 },
   { role: 'thumbnail', size: 400, quality: 72 },
@@ -183,16 +183,21 @@ export class ExhibitProcessor {
     }
     const original: ProcessedFile = { path: originalPath, mediaType, width: info.width, height: info.height };
     const derivatives: ProcessedFile[] = [];
-    // One after another, so that only one decoded image is in memory at a time.
+    // One after another, so that only one decoded image is in memory at a time. Each derivative
+    // is made from the one before it (the largest from the upload, with the JPEG decoder
+    // shrinking on load), so the full-size picture is decoded once for the original and never
+    // again; libjpeg's standard encoder, several times faster than mozjpeg's trellis search.
+    let source = input;
     for (const d of DERIVATIVES) {
       const path = join(work, d.role);
-      const out = await input
+      const out = await source
         .clone()
         .resize({ width: d.size, height: d.size, fit: 'inside', withoutEnlargement: true })
         .flatten({ background: '#ffffff' })
-        .jpeg({ quality: d.quality, mozjpeg: true })
+        .jpeg({ quality: d.quality, mozjpeg: false })
         .toFile(path);
       derivatives.push({ path, mediaType: 'image/jpeg', width: out.width, height: out.height, role: d.role });
+      source = sharp(path, { failOn: 'error', sequentialRead: true });
     }
     return { original, derivatives };
   }

@@ -1,0 +1,83 @@
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { brotliCompressSync, gzipSync } from 'node:zlib';
+import request from 'supertest';
+import { createTestApp, type TestApp } from './support/test-app';
+
+// How the built web app reaches a browser: precompressed copies chosen by Accept-Encoding and
+// named in Content-Encoding (RFC 9110 §8.4, §12.5.3) with `Vary: Accept-Encoding` (§12.5.5),
+// hashed assets cached as immutable (RFC 8246), dynamic JSON compressed on the fly, and the
+// public page's lot data named in a preload link (RFC 8288 Link header; rel=preload from the
+// W3C Preload specification).
+describe('web delivery', () => {
+  let t: TestApp;
+  const script = `export const words = ${JSON.stringify('glass bead '.repeat(400))};\n`;
+
+  beforeAll(async () => {
+    const dir = join(process.env.TMPDIR ?? '/tmp', `beadroll-web-${process.pid}`);
+    mkdirSync(join(dir, 'assets'), { recursive: true });
+    writeFileSync(join(dir, 'index.html'), '<!doctype html><title>app</title>');
+    writeFileSync(join(dir, 'public.html'), '<!doctype html><title>public</title>');
+    writeFileSync(join(dir, 'assets', 'public-AbC123.js'), script);
+    writeFileSync(join(dir, 'assets', 'public-AbC123.js.br'), brotliCompressSync(script));
+    writeFileSync(join(dir, 'assets', 'public-AbC123.js.gz'), gzipSync(script));
+    t = await createTestApp({ WEB_DIST: dir });
+  });
+  afterAll(async () => {
+    await t.close();
+  });
+
+  const get = (path: string, encoding?: string) => {
+    const r = request(t.app.getHttpServer()).get(path).buffer(true);
+    if (encoding !== undefined) r.set('Accept-Encoding', encoding);
+    return r.parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+  };
+
+  it('sends the brotli copy of a hashed asset to a browser that accepts it, cached as immutable', async () => {
+    const res = await get('/assets/public-AbC123.js', 'gzip, deflate, br');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['vary']).toMatch(/Accept-Encoding/i);
+    expect(res.headers['content-type']).toMatch(/javascript/);
+    expect(res.headers['cache-control']).toMatch(/immutable/);
+    expect(res.headers['cache-control']).toMatch(/max-age=31536000/);
+    // The bytes sent are the brotli copy (supertest decodes them again for the body).
+    expect(Number(res.headers['content-length'])).toBe(brotliCompressSync(script).length);
+    expect((res.body as Buffer).toString()).toBe(script);
+  });
+
+  it('sends the gzip copy when brotli is not accepted, and the file itself when nothing is', async () => {
+    const gz = await get('/assets/public-AbC123.js', 'gzip');
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(gz.headers['vary']).toMatch(/Accept-Encoding/i);
+    const plain = await get('/assets/public-AbC123.js', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect((plain.body as Buffer).toString()).toBe(script);
+  });
+
+  it('compresses a large JSON answer for a client that asks, and not for one that does not', async () => {
+    const gz = await get('/api/docs-json', 'gzip');
+    expect(gz.status).toBe(200);
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(gz.headers['vary']).toMatch(/Accept-Encoding/i);
+    const plain = await get('/api/docs-json', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(JSON.parse((plain.body as Buffer).toString())).toHaveProperty('openapi');
+  });
+
+  it('names the lot data in a preload link on a public page, by its canonical code', async () => {
+    const link = '</api/public/lots/7K2QM9XAT>; rel=preload; as=fetch; crossorigin=anonymous';
+    const tag = await get('/L/7K2QM9XAT/ABCDEFGHJK');
+    expect(tag.status).toBe(200);
+    expect(tag.headers['link']).toBe(link);
+    expect((await get('/l/7k2q-m9xa-t')).headers['link']).toBe(link);
+    // Not a lot code (wrong check symbol, a malformed escape): the page still opens, with no preload.
+    expect((await get('/l/7K2QM9XAA')).headers['link']).toBeUndefined();
+    expect((await get('/l/%E0%A4%A')).headers['link']).toBeUndefined();
+    expect((await get('/lots')).headers['link']).toBeUndefined();
+  });
+});

@@ -1,0 +1,398 @@
+// Benchmark at scale: a ledger of ENTRIES entries over LOTS lots (default 1,000,000 over
+// 100,000), held by one demo dealer, built in bulk through core's entry builder and reducer and
+// written with PostgreSQL's COPY, next to the demo scenario, on a throw-away cluster. At 1,000
+// entries and again at the full size it prints: public lot data p50/p99 (autocannon), append
+// p50/p99 (an observation through the API, one at a time), inventory search p95 (the dealer's
+// lot list with a text query) and the full-ledger audit's entries/s and peak memory (the
+// `npm run audit` program). Targets: public data and append at full size ≤ 1.2× at 1,000;
+// search ≤ 100 ms; the audit ≥ 50,000 entries/s in flat memory.
+// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M]
+//   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
+import { spawn } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { join } from 'node:path';
+import { pipeline } from 'node:stream/promises';
+import { Readable } from 'node:stream';
+import {
+  buildEntry,
+  generateLotCode,
+  headOf,
+  reduceEntry,
+  seededRandom,
+  type RollHead,
+  type RollState,
+} from '@beadroll/core';
+import pg from 'pg';
+import { from as copyFrom } from 'pg-copy-streams';
+import { REPO } from '../../lib/app-env.ts';
+import { startBenchApp, type BenchApp } from '../lib/bench-app.ts';
+
+const arg = (name: string) => {
+  const i = process.argv.indexOf(name);
+  return i > 0 ? Number(process.argv[i + 1]) : undefined;
+};
+const ENTRIES = arg('--entries') ?? 1_000_000;
+const LOTS = arg('--lots') ?? Math.max(1, Math.round(ENTRIES / 10));
+const SMALL = 1000;
+
+interface CannonResult {
+  latency: { p50: number; p99: number };
+  requests: { average: number };
+  non2xx: number;
+  errors: number;
+}
+const autocannon = createRequire(import.meta.url)('autocannon') as (
+  o: Record<string, unknown>,
+) => Promise<CannonResult>;
+
+const COLOURS = ['amber', 'cobalt', 'white', 'green', 'red', 'black', 'yellow', 'turquoise', 'rose', 'grey'];
+const FORMS = ['loose', 'strand', 'necklace', 'piece', 'mixed'] as const;
+const WORDS = [
+  'chevron',
+  'rosetta',
+  'millefiori',
+  'feather',
+  'eye',
+  'trade',
+  'seed',
+  'lampwork',
+  'drawn',
+  'wound',
+];
+
+/** COPY text format: backslash, tab, newline and carriage return escaped. */
+const esc = (v: string | number | boolean | null) =>
+  v === null
+    ? '\\N'
+    : String(v).replace(/\\/g, '\\\\').replace(/\t/g, '\\t').replace(/\n/g, '\\n').replace(/\r/g, '\\r');
+const row = (cols: Array<string | number | boolean | null>) => `${cols.map(esc).join('\t')}\n`;
+
+async function copy(client: pg.PoolClient, sql: string, rows: Iterable<string>): Promise<void> {
+  await pipeline(Readable.from(rows), client.query(copyFrom(sql)));
+}
+
+/**
+ * Writes `lots` lots with `entries` entries in all, as the ledger would: each roll built by
+ * core's buildEntry and reduced by core's reduceEntry; lots, entries, bodies and the lot view
+ * written by COPY in batches of lots, one transaction per batch.
+ */
+async function bulkLoad(pool: pg.Pool, actor: string, startLot: number, lots: number, entries: number) {
+  const random = seededRandom(`scale-${startLot}`);
+  const perLot = Math.floor(entries / lots);
+  let extra = entries - perLot * lots;
+  const t0 = Date.UTC(2024, 0, 1);
+  const BATCH = 2000;
+  let written = 0;
+  for (let b = 0; b < lots; b += BATCH) {
+    const lotRows: string[] = [];
+    const entryRows: string[] = [];
+    const bodyRows: string[] = [];
+    const viewRows: string[] = [];
+    for (let l = b; l < Math.min(lots, b + BATCH); l++) {
+      const n = startLot + l;
+      const code = generateLotCode(random);
+      const id = randomUUID();
+      const count = perLot + (extra-- > 0 ? 1 : 0);
+      let head: RollHead | null = null;
+      let state: RollState | null = null;
+      let observations: string | null = null;
+      const colour = COLOURS[n % COLOURS.length]!;
+      const word = WORDS[Math.floor(n / COLOURS.length) % WORDS.length]!;
+      for (let seq = 0; seq < count; seq++) {
+        const time = new Date(t0 + n * 60_000 + seq * 1000).toISOString();
+        const draft =
+          seq === 0
+            ? {
+                lot: code,
+                kind: 'registered' as const,
+                body: {
+                  description: {
+                    title: `Lot ${n}: ${colour} ${word} beads`,
+                    form: FORMS[n % FORMS.length]!,
+                    count: { value: 10 + (n % 500), estimated: n % 2 === 0 },
+                    colours: [colour],
+                    baseGlass: ['opaque' as const],
+                    decoration: [],
+                    listed: n % 3 !== 0,
+                  },
+                },
+              }
+            : seq % 2 === 1
+              ? {
+                  kind: 'observed' as const,
+                  body: {
+                    observations: { hole: 'clean' as const, surface: 'worn' as const, note: `Look ${seq}.` },
+                  },
+                }
+              : { kind: 'note' as const, body: { text: `Entry ${seq} of lot ${n}, written in bulk.` } };
+        const built = buildEntry(head, { ...draft, time, actor }, { random });
+        state = reduceEntry(state, { header: built.header, hash: built.stored.hash, body: built.body });
+        head = headOf(built);
+        entryRows.push(
+          row([id, seq, built.header.kind, actor, time, built.stored.hash, built.stored.header]),
+        );
+        bodyRows.push(row([built.stored.hash, built.stored.body!]));
+        if (draft.kind === 'observed') observations = JSON.stringify(draft.body.observations);
+      }
+      const s = state!;
+      const d = s.description!;
+      lotRows.push(row([id, code, s.head.seq, s.head.hash, s.head.time, JSON.stringify(s)]));
+      viewRows.push(
+        row([
+          id,
+          code,
+          d.title,
+          d.form,
+          s.status,
+          s.holder,
+          s.listed,
+          s.attribution?.body?.origin ?? null,
+          s.remaining.value,
+          s.remaining.estimated,
+          s.dissents.length,
+          null,
+          observations,
+          s.head.seq,
+          [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' '),
+          new Date(t0 + n * 60_000).toISOString(),
+          s.head.time,
+        ]),
+      );
+      written += count;
+    }
+    const client = await pool.connect();
+    try {
+      await client.query('BEGIN');
+      await copy(
+        client,
+        'COPY "lots" ("id", "code", "head_seq", "head_hash", "head_time", "state") FROM STDIN',
+        lotRows,
+      );
+      await copy(
+        client,
+        'COPY "entries" ("lot_id", "seq", "kind", "actor", "time", "hash", "header") FROM STDIN',
+        entryRows,
+      );
+      await client.query('CREATE TEMP TABLE "bulk_bodies" ("hash" char(64), "body" text) ON COMMIT DROP');
+      await copy(client, 'COPY "bulk_bodies" ("hash", "body") FROM STDIN', bodyRows);
+      await client.query(
+        `INSERT INTO "entry_bodies" ("entry_id", "body")
+         SELECT e."id", b."body" FROM "bulk_bodies" b JOIN "entries" e ON e."hash" = b."hash"`,
+      );
+      await copy(
+        client,
+        `COPY "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
+           "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
+           "search_text", "registered_at", "updated_at") FROM STDIN`,
+        viewRows,
+      );
+      await client.query('COMMIT');
+    } catch (e) {
+      await client.query('ROLLBACK');
+      throw e;
+    } finally {
+      client.release();
+    }
+    if (lots > BATCH) process.stdout.write(`\r  ${written.toLocaleString('en')} entries written`);
+  }
+  if (lots > BATCH) process.stdout.write('\n');
+  await pool.query('ANALYZE');
+}
+
+const pct = (xs: number[], p: number) =>
+  [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(xs.length * p))]!;
+
+async function signIn(app: BenchApp): Promise<{ headers: Record<string, string>; email: string }> {
+  const dealer = app.demo.signIns.find((s) => s.role === 'dealer')!;
+  const res = await fetch(`${app.origin}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', 'x-beadroll-request': '1' },
+    body: JSON.stringify({ email: dealer.email, password: dealer.password }),
+  });
+  if (!res.ok) throw new Error(`sign-in answered ${res.status}`);
+  const cookie = res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
+  return {
+    headers: { cookie, 'x-beadroll-request': '1', 'content-type': 'application/json' },
+    email: dealer.email,
+  };
+}
+
+/**
+ * Runs the audit program and samples its peak resident memory (VmHWM). The rate is timed from
+ * its first line ("auditing N lots…"), after the program has started and connected.
+ */
+function audit(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
+  return new Promise((resolve, reject) => {
+    const started = performance.now();
+    const child = spawn('node', [join(REPO, 'packages/server/dist/audit/audit-cli.js')], {
+      cwd: REPO,
+      env: app.env,
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    let out = '';
+    let peakKb = 0;
+    let auditing = started;
+    const sample = setInterval(() => {
+      try {
+        const m = /VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${child.pid}/status`, 'utf8'));
+        if (m) peakKb = Math.max(peakKb, Number(m[1]));
+      } catch {
+        // the program has just ended
+      }
+    }, 50);
+    child.stdout!.on('data', (d: Buffer) => {
+      if (!out.includes('auditing')) auditing = performance.now();
+      out += d.toString();
+    });
+    child.on('exit', (code) => {
+      clearInterval(sample);
+      const seconds = (performance.now() - auditing) / 1000;
+      const m = /every roll intact: \d+ lots, (\d+) entries/.exec(out);
+      if (code !== 0 || !m) return reject(new Error(`the audit ended with ${code}:\n${out.slice(-2000)}`));
+      resolve({ seconds, entries: Number(m[1]), peakMb: peakKb / 1024 });
+    });
+  });
+}
+
+interface Figures {
+  entries: number;
+  publicP50: number;
+  publicP99: number;
+  appendP50: number;
+  appendP99: number;
+  searchP95: number;
+  auditRate: number;
+  auditPeakMb: number;
+}
+
+async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, string>, actor: string) {
+  const [{ n }] = (await pool.query('SELECT count(*)::int AS n FROM "entries"')).rows as Array<{ n: number }>;
+  const codes = (
+    await pool.query(
+      `SELECT "code" FROM "lot_views" WHERE "holder" = $1 AND "listed" AND "status" = 'held' ORDER BY random() LIMIT 200`,
+      [actor],
+    )
+  ).rows.map((r: { code: string }) => r.code);
+  if (codes.length === 0) throw new Error('no listed lot held by the dealer');
+  const pub = await autocannon({
+    url: `${app.origin}/api/public/lots/${codes[0]}`,
+    connections: 8,
+    duration: 5,
+  });
+  if (pub.non2xx || pub.errors) throw new Error(`public data: ${pub.non2xx} non-2xx, ${pub.errors} errors`);
+
+  const appends: number[] = [];
+  for (let i = 0; i < 100; i++) {
+    const code = codes[i % codes.length]!;
+    const t = performance.now();
+    const r = await fetch(`${app.origin}/api/lots/${code}/observations`, {
+      method: 'POST',
+      headers,
+      body: JSON.stringify({ observations: { hole: 'clean', surface: 'glossy', note: `Scale check ${i}.` } }),
+    });
+    await r.arrayBuffer();
+    if (!r.ok) throw new Error(`append answered ${r.status}`);
+    appends.push(performance.now() - t);
+  }
+
+  const searches: number[] = [];
+  for (let i = 0; i < 60; i++) {
+    const q = `${COLOURS[i % COLOURS.length]} ${WORDS[i % WORDS.length]}`;
+    const t = performance.now();
+    const r = await fetch(`${app.origin}/api/lots?mine=true&q=${encodeURIComponent(q)}`, { headers });
+    await r.arrayBuffer();
+    if (!r.ok) throw new Error(`search answered ${r.status}`);
+    searches.push(performance.now() - t);
+  }
+
+  const a = await audit(app);
+  return {
+    entries: n,
+    publicP50: pub.latency.p50,
+    publicP99: pub.latency.p99,
+    appendP50: pct(appends, 0.5),
+    appendP99: pct(appends, 0.99),
+    searchP95: pct(searches, 0.95),
+    auditRate: a.entries / a.seconds,
+    auditPeakMb: a.peakMb,
+  } satisfies Figures;
+}
+
+function show(f: Figures): string {
+  const ms = (x: number) => `${x.toFixed(1)} ms`;
+  return [
+    `  entries on the ledger   ${f.entries.toLocaleString('en')}`,
+    `  public data             p50 ${ms(f.publicP50)}  p99 ${ms(f.publicP99)}  (8 connections, 5 s)`,
+    `  append (observation)    p50 ${ms(f.appendP50)}  p99 ${ms(f.appendP99)}  (100, one at a time)`,
+    `  inventory search        p95 ${ms(f.searchP95)}  (60 text searches of the dealer's lots)`,
+    `  full audit              ${Math.round(f.auditRate).toLocaleString('en')} entries/s, peak RSS ${f.auditPeakMb.toFixed(0)} MB`,
+  ].join('\n');
+}
+
+async function main(): Promise<void> {
+  const started = performance.now();
+  console.log(
+    `scale benchmark: ${ENTRIES.toLocaleString('en')} entries over ${LOTS.toLocaleString('en')} lots`,
+  );
+  const app = await startBenchApp('bench-scale');
+  const pool = new pg.Pool({
+    host: app.env.PGHOST,
+    port: Number(app.env.PGPORT),
+    user: app.env.PGUSER,
+    password: app.env.PGPASSWORD,
+    database: app.env.PGDATABASE,
+    max: 2,
+  });
+  try {
+    const { headers, email } = await signIn(app);
+    const actor = (await pool.query('SELECT "id" FROM "accounts" WHERE "email" = $1', [email])).rows[0]!
+      .id as string;
+    const smallLots = Math.max(1, Math.round((SMALL * LOTS) / ENTRIES));
+    let t = performance.now();
+    await bulkLoad(pool, actor, 0, smallLots, SMALL);
+    console.log(`loaded ${SMALL} entries in ${((performance.now() - t) / 1000).toFixed(1)} s; measuring…`);
+    const small = await measure(app, pool, headers, actor);
+    t = performance.now();
+    await bulkLoad(pool, actor, smallLots, LOTS - smallLots, ENTRIES - SMALL);
+    const loadSeconds = (performance.now() - t) / 1000;
+    console.log(
+      `loaded ${(ENTRIES - SMALL).toLocaleString('en')} more entries in ${loadSeconds.toFixed(0)} s ` +
+        `(${Math.round((ENTRIES - SMALL) / loadSeconds).toLocaleString('en')} entries/s); measuring…`,
+    );
+    const big = await measure(app, pool, headers, actor);
+    const ok = (b: boolean) => (b ? 'met' : 'NOT met');
+    console.log('');
+    console.log(`at about ${SMALL.toLocaleString('en')} entries`);
+    console.log(show(small));
+    console.log(`at about ${ENTRIES.toLocaleString('en')} entries`);
+    console.log(show(big));
+    console.log('');
+    const r = (a: number, b: number) => a / b;
+    console.log(
+      `public data p50 full/small ${r(big.publicP50, small.publicP50).toFixed(2)}×, p99 ${r(big.publicP99, small.publicP99).toFixed(2)}× (target ≤ 1.2×) ${ok(big.publicP99 <= 1.2 * small.publicP99)}`,
+    );
+    console.log(
+      `append p50 full/small ${r(big.appendP50, small.appendP50).toFixed(2)}×, p99 ${r(big.appendP99, small.appendP99).toFixed(2)}× (target ≤ 1.2×) ${ok(big.appendP99 <= 1.2 * small.appendP99)}`,
+    );
+    console.log(`search p95 ${big.searchP95.toFixed(1)} ms (target ≤ 100 ms) ${ok(big.searchP95 <= 100)}`);
+    console.log(
+      `audit ${Math.round(big.auditRate).toLocaleString('en')} entries/s (target ≥ 50,000) ${ok(big.auditRate >= 50_000)}; ` +
+        `peak RSS ${small.auditPeakMb.toFixed(0)} MB at ${SMALL} entries, ${big.auditPeakMb.toFixed(0)} MB at full size ` +
+        `(flat: ${ok(big.auditPeakMb <= small.auditPeakMb * 1.2 + 20)})`,
+    );
+    console.log(`run time ${((performance.now() - started) / 60_000).toFixed(1)} min`);
+  } finally {
+    await pool.end();
+    await app.stop();
+  }
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});
