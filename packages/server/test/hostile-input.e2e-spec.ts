@@ -9,7 +9,7 @@ const W = { 'X-Beadroll-Request': '1' };
 const NUL = String.fromCharCode(0);
 // A high surrogate with no low surrogate after it: not a Unicode scalar value, so not text
 // (Unicode 15 §3.9 D76, D91; RFC 8785 §3.2.2.2 refuses it in canonical JSON).
-const LONE = 'a\uD83Dz@example.test';
+const LONE = 'a\uD83Dz@example.invalid';
 
 /** A JSON body nested `depth` lists deep, as raw text (JSON.stringify of it would recurse). */
 function deepJson(depth: number): string {

@@ -209,12 +209,12 @@ describe('idempotent writes', () => {
     const body = {
       role: 'dealer',
       handle: `dealer-${randomUUID().slice(0, 8)}`,
-      email: `${randomUUID().slice(0, 8)}@example.test`,
+      email: `${randomUUID().slice(0, 8)}@example.invalid`,
       password: 'a long enough password',
       displayName: 'Ivo Brannock',
       business: 'Brannock Beads',
-      town: 'Fallowmere',
-      country: 'Testland',
+      town: 'Lattimo Hythe',
+      country: 'Cullet Shires',
     };
     const one = await request(t.app.getHttpServer())
       .post('/api/auth/sign-up')

@@ -119,7 +119,7 @@ describe('writes with idempotency keys', () => {
       }),
     );
     await expect(
-      api('/api/auth/sign-in', { body: { email: 'a@example.test', password: 'secret words' } }),
+      api('/api/auth/sign-in', { body: { email: 'a@example.invalid', password: 'secret words' } }),
     ).rejects.toBeDefined();
     await expect(api('/api/account/password', { body: { password: 'secret words' } })).rejects.toBeDefined();
     expect(localStorage.getItem('beadroll.pending-writes')).toBeNull();
