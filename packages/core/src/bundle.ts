@@ -6,6 +6,7 @@ import { bodyDigest, entryHash } from './hash.js';
 import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
+import { INHERITED_SCOPE, verifyInheritedRoll } from './inherited.js';
 import { bodyIssues, isHex64 } from './validate.js';
 import type { BundleCheckpoint } from './log.js';
 import { verifyRoll, type UncheckedRule, type VerifiedEntry, type VerifyFailure } from './verify.js';
@@ -32,12 +33,17 @@ export interface BundleEntry extends StoredEntry {
 }
 
 /**
- * One roll in a bundle: `full` = every entry from seq 0; `link` = only the `split`/`combined`
- * entries another roll in the bundle links to (an unlisted ancestor), with their bodies.
+ * Scope of a roll in a bundle: `full` = every entry from seq 0; `link` = only the
+ * `split`/`combined` entries another roll in the bundle links to (an unlisted ancestor), with
+ * their bodies; `inherited` = an unlisted ancestor's link entries with the entries that travel
+ * to its descendants (see {@link verifyInheritedRoll}).
  */
+export type BundleScope = 'full' | 'link' | typeof INHERITED_SCOPE;
+
+/** One roll in a bundle (see {@link BundleScope}). */
 export interface BundleRoll {
   lot: string;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   entries: BundleEntry[];
 }
 
@@ -81,8 +87,8 @@ function rollShapeProblem(r: unknown): { reason: ReasonCode; seq: number; messag
     return { reason: 'bad-roll', seq: 0, message: 'a roll has exactly lot, scope, entries' };
   if (!isCanonicalLotCode(o.lot))
     return { reason: 'bad-lot-code', seq: 0, message: 'lot is not a canonical lot code' };
-  if (o.scope !== 'full' && o.scope !== 'link')
-    return { reason: 'bad-roll', seq: 0, message: 'scope is not full or link' };
+  if (o.scope !== 'full' && o.scope !== 'link' && o.scope !== INHERITED_SCOPE)
+    return { reason: 'bad-roll', seq: 0, message: 'scope is not full, link or inherited' };
   if (!Array.isArray(o.entries)) return { reason: 'bad-roll', seq: 0, message: 'entries is not a list' };
   for (let j = 0; j < o.entries.length; j++) {
     const e: unknown = o.entries[j];
@@ -150,7 +156,7 @@ export function parseBundleBytes(bytes: Uint8Array, maxBytes = DEFAULT_MAX_BUNDL
  */
 export interface BundleRollResult {
   lot: string | null;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   entries: number;
   ok: boolean;
   failure: VerifyFailure | null;
@@ -236,7 +242,7 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
     const shape = rollShapeProblem(item);
     const o = (item ?? {}) as Record<string, unknown>;
     const lot = isCanonicalLotCode(o.lot) ? o.lot : null;
-    const scope = o.scope === 'link' ? 'link' : 'full';
+    const scope: BundleScope = o.scope === 'link' || o.scope === INHERITED_SCOPE ? o.scope : 'full';
     const n = Array.isArray(o.entries) ? o.entries.length : 0;
     entries += n;
     const broken = (failure: VerifyFailure): void => {
@@ -258,6 +264,29 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
       continue;
     }
     const r = item as BundleRoll;
+    if (r.scope === INHERITED_SCOPE) {
+      const { failure, entries: ie } = verifyInheritedRoll(r);
+      if (failure) {
+        broken(failure);
+        continue;
+      }
+      for (const e of ie) {
+        if (e.header.kind === 'split' || e.header.kind === 'combined') {
+          linkEntries.set(`${r.lot}/${e.header.seq}`, e as LinkEntry);
+          linkScoped.set(`${r.lot}/${e.header.seq}`, e as LinkEntry);
+        } else if (e.header.kind === 'registered') firstEntries.set(r.lot, e);
+      }
+      rolls.push({
+        lot: r.lot,
+        scope: r.scope,
+        entries: n,
+        ok: true,
+        failure: null,
+        state: null,
+        unchecked: [],
+      });
+      continue;
+    }
     if (r.scope === 'link') {
       const { failure, entries: le } = verifyLinkRoll(r);
       if (failure) {
@@ -336,8 +365,12 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
         markBroken(child, 0, `registered before its parent entry ${p.lot} seq ${p.seq}`);
       else if (le.header.kind === 'split') {
         const c = (le.body as SplitBody).children.find((x) => x.lot === child);
-        const count = (reg.body as RegisteredBody).description.count;
+        // An inherited-scope registered entry may come without its body: its header facts say the count.
+        const count =
+          (reg.body as RegisteredBody | null)?.description.count ??
+          (reg.header.facts as { count?: RegisteredBody['description']['count'] } | undefined)?.count;
         if (!c) markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} does not name this lot`);
+        else if (!count) continue;
         else if (c.count.value !== count.value)
           markBroken(child, 0, `split gave ${c.count.value} beads, registered ${count.value}`);
         else if (reg.header.v >= 2 && c.count.estimated !== count.estimated)
@@ -364,7 +397,7 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
       if (!back) markBroken(le.header.lot, le.header.seq, `child ${child} does not name entry ${key}`);
     }
   }
-  // A link-scope roll holds only entries a child in the bundle names.
+  // A link-scope or inherited-scope roll holds only link entries a child in the bundle names.
   for (const [key, le] of linkScoped) {
     if (!named.has(key))
       markBroken(
@@ -385,7 +418,7 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
 export function createBundle(
   rolls: ReadonlyArray<{
     lot: string;
-    scope?: 'full' | 'link';
+    scope?: BundleScope;
     entries: ReadonlyArray<StoredEntry & { logIndex?: number | null }>;
   }>,
   checkpoints: readonly BundleCheckpoint[] = [],

@@ -174,7 +174,33 @@ export {
   verifyBundle,
   createBundle,
 } from './bundle.js';
-export type { BundleEntry, BundleRoll, Bundle, BundleRollResult, BundleVerification } from './bundle.js';
+export type {
+  BundleEntry,
+  BundleRoll,
+  BundleScope,
+  Bundle,
+  BundleRollResult,
+  BundleVerification,
+} from './bundle.js';
+export {
+  INHERITED_SCOPE,
+  INHERITED_SCOPE_KINDS,
+  verifyInheritedRoll,
+  inheritedRecord,
+  holdersBySeq,
+  attributionOnRecord,
+} from './inherited.js';
+export type {
+  InheritedRollInput,
+  InheritedBundleInput,
+  InheritedEntry,
+  LeftBy,
+  WeighedOpinion,
+  RecordSource,
+  AttributionOnRecord,
+} from './inherited.js';
+export { printedTagCode, readTagCode, checkTagCode } from './tagcode.js';
+export type { TypedTagCode, TagCodeCheck } from './tagcode.js';
 export {
   QR_ALPHANUMERIC_CHARSET,
   QR_ALPHANUMERIC_CAPACITY,

@@ -246,6 +246,8 @@ export interface OpinionBody extends BodyBase {
   rationale: string;
   /** sha256 of each cited exhibit's original. */
   exhibits: string[];
+  /** The earlier opinion (on this lot or an ancestor) whose attribution this one adopts. */
+  adopts?: ParentRef;
 }
 export interface OpinionWithdrawnBody extends BodyBase {
   opinionSeq: number;

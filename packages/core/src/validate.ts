@@ -314,9 +314,17 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
       b,
       '',
       ['nonce', 'origin', 'period', 'technique', 'qualifier', 'confidence', 'rationale', 'exhibits'],
-      ['originNote', 'decoration'],
+      ['originNote', 'decoration', 'adopts'],
     );
     if (!o) return;
+    if ('adopts' in o) {
+      const a = c.obj(o.adopts, 'adopts', ['lot', 'seq', 'hash']);
+      if (a) {
+        c.pattern(a, 'lot', 'adopts', isCanonicalLotCode, 'a canonical lot code');
+        c.int(a, 'seq', 'adopts', 0, SEQ_MAX);
+        c.pattern(a, 'hash', 'adopts', isHex64, 'an entry hash');
+      }
+    }
     c.oneOf(o, 'origin', '', ORIGINS);
     c.str(o, 'originNote', '', LIMITS.shortText, true);
     if ('period' in o) {

@@ -83,7 +83,17 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     expect(after.body.account.status).toBe('verified');
     const card = await http().get(`/api/public/dealers/${a.handle}`).expect(200);
     expect(Object.keys(card.body).sort()).toEqual(
-      ['business', 'country', 'displayName', 'handle', 'id', 'status', 'town', 'verifiedSince'].sort(),
+      [
+        'business',
+        'country',
+        'displayName',
+        'handle',
+        'id',
+        'role',
+        'status',
+        'town',
+        'verifiedSince',
+      ].sort(),
     );
     expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Zanfirico Cross' });
   });

@@ -301,7 +301,7 @@ describe('the ledger on PostgreSQL', () => {
       const bundle = (await t.app.get(BundleService).bundleFor(children[0]!))!;
       expect(bundle.rolls.map((r) => [r.lot, r.scope])).toEqual([
         [children[0], 'full'],
-        [parent.code, listed ? 'full' : 'link'],
+        [parent.code, listed ? 'full' : 'inherited'],
       ]);
       const v = verifyBundle(parseBundleText(JSON.stringify(bundle)));
       expect(v.failures).toEqual([]);

@@ -440,7 +440,7 @@ describe('splits and combinations', () => {
       expect(v.failures).toContainEqual(expect.objectContaining({ lot: kid, reason: 'bad-parent' }));
     });
 
-    it('a listed child of an unlisted lot publishes only the linking entry of its parent', async () => {
+    it('a listed child of an unlisted lot publishes only its parent’s registration header and linking entry', async () => {
       const SECRET_TITLE = 'Private lot from the Marlow attic';
       const SECRET_NOTE = 'bought with the brass box';
       const parent = await register(odile, {
@@ -462,10 +462,14 @@ describe('splits and combinations', () => {
       const bundle = parseBundle(pub.body.bundle);
       expect(bundle.rolls.map((r) => [r.lot, r.scope])).toEqual([
         [listedKid, 'full'],
-        [parent, 'link'],
+        [parent, 'inherited'],
       ]);
       const link = bundle.rolls[1]!;
-      expect(link.entries.map((e) => (JSON.parse(e.header) as EntryHeader).kind)).toEqual(['split']);
+      expect(link.entries.map((e) => (JSON.parse(e.header) as EntryHeader).kind)).toEqual([
+        'registered',
+        'split',
+      ]);
+      expect(link.entries[0]!.body).toBeNull();
       expect(pub.text).not.toContain(SECRET_TITLE);
       expect(pub.text).not.toContain(SECRET_NOTE);
       expect(verifyBundle(bundle).ok).toBe(true);
@@ -474,9 +478,9 @@ describe('splits and combinations', () => {
       // The dealer who holds the parent gets it in full in her own export.
       const own = await bundleOf(odile, listedKid);
       expect(own.rolls.find((r) => r.lot === parent)!.scope).toBe('full');
-      // Another dealer gets the link scope, like the public.
+      // Another dealer gets the inherited scope, like the public.
       const other = await bundleOf(teodor, listedKid);
-      expect(other.rolls.find((r) => r.lot === parent)!.scope).toBe('link');
+      expect(other.rolls.find((r) => r.lot === parent)!.scope).toBe('inherited');
       expect(JSON.stringify(other)).not.toContain(SECRET_TITLE);
     });
 

@@ -17,6 +17,8 @@ export interface DealerCard {
   country: string;
   verifiedSince: string;
   status: 'verified' | 'suspended' | 'former';
+  /** What the account does: a dealer, an independent assessor, or the registrar. */
+  role: 'dealer' | 'assessor' | 'registrar';
 }
 
 function toCard(a: Account): DealerCard | null {
@@ -31,6 +33,7 @@ function toCard(a: Account): DealerCard | null {
     country: a.country,
     verifiedSince: a.verifiedAt.toISOString(),
     status,
+    role: a.role,
   };
 }
 

@@ -71,3 +71,25 @@ export class PublicExhibitsController {
     sendExhibitFile(req, res, await this.exhibits.publicFile(code, seq, variant), true);
   }
 }
+
+@ApiTags('public')
+@Controller('public/lots/:code/inherited/:lot/exhibits')
+export class PublicInheritedExhibitsController {
+  constructor(private readonly exhibits: ExhibitsService) {}
+
+  @Get(':seq/:variant')
+  @Public()
+  @ApiOperation({
+    summary: 'A file of an exhibit recorded on an ancestor of a listed lot, as its public data carries it',
+  })
+  async file(
+    @Param('code') code: string,
+    @Param('lot') lot: string,
+    @Param('seq') seq: string,
+    @Param('variant') variant: string,
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
+    sendExhibitFile(req, res, await this.exhibits.inheritedFile(code, lot, seq, variant), true);
+  }
+}

@@ -10,7 +10,11 @@ import { StorageModule } from '../storage/storage.module';
 import { ExhibitEntity } from './entities/exhibit.entity';
 import { ExhibitProcessor } from './exhibit-processor';
 import { ExhibitRedactionProjector } from './exhibit-redaction.projector';
-import { ExhibitsController, PublicExhibitsController } from './exhibits.controller';
+import {
+  ExhibitsController,
+  PublicExhibitsController,
+  PublicInheritedExhibitsController,
+} from './exhibits.controller';
 import { ExhibitsService } from './exhibits.service';
 import { multerOptions, UploadGuardInterceptor } from './upload';
 
@@ -24,7 +28,7 @@ import { multerOptions, UploadGuardInterceptor } from './upload';
     TypeOrmModule.forFeature([ExhibitEntity]),
     MulterModule.registerAsync({ inject: [APP_CONFIG], useFactory: (c: AppConfig) => multerOptions(c) }),
   ],
-  controllers: [ExhibitsController, PublicExhibitsController],
+  controllers: [ExhibitsController, PublicExhibitsController, PublicInheritedExhibitsController],
   providers: [ExhibitsService, ExhibitProcessor, ExhibitRedactionProjector, UploadGuardInterceptor],
   exports: [ExhibitsService],
 })

@@ -10,6 +10,7 @@ import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { LedgerService } from '../ledger/ledger.service';
+import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService } from '../lots/lots.service';
 import { BlockedDigestsService } from '../registry/blocked-digests.service';
@@ -62,6 +63,7 @@ export class ExhibitsService {
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
     private readonly blocked: BlockedDigestsService,
+    private readonly bundles: BundleService,
   ) {
     this.processing = pLimit(config.exhibits.processingConcurrency);
   }
@@ -221,6 +223,39 @@ export class ExhibitsService {
     );
     if (listed[0]?.listed !== true) throw NOT_FOUND();
     const row = await this.row(code, seqText);
+    if (!row || row.sealed) throw NOT_FOUND();
+    return this.serve(row, variant);
+  }
+
+  /**
+   * A file of an exhibit recorded on an ancestor of a listed lot that the lot's public bundle
+   * carries (an exhibit an opinion on an unlisted ancestor cites, or any public exhibit of a
+   * listed ancestor). Anything else is the same bare 404.
+   */
+  async inheritedFile(
+    codeText: string,
+    ancestorText: string,
+    seqText: string,
+    variant: string,
+  ): Promise<ServedExhibitFile> {
+    const code = RollReaderService.canonicalCode(codeText);
+    const ancestor = RollReaderService.canonicalCode(ancestorText);
+    if (!code || !ancestor || code === ancestor || !/^[1-9]\d{0,8}$/.test(seqText)) throw NOT_FOUND();
+    const listed: Array<{ listed: boolean }> = await this.dataSource.query(
+      'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
+      [code],
+    );
+    if (listed[0]?.listed !== true) throw NOT_FOUND();
+    const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed);
+    const seq = Number(seqText);
+    const carried = bundle?.rolls
+      .find((r) => r.lot === ancestor)
+      ?.entries.some((e) => {
+        const h = JSON.parse(e.header) as { seq: number; kind: string };
+        return h.seq === seq && h.kind === 'exhibit-added' && e.body !== null;
+      });
+    if (!carried) throw NOT_FOUND();
+    const row = await this.row(ancestor, seqText);
     if (!row || row.sealed) throw NOT_FOUND();
     return this.serve(row, variant);
   }

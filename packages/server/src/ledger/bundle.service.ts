@@ -1,21 +1,37 @@
 import { Injectable } from '@nestjs/common';
-import { createBundle, type Bundle, type EntryHeader, type RollState } from '@beadroll/core';
+import {
+  createBundle,
+  INHERITED_SCOPE,
+  type Bundle,
+  type BundleScope,
+  type EntryHeader,
+  type ExhibitAddedBody,
+  type RollState,
+} from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { LogService } from '../log/log.service';
 import { RollReaderService, type StoredRollEntry } from './roll-reader.service';
 
 interface RollPart {
   lot: string;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   entries: StoredRollEntry[];
+  /** seqs of the link entries children in the bundle name (inherited scope). */
+  links?: Set<number>;
+  /** the rest of an inherited roll: its registered entry, standing opinions, cited exhibits */
+  travelling?: StoredRollEntry[];
 }
+
+/** Kinds of an unlisted ancestor's entries that may travel to its descendants. */
+const TRAVELLING_KINDS = ['registered', 'split', 'combined', 'opinion', 'exhibit-added'];
 
 /**
  * Builds export bundles: the lot's full roll first, then its ancestors — in full when
- * `fullAncestor` says so (a listed lot, by default), otherwise only the `split`/`combined`
- * entries that a child in the bundle names ('link' scope), so a child's bundle never publishes
- * an unlisted lot's history. Bundles hold no sealed salt or value: they are built only from
- * headers and bodies.
+ * `fullAncestor` says so (a listed lot, by default), otherwise in 'inherited' scope: only its
+ * `registered` header (body withheld), the `split`/`combined` entries a child in the bundle
+ * names, its standing opinions and the public exhibits they cite, so a child's bundle carries
+ * every opinion about its beads but never publishes an unlisted lot's other history. Bundles
+ * hold no sealed salt or value: they are built only from headers and bodies.
  */
 @Injectable()
 export class BundleService {
@@ -32,16 +48,19 @@ export class BundleService {
     const lot = await this.reader.findLot(code);
     if (!lot) return null;
     const parts: RollPart[] = [{ lot: code, scope: 'full', entries: await this.reader.entries(lot.id) }];
-    const linkSeqs = new Map<string, Set<number>>();
     const queue = [parts[0]!];
     while (queue.length > 0) {
       const part = queue.shift()!;
-      const first = part.entries[0];
-      if (part.scope !== 'full' || !first || first.seq !== 0) continue;
+      const first = part.scope === 'full' ? part.entries[0] : part.travelling?.[0];
+      if (!first || first.seq !== 0) continue;
       const header = JSON.parse(first.header) as EntryHeader;
       for (const p of header.parents ?? []) {
         const known = parts.find((x) => x.lot === p.lot);
         if (known?.scope === 'full') continue;
+        if (known) {
+          known.links!.add(p.seq);
+          continue;
+        }
         const rows: Array<{ id: string; state: RollState }> = await this.dataSource.query(
           'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
           [p.lot],
@@ -50,20 +69,35 @@ export class BundleService {
         if (!row) continue; // the verifier will report the missing parent
         if (fullAncestor(p.lot, row.state)) {
           const full: RollPart = { lot: p.lot, scope: 'full', entries: await this.reader.entries(row.id) };
-          if (known) parts.splice(parts.indexOf(known), 1, full);
-          else parts.push(full);
+          parts.push(full);
           queue.push(full);
           continue;
         }
-        const seqs = linkSeqs.get(p.lot) ?? new Set<number>();
-        seqs.add(p.seq);
-        linkSeqs.set(p.lot, seqs);
-        const entries = (await this.reader.entries(row.id, { kinds: ['split', 'combined'] })).filter((e) =>
-          seqs.has(e.seq),
-        );
-        if (known) known.entries = entries;
-        else parts.push({ lot: p.lot, scope: 'link', entries });
+        const standing = new Set(row.state.opinions.filter((o) => o.body).map((o) => o.seq));
+        const cited = new Set(row.state.opinions.flatMap((o) => o.body?.exhibits ?? []));
+        const travelling = (await this.reader.entries(row.id, { kinds: TRAVELLING_KINDS })).filter((e) => {
+          if (e.kind === 'opinion') return standing.has(e.seq) && e.body !== null;
+          if (e.kind !== 'exhibit-added') return true;
+          if (e.body === null) return false;
+          const b = JSON.parse(e.body) as ExhibitAddedBody;
+          return 'exhibit' in b && cited.has(b.exhibit.original.sha256);
+        });
+        const part: RollPart = {
+          lot: p.lot,
+          scope: INHERITED_SCOPE,
+          entries: [],
+          links: new Set([p.seq]),
+          travelling,
+        };
+        parts.push(part);
+        queue.push(part);
       }
+    }
+    for (const part of parts) {
+      if (part.scope !== INHERITED_SCOPE) continue;
+      part.entries = part
+        .travelling!.filter((e) => (e.kind !== 'split' && e.kind !== 'combined') || part.links!.has(e.seq))
+        .map((e) => (e.kind === 'registered' ? { ...e, body: null } : e));
     }
     const checkpoint = await this.log.bundleCheckpoint(
       parts.filter((r) => r.scope === 'full').map((r) => ({ lot: r.lot, entries: r.entries })),

@@ -1,20 +1,27 @@
-import { generateLotCode, seededRandom, type LotDescription } from '@beadroll/core';
+import { generateLotCode, seededRandom, type BodyFields, type LotDescription } from '@beadroll/core';
 import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
 import type { CombineLotsDto, SplitLotDto } from './dto/lineage-requests.dto';
 import { LedgerService } from '../ledger/ledger.service';
 import { LineageService } from './lineage.service';
 
+/** An opinion recorded on a demo lot before it is split or combined (author by handle). */
+export interface DemoLineageOpinion {
+  author: string;
+  opinion: BodyFields<'opinion'>;
+}
+
 /** The demo's split strand and combined piece (seed-demo/lineage.json). */
 export interface DemoLineage {
   split: {
     dealer: string;
     parent: LotDescription;
+    opinions?: DemoLineageOpinion[];
     children: Array<{ title: string; count: number; strandLengthMm?: number }>;
   };
   combine: {
     dealer: string;
-    parts: Array<{ description: LotDescription; take?: number }>;
+    parts: Array<{ description: LotDescription; take?: number; opinions?: DemoLineageOpinion[] }>;
     piece: Omit<LotDescription, 'count'>;
   };
 }
@@ -50,6 +57,8 @@ export async function loadDemoLineage(
   const splitter = { id: idOf(s.dealer), role: 'dealer' as const };
   if (!(await exists(parent))) {
     await ledger.register({ code: parent, actor: splitter.id, description: s.parent });
+    for (const o of s.opinions ?? [])
+      await ledger.append(parent, { kind: 'opinion', actor: idOf(o.author), body: o.opinion });
     const dto = {
       children: s.children.map((c) => ({
         description: {
@@ -69,8 +78,11 @@ export async function loadDemoLineage(
   const maker = { id: idOf(c.dealer), role: 'dealer' as const };
   if (!(await exists(piece))) {
     for (const [i, p] of c.parts.entries())
-      if (!(await exists(parts[i]!)))
+      if (!(await exists(parts[i]!))) {
         await ledger.register({ code: parts[i], actor: maker.id, description: p.description });
+        for (const o of p.opinions ?? [])
+          await ledger.append(parts[i]!, { kind: 'opinion', actor: idOf(o.author), body: o.opinion });
+      }
     const total = c.parts.reduce((sum, p) => sum + (p.take ?? p.description.count.value), 0);
     const dto = {
       parts: c.parts.map((p, i) =>

@@ -1,7 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import {
+  attributionOnRecord,
   checkTransition,
   formatLotCode,
+  inheritedRecord,
   verifyRoll,
   type Bundle,
   type LotDescription,
@@ -111,6 +113,7 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
     listed: r.listed,
     holder: r.holder,
     origin: r.origin,
+    originSource: r.origin ? 'holder' : null,
     count: { value: r.count_value, estimated: r.count_estimated },
     dissents: r.dissent_count,
     headSeq: r.head_seq,
@@ -242,7 +245,23 @@ export class LotsService {
       `SELECT v.* FROM "lot_views" v ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
       params,
     );
-    return { items: rows.map(toSummary), total, page, pageSize };
+    const items = await Promise.all(rows.map((r) => this.withRecord(toSummary(r))));
+    return { items, total, page, pageSize };
+  }
+
+  /**
+   * A row without a holder's attribution shows the attribution on record instead (an earlier
+   * holder's, or one made on a lot its beads came from), with the dissents against it, derived
+   * by core from the lot's public bundle.
+   */
+  private async withRecord(row: LotSummaryResponse): Promise<LotSummaryResponse> {
+    if (row.origin) return row;
+    const bundle = await this.bundles.bundleFor(row.code, (_lot, state) => state.listed);
+    const own = bundle ? verifyRoll(bundle.rolls[0]!.entries, { lot: row.code }) : null;
+    if (!bundle || !own?.ok) return row;
+    const r = attributionOnRecord(own.verified, own.state, inheritedRecord(bundle, row.code));
+    if (!r.record) return row;
+    return { ...row, origin: r.record.body.origin, originSource: r.source, dissents: r.dissent.length };
   }
 
   async detail(viewer: Viewer, text: string): Promise<LotDetailResponse> {
@@ -384,6 +403,7 @@ export class LotsService {
       listed: s.listed,
       holder: s.holder,
       origin: s.attribution?.body?.origin ?? null,
+      originSource: s.attribution?.body ? 'holder' : null,
       count: s.remaining,
       dissents: s.dissents.length,
       headSeq: s.head.seq,

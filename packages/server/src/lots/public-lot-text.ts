@@ -6,9 +6,10 @@ import type { PublicDealerCard } from './dto/public-lot.dto';
  * unless the code is a listed lot. PostgreSQL writes the roll's entries as JSON text, member by
  * member in the order toPublicBundle (public-lots.service) gives them (hash, header, body, logIndex), so the
  * stored strings go out without being decoded and encoded again; `to_json(text)` escapes exactly
- * the characters JSON.stringify escapes. `checkpoints` is the bundle's checkpoint list as JSON text. `cards` are the verified accounts among the roll's
- * actors in the order they first appear on it, shaped as {@link PublicDealerCard} with the same
- * status rule as DealerCardsService.
+ * the characters JSON.stringify escapes. `checkpoints` is the bundle's checkpoint list as JSON
+ * text. `cards` are the verified accounts among the roll's actors and the recipients of its
+ * transfer offers, in the order they first appear on it, shaped as {@link PublicDealerCard} with
+ * the same status rule as DealerCardsService.
  * `has_parents` says the first entry names parent lots: those need the bundle walk over ancestors.
  * Framework-free so the public-data benchmark's bare server can run the very same text.
  */
@@ -36,10 +37,16 @@ SELECT
             'country', a."country",
             'verifiedSince', to_char(a."verified_at" AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
             'status', CASE a."status" WHEN 'verified' THEN 'verified' WHEN 'suspended' THEN 'suspended'
-                      ELSE 'former' END)
+                      ELSE 'former' END,
+            'role', a."role")
           ORDER BY r."first")
-     FROM (SELECT e."actor", min(e."seq") AS "first" FROM "entries" e
-            WHERE e."lot_id" = v."lot_id" GROUP BY e."actor") r
+     FROM (SELECT x."actor", min(x."at") AS "first" FROM (
+              SELECT e."actor", 2 * e."seq" AS "at" FROM "entries" e WHERE e."lot_id" = v."lot_id"
+              UNION ALL
+              SELECT b."body"::json ->> 'recipient', 2 * e."seq" + 1
+                FROM "entries" e JOIN "entry_bodies" b ON b."entry_id" = e."id"
+               WHERE e."lot_id" = v."lot_id" AND e."kind" = 'transfer-offered') x
+            GROUP BY x."actor") r
      JOIN "accounts" a ON a."id"::text = r."actor"
      WHERE a."verified_at" IS NOT NULL) AS "cards"
 FROM "lot_views" v

@@ -5,6 +5,7 @@ import {
   type Bundle,
   type BundleCheckpoint,
   type EntryHeader,
+  type TransferOfferedBody,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { StandbyService, type ReadSource } from '../standby/standby.service';
@@ -59,6 +60,7 @@ function toPublicCard(c: DealerCard): PublicDealerCard {
     country: c.country,
     verifiedSince: c.verifiedSince,
     status: c.status,
+    role: c.role,
   };
 }
 
@@ -120,6 +122,8 @@ export class PublicLotsService {
       for (const e of r.entries) {
         const h = JSON.parse(e.header) as EntryHeader;
         if (h.actor !== SYSTEM_ACTOR) ids.add(h.actor);
+        if (h.kind === 'transfer-offered' && e.body !== null)
+          ids.add((JSON.parse(e.body) as TransferOfferedBody).recipient);
       }
     const found = await this.cards.cardsFor([...ids]);
     const cards: Record<string, PublicDealerCard> = {};

@@ -2,7 +2,10 @@ import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import {
   attributionAid,
+  inheritedRecord,
   verifyRoll,
+  type EntryHeader,
+  type ParentRef,
   type AidInput,
   type AidResult,
   type ExhibitAddedBody,
@@ -85,6 +88,7 @@ export class OpinionsService {
       });
     if (periodProblems.length) throw AppError.validation(periodProblems);
     const body = plain<Omit<OpinionBody, 'nonce'>>(dto);
+    if (body.adopts) await this.checkAdopted(me, code, body.adopts);
     const written = await this.ledger.withLots([code], async (tx) => {
       const state = tx.state(code);
       if (state.holder !== me.id && !state.listed)
@@ -205,6 +209,34 @@ export class OpinionsService {
       opinions,
       cards,
     };
+  }
+
+  /**
+   * An adopted opinion must be a standing opinion with its body on this lot's roll or on an
+   * ancestor's, as the viewer's bundle of this lot carries it (the same entries its pages show).
+   */
+  private async checkAdopted(me: Writer, code: string, ref: ParentRef): Promise<void> {
+    const bundle = await this.lots.bundle(me, code);
+    const found = bundle.rolls
+      .find((r) => r.lot === ref.lot)
+      ?.entries.find((e) => e.hash === ref.hash && e.body !== null);
+    const header = found ? (JSON.parse(found.header) as EntryHeader) : null;
+    let standing = false;
+    if (header?.kind === 'opinion' && header.seq === ref.seq) {
+      if (ref.lot === code) {
+        const own = verifyRoll(bundle.rolls[0]!.entries, { lot: code });
+        standing = own.ok && own.state.opinions.some((o) => o.seq === ref.seq && o.body !== null);
+      } else {
+        standing = inheritedRecord(bundle, code).some((i) => i.kind === 'opinion' && i.hash === ref.hash);
+      }
+    }
+    if (!standing)
+      throw AppError.validation([
+        {
+          field: 'adopts',
+          reason: 'is not a standing opinion on this lot or on a lot its beads came from',
+        },
+      ]);
   }
 
   /** Every cited exhibit must be an `exhibit-added` entry on this lot's roll, named by its original's SHA-256. */

@@ -1,4 +1,15 @@
-import { generateLotCode, seededRandom, sha256HexOfText, tagPayload, tagReference } from '@beadroll/core';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import {
+  generateLotCode,
+  printedTagCode,
+  seededRandom,
+  sha256HexOfText,
+  tagPayload,
+  tagReference,
+} from '@beadroll/core';
 import { decodeCells, mediaBoxes, rasterise } from '../../test/support/tag-raster';
 import { planTags, type TagLayoutRequest } from './tag-layout';
 import { TagPdfService, toWinAnsi, type TagItem } from './tag-pdf.service';
@@ -216,5 +227,29 @@ describe('text on tags', () => {
     expect(toWinAnsi('Perles d’Ève – café')).toBe('Perles d’Ève – café');
     expect(toWinAnsi('Čtyřlístek')).toBe('Ctyrlístek');
     expect(toWinAnsi('玻璃')).toBe('??');
+  });
+});
+
+describe('the printed code', () => {
+  it('is set in the embedded Atkinson Hyperlegible face, with the tag code’s check symbol', async () => {
+    const list = items(1);
+    const pdf = await svc.render(list, { design: 'string' }, HOST);
+    const dir = mkdtempSync(join(tmpdir(), 'beadroll-tag-text-'));
+    try {
+      const file = join(dir, 'tag.pdf');
+      writeFileSync(file, pdf);
+      // poppler's pdffonts lists each font with its embedded flag; pdftotext reads the text back.
+      const fonts = execFileSync('pdffonts', [file], { encoding: 'utf8' });
+      const rows = fonts.split('\n').slice(2).filter(Boolean);
+      expect(rows.length).toBeGreaterThan(0);
+      for (const row of rows) {
+        expect(row).toMatch(/AtkinsonHyperlegible/);
+        expect(row).toMatch(/\byes\s+yes\s+(yes|no)\s+\d+\s+\d+\s*$/); // embedded, subset
+      }
+      const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
+      expect(text).toContain(`entry 0 · ${printedTagCode(list[0]!.ref)}`);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

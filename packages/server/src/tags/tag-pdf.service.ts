@@ -1,7 +1,15 @@
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
-import { QR_QUIET_ZONE_MODULES, formatLotCode, qrVersionForAlphanumeric, tagPayload } from '@beadroll/core';
+import {
+  QR_QUIET_ZONE_MODULES,
+  formatLotCode,
+  printedTagCode,
+  qrVersionForAlphanumeric,
+  tagPayload,
+} from '@beadroll/core';
 import { AppError } from '../common/app-error';
 import { TAG_EC_LEVEL, planTags, type LabelGeometry, type TagLayoutRequest } from './tag-layout';
 
@@ -23,26 +31,39 @@ export const MAX_TAGS_PER_PDF = 500;
 const PT_PER_MM = 72 / 25.4;
 const pt = (mm: number) => mm * PT_PER_MM;
 
-// pdfkit's built-in fonts speak WinAnsi; the few non-Latin-1 characters it maps itself.
-const WIN_ANSI_EXTRA = new Set('€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ');
+/**
+ * Tags are set in Atkinson Hyperlegible, a face drawn so that look-alike characters (0 O, 1 l I,
+ * 5 S, 8 B) differ, embedded in the PDF: the Latin subset the web app ships (WOFF, which
+ * pdfkit's fontkit reads and subsets on embedding).
+ */
+const FONT_FILES = join(dirname(require.resolve('@fontsource/atkinson-hyperlegible/package.json')), 'files');
+const TAG_FONT = 'tag';
+const TAG_FONT_BOLD = 'tag-bold';
+let fonts: { regular: Buffer; bold: Buffer } | null = null;
+function tagFonts(): { regular: Buffer; bold: Buffer } {
+  fonts ??= {
+    regular: readFileSync(join(FONT_FILES, 'atkinson-hyperlegible-latin-400-normal.woff')),
+    bold: readFileSync(join(FONT_FILES, 'atkinson-hyperlegible-latin-700-normal.woff')),
+  };
+  return fonts;
+}
 
-/** Folds text to what the built-in fonts can show: accents dropped where needed, else "?". */
+// Beyond Latin-1, the Latin subset of the face holds these and the general punctuation block.
+const FONT_EXTRA = new Set('ıŒœˆ˚˜€™−');
+
+/** Folds text to what the tag face can show: accents dropped where needed, else "?". */
 export function toWinAnsi(text: string): string {
   let out = '';
   for (const ch of text.normalize('NFC')) {
     const c = ch.codePointAt(0)!;
     if (c < 0x20 || (c >= 0x7f && c < 0xa0)) out += ' ';
-    else if (c <= 0xff || WIN_ANSI_EXTRA.has(ch)) out += ch;
+    else if (c <= 0xff || FONT_EXTRA.has(ch) || (c >= 0x2000 && c <= 0x206f)) out += ch;
     else {
       const base = ch.normalize('NFD').replace(/\p{M}/gu, '');
       out += base.length > 0 && [...base].every((b) => b.codePointAt(0)! <= 0xff) ? base : '?';
     }
   }
   return out;
-}
-
-function groupRef(ref: string): string {
-  return `${ref.slice(0, 5)}-${ref.slice(5)}`;
 }
 
 /**
@@ -77,6 +98,8 @@ export class TagPdfService {
         Creator: 'Beadroll',
       },
     });
+    doc.registerFont(TAG_FONT, tagFonts().regular);
+    doc.registerFont(TAG_FONT_BOLD, tagFonts().bold);
     const chunks: Buffer[] = [];
     const done = new Promise<Buffer>((resolve, reject) => {
       doc.on('data', (c: Buffer) => chunks.push(c));
@@ -157,33 +180,33 @@ export class TagPdfService {
     let ty = y + t.y;
     doc.fillColor('#000000');
     if (g.design === 'string') {
-      ty = this.line(doc, code, tx, ty, t.w, 'Helvetica-Bold', 8, 'center');
-      for (const l of this.wrap(doc, toWinAnsi(item.title), t.w, 'Helvetica', 5.5, 2))
-        ty = this.line(doc, l, tx, ty, t.w, 'Helvetica', 5.5, 'center');
-      ty = this.line(doc, `printed ${item.printedOn}`, tx, ty, t.w, 'Helvetica', 5, 'center');
-      const refLine = `entry ${item.seq} · ${groupRef(item.ref)}`;
+      ty = this.line(doc, code, tx, ty, t.w, TAG_FONT_BOLD, 8, 'center');
+      for (const l of this.wrap(doc, toWinAnsi(item.title), t.w, TAG_FONT, 5.5, 2))
+        ty = this.line(doc, l, tx, ty, t.w, TAG_FONT, 5.5, 'center');
+      ty = this.line(doc, `printed ${item.printedOn}`, tx, ty, t.w, TAG_FONT, 5, 'center');
+      const refLine = `entry ${item.seq} · ${printedTagCode(item.ref)}`;
       this.line(
         doc,
         refLine,
         tx,
         ty,
         t.w,
-        'Helvetica',
-        this.fitSize(doc, refLine, t.w, 'Helvetica', 5, 4),
+        TAG_FONT,
+        this.fitSize(doc, refLine, t.w, TAG_FONT, 5, 4),
         'center',
       );
     } else {
       // The code as large as the flag allows (at most 9 pt), the reference under it if it fits.
-      doc.font('Helvetica-Bold').fontSize(1);
+      doc.font(TAG_FONT_BOLD).fontSize(1);
       const codeSize = Math.min(9, pt(t.w) / doc.widthOfString(code));
       const codeH = (codeSize * 1.15) / PT_PER_MM;
-      const refLine = `entry ${item.seq} · ${groupRef(item.ref)}`;
-      doc.font('Helvetica').fontSize(1);
+      const refLine = `entry ${item.seq} · ${printedTagCode(item.ref)}`;
+      doc.font(TAG_FONT).fontSize(1);
       const refSize = Math.min(5, pt(t.w) / doc.widthOfString(refLine));
       const refH = refSize >= 4 ? (refSize * 1.15) / PT_PER_MM : 0;
       let yy = y + t.y + (t.h - codeH - refH) / 2;
-      yy = this.line(doc, code, tx, yy, t.w, 'Helvetica-Bold', codeSize, 'left');
-      if (refH > 0) this.line(doc, refLine, tx, yy, t.w, 'Helvetica', refSize, 'left');
+      yy = this.line(doc, code, tx, yy, t.w, TAG_FONT_BOLD, codeSize, 'left');
+      if (refH > 0) this.line(doc, refLine, tx, yy, t.w, TAG_FONT, refSize, 'left');
     }
   }
 

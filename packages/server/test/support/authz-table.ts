@@ -111,6 +111,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   // the offline verifier page
   'GET /verify': 'public',
   'GET /verify/download': 'public',
+  'GET /api/public/lots/:code/inherited/:lot/exhibits/:seq/:variant': 'public',
   // development mailbox (only with DEV_MAILBOX, loopback only)
   'GET /dev/mailbox': 'public',
   'GET /dev/mailbox/:id': 'public',

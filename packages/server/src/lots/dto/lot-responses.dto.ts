@@ -10,7 +10,14 @@ export class LotSummaryResponse {
   @ApiProperty() status: LotStatus;
   @ApiProperty() listed: boolean;
   @ApiProperty({ description: 'account id of the holder' }) holder: string;
-  @ApiProperty({ nullable: true, description: "origin of the holder's attribution" }) origin: string | null;
+  @ApiProperty({
+    nullable: true,
+    description:
+      'origin of the attribution on record: the holder’s, else an earlier holder’s or an ancestor’s',
+  })
+  origin: string | null;
+  @ApiProperty({ nullable: true, enum: ['holder', 'earlier-holder', 'ancestor'] })
+  originSource: 'holder' | 'earlier-holder' | 'ancestor' | null;
   @ApiProperty() count: BeadCount;
   @ApiProperty() dissents: number;
   @ApiProperty() headSeq: number;

@@ -10,7 +10,7 @@ export class PublicBundleEntry {
 
 export class PublicBundleRoll {
   @ApiProperty() lot: string;
-  @ApiProperty({ enum: ['full', 'link'] }) scope: 'full' | 'link';
+  @ApiProperty({ enum: ['full', 'link', 'inherited'] }) scope: 'full' | 'link' | 'inherited';
   @ApiProperty({ type: [PublicBundleEntry] }) entries: PublicBundleEntry[];
 }
 
@@ -46,11 +46,15 @@ export class PublicDealerCard {
   @ApiProperty() country: string;
   @ApiProperty() verifiedSince: string;
   @ApiProperty({ enum: ['verified', 'suspended', 'former'] }) status: 'verified' | 'suspended' | 'former';
+  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: 'dealer' | 'assessor' | 'registrar';
 }
 
 /** What the public page of a listed lot is rendered from: the raw rolls and the dealers named on them. */
 export class PublicLotResponse {
   @ApiProperty() code: string;
   @ApiProperty({ type: PublicBundle }) bundle: PublicBundle;
-  @ApiProperty({ description: 'dealer cards by account id' }) cards: Record<string, PublicDealerCard>;
+  @ApiProperty({
+    description: 'cards by account id: every actor on the rolls, and the recipient of each transfer offer',
+  })
+  cards: Record<string, PublicDealerCard>;
 }

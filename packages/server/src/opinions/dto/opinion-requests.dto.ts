@@ -50,6 +50,24 @@ export class PeriodDto {
   approximate: boolean;
 }
 
+/** The earlier opinion an opinion adopts: an entry on this lot or on one of its ancestors. */
+export class AdoptedOpinionDto {
+  @ApiProperty({ description: 'canonical code of the lot the earlier opinion is recorded on' })
+  @IsString()
+  @Matches(/^[0-9A-HJKMNP-TV-Z]{9}$/, { message: 'must be a lot code of 9 symbols, upper case, no dashes' })
+  lot: string;
+
+  @ApiProperty({ minimum: 0 })
+  @IsInt()
+  @Min(0)
+  seq: number;
+
+  @ApiProperty({ description: 'entry hash of the earlier opinion' })
+  @IsString()
+  @Matches(/^[0-9a-f]{64}$/, { message: 'must be an entry hash (64 lower-case hex digits)' })
+  hash: string;
+}
+
 /** An attribution opinion (an `opinion` entry). */
 export class RecordOpinionDto {
   @ApiProperty({ enum: ORIGINS })
@@ -103,6 +121,13 @@ export class RecordOpinionDto {
   @ArrayUnique()
   @Matches(/^[0-9a-f]{64}$/, { each: true, message: 'each exhibit must be a SHA-256 in lower-case hex' })
   exhibits: string[];
+
+  @ApiPropertyOptional({
+    type: AdoptedOpinionDto,
+    description: 'the earlier opinion, on this lot or an ancestor, whose attribution this one adopts',
+  })
+  @NestedObject(() => AdoptedOpinionDto, { optional: true })
+  adopts?: AdoptedOpinionDto;
 }
 
 /** Withdraws one's own opinion (an `opinion-withdrawn` entry). */

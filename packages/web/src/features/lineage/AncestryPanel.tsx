@@ -45,9 +45,9 @@ export function AncestryPanel({
       {ancestry.data.truncated && <Caption1>Only the nearest lots are shown.</Caption1>}
       {inherited.length > 0 && (
         <>
-          <Subtitle2 as="h3">Inherited from parent lots</Subtitle2>
+          <Subtitle2 as="h3">Carried from the lots these beads came from</Subtitle2>
           <Caption1>
-            Recorded on the lots these beads came from, before they came here; not this lot’s own.
+            Recorded on earlier lots, not this lot’s own; they count towards this lot’s attribution on record.
           </Caption1>
           <ul className={styles.list} aria-label="Inherited evidence">
             {inherited.map((i) => (
@@ -58,8 +58,10 @@ export function AncestryPanel({
                     : `Exhibit: ${i.exhibit?.caption ?? i.exhibit?.kind ?? 'a file'}`}
                 </Body1>{' '}
                 <Caption1>
-                  recorded on parent lot <a href={href(i.lot)}>{i.displayCode}</a>,{' '}
-                  {new Date(i.time).toLocaleDateString()}
+                  recorded on lot <a href={href(i.lot)}>{i.displayCode}</a>,{' '}
+                  {new Date(i.time).toLocaleDateString()}, {i.before ? 'before' : 'after'} it was{' '}
+                  {i.left.kind === 'split' ? 'split' : 'combined'} on{' '}
+                  {new Date(i.left.time).toLocaleDateString()}
                 </Caption1>
               </li>
             ))}

@@ -1,13 +1,14 @@
 import {
   formatLotCode,
+  inheritedRecord,
   verifyBundle,
+  type BundleScope,
   type BeadCount,
   type Bundle,
   type CombinedBody,
   type EntryHeader,
   type ExhibitRef,
   type OpinionBody,
-  type OpinionWithdrawnBody,
   type RollState,
   type SplitBody,
 } from '@beadroll/core';
@@ -55,7 +56,7 @@ export function graphFromAncestry(a: Ancestry, href: (code: string) => string): 
 
 interface VerifiedRoll {
   lot: string;
-  scope: 'full' | 'link';
+  scope: BundleScope;
   state: RollState | null;
   entries: Array<{ header: EntryHeader; body: unknown }>;
 }
@@ -134,7 +135,7 @@ export function graphFromBundle(
   return { focus: code, nodes: [...nodes.values()], edges };
 }
 
-/** Evidence recorded on an ancestor before its beads came to this lot. */
+/** Evidence recorded on an ancestor of this lot (core's inherited record, opinions and exhibits). */
 export interface InheritedItem {
   lot: string;
   displayCode: string;
@@ -144,53 +145,33 @@ export interface InheritedItem {
   kind: 'opinion' | 'exhibit-added';
   opinion?: OpinionBody;
   exhibit?: ExhibitRef;
+  /** Recorded before the beads left that lot. */
+  before: boolean;
+  /** How the beads left it: split or combined, and when. */
+  left: { kind: 'split' | 'combined'; time: string };
 }
 
 /**
- * Opinions and exhibits recorded on the ancestors a verified bundle holds in full, before the
- * entry through which beads went on towards this lot; an opinion withdrawn before that entry
- * is left out. Empty when the bundle does not verify.
+ * Standing opinions and public exhibits recorded on the ancestors the verified bundle carries
+ * (in full, or an unlisted one's opinions and their cited exhibits), oldest first, each marked
+ * before or after the beads left that lot. Empty when the bundle does not verify.
  */
 export function inheritedEvidence(bundle: Bundle, code: string): InheritedItem[] {
-  const rolls = verifiedRolls(bundle);
-  if (!rolls) return [];
+  if (!verifyBundle(bundle).ok) return [];
   const out: InheritedItem[] = [];
-  const cutOff = new Map<string, number>();
-  const queue = [code];
-  const seen = new Set([code]);
-  while (queue.length > 0) {
-    const lot = queue.shift()!;
-    for (const p of rolls.get(lot)?.state?.parents ?? []) {
-      cutOff.set(p.lot, Math.max(cutOff.get(p.lot) ?? -1, p.seq));
-      if (!seen.has(p.lot)) {
-        seen.add(p.lot);
-        queue.push(p.lot);
-      }
-    }
-  }
-  for (const [lot, cut] of cutOff) {
-    const roll = rolls.get(lot);
-    if (!roll || roll.scope !== 'full') continue;
-    const before = roll.entries.filter((e) => e.header.seq < cut);
-    const withdrawn = new Set(
-      before
-        .filter((e) => e.header.kind === 'opinion-withdrawn' && e.body)
-        .map((e) => (e.body as OpinionWithdrawnBody).opinionSeq),
-    );
-    for (const e of before) {
-      if (!e.body) continue;
-      const base = {
-        lot,
-        displayCode: formatLotCode(lot),
-        seq: e.header.seq,
-        time: e.header.time,
-        actor: e.header.actor,
-      };
-      if (e.header.kind === 'opinion' && !withdrawn.has(e.header.seq))
-        out.push({ ...base, kind: 'opinion', opinion: e.body as OpinionBody });
-      const exhibit = (e.body as { exhibit?: ExhibitRef }).exhibit;
-      if (e.header.kind === 'exhibit-added' && exhibit) out.push({ ...base, kind: 'exhibit-added', exhibit });
-    }
+  for (const i of inheritedRecord(bundle, code)) {
+    if (i.kind === 'observed') continue;
+    const base = {
+      lot: i.lot,
+      displayCode: formatLotCode(i.lot),
+      seq: i.seq,
+      time: i.time,
+      actor: i.actor,
+      before: i.before,
+      left: { kind: i.left.kind, time: i.left.time },
+    };
+    if (i.kind === 'opinion') out.push({ ...base, kind: 'opinion', opinion: i.body as OpinionBody });
+    else out.push({ ...base, kind: 'exhibit-added', exhibit: (i.body as { exhibit: ExhibitRef }).exhibit });
   }
   return out.sort((a, b) => (a.time < b.time ? -1 : a.time > b.time ? 1 : 0));
 }

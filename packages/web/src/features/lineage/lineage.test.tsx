@@ -139,10 +139,13 @@ describe('ancestry from a verified bundle', () => {
     ]);
   });
 
-  it('inherits the opinion recorded before the split, not the one after', () => {
+  it('inherits the opinions recorded before the split and after it, each marked', () => {
     const { parent, a } = splitScenario();
     const items = inheritedEvidence(bundleOf([{ w: a }, { w: parent }]), a.lot);
-    expect(items).toHaveLength(1);
+    expect(items.map((i) => [i.seq, i.kind, i.before])).toEqual([
+      [1, 'opinion', true],
+      [3, 'opinion', false],
+    ]);
     expect(items[0]).toMatchObject({ lot: parent.lot, seq: 1, kind: 'opinion' });
     expect(items[0]!.opinion!.period).toEqual({ from: 1860, to: 1900, approximate: true });
   });

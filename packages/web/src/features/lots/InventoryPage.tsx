@@ -47,6 +47,13 @@ const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', '
 /** Column id → the server's sort name. */
 const SORT_OF: Record<string, ListSort> = { code: 'code', title: 'title', updatedAt: 'updated' };
 
+/** How the inventory marks an attribution on record that is not the holder's own. */
+const SOURCE_NOTE: Record<NonNullable<LotSummary['originSource']>, string> = {
+  holder: '',
+  'earlier-holder': ' (previous holder’s)',
+  ancestor: ' (from the lot it came from)',
+};
+
 const useStyles = makeStyles({
   page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
   top: {
@@ -131,7 +138,13 @@ function Cell({ row, column }: { row: LotSummary; column: string }) {
     case 'count':
       return <>{formatCount(row.count)}</>;
     case 'origin':
-      return <>{row.origin ? ORIGIN_LABEL[row.origin] : 'No attribution yet'}</>;
+      return (
+        <>
+          {row.origin
+            ? `${ORIGIN_LABEL[row.origin]}${SOURCE_NOTE[row.originSource ?? 'holder']}`
+            : 'No attribution yet'}
+        </>
+      );
     case 'status':
       return <>{STATUS_LABEL[row.status]}</>;
     case 'listed':
@@ -395,7 +408,9 @@ export function InventoryPage() {
                     </Text>
                     <Text size={200}>
                       {r.form ? FORM_LABEL[r.form] : '—'} · {formatCount(r.count)} beads ·{' '}
-                      {r.origin ? ORIGIN_LABEL[r.origin] : 'no attribution yet'}
+                      {r.origin
+                        ? `${ORIGIN_LABEL[r.origin]}${SOURCE_NOTE[r.originSource ?? 'holder']}`
+                        : 'no attribution yet'}
                     </Text>
                     <Text size={200} className={styles.sub}>
                       {STATUS_LABEL[r.status]} · {r.listed ? 'listed' : 'unlisted'} · last entry{' '}

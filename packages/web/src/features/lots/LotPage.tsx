@@ -17,6 +17,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Fragment, useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
+import { OnRecordPanel } from '../opinions/OnRecordPanel';
 import { useSession, type Me } from '../accounts/accounts.api';
 import {
   BASE_GLASS_LABEL,
@@ -276,6 +277,13 @@ export function LotPage() {
       <Verification result={result} />
       {ctx ? <ActionBar ctx={ctx} /> : null}
       {state ? <Summary state={state} /> : null}
+      {ctx ? (
+        <OnRecordPanel
+          code={ctx.code}
+          holder={ctx.state.holder}
+          viewer={{ id: account.id, canWrite: account.status === 'verified' }}
+        />
+      ) : null}
       {result.ok ? (
         <SafetyCautions cautions={recordCautions(result.verified)} label="Handling cautions" />
       ) : null}

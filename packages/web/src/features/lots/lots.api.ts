@@ -21,7 +21,10 @@ export interface LotSummary {
   status: LotStatus;
   listed: boolean;
   holder: string;
+  /** Origin of the attribution on record: the holder's, else an earlier holder's or an ancestor's. */
   origin: Origin | null;
+  /** Whose attribution `origin` is; absent from older servers (the holder's). */
+  originSource?: 'holder' | 'earlier-holder' | 'ancestor' | null;
   count: BeadCount;
   dissents: number;
   headSeq: number;

@@ -120,13 +120,13 @@ export function ConsensusChart({
       </svg>
       <figcaption className="pl-chart-legend">
         <span>
-          <i className="pl-key pl-key-attribution" aria-hidden="true" /> holder’s attribution
+          <i className="pl-key pl-key-attribution" aria-hidden="true" /> attribution on record
         </span>
         <span>
           <i className="pl-key pl-key-dissent" aria-hidden="true" /> dissent
         </span>
         <span>
-          <i className="pl-key pl-key-other" aria-hidden="true" /> other opinion
+          <i className="pl-key pl-key-other" aria-hidden="true" /> agrees or other
         </span>
         <span>dashed edge: approximate years</span>
       </figcaption>
@@ -135,5 +135,5 @@ export function ConsensusChart({
 }
 
 export function roleWords(role: OpinionRole): string {
-  return role === 'attribution' ? 'Holder’s attribution' : role === 'dissent' ? 'Dissent' : 'Opinion';
+  return role === 'attribution' ? 'Attribution on record' : role === 'dissent' ? 'Dissent' : 'Opinion';
 }

@@ -1,4 +1,5 @@
 import {
+  formatLotCode,
   sha256HexOfBytes,
   uvCaution,
   type ExhibitAddedBody,
@@ -8,7 +9,12 @@ import {
 } from '@beadroll/core';
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { exhibitBytesQuery, type DealerCard, type ExhibitVariant } from './public-lot.api';
+import {
+  exhibitBytesQuery,
+  type DealerCard,
+  type ExhibitSource,
+  type ExhibitVariant,
+} from './public-lot.api';
 import { nameOf } from './timeline';
 import { dateWords, EXHIBIT_WORDS } from './words';
 
@@ -18,6 +24,8 @@ export interface ShownExhibit {
   time: string;
   actor: string;
   exhibit: ExhibitRef;
+  /** Set for an exhibit recorded on an ancestor lot. */
+  from?: ExhibitSource;
 }
 
 /** Public exhibits of the verified entries, oldest first. */
@@ -64,14 +72,29 @@ export function Gallery({
       <p className="pl-hint">
         Each image is shown only after this browser has checked it against the fingerprint on the roll.
       </p>
-      <ul className="pl-gallery-list">
-        {exhibits.map((x, i) => (
-          <li key={x.seq}>
-            <ExhibitFigure code={code} item={x} index={i + 1} cards={cards} />
-          </li>
-        ))}
-      </ul>
+      <ExhibitList code={code} exhibits={exhibits} cards={cards} />
     </section>
+  );
+}
+
+/** Exhibits as checked figures, without a section around them. */
+export function ExhibitList({
+  code,
+  exhibits,
+  cards,
+}: {
+  code: string;
+  exhibits: ShownExhibit[];
+  cards: Record<string, DealerCard>;
+}) {
+  return (
+    <ul className="pl-gallery-list">
+      {exhibits.map((x, i) => (
+        <li key={`${x.from?.lot ?? code}/${x.seq}`}>
+          <ExhibitFigure code={code} item={x} index={i + 1} cards={cards} />
+        </li>
+      ))}
+    </ul>
   );
 }
 
@@ -92,7 +115,14 @@ function ExhibitFigure({
   return (
     <figure className="pl-figure">
       {shown ? (
-        <CheckedImage code={code} seq={item.seq} variant={shown.variant} file={shown.file} alt={label} />
+        <CheckedImage
+          code={code}
+          seq={item.seq}
+          variant={shown.variant}
+          file={shown.file}
+          alt={label}
+          from={item.from}
+        />
       ) : (
         <div className="pl-figure-frame pl-figure-note">
           A {EXHIBIT_WORDS[exhibit.kind]} ({exhibit.original.mediaType}) that this page does not display.
@@ -103,6 +133,7 @@ function ExhibitFigure({
         <span className="pl-figure-meta">
           {EXHIBIT_WORDS[exhibit.kind]} · added by {nameOf(cards, item.actor)} · {dateWords(item.time)} ·
           entry {item.seq}
+          {item.from && item.from.lot !== code ? ` of lot ${formatLotCode(item.from.lot)}` : ''}
         </span>
         {exhibit.kind === 'uv-a' && (
           <span className="pl-caution">
@@ -122,14 +153,16 @@ function CheckedImage({
   variant,
   file,
   alt,
+  from,
 }: {
   code: string;
   seq: number;
   variant: ExhibitVariant;
   file: ExhibitFile;
   alt: string;
+  from?: ExhibitSource;
 }) {
-  const q = useQuery(exhibitBytesQuery(code, seq, variant));
+  const q = useQuery(exhibitBytesQuery(code, seq, variant, from));
   const bytes = q.data ?? null;
   const matches = useMemo(
     () => (bytes ? sha256HexOfBytes(bytes) === file.sha256 : false),

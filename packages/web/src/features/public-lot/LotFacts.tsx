@@ -1,5 +1,6 @@
 import type { RollState } from '@beadroll/core';
 import type { DealerCard } from './public-lot.api';
+import { nameOf } from './timeline';
 import {
   BASE_GLASS_WORDS,
   countWords,
@@ -34,7 +35,15 @@ export function HolderCard({ state, cards }: { state: RollState; cards: Record<s
         <p>The registry has no dealer card for this account.</p>
       )}
       <p className="pl-registry-note">Reported by the registry; not part of the checked history.</p>
-      {state.status === 'offered' && <p>An offer to another dealer is open.</p>}
+      {state.status === 'offered' && (
+        <p>
+          An offer to{' '}
+          {state.openOffer?.recipient && cards[state.openOffer.recipient]
+            ? nameOf(cards, state.openOffer.recipient)
+            : 'another dealer'}{' '}
+          is open.
+        </p>
+      )}
       {state.status === 'sold' && (
         <p>Sold to a private buyer{state.soldOn ? ` on ${dateWords(state.soldOn)}` : ''}.</p>
       )}

@@ -9,8 +9,10 @@ import { brandVars } from './brand-vars';
 import { checkLot, checkTag, type LotCheck } from './check-lot';
 import { exhibitsOf, Gallery } from './Gallery';
 import { HandlingCautions } from './HandlingCautions';
+import { Inherited, ObservationSummary, observationRecords } from './Inherited';
 import { HolderCard, LotFacts } from './LotFacts';
 import { NotFound } from './NotFound';
+import { OnRecord } from './OnRecord';
 import { Opinions } from './Opinions';
 import { publicLotQuery, type DealerCard } from './public-lot.api';
 import { parsePublicPath } from './route';
@@ -71,6 +73,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
           <p className="pl-code">Lot {formatLotCode(code)}</p>
           <h1>{title ?? (check && !check.ok ? 'History that does not check out' : 'Lot history')}</h1>
           {check?.ok && <Subtitle state={check.state} />}
+          {check?.ok && <OnRecord record={check.record} cards={cards} inherited={check.inherited} />}
         </div>
         <div className="pl-side">
           <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
@@ -136,10 +139,21 @@ function Body({
   return (
     <div className="pl-body">
       <div className="pl-col">
-        <Opinions state={check.state} cards={cards} />
+        <Opinions state={check.state} record={check.record} inherited={check.inherited} cards={cards} />
+        <Inherited code={check.code} inherited={check.inherited} ancestors={check.ancestors} cards={cards} />
         <Ancestry state={check.state} ancestors={check.ancestors} />
       </div>
       <div className="pl-col">
+        {observationRecords(check.entries).length > 0 && (
+          <section className="pl-section" aria-labelledby="pl-obs-now">
+            <ObservationSummary
+              records={observationRecords(check.entries)}
+              cards={cards}
+              heading="What the holder records now"
+              id="pl-obs-now"
+            />
+          </section>
+        )}
         <Timeline items={items} tagSeq={tagSeq} />
       </div>
       <VerifyYourself code={check.code} head={check.state.head} />

@@ -1,6 +1,6 @@
 import { useId, useState, type FormEvent } from 'react';
 import { dateWords, BREAK_WORDS } from './words';
-import { checkTag, readTypedTag, type LotCheck, type TagCheck } from './check-lot';
+import { checkTag, type LotCheck, type TagCheck } from './check-lot';
 import { formatLotCode } from '@beadroll/core';
 
 /** The verification status, announced to screen readers whenever it changes. */
@@ -114,6 +114,18 @@ function TagLine({ tag, broken, typed }: { tag: TagCheck; broken: boolean; typed
       </p>
     );
   }
+  if (tag.state === 'typing-error') {
+    return (
+      <p className="pl-status-line pl-warn">
+        <span aria-hidden="true" className="pl-mark">
+          !
+        </span>{' '}
+        {typed
+          ? 'This code has a typing error; compare it with the tag again.'
+          : 'The code in this address has a typing error; compare it with the tag again.'}
+      </p>
+    );
+  }
   if (tag.state === 'unreadable') {
     return (
       <p className="pl-status-line pl-warn">
@@ -142,19 +154,20 @@ function TagBox({ check, onCheck }: { check: LotCheck; onCheck: (text: string, r
   const [error, setError] = useState<string | null>(null);
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    const read = readTypedTag(text);
-    if (!read) {
-      setError('Type the 10 letters and digits printed on the tag, for example ABCDE-FGHJK.');
+    const result = checkTag(check.entries, text);
+    if (result.state === 'unreadable') {
+      setError('Type the code printed on the tag, for example ABCDE-FGHJK-X (older tags: ABCDE-FGHJK).');
       return;
     }
     setError(null);
-    onCheck(text, checkTag(check.entries, read.ref, read.seq));
+    onCheck(text, result);
   };
   return (
     <form className="pl-tagbox" onSubmit={submit} noValidate>
       <label htmlFor={`${id}-in`}>Check the code printed on the tag</label>
       <p id={`${id}-hint`} className="pl-hint">
-        It is printed under the QR code, like <span className="pl-nowrap">entry 12 · ABCDE-FGHJK</span>.
+        It is printed beside the QR code, like <span className="pl-nowrap">entry 12 · ABCDE-FGHJK-X</span>.
+        Letter case, spaces and dashes do not matter.
       </p>
       <div className="pl-tagbox-row">
         <input

@@ -1,18 +1,23 @@
 // Everything the page shows is derived here from core's verifier and reducer over the raw
 // bundle the server sent; nothing is taken from a server summary.
 import {
+  attributionOnRecord,
+  checkTagCode,
   decodeHeader,
-  findEntriesByTagReference,
+  inheritedRecord,
   isHeaderProblem,
   parseBundle,
-  parseTagReference,
+  readTagCode,
   verifyBundle,
   verifyRoll,
+  type AttributionOnRecord,
   type Bundle,
   type BundleRoll,
+  type InheritedEntry,
   type UncheckedRule,
   type ReasonCode,
   type RollState,
+  type TagCodeCheck,
   type VerifiedEntry,
 } from '@beadroll/core';
 
@@ -45,6 +50,10 @@ export type LotCheck =
       entries: VerifiedEntry[];
       state: RollState;
       ancestors: AncestorView[];
+      /** Opinions, observations and exhibits recorded on the ancestors, each verified. */
+      inherited: InheritedEntry[];
+      /** The attribution on record and the opinions that agree or dissent with it. */
+      record: AttributionOnRecord;
       /** Entries checked across the whole bundle (this roll and its ancestors). */
       bundleEntries: number;
       /**
@@ -113,12 +122,15 @@ export function checkLot(code: string, raw: unknown): LotCheck {
       roll,
     );
   }
+  const inherited = inheritedRecord(bundle, code);
   return {
     ok: true,
     code,
     entries: own.verified,
     state: own.state,
     ancestors: ancestorsOf(code, own.state, bundle, all.rolls),
+    inherited,
+    record: attributionOnRecord(own.verified, own.state, inherited),
     bundleEntries: all.entries,
     unchecked: all.rolls.flatMap((r) => r.unchecked),
   };
@@ -182,41 +194,13 @@ function linkKind(r: BundleRoll | undefined, seq: number): 'split' | 'combined' 
   return 'split';
 }
 
-/** What the printed tag promised, checked against the verified entries. */
-export type TagCheck =
-  { state: 'matches'; seq: number; since: number } | { state: 'absent' } | { state: 'unreadable' };
+/** What the printed tag promised, checked against the verified entries (core's reading rules). */
+export type TagCheck = TagCodeCheck;
 
 /**
- * Looks for the entry whose tag reference is `ref` among the verified entries; when the tag
- * also gives its seq, that entry must be the one at that seq.
+ * Checks a tag code — from the page's address or typed from the tag, with or without its check
+ * symbol and entry number — against the verified entries.
  */
-export function checkTag(entries: VerifiedEntry[], ref: string, seq?: number): TagCheck {
-  let want: string;
-  try {
-    want = parseTagReference(ref);
-  } catch {
-    return { state: 'unreadable' };
-  }
-  const hits = findEntriesByTagReference(entries, want).filter(
-    (e) => seq === undefined || e.header.seq === seq,
-  );
-  if (hits.length === 0) return { state: 'absent' };
-  const at = hits[hits.length - 1]!.header.seq;
-  return { state: 'matches', seq: at, since: entries.length - 1 - at };
-}
-
-/**
- * Reads what a buyer types from a tag: the reference alone (`ABCDE-FGHJK`) or with its entry
- * number as printed (`entry 12 · ABCDE-FGHJK`).
- */
-export function readTypedTag(text: string): { ref: string; seq?: number } | null {
-  const t = text.trim();
-  const m = /^(?:entry\s*)?(\d+)\s*[·.:,\s]\s*([0-9a-z-]{10,11})$/i.exec(t);
-  const refText = m ? m[2]! : t;
-  try {
-    const ref = parseTagReference(refText);
-    return m ? { ref, seq: Number(m[1]) } : { ref };
-  } catch {
-    return null;
-  }
+export function checkTag(entries: VerifiedEntry[], text: string): TagCheck {
+  return checkTagCode(entries, readTagCode(text));
 }

@@ -10,7 +10,13 @@ export const DEALER_A = 'acct-3f9c1a';
 export const DEALER_B = 'acct-7b20e4';
 export const ASSESSOR = 'acct-a51d09';
 
-const card = (id: string, displayName: string, business: string, town: string): DealerCard => ({
+const card = (
+  id: string,
+  displayName: string,
+  business: string,
+  town: string,
+  role: DealerCard['role'] = 'dealer',
+): DealerCard => ({
   id,
   handle: displayName.toLowerCase().replace(/\W+/g, '-'),
   displayName,
@@ -19,12 +25,13 @@ const card = (id: string, displayName: string, business: string, town: string): 
   country: 'Invented Shires',
   verifiedSince: '2024-11-02T09:00:00.000Z',
   status: 'verified',
+  role,
 });
 
 export const CARDS: Record<string, DealerCard> = {
   [DEALER_A]: card(DEALER_A, 'Ines Varro', 'Varro Old Glass', 'Larkmoor'),
   [DEALER_B]: card(DEALER_B, 'Osric Pell', 'Pell & Daughter Beads', 'Sommerso Bridge'),
-  [ASSESSOR]: card(ASSESSOR, 'Wren Abelard', 'Abelard Bead Studies', 'Fennick'),
+  [ASSESSOR]: card(ASSESSOR, 'Wren Abelard', 'Abelard Bead Studies', 'Fennick', 'assessor'),
 };
 
 /** The example bundle: [transfer lot, dissent lot, split parent, child 1, child 2, child 3]. */

@@ -12,6 +12,8 @@ export interface DealerCard {
   country: string | null;
   verifiedSince: string | null;
   status: 'verified' | 'suspended' | 'former';
+  /** What the account does; absent in data from older servers. */
+  role?: 'dealer' | 'assessor' | 'registrar';
 }
 
 /** The public data of a listed lot: its bundle (roll first, then ancestors) and the cards of its actors. */
@@ -28,6 +30,22 @@ export const publicLotPath = (code: string) => `/api/public/lots/${encodeURIComp
 export const publicBundlePath = (code: string) => `${publicLotPath(code)}/bundle`;
 export const exhibitPath = (code: string, seq: number, variant: ExhibitVariant) =>
   `${publicLotPath(code)}/exhibits/${seq}/${variant}`;
+
+/** Where an exhibit recorded on an ancestor of the lot `code` is fetched. */
+export interface ExhibitSource {
+  /** The ancestor lot the exhibit is recorded on. */
+  lot: string;
+  /** true: the ancestor is listed and serves its own exhibits. */
+  listed: boolean;
+}
+
+/** The address of an exhibit file: on the lot itself, or on an ancestor as the lot's public data carries it. */
+export const exhibitFilePath = (code: string, seq: number, variant: ExhibitVariant, from?: ExhibitSource) =>
+  !from || from.lot === code
+    ? exhibitPath(code, seq, variant)
+    : from.listed
+      ? exhibitPath(from.lot, seq, variant)
+      : `${publicLotPath(code)}/inherited/${encodeURIComponent(from.lot)}/exhibits/${seq}/${variant}`;
 
 /** The file variants the server keeps of an exhibit. */
 export type ExhibitVariant = 'original' | 'web' | 'thumb';
@@ -51,11 +69,14 @@ export const publicLotQuery = (code: string) =>
   });
 
 /** The bytes of one exhibit file, for the page to check against its recorded SHA-256. */
-export const exhibitBytesQuery = (code: string, seq: number, variant: ExhibitVariant) =>
+export const exhibitBytesQuery = (code: string, seq: number, variant: ExhibitVariant, from?: ExhibitSource) =>
   queryOptions({
-    queryKey: ['public-lots', 'exhibit', code, seq, variant],
+    queryKey: ['public-lots', 'exhibit', code, seq, variant, from?.lot ?? code],
     queryFn: async ({ signal }): Promise<Uint8Array | null> => {
-      const res = await fetch(exhibitPath(code, seq, variant), { signal, credentials: 'same-origin' });
+      const res = await fetch(exhibitFilePath(code, seq, variant, from), {
+        signal,
+        credentials: 'same-origin',
+      });
       if (res.status === 404) return null;
       if (!res.ok) throw new ApiError(res.status, 'http_error', `The server answered ${res.status}.`);
       return new Uint8Array(await res.arrayBuffer());

@@ -2,7 +2,7 @@ import { beadrollBrand } from '../../app/brand';
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { readTypedTag } from './check-lot';
+import { readTagCode } from '@beadroll/core';
 import { tickStep, yearAxis } from './ConsensusChart';
 import { parsePublicPath } from './route';
 import { countWords, lengthWords, periodWords, yearWords } from './words';
@@ -64,10 +64,15 @@ describe('public addresses', () => {
     expect(parsePublicPath('/l/7K2QM9XAT/a/b')).toBeNull();
   });
   it('reads a typed tag as printed, with or without its entry number', () => {
-    expect(readTypedTag('AVV5E-N5TQ3')).toEqual({ ref: 'AVV5EN5TQ3' });
-    expect(readTypedTag(' entry 12 · avv5e-n5tq3 ')).toEqual({ ref: 'AVV5EN5TQ3', seq: 12 });
-    expect(readTypedTag('12 AVV5EN5TQ3')).toEqual({ ref: 'AVV5EN5TQ3', seq: 12 });
-    expect(readTypedTag('AVV5E')).toBeNull();
+    expect(readTagCode('AVV5E-N5TQ3')).toEqual({ ok: true, ref: 'AVV5EN5TQ3', checked: false });
+    expect(readTagCode(' entry 12 · avv5e-n5tq3-d ')).toEqual({
+      ok: true,
+      ref: 'AVV5EN5TQ3',
+      checked: true,
+      seq: 12,
+    });
+    expect(readTagCode('12 AVV5EN5TQ3')).toMatchObject({ ok: true, ref: 'AVV5EN5TQ3', seq: 12 });
+    expect(readTagCode('AVV5E')).toMatchObject({ ok: false, problem: 'length' });
   });
 });
 

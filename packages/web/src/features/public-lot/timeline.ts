@@ -65,6 +65,7 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
     if (e.header.kind === 'redacted' && e.body) removedBy.set((e.body as RedactedBody).target, e);
   const offers = new Map<number, { offerer: string; recipient: string | null }>();
   let holder: string | null = null;
+  let listed: boolean | null = null;
   return entries.map((e) => {
     const h = e.header;
     const who = nameOf(cards, h.actor);
@@ -86,6 +87,7 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
     switch (h.kind) {
       case 'registered': {
         holder = h.actor;
+        listed = (body as { description?: { listed: boolean } } | null)?.description?.listed ?? null;
         item.text = h.parents?.length
           ? `Registered by ${who}, made from ${h.parents.length === 1 ? 'another lot' : `${h.parents.length} other lots`}.`
           : `Registered by ${who}.`;
@@ -95,9 +97,14 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
       }
       case 'described': {
         const d = (body as DescribedBody | null)?.description;
-        item.text = d
-          ? `Description updated by ${who}: “${d.title}”, ${countWords(d.count)}${d.listed ? '' : ', no longer listed'}.`
-          : `Description updated by ${who}.`;
+        const change = d && listed !== null && d.listed !== listed ? d.listed : null;
+        if (change === true) item.text = `Listed publicly by ${who}: “${d!.title}”, ${countWords(d!.count)}.`;
+        else if (change === false) item.text = `Made private by ${who}: the lot no longer has a public page.`;
+        else
+          item.text = d
+            ? `Description updated by ${who}: “${d.title}”, ${countWords(d.count)}.`
+            : `Description updated by ${who}.`;
+        listed = d ? d.listed : null;
         break;
       }
       case 'observed': {
