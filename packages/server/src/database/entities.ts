@@ -5,6 +5,7 @@ import { EntryBodyEntity } from '../ledger/entities/entry-body.entity';
 import { EntryEntity } from '../ledger/entities/entry.entity';
 import { LotEntity } from '../ledger/entities/lot.entity';
 import { SealedFieldEntity } from '../ledger/entities/sealed-field.entity';
+import { LotPrivateSearchEntity } from '../lots/entities/lot-private-search.entity';
 import { LotViewEntity } from '../lots/entities/lot-view.entity';
 import { SaleEntity } from '../transfers/entities/sale.entity';
 import { TransferInvitationEntity } from '../transfers/entities/transfer-invitation.entity';
@@ -26,6 +27,7 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   EntryBodyEntity,
   SealedFieldEntity,
   LotViewEntity,
+  LotPrivateSearchEntity,
   TransferOfferEntity,
   SaleEntity,
   TransferInvitationEntity,

@@ -5,6 +5,7 @@ import { CreateTransfers1796159943028 } from '../migrations/1796159943028-Create
 import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-CreateRegistrarTools';
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
+import { InventorySearch1796184000000 } from '../migrations/1796184000000-InventorySearch';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -14,4 +15,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateExhibits1796160000000,
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
+  InventorySearch1796184000000,
 ];

@@ -85,14 +85,18 @@ export class RollReaderService {
   }
 
   /** The sealed fields of a lot's entries that `viewer` may read (none for anyone else). */
-  async sealedFor(lotId: string, viewer: string): Promise<ViewerSealedField[]> {
+  async sealedFor(
+    lotId: string,
+    viewer: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<ViewerSealedField[]> {
     const rows: Array<{
       seq: number;
       name: SealedFieldName;
       salt: string;
       value: string;
       commitment: string;
-    }> = await this.dataSource.query(
+    }> = await manager.query(
       `SELECT e."seq", s."name", s."salt", s."value", s."commitment"
          FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
          WHERE e."lot_id" = $1 AND $2 = ANY(s."visible_to") ORDER BY e."seq", s."name"`,

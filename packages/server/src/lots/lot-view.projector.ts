@@ -3,11 +3,19 @@ import type { ObservedBody, Observations, RedactedBody } from '@beadroll/core';
 import type { EntityManager } from 'typeorm';
 import { LedgerService } from '../ledger/ledger.service';
 import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { attributionOnRecord, attributionWords, decorationWords } from './attribution-on-record';
+
+/** Entry kinds that may seal a storage place (a registration or a new description). */
+const STORAGE_KINDS = new Set(['registered', 'described']);
 
 /** Keeps `lot_views` in step with each roll, inside the append transaction. */
 @Injectable()
 export class LotViewProjector implements RollProjector, OnModuleInit {
-  constructor(private readonly ledger: LedgerService) {}
+  constructor(
+    private readonly ledger: LedgerService,
+    private readonly reader: RollReaderService,
+  ) {}
 
   onModuleInit(): void {
     this.ledger.addProjector(this);
@@ -34,19 +42,27 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
       );
       observations = rows[0]?.observations ?? null;
     }
-    const searchText = d
-      ? [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' ')
-      : '';
-    const origin = s.attribution?.body?.origin ?? null;
+    const attribution = attributionOnRecord(s);
+    const searchText = [
+      d?.title,
+      d?.summary,
+      d?.colours.join(' '),
+      d ? decorationWords(d.decoration) : '',
+      d?.decorationNote,
+      d?.condition,
+      attributionWords(attribution),
+    ]
+      .filter(Boolean)
+      .join(' ');
     await m.query(
       `INSERT INTO "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
          "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
-         "search_text", "registered_at", "updated_at")
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $16)
+         "search_text", "registered_at", "updated_at", "technique", "period_from", "period_to")
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $16, $17, $18, $19)
        ON CONFLICT ("lot_id") DO UPDATE SET "title" = $3, "form" = $4, "status" = $5, "holder" = $6,
          "listed" = $7, "origin" = $8, "count_value" = $9, "count_estimated" = $10, "dissent_count" = $11,
          "offer_recipient" = $12, "observations" = $13, "head_seq" = $14, "search_text" = $15,
-         "updated_at" = $16`,
+         "updated_at" = $16, "technique" = $17, "period_from" = $18, "period_to" = $19`,
       [
         lotId,
         s.lot,
@@ -55,7 +71,7 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
         s.status,
         s.holder,
         s.listed,
-        origin,
+        attribution?.origin ?? null,
         s.remaining.value,
         s.remaining.estimated,
         s.dissents.length,
@@ -64,7 +80,30 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
         s.head.seq,
         searchText,
         entry.time,
+        attribution?.technique ?? null,
+        attribution?.period.from ?? null,
+        attribution?.period.to ?? null,
       ],
     );
+    if (STORAGE_KINDS.has(entry.kind)) await this.projectStorage(m, lotId, entry.actor);
+  }
+
+  /** The writer's newest sealed storage place, as words only their own searches match. */
+  private async projectStorage(m: EntityManager, lotId: string, actor: string): Promise<void> {
+    const place = (await this.reader.sealedFor(lotId, actor, m))
+      .filter((f) => f.name === 'storage-location')
+      .pop()?.value;
+    if (typeof place === 'string' && place.trim()) {
+      await m.query(
+        `INSERT INTO "lot_private_search" ("lot_id", "account_id", "search_text") VALUES ($1, $2, $3)
+         ON CONFLICT ("lot_id", "account_id") DO UPDATE SET "search_text" = $3`,
+        [lotId, actor, place],
+      );
+    } else {
+      await m.query('DELETE FROM "lot_private_search" WHERE "lot_id" = $1 AND "account_id" = $2', [
+        lotId,
+        actor,
+      ]);
+    }
   }
 }

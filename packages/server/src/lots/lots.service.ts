@@ -15,6 +15,7 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { attributionOnRecord } from './attribution-on-record';
 import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
 import type {
   LotDetailResponse,
@@ -54,6 +55,9 @@ interface LotViewRow {
   holder: string;
   listed: boolean;
   origin: string | null;
+  technique: string | null;
+  period_from: number | null;
+  period_to: number | null;
   count_value: number;
   count_estimated: boolean;
   dissent_count: number;
@@ -80,7 +84,36 @@ const SORT_COLUMNS: Record<NonNullable<ListLotsQueryDto['sort']>, string> = {
   updated: 'v."updated_at"',
   title: 'lower(v."title")',
   code: 'v."code"',
+  form: 'v."form"',
+  count: 'v."count_value"',
+  origin: 'v."origin"',
+  period: 'v."period_from"',
+  technique: 'v."technique"',
+  status: 'v."status"',
+  listed: 'v."listed"',
 };
+
+/**
+ * The words of a search as a prefix-matching tsquery text (`word:* & word:*`), or null. Only
+ * letters and digits survive, so nothing typed can change the query's syntax.
+ */
+export function searchQueryText(text: string): string | null {
+  const words = text
+    .normalize('NFC')
+    .split(/[^\p{L}\p{N}]+/u)
+    .filter(Boolean)
+    .slice(0, 16);
+  return words.length ? words.map((w) => `${w}:*`).join(' & ') : null;
+}
+
+/**
+ * The start of a lot code as typed (hyphens and spaces dropped, case and the look-alike
+ * letters I, L, O folded as lot codes fold them), or null when it cannot start a code.
+ */
+export function codePrefix(text: string): string | null {
+  const s = text.replace(/[-\s]/g, '').toUpperCase().replace(/[IL]/g, '1').replace(/O/g, '0');
+  return /^[0-9A-HJKMNP-TV-Z]{3,9}$/.test(s) ? s : null;
+}
 
 /** Plain data from a validated DTO (class instances → the JSON shapes core expects). */
 function plain<T>(dto: unknown): T {
@@ -110,6 +143,8 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
     listed: r.listed,
     holder: r.holder,
     origin: r.origin,
+    technique: r.technique,
+    period: r.period_from === null || r.period_to === null ? null : { from: r.period_from, to: r.period_to },
     count: { value: r.count_value, estimated: r.count_estimated },
     dissents: r.dissent_count,
     headSeq: r.head_seq,
@@ -219,17 +254,38 @@ export class LotsService {
     if (q.status) where.push(`v."status" = ${p(q.status)}`);
     if (q.form) where.push(`v."form" = ${p(q.form)}`);
     if (q.origin) where.push(`v."origin" = ${p(q.origin)}`);
+    if (q.technique) where.push(`v."technique" = ${p(q.technique)}`);
     if (q.listed !== undefined) where.push(`v."listed" = ${p(q.listed)}`);
-    const text = q.q?.trim();
-    if (text) where.push(`v."search" @@ websearch_to_tsquery('english', ${p(text)})`);
+    // A search is the union of the lots whose words match, whose code starts with what was
+    // typed, and whose storage place (the viewer's own words only) matches.
+    let from = '"lot_views" v';
+    const text = q.q?.trim() ?? '';
+    const tsq = searchQueryText(text);
+    const prefix = codePrefix(text);
+    if (tsq || prefix) {
+      const hits: string[] = [];
+      if (tsq) {
+        const t = p(tsq);
+        hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "search" @@ to_tsquery('beadroll_text', ${t})`);
+        hits.push(
+          `SELECT "lot_id" FROM "lot_private_search" WHERE "account_id" = ${p(viewer.id)}
+             AND "search" @@ to_tsquery('beadroll_text', ${t})`,
+        );
+      }
+      if (prefix) hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "code" LIKE ${p(`${prefix}%`)}`);
+      from = `(${hits.join(' UNION ')}) h JOIN "lot_views" v ON v."lot_id" = h."lot_id"`;
+    } else if (text) {
+      where.push('false');
+    }
     const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-    const order = `${SORT_COLUMNS[q.sort ?? 'registered']} ${q.order === 'asc' ? 'ASC' : 'DESC'}, v."code" ASC`;
+    const dir = q.order === 'asc' ? 'ASC' : 'DESC';
+    const order = `${SORT_COLUMNS[q.sort ?? 'registered']} ${dir} NULLS LAST, v."code" ASC`;
     const [{ total }] = (await this.dataSource.query(
-      `SELECT count(*)::int AS "total" FROM "lot_views" v ${clause}`,
+      `SELECT count(*)::int AS "total" FROM ${from} ${clause}`,
       params,
     )) as Array<{ total: number }>;
     const rows: LotViewRow[] = await this.dataSource.query(
-      `SELECT v.* FROM "lot_views" v ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
+      `SELECT v.* FROM ${from} ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
       params,
     );
     return { items: rows.map(toSummary), total, page, pageSize };
@@ -357,6 +413,7 @@ export class LotsService {
     const r = verifyRoll(entries, { lot: access.code });
     if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
     const s = r.state;
+    const recorded = attributionOnRecord(s);
     const view = (await this.view(access.code))!;
     const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
     const head = entries[entries.length - 1]!;
@@ -369,7 +426,9 @@ export class LotsService {
       status: s.status,
       listed: s.listed,
       holder: s.holder,
-      origin: s.attribution?.body?.origin ?? null,
+      origin: recorded?.origin ?? null,
+      technique: recorded?.technique ?? null,
+      period: recorded ? { from: recorded.period.from, to: recorded.period.to } : null,
       count: s.remaining,
       dissents: s.dissents.length,
       headSeq: s.head.seq,

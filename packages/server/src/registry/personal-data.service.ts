@@ -199,6 +199,7 @@ export class PersonalDataService {
         [a.id],
       );
       await m.query(`SELECT set_config('beadroll.closing_account', '', true)`);
+      await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [a.id]);
       await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
     });
     await this.sessions.revokeAll(a.id, 'closed');

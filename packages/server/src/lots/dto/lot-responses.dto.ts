@@ -10,7 +10,13 @@ export class LotSummaryResponse {
   @ApiProperty() status: LotStatus;
   @ApiProperty() listed: boolean;
   @ApiProperty({ description: 'account id of the holder' }) holder: string;
-  @ApiProperty({ nullable: true, description: "origin of the holder's attribution" }) origin: string | null;
+  @ApiProperty({ nullable: true, description: 'origin of the attribution on record' }) origin: string | null;
+  @ApiProperty({ nullable: true, description: 'technique of the attribution on record' }) technique:
+    string | null;
+  @ApiProperty({ nullable: true, description: 'period of the attribution on record' }) period: {
+    from: number;
+    to: number;
+  } | null;
   @ApiProperty() count: BeadCount;
   @ApiProperty() dissents: number;
   @ApiProperty() headSeq: number;
