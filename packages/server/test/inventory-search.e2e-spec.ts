@@ -10,7 +10,6 @@ describe('inventory search, sorting and paging', () => {
   let ben: TestAccount;
   let venice: { code: string; displayCode: string };
   let bohemia: { code: string; displayCode: string };
-  let plain: { code: string; displayCode: string };
 
   async function register(who: TestAccount, over: object, sealed?: object) {
     const res = await who.agent
@@ -68,7 +67,7 @@ describe('inventory search, sorting and paging', () => {
       technique: 'pressed-moulded',
       period: { from: 1920, to: 1935, approximate: false },
     });
-    plain = await register(ben, {
+    await register(ben, {
       title: 'Plain amber rounds',
       summary: 'Amber rounds.',
       colours: ['amber'],
