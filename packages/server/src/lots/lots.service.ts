@@ -256,24 +256,41 @@ export class LotsService {
     if (q.origin) where.push(`v."origin" = ${p(q.origin)}`);
     if (q.technique) where.push(`v."technique" = ${p(q.technique)}`);
     if (q.listed !== undefined) where.push(`v."listed" = ${p(q.listed)}`);
-    // A search is the union of the lots whose words match, whose code starts with what was
-    // typed, and whose storage place (the viewer's own words only) matches.
+    // A search matches the lots whose words match, whose code starts with what was typed, or
+    // whose storage place (the viewer's own words only) matches. In one's own inventory the
+    // few lots held are filtered row by row; across every listed lot the matches are gathered
+    // from the indexes first.
     let from = '"lot_views" v';
     const text = q.q?.trim() ?? '';
     const tsq = searchQueryText(text);
     const prefix = codePrefix(text);
     if (tsq || prefix) {
-      const hits: string[] = [];
-      if (tsq) {
-        const t = p(tsq);
-        hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "search" @@ to_tsquery('beadroll_text', ${t})`);
-        hits.push(
-          `SELECT "lot_id" FROM "lot_private_search" WHERE "account_id" = ${p(viewer.id)}
-             AND "search" @@ to_tsquery('beadroll_text', ${t})`,
-        );
+      const t = tsq ? p(tsq) : null;
+      const c = prefix ? p(`${prefix}%`) : null;
+      const me = t ? p(viewer.id) : null;
+      if (q.mine) {
+        const any: string[] = [];
+        if (t) {
+          any.push(`v."search" @@ to_tsquery('beadroll_text', ${t})`);
+          any.push(
+            `EXISTS (SELECT 1 FROM "lot_private_search" s WHERE s."lot_id" = v."lot_id"
+               AND s."account_id" = ${me} AND s."search" @@ to_tsquery('beadroll_text', ${t}))`,
+          );
+        }
+        if (c) any.push(`v."code" LIKE ${c}`);
+        where.push(`(${any.join(' OR ')})`);
+      } else {
+        const hits: string[] = [];
+        if (t) {
+          hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "search" @@ to_tsquery('beadroll_text', ${t})`);
+          hits.push(
+            `SELECT "lot_id" FROM "lot_private_search" WHERE "account_id" = ${me}
+               AND "search" @@ to_tsquery('beadroll_text', ${t})`,
+          );
+        }
+        if (c) hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "code" LIKE ${c}`);
+        from = `(${hits.join(' UNION ')}) h JOIN "lot_views" v ON v."lot_id" = h."lot_id"`;
       }
-      if (prefix) hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "code" LIKE ${p(`${prefix}%`)}`);
-      from = `(${hits.join(' UNION ')}) h JOIN "lot_views" v ON v."lot_id" = h."lot_id"`;
     } else if (text) {
       where.push('false');
     }
