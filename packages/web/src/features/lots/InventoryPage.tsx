@@ -1,4 +1,13 @@
-import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@beadroll/core';
+import {
+  LOT_FORMS,
+  ORIGINS,
+  periodWords,
+  TECHNIQUES,
+  type LotForm,
+  type LotStatus,
+  type Origin,
+  type Technique,
+} from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -32,6 +41,7 @@ import { useEffect, useState } from 'react';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
 import { toCsv } from './csv';
+import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
 import {
   LIST_SORTS,
@@ -45,7 +55,17 @@ import {
 const PAGE_SIZE = 20;
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 /** Column id → the server's sort name. */
-const SORT_OF: Record<string, ListSort> = { code: 'code', title: 'title', updatedAt: 'updated' };
+const SORT_OF: Record<string, ListSort> = {
+  code: 'code',
+  title: 'title',
+  form: 'form',
+  count: 'count',
+  origin: 'origin',
+  period: 'period',
+  status: 'status',
+  listed: 'listed',
+  updatedAt: 'updated',
+};
 
 const useStyles = makeStyles({
   page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
@@ -88,11 +108,12 @@ const helper = createColumnHelper<typeof features, LotSummary>();
 const columns = helper.columns([
   helper.accessor('displayCode', { id: 'code', header: 'Code' }),
   helper.accessor('title', { header: 'Title' }),
-  helper.accessor('form', { header: 'Form', enableSorting: false }),
-  helper.accessor('count', { header: 'Count', enableSorting: false }),
-  helper.accessor('origin', { header: 'Origin', enableSorting: false }),
-  helper.accessor('status', { header: 'Status', enableSorting: false }),
-  helper.accessor('listed', { header: 'Listed', enableSorting: false }),
+  helper.accessor('form', { header: 'Form' }),
+  helper.accessor('count', { header: 'Count' }),
+  helper.accessor('origin', { header: 'Origin' }),
+  helper.accessor('period', { header: 'Period' }),
+  helper.accessor('status', { header: 'Status' }),
+  helper.accessor('listed', { header: 'Listed' }),
   helper.accessor('updatedAt', { header: 'Last entry' }),
 ]);
 
@@ -114,6 +135,7 @@ export function paramsFromSearch(search: URLSearchParams): LotListParams {
     status: pick(search.get('status'), STATUSES),
     form: pick(search.get('form'), LOT_FORMS),
     origin: pick(search.get('origin'), ORIGINS),
+    technique: pick(search.get('technique'), TECHNIQUES),
     listed: listed === 'true' ? true : listed === 'false' ? false : undefined,
     mine: search.get('scope') === 'all' ? undefined : true,
   };
@@ -131,7 +153,18 @@ function Cell({ row, column }: { row: LotSummary; column: string }) {
     case 'count':
       return <>{formatCount(row.count)}</>;
     case 'origin':
-      return <>{row.origin ? ORIGIN_LABEL[row.origin] : 'No attribution yet'}</>;
+      return (
+        <>
+          {row.origin ? ORIGIN_LABEL[row.origin] : 'No attribution yet'}
+          {row.technique ? (
+            <Text size={200} block className={styles.sub}>
+              {TECHNIQUE_LABELS[row.technique]}
+            </Text>
+          ) : null}
+        </>
+      );
+    case 'period':
+      return <>{row.period ? periodWords({ ...row.period, approximate: false }) : '—'}</>;
     case 'status':
       return <>{STATUS_LABEL[row.status]}</>;
     case 'listed':
@@ -230,7 +263,12 @@ export function InventoryPage() {
   if (!account) return <Navigate to="/sign-in?next=/lots" replace />;
 
   const filtered = Boolean(
-    params.q || params.status || params.form || params.origin || params.listed !== undefined,
+    params.q ||
+    params.status ||
+    params.form ||
+    params.origin ||
+    params.technique ||
+    params.listed !== undefined,
   );
   const rows = table.getRowModel().rows;
   const stale = query.isPlaceholderData;
@@ -270,7 +308,7 @@ export function InventoryPage() {
           <SearchBox
             className={styles.control}
             value={text}
-            placeholder="Title or description"
+            placeholder="Code, title, attribution, colour, storage place"
             onChange={(_, d) => setText(d.value)}
           />
         </Field>
@@ -302,6 +340,12 @@ export function InventoryPage() {
           value={params.origin}
           options={ORIGINS.map((o) => [o, ORIGIN_LABEL[o as Origin]])}
           onChange={(v) => update({ origin: v })}
+        />
+        <FilterDropdown
+          label="Technique"
+          value={params.technique}
+          options={TECHNIQUES.map((t) => [t, TECHNIQUE_LABELS[t as Technique]])}
+          onChange={(v) => update({ technique: v })}
         />
         <FilterDropdown
           label="Listed"
@@ -396,6 +440,7 @@ export function InventoryPage() {
                     <Text size={200}>
                       {r.form ? FORM_LABEL[r.form] : '—'} · {formatCount(r.count)} beads ·{' '}
                       {r.origin ? ORIGIN_LABEL[r.origin] : 'no attribution yet'}
+                      {r.period ? `, ${periodWords({ ...r.period, approximate: false })}` : ''}
                     </Text>
                     <Text size={200} className={styles.sub}>
                       {STATUS_LABEL[r.status]} · {r.listed ? 'listed' : 'unlisted'} · last entry{' '}

@@ -7,6 +7,7 @@ import type {
   Observations,
   Origin,
   StoredEntry,
+  Technique,
 } from '@beadroll/core';
 import { SYSTEM_ACTOR } from '@beadroll/core';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
@@ -21,7 +22,10 @@ export interface LotSummary {
   status: LotStatus;
   listed: boolean;
   holder: string;
+  /** The attribution on record: origin, technique and period (null when there is none). */
   origin: Origin | null;
+  technique: Technique | null;
+  period: { from: number; to: number } | null;
   count: BeadCount;
   dissents: number;
   headSeq: number;
@@ -79,7 +83,19 @@ export interface RawRoll {
   entries: RollEntry[];
 }
 
-export const LIST_SORTS = ['registered', 'updated', 'title', 'code'] as const;
+export const LIST_SORTS = [
+  'registered',
+  'updated',
+  'title',
+  'code',
+  'form',
+  'count',
+  'origin',
+  'period',
+  'technique',
+  'status',
+  'listed',
+] as const;
 export type ListSort = (typeof LIST_SORTS)[number];
 
 /** Paging, sorting, filters and search of the lot list (the server's query names). */
@@ -92,6 +108,7 @@ export interface LotListParams {
   status?: LotStatus;
   form?: LotForm;
   origin?: Origin;
+  technique?: Technique;
   listed?: boolean;
   mine?: boolean;
 }
