@@ -19,6 +19,7 @@ import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
+import { StockModule } from './stock/stock.module';
 import { TagsModule } from './tags/tags.module';
 
 @Module({
@@ -42,6 +43,7 @@ import { TagsModule } from './tags/tags.module';
     TransfersModule,
     RegistryToolsModule,
     TagsModule,
+    StockModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

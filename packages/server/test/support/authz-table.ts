@@ -94,6 +94,9 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
   'POST /api/tags/pdf': { roles: ['dealer'] },
   'POST /api/tags/list': { roles: ['dealer'], writer: true },
+  // the dealer's own stock and sales figures
+  'GET /api/stock/summary': { roles: ['dealer'] },
+  'GET /api/stock/export': { roles: ['dealer'] },
   // exhibits
   'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
   'GET /api/lots/:code/exhibits': 'signed-in',
