@@ -35,6 +35,7 @@ const NAV: NavItem[] = [
   { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
   { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
   { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
+  { to: '/stock', label: 'Figures', roles: ['dealer'] },
   { to: '/registry/reports', label: 'Reports', roles: ['registrar'] },
   { to: '/registry/redactions', label: 'Redaction', roles: ['registrar'] },
   { to: '/registry/record', label: 'Record', roles: ['registrar'] },
@@ -78,6 +79,11 @@ export const routes: RouteObject[] = [
         lazy: async () => ({
           Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
         }),
+      },
+      // The figures page carries the chart library: the dealer app loads it on first use.
+      {
+        path: 'stock',
+        lazy: async () => ({ Component: (await import('../features/stock/StockPage')).StockPage }),
       },
       {
         path: 'tags',
