@@ -3,6 +3,7 @@ import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
+import { WithdrawOfferAction } from '../transfers/WithdrawOfferAction';
 import { ExhibitsSection } from '../exhibits/ExhibitsSection';
 import { mayAddExhibits } from '../exhibits/exhibits-panel';
 import { AncestryPanel } from '../lineage/AncestryPanel';
@@ -11,6 +12,7 @@ import { SplitDialog } from '../lineage/SplitDialog';
 import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
 import { RemovalRequestAction } from '../registry/RemovalRequestAction';
+import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -56,6 +58,14 @@ export function viewerHolds(ctx: LotActionContext): boolean {
 /** Actions in the order they appear. Features add one line each. */
 export const LOT_ACTIONS: LotAction[] = [
   {
+    id: 'print-tag',
+    label: 'Print tag',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => (
+      <PrintTagsDialog lots={[{ code: ctx.code, listed: ctx.state.listed }]} onClose={ctx.close} />
+    ),
+  },
+  {
     id: 'describe',
     label: 'Describe',
     visible: (ctx) => viewerHolds(ctx),
@@ -78,6 +88,12 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'Offer to a dealer',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
     render: (ctx) => <OfferDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />,
+  },
+  {
+    id: 'withdraw-offer',
+    label: 'Withdraw the offer',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'offered',
+    render: (ctx) => <WithdrawOfferAction code={ctx.code} close={ctx.close} />,
   },
   {
     id: 'sale',
