@@ -6,6 +6,7 @@ import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-C
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
 import { InventorySearch1796184000000 } from '../migrations/1796184000000-InventorySearch';
+import { OpinionRequests1796184100000 } from '../migrations/1796184100000-OpinionRequests';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -16,4 +17,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
   InventorySearch1796184000000,
+  OpinionRequests1796184100000,
 ];

@@ -39,6 +39,14 @@ export interface LotReadGrant {
   upTo(viewer: Viewer, lotId: string): Promise<number | null>;
 }
 
+/**
+ * Full read access other features give to a lot the viewer may not otherwise read (for
+ * example an assessor asked for an opinion, while the request is open).
+ */
+export interface LotFullReadGrant {
+  mayRead(viewer: Viewer, lotId: string): Promise<boolean>;
+}
+
 /** What a viewer may read of a lot: all of it (`upTo` null) or its roll up to a seq. */
 interface ReadAccess {
   code: string;
@@ -161,6 +169,7 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
 @Injectable()
 export class LotsService {
   private readonly grants: LotReadGrant[] = [];
+  private readonly fullGrants: LotFullReadGrant[] = [];
 
   constructor(
     private readonly dataSource: DataSource,
@@ -168,6 +177,11 @@ export class LotsService {
     private readonly reader: RollReaderService,
     private readonly bundles: BundleService,
   ) {}
+
+  /** Adds a full read grant, consulted for lots the viewer may not otherwise read. */
+  addFullReadGrant(grant: LotFullReadGrant): void {
+    this.fullGrants.push(grant);
+  }
 
   /** Adds a read grant, consulted for lots the viewer may not read in full. */
   addReadGrant(grant: LotReadGrant): void {
@@ -406,7 +420,7 @@ export class LotsService {
   async readableCode(viewer: Viewer, text: string): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
     const view = code ? await this.view(code) : null;
-    if (!view || !this.canRead(viewer, view)) throw new AppError('not_found', 'Not found.');
+    if (!view || !(await this.mayReadInFull(viewer, view))) throw new AppError('not_found', 'Not found.');
     return view.code;
   }
 
@@ -414,7 +428,8 @@ export class LotsService {
   private async readAccess(viewer: Viewer, text: string): Promise<ReadAccess> {
     const code = RollReaderService.canonicalCode(text);
     const view = code ? await this.view(code) : null;
-    if (view && this.canRead(viewer, view)) return { code: view.code, lotId: view.lot_id, upTo: null };
+    if (view && (await this.mayReadInFull(viewer, view)))
+      return { code: view.code, lotId: view.lot_id, upTo: null };
     if (view) {
       for (const g of this.grants) {
         const upTo = await g.upTo(viewer, view.lot_id);
@@ -463,6 +478,12 @@ export class LotsService {
       sealed,
       historyUpTo: access.upTo!,
     };
+  }
+
+  private async mayReadInFull(viewer: Viewer, view: LotViewRow): Promise<boolean> {
+    if (this.canRead(viewer, view)) return true;
+    for (const g of this.fullGrants) if (await g.mayRead(viewer, view.lot_id)) return true;
+    return false;
   }
 
   private canRead(viewer: Viewer, v: Pick<LotViewRow, 'listed' | 'holder' | 'offer_recipient'>): boolean {
