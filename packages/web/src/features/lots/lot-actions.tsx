@@ -11,6 +11,7 @@ import { CombineDialog } from '../lineage/CombineDialog';
 import { SplitDialog } from '../lineage/SplitDialog';
 import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
+import { AskOpinionAction } from '../opinion-requests/AskOpinionAction';
 import { RemovalRequestAction } from '../registry/RemovalRequestAction';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
@@ -120,6 +121,12 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'Record an opinion',
     visible: mayRecordOpinion,
     render: (ctx) => <OpinionAction {...ctx} />,
+  },
+  {
+    id: 'ask-opinion',
+    label: 'Ask for an opinion',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => <AskOpinionAction {...ctx} />,
   },
   {
     id: 'removal',
