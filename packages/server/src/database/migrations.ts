@@ -7,6 +7,7 @@ import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateE
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
 import { InventorySearch1796184000000 } from '../migrations/1796184000000-InventorySearch';
 import { OpinionRequests1796184100000 } from '../migrations/1796184100000-OpinionRequests';
+import { ApplicantDetails1796184200000 } from '../migrations/1796184200000-ApplicantDetails';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -18,4 +19,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   AddExhibitSentDigest1796172657749,
   InventorySearch1796184000000,
   OpinionRequests1796184100000,
+  ApplicantDetails1796184200000,
 ];
