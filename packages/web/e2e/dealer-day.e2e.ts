@@ -101,7 +101,8 @@ describe('finding a lot in the inventory', () => {
     await page.waitForURL(/q=/);
     const table = page.getByRole('table', { name: 'Lots' });
     await table.getByRole('link', { name: lot.title }).waitFor();
-    expect(await table.getByRole('row').count()).toBe(2);
+    // The header row and the one lot, once the search's page has replaced the previous one.
+    await expect.poll(() => table.getByRole('row').count(), { timeout: 10_000 }).toBe(2);
 
     await search.fill('bohemian furnace');
     await page.waitForURL(/q=bohemian/);
@@ -155,6 +156,12 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
       await quick.getByRole(name === 'History' ? 'link' : 'button', { name }).waitFor();
     await screenshot(page, 'scanned-lot-quick-actions-390');
 
+    const call = await client(baseUrl, dealer.email);
+    type Figures = { currencies: Array<{ currency: string; salesByYear: Array<{ revenue: number }> }> };
+    const soldFor = (f: Figures) =>
+      f.currencies.find((c) => c.currency === 'EUR')?.salesByYear.reduce((n, y) => n + y.revenue, 0) ?? 0;
+    const before = soldFor(await call<Figures>('/api/stock/summary'));
+
     // Tap 1: Sell. The price field has the cursor; typing is not a tap.
     await quick.getByRole('button', { name: 'Sell' }).click();
     await page.getByRole('dialog').waitFor();
@@ -166,11 +173,132 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
     await page.getByText(/^Sold for .*45\.00/).waitFor();
     await screenshot(page, 'scanned-lot-sold-390');
 
-    const call = await client(baseUrl, dealer.email);
     const detail = await call<{ status: string }>(`/api/lots/${lot.code}`);
     expect(detail.status).toBe('sold');
+    expect(soldFor(await call<Figures>('/api/stock/summary')) - before).toBe(4500);
     // Fits the phone: nothing wider than the screen.
     const width = await page.evaluate(() => document.documentElement.scrollWidth);
     expect(width).toBeLessThanOrEqual(390);
+
+    // The sale shows in the dealer's own figures, with a chart drawn on first use of the page.
+    await page.goto(`${baseUrl}/stock`);
+    const eur = page.getByRole('region', { name: 'In EUR' });
+    await eur.getByRole('table', { name: 'Sales by month' }).waitFor();
+    await eur
+      .getByRole('img', { name: 'Sales and margin by month, EUR' })
+      .locator('canvas')
+      .first()
+      .waitFor();
+    await eur.getByRole('table', { name: 'Stock by origin' }).waitFor();
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await screenshot(page, 'stock-figures-390');
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await screenshot(page, 'stock-figures-1280');
+  });
+});
+
+const assessor = demo.accounts.find((a) => a.role === 'assessor' && a.status === 'verified')!;
+
+describe('an opinion on request', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  let lot: { code: string; title: string };
+
+  beforeAll(async () => {
+    lot = await registerLot(baseUrl, 'Chevron beads from a trunk in the attic');
+    // Listed, so the assessor's opinion may go on its roll.
+    const call = await client(baseUrl, dealer.email);
+    await call(`/api/lots/${lot.code}/descriptions`, {
+      description: {
+        title: lot.title,
+        form: 'strand',
+        count: { value: 24, estimated: false },
+        colours: ['red', 'white', 'blue'],
+        baseGlass: ['opaque'],
+        decoration: [],
+        listed: true,
+      },
+    });
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('is asked by the holder on the lot page and answered by the assessor from their queue', async () => {
+    const { page } = browser;
+    await signIn(page, baseUrl, dealer.email);
+    await page.goto(`${baseUrl}/lots/${lot.code}`);
+    await page
+      .getByRole('group', { name: 'Actions' })
+      .getByRole('button', { name: 'Ask for an opinion' })
+      .click();
+    const ask = page.getByRole('dialog');
+    await ask.getByRole('radio', { name: /Halvard Nimmo/ }).check();
+    await ask.getByRole('textbox', { name: /What to look at/ }).fill('Are these seven-layer chevrons old?');
+    await screenshot(page, 'opinion-request-ask-1280');
+    await ask.getByRole('button', { name: 'Ask' }).click();
+    await ask.getByText(/^Asked\./).waitFor();
+    await ask.getByRole('button', { name: 'Close' }).click();
+
+    // The assessor's start page is their queue.
+    await signIn(page, baseUrl, assessor.email);
+    await page.goto(`${baseUrl}/`);
+    const queue = page.getByRole('list', { name: 'Waiting for your opinion' });
+    const request = queue.getByRole('listitem').filter({ hasText: lot.title });
+    await request.getByText('“Are these seven-layer chevrons old?”').waitFor();
+    await screenshot(page, 'opinion-request-queue-1280');
+    await request.getByRole('link', { name: lot.title }).click();
+    await page.waitForURL(`${baseUrl}/lots/${lot.code}`);
+
+    await page
+      .getByRole('group', { name: 'Actions' })
+      .getByRole('button', { name: 'Record an opinion' })
+      .click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('combobox', { name: /^Origin/ }).selectOption('venice-murano');
+    await dialog.getByRole('textbox', { name: /^From year/ }).fill('1880');
+    await dialog.getByRole('textbox', { name: /^To year/ }).fill('1920');
+    await dialog
+      .getByRole('textbox', { name: /^Rationale/ })
+      .fill('Seven layers, ground ends showing each colour; wear on the edges of every bead.');
+    await dialog.getByRole('button', { name: 'Record opinion' }).click();
+    await dialog.waitFor({ state: 'detached' });
+
+    // The queue now shows it answered; the holder's request reads answered too.
+    await page.goto(`${baseUrl}/`);
+    await page
+      .getByRole('list', { name: 'Earlier requests' })
+      .getByRole('listitem')
+      .filter({ hasText: lot.title })
+      .getByText('Answered')
+      .waitFor();
+    const call = await client(baseUrl, dealer.email);
+    const sent = await call<{ items: Array<{ lot: { code: string }; status: string }> }>(
+      '/api/opinion-requests?box=sent',
+    );
+    expect(sent.items.find((r) => r.lot.code === lot.code)?.status).toBe('answered');
+  });
+});
+
+describe('the chart library stays out of the public page', () => {
+  const baseUrl = inject('baseUrl');
+
+  it('loads no uPlot code when a buyer opens a lot page', async () => {
+    const browser = await openBrowser({ width: 390, height: 844 });
+    try {
+      const { page } = browser;
+      const scripts: string[] = [];
+      page.on('response', async (r) => {
+        if (r.request().resourceType() === 'script') scripts.push(await r.text());
+      });
+      // Any code: the public page's scripts are the same whether the lot is found or not.
+      await page.goto(`${baseUrl}/l/7K2QM9XAT`);
+      await page.waitForLoadState('networkidle');
+      expect(scripts.length).toBeGreaterThan(0);
+      expect(scripts.some((s) => s.includes('uPlot'))).toBe(false);
+    } finally {
+      await browser.close();
+    }
   });
 });

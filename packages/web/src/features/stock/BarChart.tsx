@@ -48,7 +48,7 @@ export function BarChart({
     const opts: uPlot.Options = {
       width: Math.max(240, el.clientWidth),
       height: 220,
-      legend: { show: series.length > 1 },
+      legend: { show: false },
       cursor: { show: false },
       scales: {
         x: { time: false, range: [-0.5, n - 0.5] },
@@ -61,7 +61,7 @@ export function BarChart({
           splits: () => categories.map((_, i) => i),
           values: (_u, splits) => splits.map((i) => categories[i] ?? ''),
         },
-        { stroke: text, grid: { stroke: grid }, size: 70, values: (_u, splits) => splits.map(format) },
+        { stroke: text, grid: { stroke: grid }, size: 96, values: (_u, splits) => splits.map(format) },
       ],
       series: [
         {},

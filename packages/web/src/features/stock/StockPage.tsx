@@ -173,49 +173,74 @@ function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
   const titleId = `stock-${f.currency}`;
 
   return (
-    <Card className={styles.currency} aria-labelledby={titleId}>
-      <Title3 as="h2" id={titleId}>
-        In {f.currency}
-      </Title3>
-      <div>
-        <Text block>Cost of the stock you hold</Text>
-        <Text className={styles.big} weight="semibold">
-          {money(f.stock.cost)}
-        </Text>
-        <Text block>
-          {f.stock.lots} {f.stock.lots === 1 ? 'lot' : 'lots'}
-        </Text>
-      </div>
-      <div className={styles.grid}>
-        <figure className={styles.figure}>
-          <Subtitle1 as="h3">Stock by origin</Subtitle1>
-          <BarChart title={`Cost of stock by origin, ${f.currency}`} format={money} {...charts.origin} />
-          <GroupTable label="Stock by origin" groups={f.stockByOrigin} words={originWords} money={money} />
-        </figure>
-        <figure className={styles.figure}>
-          <Subtitle1 as="h3">Stock by period</Subtitle1>
-          <BarChart title={`Cost of stock by century, ${f.currency}`} format={money} {...charts.century} />
-          <GroupTable label="Stock by period" groups={f.stockByCentury} words={centuryWords} money={money} />
-        </figure>
-      </div>
-      <figure className={styles.figure}>
-        <Subtitle1 as="h3">Sales by month</Subtitle1>
-        {f.salesByMonth.length ? (
-          <>
-            <BarChart title={`Sales and margin by month, ${f.currency}`} format={money} {...charts.months} />
-            <SalesTable label="Sales by month" periods={f.salesByMonth} words={monthWords} money={money} />
-          </>
+    <section aria-labelledby={titleId}>
+      <Card className={styles.currency}>
+        <Title3 as="h2" id={titleId}>
+          In {f.currency}
+        </Title3>
+        <div>
+          <Text block>Cost of the stock you hold</Text>
+          <Text className={styles.big} weight="semibold">
+            {money(f.stock.cost)}
+          </Text>
+          <Text block>
+            {f.stock.lots} {f.stock.lots === 1 ? 'lot' : 'lots'}
+          </Text>
+        </div>
+        {f.stock.lots ? (
+          <div className={styles.grid}>
+            <figure className={styles.figure}>
+              <Subtitle1 as="h3">Stock by origin</Subtitle1>
+              <BarChart title={`Cost of stock by origin, ${f.currency}`} format={money} {...charts.origin} />
+              <GroupTable
+                label="Stock by origin"
+                groups={f.stockByOrigin}
+                words={originWords}
+                money={money}
+              />
+            </figure>
+            <figure className={styles.figure}>
+              <Subtitle1 as="h3">Stock by period</Subtitle1>
+              <BarChart
+                title={`Cost of stock by century, ${f.currency}`}
+                format={money}
+                {...charts.century}
+              />
+              <GroupTable
+                label="Stock by period"
+                groups={f.stockByCentury}
+                words={centuryWords}
+                money={money}
+              />
+            </figure>
+          </div>
         ) : (
-          <Text>No sales in {f.currency} yet.</Text>
+          <Text>No lot you hold has a cost in {f.currency}.</Text>
         )}
-      </figure>
-      {f.salesByYear.length ? (
         <figure className={styles.figure}>
-          <Subtitle1 as="h3">Sales by year</Subtitle1>
-          <SalesTable label="Sales by year" periods={f.salesByYear} words={(p) => p} money={money} />
+          <Subtitle1 as="h3">Sales by month</Subtitle1>
+          {f.salesByMonth.length ? (
+            <>
+              <BarChart
+                title={`Sales and margin by month, ${f.currency}`}
+                format={money}
+                {...charts.months}
+              />
+              <Text size={200}>Light bars: what you sold for; dark bars over them: your margin.</Text>
+              <SalesTable label="Sales by month" periods={f.salesByMonth} words={monthWords} money={money} />
+            </>
+          ) : (
+            <Text>No sales in {f.currency} yet.</Text>
+          )}
         </figure>
-      ) : null}
-    </Card>
+        {f.salesByYear.length ? (
+          <figure className={styles.figure}>
+            <Subtitle1 as="h3">Sales by year</Subtitle1>
+            <SalesTable label="Sales by year" periods={f.salesByYear} words={(p) => p} money={money} />
+          </figure>
+        ) : null}
+      </Card>
+    </section>
   );
 }
 
