@@ -59,14 +59,6 @@ export function viewerHolds(ctx: LotActionContext): boolean {
 /** Actions in the order they appear. Features add one line each. */
 export const LOT_ACTIONS: LotAction[] = [
   {
-    id: 'print-tag',
-    label: 'Print tag',
-    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
-    render: (ctx) => (
-      <PrintTagsDialog lots={[{ code: ctx.code, listed: ctx.state.listed }]} onClose={ctx.close} />
-    ),
-  },
-  {
     id: 'describe',
     label: 'Describe',
     visible: (ctx) => viewerHolds(ctx),
@@ -83,6 +75,14 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'List / unlist',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.description !== null,
     render: (ctx) => <ListingAction {...ctx} />,
+  },
+  {
+    id: 'print-tag',
+    label: 'Print tag',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => (
+      <PrintTagsDialog lots={[{ code: ctx.code, listed: ctx.state.listed }]} onClose={ctx.close} />
+    ),
   },
   {
     id: 'offer',

@@ -148,9 +148,9 @@ export function PrintTagsDialog({
 }) {
   const styles = useStyles();
   const queryClient = useQueryClient();
-  const layouts = useQuery(tagsQueries.layouts());
   const [openState, setOpenState] = useState(false);
   const open = onClose ? true : openState;
+  const layouts = useQuery({ ...tagsQueries.layouts(), enabled: open });
   const setOpen = (v: boolean) => (onClose ? !v && onClose() : setOpenState(v));
   const [design, setDesign] = useState<TagDesign>('string');
   const [media, setMedia] = useState<Media>('roll');
