@@ -46,7 +46,9 @@ export {
   bodyIssues,
   assertBody,
   sealedValueIssues,
+  factsIssues,
 } from './validate.js';
+export { factsOf } from './facts.js';
 export {
   sealedFieldCommitment,
   sealedRoot,
@@ -71,6 +73,7 @@ export {
   FINAL_STATUSES,
   TRANSITION_RULES,
   checkTransition,
+  isReservedActor,
   opinionsDisagree,
   reduceEntry,
   reduceRoll,
@@ -95,6 +98,7 @@ export type {
   RollVerification,
   VerifiedEntry,
   RollVerificationWithEntries,
+  UncheckedRule,
 } from './verify.js';
 export {
   EMPTY_TREE_HASH,
@@ -109,9 +113,11 @@ export {
 export {
   BUNDLE_FORMAT,
   BUNDLE_VERSION,
+  BUNDLE_VERSIONS,
   DEFAULT_MAX_BUNDLE_BYTES,
   parseBundle,
   parseBundleText,
+  parseBundleBytes,
   verifyBundle,
   createBundle,
 } from './bundle.js';

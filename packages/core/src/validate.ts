@@ -472,3 +472,106 @@ export function sealedValueIssues(name: string, value: unknown): FieldIssue[] {
     message: i.message,
   }));
 }
+
+/**
+ * Checks the `facts` member of a version-2 header against the shape its kind requires (see
+ * the format's rule-fact table). Returns every problem (empty when valid); never throws.
+ * Precondition: `kind` is an {@link EntryKind}.
+ */
+export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
+  const c = new Checker();
+  const p = 'facts';
+  const exact = (required: string[], optional: string[] = []) => c.obj(facts, p, required, optional);
+  switch (kind) {
+    case 'registered':
+    case 'described': {
+      const o = exact(['count', 'listed']);
+      if (!o) break;
+      if ('count' in o) c.count(o.count, join(p, 'count'));
+      c.bool(o, 'listed', p);
+      break;
+    }
+    case 'exhibit-added': {
+      const o = c.obj(facts, p, [], ['original', 'sealedOnly']);
+      if (!o) break;
+      if ('original' in o === 'sealedOnly' in o) c.fail(p, 'must hold exactly one of original, sealedOnly');
+      c.pattern(o, 'original', p, isHex64, '64 lower-case hex digits', true);
+      if ('sealedOnly' in o && o.sealedOnly !== true) c.fail(join(p, 'sealedOnly'), 'must be true');
+      break;
+    }
+    case 'opinion': {
+      const o = exact(['exhibits']);
+      if (o)
+        c.list(
+          o,
+          'exhibits',
+          p,
+          (x, q) => (isHex64(x) ? undefined : c.fail(q, 'must be an exhibit sha256')),
+          LIMITS.listItems,
+        );
+      break;
+    }
+    case 'opinion-withdrawn': {
+      const o = exact(['opinionSeq']);
+      if (o) c.int(o, 'opinionSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'transfer-offered': {
+      const o = exact(['recipient']);
+      if (o) c.pattern(o, 'recipient', p, isActorId, 'an account id');
+      break;
+    }
+    case 'transfer-accepted':
+    case 'transfer-declined':
+    case 'transfer-withdrawn':
+    case 'transfer-lapsed': {
+      const o = exact(['offerSeq']);
+      if (o) c.int(o, 'offerSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'split': {
+      const o = exact(['children']);
+      if (!o) break;
+      c.list(
+        o,
+        'children',
+        p,
+        (x, q) => {
+          const ch = c.obj(x, q, ['lot', 'count']);
+          if (!ch) return;
+          c.pattern(ch, 'lot', q, isCanonicalLotCode, 'a canonical lot code');
+          if ('count' in ch) c.count(ch.count, join(q, 'count'), 1);
+        },
+        LIMITS.children,
+      );
+      if (Array.isArray(o.children) && o.children.length === 0)
+        c.fail(join(p, 'children'), 'must name at least one child');
+      break;
+    }
+    case 'combined': {
+      const o = exact(['child', 'count']);
+      if (!o) break;
+      c.pattern(o, 'child', p, isCanonicalLotCode, 'a canonical lot code');
+      if ('count' in o) c.count(o.count, join(p, 'count'), 1);
+      break;
+    }
+    case 'redacted': {
+      const o = exact(['target']);
+      if (o) c.int(o, 'target', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'note': {
+      const o = exact([], ['ref']);
+      if (o) c.int(o, 'ref', p, 0, SEQ_MAX, true);
+      break;
+    }
+    case 'observed':
+    case 'sold':
+    case 'retired':
+      exact([]);
+      break;
+    default:
+      c.fail('kind', 'is not a known kind');
+  }
+  return c.issues;
+}

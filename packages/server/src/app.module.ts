@@ -21,6 +21,7 @@ import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { StockModule } from './stock/stock.module';
 import { TagsModule } from './tags/tags.module';
+import { StandbyModule } from './standby/standby.module';
 
 @Module({
   imports: [
@@ -30,6 +31,7 @@ import { TagsModule } from './tags/tags.module';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
+    StandbyModule,
     HealthModule,
     MailModule,
     AuthModule,

@@ -41,6 +41,11 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     },
     crossOriginEmbedderPolicy: false,
   });
+  // Which server process answered: with several behind a load balancer, logs and people can tell.
+  app.use((_req: Request, res: Response, next: NextFunction) => {
+    res.setHeader('Beadroll-Instance', config.instanceName);
+    next();
+  });
   app.use(publicLotFastPath(app, securityHeaders));
   app.use(securityHeaders);
   app.use(cookieParser());

@@ -1,3 +1,4 @@
+import { hostname } from 'node:os';
 import { isAbsolute, resolve } from 'node:path';
 
 /** The one typed configuration of the server, validated once at boot from the environment. */
@@ -9,6 +10,13 @@ export interface AppConfig {
   readonly webDist: string;
   readonly demoMode: boolean;
   readonly devMailbox: boolean;
+  /** Name of this server process, shown by /api/health and on every response (`Beadroll-Instance`). */
+  readonly instanceName: string;
+  /**
+   * A streaming hot standby of the database (same role and database), for public reads while
+   * its replay lag is under `maxLagMs`; null when there is none.
+   */
+  readonly standby: { readonly host: string; readonly port: number; readonly maxLagMs: number } | null;
   readonly db: {
     readonly host: string;
     readonly port: number;
@@ -152,6 +160,8 @@ export function loadConfig(env: Env = process.env): AppConfig {
     webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
     demoMode,
     devMailbox: bool(env, 'DEV_MAILBOX', demoMode),
+    instanceName: str(env, 'INSTANCE_NAME', `${hostname()}:${port}`, 100),
+    standby: standbyConfig(env),
     db: {
       host: str(env, 'PGHOST', '127.0.0.1'),
       port: int(env, 'PGPORT', 55432, 1, 65535),
@@ -192,6 +202,16 @@ export function loadConfig(env: Env = process.env): AppConfig {
       quotaBytes: int(env, 'EXHIBIT_QUOTA_BYTES', 2 * 1024 * 1024 * 1024, 0, Number.MAX_SAFE_INTEGER),
       processingConcurrency: int(env, 'EXHIBIT_PROCESSING_CONCURRENCY', 2, 1, 64),
     },
+  };
+}
+
+function standbyConfig(env: Env): AppConfig['standby'] {
+  const host = str(env, 'PG_STANDBY_HOST', '');
+  if (host === '') return null;
+  return {
+    host,
+    port: int(env, 'PG_STANDBY_PORT', 5432, 1, 65535),
+    maxLagMs: int(env, 'STANDBY_MAX_LAG_MS', 2000, 0, 3_600_000),
   };
 }
 

@@ -5,9 +5,10 @@ import { CreateTransfers1796159943028 } from '../migrations/1796159943028-Create
 import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-CreateRegistrarTools';
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
-import { InventorySearch1796184000000 } from '../migrations/1796184000000-InventorySearch';
-import { OpinionRequests1796184100000 } from '../migrations/1796184100000-OpinionRequests';
-import { ApplicantDetails1796184200000 } from '../migrations/1796184200000-ApplicantDetails';
+import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-CreateRateLimits';
+import { InventorySearch1796480000000 } from '../migrations/1796480000000-InventorySearch';
+import { OpinionRequests1796480100000 } from '../migrations/1796480100000-OpinionRequests';
+import { ApplicantDetails1796480200000 } from '../migrations/1796480200000-ApplicantDetails';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -17,7 +18,8 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateExhibits1796160000000,
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
-  InventorySearch1796184000000,
-  OpinionRequests1796184100000,
-  ApplicantDetails1796184200000,
+  CreateRateLimits1796470946374,
+  InventorySearch1796480000000,
+  OpinionRequests1796480100000,
+  ApplicantDetails1796480200000,
 ];

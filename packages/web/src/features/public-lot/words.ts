@@ -115,6 +115,13 @@ export const BREAK_WORDS: Record<ReasonCode, string> = {
   'missing-body': 'its contents are missing and no removal by the registrar is on record',
   'bad-body': 'its contents are not a valid entry of its kind',
   'bad-transition': 'the rules of a roll do not allow it at that point',
+  'bad-facts': 'the facts its header commits to do not match its contents',
+  'bad-roll': 'the data served for this lot is not shaped like a roll',
+  'bad-entry': 'an entry in the data served is not shaped like an entry',
+  'bad-lot-code': 'the data served names a lot code that is not valid',
+  'duplicate-lot': 'the data served holds this lot more than once',
+  'bad-log-index': 'an entry carries a log position that is not a whole number',
+  'unnamed-link': 'the data served includes an entry of another lot that no lot here was made from',
 };
 
 const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observations[K]>) => string } = {
