@@ -126,7 +126,7 @@ export function buildEntry<K extends EntryKind>(
   if (issues.length > 0) throw new ValidationError(issues, 'bad-draft');
 
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
-  const bIssues = bodyIssues(draft.kind, body);
+  const bIssues = bodyIssues(draft.kind, body, version);
   if (bIssues.length > 0)
     throw new ValidationError(
       bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })),

@@ -137,9 +137,24 @@ export {
   tagQrVersion,
 } from './tag.js';
 export type { QrEcLevel, TagPayload } from './tag.js';
-export { attributionAid, uvCaution } from './aid.js';
+export {
+  attributionAid,
+  HANDLING_CAUTIONS,
+  recordCautions,
+  safetyCautions,
+  safetyInputOf,
+  uvCaution,
+} from './aid.js';
 export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
-export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES, UV_A_POINTS } from './aid-rules.js';
+export {
+  AID_DISCLAIMER,
+  CAUTION_RULES,
+  INDICATION_RULES,
+  LEAD_WORDS,
+  PERIOD_RULES,
+  URANIUM_WORDS,
+  UV_A_POINTS,
+} from './aid-rules.js';
 export type {
   AidSource,
   AidCondition,

@@ -145,6 +145,8 @@ export interface Observations {
   holeShape?: 'irregular' | 'regular';
   windingMarks?: 'seen' | 'not-seen';
   beadShape?: 'irregular' | 'uniform';
+  /** A seam line where the two halves of a mould met. */
+  mouldSeam?: 'seen' | 'not-seen';
   surface?: 'glossy' | 'satin' | 'matte' | 'worn';
   foil?: 'none' | 'intact' | 'worn';
   uvA?: 'not-tested' | 'none' | 'green-glow' | 'other';

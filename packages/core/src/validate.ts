@@ -5,6 +5,7 @@ import {
   CONFIDENCES,
   DECORATIONS,
   ENTRY_KINDS,
+  FORMAT_VERSION,
   EXHIBIT_KINDS,
   LOT_FORMS,
   ORIGINS,
@@ -13,6 +14,7 @@ import {
   SEALED_FIELD_NAMES,
   TECHNIQUES,
   type EntryKind,
+  type FormatVersion,
   type SealedFieldName,
 } from './types.js';
 
@@ -73,6 +75,8 @@ type Obj = Record<string, unknown>;
 
 class Checker {
   issues: FieldIssue[] = [];
+  /** Format version whose body shapes apply. */
+  constructor(readonly version: FormatVersion = FORMAT_VERSION) {}
   fail(path: string, message: string): void {
     this.issues.push({ path, message });
   }
@@ -273,13 +277,24 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
       o.observations,
       p,
       [],
-      ['hole', 'holeShape', 'windingMarks', 'beadShape', 'surface', 'foil', 'uvA', 'note'],
+      [
+        'hole',
+        'holeShape',
+        'windingMarks',
+        'beadShape',
+        ...(c.version >= 2 ? ['mouldSeam'] : []),
+        'surface',
+        'foil',
+        'uvA',
+        'note',
+      ],
     );
     if (!ob) return;
     c.oneOf(ob, 'hole', p, ['clean', 'powder', 'green-traces', 'not-seen'], true);
     c.oneOf(ob, 'holeShape', p, ['irregular', 'regular'], true);
     c.oneOf(ob, 'windingMarks', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'beadShape', p, ['irregular', 'uniform'], true);
+    c.oneOf(ob, 'mouldSeam', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'surface', p, ['glossy', 'satin', 'matte', 'worn'], true);
     c.oneOf(ob, 'foil', p, ['none', 'intact', 'worn'], true);
     c.oneOf(ob, 'uvA', p, ['not-tested', 'none', 'green-glow', 'other'], true);
@@ -403,11 +418,16 @@ function answer(c: Checker, b: unknown): void {
 }
 
 /**
- * Checks a decoded body (nonce included) against the shape its kind requires. Returns every
- * problem found (empty when valid); never throws. Precondition: `kind` is an {@link EntryKind}.
+ * Checks a decoded body (nonce included) against the shape its kind requires in format
+ * `version` (default {@link FORMAT_VERSION}). Returns every problem found (empty when valid);
+ * never throws. Precondition: `kind` is an {@link EntryKind}.
  */
-export function bodyIssues(kind: EntryKind, body: unknown): FieldIssue[] {
-  const c = new Checker();
+export function bodyIssues(
+  kind: EntryKind,
+  body: unknown,
+  version: FormatVersion = FORMAT_VERSION,
+): FieldIssue[] {
+  const c = new Checker(version);
   if (!ENTRY_KINDS.includes(kind)) return [{ path: 'kind', message: 'is not a known kind' }];
   bodyCheckers[kind](c, body);
   if (

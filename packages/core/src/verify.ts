@@ -124,7 +124,7 @@ export class RollVerifier {
       }
       if (bodyDigest(entry.body) !== h.body)
         return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
-      const issues = bodyIssues(h.kind, body);
+      const issues = bodyIssues(h.kind, body, h.v);
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
       if (h.facts && canonicalise(factsOf(h.kind, body)) !== canonicalise(h.facts))
         return this.fail(h.seq, 'bad-facts', 'the header facts differ from the body');

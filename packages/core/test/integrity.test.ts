@@ -450,3 +450,13 @@ describe('what a version-1 removal leaves unchecked', () => {
     if (v.ok) expect(v.unchecked.map((u) => u.seq)).toEqual([3]);
   });
 });
+
+describe('version-2 body fields', () => {
+  it('a mould seam is recorded in version 2 and is an unknown field in version 1', () => {
+    const v2 = fortyBeads();
+    v2.add('observed', HOLDER, { observations: { mouldSeam: 'seen' } });
+    expect(verifyRoll(v2.stored).ok).toBe(true);
+    const v1 = fortyBeads(1);
+    expect(() => v1.add('observed', HOLDER, { observations: { mouldSeam: 'seen' } })).toThrow(/mouldSeam/);
+  });
+});

@@ -26,7 +26,7 @@ const resign = (e: BundleEntry, change: (h: Record<string, unknown>) => void): v
   e.hash = entryHash(e.header);
 };
 const last = (b: Bundle, roll = 0): BundleEntry => b.rolls[roll]!.entries.at(-1)!;
-const append = (b: Bundle, roll: number, draft: Parameters<typeof buildEntry>[1]): void => {
+const append = (b: Bundle, roll: number, draft: Omit<Parameters<typeof buildEntry>[1], 'time'>): void => {
   const prev = last(b, roll);
   const h = parseCanonical(prev.header) as { lot: string; seq: number; time: string };
   const e = buildEntry(

@@ -21,6 +21,7 @@ import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { StockModule } from './stock/stock.module';
 import { TagsModule } from './tags/tags.module';
+import { IdempotencyModule } from './idempotency/idempotency.module';
 import { StandbyModule } from './standby/standby.module';
 
 @Module({
@@ -32,6 +33,7 @@ import { StandbyModule } from './standby/standby.module';
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
     StandbyModule,
+    IdempotencyModule,
     HealthModule,
     MailModule,
     AuthModule,

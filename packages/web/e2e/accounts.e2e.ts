@@ -37,19 +37,19 @@ describe('accounts in Chromium', () => {
     const { page } = browser;
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
-    const email = `sela.${Date.now()}@example.test`;
+    const email = `sela.${Date.now()}@example.invalid`;
     const password = 'seven glass beads in a row';
 
     await page.goto(`${baseUrl}/sign-up`);
     await page.getByRole('textbox', { name: 'Your name' }).fill('Sela Marrowind');
     await page.getByRole('textbox', { name: /handle/i }).fill(`sela-${Date.now()}`);
     await page.getByRole('textbox', { name: 'Business name' }).fill('Marrowind Old Glass');
-    await page.getByRole('textbox', { name: 'Town' }).fill('Fernhollow');
-    await page.getByRole('textbox', { name: 'Country' }).fill('Estmark');
-    await page.getByRole('textbox', { name: 'Business address' }).fill('3 Lantern Yard, Fernhollow');
+    await page.getByRole('textbox', { name: 'Town' }).fill('Smalti Hollow');
+    await page.getByRole('textbox', { name: 'Country' }).fill('Frit Marches');
+    await page.getByRole('textbox', { name: 'Business address' }).fill('3 Lantern Yard, Smalti Hollow');
     await page
       .getByRole('textbox', { name: 'Trade references' })
-      .fill('Table 22 at the Fernhollow spring bead fair; buys from Varnas Bead Cellar.');
+      .fill('Table 22 at the Smalti Hollow spring bead fair; buys from Varnas Bead Cellar.');
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Apply' }).click();
@@ -84,8 +84,8 @@ describe('accounts in Chromium', () => {
     // The registrar reads the application before deciding.
     await row.getByRole('button', { name: 'Read the application' }).click();
     const application = page.getByRole('dialog', { name: 'Application of Sela Marrowind' });
-    await application.getByText('3 Lantern Yard, Fernhollow').waitFor();
-    await application.getByText(/Table 22 at the Fernhollow spring bead fair/).waitFor();
+    await application.getByText('3 Lantern Yard, Smalti Hollow').waitFor();
+    await application.getByText(/Table 22 at the Smalti Hollow spring bead fair/).waitFor();
     await application.getByText('None given').waitFor();
     await screenshot(page, 'accounts-application-1280');
     await application.getByRole('button', { name: 'Close' }).click();

@@ -77,7 +77,7 @@ describe('finding a lot in the inventory', () => {
   let lot: { code: string; title: string };
 
   beforeAll(async () => {
-    lot = await registerLot(baseUrl, 'Melon beads from the Ostrava box', {
+    lot = await registerLot(baseUrl, 'Melon beads from the attic box', {
       origin: 'bohemia-czech',
       period: { from: 1890, to: 1910, approximate: true },
       technique: 'furnace-wound',

@@ -32,7 +32,20 @@ export interface AppConfig {
     readonly fakeSmtp: boolean;
   };
   readonly jwtSecretFile: string;
-  readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
+  readonly scrypt: {
+    readonly cost: number;
+    readonly blockSize: number;
+    readonly parallelization: number;
+    /** Password hashes computed at once (each needs about 128·N·r bytes); the rest wait their turn. */
+    readonly concurrency: number;
+  };
+  /** Limits applied to every request body before it is validated. */
+  readonly requests: {
+    /** Largest JSON or form body, in bytes. */
+    readonly maxJsonBytes: number;
+    /** Deepest nesting of objects and lists in a body or query. */
+    readonly maxDepth: number;
+  };
   readonly throttle: { readonly limit: number; readonly ttlMs: number };
   readonly transfers: {
     /** An offer nobody answered lapses after this many days. */
@@ -180,6 +193,11 @@ export function loadConfig(env: Env = process.env): AppConfig {
       cost: int(env, 'SCRYPT_COST', 131072, 2, 1 << 22),
       blockSize: int(env, 'SCRYPT_BLOCK_SIZE', 8, 1, 64),
       parallelization: int(env, 'SCRYPT_PARALLELIZATION', 1, 1, 16),
+      concurrency: int(env, 'SCRYPT_CONCURRENCY', 1, 1, 64),
+    },
+    requests: {
+      maxJsonBytes: int(env, 'REQUEST_MAX_JSON_BYTES', 256 * 1024, 1024, 64 * 1024 * 1024),
+      maxDepth: int(env, 'REQUEST_MAX_DEPTH', 32, 4, 1000),
     },
     throttle: {
       limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),

@@ -15,6 +15,7 @@ import { RedactionRequest } from '../registry/entities/redaction-request.entity'
 import { RegistrarAction } from '../registry/entities/registrar-action.entity';
 import { Report } from '../registry/entities/report.entity';
 import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
+import { IdempotencyRecord } from '../idempotency/entities/idempotency-record.entity';
 import { OpinionRequestEntity } from '../opinions/entities/opinion-request.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
@@ -37,5 +38,6 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   RedactionRequest,
   Report,
   ExhibitEntity,
+  IdempotencyRecord,
   OpinionRequestEntity,
 ];

@@ -6,9 +6,10 @@ import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-C
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
 import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-CreateRateLimits';
-import { InventorySearch1796480000000 } from '../migrations/1796480000000-InventorySearch';
-import { OpinionRequests1796480100000 } from '../migrations/1796480100000-OpinionRequests';
-import { ApplicantDetails1796480200000 } from '../migrations/1796480200000-ApplicantDetails';
+import { CreateIdempotencyKeys1796480000000 } from '../migrations/1796480000000-CreateIdempotencyKeys';
+import { InventorySearch1796490000000 } from '../migrations/1796490000000-InventorySearch';
+import { OpinionRequests1796490100000 } from '../migrations/1796490100000-OpinionRequests';
+import { ApplicantDetails1796490200000 } from '../migrations/1796490200000-ApplicantDetails';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -19,7 +20,8 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
   CreateRateLimits1796470946374,
-  InventorySearch1796480000000,
-  OpinionRequests1796480100000,
-  ApplicantDetails1796480200000,
+  CreateIdempotencyKeys1796480000000,
+  InventorySearch1796490000000,
+  OpinionRequests1796490100000,
+  ApplicantDetails1796490200000,
 ];

@@ -27,7 +27,7 @@ export function attributionOnRecord(state: RollState): RecordedAttribution | nul
 /** Words a dealer types for each origin (the place names and the adjectives of the trade). */
 const ORIGIN_WORDS: Record<Origin, string> = {
   'venice-murano': 'Venice Murano Venetian Italy Italian',
-  'bohemia-czech': 'Bohemia Bohemian Czech Gablonz Jablonec',
+  'bohemia-czech': 'Bohemia Bohemian Czech',
   india: 'India Indian',
   china: 'China Chinese',
   japan: 'Japan Japanese',

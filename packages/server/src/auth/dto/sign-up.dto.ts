@@ -44,14 +44,14 @@ export class SignUpDto {
   @MaxLength(120, { message: 'must be at most 120 characters' })
   business: string;
 
-  @ApiProperty({ example: 'Lindenbrook' })
+  @ApiProperty({ example: 'Pulegoso Brook' })
   @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'is required' })
   @MaxLength(80, { message: 'must be at most 80 characters' })
   town: string;
 
-  @ApiProperty({ example: 'Norland' })
+  @ApiProperty({ example: 'Punty Reach' })
   @Transform(trim)
   @IsString()
   @MinLength(2, { message: 'is required' })
@@ -59,7 +59,7 @@ export class SignUpDto {
   country: string;
 
   @ApiProperty({
-    example: '4 Quay Lane, Lindenbrook',
+    example: '4 Quay Lane, Pulegoso Brook',
     description: 'the business address, for the registrar',
   })
   @Transform(trim)
@@ -82,7 +82,7 @@ export class SignUpDto {
 
   @ApiProperty({
     description: 'dealers, fairs or associations who know your trade, for the registrar',
-    example: 'Stand 14 at the Lindenbrook bead fair since 2019; buys from Rue Lampwork Finds.',
+    example: 'Stand 14 at the Pulegoso Brook bead fair since 2019; buys from Rue Lampwork Finds.',
   })
   @Transform(trim)
   @Length(10, 2000, {
@@ -91,7 +91,7 @@ export class SignUpDto {
   })
   tradeReferences: string;
 
-  @ApiProperty({ example: 'mira@example.test' })
+  @ApiProperty({ example: 'mira@example.invalid' })
   @Transform(trim)
   @IsEmail({}, { message: 'must be an e-mail address' })
   @MaxLength(254, { message: 'must be at most 254 characters' })

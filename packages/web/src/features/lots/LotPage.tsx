@@ -1,4 +1,4 @@
-import { verifyRoll, type RollState } from '@beadroll/core';
+import { recordCautions, verifyRoll, type RollState } from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -33,6 +33,7 @@ import {
 } from './labels';
 import { LOT_ACTIONS, LOT_PANELS, type LotActionContext } from './lot-actions';
 import { lotsQueries, useActorNames, type OwnSealedDetails } from './lots.api';
+import { SafetyCautions } from '../safety/SafetyCautions';
 import { PrivateMark } from './PrivateMark';
 import { checkedSealedDetails } from './sealed-details';
 import { timelineOf } from './timeline';
@@ -285,6 +286,9 @@ export function LotPage() {
       ) : null}
       {ctx ? <ActionBar ctx={ctx} /> : null}
       {state ? <Summary state={state} /> : null}
+      {result.ok ? (
+        <SafetyCautions cautions={recordCautions(result.verified)} label="Handling cautions" />
+      ) : null}
       {sealed ? <SealedDetails sealed={sealed.details} /> : null}
       {result.ok ? <Timeline entries={result.verified} viewer={account} /> : null}
       {ctx ? LOT_PANELS.map((p) => <Fragment key={p.id}>{p.render(ctx)}</Fragment>) : null}

@@ -135,6 +135,7 @@ const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observat
   holeShape: (v) => (v === 'irregular' ? 'irregular hole' : 'regular hole'),
   windingMarks: (v) => (v === 'seen' ? 'winding marks seen' : 'no winding marks seen'),
   beadShape: (v) => (v === 'irregular' ? 'irregular shapes' : 'uniform shapes'),
+  mouldSeam: (v) => (v === 'seen' ? 'mould seam seen' : 'no mould seam seen'),
   surface: (v) => `${v} surface`,
   foil: (v) => ({ none: 'no foil', intact: 'foil intact', worn: 'foil worn' })[v],
   uvA: (v) =>
@@ -150,7 +151,17 @@ const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observat
 /** The recorded physical clues as a list of short phrases. */
 export function observationPhrases(o: Observations): string[] {
   const out: string[] = [];
-  for (const key of ['hole', 'holeShape', 'windingMarks', 'beadShape', 'surface', 'foil', 'uvA'] as const) {
+  const keys = [
+    'hole',
+    'holeShape',
+    'windingMarks',
+    'beadShape',
+    'mouldSeam',
+    'surface',
+    'foil',
+    'uvA',
+  ] as const;
+  for (const key of keys) {
     const v = o[key];
     if (v !== undefined) out.push((OBSERVATION_WORDS[key] as (x: typeof v) => string)(v));
   }

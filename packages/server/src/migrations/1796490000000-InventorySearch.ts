@@ -6,8 +6,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
  * beside each lot for sorting and filtering, and each reader's own storage place in a table of
  * its own, so one dealer's private words never match another dealer's search.
  */
-export class InventorySearch1796480000000 implements MigrationInterface {
-  name = 'InventorySearch1796480000000';
+export class InventorySearch1796490000000 implements MigrationInterface {
+  name = 'InventorySearch1796490000000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`CREATE EXTENSION IF NOT EXISTS "unaccent"`);

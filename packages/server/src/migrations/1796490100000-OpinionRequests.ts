@@ -5,8 +5,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
  * assessor. While it is open the assessor may read the lot (listed or not) and record an
  * opinion on it; it closes when an opinion is recorded or the holder cancels.
  */
-export class OpinionRequests1796480100000 implements MigrationInterface {
-  name = 'OpinionRequests1796480100000';
+export class OpinionRequests1796490100000 implements MigrationInterface {
+  name = 'OpinionRequests1796490100000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`

@@ -4,8 +4,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
  * What an applicant tells the registrar about their business: its address, website and trade
  * references. Accounts from before this migration have none (empty text, no website).
  */
-export class ApplicantDetails1796480200000 implements MigrationInterface {
-  name = 'ApplicantDetails1796480200000';
+export class ApplicantDetails1796490200000 implements MigrationInterface {
+  name = 'ApplicantDetails1796490200000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`ALTER TABLE "accounts" ADD COLUMN "address" varchar(300) NOT NULL DEFAULT ''`);
