@@ -19,6 +19,7 @@ import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
+import { StockModule } from './stock/stock.module';
 import { TagsModule } from './tags/tags.module';
 import { LogModule } from './log/log.module';
 import { IdempotencyModule } from './idempotency/idempotency.module';
@@ -50,6 +51,7 @@ import { StandbyModule } from './standby/standby.module';
     TagsModule,
     VerifyPageModule,
     LogModule,
+    StockModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ErrorFilter }],
 })

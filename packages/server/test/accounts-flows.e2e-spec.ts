@@ -15,6 +15,9 @@ function applicant(n: string) {
     business: 'Vetro Trade Beads',
     town: 'Zanfirico Cross',
     country: 'Punty Reach',
+    address: '12 Cinder Row, Zanfirico Cross',
+    website: 'https://vetro-beads.example',
+    tradeReferences: 'Stand 7 at the Zanfirico Cross winter bead fair; buys from Rue Lampwork Finds.',
     email: `dana.${n}@example.invalid`,
     password: 'a long enough passphrase',
   };
@@ -75,6 +78,9 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
       business: 'Vetro Trade Beads',
       town: 'Zanfirico Cross',
       country: 'Punty Reach',
+      address: '12 Cinder Row, Zanfirico Cross',
+      website: 'https://vetro-beads.example',
+      tradeReferences: 'Stand 7 at the Zanfirico Cross winter bead fair; buys from Rue Lampwork Finds.',
     });
     await registrar.agent.post(`/api/registry/accounts/${row.id}/approve`).set(W).expect(200);
     expect(lastMailTo(t, a.email).subject).toMatch(/verified/i);
@@ -96,6 +102,23 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
       ].sort(),
     );
     expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Zanfirico Cross' });
+  });
+
+  it('asks for the business address and trade references, and a website only as a web address', async () => {
+    const { address: _a, tradeReferences: _t, ...rest } = applicant('nodetails');
+    const res = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...rest, website: 'vetro beads' })
+      .expect(400);
+    const fields = (res.body.error.fields as Array<{ field: string; reason: string }>).map((f) => f.field);
+    expect(fields.sort()).toEqual(['address', 'tradeReferences', 'website']);
+    const ok = await http()
+      .post('/api/auth/sign-up')
+      .set(W)
+      .send({ ...applicant('nosite'), website: '  ' })
+      .expect(202);
+    expect(ok.body.message).toBeDefined();
   });
 
   it('a second sign-up with a known address answers the same and mails the owner a notice', async () => {

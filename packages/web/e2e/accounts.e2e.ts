@@ -46,6 +46,10 @@ describe('accounts in Chromium', () => {
     await page.getByRole('textbox', { name: 'Business name' }).fill('Marrowind Old Glass');
     await page.getByRole('textbox', { name: 'Town' }).fill('Smalti Hollow');
     await page.getByRole('textbox', { name: 'Country' }).fill('Frit Marches');
+    await page.getByRole('textbox', { name: 'Business address' }).fill('3 Lantern Yard, Smalti Hollow');
+    await page
+      .getByRole('textbox', { name: 'Trade references' })
+      .fill('Table 22 at the Smalti Hollow spring bead fair; buys from Varnas Bead Cellar.');
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Apply' }).click();
@@ -77,7 +81,19 @@ describe('accounts in Chromium', () => {
     const row = page.getByRole('row').filter({ hasText: 'Sela Marrowind' });
     await row.waitFor();
     await screenshot(page, 'accounts-registry-1280');
-    await row.getByRole('button', { name: 'Approve' }).click();
+    // The registrar reads the application before deciding.
+    await row.getByRole('button', { name: 'Read the application' }).click();
+    const application = page.getByRole('dialog', { name: 'Application of Sela Marrowind' });
+    await application.getByText('3 Lantern Yard, Smalti Hollow').waitFor();
+    await application.getByText(/Table 22 at the Smalti Hollow spring bead fair/).waitFor();
+    await application.getByText('None given').waitFor();
+    await screenshot(page, 'accounts-application-1280');
+    await application.getByRole('button', { name: 'Close' }).click();
+    // Approving asks first.
+    await row.getByRole('button', { name: 'Approve…' }).click();
+    const confirm = page.getByRole('dialog', { name: 'Approve Sela Marrowind?' });
+    await confirm.waitFor();
+    await confirm.getByRole('button', { name: 'Approve' }).click();
     await row.waitFor({ state: 'detached' });
     await signOut(page);
 

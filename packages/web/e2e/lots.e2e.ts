@@ -85,7 +85,7 @@ describe('the dealer’s lots in Chromium', () => {
       .getByRole('search', { name: 'Find lots' })
       .locator('.fui-SearchBox, .fui-Dropdown')
       .evaluateAll((els) => els.map((e) => e.getBoundingClientRect().toJSON() as DOMRect));
-    expect(controls).toHaveLength(6);
+    expect(controls).toHaveLength(7);
     for (let i = 1; i < controls.length; i++) {
       const [a, b] = [controls[i - 1]!, controls[i]!];
       if (a.top === b.top) expect(a.right).toBeLessThan(b.left);

@@ -5,6 +5,7 @@ import { EntryBodyEntity } from '../ledger/entities/entry-body.entity';
 import { EntryEntity } from '../ledger/entities/entry.entity';
 import { LotEntity } from '../ledger/entities/lot.entity';
 import { SealedFieldEntity } from '../ledger/entities/sealed-field.entity';
+import { LotPrivateSearchEntity } from '../lots/entities/lot-private-search.entity';
 import { LotViewEntity } from '../lots/entities/lot-view.entity';
 import { SaleEntity } from '../transfers/entities/sale.entity';
 import { TransferInvitationEntity } from '../transfers/entities/transfer-invitation.entity';
@@ -15,6 +16,7 @@ import { RegistrarAction } from '../registry/entities/registrar-action.entity';
 import { Report } from '../registry/entities/report.entity';
 import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
 import { IdempotencyRecord } from '../idempotency/entities/idempotency-record.entity';
+import { OpinionRequestEntity } from '../opinions/entities/opinion-request.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -27,6 +29,7 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   EntryBodyEntity,
   SealedFieldEntity,
   LotViewEntity,
+  LotPrivateSearchEntity,
   TransferOfferEntity,
   SaleEntity,
   TransferInvitationEntity,
@@ -36,4 +39,5 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   Report,
   ExhibitEntity,
   IdempotencyRecord,
+  OpinionRequestEntity,
 ];

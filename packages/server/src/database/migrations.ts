@@ -9,6 +9,9 @@ import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-Creat
 import { RefreshCachedRollState1796471607047 } from '../migrations/1796471607047-RefreshCachedRollState';
 import { CreateIdempotencyKeys1796480000000 } from '../migrations/1796480000000-CreateIdempotencyKeys';
 import { CreateLog1796490000000 } from '../migrations/1796490000000-CreateLog';
+import { InventorySearch1796490300000 } from '../migrations/1796490300000-InventorySearch';
+import { OpinionRequests1796490400000 } from '../migrations/1796490400000-OpinionRequests';
+import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -22,4 +25,7 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   RefreshCachedRollState1796471607047,
   CreateIdempotencyKeys1796480000000,
   CreateLog1796490000000,
+  InventorySearch1796490300000,
+  OpinionRequests1796490400000,
+  ApplicantDetails1796490500000,
 ];

@@ -85,20 +85,57 @@ export class RollReaderService {
   }
 
   /** The sealed fields of a lot's entries that `viewer` may read (none for anyone else). */
-  async sealedFor(lotId: string, viewer: string): Promise<ViewerSealedField[]> {
+  async sealedFor(
+    lotId: string,
+    viewer: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<ViewerSealedField[]> {
     const rows: Array<{
       seq: number;
       name: SealedFieldName;
       salt: string;
       value: string;
       commitment: string;
-    }> = await this.dataSource.query(
+    }> = await manager.query(
       `SELECT e."seq", s."name", s."salt", s."value", s."commitment"
          FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
          WHERE e."lot_id" = $1 AND $2 = ANY(s."visible_to") ORDER BY e."seq", s."name"`,
       [lotId, viewer],
     );
     return rows.map((r) => ({ ...r, value: JSON.parse(r.value) as unknown }));
+  }
+
+  /**
+   * The named sealed fields that `viewer` may read, of many lots at once, per lot id in seq
+   * order (the same rule as {@link sealedFor}: nobody else's values).
+   */
+  async sealedForLots(
+    lotIds: readonly string[],
+    viewer: string,
+    names: readonly SealedFieldName[],
+  ): Promise<Map<string, ViewerSealedField[]>> {
+    const out = new Map<string, ViewerSealedField[]>();
+    if (lotIds.length === 0 || names.length === 0) return out;
+    const rows: Array<{
+      lot_id: string;
+      seq: number;
+      name: SealedFieldName;
+      salt: string;
+      value: string;
+      commitment: string;
+    }> = await this.dataSource.query(
+      `SELECT e."lot_id", e."seq", s."name", s."salt", s."value", s."commitment"
+         FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
+        WHERE e."lot_id" = ANY($1::uuid[]) AND s."name" = ANY($3::text[]) AND $2 = ANY(s."visible_to")
+        ORDER BY e."lot_id", e."seq", s."name"`,
+      [lotIds, viewer, names],
+    );
+    for (const { lot_id, ...r } of rows) {
+      const list = out.get(lot_id) ?? [];
+      list.push({ ...r, value: JSON.parse(r.value) as unknown });
+      out.set(lot_id, list);
+    }
+    return out;
   }
 
   /** Commitments of every sealed field of the given entries (names and digests only). */

@@ -3,11 +3,19 @@ import type { ObservedBody, Observations, RedactedBody, RollState } from '@beadr
 import type { EntityManager } from 'typeorm';
 import { LedgerService } from '../ledger/ledger.service';
 import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
+import { RollReaderService } from '../ledger/roll-reader.service';
+import { attributionOnRecord, attributionWords, decorationWords } from './attribution-on-record';
+
+/** Entry kinds that may seal a storage place (a registration or a new description). */
+const STORAGE_KINDS = new Set(['registered', 'described']);
 
 /** Keeps `lot_views` in step with each roll, inside the append transaction. */
 @Injectable()
 export class LotViewProjector implements RollProjector, OnModuleInit {
-  constructor(private readonly ledger: LedgerService) {}
+  constructor(
+    private readonly ledger: LedgerService,
+    private readonly reader: RollReaderService,
+  ) {}
 
   onModuleInit(): void {
     this.ledger.addProjector(this);
@@ -37,12 +45,12 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
     await m.query(
       `INSERT INTO "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
          "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
-         "search_text", "registered_at", "updated_at")
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $16)
+         "search_text", "registered_at", "updated_at", "technique", "period_from", "period_to")
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $16, $17, $18, $19)
        ON CONFLICT ("lot_id") DO UPDATE SET "title" = $3, "form" = $4, "status" = $5, "holder" = $6,
          "listed" = $7, "origin" = $8, "count_value" = $9, "count_estimated" = $10, "dissent_count" = $11,
          "offer_recipient" = $12, "observations" = $13, "head_seq" = $14, "search_text" = $15,
-         "updated_at" = $16`,
+         "updated_at" = $16, "technique" = $17, "period_from" = $18, "period_to" = $19`,
       [
         lotId,
         v.code,
@@ -60,8 +68,31 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
         v.head_seq,
         v.search_text,
         entry.time,
+        v.technique,
+        v.period_from,
+        v.period_to,
       ],
     );
+    if (STORAGE_KINDS.has(entry.kind)) await this.projectStorage(m, lotId, entry.actor);
+  }
+
+  /** The writer's newest sealed storage place, as words only their own searches match. */
+  private async projectStorage(m: EntityManager, lotId: string, actor: string): Promise<void> {
+    const place = (await this.reader.sealedFor(lotId, actor, m))
+      .filter((f) => f.name === 'storage-location')
+      .pop()?.value;
+    if (typeof place === 'string' && place.trim()) {
+      await m.query(
+        `INSERT INTO "lot_private_search" ("lot_id", "account_id", "search_text") VALUES ($1, $2, $3)
+         ON CONFLICT ("lot_id", "account_id") DO UPDATE SET "search_text" = $3`,
+        [lotId, actor, place],
+      );
+    } else {
+      await m.query('DELETE FROM "lot_private_search" WHERE "lot_id" = $1 AND "account_id" = $2', [
+        lotId,
+        actor,
+      ]);
+    }
   }
 }
 
@@ -81,6 +112,9 @@ export interface LotViewValues {
   observations: Observations | null;
   head_seq: number;
   search_text: string;
+  technique: string | null;
+  period_from: number | null;
+  period_to: number | null;
 }
 
 /**
@@ -89,6 +123,7 @@ export interface LotViewValues {
  */
 export function lotViewValues(s: RollState, observations: Observations | null): LotViewValues {
   const d = s.description;
+  const attribution = attributionOnRecord(s);
   return {
     code: s.lot,
     title: d?.title ?? '',
@@ -96,15 +131,26 @@ export function lotViewValues(s: RollState, observations: Observations | null): 
     status: s.status,
     holder: s.holder,
     listed: s.listed,
-    origin: s.attribution?.body?.origin ?? null,
+    origin: attribution?.origin ?? null,
     count_value: s.remaining.value,
     count_estimated: s.remaining.estimated,
     dissent_count: s.dissents.length,
     offer_recipient: s.openOffer?.recipient ?? null,
     observations,
     head_seq: s.head.seq,
-    search_text: d
-      ? [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' ')
-      : '',
+    search_text: [
+      d?.title,
+      d?.summary,
+      d?.colours.join(' '),
+      d ? decorationWords(d.decoration) : '',
+      d?.decorationNote,
+      d?.condition,
+      attributionWords(attribution),
+    ]
+      .filter(Boolean)
+      .join(' '),
+    technique: attribution?.technique ?? null,
+    period_from: attribution?.period.from ?? null,
+    period_to: attribution?.period.to ?? null,
   };
 }

@@ -18,6 +18,7 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { attributionOnRecord } from './attribution-on-record';
 import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
 import type {
   LotDetailResponse,
@@ -41,6 +42,14 @@ export interface LotReadGrant {
   upTo(viewer: Viewer, lotId: string): Promise<number | null>;
 }
 
+/**
+ * Full read access other features give to a lot the viewer may not otherwise read (for
+ * example an assessor asked for an opinion, while the request is open).
+ */
+export interface LotFullReadGrant {
+  mayRead(viewer: Viewer, lotId: string): Promise<boolean>;
+}
+
 /** What a viewer may read of a lot: all of it (`upTo` null) or its roll up to a seq. */
 export interface ReadAccess {
   code: string;
@@ -57,6 +66,9 @@ interface LotViewRow {
   holder: string;
   listed: boolean;
   origin: string | null;
+  technique: string | null;
+  period_from: number | null;
+  period_to: number | null;
   count_value: number;
   count_estimated: boolean;
   dissent_count: number;
@@ -83,7 +95,36 @@ const SORT_COLUMNS: Record<NonNullable<ListLotsQueryDto['sort']>, string> = {
   updated: 'v."updated_at"',
   title: 'lower(v."title")',
   code: 'v."code"',
+  form: 'v."form"',
+  count: 'v."count_value"',
+  origin: 'v."origin"',
+  period: 'v."period_from"',
+  technique: 'v."technique"',
+  status: 'v."status"',
+  listed: 'v."listed"',
 };
+
+/**
+ * The words of a search as a prefix-matching tsquery text (`word:* & word:*`), or null. Only
+ * letters and digits survive, so nothing typed can change the query's syntax.
+ */
+export function searchQueryText(text: string): string | null {
+  const words = text
+    .normalize('NFC')
+    .split(/[^\p{L}\p{N}]+/u)
+    .filter(Boolean)
+    .slice(0, 16);
+  return words.length ? words.map((w) => `${w}:*`).join(' & ') : null;
+}
+
+/**
+ * The start of a lot code as typed (hyphens and spaces dropped, case and the look-alike
+ * letters I, L, O folded as lot codes fold them), or null when it cannot start a code.
+ */
+export function codePrefix(text: string): string | null {
+  const s = text.replace(/[-\s]/g, '').toUpperCase().replace(/[IL]/g, '1').replace(/O/g, '0');
+  return /^[0-9A-HJKMNP-TV-Z]{3,9}$/.test(s) ? s : null;
+}
 
 /** Plain data from a validated DTO (class instances → the JSON shapes core expects). */
 function plain<T>(dto: unknown): T {
@@ -114,6 +155,8 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
     holder: r.holder,
     origin: r.origin,
     originSource: r.origin ? 'holder' : null,
+    technique: r.technique,
+    period: r.period_from === null || r.period_to === null ? null : { from: r.period_from, to: r.period_to },
     count: { value: r.count_value, estimated: r.count_estimated },
     dissents: r.dissent_count,
     headSeq: r.head_seq,
@@ -130,6 +173,7 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
 @Injectable()
 export class LotsService {
   private readonly grants: LotReadGrant[] = [];
+  private readonly fullGrants: LotFullReadGrant[] = [];
 
   constructor(
     private readonly dataSource: DataSource,
@@ -137,6 +181,11 @@ export class LotsService {
     private readonly reader: RollReaderService,
     private readonly bundles: BundleService,
   ) {}
+
+  /** Adds a full read grant, consulted for lots the viewer may not otherwise read. */
+  addFullReadGrant(grant: LotFullReadGrant): void {
+    this.fullGrants.push(grant);
+  }
 
   /** Adds a read grant, consulted for lots the viewer may not read in full. */
   addReadGrant(grant: LotReadGrant): void {
@@ -232,17 +281,55 @@ export class LotsService {
     if (q.status) where.push(`v."status" = ${p(q.status)}`);
     if (q.form) where.push(`v."form" = ${p(q.form)}`);
     if (q.origin) where.push(`v."origin" = ${p(q.origin)}`);
+    if (q.technique) where.push(`v."technique" = ${p(q.technique)}`);
     if (q.listed !== undefined) where.push(`v."listed" = ${p(q.listed)}`);
-    const text = q.q?.trim();
-    if (text) where.push(`v."search" @@ websearch_to_tsquery('english', ${p(text)})`);
+    // A search matches the lots whose words match, whose code starts with what was typed, or
+    // whose storage place (the viewer's own words only) matches. In one's own inventory the
+    // few lots held are filtered row by row; across every listed lot the matches are gathered
+    // from the indexes first.
+    let from = '"lot_views" v';
+    const text = q.q?.trim() ?? '';
+    const tsq = searchQueryText(text);
+    const prefix = codePrefix(text);
+    if (tsq || prefix) {
+      const t = tsq ? p(tsq) : null;
+      const c = prefix ? p(`${prefix}%`) : null;
+      const me = t ? p(viewer.id) : null;
+      if (q.mine) {
+        const any: string[] = [];
+        if (t) {
+          any.push(`v."search" @@ to_tsquery('beadroll_text', ${t})`);
+          any.push(
+            `EXISTS (SELECT 1 FROM "lot_private_search" s WHERE s."lot_id" = v."lot_id"
+               AND s."account_id" = ${me} AND s."search" @@ to_tsquery('beadroll_text', ${t}))`,
+          );
+        }
+        if (c) any.push(`v."code" LIKE ${c}`);
+        where.push(`(${any.join(' OR ')})`);
+      } else {
+        const hits: string[] = [];
+        if (t) {
+          hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "search" @@ to_tsquery('beadroll_text', ${t})`);
+          hits.push(
+            `SELECT "lot_id" FROM "lot_private_search" WHERE "account_id" = ${me}
+               AND "search" @@ to_tsquery('beadroll_text', ${t})`,
+          );
+        }
+        if (c) hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "code" LIKE ${c}`);
+        from = `(${hits.join(' UNION ')}) h JOIN "lot_views" v ON v."lot_id" = h."lot_id"`;
+      }
+    } else if (text) {
+      where.push('false');
+    }
     const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-    const order = `${SORT_COLUMNS[q.sort ?? 'registered']} ${q.order === 'asc' ? 'ASC' : 'DESC'}, v."code" ASC`;
+    const dir = q.order === 'asc' ? 'ASC' : 'DESC';
+    const order = `${SORT_COLUMNS[q.sort ?? 'registered']} ${dir} NULLS LAST, v."code" ASC`;
     const [{ total }] = (await this.dataSource.query(
-      `SELECT count(*)::int AS "total" FROM "lot_views" v ${clause}`,
+      `SELECT count(*)::int AS "total" FROM ${from} ${clause}`,
       params,
     )) as Array<{ total: number }>;
     const rows: LotViewRow[] = await this.dataSource.query(
-      `SELECT v.* FROM "lot_views" v ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
+      `SELECT v.* FROM ${from} ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
       params,
     );
     const items = await Promise.all(rows.map((r) => this.withRecord(toSummary(r))));
@@ -362,7 +449,7 @@ export class LotsService {
   async readableCode(viewer: Viewer, text: string): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
     const view = code ? await this.view(code) : null;
-    if (!view || !this.canRead(viewer, view)) throw new AppError('not_found', 'Not found.');
+    if (!view || !(await this.mayReadInFull(viewer, view))) throw new AppError('not_found', 'Not found.');
     return view.code;
   }
 
@@ -374,7 +461,8 @@ export class LotsService {
   async readAccess(viewer: Viewer, text: string): Promise<ReadAccess> {
     const code = RollReaderService.canonicalCode(text);
     const view = code ? await this.view(code) : null;
-    if (view && this.canRead(viewer, view)) return { code: view.code, lotId: view.lot_id, upTo: null };
+    if (view && (await this.mayReadInFull(viewer, view)))
+      return { code: view.code, lotId: view.lot_id, upTo: null };
     if (view) {
       for (const g of this.grants) {
         const upTo = await g.upTo(viewer, view.lot_id);
@@ -390,6 +478,7 @@ export class LotsService {
     const r = verifyRoll(entries, { lot: access.code });
     if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
     const s = r.state;
+    const recorded = attributionOnRecord(s);
     const view = (await this.view(access.code))!;
     const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
     const head = entries[entries.length - 1]!;
@@ -402,8 +491,10 @@ export class LotsService {
       status: s.status,
       listed: s.listed,
       holder: s.holder,
-      origin: s.attribution?.body?.origin ?? null,
-      originSource: s.attribution?.body ? 'holder' : null,
+      origin: recorded?.origin ?? null,
+      originSource: recorded ? 'holder' : null,
+      technique: recorded?.technique ?? null,
+      period: recorded ? { from: recorded.period.from, to: recorded.period.to } : null,
       count: s.remaining,
       dissents: s.dissents.length,
       headSeq: s.head.seq,
@@ -421,6 +512,12 @@ export class LotsService {
       sealed,
       historyUpTo: access.upTo!,
     };
+  }
+
+  private async mayReadInFull(viewer: Viewer, view: LotViewRow): Promise<boolean> {
+    if (this.canRead(viewer, view)) return true;
+    for (const g of this.fullGrants) if (await g.mayRead(viewer, view.lot_id)) return true;
+    return false;
   }
 
   private canRead(viewer: Viewer, v: Pick<LotViewRow, 'listed' | 'holder' | 'offer_recipient'>): boolean {

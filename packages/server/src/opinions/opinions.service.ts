@@ -25,6 +25,7 @@ import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
+import { OpinionRequestsService } from './opinion-requests.service';
 import type { AttributionAidDto } from './dto/aid-request.dto';
 import type { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
 import type {
@@ -62,6 +63,7 @@ export class OpinionsService {
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
     private readonly reader: RollReaderService,
+    private readonly requests: OpinionRequestsService,
     private readonly cards: DealerCardsService,
     private readonly mail: MailService,
     private readonly clock: LedgerClock,
@@ -91,11 +93,21 @@ export class OpinionsService {
     if (body.adopts) await this.checkAdopted(me, code, body.adopts);
     const written = await this.ledger.withLots([code], async (tx) => {
       const state = tx.state(code);
+      const lotId = (await this.reader.findLot(code, tx.manager))!.id;
+      const asked = await this.requests.isAsked(me, lotId, tx.manager);
+      // The ledger's rules admit an opinion from anyone but the holder on a listed lot only: an
+      // assessor asked about an unlisted lot reads it, and the holder lists it for the answer.
       if (state.holder !== me.id && !state.listed)
-        throw new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
+        throw asked
+          ? new AppError(
+              'roll_rule',
+              'This lot is unlisted: an opinion from anyone but its holder goes only on the roll of a listed lot. Ask the holder to list it, then record your opinion.',
+            )
+          : new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
       await this.checkExhibits(tx, code, body.exhibits);
       await this.checkDailyLimit(tx, code, me.id, now);
       const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });
+      if (asked) await this.requests.answer(tx.manager, lotId, me.id, entry.seq);
       return {
         entry,
         dissent: entry.state.dissents.some((d) => d.seq === entry.seq),

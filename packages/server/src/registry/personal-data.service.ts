@@ -24,6 +24,9 @@ export interface PersonalDataExport {
     business: string;
     town: string;
     country: string;
+    address: string;
+    website: string | null;
+    tradeReferences: string;
     emailConfirmedAt: string | null;
     verifiedSince: string | null;
     statusReason: string | null;
@@ -133,6 +136,9 @@ export class PersonalDataService {
         business: a.business,
         town: a.town,
         country: a.country,
+        address: a.address,
+        website: a.website,
+        tradeReferences: a.tradeReferences,
         emailConfirmedAt: a.emailVerifiedAt?.toISOString() ?? null,
         verifiedSince: a.verifiedAt?.toISOString() ?? null,
         statusReason: a.statusReason,
@@ -187,6 +193,9 @@ export class PersonalDataService {
           business: '',
           town: '',
           country: '',
+          address: '',
+          website: null,
+          tradeReferences: '',
           passwordHash: null,
           statusReason: null,
         },
@@ -199,6 +208,7 @@ export class PersonalDataService {
         [a.id],
       );
       await m.query(`SELECT set_config('beadroll.closing_account', '', true)`);
+      await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [a.id]);
       await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
     });
     await this.sessions.revokeAll(a.id, 'closed');

@@ -203,8 +203,11 @@ export class TransfersService implements OnModuleInit {
     const page = q.page ?? 1;
     const pageSize = q.pageSize ?? 20;
     const where = q.box === 'incoming' ? { recipient: me.id } : { offerer: me.id };
+    const code = q.lot === undefined ? undefined : RollReaderService.canonicalCode(q.lot);
+    if (code === null)
+      throw AppError.validation([{ field: 'lot', reason: 'lot must be a lot code such as 7K2Q-M9XA-T' }]);
     const [rows, total] = await this.offers.findAndCount({
-      where: { ...where, ...(q.status ? { status: q.status } : {}) },
+      where: { ...where, ...(q.status ? { status: q.status } : {}), ...(code ? { code } : {}) },
       order: { offeredAt: 'DESC', id: 'ASC' },
       skip: (page - 1) * pageSize,
       take: pageSize,

@@ -103,6 +103,14 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/tags/lots/:code': { roles: ['dealer'] },
   'POST /api/tags/pdf': { roles: ['dealer'] },
   'POST /api/tags/list': { roles: ['dealer'], writer: true },
+  // opinions on request
+  'POST /api/opinion-requests': { roles: ['dealer'], writer: true },
+  'GET /api/opinion-requests': { roles: ['dealer', 'assessor'] },
+  'GET /api/opinion-requests/assessors': { roles: ['dealer'] },
+  'POST /api/opinion-requests/:id/cancel': { roles: ['dealer'] },
+  // the dealer's own stock and sales figures
+  'GET /api/stock/summary': { roles: ['dealer'] },
+  'GET /api/stock/export': { roles: ['dealer'] },
   // exhibits
   'POST /api/lots/:code/exhibits': { roles: ['dealer', 'assessor'], writer: true },
   'GET /api/lots/:code/exhibits': 'signed-in',

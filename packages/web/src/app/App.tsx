@@ -18,6 +18,7 @@ import { NotFoundPage } from '../features/not-found/NotFoundPage';
 import { OfferPage } from '../features/transfers/OfferPage';
 import { OffersPage } from '../features/transfers/OffersPage';
 import { SalesPage } from '../features/transfers/SalesPage';
+import { WaitingOffersCount } from '../features/transfers/WaitingOffersCount';
 import { AuditPage } from '../features/registry/AuditPage';
 import { MyDataPage } from '../features/registry/MyDataPage';
 import { RecordPage } from '../features/registry/RecordPage';
@@ -33,9 +34,10 @@ const NAV: NavItem[] = [
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
   { to: '/lots', label: 'Inventory', roles: ['dealer'] },
   { to: '/lots/new', label: 'Register a lot', roles: ['dealer'], writer: true },
-  { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'] },
+  { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'], After: WaitingOffersCount },
   { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
   { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
+  { to: '/stock', label: 'Figures', roles: ['dealer'] },
   { to: '/registry/reports', label: 'Reports', roles: ['registrar'] },
   { to: '/registry/redactions', label: 'Redaction', roles: ['registrar'] },
   { to: '/registry/record', label: 'Record', roles: ['registrar'] },
@@ -81,6 +83,11 @@ export const routes: RouteObject[] = [
         lazy: async () => ({
           Component: (await import('../features/scanner/ScannedLotPage')).ScannedLotPage,
         }),
+      },
+      // The figures page carries the chart library: the dealer app loads it on first use.
+      {
+        path: 'stock',
+        lazy: async () => ({ Component: (await import('../features/stock/StockPage')).StockPage }),
       },
       {
         path: 'tags',

@@ -10,7 +10,7 @@ import {
   Text,
   tokens,
 } from '@fluentui/react-components';
-import type { ReactNode } from 'react';
+import type { ComponentType, ReactNode } from 'react';
 import { Link, Outlet, useLocation, useNavigate } from 'react-router-dom';
 
 /** Below this width the navigation folds into one menu button. */
@@ -83,6 +83,8 @@ export interface NavItem {
   signedIn?: boolean;
   /** Shown only to accounts the registrar has verified (they may write to rolls). */
   writer?: boolean;
+  /** Shown after the label, such as a count of things waiting. */
+  After?: ComponentType;
 }
 
 /**
@@ -119,6 +121,7 @@ function CompactNav({ nav, current }: { nav: NavItem[]; current: NavItem | undef
                 onClick={() => navigate(item.to)}
               >
                 {item.label}
+                {item.After ? <item.After /> : null}
               </MenuItem>
             ))}
           </MenuList>
@@ -147,6 +150,7 @@ export function Shell({ nav, account }: { nav: NavItem[]; account?: ReactNode })
               className={mergeClasses(styles.link, item === current && styles.active)}
             >
               {item.label}
+              {item.After ? <item.After /> : null}
             </Link>
           ))}
         </nav>

@@ -38,6 +38,9 @@ export interface ApplicantResponse {
   business: string;
   town: string;
   country: string;
+  address: string;
+  website: string | null;
+  tradeReferences: string;
   appliedAt: string;
   verifiedSince: string | null;
   statusReason: string | null;
@@ -61,6 +64,9 @@ export function toApplicantResponse(a: Account): ApplicantResponse {
     business: a.business,
     town: a.town,
     country: a.country,
+    address: a.address,
+    website: a.website,
+    tradeReferences: a.tradeReferences,
     appliedAt: a.createdAt.toISOString(),
     verifiedSince: a.verifiedAt?.toISOString() ?? null,
     statusReason: a.statusReason,

@@ -33,6 +33,17 @@ export class Account {
   @Column({ type: 'varchar', length: 80 })
   country: string;
 
+  /** The business's postal address, as the applicant gave it (for the registrar). */
+  @Column({ type: 'varchar', length: 300, default: '' })
+  address: string;
+
+  @Column({ type: 'varchar', length: 200, nullable: true })
+  website: string | null;
+
+  /** Dealers, fairs or associations who know the applicant's trade (for the registrar). */
+  @Column({ name: 'trade_references', type: 'text', default: '' })
+  tradeReferences: string;
+
   /** `scrypt$N$r$p$salt$key`; null until a password is set (a new registrar). */
   @Column({ name: 'password_hash', type: 'varchar', length: 255, nullable: true })
   passwordHash: string | null;

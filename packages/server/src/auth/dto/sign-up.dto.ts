@@ -1,6 +1,16 @@
-import { ApiProperty } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsEmail, IsIn, IsString, Matches, MaxLength, MinLength } from 'class-validator';
+import {
+  IsEmail,
+  IsIn,
+  IsOptional,
+  IsString,
+  IsUrl,
+  Length,
+  Matches,
+  MaxLength,
+  MinLength,
+} from 'class-validator';
 import { PASSWORD_MAX, PASSWORD_MIN, PASSWORD_RULE } from './password.rule';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
@@ -47,6 +57,39 @@ export class SignUpDto {
   @MinLength(2, { message: 'is required' })
   @MaxLength(80, { message: 'must be at most 80 characters' })
   country: string;
+
+  @ApiProperty({
+    example: '4 Quay Lane, Pulegoso Brook',
+    description: 'the business address, for the registrar',
+  })
+  @Transform(trim)
+  @Length(5, 300, {
+    message: 'is required: the street, number and town of your business, at most 300 characters',
+  })
+  address: string;
+
+  @ApiPropertyOptional({ example: 'https://perlova.example', description: 'the business website, if any' })
+  @Transform(({ value }: { value: unknown }) =>
+    typeof value === 'string' ? value.trim() || undefined : value,
+  )
+  @IsOptional()
+  @IsUrl(
+    { protocols: ['http', 'https'], require_protocol: true, require_tld: true },
+    { message: 'must be a web address starting with https:// (or leave it empty)' },
+  )
+  @MaxLength(200, { message: 'must be at most 200 characters' })
+  website?: string;
+
+  @ApiProperty({
+    description: 'dealers, fairs or associations who know your trade, for the registrar',
+    example: 'Stand 14 at the Pulegoso Brook bead fair since 2019; buys from Rue Lampwork Finds.',
+  })
+  @Transform(trim)
+  @Length(10, 2000, {
+    message:
+      'is required: name at least one dealer, fair or association who knows your trade, in at most 2,000 characters',
+  })
+  tradeReferences: string;
 
   @ApiProperty({ example: 'mira@example.invalid' })
   @Transform(trim)

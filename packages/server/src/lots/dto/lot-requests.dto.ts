@@ -1,5 +1,13 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@beadroll/core';
+import {
+  LOT_FORMS,
+  ORIGINS,
+  TECHNIQUES,
+  type LotForm,
+  type LotStatus,
+  type Origin,
+  type Technique,
+} from '@beadroll/core';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
 import { LotDescriptionDto } from './lot-description.dto';
@@ -48,7 +56,19 @@ export class SetListingDto {
 }
 
 const STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
-export const LOT_SORTS = ['registered', 'updated', 'title', 'code'] as const;
+export const LOT_SORTS = [
+  'registered',
+  'updated',
+  'title',
+  'code',
+  'form',
+  'count',
+  'origin',
+  'period',
+  'technique',
+  'status',
+  'listed',
+] as const;
 
 const toBool = ({ value }: { value: unknown }) =>
   value === 'true' ? true : value === 'false' ? false : value;
@@ -91,7 +111,7 @@ export class ListLotsQueryDto {
   @IsIn(LOT_FORMS)
   form?: LotForm;
 
-  @ApiPropertyOptional({ enum: ORIGINS, description: "origin of the holder's attribution" })
+  @ApiPropertyOptional({ enum: ORIGINS, description: 'origin of the attribution on record' })
   @IsOptional()
   @IsIn(ORIGINS)
   origin?: Origin;
@@ -108,7 +128,16 @@ export class ListLotsQueryDto {
   @IsBoolean()
   mine?: boolean;
 
-  @ApiPropertyOptional({ maxLength: 200, description: 'words to find in the title and description' })
+  @ApiPropertyOptional({ enum: TECHNIQUES, description: 'technique of the attribution on record' })
+  @IsOptional()
+  @IsIn(TECHNIQUES)
+  technique?: Technique;
+
+  @ApiPropertyOptional({
+    maxLength: 200,
+    description:
+      'words or the start of a code (with or without hyphens) to find in the code, title, description, attribution on record and your own storage place',
+  })
   @IsOptional()
   @IsString()
   @MaxLength(200)

@@ -18,6 +18,12 @@ export class LotSummaryResponse {
   origin: string | null;
   @ApiProperty({ nullable: true, enum: ['holder', 'earlier-holder', 'ancestor'] })
   originSource: 'holder' | 'earlier-holder' | 'ancestor' | null;
+  @ApiProperty({ nullable: true, description: 'technique of the attribution on record' }) technique:
+    string | null;
+  @ApiProperty({ nullable: true, description: 'period of the attribution on record' }) period: {
+    from: number;
+    to: number;
+  } | null;
   @ApiProperty() count: BeadCount;
   @ApiProperty() dissents: number;
   @ApiProperty() headSeq: number;

@@ -11,6 +11,7 @@ import { LotEntity } from '../../ledger/entities/lot.entity';
 @Index('ix_lot_views_listed_registered', ['listed', 'registeredAt'])
 @Index('ix_lot_views_status', ['status'])
 @Index('ix_lot_views_code', ['code'], { unique: true })
+@Index('ix_lot_views_holder_updated', ['holder', 'updatedAt'])
 export class LotViewEntity {
   @PrimaryColumn({ name: 'lot_id', type: 'uuid', primaryKeyConstraintName: 'pk_lot_views' })
   lotId: string;
@@ -38,9 +39,20 @@ export class LotViewEntity {
   @Column({ type: 'boolean' })
   listed: boolean;
 
-  /** Origin of the holder's attribution, if any. */
+  /** Origin of the attribution on record, if any. */
   @Column({ type: 'varchar', length: 32, nullable: true })
   origin: string | null;
+
+  /** Technique of the attribution on record, if any. */
+  @Column({ type: 'varchar', length: 32, nullable: true })
+  technique: string | null;
+
+  /** Period of the attribution on record, if any. */
+  @Column({ name: 'period_from', type: 'integer', nullable: true })
+  periodFrom: number | null;
+
+  @Column({ name: 'period_to', type: 'integer', nullable: true })
+  periodTo: number | null;
 
   @Column({ name: 'count_value', type: 'integer' })
   countValue: number;
@@ -62,7 +74,7 @@ export class LotViewEntity {
   @Column({ name: 'head_seq', type: 'integer' })
   headSeq: number;
 
-  /** Title, summary, colours, decoration note and condition, for text search. */
+  /** Title, summary, colours, decoration, condition and the attribution's words, for text search. */
   @Column({ name: 'search_text', type: 'text' })
   searchText: string;
 

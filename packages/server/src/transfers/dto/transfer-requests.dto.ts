@@ -111,6 +111,12 @@ export class ListOffersQueryDto extends PageQueryDto {
   @IsOptional()
   @IsIn(OFFER_STATUSES, { message: `status must be one of ${OFFER_STATUSES.join(', ')}` })
   status?: OfferStatus;
+
+  @ApiPropertyOptional({ description: 'only offers of this lot (code, with or without hyphens)' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(20)
+  lot?: string;
 }
 
 /** The signed-in dealer's sales. */

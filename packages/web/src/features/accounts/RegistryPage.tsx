@@ -23,7 +23,7 @@ import {
 } from '@fluentui/react-components';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { Fragment, useState } from 'react';
 import { Navigate, useSearchParams } from 'react-router-dom';
 import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
 import { fieldError, FormError } from './FormPage';
@@ -36,6 +36,15 @@ const useStyles = makeStyles({
   actions: { display: 'flex', gap: tokens.spacingHorizontalS, flexWrap: 'wrap' },
   pager: { display: 'flex', gap: tokens.spacingHorizontalM, alignItems: 'center' },
   sub: { color: tokens.colorNeutralForeground3 },
+  facts: {
+    display: 'grid',
+    gridTemplateColumns: 'max-content minmax(0, 1fr)',
+    columnGap: tokens.spacingHorizontalL,
+    rowGap: tokens.spacingVerticalS,
+    margin: 0,
+  },
+  term: { fontWeight: tokens.fontWeightSemibold },
+  detail: { margin: 0, whiteSpace: 'pre-wrap', overflowWrap: 'anywhere' },
 });
 
 const STATUSES: Array<{ value: RegistryParams['status']; label: string }> = [
@@ -115,36 +124,128 @@ function ReasonDialog({
   );
 }
 
-function Decisions({ row, onReason }: { row: Applicant; onReason: (a: 'reject' | 'suspend') => void }) {
-  const styles = useStyles();
+/** Asks before a decision that needs no reason: approving or lifting a suspension. */
+function ConfirmDialog({
+  target,
+  action,
+  onClose,
+}: {
+  target: Applicant;
+  action: 'approve' | 'reinstate';
+  onClose: () => void;
+}) {
   const client = useQueryClient();
   const decide = useMutation({
-    mutationFn: (action: Action) => accountsApi.decide(row.id, action),
-    onSuccess: () => client.invalidateQueries({ queryKey: ['registry'] }),
+    mutationFn: () => accountsApi.decide(target.id, action),
+    onSuccess: async () => {
+      await client.invalidateQueries({ queryKey: ['registry'] });
+      onClose();
+    },
   });
+  const verb = action === 'approve' ? 'Approve' : 'Lift the suspension of';
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && onClose()}>
+      <DialogSurface>
+        <DialogBody>
+          <DialogTitle>
+            {verb} {target.displayName}?
+          </DialogTitle>
+          <DialogContent>
+            <Text>
+              {target.displayName} ({target.business}) can then write to rolls as{' '}
+              {ROLE_LABEL[target.role].toLowerCase()}. They are told by e-mail.
+            </Text>
+            <FormError error={decide.error} />
+          </DialogContent>
+          <DialogActions>
+            <Button onClick={onClose}>Cancel</Button>
+            <Button appearance="primary" onClick={() => decide.mutate()} disabled={decide.isPending}>
+              {action === 'approve' ? 'Approve' : 'Lift the suspension'}
+            </Button>
+          </DialogActions>
+        </DialogBody>
+      </DialogSurface>
+    </Dialog>
+  );
+}
+
+/** Everything an applicant told the registrar, to read before deciding. */
+function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: () => void }) {
+  const styles = useStyles();
+  const facts: Array<[string, React.ReactNode]> = [
+    ['Name', target.displayName],
+    ['Applies as', ROLE_LABEL[target.role]],
+    ['Handle', `@${target.handle}`],
+    ['E-mail', target.email],
+    ['Business', target.business],
+    ['Address', target.address || 'Not given'],
+    ['Town and country', `${target.town}, ${target.country}`],
+    [
+      'Website',
+      target.website ? (
+        <a href={target.website} target="_blank" rel="noopener noreferrer nofollow">
+          {target.website}
+        </a>
+      ) : (
+        'None given'
+      ),
+    ],
+    ['Trade references', target.tradeReferences || 'Not given'],
+    ['Applied', formatDate(target.appliedAt)],
+  ];
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && onClose()}>
+      <DialogSurface>
+        <DialogBody>
+          <DialogTitle>Application of {target.displayName}</DialogTitle>
+          <DialogContent>
+            <dl className={styles.facts}>
+              {facts.map(([term, detail]) => (
+                <Fragment key={term}>
+                  <dt className={styles.term}>{term}</dt>
+                  <dd className={styles.detail}>{detail}</dd>
+                </Fragment>
+              ))}
+            </dl>
+          </DialogContent>
+          <DialogActions>
+            <Button appearance="primary" onClick={onClose}>
+              Close
+            </Button>
+          </DialogActions>
+        </DialogBody>
+      </DialogSurface>
+    </Dialog>
+  );
+}
+
+function Decisions({ row, onDialog }: { row: Applicant; onDialog: (a: Action | 'read') => void }) {
+  const styles = useStyles();
   return (
     <div className={styles.actions}>
+      <Button size="small" onClick={() => onDialog('read')}>
+        Read the application
+      </Button>
       {row.status === 'pending' || row.status === 'rejected' ? (
-        <Button appearance="primary" size="small" onClick={() => decide.mutate('approve')}>
-          Approve
+        <Button appearance="primary" size="small" onClick={() => onDialog('approve')}>
+          Approve…
         </Button>
       ) : null}
       {row.status === 'pending' ? (
-        <Button size="small" onClick={() => onReason('reject')}>
+        <Button size="small" onClick={() => onDialog('reject')}>
           Reject…
         </Button>
       ) : null}
       {row.status === 'verified' ? (
-        <Button size="small" onClick={() => onReason('suspend')}>
+        <Button size="small" onClick={() => onDialog('suspend')}>
           Suspend…
         </Button>
       ) : null}
       {row.status === 'suspended' ? (
-        <Button size="small" onClick={() => decide.mutate('reinstate')}>
-          Lift suspension
+        <Button size="small" onClick={() => onDialog('reinstate')}>
+          Lift suspension…
         </Button>
       ) : null}
-      {decide.error ? <FormError error={decide.error} /> : null}
     </div>
   );
 }
@@ -156,7 +257,7 @@ export function RegistryPage() {
   const styles = useStyles();
   const { account, isLoading } = useSession();
   const [search, setSearch] = useSearchParams();
-  const [dialog, setDialog] = useState<{ target: Applicant; action: 'reject' | 'suspend' } | null>(null);
+  const [dialog, setDialog] = useState<{ target: Applicant; action: Action | 'read' } | null>(null);
   const status = (STATUSES.find((s) => s.value === search.get('status'))?.value ??
     'pending') as RegistryParams['status'];
   const sort = search.get('sort') ?? 'applied';
@@ -232,12 +333,17 @@ export function RegistryPage() {
                       </div>
                     </div>
                   </TableCell>
-                  <TableCell>{a.business}</TableCell>
+                  <TableCell>
+                    <div>
+                      {a.business}
+                      {a.address ? <div className={styles.sub}>{a.address}</div> : null}
+                    </div>
+                  </TableCell>
                   <TableCell>{a.town}</TableCell>
                   <TableCell>{a.country}</TableCell>
                   <TableCell>{formatDate(a.appliedAt)}</TableCell>
                   <TableCell>
-                    <Decisions row={a} onReason={(action) => setDialog({ target: a, action })} />
+                    <Decisions row={a} onDialog={(action) => setDialog({ target: a, action })} />
                   </TableCell>
                 </TableRow>
               );
@@ -257,7 +363,15 @@ export function RegistryPage() {
           Next
         </Button>
       </div>
-      {dialog ? <ReasonDialog {...dialog} onClose={() => setDialog(null)} /> : null}
+      {dialog?.action === 'reject' || dialog?.action === 'suspend' ? (
+        <ReasonDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
+      ) : null}
+      {dialog?.action === 'approve' || dialog?.action === 'reinstate' ? (
+        <ConfirmDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
+      ) : null}
+      {dialog?.action === 'read' ? (
+        <ApplicationDialog target={dialog.target} onClose={() => setDialog(null)} />
+      ) : null}
     </section>
   );
 }

@@ -1,4 +1,4 @@
-import { Button, Field, Input, Radio, RadioGroup } from '@fluentui/react-components';
+import { Button, Field, Input, Radio, RadioGroup, Textarea } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
@@ -14,8 +14,22 @@ const FIELDS = [
     hint: 'Lower-case letters, digits and hyphens; part of your public address. It can never be changed.',
   },
   { name: 'business', label: 'Business name', autoComplete: 'organization' },
+  {
+    name: 'address',
+    label: 'Business address',
+    autoComplete: 'street-address',
+    hint: 'Street, number and town. Only the registrar sees it.',
+  },
   { name: 'town', label: 'Town', autoComplete: 'address-level2' },
   { name: 'country', label: 'Country', autoComplete: 'country-name' },
+  {
+    name: 'website',
+    label: 'Website (optional)',
+    autoComplete: 'url',
+    type: 'url' as const,
+    optional: true,
+    hint: 'Starting with https://',
+  },
   { name: 'email', label: 'E-mail address', autoComplete: 'email', type: 'email' as const },
   {
     name: 'password',
@@ -61,7 +75,7 @@ export function SignUpPage() {
         <Field
           key={f.name}
           label={f.label}
-          required
+          required={!('optional' in f)}
           hint={f.hint}
           validationMessage={fieldError(signUp.error, f.name)}
         >
@@ -76,6 +90,19 @@ export function SignUpPage() {
           />
         </Field>
       ))}
+      <Field
+        label="Trade references"
+        required
+        hint="Dealers, fairs or associations who know your trade, so the registrar can check. Only the registrar sees them."
+        validationMessage={fieldError(signUp.error, 'tradeReferences')}
+      >
+        <Textarea
+          name="tradeReferences"
+          value={values.tradeReferences ?? ''}
+          onChange={(_, d) => setValues((v) => ({ ...v, tradeReferences: d.value }))}
+          resize="vertical"
+        />
+      </Field>
       <FormError error={signUp.error} />
       <Button appearance="primary" type="submit" disabled={signUp.isPending}>
         Apply

@@ -35,6 +35,9 @@ export interface Applicant {
   business: string;
   town: string;
   country: string;
+  address: string;
+  website: string | null;
+  tradeReferences: string;
   appliedAt: string;
   verifiedSince: string | null;
   statusReason: string | null;

@@ -1,13 +1,24 @@
 import { makeStyles, Text, Title1, Title3, tokens } from '@fluentui/react-components';
+import { useSession } from '../accounts/accounts.api';
+import { AssessorQueue } from '../opinion-requests/AssessorQueue';
+import { FindLotByCode } from '../opinion-requests/FindLotByCode';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '70ch' },
   points: { display: 'grid', gap: tokens.spacingVerticalM, paddingInlineStart: tokens.spacingHorizontalL },
 });
 
-/** What Beadroll is for, in a dealer's words. */
+/** The start page: an assessor's queue of requests; for everyone else, what Beadroll is for. */
 export function HomePage() {
   const styles = useStyles();
+  const { account } = useSession();
+  if (account?.role === 'assessor')
+    return (
+      <div className={styles.page}>
+        <AssessorQueue />
+        <FindLotByCode />
+      </div>
+    );
   return (
     <section className={styles.page} aria-labelledby="home-title">
       <Title1 as="h1" id="home-title">
@@ -39,6 +50,7 @@ export function HomePage() {
         Each entry is linked to the one before by its hash, so a changed or missing entry shows up in the
         buyer’s own browser.
       </Text>
+      {account ? <FindLotByCode /> : null}
     </section>
   );
 }

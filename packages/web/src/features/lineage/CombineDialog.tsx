@@ -14,6 +14,7 @@ import {
 import { LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../lots/ActionDialog';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
@@ -126,7 +127,8 @@ export function CombineDialog({
       {done ? (
         <MessageBar intent="success">
           <MessageBarBody>
-            New lot {done.lot.displayCode} made from {done.parents.length} lots ({beadsText(done.lot.count)}).
+            New lot {done.lot.displayCode} made from {done.parents.length} lots ({beadsText(done.lot.count)}).{' '}
+            <PrintTagsDialog lots={[{ code: done.lot.code, listed }]} triggerLabel="Print its tag" />
           </MessageBarBody>
         </MessageBar>
       ) : (

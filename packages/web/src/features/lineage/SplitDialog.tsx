@@ -14,6 +14,7 @@ import {
 import { LOT_FORMS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../lots/ActionDialog';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
@@ -116,7 +117,11 @@ export function SplitDialog({
             Split into {done.children.map((c) => c.displayCode).join(', ')}.{' '}
             {done.remaining.value > 0
               ? `${beadsText(done.remaining)} stay with this lot.`
-              : 'This lot is used up and leaves your inventory.'}
+              : 'This lot is used up and leaves your inventory.'}{' '}
+            <PrintTagsDialog
+              lots={done.children.map((c, i) => ({ code: c.code, listed: rows[i]?.listed ?? false }))}
+              triggerLabel={done.children.length === 1 ? 'Print its tag' : 'Print their tags'}
+            />
           </MessageBarBody>
         </MessageBar>
       ) : (

@@ -1,4 +1,13 @@
-import { LOT_FORMS, ORIGINS, type LotForm, type LotStatus, type Origin } from '@beadroll/core';
+import {
+  LOT_FORMS,
+  ORIGINS,
+  periodWords,
+  TECHNIQUES,
+  type LotForm,
+  type LotStatus,
+  type Origin,
+  type Technique,
+} from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -32,6 +41,7 @@ import { useEffect, useState } from 'react';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
 import { toCsv } from './csv';
+import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
 import {
   LIST_SORTS,
@@ -45,7 +55,17 @@ import {
 const PAGE_SIZE = 20;
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 /** Column id → the server's sort name. */
-const SORT_OF: Record<string, ListSort> = { code: 'code', title: 'title', updatedAt: 'updated' };
+const SORT_OF: Record<string, ListSort> = {
+  code: 'code',
+  title: 'title',
+  form: 'form',
+  count: 'count',
+  origin: 'origin',
+  period: 'period',
+  status: 'status',
+  listed: 'listed',
+  updatedAt: 'updated',
+};
 
 /** How the inventory marks an attribution on record that is not the holder's own. */
 const SOURCE_NOTE: Record<NonNullable<LotSummary['originSource']>, string> = {
@@ -95,11 +115,12 @@ const helper = createColumnHelper<typeof features, LotSummary>();
 const columns = helper.columns([
   helper.accessor('displayCode', { id: 'code', header: 'Code' }),
   helper.accessor('title', { header: 'Title' }),
-  helper.accessor('form', { header: 'Form', enableSorting: false }),
-  helper.accessor('count', { header: 'Count', enableSorting: false }),
-  helper.accessor('origin', { header: 'Origin', enableSorting: false }),
-  helper.accessor('status', { header: 'Status', enableSorting: false }),
-  helper.accessor('listed', { header: 'Listed', enableSorting: false }),
+  helper.accessor('form', { header: 'Form' }),
+  helper.accessor('count', { header: 'Count' }),
+  helper.accessor('origin', { header: 'Origin' }),
+  helper.accessor('period', { header: 'Period' }),
+  helper.accessor('status', { header: 'Status' }),
+  helper.accessor('listed', { header: 'Listed' }),
   helper.accessor('updatedAt', { header: 'Last entry' }),
 ]);
 
@@ -121,6 +142,7 @@ export function paramsFromSearch(search: URLSearchParams): LotListParams {
     status: pick(search.get('status'), STATUSES),
     form: pick(search.get('form'), LOT_FORMS),
     origin: pick(search.get('origin'), ORIGINS),
+    technique: pick(search.get('technique'), TECHNIQUES),
     listed: listed === 'true' ? true : listed === 'false' ? false : undefined,
     mine: search.get('scope') === 'all' ? undefined : true,
   };
@@ -143,8 +165,15 @@ function Cell({ row, column }: { row: LotSummary; column: string }) {
           {row.origin
             ? `${ORIGIN_LABEL[row.origin]}${SOURCE_NOTE[row.originSource ?? 'holder']}`
             : 'No attribution yet'}
+          {row.technique ? (
+            <Text size={200} block className={styles.sub}>
+              {TECHNIQUE_LABELS[row.technique]}
+            </Text>
+          ) : null}
         </>
       );
+    case 'period':
+      return <>{row.period ? periodWords({ ...row.period, approximate: false }) : '—'}</>;
     case 'status':
       return <>{STATUS_LABEL[row.status]}</>;
     case 'listed':
@@ -243,7 +272,12 @@ export function InventoryPage() {
   if (!account) return <Navigate to="/sign-in?next=/lots" replace />;
 
   const filtered = Boolean(
-    params.q || params.status || params.form || params.origin || params.listed !== undefined,
+    params.q ||
+    params.status ||
+    params.form ||
+    params.origin ||
+    params.technique ||
+    params.listed !== undefined,
   );
   const rows = table.getRowModel().rows;
   const stale = query.isPlaceholderData;
@@ -283,7 +317,7 @@ export function InventoryPage() {
           <SearchBox
             className={styles.control}
             value={text}
-            placeholder="Title or description"
+            placeholder="Code, title, attribution, colour, storage place"
             onChange={(_, d) => setText(d.value)}
           />
         </Field>
@@ -315,6 +349,12 @@ export function InventoryPage() {
           value={params.origin}
           options={ORIGINS.map((o) => [o, ORIGIN_LABEL[o as Origin]])}
           onChange={(v) => update({ origin: v })}
+        />
+        <FilterDropdown
+          label="Technique"
+          value={params.technique}
+          options={TECHNIQUES.map((t) => [t, TECHNIQUE_LABELS[t as Technique]])}
+          onChange={(v) => update({ technique: v })}
         />
         <FilterDropdown
           label="Listed"
@@ -411,6 +451,7 @@ export function InventoryPage() {
                       {r.origin
                         ? `${ORIGIN_LABEL[r.origin]}${SOURCE_NOTE[r.originSource ?? 'holder']}`
                         : 'no attribution yet'}
+                      {r.period ? `, ${periodWords({ ...r.period, approximate: false })}` : ''}
                     </Text>
                     <Text size={200} className={styles.sub}>
                       {STATUS_LABEL[r.status]} · {r.listed ? 'listed' : 'unlisted'} · last entry{' '}

@@ -15,10 +15,11 @@ import {
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
 import { Fragment, useMemo, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useLocation, useParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import { OnRecordPanel } from '../opinions/OnRecordPanel';
 import { useSession, type Me } from '../accounts/accounts.api';
+import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import {
   BASE_GLASS_LABEL,
   DECORATION_LABEL,
@@ -225,6 +226,7 @@ function Timeline({
 export function LotPage() {
   const styles = useStyles();
   const { code = '' } = useParams();
+  const registered = (useLocation().state as { registered?: boolean } | null)?.registered === true;
   const { account, isLoading: sessionLoading } = useSession();
   const roll = useQuery({ ...lotsQueries.roll(code), enabled: account !== null });
   const result = useMemo(() => (roll.data ? verifyRoll(roll.data.entries) : null), [roll.data]);
@@ -275,6 +277,14 @@ export function LotPage() {
         ) : null}
       </div>
       <Verification result={result} />
+      {registered && state && state.holder === account.id && state.head.seq <= 1 ? (
+        <MessageBar intent="success">
+          <MessageBarBody>
+            Registered. Print its tag now, while the lot is in your hands.{' '}
+            <PrintTagsDialog lots={[{ code: state.lot, listed: state.listed }]} />
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
       {ctx ? <ActionBar ctx={ctx} /> : null}
       {state ? <Summary state={state} /> : null}
       {ctx ? (

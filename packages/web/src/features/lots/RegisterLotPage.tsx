@@ -59,7 +59,7 @@ export function RegisterLotPage() {
     onSuccess: async (lot) => {
       clearDraft();
       await client.invalidateQueries({ queryKey: ['lots'] });
-      navigate(`/lots/${lot.code}`);
+      navigate(`/lots/${lot.code}`, { state: { registered: true } });
     },
   });
 

@@ -3,6 +3,7 @@ import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
+import { WithdrawOfferAction } from '../transfers/WithdrawOfferAction';
 import { ExhibitsSection } from '../exhibits/ExhibitsSection';
 import { mayAddExhibits } from '../exhibits/exhibits-panel';
 import { AncestryPanel } from '../lineage/AncestryPanel';
@@ -10,7 +11,9 @@ import { CombineDialog } from '../lineage/CombineDialog';
 import { SplitDialog } from '../lineage/SplitDialog';
 import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
+import { AskOpinionAction } from '../opinion-requests/AskOpinionAction';
 import { RemovalRequestAction } from '../registry/RemovalRequestAction';
+import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
 
 /**
@@ -74,10 +77,24 @@ export const LOT_ACTIONS: LotAction[] = [
     render: (ctx) => <ListingAction {...ctx} />,
   },
   {
+    id: 'print-tag',
+    label: 'Print tag',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => (
+      <PrintTagsDialog lots={[{ code: ctx.code, listed: ctx.state.listed }]} onClose={ctx.close} />
+    ),
+  },
+  {
     id: 'offer',
     label: 'Offer to a dealer',
     visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
     render: (ctx) => <OfferDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />,
+  },
+  {
+    id: 'withdraw-offer',
+    label: 'Withdraw the offer',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'offered',
+    render: (ctx) => <WithdrawOfferAction code={ctx.code} close={ctx.close} />,
   },
   {
     id: 'sale',
@@ -104,6 +121,12 @@ export const LOT_ACTIONS: LotAction[] = [
     label: 'Record an opinion',
     visible: mayRecordOpinion,
     render: (ctx) => <OpinionAction {...ctx} />,
+  },
+  {
+    id: 'ask-opinion',
+    label: 'Ask for an opinion',
+    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    render: (ctx) => <AskOpinionAction {...ctx} />,
   },
   {
     id: 'removal',

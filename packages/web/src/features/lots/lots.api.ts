@@ -7,6 +7,7 @@ import type {
   Observations,
   Origin,
   StoredEntry,
+  Technique,
 } from '@beadroll/core';
 import { SYSTEM_ACTOR } from '@beadroll/core';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
@@ -25,6 +26,8 @@ export interface LotSummary {
   origin: Origin | null;
   /** Whose attribution `origin` is; absent from older servers (the holder's). */
   originSource?: 'holder' | 'earlier-holder' | 'ancestor' | null;
+  technique: Technique | null;
+  period: { from: number; to: number } | null;
   count: BeadCount;
   dissents: number;
   headSeq: number;
@@ -82,7 +85,19 @@ export interface RawRoll {
   entries: RollEntry[];
 }
 
-export const LIST_SORTS = ['registered', 'updated', 'title', 'code'] as const;
+export const LIST_SORTS = [
+  'registered',
+  'updated',
+  'title',
+  'code',
+  'form',
+  'count',
+  'origin',
+  'period',
+  'technique',
+  'status',
+  'listed',
+] as const;
 export type ListSort = (typeof LIST_SORTS)[number];
 
 /** Paging, sorting, filters and search of the lot list (the server's query names). */
@@ -95,6 +110,7 @@ export interface LotListParams {
   status?: LotStatus;
   form?: LotForm;
   origin?: Origin;
+  technique?: Technique;
   listed?: boolean;
   mine?: boolean;
 }

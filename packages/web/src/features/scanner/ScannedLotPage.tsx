@@ -10,9 +10,13 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
-import { useQuery } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
+import { OfferDialog } from '../transfers/OfferDialog';
+import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
+import { formatMoney, type Sale } from '../transfers/transfers.api';
 import { scannerQueries } from './scanner.api';
 
 const useStyles = makeStyles({
@@ -20,20 +24,33 @@ const useStyles = makeStyles({
   card: { display: 'grid', gap: tokens.spacingVerticalS, padding: tokens.spacingHorizontalL },
   code: { fontFamily: tokens.fontFamilyMonospace, fontSize: tokens.fontSizeBase500 },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM },
+  quick: {
+    display: 'grid',
+    gridTemplateColumns: 'repeat(auto-fit, minmax(min(100%, 10rem), 1fr))',
+    gap: tokens.spacingHorizontalM,
+  },
+  big: { minHeight: '48px' },
 });
 
 function groupRef(ref: string): string {
   return `${ref.slice(0, 5)}-${ref.slice(5)}`;
 }
 
-/** A lot the dealer just scanned (or typed), with the actions a fair stand needs. */
+/**
+ * A lot the dealer just scanned (or typed), with the actions a fair stand needs: sell (the
+ * price is all there is to type: two taps in all), offer to a dealer, print a tag, history.
+ */
 export function ScannedLotPage() {
   const styles = useStyles();
   const { code = '' } = useParams();
   const [params] = useSearchParams();
   const tagRef = params.get('ref');
   const navigate = useNavigate();
+  const client = useQueryClient();
   const lot = useQuery(scannerQueries.lot(code));
+  const [action, setAction] = useState<'sell' | 'offer' | null>(null);
+  const [sold, setSold] = useState<Sale | null>(null);
+  const [offered, setOffered] = useState(false);
 
   if (lot.isPending) return <Spinner label="Opening the lot…" />;
   if (lot.isError || !lot.data.held)
@@ -75,20 +92,75 @@ export function ScannedLotPage() {
             </MessageBar>
           ))}
       </Card>
-      <div className={styles.actions}>
+      {sold ? (
+        <MessageBar intent="success">
+          <MessageBarBody>
+            Sold for {formatMoney(sold.price)} on {sold.date}.
+            {sold.receiptSent ? ' The buyer’s receipt is on its way.' : ''}
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
+      {offered ? (
+        <MessageBar intent="success">
+          <MessageBarBody>Offered. The lot changes hands when the other dealer accepts.</MessageBarBody>
+        </MessageBar>
+      ) : null}
+      <div className={styles.quick} role="group" aria-label="Quick actions">
+        {l.status === 'held' && !sold ? (
+          <>
+            <Button
+              appearance="primary"
+              size="large"
+              className={styles.big}
+              onClick={() => setAction('sell')}
+            >
+              Sell
+            </Button>
+            <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
+              Offer to a dealer
+            </Button>
+          </>
+        ) : null}
         <PrintTagsDialog
           lots={[{ code: l.code, listed: Boolean(l.listed) }]}
           triggerLabel="Print a new tag"
         />
+        <Button size="large" className={styles.big} as="a" href={`/lots/${l.code}`}>
+          History
+        </Button>
+      </div>
+      <div className={styles.actions}>
         {l.listed && (
           <Button as="a" href={`/l/${l.code}`}>
             Public history
           </Button>
         )}
-        <Button appearance="primary" onClick={() => navigate('/scan')}>
+        <Button appearance={sold || offered ? 'primary' : 'secondary'} onClick={() => navigate('/scan')}>
           Scan the next tag
         </Button>
       </div>
+      {action === 'sell' ? (
+        <RecordSaleDialog
+          code={l.code}
+          title={l.title}
+          onClose={() => setAction(null)}
+          onDone={(sale) => {
+            setSold(sale);
+            void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
+          }}
+        />
+      ) : null}
+      {action === 'offer' ? (
+        <OfferDialog
+          code={l.code}
+          title={l.title}
+          onClose={() => setAction(null)}
+          onDone={() => {
+            setOffered(true);
+            void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
+          }}
+        />
+      ) : null}
     </section>
   );
 }

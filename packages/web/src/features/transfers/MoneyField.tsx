@@ -31,6 +31,7 @@ export function MoneyField({
   validationMessage,
   hint,
   required,
+  autoFocus,
 }: {
   label: string;
   amount: string;
@@ -40,6 +41,8 @@ export function MoneyField({
   validationMessage?: string;
   hint?: string;
   required?: boolean;
+  /** Puts the cursor in the amount at once (a sale at a fair: type the price, tap once). */
+  autoFocus?: boolean;
 }) {
   const styles = useStyles();
   return (
@@ -52,6 +55,7 @@ export function MoneyField({
           onChange={(_, d) => onAmount(d.value)}
           aria-label={`${label}: amount`}
           placeholder="0.00"
+          autoFocus={autoFocus}
         />
         <Select value={currency} onChange={(_, d) => onCurrency(d.value)} aria-label={`${label}: currency`}>
           {CURRENCIES.map((c) => (

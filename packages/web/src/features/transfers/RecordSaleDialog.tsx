@@ -113,6 +113,7 @@ export function RecordSaleDialog({
                 onAmount={setAmount}
                 onCurrency={setCurrency}
                 validationMessage={fieldError(save.error, 'price')}
+                autoFocus={Boolean(code)}
               />
               <Field label="Date of the sale" validationMessage={fieldError(save.error, 'date')}>
                 <Input type="date" value={date} onChange={(_, d) => setDate(d.value)} />

@@ -114,6 +114,15 @@ export const offersQuery = (box: OfferBox, status: OfferStatus | undefined, page
     placeholderData: keepPreviousData,
   });
 
+/** The dealer's open outgoing offer of one lot, if any. */
+export const openOfferOfLotQuery = (code: string) =>
+  queryOptions({
+    queryKey: ['transfers', 'offers', 'outgoing', { status: 'open', lot: code }],
+    queryFn: async () =>
+      (await api<Page<Offer>>(`/api/transfers/offers?${qs({ box: 'outgoing', status: 'open', lot: code })}`))
+        .items[0] ?? null,
+  });
+
 export const offerQuery = (id: string) =>
   queryOptions({
     queryKey: ['transfers', 'offer', id],

@@ -1,0 +1,28 @@
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
+import { LotEntity } from '../../ledger/entities/lot.entity';
+
+/**
+ * A reader's own searchable words for a lot (their storage place), matched only in that
+ * reader's searches. Kept in step with the roll by the lot view projector; never shown.
+ */
+@Entity({ name: 'lot_private_search' })
+@Index('ix_lot_private_search_account', ['accountId'])
+export class LotPrivateSearchEntity {
+  @PrimaryColumn({ name: 'lot_id', type: 'uuid', primaryKeyConstraintName: 'pk_lot_private_search' })
+  lotId: string;
+
+  @PrimaryColumn({
+    name: 'account_id',
+    type: 'varchar',
+    length: 64,
+    primaryKeyConstraintName: 'pk_lot_private_search',
+  })
+  accountId: string;
+
+  @ManyToOne(() => LotEntity, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_lot_private_search_lot' })
+  lot?: LotEntity;
+
+  @Column({ name: 'search_text', type: 'text' })
+  searchText: string;
+}

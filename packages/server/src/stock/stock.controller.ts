@@ -1,0 +1,41 @@
+import { Controller, Get, Header, Query, Res, StreamableFile } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
+import { StockExportQueryDto } from './dto/stock-requests.dto';
+import { StockSummaryResponse } from './dto/stock-responses.dto';
+import { StockService } from './stock.service';
+
+@ApiTags('stock')
+@Controller('stock')
+@Roles('dealer')
+export class StockController {
+  constructor(private readonly stock: StockService) {}
+
+  @Get('summary')
+  @Header('Cache-Control', 'no-store')
+  @ApiOperation({
+    summary: 'The dealer’s own stock cost and sales, cost and margin by month and year, per currency',
+  })
+  @ApiOkResponse({ type: StockSummaryResponse })
+  summary(@CurrentAccount() me: Principal): Promise<StockSummaryResponse> {
+    return this.stock.summary(me);
+  }
+
+  @Get('export')
+  @Header('Cache-Control', 'no-store')
+  @ApiOperation({
+    summary: 'The stock held as CSV or XLSX, with cost, storage place and attribution on record',
+  })
+  @ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  async export(
+    @CurrentAccount() me: Principal,
+    @Query() q: StockExportQueryDto,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    const file = await this.stock.export(me, q.format ?? 'csv');
+    res.setHeader('Content-Type', file.type);
+    res.setHeader('Content-Disposition', `attachment; filename="${file.name}"`);
+    return new StreamableFile(file.body);
+  }
+}

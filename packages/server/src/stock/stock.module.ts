@@ -1,0 +1,12 @@
+import { Module } from '@nestjs/common';
+import { LedgerModule } from '../ledger/ledger.module';
+import { StockController } from './stock.controller';
+import { StockService } from './stock.service';
+
+/** The dealer's own stock and sales figures and the stock export. */
+@Module({
+  imports: [LedgerModule],
+  controllers: [StockController],
+  providers: [StockService],
+})
+export class StockModule {}

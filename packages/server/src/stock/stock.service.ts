@@ -1,0 +1,315 @@
+import { Injectable } from '@nestjs/common';
+import { formatLotCode, type Money, type SealedFieldName } from '@beadroll/core';
+import ExcelJS from 'exceljs';
+import { DataSource } from 'typeorm';
+import type { Viewer } from '../lots/lots.service';
+import { RollReaderService, type ViewerSealedField } from '../ledger/roll-reader.service';
+import type { ExportFormat } from './dto/stock-requests.dto';
+import type {
+  CurrencyFigures,
+  SalesPeriod,
+  StockGroup,
+  StockSummaryResponse,
+} from './dto/stock-responses.dto';
+
+/** A lot the dealer holds, with what the inventory shows of its attribution on record. */
+interface HeldRow {
+  lot_id: string;
+  code: string;
+  title: string;
+  form: string | null;
+  status: string;
+  listed: boolean;
+  origin: string | null;
+  technique: string | null;
+  period_from: number | null;
+  period_to: number | null;
+  count_value: number;
+  count_estimated: boolean;
+}
+
+/** One sale by the dealer: to a private buyer (`sold`) or to a dealer (an accepted offer). */
+interface SaleRow {
+  lot_id: string;
+  seq: number;
+  day: string;
+  to: 'buyer' | 'dealer';
+}
+
+const SEALED: readonly SealedFieldName[] = [
+  'acquisition-cost',
+  'acquisition-date',
+  'acquisition-source',
+  'storage-location',
+  'sale-price',
+  'transfer-price',
+];
+
+/** ISO 4217 minor digits of a currency, as the runtime's locale data knows them (2 when unknown). */
+export function minorDigits(currency: string): number {
+  try {
+    return new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions()
+      .maximumFractionDigits!;
+  } catch {
+    return 2;
+  }
+}
+
+/** Integer minor units as a decimal text in major units ("3200" EUR → "32.00"). */
+export function majorUnits(amount: number, currency: string): string {
+  const digits = minorDigits(currency);
+  if (digits === 0) return String(amount);
+  const sign = amount < 0 ? '-' : '';
+  const s = String(Math.abs(amount)).padStart(digits + 1, '0');
+  return `${sign}${s.slice(0, -digits)}.${s.slice(-digits)}`;
+}
+
+/**
+ * A cell as text a spreadsheet shows and never runs: text starting with = + - @ or a tab or
+ * carriage return gets a leading apostrophe (OWASP, "CSV Injection").
+ */
+export function inertText(value: string): string {
+  return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
+}
+
+/** The newest value of a field at or before `upTo`, among the viewer's own sealed fields. */
+function newest<T>(
+  fields: readonly ViewerSealedField[],
+  name: SealedFieldName,
+  upTo = Infinity,
+): T | undefined {
+  let out: T | undefined;
+  for (const f of fields) if (f.name === name && f.seq <= upTo) out = f.value as T;
+  return out;
+}
+
+function isMoney(v: unknown): v is Money {
+  return (
+    typeof v === 'object' &&
+    v !== null &&
+    Number.isInteger((v as Money).amount) &&
+    typeof (v as Money).currency === 'string'
+  );
+}
+
+/** The century an attribution's period starts in, as its first year ("1800"), or "none". */
+function centuryKey(from: number | null): string {
+  return from === null ? 'none' : String(Math.floor(from / 100) * 100);
+}
+
+/**
+ * A dealer's stock and sales figures, computed from their own sealed values only (read
+ * through the ledger's reader, which answers nobody else's), per currency: what the stock held
+ * cost, grouped by origin and by century, and sales, cost and margin by month and by year.
+ */
+@Injectable()
+export class StockService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly reader: RollReaderService,
+  ) {}
+
+  async summary(me: Viewer): Promise<StockSummaryResponse> {
+    const held = await this.held(me);
+    const sales = await this.sales(me);
+    const bought = await this.boughtAt(me);
+    const ids = [...new Set([...held.map((h) => h.lot_id), ...sales.map((s) => s.lot_id)])];
+    const sealed = await this.reader.sealedForLots(ids, me.id, SEALED);
+    const by = new Map<string, CurrencyFigures>();
+    const fig = (currency: string): CurrencyFigures => {
+      let f = by.get(currency);
+      if (!f) {
+        f = {
+          currency,
+          minorDigits: minorDigits(currency),
+          stock: { lots: 0, cost: 0 },
+          stockByOrigin: [],
+          stockByCentury: [],
+          salesByMonth: [],
+          salesByYear: [],
+        };
+        by.set(currency, f);
+      }
+      return f;
+    };
+    const add = (groups: StockGroup[], key: string, cost: number) => {
+      let g = groups.find((x) => x.key === key);
+      if (!g) groups.push((g = { key, lots: 0, cost: 0 }));
+      g.lots += 1;
+      g.cost += cost;
+    };
+    let lotsWithoutCost = 0;
+    for (const h of held) {
+      const cost = this.costOf(sealed.get(h.lot_id) ?? [], bought.get(h.lot_id) ?? []);
+      if (!cost) {
+        lotsWithoutCost += 1;
+        continue;
+      }
+      const f = fig(cost.currency);
+      f.stock.lots += 1;
+      f.stock.cost += cost.amount;
+      add(f.stockByOrigin, h.origin ?? 'none', cost.amount);
+      add(f.stockByCentury, centuryKey(h.period_from), cost.amount);
+    }
+    let salesWithoutPrice = 0;
+    const bump = (
+      periods: SalesPeriod[],
+      period: string,
+      price: number,
+      cost: Money | undefined,
+      currency: string,
+    ) => {
+      let p = periods.find((x) => x.period === period);
+      if (!p) periods.push((p = { period, sales: 0, revenue: 0, cost: 0, margin: 0, withoutCost: 0 }));
+      p.sales += 1;
+      p.revenue += price;
+      if (cost && cost.currency === currency) {
+        p.cost += cost.amount;
+        p.margin += price - cost.amount;
+      } else {
+        p.withoutCost += 1;
+      }
+    };
+    for (const s of sales) {
+      const fields = sealed.get(s.lot_id) ?? [];
+      const price = newest<unknown>(fields, s.to === 'buyer' ? 'sale-price' : 'transfer-price', s.seq);
+      if (!isMoney(price)) {
+        salesWithoutPrice += 1;
+        continue;
+      }
+      const cost = this.costOf(fields, bought.get(s.lot_id) ?? [], s.seq - 1);
+      const f = fig(price.currency);
+      bump(f.salesByMonth, s.day.slice(0, 7), price.amount, cost, price.currency);
+      bump(f.salesByYear, s.day.slice(0, 4), price.amount, cost, price.currency);
+    }
+    const currencies = [...by.values()].sort((a, b) => a.currency.localeCompare(b.currency));
+    for (const f of currencies) {
+      f.stockByOrigin.sort((a, b) => b.cost - a.cost || a.key.localeCompare(b.key));
+      f.stockByCentury.sort((a, b) => a.key.localeCompare(b.key));
+      f.salesByMonth.sort((a, b) => a.period.localeCompare(b.period));
+      f.salesByYear.sort((a, b) => a.period.localeCompare(b.period));
+    }
+    return { currencies, lotsHeld: held.length, lotsWithoutCost, salesWithoutPrice };
+  }
+
+  /** The stock held as a CSV or XLSX file: one row per lot, with the dealer's own sealed details. */
+  async export(me: Viewer, format: ExportFormat): Promise<{ body: Buffer; type: string; name: string }> {
+    const held = await this.held(me);
+    const bought = await this.boughtAt(me);
+    const sealed = await this.reader.sealedForLots(
+      held.map((h) => h.lot_id),
+      me.id,
+      SEALED,
+    );
+    const book = new ExcelJS.Workbook();
+    book.created = new Date(0);
+    const sheet = book.addWorksheet('Stock');
+    sheet.columns = [
+      { header: 'code', key: 'code', width: 14 },
+      { header: 'title', key: 'title', width: 40 },
+      { header: 'form', key: 'form', width: 10 },
+      { header: 'count', key: 'count', width: 8 },
+      { header: 'count estimated', key: 'estimated', width: 10 },
+      { header: 'status', key: 'status', width: 10 },
+      { header: 'listed', key: 'listed', width: 8 },
+      { header: 'origin on record', key: 'origin', width: 16 },
+      { header: 'period on record from', key: 'from', width: 10 },
+      { header: 'period on record to', key: 'to', width: 10 },
+      { header: 'technique on record', key: 'technique', width: 16 },
+      { header: 'storage place', key: 'storage', width: 24 },
+      { header: 'acquisition date', key: 'date', width: 12 },
+      { header: 'acquisition source', key: 'source', width: 24 },
+      { header: 'cost', key: 'cost', width: 12 },
+      { header: 'currency', key: 'currency', width: 9 },
+    ];
+    for (const h of held) {
+      const fields = sealed.get(h.lot_id) ?? [];
+      const cost = this.costOf(fields, bought.get(h.lot_id) ?? []);
+      const text = (v: unknown) => (typeof v === 'string' ? inertText(v) : '');
+      const costText = cost ? majorUnits(cost.amount, cost.currency) : '';
+      sheet.addRow({
+        code: formatLotCode(h.code),
+        title: inertText(h.title),
+        form: h.form ?? '',
+        count: h.count_value,
+        estimated: h.count_estimated ? 'yes' : 'no',
+        status: h.status,
+        listed: h.listed ? 'yes' : 'no',
+        origin: h.origin ?? '',
+        from: h.period_from ?? '',
+        to: h.period_to ?? '',
+        technique: h.technique ?? '',
+        storage: text(newest(fields, 'storage-location')),
+        date: text(newest(fields, 'acquisition-date')),
+        source: text(newest(fields, 'acquisition-source')),
+        // A number in the spreadsheet, a decimal text in the CSV (never a float's rounding).
+        cost: format === 'xlsx' && cost ? Number(costText) : costText,
+        currency: cost?.currency ?? '',
+      });
+    }
+    const day = new Date().toISOString().slice(0, 10);
+    if (format === 'xlsx') {
+      sheet.getColumn('cost').numFmt = '#,##0.00';
+      sheet.getRow(1).font = { bold: true };
+      sheet.views = [{ state: 'frozen', ySplit: 1 }];
+      return {
+        body: Buffer.from(await book.xlsx.writeBuffer()),
+        type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        name: `beadroll-stock-${day}.xlsx`,
+      };
+    }
+    const csv = await book.csv.writeBuffer({
+      formatterOptions: { rowDelimiter: '\r\n', includeEndRowDelimiter: true },
+    });
+    return { body: Buffer.from(csv), type: 'text/csv; charset=utf-8', name: `beadroll-stock-${day}.csv` };
+  }
+
+  /**
+   * What the lot cost the dealer as of seq `upTo`: the newest of their own recorded acquisition
+   * cost and the price of a transfer they accepted (`boughtAt` holds those offers' seqs).
+   */
+  private costOf(
+    fields: readonly ViewerSealedField[],
+    boughtAt: readonly number[],
+    upTo = Infinity,
+  ): Money | undefined {
+    let out: Money | undefined;
+    for (const f of fields) {
+      if (f.seq > upTo || !isMoney(f.value)) continue;
+      if (f.name === 'acquisition-cost' || (f.name === 'transfer-price' && boughtAt.includes(f.seq)))
+        out = f.value;
+    }
+    return out;
+  }
+
+  private held(me: Viewer): Promise<HeldRow[]> {
+    return this.dataSource.query(
+      `SELECT "lot_id", "code", "title", "form", "status", "listed", "origin", "technique", "period_from",
+              "period_to", "count_value", "count_estimated"
+         FROM "lot_views" WHERE "holder" = $1 AND "status" IN ('held', 'offered') ORDER BY "code"`,
+      [me.id],
+    );
+  }
+
+  private sales(me: Viewer): Promise<SaleRow[]> {
+    return this.dataSource.query(
+      `SELECT "lot_id", "seq", to_char("sold_on", 'YYYY-MM-DD') AS "day", 'buyer' AS "to"
+         FROM "sales" WHERE "seller" = $1
+       UNION ALL
+       SELECT "lot_id", "offer_seq", to_char("answered_at" AT TIME ZONE 'UTC', 'YYYY-MM-DD'), 'dealer'
+         FROM "transfer_offers" WHERE "offerer" = $1 AND "status" = 'accepted'`,
+      [me.id],
+    );
+  }
+
+  /** Per lot, the seqs of the offers the dealer accepted (their transfer price is what they paid). */
+  private async boughtAt(me: Viewer): Promise<Map<string, number[]>> {
+    const rows: Array<{ lot_id: string; offer_seq: number }> = await this.dataSource.query(
+      `SELECT "lot_id", "offer_seq" FROM "transfer_offers" WHERE "recipient" = $1 AND "status" = 'accepted'`,
+      [me.id],
+    );
+    const out = new Map<string, number[]>();
+    for (const r of rows) out.set(r.lot_id, [...(out.get(r.lot_id) ?? []), r.offer_seq]);
+    return out;
+  }
+}

@@ -1,0 +1,146 @@
+import { createAccount, type TestAccount } from './support/accounts';
+import { description } from './support/lot-fixtures';
+import { createTestApp, type TestApp } from './support/test-app';
+
+const W = { 'X-Beadroll-Request': '1' };
+
+describe('inventory search, sorting and paging', () => {
+  let t: TestApp;
+  let ana: TestAccount;
+  let ben: TestAccount;
+  let venice: { code: string; displayCode: string };
+  let bohemia: { code: string; displayCode: string };
+
+  async function register(who: TestAccount, over: object, sealed?: object) {
+    const res = await who.agent
+      .post('/api/lots')
+      .set(W)
+      .send({ description: description(over), ...(sealed ? { sealed } : {}) })
+      .expect(201);
+    return res.body as { code: string; displayCode: string };
+  }
+
+  async function attribute(who: TestAccount, code: string, over: object) {
+    await who.agent
+      .post(`/api/lots/${code}/opinions`)
+      .set(W)
+      .send({
+        origin: 'venice-murano',
+        period: { from: 1880, to: 1920, approximate: true },
+        technique: 'wound-lampwork',
+        qualifier: 'attributed-to',
+        confidence: 'medium',
+        rationale: 'Raised roses over trailing, irregular holes.',
+        exhibits: [],
+        ...over,
+      })
+      .expect(201);
+  }
+
+  async function find(who: TestAccount, query: Record<string, string>) {
+    const res = await who.agent.get('/api/lots').query(query).expect(200);
+    return res.body as {
+      items: Array<{ code: string; origin: string | null; technique: string | null }>;
+      total: number;
+    };
+  }
+
+  beforeAll(async () => {
+    t = await createTestApp();
+    ana = await createAccount(t, { role: 'dealer' });
+    ben = await createAccount(t, { role: 'dealer' });
+    venice = await register(
+      ana,
+      { title: 'Pâte de verre roses', colours: ['white', 'pink'], listed: true },
+      { storageLocation: 'Cabinet Élise, drawer 4' },
+    );
+    await attribute(ana, venice.code, {});
+    bohemia = await register(ana, {
+      title: 'Pressed glass buttons',
+      summary: 'Black pressed glass buttons on their card.',
+      colours: ['black'],
+      decoration: [],
+      listed: false,
+    });
+    await attribute(ana, bohemia.code, {
+      origin: 'bohemia-czech',
+      technique: 'pressed-moulded',
+      period: { from: 1920, to: 1935, approximate: false },
+    });
+    await register(ben, {
+      title: 'Plain amber rounds',
+      summary: 'Amber rounds.',
+      colours: ['amber'],
+      decoration: [],
+      listed: false,
+    });
+  });
+  afterAll(async () => {
+    await t.close();
+  });
+
+  it('finds a lot by its code, with or without hyphens, and by the start of it', async () => {
+    for (const q of [
+      venice.code,
+      venice.displayCode,
+      venice.displayCode.toLowerCase(),
+      venice.code.slice(0, 5),
+    ]) {
+      const r = await find(ana, { q });
+      expect(r.items.map((i) => i.code)).toContain(venice.code);
+    }
+  });
+
+  it('finds lots by the attribution on record: origin names, century and technique', async () => {
+    expect((await find(ana, { q: 'Venice' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'Venetian' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'Bohemian' })).items.map((i) => i.code)).toEqual([bohemia.code]);
+    expect((await find(ana, { q: '19th century' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'pressed' })).items.map((i) => i.code)).toEqual([bohemia.code]);
+    const r = await find(ana, { q: 'venice' });
+    expect(r.items[0]).toMatchObject({ origin: 'venice-murano', technique: 'wound-lampwork' });
+  });
+
+  it('folds accents both ways, and matches colours, decoration and the start of a word', async () => {
+    expect((await find(ana, { q: 'pate' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'PÂTE' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'pink' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'rose' })).items.map((i) => i.code)).toEqual([venice.code]);
+    expect((await find(ana, { q: 'butt' })).items.map((i) => i.code)).toEqual([bohemia.code]);
+  });
+
+  it("matches the searcher's own storage place and nobody else's", async () => {
+    expect((await find(ana, { q: 'elise drawer' })).items.map((i) => i.code)).toEqual([venice.code]);
+    // The lot is listed, so Ben may read it, but Ana's storage place is hers alone.
+    expect((await find(ben, { q: 'elise' })).total).toBe(0);
+    expect((await find(ben, { q: 'roses' })).items.map((i) => i.code)).toContain(venice.code);
+  });
+
+  it("never finds an unlisted lot of someone else's", async () => {
+    expect((await find(ben, { q: 'buttons' })).total).toBe(0);
+    expect((await find(ben, { q: bohemia.code })).total).toBe(0);
+    expect((await find(ana, { q: 'amber' })).total).toBe(0);
+  });
+
+  it('ignores query syntax in what is typed', async () => {
+    for (const q of ["roses' & !", '(:*', '<->', '"']) await find(ana, { q });
+  });
+
+  it('sorts by the new columns and pages on the server', async () => {
+    const byOrigin = await find(ana, { mine: 'true', sort: 'origin', order: 'asc' });
+    expect(byOrigin.items.map((i) => i.origin)).toEqual(['bohemia-czech', 'venice-murano']);
+    const byPeriod = await find(ana, { mine: 'true', sort: 'period', order: 'desc' });
+    expect(byPeriod.items.map((i) => i.code)).toEqual([bohemia.code, venice.code]);
+    const page2 = await find(ana, { mine: 'true', sort: 'title', order: 'asc', pageSize: '1', page: '2' });
+    expect(page2).toMatchObject({ total: 2, items: [{ code: venice.code }] });
+    const filtered = await find(ana, { mine: 'true', technique: 'pressed-moulded' });
+    expect(filtered.items.map((i) => i.code)).toEqual([bohemia.code]);
+  });
+
+  it('answers 400 naming the field for an unknown sort or technique', async () => {
+    const res = await ana.agent.get('/api/lots').query({ sort: 'price' }).expect(400);
+    expect(res.body.error.fields.map((f: { field: string }) => f.field)).toContain('sort');
+    const res2 = await ana.agent.get('/api/lots').query({ technique: 'blown' }).expect(400);
+    expect(res2.body.error.fields.map((f: { field: string }) => f.field)).toContain('technique');
+  });
+});

@@ -1,0 +1,304 @@
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { formatLotCode, tagPayload, tagReference } from '@beadroll/core';
+import { writeTagVideo } from './support/fake-camera';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+import type { Page } from 'playwright-core';
+
+// The invented demo scenario: its accounts share one password.
+const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as { password: string; accounts: Array<{ role: string; email: string; status?: string }> };
+const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
+
+/** A signed-in HTTP client for a demo account. */
+async function client(baseUrl: string, email: string) {
+  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
+    body: JSON.stringify({ email, password: demo.password }),
+  });
+  expect(signIn.ok).toBe(true);
+  const cookie = signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
+  return async <T>(path: string, body?: unknown): Promise<T> => {
+    const res = await fetch(`${baseUrl}${path}`, {
+      method: body === undefined ? 'GET' : 'POST',
+      headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1', cookie },
+      ...(body === undefined ? {} : { body: JSON.stringify(body) }),
+    });
+    const json = (await res.json()) as T;
+    expect(res.ok, JSON.stringify(json)).toBe(true);
+    return json;
+  };
+}
+
+/** Registers an invented lot for the demo dealer; returns its code, title and tag reference. */
+async function registerLot(
+  baseUrl: string,
+  title: string,
+  opinion?: object,
+): Promise<{ code: string; title: string; ref: string }> {
+  const call = await client(baseUrl, dealer.email);
+  let lot = await call<{ code: string; headHash: string }>('/api/lots', {
+    description: {
+      title,
+      form: 'strand',
+      count: { value: 24, estimated: false },
+      colours: ['green'],
+      baseGlass: ['transparent'],
+      decoration: [],
+      listed: false,
+    },
+    sealed: { storageLocation: 'Fair case 2', acquisition: { cost: { amount: 1500, currency: 'EUR' } } },
+  });
+  if (opinion) {
+    await call(`/api/lots/${lot.code}/opinions`, opinion);
+    lot = await call(`/api/lots/${lot.code}`);
+  }
+  return { code: lot.code, title, ref: tagReference(lot.headHash) };
+}
+
+async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
+  await page.getByLabel('Password').fill(demo.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+}
+
+describe('finding a lot in the inventory', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  let lot: { code: string; title: string };
+
+  beforeAll(async () => {
+    lot = await registerLot(baseUrl, 'Melon beads from the attic box', {
+      origin: 'bohemia-czech',
+      period: { from: 1890, to: 1910, approximate: true },
+      technique: 'furnace-wound',
+      qualifier: 'attributed-to',
+      confidence: 'medium',
+      rationale: 'Furnace-wound melons with the usual seam.',
+      exhibits: [],
+    });
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('finds it by its code with hyphens and by the attribution on record', async () => {
+    const { page } = browser;
+    await signIn(page, baseUrl, dealer.email);
+    await page.goto(`${baseUrl}/lots`);
+    const search = page.getByRole('searchbox');
+    await search.fill(formatLotCode(lot.code).toLowerCase());
+    await page.waitForURL(/q=/);
+    const table = page.getByRole('table', { name: 'Lots' });
+    await table.getByRole('link', { name: lot.title }).waitFor();
+    // The header row and the one lot, once the search's page has replaced the previous one.
+    await expect.poll(() => table.getByRole('row').count(), { timeout: 10_000 }).toBe(2);
+
+    await search.fill('bohemian furnace');
+    await page.waitForURL(/q=bohemian/);
+    await table.getByRole('link', { name: lot.title }).waitFor();
+    expect(new URL(page.url()).searchParams.get('q')).toBe('bohemian furnace');
+
+    // The address keeps the search: a reload shows the same rows.
+    await page.reload();
+    await page.getByRole('table', { name: 'Lots' }).getByRole('link', { name: lot.title }).waitFor();
+    await page.getByRole('columnheader', { name: 'Period' }).click();
+    await page.waitForURL(/sort=period/);
+    await screenshot(page, 'inventory-search');
+  });
+});
+
+describe('a sale at a fair from a scanned tag, on a phone', () => {
+  const baseUrl = inject('baseUrl');
+  let dir: string;
+  let browser: Browser;
+  let lot: { code: string; title: string; ref: string };
+
+  beforeAll(async () => {
+    lot = await registerLot(baseUrl, 'Striped drawn beads for the fair');
+    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
+    const video = join(dir, 'tag.y4m');
+    await writeTagVideo(video, tagPayload(new URL(baseUrl).host, lot.code, lot.ref));
+    browser = await openBrowser({
+      width: 390,
+      height: 844,
+      args: [
+        '--use-fake-device-for-media-stream',
+        '--use-fake-ui-for-media-stream',
+        `--use-file-for-fake-video-capture=${video}`,
+      ],
+    });
+  });
+  afterAll(async () => {
+    await browser?.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('sells the scanned lot in two taps after the scan', async () => {
+    const { page } = browser;
+    await signIn(page, baseUrl, dealer.email);
+    await page.goto(`${baseUrl}/scan`);
+    await page.getByRole('button', { name: 'Start camera' }).click();
+    await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
+    await page.getByRole('heading', { level: 1, name: lot.title }).waitFor();
+    const quick = page.getByRole('group', { name: 'Quick actions' });
+    for (const name of ['Sell', 'Offer to a dealer', 'Print a new tag', 'History'])
+      await quick.getByRole(name === 'History' ? 'link' : 'button', { name }).waitFor();
+    await screenshot(page, 'scanned-lot-quick-actions-390');
+
+    const call = await client(baseUrl, dealer.email);
+    type Figures = { currencies: Array<{ currency: string; salesByYear: Array<{ revenue: number }> }> };
+    const soldFor = (f: Figures) =>
+      f.currencies.find((c) => c.currency === 'EUR')?.salesByYear.reduce((n, y) => n + y.revenue, 0) ?? 0;
+    const before = soldFor(await call<Figures>('/api/stock/summary'));
+
+    // Tap 1: Sell. The price field has the cursor; typing is not a tap.
+    await quick.getByRole('button', { name: 'Sell' }).click();
+    await page.getByRole('dialog').waitFor();
+    await page.keyboard.type('45.00');
+    expect(await page.getByRole('textbox', { name: 'Price: amount' }).inputValue()).toBe('45.00');
+    await screenshot(page, 'scanned-lot-sell-390');
+    // Tap 2: record it.
+    await page.getByRole('button', { name: 'Record the sale' }).click();
+    await page.getByText(/^Sold for .*45\.00/).waitFor();
+    await screenshot(page, 'scanned-lot-sold-390');
+
+    const detail = await call<{ status: string }>(`/api/lots/${lot.code}`);
+    expect(detail.status).toBe('sold');
+    expect(soldFor(await call<Figures>('/api/stock/summary')) - before).toBe(4500);
+    // Fits the phone: nothing wider than the screen.
+    const width = await page.evaluate(() => document.documentElement.scrollWidth);
+    expect(width).toBeLessThanOrEqual(390);
+
+    // The sale shows in the dealer's own figures, with a chart drawn on first use of the page.
+    await page.goto(`${baseUrl}/stock`);
+    const eur = page.getByRole('region', { name: 'In EUR' });
+    await eur.getByRole('table', { name: 'Sales by month' }).waitFor();
+    await eur
+      .getByRole('img', { name: 'Sales and margin by month, EUR' })
+      .locator('canvas')
+      .first()
+      .waitFor();
+    await eur.getByRole('table', { name: 'Stock by origin' }).waitFor();
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await screenshot(page, 'stock-figures-390');
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await screenshot(page, 'stock-figures-1280');
+  });
+});
+
+const assessor = demo.accounts.find((a) => a.role === 'assessor' && a.status === 'verified')!;
+
+describe('an opinion on request', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  let lot: { code: string; title: string };
+
+  beforeAll(async () => {
+    lot = await registerLot(baseUrl, 'Chevron beads from a trunk in the attic');
+    // Listed, so the assessor's opinion may go on its roll.
+    const call = await client(baseUrl, dealer.email);
+    await call(`/api/lots/${lot.code}/descriptions`, {
+      description: {
+        title: lot.title,
+        form: 'strand',
+        count: { value: 24, estimated: false },
+        colours: ['red', 'white', 'blue'],
+        baseGlass: ['opaque'],
+        decoration: [],
+        listed: true,
+      },
+    });
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('is asked by the holder on the lot page and answered by the assessor from their queue', async () => {
+    const { page } = browser;
+    await signIn(page, baseUrl, dealer.email);
+    await page.goto(`${baseUrl}/lots/${lot.code}`);
+    await page
+      .getByRole('group', { name: 'Actions' })
+      .getByRole('button', { name: 'Ask for an opinion' })
+      .click();
+    const ask = page.getByRole('dialog');
+    await ask.getByRole('radio', { name: /Halvard Nimmo/ }).check();
+    await ask.getByRole('textbox', { name: /What to look at/ }).fill('Are these seven-layer chevrons old?');
+    await screenshot(page, 'opinion-request-ask-1280');
+    await ask.getByRole('button', { name: 'Ask' }).click();
+    await ask.getByText(/^Asked\./).waitFor();
+    await ask.getByRole('button', { name: 'Close' }).click();
+
+    // The assessor's start page is their queue.
+    await signIn(page, baseUrl, assessor.email);
+    await page.goto(`${baseUrl}/`);
+    const queue = page.getByRole('list', { name: 'Waiting for your opinion' });
+    const request = queue.getByRole('listitem').filter({ hasText: lot.title });
+    await request.getByText('“Are these seven-layer chevrons old?”').waitFor();
+    await screenshot(page, 'opinion-request-queue-1280');
+    await request.getByRole('link', { name: lot.title }).click();
+    await page.waitForURL(`${baseUrl}/lots/${lot.code}`);
+
+    await page
+      .getByRole('group', { name: 'Actions' })
+      .getByRole('button', { name: 'Record an opinion' })
+      .click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('combobox', { name: /^Origin/ }).selectOption('venice-murano');
+    await dialog.getByRole('textbox', { name: /^From year/ }).fill('1880');
+    await dialog.getByRole('textbox', { name: /^To year/ }).fill('1920');
+    await dialog
+      .getByRole('textbox', { name: /^Rationale/ })
+      .fill('Seven layers, ground ends showing each colour; wear on the edges of every bead.');
+    await dialog.getByRole('button', { name: 'Record opinion' }).click();
+    await dialog.waitFor({ state: 'detached' });
+
+    // The queue now shows it answered; the holder's request reads answered too.
+    await page.goto(`${baseUrl}/`);
+    await page
+      .getByRole('list', { name: 'Earlier requests' })
+      .getByRole('listitem')
+      .filter({ hasText: lot.title })
+      .getByText('Answered')
+      .waitFor();
+    const call = await client(baseUrl, dealer.email);
+    const sent = await call<{ items: Array<{ lot: { code: string }; status: string }> }>(
+      '/api/opinion-requests?box=sent',
+    );
+    expect(sent.items.find((r) => r.lot.code === lot.code)?.status).toBe('answered');
+  });
+});
+
+describe('the chart library stays out of the public page', () => {
+  const baseUrl = inject('baseUrl');
+
+  it('loads no uPlot code when a buyer opens a lot page', async () => {
+    const browser = await openBrowser({ width: 390, height: 844 });
+    try {
+      const { page } = browser;
+      const scripts: string[] = [];
+      page.on('response', async (r) => {
+        if (r.request().resourceType() === 'script') scripts.push(await r.text());
+      });
+      // Any code: the public page's scripts are the same whether the lot is found or not.
+      await page.goto(`${baseUrl}/l/7K2QM9XAT`);
+      await page.waitForLoadState('networkidle');
+      expect(scripts.length).toBeGreaterThan(0);
+      expect(scripts.some((s) => s.includes('uPlot'))).toBe(false);
+    } finally {
+      await browser.close();
+    }
+  });
+});

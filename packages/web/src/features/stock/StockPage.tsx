@@ -1,0 +1,324 @@
+import type { Origin } from '@beadroll/core';
+import {
+  Button,
+  Card,
+  makeStyles,
+  MessageBar,
+  MessageBarBody,
+  Spinner,
+  Subtitle1,
+  Table,
+  TableBody,
+  TableCell,
+  TableHeader,
+  TableHeaderCell,
+  TableRow,
+  Text,
+  Title2,
+  Title3,
+  tokens,
+} from '@fluentui/react-components';
+import { useQuery } from '@tanstack/react-query';
+import { useMemo } from 'react';
+import { Navigate } from 'react-router-dom';
+import { useSession } from '../accounts/accounts.api';
+import { ORIGIN_LABEL } from '../lots/labels';
+import { formatMoney } from '../transfers/transfers.api';
+import { BarChart, type BarSeries } from './BarChart';
+import {
+  stockExportUrl,
+  stockQueries,
+  type CurrencyFigures,
+  type SalesPeriod,
+  type StockGroup,
+} from './stock.api';
+
+const useStyles = makeStyles({
+  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
+  top: {
+    display: 'flex',
+    flexWrap: 'wrap',
+    gap: tokens.spacingHorizontalM,
+    alignItems: 'center',
+    justifyContent: 'space-between',
+  },
+  actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
+  currency: { display: 'grid', gap: tokens.spacingVerticalM, padding: tokens.spacingHorizontalL },
+  grid: {
+    display: 'grid',
+    gridTemplateColumns: 'repeat(auto-fit, minmax(min(100%, 22rem), 1fr))',
+    gap: tokens.spacingHorizontalL,
+  },
+  figure: { display: 'grid', gap: tokens.spacingVerticalS, margin: 0, minWidth: 0 },
+  big: { fontSize: tokens.fontSizeHero700, lineHeight: tokens.lineHeightHero700 },
+  scroll: { overflowX: 'auto' },
+  number: { textAlign: 'end', fontVariantNumeric: 'tabular-nums' },
+});
+
+function originWords(key: string): string {
+  return key === 'none' ? 'No attribution yet' : (ORIGIN_LABEL[key as Origin] ?? key);
+}
+
+function centuryWords(key: string): string {
+  return key === 'none' ? 'No period yet' : `${key}s`;
+}
+
+function monthWords(period: string): string {
+  const [y, m] = period.split('-').map(Number);
+  return new Date(Date.UTC(y!, (m ?? 1) - 1, 1)).toLocaleDateString(undefined, {
+    year: 'numeric',
+    month: 'short',
+    timeZone: 'UTC',
+  });
+}
+
+/** The dealer's own stock and sales figures, per currency, with charts and the stock export. */
+export function StockPage() {
+  const styles = useStyles();
+  const { account, isLoading } = useSession();
+  const query = useQuery({ ...stockQueries.summary(), enabled: account?.role === 'dealer' });
+  if (isLoading) return <Spinner label="Loading…" />;
+  if (!account) return <Navigate to="/sign-in?next=/stock" replace />;
+  if (account.role !== 'dealer') return <Navigate to="/" replace />;
+  const data = query.data;
+
+  return (
+    <section className={styles.page} aria-labelledby="stock-title">
+      <div className={styles.top}>
+        <Title2 as="h1" id="stock-title">
+          Stock and sales
+        </Title2>
+        <div className={styles.actions}>
+          <Button as="a" href={stockExportUrl('csv')} download>
+            Download stock as CSV
+          </Button>
+          <Button as="a" href={stockExportUrl('xlsx')} download>
+            Download stock as XLSX
+          </Button>
+        </div>
+      </div>
+      <Text>
+        Figures from your own private details only: what you paid (your recorded cost, or the price of a
+        transfer you accepted) and what you sold for. Nobody else sees them.
+      </Text>
+      {query.isPending ? (
+        <Spinner label="Adding up your figures…" />
+      ) : query.isError || !data ? (
+        <Card>
+          <Text>Your figures could not be loaded. Please try again.</Text>
+          <Button onClick={() => query.refetch()}>Try again</Button>
+        </Card>
+      ) : (
+        <>
+          {data.lotsWithoutCost > 0 || data.salesWithoutPrice > 0 ? (
+            <MessageBar intent="info">
+              <MessageBarBody>
+                {data.lotsWithoutCost > 0
+                  ? `${data.lotsWithoutCost} of the ${data.lotsHeld} lots you hold have no cost recorded and are left out of the stock figures. `
+                  : ''}
+                {data.salesWithoutPrice > 0
+                  ? `${data.salesWithoutPrice} sales have no price you can read and are left out.`
+                  : ''}
+              </MessageBarBody>
+            </MessageBar>
+          ) : null}
+          {data.currencies.length === 0 ? (
+            <Card>
+              <Text>
+                No figures yet: record what you paid when you register a lot, and a price when you sell one.
+              </Text>
+            </Card>
+          ) : (
+            data.currencies.map((c) => <CurrencySection key={c.currency} figures={c} />)
+          )}
+        </>
+      )}
+    </section>
+  );
+}
+
+function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
+  const styles = useStyles();
+  const money = useMemo(
+    () => (amount: number) => formatMoney({ amount, currency: f.currency }),
+    [f.currency],
+  );
+  const charts = useMemo(() => {
+    const cost = (groups: StockGroup[]): BarSeries[] => [
+      { label: 'Cost', values: groups.map((g) => g.cost), colourVar: '--colorBrandBackground' },
+    ];
+    return {
+      origin: { categories: f.stockByOrigin.map((g) => originWords(g.key)), series: cost(f.stockByOrigin) },
+      century: {
+        categories: f.stockByCentury.map((g) => centuryWords(g.key)),
+        series: cost(f.stockByCentury),
+      },
+      months: {
+        categories: f.salesByMonth.map((m) => monthWords(m.period)),
+        series: [
+          {
+            label: 'Sales',
+            values: f.salesByMonth.map((m) => m.revenue),
+            colourVar: '--colorBrandBackground2Pressed',
+          },
+          {
+            label: 'Margin',
+            values: f.salesByMonth.map((m) => m.margin),
+            colourVar: '--colorBrandBackground',
+          },
+        ],
+      },
+    };
+  }, [f]);
+  const titleId = `stock-${f.currency}`;
+
+  return (
+    <section aria-labelledby={titleId}>
+      <Card className={styles.currency}>
+        <Title3 as="h2" id={titleId}>
+          In {f.currency}
+        </Title3>
+        <div>
+          <Text block>Cost of the stock you hold</Text>
+          <Text className={styles.big} weight="semibold">
+            {money(f.stock.cost)}
+          </Text>
+          <Text block>
+            {f.stock.lots} {f.stock.lots === 1 ? 'lot' : 'lots'}
+          </Text>
+        </div>
+        {f.stock.lots ? (
+          <div className={styles.grid}>
+            <figure className={styles.figure}>
+              <Subtitle1 as="h3">Stock by origin</Subtitle1>
+              <BarChart title={`Cost of stock by origin, ${f.currency}`} format={money} {...charts.origin} />
+              <GroupTable
+                label="Stock by origin"
+                groups={f.stockByOrigin}
+                words={originWords}
+                money={money}
+              />
+            </figure>
+            <figure className={styles.figure}>
+              <Subtitle1 as="h3">Stock by period</Subtitle1>
+              <BarChart
+                title={`Cost of stock by century, ${f.currency}`}
+                format={money}
+                {...charts.century}
+              />
+              <GroupTable
+                label="Stock by period"
+                groups={f.stockByCentury}
+                words={centuryWords}
+                money={money}
+              />
+            </figure>
+          </div>
+        ) : (
+          <Text>No lot you hold has a cost in {f.currency}.</Text>
+        )}
+        <figure className={styles.figure}>
+          <Subtitle1 as="h3">Sales by month</Subtitle1>
+          {f.salesByMonth.length ? (
+            <>
+              <BarChart
+                title={`Sales and margin by month, ${f.currency}`}
+                format={money}
+                {...charts.months}
+              />
+              <Text size={200}>Light bars: what you sold for; dark bars over them: your margin.</Text>
+              <SalesTable label="Sales by month" periods={f.salesByMonth} words={monthWords} money={money} />
+            </>
+          ) : (
+            <Text>No sales in {f.currency} yet.</Text>
+          )}
+        </figure>
+        {f.salesByYear.length ? (
+          <figure className={styles.figure}>
+            <Subtitle1 as="h3">Sales by year</Subtitle1>
+            <SalesTable label="Sales by year" periods={f.salesByYear} words={(p) => p} money={money} />
+          </figure>
+        ) : null}
+      </Card>
+    </section>
+  );
+}
+
+function GroupTable({
+  label,
+  groups,
+  words,
+  money,
+}: {
+  label: string;
+  groups: StockGroup[];
+  words: (key: string) => string;
+  money: (n: number) => string;
+}) {
+  const styles = useStyles();
+  return (
+    <div className={styles.scroll}>
+      <Table size="small" aria-label={label}>
+        <TableHeader>
+          <TableRow>
+            <TableHeaderCell>Group</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Lots</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Cost</TableHeaderCell>
+          </TableRow>
+        </TableHeader>
+        <TableBody>
+          {groups.map((g) => (
+            <TableRow key={g.key}>
+              <TableCell>{words(g.key)}</TableCell>
+              <TableCell className={styles.number}>{g.lots}</TableCell>
+              <TableCell className={styles.number}>{money(g.cost)}</TableCell>
+            </TableRow>
+          ))}
+        </TableBody>
+      </Table>
+    </div>
+  );
+}
+
+function SalesTable({
+  label,
+  periods,
+  words,
+  money,
+}: {
+  label: string;
+  periods: SalesPeriod[];
+  words: (period: string) => string;
+  money: (n: number) => string;
+}) {
+  const styles = useStyles();
+  return (
+    <div className={styles.scroll}>
+      <Table size="small" aria-label={label}>
+        <TableHeader>
+          <TableRow>
+            <TableHeaderCell>Period</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Sales</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Sold for</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Cost</TableHeaderCell>
+            <TableHeaderCell className={styles.number}>Margin</TableHeaderCell>
+          </TableRow>
+        </TableHeader>
+        <TableBody>
+          {periods.map((p) => (
+            <TableRow key={p.period}>
+              <TableCell>{words(p.period)}</TableCell>
+              <TableCell className={styles.number}>{p.sales}</TableCell>
+              <TableCell className={styles.number}>{money(p.revenue)}</TableCell>
+              <TableCell className={styles.number}>{money(p.cost)}</TableCell>
+              <TableCell className={styles.number}>
+                {money(p.margin)}
+                {p.withoutCost ? ` (${p.withoutCost} without cost)` : ''}
+              </TableCell>
+            </TableRow>
+          ))}
+        </TableBody>
+      </Table>
+    </div>
+  );
+}
