@@ -18,7 +18,7 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
-import { attributionOnRecord } from './attribution-on-record';
+import { attributionOnRecord as holderAttribution } from './attribution-on-record';
 import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
 import type {
   LotDetailResponse,
@@ -478,7 +478,7 @@ export class LotsService {
     const r = verifyRoll(entries, { lot: access.code });
     if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
     const s = r.state;
-    const recorded = attributionOnRecord(s);
+    const recorded = holderAttribution(s);
     const view = (await this.view(access.code))!;
     const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
     const head = entries[entries.length - 1]!;
