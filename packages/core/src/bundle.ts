@@ -5,6 +5,7 @@ import { bodyDigest, entryHash } from './hash.js';
 import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
+import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
 import { verifyRoll, type VerifiedEntry, type VerifyFailure } from './verify.js';
 
@@ -154,6 +155,8 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
     if (bodyDigest(e.body) !== h.body)
       return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
     const issues = bodyIssues(h.kind, body);
+    if (issues.length === 0 && (h.v as number) >= 2)
+      issues.push(...bodyBoundIssues(h.kind, body as SplitBody | CombinedBody, h.time));
     if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
     out.push({ header: h, hash: e.hash, body: body as SplitBody | CombinedBody });
   }

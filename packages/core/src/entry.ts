@@ -17,6 +17,7 @@ import {
   type ParentRef,
   type SealedValues,
 } from './types.js';
+import { bodyBoundIssues, sealedBoundIssues } from './bounds.js';
 import { bodyIssues, isActorId, isEntryTime, isHex64 } from './validate.js';
 
 /** An entry as stored and exported: the exact canonical strings and the claimed entry hash. */
@@ -111,7 +112,13 @@ export function buildEntry<K extends EntryKind>(
   if (issues.length > 0) throw new ValidationError(issues, 'bad-draft');
 
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
-  const bIssues = bodyIssues(draft.kind, body);
+  let bIssues = bodyIssues(draft.kind, body);
+  // New entries meet the plausibility bounds too (format version 2 rules).
+  if (bIssues.length === 0)
+    bIssues = [
+      ...bodyBoundIssues(draft.kind, body, draft.time),
+      ...(draft.sealed ? sealedBoundIssues(draft.sealed, draft.time) : []),
+    ];
   if (bIssues.length > 0)
     throw new ValidationError(
       bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })),

@@ -10,7 +10,9 @@ import type {
   ParentRef,
   RedactedBody,
   RegisteredBody,
+  SaleVoidedBody,
   SoldBody,
+  Correction,
   SplitBody,
   TransferAnswerBody,
   TransferOfferedBody,
@@ -87,6 +89,12 @@ export interface RollState {
   soldOn: string | null;
   /** seq of the `sold` entry, or null. */
   soldSeq: number | null;
+  /** time of the `sold` entry, or null (a sale may be voided within {@link VOID_WINDOW_MS} of it). */
+  soldTime: string | null;
+  /** seqs of the entries holding a description (`registered` and `described`), oldest first. */
+  descriptionSeqs: number[];
+  /** seqs of the `observed` entries, oldest first. */
+  observationSeqs: number[];
   parents: ParentRef[];
   children: ChildLink[];
   /** seqs of `split`/`combined` entries (never redactable). */
@@ -103,7 +111,12 @@ export interface TransitionDraft {
   actor: string;
   body: AnyBody | Omit<AnyBody, 'nonce'> | null;
   parents?: ParentRef[];
+  /** The entry's time (RFC 3339 UTC); rules that depend on time (voiding a sale) need it. */
+  time?: string;
 }
+
+/** How long after a sale its seller may void it: 24 hours, in milliseconds. */
+export const VOID_WINDOW_MS = 24 * 60 * 60 * 1000;
 
 /** Outcome of {@link checkTransition}. */
 export type TransitionResult =
@@ -179,6 +192,11 @@ export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
   split: { actor: 'holder', statuses: ['held'], summary: 'children counts do not exceed an exact count' },
   combined: { actor: 'holder', statuses: ['held'], summary: 'count taken does not exceed an exact count' },
   sold: { actor: 'holder', statuses: ['held'], summary: 'sale to a private buyer' },
+  'sale-voided': {
+    actor: 'holder',
+    statuses: ['sold'],
+    summary: 'the seller, within 24 hours of the sale it names (the current sale); the lot is held again',
+  },
   retired: { actor: 'holder', statuses: ['held'], summary: 'taken out of trade' },
   redacted: {
     actor: 'anyone',
@@ -245,6 +263,29 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
   if (body === null) return { ok: true };
   const head = state.head.seq;
   switch (kind) {
+    case 'described':
+    case 'observed': {
+      const c = (body as { corrects?: Correction }).corrects;
+      if (c === undefined) break;
+      const seqs = kind === 'described' ? state.descriptionSeqs : state.observationSeqs;
+      if (!seqs.includes(c.seq))
+        return bad(
+          'bad-transition',
+          kind === 'described'
+            ? `seq ${c.seq} is not an earlier description`
+            : `seq ${c.seq} is not an earlier observation`,
+        );
+      break;
+    }
+    case 'sale-voided': {
+      const seq = (body as unknown as SaleVoidedBody).saleSeq;
+      if (seq !== state.soldSeq) return bad('bad-transition', `the sale is seq ${state.soldSeq}`);
+      if (draft.time === undefined || state.soldTime === null)
+        return bad('bad-transition', 'a void needs the time of the sale and of the void');
+      if (Date.parse(draft.time) - Date.parse(state.soldTime) > VOID_WINDOW_MS)
+        return bad('bad-transition', 'a sale can be voided only within 24 hours of it');
+      break;
+    }
     case 'opinion-withdrawn': {
       const seq = (body as unknown as OpinionWithdrawnBody).opinionSeq;
       const op = state.opinions.find((o) => o.seq === seq);
@@ -372,6 +413,9 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       dissents: [],
       soldOn: null,
       soldSeq: null,
+      soldTime: null,
+      descriptionSeqs: [0],
+      observationSeqs: [],
       parents: h.parents ?? [],
       children: [],
       linkSeqs: [],
@@ -385,6 +429,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       const d = body ? (body as RegisteredBody).description : null;
       s.description = d;
       s.descriptionSeq = h.seq;
+      s.descriptionSeqs = [...s.descriptionSeqs, h.seq];
       s.listed = d ? d.listed : false;
       s.listedKnown = d !== null;
       if (ACTIVE.includes(s.status))
@@ -443,10 +488,20 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       if (left === 0) s.status = 'combined';
       break;
     }
+    case 'observed':
+      s.observationSeqs = [...s.observationSeqs, h.seq];
+      break;
     case 'sold':
       s.status = 'sold';
       s.soldOn = body ? (body as SoldBody).date : null;
       s.soldSeq = h.seq;
+      s.soldTime = h.time;
+      break;
+    case 'sale-voided':
+      s.status = 'held';
+      s.soldOn = null;
+      s.soldSeq = null;
+      s.soldTime = null;
       break;
     case 'retired':
       s.status = 'retired';

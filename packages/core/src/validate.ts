@@ -264,9 +264,15 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     const o = c.obj(b, '', ['nonce', 'description']);
     if (o && 'description' in o) checkDescription(c, o.description, 'description');
   },
-  described: (c, b) => bodyCheckers.registered(c, b),
+  described: (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'description'], ['corrects']);
+    if (!o) return;
+    if ('description' in o) checkDescription(c, o.description, 'description');
+    if ('corrects' in o) checkCorrection(c, o.corrects);
+  },
   observed: (c, b) => {
-    const o = c.obj(b, '', ['nonce', 'observations']);
+    const o = c.obj(b, '', ['nonce', 'observations'], ['corrects']);
+    if (o && 'corrects' in o) checkCorrection(c, o.corrects);
     if (!o || !('observations' in o)) return;
     const p = 'observations';
     const ob = c.obj(
@@ -377,6 +383,12 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     const o = c.obj(b, '', ['nonce', 'date']);
     if (o) c.pattern(o, 'date', '', isCalendarDate, 'a date YYYY-MM-DD');
   },
+  'sale-voided': (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'saleSeq'], ['reason']);
+    if (!o) return;
+    c.int(o, 'saleSeq', '', 0, SEQ_MAX);
+    c.str(o, 'reason', '', LIMITS.longText, true);
+  },
   retired: (c, b) => {
     const o = c.obj(b, '', ['nonce'], ['note']);
     if (o) c.str(o, 'note', '', LIMITS.longText, true);
@@ -394,6 +406,13 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     c.int(o, 'ref', '', 0, SEQ_MAX, true);
   },
 };
+
+function checkCorrection(c: Checker, v: unknown): void {
+  const o = c.obj(v, 'corrects', ['seq', 'reason']);
+  if (!o) return;
+  c.int(o, 'seq', 'corrects', 0, SEQ_MAX);
+  c.str(o, 'reason', 'corrects', LIMITS.longText);
+}
 
 function answer(c: Checker, b: unknown): void {
   const o = c.obj(b, '', ['nonce', 'offerSeq'], ['note']);

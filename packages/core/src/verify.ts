@@ -3,6 +3,7 @@ import { decodeHeader, isHeaderProblem, NEVER_REDACTED, type ReasonCode, type St
 import { bodyDigest, entryHash } from './hash.js';
 import { checkTransition, reduceEntry, type RollHead, type RollState } from './rules.js';
 import { GENESIS_PREV, type AnyBody, type EntryHeader, type RedactedBody } from './types.js';
+import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
 
 /** The first entry at which a roll breaks. */
@@ -110,9 +111,17 @@ export class RollVerifier {
       if (bodyDigest(entry.body) !== h.body)
         return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
       const issues = bodyIssues(h.kind, body);
+      // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
+      if (issues.length === 0 && (h.v as number) >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
     }
-    const t = checkTransition(this.state, { kind: h.kind, actor: h.actor, body, parents: h.parents });
+    const t = checkTransition(this.state, {
+      kind: h.kind,
+      actor: h.actor,
+      body,
+      parents: h.parents,
+      time: h.time,
+    });
     if (!t.ok) return this.fail(h.seq, t.code, t.message);
     if (h.kind === 'redacted') this.pending.delete((body as RedactedBody).target);
     this.state = reduceEntry(this.state, { header: h, hash: entry.hash, body });

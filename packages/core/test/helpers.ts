@@ -57,16 +57,19 @@ export class RollBuilder {
       sealed?: SealedValues;
       parents?: { lot: string; seq: number; hash: string }[];
       unchecked?: boolean;
+      /** The entry's time instead of the next minute. */
+      time?: string;
     } = {},
   ): BuiltEntry | { refused: string } {
+    const time = extra.time ?? this.time();
     if (!extra.unchecked) {
-      const t = checkTransition(this.state, { kind, actor, body, parents: extra.parents });
+      const t = checkTransition(this.state, { kind, actor, body, parents: extra.parents, time });
       if (!t.ok) return { refused: t.code };
     }
     const head = this.built.length ? headOf(this.built.at(-1)!) : null;
     const b = buildEntry(
       head,
-      { lot: this.lot, kind, actor, time: this.time(), body, sealed: extra.sealed, parents: extra.parents },
+      { lot: this.lot, kind, actor, time, body, sealed: extra.sealed, parents: extra.parents },
       { random: this.random },
     );
     this.built.push(b);
