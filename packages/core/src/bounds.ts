@@ -119,10 +119,14 @@ export function yearProblem(v: unknown, thisYear: number): string | null {
   return null;
 }
 
-/** Message for a calendar date (YYYY-MM-DD) before 1900 or after `today` (YYYY-MM-DD), or null. */
-export function dateProblem(v: unknown, today: string): string | null {
-  if (typeof v !== 'string' || v < EARLIEST_DATE || v > today)
-    return `Enter a date between ${EARLIEST_DATE} and today (${today})`;
+/**
+ * Message for a calendar date (YYYY-MM-DD) before 1900 or later than today, or null. `now` is an
+ * RFC 3339 UTC time; a date one day past its UTC day is still today somewhere, so it passes.
+ */
+export function dateProblem(v: unknown, now: string): string | null {
+  const latest = new Date(Date.parse(now) + 86_400_000).toISOString().slice(0, 10);
+  if (typeof v !== 'string' || v < EARLIEST_DATE || v > latest)
+    return `Enter a date from ${EARLIEST_DATE} up to today`;
   return null;
 }
 
@@ -226,7 +230,7 @@ export function bodyBoundIssues(kind: EntryKind, body: AnyBody, time: string): F
       return m ? [{ path: 'count.value', message: m }] : [];
     }
     case 'sold': {
-      const m = dateProblem(b.date, time.slice(0, 10));
+      const m = dateProblem(b.date, time);
       return m ? [{ path: 'date', message: m }] : [];
     }
     default:
@@ -243,7 +247,7 @@ export function sealedBoundIssues(sealed: SealedValues, time: string): FieldIssu
   }
   const d = sealed['acquisition-date'];
   if (d !== undefined) {
-    const m = dateProblem(d, time.slice(0, 10));
+    const m = dateProblem(d, time);
     if (m) out.push({ path: 'sealed.acquisition-date', message: m });
   }
   return out;
