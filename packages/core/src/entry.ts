@@ -114,14 +114,11 @@ export function buildEntry<K extends EntryKind>(
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
   let bIssues = bodyIssues(draft.kind, body);
   // New entries meet the plausibility bounds too (format version 2 rules).
-  if (bIssues.length === 0)
-    bIssues = [
-      ...bodyBoundIssues(draft.kind, body, draft.time),
-      ...(draft.sealed ? sealedBoundIssues(draft.sealed, draft.time) : []),
-    ];
-  if (bIssues.length > 0)
+  if (bIssues.length === 0) bIssues = bodyBoundIssues(draft.kind, body, draft.time);
+  const sIssues = draft.sealed && bIssues.length === 0 ? sealedBoundIssues(draft.sealed, draft.time) : [];
+  if (bIssues.length > 0 || sIssues.length > 0)
     throw new ValidationError(
-      bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })),
+      [...bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })), ...sIssues],
       'bad-body',
     );
   let bodyText: string;

@@ -49,6 +49,8 @@ export function createValidationPipe(): ValidationPipe {
   return new ValidationPipe({
     whitelist: true,
     forbidNonWhitelisted: true,
+    // One reason per field, the first that fails: a dealer reads one thing to fix.
+    stopAtFirstError: true,
     transform: true,
     exceptionFactory: (errors) => AppError.validation(flatten(errors)),
   });

@@ -5,6 +5,7 @@ import { CreateTransfers1796159943028 } from '../migrations/1796159943028-Create
 import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-CreateRegistrarTools';
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
+import { AddSaleVoidedKind1796180000000 } from '../migrations/1796180000000-AddSaleVoidedKind';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -14,4 +15,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateExhibits1796160000000,
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
+  AddSaleVoidedKind1796180000000,
 ];

@@ -3,6 +3,7 @@ import {
   buildEntry,
   canonicalise,
   checkTransition,
+  verifyRoll,
   generateLotCode,
   isCanonicalLotCode,
   reduceEntry,
@@ -76,9 +77,25 @@ export class RollTransaction {
     if (!row) throw new AppError('not_found', 'Not found.');
     if (row.state.head.hash !== row.head_hash)
       throw new AppError('internal', `the stored state of lot ${code} does not match its head`);
-    const lot = { id: row.id, code: row.code, state: row.state };
+    const lot = { id: row.id, code: row.code, state: await this.current(row.id, row.state) };
     this.locked.set(code, lot);
     return lot;
+  }
+
+  /**
+   * A state stored before the rules tracked sale times and correctable entries lacks those
+   * fields: it is derived again from the lot's verified entries (once; the next write stores it).
+   */
+  private async current(lotId: string, state: RollState): Promise<RollState> {
+    if (Array.isArray(state.descriptionSeqs) && state.soldTime !== undefined) return state;
+    const rows: Array<{ hash: string; header: string; body: string | null }> = await this.manager.query(
+      `SELECT e."hash", e."header", b."body" FROM "entries" e
+       LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE e."lot_id" = $1 ORDER BY e."seq"`,
+      [lotId],
+    );
+    const v = verifyRoll(rows);
+    if (!v.ok) throw new AppError('internal', `the roll of lot ${state.lot} does not verify`);
+    return v.state;
   }
 
   /** The derived state of a locked lot (after any entries this transaction appended). */
@@ -117,7 +134,7 @@ export class RollTransaction {
     } catch (e) {
       refusal(e, options.fields);
     }
-    const t = checkTransition(state, { kind: draft.kind, actor: draft.actor, body: built.body });
+    const t = checkTransition(state, { kind: draft.kind, actor: draft.actor, body: built.body, time });
     if (!t.ok) throw transitionError(t.code, t.message);
     const next = reduceEntry(state, { header: built.header, hash: built.stored.hash, body: built.body });
     const entry = await this.insert(lot.id, built, next, draft.sealedAlsoVisibleTo);

@@ -3,6 +3,7 @@ import {
   formatLotCode,
   verifyRoll,
   type Bundle,
+  type Correction,
   type LotDescription,
   type Money,
   type ObservedBody,
@@ -73,6 +74,7 @@ const FIELD_NAMES = {
   'sealed.acquisition-source': 'sealed.acquisition.source',
   'sealed.acquisition-cost': 'sealed.acquisition.cost',
   'sealed.private-note': 'sealed.privateNote',
+  'body.corrects': 'corrects',
 };
 
 const SORT_COLUMNS: Record<NonNullable<ListLotsQueryDto['sort']>, string> = {
@@ -170,7 +172,10 @@ export class LotsService {
       {
         kind: 'described',
         actor: actor.id,
-        body: { description: plain<LotDescription>(dto.description) },
+        body: {
+          description: plain<LotDescription>(dto.description),
+          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
+        },
         sealed: sealedValuesOf(dto.sealed),
       },
       { fields: FIELD_NAMES },
@@ -183,7 +188,14 @@ export class LotsService {
     const code = await this.readableCode(actor, text);
     await this.ledger.append(
       code,
-      { kind: 'observed', actor: actor.id, body: { observations: plain<ObservationsDto>(dto.observations) } },
+      {
+        kind: 'observed',
+        actor: actor.id,
+        body: {
+          observations: plain<ObservationsDto>(dto.observations),
+          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
+        },
+      },
       { fields: FIELD_NAMES },
     );
     return this.detail(actor, code);
