@@ -1,3 +1,4 @@
+import { CheckGroup } from '../../lib/CheckGroup';
 import {
   Button,
   Checkbox,
@@ -258,7 +259,7 @@ export function OpinionForm({
             onChange={(_, d) => setRationale(d.value)}
           />
         </Field>
-        <Field
+        <CheckGroup
           label="Cited exhibits"
           hint="Exhibits on this lot’s roll. Add your own evidence to the lot first to cite it."
           validationMessage={fieldError(err, 'exhibits')}
@@ -279,7 +280,7 @@ export function OpinionForm({
           ) : (
             <Text>No exhibits on this lot’s roll yet.</Text>
           )}
-        </Field>
+        </CheckGroup>
         {aid.warnings.length > 0 && (
           <Text role="status">
             The aid has {aid.warnings.length} plausibility{' '}
