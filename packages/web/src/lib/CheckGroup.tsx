@@ -19,6 +19,7 @@ export function CheckGroup({
           className={className}
           aria-labelledby={control['aria-labelledby']}
           aria-describedby={control['aria-describedby']}
+          data-invalid={control['aria-invalid'] ? 'true' : undefined}
         >
           <FieldContextProvider value={undefined}>{children}</FieldContextProvider>
         </div>

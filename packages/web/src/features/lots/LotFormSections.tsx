@@ -17,6 +17,7 @@ import { useState, type ReactNode } from 'react';
 import { CheckGroup } from '../../lib/CheckGroup';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
+import { MoneyField } from '../transfers/MoneyField';
 import { PrivateMark } from './PrivateMark';
 
 const useStyles = makeStyles({
@@ -352,27 +353,18 @@ export function PrivateSections({
           </Field>
         </div>
         <div className={styles.row}>
-          <Field
+          <MoneyField
             label="Cost"
-            validationMessage={error('sealed.acquisition.cost.amount') ?? error('sealed.acquisition.cost')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.costAmount}
-              onChange={(_, d) => change('costAmount', d.value)}
-            />
-          </Field>
-          <Field
-            label="Currency"
-            hint="ISO 4217 code"
-            validationMessage={error('sealed.acquisition.cost.currency')}
-          >
-            <Input
-              value={draft.costCurrency}
-              maxLength={3}
-              onChange={(_, d) => change('costCurrency', d.value.toUpperCase())}
-            />
-          </Field>
+            amount={draft.costAmount}
+            currency={draft.costCurrency}
+            onAmount={(v) => change('costAmount', v)}
+            onCurrency={(v) => change('costCurrency', v)}
+            validationMessage={
+              error('sealed.acquisition.cost.amount') ??
+              error('sealed.acquisition.cost.currency') ??
+              error('sealed.acquisition.cost')
+            }
+          />
         </div>
         <Field label="Private note" validationMessage={error('sealed.privateNote')}>
           <Textarea

@@ -86,6 +86,7 @@ export function ObservationChecklist({
             key={q.key}
             className={styles.group}
             aria-describedby={problem ? `${name}-error` : undefined}
+            data-invalid={problem ? 'true' : undefined}
           >
             <legend className={styles.legend}>{q.label}</legend>
             <div className={styles.choices}>

@@ -9,9 +9,10 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link, Navigate, useNavigate } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
+import { focusFirstError } from '../../lib/focus-first-error';
 import { useSession } from '../accounts/accounts.api';
 import { FormError } from '../accounts/FormPage';
 import {
@@ -54,8 +55,10 @@ export function RegisterLotPage() {
   const [draft, setDraft] = useState<LotDraft>(() => loadDraft());
   const [local, setLocal] = useState<FieldErrors>({});
   useEffect(() => saveDraft(draft), [draft]);
+  const formRef = useRef<HTMLFormElement>(null);
   const register = useMutation({
     mutationFn: lotsApi.register,
+    onError: () => focusFirstError(formRef.current),
     onSuccess: async (lot) => {
       clearDraft();
       await client.invalidateQueries({ queryKey: ['lots'] });
@@ -76,6 +79,7 @@ export function RegisterLotPage() {
     const { input, errors } = draftToRequest(draft);
     setLocal(errors);
     if (input) register.mutate(input);
+    else focusFirstError(formRef.current);
   };
 
   return (
@@ -88,6 +92,7 @@ export function RegisterLotPage() {
         lot is registered; the private details only until you close the browser.
       </Text>
       <form
+        ref={formRef}
         className={styles.form}
         noValidate
         onSubmit={(e) => {

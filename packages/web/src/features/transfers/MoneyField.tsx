@@ -1,3 +1,4 @@
+import { CURRENCIES } from '@beadroll/core';
 import { Field, Input, makeStyles, Select, tokens } from '@fluentui/react-components';
 
 const useStyles = makeStyles({
@@ -5,8 +6,8 @@ const useStyles = makeStyles({
   amount: { flexGrow: 1 },
 });
 
-/** Common trade currencies first; any other ISO 4217 code can be typed by the server API. */
-export const CURRENCIES = [
+/** Common trade currencies first, then every other one core knows (ISO 4217). */
+export const COMMON_CURRENCIES = [
   'EUR',
   'GBP',
   'USD',
@@ -54,11 +55,20 @@ export function MoneyField({
           placeholder="0.00"
         />
         <Select value={currency} onChange={(_, d) => onCurrency(d.value)} aria-label={`${label}: currency`}>
-          {CURRENCIES.map((c) => (
-            <option key={c} value={c}>
-              {c}
-            </option>
-          ))}
+          <optgroup label="Common">
+            {COMMON_CURRENCIES.map((c) => (
+              <option key={c} value={c}>
+                {c}
+              </option>
+            ))}
+          </optgroup>
+          <optgroup label="All currencies">
+            {CURRENCIES.filter((c) => !COMMON_CURRENCIES.includes(c.code)).map((c) => (
+              <option key={c.code} value={c.code}>
+                {c.code} · {c.name}
+              </option>
+            ))}
+          </optgroup>
         </Select>
       </div>
     </Field>
