@@ -14,6 +14,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { LotImportsModule } from './lot-imports/lot-imports.module';
 import { TransfersModule } from './transfers/transfers.module';
 import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
@@ -35,6 +36,7 @@ import { TagsModule } from './tags/tags.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    LotImportsModule,
     OpinionsModule,
     LineageModule,
     ExhibitsModule,

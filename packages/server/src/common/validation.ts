@@ -33,7 +33,8 @@ function reasonsOf(constraints: Record<string, string>): string[] {
     .map(([, reason]) => reason);
 }
 
-function flatten(errors: ValidationError[], prefix = ''): FieldProblem[] {
+/** class-validator's errors as field problems, one reason per field path. */
+export function flatten(errors: ValidationError[], prefix = ''): FieldProblem[] {
   const out: FieldProblem[] = [];
   for (const e of errors) {
     const field = prefix ? `${prefix}.${e.property}` : e.property;

@@ -164,6 +164,38 @@ export class LotsService {
     return this.detail(actor, code);
   }
 
+  /**
+   * Registers many lots in ONE transaction: all are written or none. `progress` hears how many
+   * are written so far. A refusal names the 0-based index of the lot in `index`.
+   */
+  async registerMany(
+    actor: Viewer,
+    dtos: CreateLotDto[],
+    progress: (done: number) => void,
+  ): Promise<string[]> {
+    return this.ledger.withLots([], async (tx) => {
+      const codes: string[] = [];
+      for (const [i, dto] of dtos.entries()) {
+        try {
+          const reg = await tx.register(
+            {
+              actor: actor.id,
+              description: plain<LotDescription>(dto.description),
+              sealed: sealedValuesOf(dto.sealed),
+            },
+            { fields: FIELD_NAMES },
+          );
+          codes.push(reg.lot);
+        } catch (e) {
+          if (e instanceof AppError) (e as AppError & { index?: number }).index = i;
+          throw e;
+        }
+        progress(i + 1);
+      }
+      return codes;
+    });
+  }
+
   /** A full new description (`described`). */
   async describe(actor: Viewer, text: string, dto: DescribeLotDto): Promise<LotDetailResponse> {
     const code = await this.readableCode(actor, text);
