@@ -7,7 +7,6 @@ import {
   DialogContent,
   DialogSurface,
   DialogTitle,
-  DialogTrigger,
   Field,
   Input,
   MessageBar,
@@ -159,113 +158,122 @@ export function PrintTagsDialog({
   const stringFit = layouts.data?.designs.find((d) => d.design === 'string');
 
   return (
-    <Dialog open={open} onOpenChange={(_, d) => setOpen(d.open)}>
-      <DialogTrigger disableButtonEnhancement>
-        <Button disabled={lots.length === 0}>{triggerLabel}</Button>
-      </DialogTrigger>
-      <DialogSurface>
-        <form
-          onSubmit={(e) => {
-            e.preventDefault();
-            print.mutate();
-          }}
-        >
-          <DialogBody>
-            <DialogTitle>{lots.length === 1 ? 'Print a tag' : `Print ${lots.length} tags`}</DialogTitle>
-            <DialogContent className={styles.form}>
-              {barbell && !barbell.fits && (
-                <MessageBar intent="warning">
-                  <MessageBarBody>
-                    The public address {layouts.data?.host} is long, so its QR code is version{' '}
-                    {layouts.data?.version}: too small to read on a barbell flag ({barbell.reason}). Use the
-                    string tag, or a taller flag.
-                  </MessageBarBody>
-                </MessageBar>
-              )}
-              {stringFit && !stringFit.fits && (
-                <MessageBar intent="error">
-                  <MessageBarBody>No tag design fits this public address: {stringFit.reason}.</MessageBarBody>
-                </MessageBar>
-              )}
-              <Field
-                label="Design"
-                validationMessage={fieldMessage('design') ?? fieldMessage('labelHeightMm')}
-              >
-                <RadioGroup value={design} onChange={(_, d) => setDesign(d.value as TagDesign)}>
-                  <Radio value="string" label="String tag, about 22 × 35 mm" />
-                  <Radio value="barbell" label="Barbell flag for jewellery, about 13 mm tall" />
-                </RadioGroup>
-              </Field>
-              <Field label="Print on" validationMessage={fieldMessage('sheet.paper')}>
-                <RadioGroup value={media} onChange={(_, d) => setMedia(d.value as Media)}>
-                  <Radio value="roll" label="Label printer (one label per page)" />
-                  <Radio value="a4" label="A4 label sheet" />
-                  <Radio value="letter" label="US Letter label sheet" />
-                </RadioGroup>
-              </Field>
-              {media !== 'roll' && (
-                <>
-                  <div className={styles.grid}>
-                    {(Object.keys(SHEET_LABELS) as (keyof SheetForm)[]).map((k) => (
-                      <Field key={k} label={SHEET_LABELS[k]} validationMessage={fieldMessage(`sheet.${k}`)}>
-                        <Input
-                          inputMode="decimal"
-                          value={sheet[k]}
-                          onChange={(_, d) => setSheet((s) => ({ ...s, [k]: d.value }))}
-                        />
-                      </Field>
-                    ))}
-                  </div>
-                  <Checkbox
-                    checked={outline}
-                    onChange={(_, d) => setOutline(Boolean(d.checked))}
-                    label="Draw cutting lines (plain paper)"
-                  />
-                </>
-              )}
-              {unlisted.length > 0 && (
-                <Field
-                  hint="A buyer who scans the tag of an unlisted lot finds no page. Listing writes a 'described' entry on
+    <>
+      <Button disabled={lots.length === 0} onClick={() => setOpen(true)}>
+        {triggerLabel}
+      </Button>
+      {/* Mounted only while open: a closed dialog would still set up the focus trap's hidden stops. */}
+      {open && (
+        <Dialog open onOpenChange={(_, d) => setOpen(d.open)}>
+          <DialogSurface>
+            <form
+              onSubmit={(e) => {
+                e.preventDefault();
+                print.mutate();
+              }}
+            >
+              <DialogBody>
+                <DialogTitle>{lots.length === 1 ? 'Print a tag' : `Print ${lots.length} tags`}</DialogTitle>
+                <DialogContent className={styles.form}>
+                  {barbell && !barbell.fits && (
+                    <MessageBar intent="warning">
+                      <MessageBarBody>
+                        The public address {layouts.data?.host} is long, so its QR code is version{' '}
+                        {layouts.data?.version}: too small to read on a barbell flag ({barbell.reason}). Use
+                        the string tag, or a taller flag.
+                      </MessageBarBody>
+                    </MessageBar>
+                  )}
+                  {stringFit && !stringFit.fits && (
+                    <MessageBar intent="error">
+                      <MessageBarBody>
+                        No tag design fits this public address: {stringFit.reason}.
+                      </MessageBarBody>
+                    </MessageBar>
+                  )}
+                  <Field
+                    label="Design"
+                    validationMessage={fieldMessage('design') ?? fieldMessage('labelHeightMm')}
+                  >
+                    <RadioGroup value={design} onChange={(_, d) => setDesign(d.value as TagDesign)}>
+                      <Radio value="string" label="String tag, about 22 × 35 mm" />
+                      <Radio value="barbell" label="Barbell flag for jewellery, about 13 mm tall" />
+                    </RadioGroup>
+                  </Field>
+                  <Field label="Print on" validationMessage={fieldMessage('sheet.paper')}>
+                    <RadioGroup value={media} onChange={(_, d) => setMedia(d.value as Media)}>
+                      <Radio value="roll" label="Label printer (one label per page)" />
+                      <Radio value="a4" label="A4 label sheet" />
+                      <Radio value="letter" label="US Letter label sheet" />
+                    </RadioGroup>
+                  </Field>
+                  {media !== 'roll' && (
+                    <>
+                      <div className={styles.grid}>
+                        {(Object.keys(SHEET_LABELS) as (keyof SheetForm)[]).map((k) => (
+                          <Field
+                            key={k}
+                            label={SHEET_LABELS[k]}
+                            validationMessage={fieldMessage(`sheet.${k}`)}
+                          >
+                            <Input
+                              inputMode="decimal"
+                              value={sheet[k]}
+                              onChange={(_, d) => setSheet((s) => ({ ...s, [k]: d.value }))}
+                            />
+                          </Field>
+                        ))}
+                      </div>
+                      <Checkbox
+                        checked={outline}
+                        onChange={(_, d) => setOutline(Boolean(d.checked))}
+                        label="Draw cutting lines (plain paper)"
+                      />
+                    </>
+                  )}
+                  {unlisted.length > 0 && (
+                    <Field
+                      hint="A buyer who scans the tag of an unlisted lot finds no page. Listing writes a 'described' entry on
                   its roll; printing alone writes nothing."
-                >
-                  <Checkbox
-                    checked={confirmList}
-                    onChange={(_, d) => setConfirmList(Boolean(d.checked))}
-                    label={
-                      unlisted.length === 1
-                        ? 'List this lot, so its history is public'
-                        : `List the ${unlisted.length} unlisted lots, so their histories are public`
-                    }
-                  />
-                </Field>
-              )}
-              {error && !error.fields.length && (
-                <MessageBar intent="error">
-                  <MessageBarBody>{error.message}</MessageBarBody>
-                </MessageBar>
-              )}
-              {error?.fields.some((f) => f.field === 'host' || f.field === 'lots') && (
-                <MessageBar intent="error">
-                  <MessageBarBody>
-                    {[fieldMessage('host'), fieldMessage('lots')].filter(Boolean).join(' ')}
-                  </MessageBarBody>
-                </MessageBar>
-              )}
-              <Text size={200}>
-                A lost tag is simply printed again; the new tag names the lot’s latest entry.
-              </Text>
-            </DialogContent>
-            <DialogActions>
-              <DialogTrigger disableButtonEnhancement>
-                <Button>Cancel</Button>
-              </DialogTrigger>
-              <Button appearance="primary" type="submit" disabled={print.isPending}>
-                {print.isPending ? 'Preparing…' : 'Download PDF'}
-              </Button>
-            </DialogActions>
-          </DialogBody>
-        </form>
-      </DialogSurface>
-    </Dialog>
+                    >
+                      <Checkbox
+                        checked={confirmList}
+                        onChange={(_, d) => setConfirmList(Boolean(d.checked))}
+                        label={
+                          unlisted.length === 1
+                            ? 'List this lot, so its history is public'
+                            : `List the ${unlisted.length} unlisted lots, so their histories are public`
+                        }
+                      />
+                    </Field>
+                  )}
+                  {error && !error.fields.length && (
+                    <MessageBar intent="error">
+                      <MessageBarBody>{error.message}</MessageBarBody>
+                    </MessageBar>
+                  )}
+                  {error?.fields.some((f) => f.field === 'host' || f.field === 'lots') && (
+                    <MessageBar intent="error">
+                      <MessageBarBody>
+                        {[fieldMessage('host'), fieldMessage('lots')].filter(Boolean).join(' ')}
+                      </MessageBarBody>
+                    </MessageBar>
+                  )}
+                  <Text size={200}>
+                    A lost tag is simply printed again; the new tag names the lot’s latest entry.
+                  </Text>
+                </DialogContent>
+                <DialogActions>
+                  <Button onClick={() => setOpen(false)}>Cancel</Button>
+                  <Button appearance="primary" type="submit" disabled={print.isPending}>
+                    {print.isPending ? 'Preparing…' : 'Download PDF'}
+                  </Button>
+                </DialogActions>
+              </DialogBody>
+            </form>
+          </DialogSurface>
+        </Dialog>
+      )}
+    </>
   );
 }
