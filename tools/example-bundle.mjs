@@ -56,7 +56,7 @@ export function buildExampleBundle(core) {
     },
     sealed: {
       'acquisition-date': '2025-02-20',
-      'acquisition-source': 'house clearance, Larkmoor',
+      'acquisition-source': 'house clearance, Conterie Moor',
       'acquisition-cost': { amount: 4500, currency: 'EUR' },
     },
   });
@@ -124,7 +124,7 @@ export function buildExampleBundle(core) {
     kind: 'transfer-offered',
     time: T(3),
     actor: DEALER_A,
-    body: { recipient: DEALER_B, note: 'As discussed at the Larkmoor fair.' },
+    body: { recipient: DEALER_B, note: 'As discussed at the Conterie Moor fair.' },
     sealed: { 'transfer-price': { amount: 9000, currency: 'EUR' } },
   });
   a.add({ kind: 'transfer-accepted', time: T(4), actor: DEALER_B, body: { offerSeq: offer.header.seq } });

@@ -3,7 +3,7 @@
 import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { DATA_DIR, ensureJwtSecret, portFromEnv, readDemoReport, REPO } from './lib/app-env.ts';
+import { DATA_DIR, demoBanner, ensureJwtSecret, portFromEnv, readDemoReport, REPO } from './lib/app-env.ts';
 import { pgEnv, startPrivateCluster, type PgTarget, type PrivateCluster } from './lib/pg.ts';
 import {
   onShutdown,
@@ -99,22 +99,7 @@ async function main(): Promise<void> {
   const report = readDemoReport(DATA_DIR);
   const lines = ['', `Beadroll is running at ${env.PUBLIC_BASE_URL}/`, `API documentation: ${base}/api/docs`];
   lines.push(`development mailbox: ${base}/dev/mailbox`);
-  if (report) {
-    lines.push('demo sign-ins (demo mode only):');
-    for (const s of report.signIns)
-      lines.push(`  ${s.role.padEnd(9)} ${s.email}  password: ${s.password}  (${s.name})`);
-    // Each later seed step pushes the lot that shows its story (a dissent, a change of hands, a
-    // split child, a combined piece); every plain listed lot is pushed too. Print the stories,
-    // each code once, or the first listed lot when the scenario has none.
-    const stories = report.publicLots.filter((l) => !l.why.startsWith('a listed lot'));
-    const shown = stories.length > 0 ? stories : report.publicLots.slice(0, 1);
-    const seen = new Set<string>();
-    for (const lot of shown) {
-      if (seen.has(lot.code)) continue;
-      seen.add(lot.code);
-      lines.push(`demo public page (${lot.why}): ${base}/l/${lot.code}`);
-    }
-  }
+  if (report) lines.push(...demoBanner(report, base));
   lines.push('Press Ctrl+C to stop.', '');
   console.log(lines.join('\n'));
 }

@@ -4,7 +4,16 @@ import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { DATA_DIR, REPO } from './lib/app-env.ts';
 import { pgEnv, startPrivateCluster, type PgTarget, type PrivateCluster } from './lib/pg.ts';
-import { aptInstall, freePort, onShutdown, runInherit, stopChildren, UserFacingError } from './lib/proc.ts';
+import { spawn } from 'node:child_process';
+import {
+  aptInstall,
+  freePort,
+  onShutdown,
+  runInherit,
+  stopChildren,
+  track,
+  UserFacingError,
+} from './lib/proc.ts';
 
 interface SuiteResult {
   name: string;
@@ -32,6 +41,34 @@ async function step(
   console.log(`\n── ${name}`);
   const code = await runInherit(cmd, args, { cwd: REPO, env: env ?? process.env });
   return { name, passed: code === 0 ? 1 : 0, failed: code === 0 ? 0 : 1 };
+}
+
+/**
+ * Runs a command that prints its own closing line `LABEL: N passed, M failed`, and counts that
+ * (a run that prints no such line, or exits non-zero with no failure counted, is one failure).
+ */
+async function counted(
+  name: string,
+  label: string,
+  cmd: string,
+  args: string[],
+  env: NodeJS.ProcessEnv,
+): Promise<SuiteResult> {
+  console.log(`\n── ${name}`);
+  const out: string[] = [];
+  const code = await new Promise<number>((resolve, reject) => {
+    const child = track(spawn(cmd, args, { cwd: REPO, env, stdio: ['ignore', 'pipe', 'inherit'] }));
+    child.stdout!.on('data', (chunk: Buffer) => {
+      process.stdout.write(chunk);
+      out.push(chunk.toString());
+    });
+    child.on('error', reject);
+    child.on('exit', (c, signal) => resolve(c ?? (signal ? 128 : 1)));
+  });
+  const m = new RegExp(`^${label}: (\\d+) passed, (\\d+) failed$`, 'm').exec(out.join(''));
+  if (!m) return { name, passed: 0, failed: 1 };
+  const failed = Number(m[2]) + (code !== 0 && Number(m[2]) === 0 ? 1 : 0);
+  return { name, passed: Number(m[1]), failed };
 }
 
 /** Runs a Jest or Vitest suite that writes a Jest-style JSON report, and counts its tests. */
@@ -176,6 +213,16 @@ async function main(): Promise<void> {
         env,
       ),
     );
+    // The cluster test runs a primary and standby of its own, so it needs this machine's
+    // PostgreSQL: skipped when the run uses an outside server.
+    if (process.env.PGHOST) console.log('\n── cluster: skipped (PGHOST names an outside server)');
+    else
+      results.push(
+        await counted('cluster', 'cluster', 'node_modules/.bin/tsx', ['tools/test-cluster.ts', '--built'], {
+          ...process.env,
+          NODE_ENV: 'test',
+        }),
+      );
   }
 
   await stopChildren();

@@ -6,7 +6,7 @@ import {
   BundleError,
   DEFAULT_MAX_BUNDLE_BYTES,
   formatLotCode,
-  parseBundleText,
+  parseBundleBytes,
   verifyBundle,
 } from '@beadroll/core';
 
@@ -29,19 +29,19 @@ for (let i = 0; i < args.length; i++) {
 }
 if (file === null) usage('no bundle file given');
 
-let text;
+let bytes;
 try {
   const st = statSync(file);
   if (!st.isFile()) usage(`${file} is not a file`);
   if (st.size > maxBytes) usage(`${file} is ${st.size} bytes, over the limit of ${maxBytes}`);
-  text = readFileSync(file, 'utf8');
+  bytes = readFileSync(file);
 } catch (e) {
   usage(`cannot read ${file}: ${e.message}`);
 }
 
 let bundle;
 try {
-  bundle = parseBundleText(text, maxBytes);
+  bundle = parseBundleBytes(bytes, maxBytes);
 } catch (e) {
   if (e instanceof BundleError) usage(`not a readable bundle (${e.code}): ${e.message}`);
   usage(`not a readable bundle: ${e.message}`);
@@ -52,19 +52,26 @@ const lots = result.rolls.length;
 console.log(
   `${lots} lot${lots === 1 ? '' : 's'}, ${result.entries} entries, ${result.links} cross-lot links`,
 );
+const lotName = (lot) => (lot ? formatLotCode(lot) : '(no valid lot code)');
 for (const r of result.rolls) {
   const what = r.scope === 'link' ? 'link entries only' : `${r.entries} entries`;
-  if (r.ok)
-    console.log(`  ${formatLotCode(r.lot)}  intact   (${what}${r.state ? `, ${r.state.status}` : ''})`);
-  else
+  if (!r.ok)
     console.log(
-      `  ${formatLotCode(r.lot)}  BROKEN   at seq ${r.failure.seq}: ${r.failure.reason} — ${r.failure.message}`,
+      `  ${lotName(r.lot)}  BROKEN   at seq ${r.failure.seq}: ${r.failure.reason} — ${r.failure.message}`,
     );
+  else if (r.unchecked.length > 0) {
+    console.log(`  ${lotName(r.lot)}  intact, not fully checkable after a removal   (${what})`);
+    for (const u of r.unchecked) console.log(`      seq ${u.seq}: could not check ${u.message}`);
+  } else console.log(`  ${lotName(r.lot)}  intact   (${what}${r.state ? `, ${r.state.status}` : ''})`);
 }
 if (result.ok) {
-  console.log('verified: every roll is unbroken and every link checks both ways');
+  const partial = result.rolls.filter((r) => r.unchecked.length > 0).length;
+  console.log(
+    partial > 0
+      ? `verified: every roll is unbroken and every link checks both ways; ${partial} roll${partial === 1 ? ' is' : 's are'} not fully checkable after a removal`
+      : 'verified: every roll is unbroken and every link checks both ways',
+  );
   process.exit(0);
 }
-const f = result.failures[0];
-console.log(`broken: lot ${f.lot ? formatLotCode(f.lot) : '(unknown)'} seq ${f.seq} (${f.reason})`);
+for (const f of result.failures) console.log(`broken: lot ${lotName(f.lot)} seq ${f.seq} (${f.reason})`);
 process.exit(1);

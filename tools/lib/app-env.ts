@@ -37,3 +37,23 @@ export function readDemoReport(dataDir: string): DemoReport | undefined {
   const file = join(dataDir, 'demo-report.json');
   return existsSync(file) ? (JSON.parse(readFileSync(file, 'utf8')) as DemoReport) : undefined;
 }
+
+/**
+ * The demo lines of a start banner: the sign-ins, and a public page for each demo story (a
+ * dissent, a change of hands, a split child, a combined piece), each code once, or the first
+ * listed lot when the scenario has no story.
+ */
+export function demoBanner(report: DemoReport, base: string): string[] {
+  const lines = ['demo sign-ins (demo mode only):'];
+  for (const s of report.signIns)
+    lines.push(`  ${s.role.padEnd(9)} ${s.email}  password: ${s.password}  (${s.name})`);
+  const stories = report.publicLots.filter((l) => !l.why.startsWith('a listed lot'));
+  const shown = stories.length > 0 ? stories : report.publicLots.slice(0, 1);
+  const seen = new Set<string>();
+  for (const lot of shown) {
+    if (seen.has(lot.code)) continue;
+    seen.add(lot.code);
+    lines.push(`demo public page (${lot.why}): ${base}/l/${lot.code}`);
+  }
+  return lines;
+}

@@ -271,3 +271,121 @@ export function pgEnv(target: PgTarget): Record<string, string> {
     PGDATABASE: target.database,
   };
 }
+
+/** A streaming hot standby of a private cluster. */
+export interface Standby {
+  port: number;
+  stop(): void;
+}
+
+/** Name of the physical replication slot the standby streams from (the primary keeps its WAL). */
+const STANDBY_SLOT = 'beadroll_standby';
+
+/**
+ * Starts (creating it on first use with pg_basebackup) a streaming hot standby of the private
+ * cluster in `primaryBase`, listening on 127.0.0.1:port with its data in `base`. It streams
+ * through a physical replication slot over the primary's local socket (the local `replication`
+ * rule initdb writes), and answers read-only queries with the primary's roles and databases.
+ */
+export async function startStandby(opts: {
+  primaryBase: string;
+  primaryPort: number;
+  /** The application role: it may read the standby's replication status (pg_read_all_stats). */
+  appUser: string;
+  base: string;
+  port: number;
+  durable: boolean;
+}): Promise<Standby> {
+  const bin = ensurePgBinaries();
+  const primarySock = join(resolve(opts.primaryBase), 'sock');
+  const base = resolve(opts.base);
+  const data = join(base, 'data');
+  const sock = join(base, 'sock');
+  const log = join(base, 'server.log');
+  mkdirSync(sock, { recursive: true });
+  makeParentsTraversable(base);
+  const { uid, gid } = ownerIds();
+  chownTree(base, uid, gid);
+  psql(bin, primarySock, opts.primaryPort, `GRANT pg_read_all_stats TO "${opts.appUser}"`);
+  if (!existsSync(join(data, 'PG_VERSION'))) {
+    rmSync(data, { recursive: true, force: true });
+    psql(
+      bin,
+      primarySock,
+      opts.primaryPort,
+      `SELECT pg_create_physical_replication_slot('${STANDBY_SLOT}')
+       WHERE NOT EXISTS (SELECT 1 FROM pg_replication_slots WHERE slot_name = '${STANDBY_SLOT}')`,
+    );
+    try {
+      asOwner(join(bin, 'pg_basebackup'), [
+        '-h',
+        primarySock,
+        '-p',
+        String(opts.primaryPort),
+        '-U',
+        'postgres',
+        '-D',
+        data,
+        '-R',
+        '-X',
+        'stream',
+        '-S',
+        STANDBY_SLOT,
+      ]);
+    } catch (err) {
+      rmSync(data, { recursive: true, force: true });
+      throw new UserFacingError(`pg_basebackup failed for the standby: ${(err as Error).message}`);
+    }
+  }
+  let running: boolean;
+  try {
+    asOwner(join(bin, 'pg_ctl'), ['-D', data, 'status']);
+    running = true;
+  } catch {
+    running = false;
+  }
+  if (!running) {
+    if (await portInUse(opts.port))
+      throw new UserFacingError(`port ${opts.port} for the standby is already in use on 127.0.0.1.`);
+    const settings = [
+      '-p',
+      String(opts.port),
+      '-k',
+      sock,
+      '-c',
+      'listen_addresses=127.0.0.1',
+      '-c',
+      'hot_standby=on',
+    ];
+    if (!opts.durable) settings.push('-c', 'fsync=off', '-c', 'full_page_writes=off');
+    try {
+      asOwner(join(bin, 'pg_ctl'), [
+        '-D',
+        data,
+        '-l',
+        log,
+        '-w',
+        '-t',
+        '60',
+        '-o',
+        settings.join(' '),
+        'start',
+      ]);
+    } catch (err) {
+      const tail = existsSync(log) ? readFileSync(log, 'utf8').trim().split('\n').slice(-5).join('\n') : '';
+      throw new UserFacingError(
+        `the standby failed to start (log: ${log}):\n${tail || (err as Error).message}`,
+      );
+    }
+  }
+  return {
+    port: opts.port,
+    stop() {
+      try {
+        asOwner(join(bin, 'pg_ctl'), ['-D', data, '-m', 'fast', '-w', 'stop']);
+      } catch {
+        // already stopped
+      }
+    },
+  };
+}

@@ -1,11 +1,11 @@
-import type { Decoration, Observations, Origin, Technique } from './types.js';
+import type { Decoration, Observations, Origin, Qualifier, Technique } from './types.js';
 
 /**
  * How much weight a source carries on screen: museums, standards bodies, government pages and
  * recognised scholars first; trade and hobby pages after; unsourced trade practice last.
  */
 export type SourceStanding =
-  'museum' | 'standard' | 'scholar' | 'trade-page' | 'common-practice' | 'from-memory';
+  'museum' | 'standard' | 'scholar' | 'trade-page' | 'student-page' | 'common-practice' | 'from-memory';
 
 /** Where a rule's fact comes from: a page title and address, or the plain words "common practice, no source". */
 export interface AidSource {
@@ -20,13 +20,21 @@ export interface AidCondition {
   decoration?: Decoration[];
   origin?: Origin[];
   technique?: Technique[];
+  /** One of these words (whole word, any case) appears in what is written on the lot. */
+  words?: string[];
+  /** The aid's own indications point to one of these origins. */
+  indicated?: Origin[];
+  /** An opinion already on the lot's record names one of these origins. */
+  recordedOrigin?: Origin[];
 }
 
-/** A clue that points towards an origin or a technique. */
+/** A clue that points towards an origin, a technique, or a later copy in an older style. */
 export interface IndicationRule {
   id: string;
   when: AidCondition;
-  points: { origins?: Origin[]; technique?: Technique };
+  /** The rule stays silent when this holds (another rule reads the same clues better). */
+  unless?: AidCondition;
+  points: { origins?: Origin[]; technique?: Technique; techniques?: Technique[]; qualifier?: Qualifier };
   weight: 1 | 2 | 3;
   reason: string;
   sources: AidSource[];
@@ -38,13 +46,15 @@ export interface PeriodRule {
   when: AidCondition;
   notBefore: number;
   message: string;
+  /** true when the clue behind the rule is a hint, not proof: the warning says "may". */
+  clueIsHint?: boolean;
   sources: AidSource[];
 }
 
-/** A safety note shown where a test or a kind of handling comes up. */
+/** A safety note shown where a test or a kind of handling comes up; any one listed condition brings it. */
 export interface CautionRule {
   id: string;
-  when: AidCondition | 'always-with-uv-test';
+  when: AidCondition[] | 'always-with-uv-test';
   text: string;
   sources: AidSource[];
 }
@@ -65,28 +75,74 @@ const MUSEO_DEL_VETRO: AidSource = {
   url: 'https://museovetro.visitmuve.it/en/il-museo/layout-and-collections/venetian-beads',
   standing: 'museum',
 };
+const FAKTOR_GLOSSARY: AidSource = {
+  title: 'Glossary – W (wound glass)',
+  url: 'http://faktorinc.com/glossary/glossary/pageW.html',
+  standing: 'trade-page',
+};
+const ANTICA_MURRINA: AidSource = {
+  title: 'Beads and working over the flame (Antica Murrina)',
+  url: 'http://www.anticamurrina.com/produzione-artigianale/produzione_artigianale_uk.cfm',
+  standing: 'trade-page',
+};
+const FOURTAILS_RELEASE: AidSource = {
+  title: 'Tornado Beads Redux and Musings on Cleaning Beads',
+  url: 'http://fourtailslampwork.blogspot.com/2008/07/tornado-beads-redux-and-musings-on.html',
+  standing: 'trade-page',
+};
+const MERRY_BLUEBIRD_PRESSED: AidSource = {
+  title: 'A Brief History of Pressed Glass Beads',
+  url: 'https://themerrybluebird.com/2024/09/30/a-brief-history-of-pressed-glass-beads/',
+  standing: 'trade-page',
+};
+/** A student's web project hosted by the university, not a publication of its chemists. */
+const BRISTOL_STUDENT_PAGE: AidSource = {
+  title: 'uranium glass (a student web project, University of Bristol School of Chemistry, 2001)',
+  url: 'http://www.chm.bris.ac.uk/webprojects2001/luxford/uranium_glass.htm',
+  standing: 'student-page',
+};
+const EPFL_URANIUM_GLASS: AidSource = {
+  title: 'Uranium glass (EPFL Graph Search)',
+  url: 'https://graphsearch.epfl.ch/en/concept/984355',
+  standing: 'trade-page',
+};
+const MANGANESE_GLOW: AidSource = {
+  title: 'What Types of Glass Glow Under a Black Light?',
+  url: 'https://biologyinsights.com/what-types-of-glass-glow-under-a-black-light',
+  standing: 'trade-page',
+};
+const BLACKLIGHT_RELIABLE: AidSource = {
+  title: 'Blacklight Testing: Is It Reliable?',
+  url: 'http://whiskeyjacks-tpost.blogspot.com/2010/11/blacklight-testing-is-it-reliable.html',
+  standing: 'trade-page',
+};
+const COMMON_PRACTICE: AidSource = { title: 'common practice, no source', standing: 'common-practice' };
+
+/** Words that, written anywhere on a lot, mean uranium glass is named on its record. */
+export const URANIUM_WORDS: readonly string[] = ['uranium', 'vaseline glass', 'annagrün', 'annagelb'];
+/** Words that, written anywhere on a lot, mean lead glass or crystal is named on its record. */
+export const LEAD_WORDS: readonly string[] = ['lead', 'leaded', 'lead glass', 'crystal', 'flint glass'];
 
 /** Clues and what they point to. A clue is never proof; the aid says so on every screen. */
 export const INDICATION_RULES: readonly IndicationRule[] = [
   {
     id: 'hole-clean-copper-wire',
     when: { observations: { hole: ['clean'] } },
+    unless: { observations: { holeShape: ['regular'], beadShape: ['uniform'] } },
     points: { origins: ['venice-murano'], technique: 'wound-lampwork' },
+    weight: 1,
+    reason:
+      'A clean hole without powder is consistent with glass wound on copper wire that was then dissolved in acid, which these pages describe as Italian practice. It is a weak clue: a modern bead, or one whose release was reamed out, has a clean hole too, and it says nothing of age.',
+    sources: [FAKTOR_GLOSSARY, ANTICA_MURRINA, FOURTAILS_RELEASE],
+  },
+  {
+    id: 'uniform-clean-later-work',
+    when: { observations: { hole: ['clean'], holeShape: ['regular'], beadShape: ['uniform'] } },
+    points: { qualifier: 'later-copy' },
     weight: 2,
     reason:
-      'A clean, slightly etched hole without powder is consistent with winding on copper wire that was later dissolved in acid, the method characteristic of Venetian lampwork.',
-    sources: [
-      {
-        title: 'Glossary – W (wound glass)',
-        url: 'http://faktorinc.com/glossary/glossary/pageW.html',
-        standing: 'trade-page',
-      },
-      {
-        title: 'Beads and working over the flame (Antica Murrina)',
-        url: 'http://www.anticamurrina.com/produzione-artigianale/produzione_artigianale_uk.cfm',
-        standing: 'trade-page',
-      },
-    ],
+      'Beads alike in size and shape, with regular, clean holes, fit recent work as well as old: modern beads are wound on coated steel mandrels and their holes reamed clean, and beads wound one at a time by hand tend to differ. Look for other signs of age before reading them as old.',
+    sources: [FOURTAILS_RELEASE, COMMON_PRACTICE],
   },
   {
     id: 'hole-powder-release',
@@ -101,11 +157,7 @@ export const INDICATION_RULES: readonly IndicationRule[] = [
         url: 'https://dsource.in/resource/glass-making-purdilnagar-uttar-pradesh/making-process/torch-bead-process',
         standing: 'trade-page',
       },
-      {
-        title: 'Tornado Beads Redux and Musings on Cleaning Beads',
-        url: 'http://fourtailslampwork.blogspot.com/2008/07/tornado-beads-redux-and-musings-on.html',
-        standing: 'trade-page',
-      },
+      FOURTAILS_RELEASE,
     ],
   },
   {
@@ -131,28 +183,44 @@ export const INDICATION_RULES: readonly IndicationRule[] = [
     points: { origins: ['venice-murano'], technique: 'wound-lampwork' },
     weight: 1,
     reason:
-      'Tiny glass roses or forget-me-nots over trailing are the decoration of Venetian fiorato lamp beads, commonly dated about 1880–1920 by dealers.',
+      'Tiny glass roses or forget-me-nots over trailing are the decoration of Venetian fiorato lamp beads, commonly dated about 1880–1920 by dealers; later and modern beads copy it.',
     sources: [
       {
         title: 'Wedding Cake Venetian Beads, 1880-1920',
         url: 'https://jeweledhorizons.blogspot.com/2011/04/wedding-cake-venetian-beads-1880-1920.html',
         standing: 'trade-page',
       },
+      {
+        title: 'Wedding cake beads (Depetitesmerveilles)',
+        url: 'http://depetitesmerveilles.com/tag/venetian-wedding-cake-beads/',
+        standing: 'trade-page',
+      },
     ],
   },
   {
-    id: 'uniform-regular-pressed',
+    id: 'uniform-regular-drawn-or-pressed',
     when: { observations: { beadShape: ['uniform'], holeShape: ['regular'] } },
-    points: { origins: ['bohemia-czech'], technique: 'pressed-moulded' },
+    points: { techniques: ['pressed-moulded', 'drawn'] },
     weight: 1,
     reason:
-      'Uniform shapes with regular holes suggest beads pressed in moulds, a Bohemian specialty from the 18th century.',
+      'Uniform shapes with regular holes suggest beads made by a method rather than one by one: pressed in moulds, or cut from drawn cane, which look alike in this. A mould seam tells pressed beads apart.',
+    sources: [COMMON_PRACTICE],
+  },
+  {
+    id: 'mould-seam-pressed',
+    when: { observations: { mouldSeam: ['seen'] } },
+    points: { origins: ['bohemia-czech'], technique: 'pressed-moulded' },
+    weight: 2,
+    reason:
+      'A seam where the two halves of a mould met shows a pressed bead. Pressing beads in moulds developed in 18th-century Bohemia; Bohemian shapes are widely copied.',
     sources: [
+      MERRY_BLUEBIRD_PRESSED,
       {
-        title: 'A Brief History of Pressed Glass Beads',
-        url: 'https://themerrybluebird.com/2024/09/30/a-brief-history-of-pressed-glass-beads/',
+        title: 'Know Your Beads (Miss Poppy’s Boutique)',
+        url: 'https://misspoppysboutique.com/2016/05/10/know-your-beads/',
         standing: 'trade-page',
       },
+      COMMON_PRACTICE,
     ],
   },
   {
@@ -161,7 +229,7 @@ export const INDICATION_RULES: readonly IndicationRule[] = [
     points: { technique: 'wound-lampwork' },
     weight: 1,
     reason: 'Winding marks around the hole show a bead wound on a wire or rod rather than drawn or pressed.',
-    sources: [{ title: 'common practice, no source', standing: 'common-practice' }],
+    sources: [COMMON_PRACTICE],
   },
   {
     id: 'uv-green-uranium',
@@ -169,19 +237,8 @@ export const INDICATION_RULES: readonly IndicationRule[] = [
     points: { origins: ['bohemia-czech'] },
     weight: 1,
     reason:
-      'A bright green glow under UV-A suggests uranium glass, first made commercially in Bohemia; manganese glass can glow weakly too, so it is a hint, not proof.',
-    sources: [
-      {
-        title: 'uranium glass (University of Bristol, School of Chemistry)',
-        url: 'http://www.chm.bris.ac.uk/webprojects2001/luxford/uranium_glass.htm',
-        standing: 'scholar',
-      },
-      {
-        title: 'What Types of Glass Glow Under a Black Light?',
-        url: 'https://biologyinsights.com/what-types-of-glass-glow-under-a-black-light',
-        standing: 'trade-page',
-      },
-    ],
+      'A bright green glow under UV-A suggests uranium glass, first made commercially in Bohemia; manganese glass can glow greenish too, so a glow is a hint, not proof.',
+    sources: [EPFL_URANIUM_GLASS, BRISTOL_STUDENT_PAGE, MANGANESE_GLOW, BLACKLIGHT_RELIABLE],
   },
 ];
 
@@ -206,47 +263,47 @@ export const PERIOD_RULES: readonly PeriodRule[] = [
     id: 'uranium-1830s',
     when: { observations: { uvA: ['green-glow'] } },
     notBefore: 1830,
-    message: 'Uranium glass (a green glow under UV-A) was in commerce only from the 1830s.',
+    clueIsHint: true,
+    message:
+      'If the green glow is from uranium, the glass is not older than the 1830s, when uranium glass came into commerce (uranium itself was identified in 1789). Manganese glass can glow greenish too, so the glow alone does not settle it.',
     sources: [
+      EPFL_URANIUM_GLASS,
+      BRISTOL_STUDENT_PAGE,
       {
-        title: 'uranium glass (University of Bristol, School of Chemistry)',
-        url: 'http://www.chm.bris.ac.uk/webprojects2001/luxford/uranium_glass.htm',
-        standing: 'scholar',
+        title: 'Uranium glass (Wikisum)',
+        url: 'https://wikisum.wiki/wiki/Uranium_glass',
+        standing: 'trade-page',
       },
+      MANGANESE_GLOW,
     ],
   },
   {
-    id: 'venetian-lampwork-1615',
+    id: 'venetian-lampwork-16th-century',
     when: { origin: ['venice-murano'], technique: ['wound-lampwork'] },
-    notBefore: 1615,
-    message: 'Venetian lamp-wound beads were made from about 1615.',
-    sources: [CMOG_FANCY_BEAD, MUSEO_DEL_VETRO],
+    notBefore: 1528,
+    message:
+      'Venetian lamp-wound beads are on record from the 16th century: the lampworkers’ guild (Supialume) was founded in 1528. A museum dates Venetian lamp beads from about 1615, wound on iron wire, and another from the 17th century.',
+    sources: [MARGARETOLOGIST, CMOG_FANCY_BEAD, MUSEO_DEL_VETRO],
   },
   {
     id: 'bohemian-pressed-18th-century',
     when: { origin: ['bohemia-czech'], technique: ['pressed-moulded'] },
     notBefore: 1700,
     message: 'Pressing beads in moulds developed in 18th-century Bohemia.',
-    sources: [
-      {
-        title: 'A Brief History of Pressed Glass Beads',
-        url: 'https://themerrybluebird.com/2024/09/30/a-brief-history-of-pressed-glass-beads/',
-        standing: 'trade-page',
-      },
-    ],
+    sources: [MERRY_BLUEBIRD_PRESSED],
   },
 ];
 
 /**
  * The UV-A caution, point by point: the one wording every screen shows. The 365 nm preference
- * is the trade's habit (from memory: 395 nm torches leak violet light that hides a weak glow).
+ * carries its mark on screen: no source was found for it.
  */
 export const UV_A_POINTS: readonly string[] = [
-  'Use a long-wave UV-A torch, near 365 nm, made for checking glass.',
+  'Use a long-wave UV-A torch made for checking glass; one near 365 nm is preferred, since 395 nm torches leak violet light that can hide a weak glow (from memory, no source checked).',
   'Never use a germicidal (UV-C) lamp: even a short look at one can burn the eyes and skin.',
   'Never point the torch into anyone’s eyes, your own included; keep skin exposure short.',
   'Wear eyewear rated for UV; ordinary safety glasses may only be rated for impact.',
-  'Follow your local safety rules and the maker’s instructions; they come first.',
+  'Follow your local safety rules, licensed practice and the maker’s instructions; they come first.',
 ];
 
 /** Safety notes. They defer to local codes and licensed practice. */
@@ -271,29 +328,41 @@ export const CAUTION_RULES: readonly CautionRule[] = [
         url: 'https://ehs.umass.edu/ultraviolet-light-fact-sheet',
         standing: 'standard',
       },
+      { title: 'the torch wavelength advice: from memory', standing: 'from-memory' },
     ],
   },
   {
     id: 'uranium-handling',
-    when: { observations: { uvA: ['green-glow'] } },
-    text: 'Possible uranium glass: harmless to handle and wear in the usual way, but never grind, drill, sand or break it, and never put it in the mouth — the risk is from dust or particles taken in. Follow local rules on radioactive materials.',
+    when: [{ observations: { uvA: ['green-glow'] } }, { words: [...URANIUM_WORDS] }],
+    text: 'Possible uranium glass: low risk to handle and wear in the usual way, as the doses assessed are low, but never grind, drill, sand or break it, never put it in the mouth, and keep it away from food — the risk is from dust or particles taken in. Follow local rules on radioactive materials and licensed practice.',
     sources: [
       {
         title: 'NUREG-1717, Systematic Radiological Assessment of Exemptions (US NRC)',
         url: 'https://www.nrc.gov/reading-rm/doc-collections/nuregs/staff/sr1717/index.html',
         standing: 'standard',
       },
+      EPFL_URANIUM_GLASS,
     ],
   },
   {
     id: 'lead-glass',
-    when: { origin: ['china'] },
-    text: 'Old glass, Chinese glass especially, can contain lead. Do not mouth beads or let children handle them, do not grind or drill them, and do not sell vintage bead jewellery as children’s jewellery. Follow local consumer-safety rules.',
+    when: [
+      { origin: ['china'] },
+      { recordedOrigin: ['china'] },
+      { indicated: ['china'] },
+      { words: [...LEAD_WORDS] },
+    ],
+    text: 'Lead glass and crystal, and old glass (Chinese glass especially), can contain lead. Do not mouth beads or let children handle them, do not grind or drill them, and do not sell vintage bead jewellery as children’s jewellery. Follow local consumer-safety rules and licensed practice.',
     sources: [
       {
         title: 'Chinese Glass Beads: New Evidence (Peter Francis Jr.)',
         url: 'http://thebeadsite.com/be02-ch.htm',
         standing: 'scholar',
+      },
+      {
+        title: 'Can Crystal Beads Cause Lead Poisoning? (The Spruce Crafts)',
+        url: 'https://www.thesprucecrafts.com/can-crystal-beads-cause-lead-poisoning-339376',
+        standing: 'trade-page',
       },
       {
         title: 'Guide to Lead Laws (MJSA)',
@@ -304,7 +373,7 @@ export const CAUTION_RULES: readonly CautionRule[] = [
   },
   {
     id: 'acid-history',
-    when: { observations: { hole: ['clean', 'green-traces'] } },
+    when: [{ observations: { hole: ['clean', 'green-traces'] } }],
     text: 'Dissolving the copper wire in acid is part of the history of how such holes were made, not something to try: nitric acid destroys skin and eyes and gives off toxic fumes. Never dissolve metal cores at home; leave it to licensed practice.',
     sources: [
       {
@@ -316,7 +385,7 @@ export const CAUTION_RULES: readonly CautionRule[] = [
   },
   {
     id: 'foil-cleaning',
-    when: { observations: { foil: ['intact', 'worn'] } },
+    when: [{ observations: { foil: ['intact', 'worn'] } }],
     text: 'Clean foiled beads gently: a soft cloth barely damp with mild soap, dried at once; don’t soak them and don’t use ammonia, vinegar, silver dips or abrasives on surface foil. Store beaded pieces in the dark.',
     sources: [
       {

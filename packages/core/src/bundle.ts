@@ -1,4 +1,5 @@
-import { parseCanonical } from './canonical.js';
+import { canonicalise, parseCanonical } from './canonical.js';
+import { factsOf } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode, type StoredEntry } from './entry.js';
 import { BundleError } from './errors.js';
 import { bodyDigest, entryHash } from './hash.js';
@@ -7,12 +8,21 @@ import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
 import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
-import { verifyRoll, type VerifiedEntry, type VerifyFailure } from './verify.js';
+import { verifyRoll, type UncheckedRule, type VerifiedEntry, type VerifyFailure } from './verify.js';
+
+// The WHATWG decoder that Node and every browser provide (core's build names no DOM types).
+declare const TextDecoder: new (
+  label: string,
+  options: { fatal: boolean; ignoreBOM: boolean },
+) => { decode(bytes: Uint8Array): string };
 
 /** Value of a bundle's `format` member. */
 export const BUNDLE_FORMAT = 'beadroll-bundle';
-/** Bundle layout version. */
-export const BUNDLE_VERSION = 1;
+/** Bundle layout version written by {@link createBundle}. */
+export const BUNDLE_VERSION = 2;
+
+/** Every bundle version a verifier reads. */
+export const BUNDLE_VERSIONS = [1, 2] as const;
 /** Default largest bundle a verifier reads: 256 MiB. */
 export const DEFAULT_MAX_BUNDLE_BYTES = 256 * 1024 * 1024;
 
@@ -31,17 +41,20 @@ export interface BundleRoll {
   entries: BundleEntry[];
 }
 
-/** An export bundle. `checkpoints` is reserved for signed checkpoints and is empty in version 1. */
+/** An export bundle. `checkpoints` is reserved for signed checkpoints. */
 export interface Bundle {
   format: typeof BUNDLE_FORMAT;
-  version: typeof BUNDLE_VERSION;
+  version: (typeof BUNDLE_VERSIONS)[number];
   rolls: BundleRoll[];
   checkpoints: unknown[];
 }
 
 /**
- * Checks a decoded JSON value has the shape of a bundle and returns it typed. Throws
- * {@link BundleError}: `not-a-bundle` (wrong shape, types, a lot twice) or `unknown-version`.
+ * Checks a decoded JSON value has the top-level shape of a bundle and returns it typed: an
+ * object with exactly `format`, `version` (1 or 2), `rolls` (a list) and `checkpoints` (a
+ * list). What is inside the rolls is checked by {@link verifyBundle}, which reports a bad roll
+ * as a broken roll, not as an unreadable bundle. Throws {@link BundleError}: `not-a-bundle` or
+ * `unknown-version`.
  */
 export function parseBundle(value: unknown): Bundle {
   const bad = (m: string): never => {
@@ -50,39 +63,49 @@ export function parseBundle(value: unknown): Bundle {
   if (value === null || typeof value !== 'object' || Array.isArray(value)) bad('a bundle is a JSON object');
   const b = value as Record<string, unknown>;
   if (b.format !== BUNDLE_FORMAT) bad(`format is not "${BUNDLE_FORMAT}"`);
-  if (b.version !== BUNDLE_VERSION)
-    throw new BundleError('unknown-version', `bundle version ${JSON.stringify(b.version)} is not 1`);
+  if (!(BUNDLE_VERSIONS as readonly unknown[]).includes(b.version))
+    throw new BundleError('unknown-version', `bundle version ${JSON.stringify(b.version)} is not 1 or 2`);
   for (const k of Object.keys(b))
     if (!['format', 'version', 'rolls', 'checkpoints'].includes(k)) bad(`unknown member ${k}`);
   if (!Array.isArray(b.rolls)) bad('rolls is not a list');
   if (!Array.isArray(b.checkpoints)) bad('checkpoints is not a list');
-  const seen = new Set<string>();
-  (b.rolls as unknown[]).forEach((r, i) => {
-    const at = `rolls[${i}]`;
-    if (r === null || typeof r !== 'object' || Array.isArray(r)) bad(`${at} is not an object`);
-    const o = r as Record<string, unknown>;
-    if (Object.keys(o).sort().join(',') !== 'entries,lot,scope')
-      bad(`${at} must have exactly lot, scope, entries`);
-    if (!isCanonicalLotCode(o.lot)) bad(`${at}.lot is not a canonical lot code`);
-    if (seen.has(o.lot as string)) bad(`lot ${o.lot as string} appears twice`);
-    seen.add(o.lot as string);
-    if (o.scope !== 'full' && o.scope !== 'link') bad(`${at}.scope is not full or link`);
-    if (!Array.isArray(o.entries)) bad(`${at}.entries is not a list`);
-    (o.entries as unknown[]).forEach((e, j) => {
-      const eat = `${at}.entries[${j}]`;
-      if (e === null || typeof e !== 'object' || Array.isArray(e)) bad(`${eat} is not an object`);
-      const x = e as Record<string, unknown>;
-      if (Object.keys(x).sort().join(',') !== 'body,hash,header,logIndex')
-        bad(`${eat} must have exactly hash, header, body, logIndex`);
-      if (typeof x.hash !== 'string') bad(`${eat}.hash is not a string`);
-      if (typeof x.header !== 'string') bad(`${eat}.header is not a string`);
-      if (x.body !== null && typeof x.body !== 'string') bad(`${eat}.body is not a string or null`);
-      if (x.logIndex !== null && !(Number.isSafeInteger(x.logIndex) && (x.logIndex as number) >= 0)) {
-        bad(`${eat}.logIndex is not null or a non-negative integer`);
-      }
-    });
-  });
   return value as Bundle;
+}
+
+/** The first problem with the shape of one roll of a bundle, or null when it is well formed. */
+function rollShapeProblem(r: unknown): { reason: ReasonCode; seq: number; message: string } | null {
+  if (r === null || typeof r !== 'object' || Array.isArray(r))
+    return { reason: 'bad-roll', seq: 0, message: 'a roll is an object' };
+  const o = r as Record<string, unknown>;
+  if (Object.keys(o).sort().join(',') !== 'entries,lot,scope')
+    return { reason: 'bad-roll', seq: 0, message: 'a roll has exactly lot, scope, entries' };
+  if (!isCanonicalLotCode(o.lot))
+    return { reason: 'bad-lot-code', seq: 0, message: 'lot is not a canonical lot code' };
+  if (o.scope !== 'full' && o.scope !== 'link')
+    return { reason: 'bad-roll', seq: 0, message: 'scope is not full or link' };
+  if (!Array.isArray(o.entries)) return { reason: 'bad-roll', seq: 0, message: 'entries is not a list' };
+  for (let j = 0; j < o.entries.length; j++) {
+    const e: unknown = o.entries[j];
+    const at = `entries[${j}]`;
+    if (e === null || typeof e !== 'object' || Array.isArray(e))
+      return { reason: 'bad-entry', seq: j, message: `${at} is not an object` };
+    const x = e as Record<string, unknown>;
+    if (Object.keys(x).sort().join(',') !== 'body,hash,header,logIndex')
+      return { reason: 'bad-entry', seq: j, message: `${at} has exactly hash, header, body, logIndex` };
+    if (typeof x.hash !== 'string')
+      return { reason: 'bad-entry', seq: j, message: `${at}.hash is not a string` };
+    if (typeof x.header !== 'string')
+      return { reason: 'bad-entry', seq: j, message: `${at}.header is not a string` };
+    if (x.body !== null && typeof x.body !== 'string')
+      return { reason: 'bad-entry', seq: j, message: `${at}.body is not a string or null` };
+    if (x.logIndex !== null && !(Number.isSafeInteger(x.logIndex) && (x.logIndex as number) >= 0))
+      return {
+        reason: 'bad-log-index',
+        seq: j,
+        message: `${at}.logIndex is not null or a non-negative integer`,
+      };
+  }
+  return null;
 }
 
 /**
@@ -103,14 +126,36 @@ export function parseBundleText(text: string, maxBytes = DEFAULT_MAX_BUNDLE_BYTE
   return parseBundle(v);
 }
 
-/** Result for one roll of a bundle. */
+/**
+ * Reads a bundle from the bytes of a file: UTF-8 (strict: a malformed byte sequence is
+ * `not-utf8`; so is a leading byte-order mark, which JSON texts do not carry), then as
+ * {@link parseBundleText}. Throws {@link BundleError}.
+ */
+export function parseBundleBytes(bytes: Uint8Array, maxBytes = DEFAULT_MAX_BUNDLE_BYTES): Bundle {
+  if (bytes.length > maxBytes) throw new BundleError('too-large', `bundle is over ${maxBytes} bytes`);
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true }).decode(bytes);
+  } catch {
+    throw new BundleError('not-utf8', 'the file is not UTF-8 text');
+  }
+  if (text.startsWith('\uFEFF')) throw new BundleError('not-utf8', 'the file starts with a byte-order mark');
+  return parseBundleText(text, maxBytes);
+}
+
+/**
+ * Result for one roll of a bundle. `lot` is null when the roll does not name a canonical lot
+ * code; `unchecked` lists the rules a version-1 roll could not be checked against after a
+ * removal (empty when fully checked).
+ */
 export interface BundleRollResult {
-  lot: string;
+  lot: string | null;
   scope: 'full' | 'link';
   entries: number;
   ok: boolean;
   failure: VerifyFailure | null;
   state: RollState | null;
+  unchecked: UncheckedRule[];
 }
 
 /** Outcome of {@link verifyBundle}. `failures` lists the first failure of each broken roll. */
@@ -154,10 +199,12 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
     }
     if (bodyDigest(e.body) !== h.body)
       return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
-    const issues = bodyIssues(h.kind, body);
-    if (issues.length === 0 && (h.v as number) >= 2)
+    const issues = bodyIssues(h.kind, body, h.v);
+    if (issues.length === 0 && h.v >= 2)
       issues.push(...bodyBoundIssues(h.kind, body as SplitBody | CombinedBody, h.time));
     if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
+    if (h.facts && canonicalise(factsOf(h.kind, body as SplitBody)) !== canonicalise(h.facts))
+      return fail(h.seq, 'bad-facts', 'the header facts differ from the body');
     out.push({ header: h, hash: e.hash, body: body as SplitBody | CombinedBody });
   }
   return { failure: null, entries: out };
@@ -166,76 +213,120 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
 /**
  * Verifies every roll of a bundle and every cross-lot link in both directions: each child's
  * `registered` parents must be in the bundle as `split`/`combined` entries with that hash,
- * naming the child (a split child's count must equal its registered count), not later than
- * the child; and each `split`/`combined` entry naming a child that is in the bundle must be
- * among that child's parents. Never throws. Precondition: `bundle` came from
- * {@link parseBundle} or {@link parseBundleText}.
+ * naming the child (a split child's count must equal its registered count, and from format
+ * version 2 of the child's entry its estimated flag too), not later than the child; each
+ * `split`/`combined` entry naming a child that is in the bundle must be among that child's
+ * parents; and every entry of a link-scope roll must be named by a child in the bundle. A roll
+ * whose shape is wrong (not an object, a bad lot code, a lot twice, a malformed entry or log
+ * index) is a broken roll. Never throws. Precondition: `bundle` came from {@link parseBundle}
+ * or {@link parseBundleText}.
  */
 export function verifyBundle(bundle: Bundle): BundleVerification {
   const rolls: BundleRollResult[] = [];
   const failures: VerifyFailure[] = [];
   const linkEntries = new Map<string, LinkEntry>(); // "lot/seq" of verified split/combined entries
+  const linkScoped = new Map<string, LinkEntry>(); // the same, for link-scope rolls only
   const firstEntries = new Map<string, VerifiedEntry>(); // child lot -> verified registered entry
+  const raw = bundle.rolls as unknown[];
+  const lotCount = new Map<unknown, number>();
+  for (const r of raw) {
+    const lot = r && typeof r === 'object' ? (r as Record<string, unknown>).lot : undefined;
+    if (isCanonicalLotCode(lot)) lotCount.set(lot, (lotCount.get(lot) ?? 0) + 1);
+  }
   let entries = 0;
-  for (const r of bundle.rolls) {
-    entries += r.entries.length;
+  for (const item of raw) {
+    const shape = rollShapeProblem(item);
+    const o = (item ?? {}) as Record<string, unknown>;
+    const lot = isCanonicalLotCode(o.lot) ? o.lot : null;
+    const scope = o.scope === 'link' ? 'link' : 'full';
+    const n = Array.isArray(o.entries) ? o.entries.length : 0;
+    entries += n;
+    const broken = (failure: VerifyFailure): void => {
+      rolls.push({ lot, scope, entries: n, ok: false, failure, state: null, unchecked: [] });
+      failures.push(failure);
+    };
+    if (shape) {
+      broken({ ok: false, lot, ...shape });
+      continue;
+    }
+    if ((lotCount.get(lot) ?? 0) > 1) {
+      broken({
+        ok: false,
+        lot,
+        seq: 0,
+        reason: 'duplicate-lot',
+        message: 'the bundle holds this lot more than once',
+      });
+      continue;
+    }
+    const r = item as BundleRoll;
     if (r.scope === 'link') {
       const { failure, entries: le } = verifyLinkRoll(r);
-      for (const e of le) linkEntries.set(`${r.lot}/${e.header.seq}`, e);
+      if (failure) {
+        broken(failure);
+        continue;
+      }
+      for (const e of le) {
+        linkEntries.set(`${r.lot}/${e.header.seq}`, e);
+        linkScoped.set(`${r.lot}/${e.header.seq}`, e);
+      }
       rolls.push({
         lot: r.lot,
         scope: 'link',
-        entries: r.entries.length,
-        ok: !failure,
-        failure,
+        entries: n,
+        ok: true,
+        failure: null,
         state: null,
+        unchecked: [],
       });
-      if (failure) failures.push(failure);
       continue;
     }
     const res = verifyRoll(r.entries, { lot: r.lot });
-    if (res.ok) {
-      for (const e of res.verified) {
-        if ((e.header.kind === 'split' || e.header.kind === 'combined') && e.body) {
-          linkEntries.set(`${r.lot}/${e.header.seq}`, {
-            header: e.header,
-            hash: e.hash,
-            body: e.body as SplitBody | CombinedBody,
-          });
-        }
-      }
-      firstEntries.set(r.lot, res.verified[0]!);
-      rolls.push({
-        lot: r.lot,
-        scope: 'full',
-        entries: res.entries,
-        ok: true,
-        failure: null,
-        state: res.state,
-      });
-    } else {
+    if (!res.ok) {
       const { verified: _v, ...failure } = res;
-      rolls.push({ lot: r.lot, scope: 'full', entries: r.entries.length, ok: false, failure, state: null });
-      failures.push(failure);
+      broken(failure);
+      continue;
     }
+    for (const e of res.verified) {
+      if ((e.header.kind === 'split' || e.header.kind === 'combined') && e.body) {
+        linkEntries.set(`${r.lot}/${e.header.seq}`, {
+          header: e.header,
+          hash: e.hash,
+          body: e.body as SplitBody | CombinedBody,
+        });
+      }
+    }
+    firstEntries.set(r.lot, res.verified[0]!);
+    rolls.push({
+      lot: r.lot,
+      scope: 'full',
+      entries: res.entries,
+      ok: true,
+      failure: null,
+      state: res.state,
+      unchecked: res.unchecked,
+    });
   }
-  const markBroken = (lot: string, seq: number, message: string): void => {
-    const f: VerifyFailure = { ok: false, lot, seq, reason: 'bad-parent', message };
-    const roll = rolls.find((x) => x.lot === lot)!;
-    if (roll.ok) {
+  const markBroken = (lot: string, seq: number, message: string, reason: ReasonCode = 'bad-parent'): void => {
+    const f: VerifyFailure = { ok: false, lot, seq, reason, message };
+    const roll = rolls.find((x) => x.lot === lot && x.ok);
+    if (roll) {
       roll.ok = false;
       roll.failure = f;
       roll.state = null;
+      roll.unchecked = [];
       failures.push(f);
     }
   };
   let links = 0;
+  const named = new Set<string>(); // "lot/seq" of link entries some child names
   // Child to parent.
   for (const [child, reg] of firstEntries) {
     const parents = reg.header.parents ?? [];
     const kinds = new Set<string>();
     for (const p of parents) {
       links++;
+      named.add(`${p.lot}/${p.seq}`);
       const le = linkEntries.get(`${p.lot}/${p.seq}`);
       if (!le) {
         markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} is not in the bundle (or is broken)`);
@@ -251,6 +342,8 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
         if (!c) markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} does not name this lot`);
         else if (c.count.value !== count.value)
           markBroken(child, 0, `split gave ${c.count.value} beads, registered ${count.value}`);
+        else if (reg.header.v >= 2 && c.count.estimated !== count.estimated)
+          markBroken(child, 0, 'the split and the registered count differ in being estimated');
       } else if ((le.body as CombinedBody).child !== child) {
         markBroken(child, 0, `parent entry ${p.lot} seq ${p.seq} does not name this lot`);
       }
@@ -260,11 +353,11 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
   }
   // Parent to child.
   for (const [key, le] of linkEntries) {
-    const named =
+    const kids =
       le.header.kind === 'split'
         ? (le.body as SplitBody).children.map((c) => c.lot)
         : [(le.body as CombinedBody).child];
-    for (const child of named) {
+    for (const child of kids) {
       const reg = firstEntries.get(child);
       if (!reg) continue;
       const back = (reg.header.parents ?? []).some(
@@ -272,6 +365,16 @@ export function verifyBundle(bundle: Bundle): BundleVerification {
       );
       if (!back) markBroken(le.header.lot, le.header.seq, `child ${child} does not name entry ${key}`);
     }
+  }
+  // A link-scope roll holds only entries a child in the bundle names.
+  for (const [key, le] of linkScoped) {
+    if (!named.has(key))
+      markBroken(
+        le.header.lot,
+        le.header.seq,
+        'no child in the bundle names this link entry',
+        'unnamed-link',
+      );
   }
   return { ok: failures.length === 0, rolls, entries, links, failures };
 }

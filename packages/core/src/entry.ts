@@ -1,6 +1,7 @@
 import { bytesToHex } from '@noble/hashes/utils.js';
 import { canonicalise, parseCanonical } from './canonical.js';
 import { CanonicalError, ValidationError, type FieldIssue } from './errors.js';
+import { factsOf } from './facts.js';
 import { bodyDigest, entryHash } from './hash.js';
 import { isCanonicalLotCode } from './lotcode.js';
 import { secureRandom, type RandomSource } from './random.js';
@@ -9,16 +10,18 @@ import { sealFields, type SealedSet } from './sealed.js';
 import {
   ENTRY_KINDS,
   FORMAT_VERSION,
+  FORMAT_VERSIONS,
   GENESIS_PREV,
   type AnyBody,
   type BodyFields,
   type EntryHeader,
   type EntryKind,
+  type FormatVersion,
   type ParentRef,
   type SealedValues,
 } from './types.js';
 import { bodyBoundIssues, sealedBoundIssues } from './bounds.js';
-import { bodyIssues, isActorId, isEntryTime, isHex64 } from './validate.js';
+import { bodyIssues, factsIssues, isActorId, isEntryTime, isHex64 } from './validate.js';
 
 /** An entry as stored and exported: the exact canonical strings and the claimed entry hash. */
 export interface StoredEntry {
@@ -49,8 +52,8 @@ export interface BuiltEntry {
   sealed: SealedSet | null;
 }
 
-/** Every key a header may have. */
-export const HEADER_KEYS = [
+/** Every key a version-1 header may have. */
+const HEADER_KEYS_V1 = [
   'v',
   'lot',
   'seq',
@@ -62,6 +65,12 @@ export const HEADER_KEYS = [
   'body',
   'sealed',
 ] as const;
+
+/** Every key a header may have, by format version (version 2 adds the required `facts`). */
+export const HEADER_KEYS: Readonly<Record<FormatVersion, readonly string[]>> = {
+  1: HEADER_KEYS_V1,
+  2: [...HEADER_KEYS_V1, 'facts'],
+};
 
 /** Kinds whose bodies can never be redacted, so a missing one always breaks the roll. */
 export const NEVER_REDACTED: readonly EntryKind[] = ['registered', 'split', 'combined', 'redacted'];
@@ -82,12 +91,17 @@ function parentIssues(parents: unknown, path: string): FieldIssue[] {
       out.push({ path: `${path}[${i}]`, message: 'must be {lot, seq, hash} naming an entry of another lot' });
     }
   });
+  const lots = parents.map((p) => (p as Record<string, unknown> | null)?.lot);
+  if (out.length === 0 && new Set(lots).size !== lots.length)
+    out.push({ path, message: 'must not name the same lot twice' });
   return out;
 }
 
 /**
- * Builds the next entry of a roll. `head` is the newest entry (null for a new roll, whose
- * `draft.lot` must then be a canonical lot code). Draws a 128-bit body nonce and then one
+ * Builds the next entry of a roll, in format version {@link FORMAT_VERSION} unless
+ * `options.version` names another (tests and fixtures write version 1). `head` is the newest
+ * entry (null for a new roll, whose `draft.lot` must then be a canonical lot code). Version 2
+ * writes the body's rule facts (`factsOf`) in the header. Draws a 128-bit body nonce and then one
  * 128-bit salt per sealed field (in field-name order) from `random`. Preconditions: the caller
  * has checked the transition (`checkTransition`). Throws {@link ValidationError} listing every
  * bad field (time not after the head's, unknown body fields, bad sealed values, ...).
@@ -95,8 +109,9 @@ function parentIssues(parents: unknown, path: string): FieldIssue[] {
 export function buildEntry<K extends EntryKind>(
   head: RollHead | null,
   draft: EntryDraft<K>,
-  options: { random?: RandomSource } = {},
+  options: { random?: RandomSource; version?: FormatVersion } = {},
 ): BuiltEntry {
+  const version = options.version ?? FORMAT_VERSION;
   const random = options.random ?? secureRandom;
   const issues: FieldIssue[] = [];
   const lot = head ? head.lot : draft.lot;
@@ -112,7 +127,7 @@ export function buildEntry<K extends EntryKind>(
   if (issues.length > 0) throw new ValidationError(issues, 'bad-draft');
 
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
-  let bIssues = bodyIssues(draft.kind, body);
+  let bIssues = bodyIssues(draft.kind, body, version);
   // New entries meet the plausibility bounds too (format version 2 rules).
   if (bIssues.length === 0) bIssues = bodyBoundIssues(draft.kind, body, draft.time);
   const sIssues = draft.sealed && bIssues.length === 0 ? sealedBoundIssues(draft.sealed, draft.time) : [];
@@ -130,7 +145,7 @@ export function buildEntry<K extends EntryKind>(
   const sealed =
     draft.sealed && Object.keys(draft.sealed).length > 0 ? sealFields(draft.sealed, random) : null;
   const header: EntryHeader = {
-    v: FORMAT_VERSION,
+    v: version,
     lot: lot as string,
     seq: head ? head.seq + 1 : 0,
     kind: draft.kind,
@@ -140,6 +155,7 @@ export function buildEntry<K extends EntryKind>(
     ...(draft.parents ? { parents: draft.parents } : {}),
     body: bodyDigest(bodyText),
     ...(sealed ? { sealed: sealed.root } : {}),
+    ...(version >= 2 ? { facts: factsOf(draft.kind, body) } : {}),
   };
   const headerText = canonicalise(header);
   return {
@@ -169,9 +185,16 @@ export type ReasonCode =
   | 'non-canonical'
   | 'unknown-version'
   | 'bad-header'
-  | 'bad-body';
+  | 'bad-body'
+  | 'bad-facts'
+  | 'bad-roll'
+  | 'bad-entry'
+  | 'bad-lot-code'
+  | 'duplicate-lot'
+  | 'bad-log-index'
+  | 'unnamed-link';
 
-/** Every reason code, in the order the checks run. */
+/** Every reason code: first the entry checks in the order they run, then the bundle's. */
 export const REASON_CODES: readonly ReasonCode[] = [
   'non-canonical',
   'unknown-version',
@@ -185,7 +208,14 @@ export const REASON_CODES: readonly ReasonCode[] = [
   'bad-hash',
   'missing-body',
   'bad-body',
+  'bad-facts',
   'bad-transition',
+  'bad-roll',
+  'bad-entry',
+  'bad-lot-code',
+  'duplicate-lot',
+  'bad-log-index',
+  'unnamed-link',
 ];
 
 /** A header that failed to decode: the reason and a message. */
@@ -210,11 +240,11 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   if (v === null || typeof v !== 'object' || Array.isArray(v))
     return { reason: 'bad-header', message: 'the header is not an object' };
   const o = v as Record<string, unknown>;
-  if (o.v !== FORMAT_VERSION)
-    return { reason: 'unknown-version', message: `format version ${JSON.stringify(o.v)} is not 1` };
+  if (!(FORMAT_VERSIONS as readonly unknown[]).includes(o.v))
+    return { reason: 'unknown-version', message: `format version ${JSON.stringify(o.v)} is not 1 or 2` };
+  const keys = HEADER_KEYS[o.v as FormatVersion];
   for (const k of Object.keys(o)) {
-    if (!(HEADER_KEYS as readonly string[]).includes(k))
-      return { reason: 'bad-header', message: `unknown header field ${k}` };
+    if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
     return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
@@ -233,6 +263,12 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   if ('parents' in o) {
     const issues = parentIssues(o.parents, 'parents');
     if (issues.length > 0) return { reason: 'bad-parent', message: issues[0]!.message };
+  }
+  if (o.v !== 1) {
+    if (!('facts' in o)) return { reason: 'bad-facts', message: 'a version 2 header needs facts' };
+    const issues = factsIssues(o.kind as EntryKind, o.facts);
+    if (issues.length > 0)
+      return { reason: 'bad-facts', message: `${issues[0]!.path}: ${issues[0]!.message}` };
   }
   return o as unknown as EntryHeader;
 }

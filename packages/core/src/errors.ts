@@ -66,7 +66,7 @@ export class MerkleError extends LedgerError {
 }
 
 /** Codes of {@link BundleError}. */
-export type BundleErrorCode = 'not-json' | 'not-a-bundle' | 'unknown-version' | 'too-large';
+export type BundleErrorCode = 'not-utf8' | 'not-json' | 'not-a-bundle' | 'unknown-version' | 'too-large';
 
 /** Thrown when a document is not a readable export bundle at all (as opposed to a broken roll). */
 export class BundleError extends LedgerError {

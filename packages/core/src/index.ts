@@ -46,7 +46,9 @@ export {
   bodyIssues,
   assertBody,
   sealedValueIssues,
+  factsIssues,
 } from './validate.js';
+export { factsOf } from './facts.js';
 export {
   sealedFieldCommitment,
   sealedRoot,
@@ -72,6 +74,7 @@ export {
   TRANSITION_RULES,
   VOID_WINDOW_MS,
   checkTransition,
+  isReservedActor,
   opinionsDisagree,
   reduceEntry,
   reduceRoll,
@@ -96,6 +99,7 @@ export type {
   RollVerification,
   VerifiedEntry,
   RollVerificationWithEntries,
+  UncheckedRule,
 } from './verify.js';
 export {
   EMPTY_TREE_HASH,
@@ -110,9 +114,11 @@ export {
 export {
   BUNDLE_FORMAT,
   BUNDLE_VERSION,
+  BUNDLE_VERSIONS,
   DEFAULT_MAX_BUNDLE_BYTES,
   parseBundle,
   parseBundleText,
+  parseBundleBytes,
   verifyBundle,
   createBundle,
 } from './bundle.js';
@@ -132,9 +138,24 @@ export {
   tagQrVersion,
 } from './tag.js';
 export type { QrEcLevel, TagPayload } from './tag.js';
-export { attributionAid, uvCaution } from './aid.js';
+export {
+  attributionAid,
+  HANDLING_CAUTIONS,
+  recordCautions,
+  safetyCautions,
+  safetyInputOf,
+  uvCaution,
+} from './aid.js';
 export type { AidInput, AidResult, Indication, PlausibilityWarning } from './aid.js';
-export { AID_DISCLAIMER, CAUTION_RULES, INDICATION_RULES, PERIOD_RULES, UV_A_POINTS } from './aid-rules.js';
+export {
+  AID_DISCLAIMER,
+  CAUTION_RULES,
+  INDICATION_RULES,
+  LEAD_WORDS,
+  PERIOD_RULES,
+  URANIUM_WORDS,
+  UV_A_POINTS,
+} from './aid-rules.js';
 export type {
   AidSource,
   AidCondition,

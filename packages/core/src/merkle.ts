@@ -20,10 +20,18 @@ export function merkleNodeHash(left: Uint8Array, right: Uint8Array): Uint8Array 
   return sha256(buf);
 }
 
+/** The largest power of two smaller than n (n ≥ 2); exact for every safe integer. */
 function split(n: number): number {
   let k = 1;
   while (k * 2 < n) k *= 2;
   return k;
+}
+
+/** True when n (a positive safe integer) is a power of two; integer arithmetic only. */
+function isPowerOfTwo(n: number): boolean {
+  let x = n;
+  while (x > 1 && x % 2 === 0) x /= 2;
+  return x === 1;
 }
 
 function mth(leaves: readonly Uint8Array[], lo: number, hi: number): Uint8Array {
@@ -176,8 +184,7 @@ export function verifyConsistency(
   if (proof.length === 0) return false;
   const path = [...proof];
   // size1 a power of two: the first subtree root is root1 itself.
-  if ((size1 & (size1 - 1)) === 0 && size1 <= 2 ** 30) path.unshift(root1);
-  else if (size1 > 2 ** 30 && Number.isInteger(Math.log2(size1))) path.unshift(root1);
+  if (isPowerOfTwo(size1)) path.unshift(root1);
   let fn = size1 - 1;
   let sn = size2 - 1;
   while (odd(fn)) {

@@ -1,24 +1,18 @@
+import { factsOf } from './facts.js';
 import type {
   AnyBody,
   BeadCount,
-  CombinedBody,
   EntryHeader,
   EntryKind,
+  FormatVersion,
   LotDescription,
   OpinionBody,
-  OpinionWithdrawnBody,
   ParentRef,
-  RedactedBody,
   RegisteredBody,
-  SaleVoidedBody,
+  RuleFacts,
   SoldBody,
-  Correction,
-  SplitBody,
-  TransferAnswerBody,
-  TransferOfferedBody,
-  NoteBody,
 } from './types.js';
-import { SYSTEM_ACTOR } from './types.js';
+import { FORMAT_VERSION, RESERVED_ACTOR_PREFIX, SYSTEM_ACTOR } from './types.js';
 
 /** Where a lot stands. `sold`, `split`, `combined` and `retired` are final. */
 export type LotStatus = 'held' | 'offered' | 'sold' | 'split' | 'combined' | 'retired';
@@ -77,8 +71,19 @@ export interface RollState {
   description: LotDescription | null;
   /** seq of the entry that wrote `description`. */
   descriptionSeq: number;
-  /** Beads still in this lot (after splits and combinations). */
+  /**
+   * The newest description's count (from its rule facts); null only when a version-1
+   * description body was removed. Optional in states stored before it existed.
+   */
+  count?: BeadCount | null;
+  /** Beads taken out by every `split` and `combined` entry so far (estimated if any was). */
+  taken?: BeadCount;
+  /** Beads still in this lot: `count` less `taken` (never below 0). */
   remaining: BeadCount;
+  /** Public exhibits on the roll whose entries are not redacted: what an opinion may cite. */
+  exhibits?: Array<{ seq: number; sha256: string }>;
+  /** The highest format version on the roll so far; a later entry never has a lower one. */
+  version?: FormatVersion;
   openOffer: OpenOffer | null;
   /** Standing opinions, oldest first. */
   opinions: OpinionRecord[];
@@ -105,12 +110,18 @@ export interface RollState {
   redactedSeqs: number[];
 }
 
-/** An entry about to be appended, as the rules see it. `body` null = not available (redacted). */
+/**
+ * An entry about to be appended, as the rules see it. `body` null = not available (redacted);
+ * `facts`, when given, are the header's rule facts (format version 2) and take precedence.
+ */
 export interface TransitionDraft {
   kind: EntryKind;
   actor: string;
   body: AnyBody | Omit<AnyBody, 'nonce'> | null;
+  facts?: RuleFacts;
   parents?: ParentRef[];
+  /** Format version of the entry; default {@link FORMAT_VERSION}. */
+  version?: FormatVersion;
   /** The entry's time (RFC 3339 UTC); rules that depend on time (voiding a sale) need it. */
   time?: string;
 }
@@ -118,9 +129,12 @@ export interface TransitionDraft {
 /** How long after a sale its seller may void it: 24 hours, in milliseconds. */
 export const VOID_WINDOW_MS = 24 * 60 * 60 * 1000;
 
-/** Outcome of {@link checkTransition}. */
+/**
+ * Outcome of {@link checkTransition}. `unchecked` (version 1 only) lists what the rules could
+ * not check because a removed body held the fact they need.
+ */
 export type TransitionResult =
-  { ok: true } | { ok: false; code: 'bad-actor' | 'bad-transition'; message: string };
+  { ok: true; unchecked?: string[] } | { ok: false; code: 'bad-actor' | 'bad-transition'; message: string };
 
 /** Who may append a kind. */
 export type ActorRule =
@@ -211,17 +225,54 @@ function bad(code: 'bad-actor' | 'bad-transition', message: string): TransitionR
   return { ok: false, code, message };
 }
 
+/** True for an account id in the reserved `beadroll:` range. */
+export function isReservedActor(actor: string): boolean {
+  return actor.startsWith(RESERVED_ACTOR_PREFIX);
+}
+
+/**
+ * Kinds with a version-1 rule that reads the entry's own body and whose body can be removed
+ * (split, combined and redacted bodies never are; a version-1 opinion has no such rule).
+ */
+const FACT_RULE_KINDS = new Set<EntryKind>([
+  'described',
+  'opinion-withdrawn',
+  'transfer-offered',
+  'transfer-accepted',
+  'transfer-declined',
+  'transfer-withdrawn',
+  'transfer-lapsed',
+  'note',
+  'sale-voided',
+]);
+
+function sameCount(a: BeadCount, b: BeadCount): boolean {
+  return a.value === b.value && a.estimated === b.estimated;
+}
+
+/** Beads still free to take, when that is known exactly; null when estimated or not known. */
+function exactRemaining(state: RollState): number | null {
+  return state.remaining.estimated ? null : state.remaining.value;
+}
+
 /**
  * Decides whether `draft` may be appended to a roll in `state` (null = the roll is empty).
- * Pure; never throws. Preconditions: `draft.body`, when given, already has the shape of its
- * kind (see `bodyIssues`); the actor is an account id. Returns `bad-actor` when the wrong
- * account writes, `bad-transition` when the kind is not allowed now.
+ * Pure; never throws. The rules read the draft's rule facts: `draft.facts` when given (a
+ * version-2 header), else those of `draft.body`; with neither (a version-1 entry whose body was
+ * removed) the rules that need them are not applied and the result says so in `unchecked`, as
+ * they are when the state lacks a fact a removed version-1 body held. `draft.version` (default
+ * {@link FORMAT_VERSION}) selects the rules of that format version. Preconditions: `draft.body`,
+ * when given, already has the shape of its kind (see `bodyIssues`); the actor is an account id.
+ * Returns `bad-actor` when the wrong account writes, `bad-transition` when the kind is not
+ * allowed now.
  */
 export function checkTransition(state: RollState | null, draft: TransitionDraft): TransitionResult {
   const { kind, actor } = draft;
+  const version = draft.version ?? FORMAT_VERSION;
+  if (isReservedActor(actor) && !(actor === SYSTEM_ACTOR && kind === 'transfer-lapsed'))
+    return bad('bad-actor', `the reserved account ${actor} does not write ${kind}`);
   if (state === null) {
     if (kind !== 'registered') return bad('bad-transition', 'a roll opens with a registered entry');
-    if (actor === SYSTEM_ACTOR) return bad('bad-actor', 'the system account holds no lots');
     return { ok: true };
   }
   if (kind === 'registered') return bad('bad-transition', 'registered only opens a roll');
@@ -231,20 +282,25 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
   if (!rule.statuses.includes(state.status)) {
     return bad('bad-transition', `${kind} is not allowed while the lot is ${state.status}`);
   }
-  const body = draft.body as Record<string, unknown> | null;
+  const unchecked: string[] = [];
   const isHolder = actor === state.holder;
   switch (rule.actor) {
     case 'holder':
       if (!isHolder) return bad('bad-actor', `only the holder may write ${kind}`);
       break;
     case 'holder-or-anyone-if-listed':
-      if (!isHolder && !state.listed && state.listedKnown)
-        return bad('bad-actor', `only the holder may write ${kind} on an unlisted lot`);
-      if (actor === SYSTEM_ACTOR) return bad('bad-actor', `the system account does not write ${kind}`);
+      if (!isHolder && !state.listed) {
+        if (state.listedKnown)
+          return bad('bad-actor', `only the holder may write ${kind} on an unlisted lot`);
+        unchecked.push('whether the lot was listed (its description was removed)');
+      }
       break;
     case 'offer-recipient': {
       const offer = state.openOffer!;
-      if (offer.recipient !== null ? actor !== offer.recipient : actor === offer.offerer) {
+      if (offer.recipient === null) {
+        if (actor === offer.offerer) return bad('bad-actor', `only the offer's recipient may write ${kind}`);
+        unchecked.push("the offer's recipient (the offer was removed)");
+      } else if (actor !== offer.recipient) {
         return bad('bad-actor', `only the offer's recipient may write ${kind}`);
       }
       break;
@@ -260,73 +316,83 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
     case 'anyone':
       break;
   }
-  if (body === null) return { ok: true };
+  const facts: RuleFacts | null = draft.facts ?? (draft.body ? factsOf(kind, draft.body as AnyBody) : null);
+  if (facts === null) {
+    if (FACT_RULE_KINDS.has(kind)) unchecked.push(`the rules of ${kind} (its body was removed)`);
+    return done(unchecked);
+  }
   const head = state.head.seq;
   switch (kind) {
-    case 'described':
-    case 'observed': {
-      const c = (body as { corrects?: Correction }).corrects;
-      if (c === undefined) break;
-      const seqs = kind === 'described' ? state.descriptionSeqs : state.observationSeqs;
-      if (!seqs.includes(c.seq))
-        return bad(
-          'bad-transition',
-          kind === 'described'
-            ? `seq ${c.seq} is not an earlier description`
-            : `seq ${c.seq} is not an earlier observation`,
-        );
+    case 'observed':
+      if (facts.corrects !== undefined && !state.observationSeqs.includes(facts.corrects))
+        return bad('bad-transition', `seq ${facts.corrects} is not an earlier observation`);
       break;
-    }
     case 'sale-voided': {
-      const seq = (body as unknown as SaleVoidedBody).saleSeq;
-      if (seq !== state.soldSeq) return bad('bad-transition', `the sale is seq ${state.soldSeq}`);
+      if (facts.saleSeq !== state.soldSeq) return bad('bad-transition', `the sale is seq ${state.soldSeq}`);
       if (draft.time === undefined || state.soldTime === null)
         return bad('bad-transition', 'a void needs the time of the sale and of the void');
       if (Date.parse(draft.time) - Date.parse(state.soldTime) > VOID_WINDOW_MS)
         return bad('bad-transition', 'a sale can be voided only within 24 hours of it');
       break;
     }
+    case 'described': {
+      if (facts.corrects !== undefined && !state.descriptionSeqs.includes(facts.corrects))
+        return bad('bad-transition', `seq ${facts.corrects} is not an earlier description`);
+      const count = countOf(state);
+      const next = facts.count!;
+      if (FINAL_STATUSES.includes(state.status)) {
+        if (count === null) unchecked.push('the count before this description (it was removed)');
+        else if (!sameCount(count, next))
+          return bad('bad-transition', `in a final status the count stays ${countText(count)}`);
+      } else {
+        const taken = takenOf(state);
+        if (!next.estimated && !taken.estimated && next.value < taken.value)
+          return bad('bad-transition', `${taken.value} beads have already been taken from this lot`);
+      }
+      break;
+    }
+    case 'opinion': {
+      if (version < 2) break;
+      const known = new Set((state.exhibits ?? []).map((e) => e.sha256));
+      const missing = facts.exhibits!.find((x) => !known.has(x));
+      if (missing) return bad('bad-transition', `exhibit ${missing} is not on this roll`);
+      break;
+    }
     case 'opinion-withdrawn': {
-      const seq = (body as unknown as OpinionWithdrawnBody).opinionSeq;
+      const seq = facts.opinionSeq!;
       const op = state.opinions.find((o) => o.seq === seq);
       if (!op) return bad('bad-transition', `seq ${seq} is not a standing opinion`);
       if (op.author !== actor) return bad('bad-actor', 'only its author may withdraw an opinion');
       break;
     }
     case 'transfer-offered': {
-      const r = (body as unknown as TransferOfferedBody).recipient;
+      const r = facts.recipient!;
       if (r === state.holder) return bad('bad-transition', 'an offer goes to another account');
-      if (r === SYSTEM_ACTOR) return bad('bad-transition', 'the system account takes no offers');
+      if (isReservedActor(r)) return bad('bad-transition', 'a reserved account takes no offers');
       break;
     }
     case 'transfer-accepted':
     case 'transfer-declined':
     case 'transfer-withdrawn':
     case 'transfer-lapsed':
-      if ((body as unknown as TransferAnswerBody).offerSeq !== state.openOffer!.seq) {
+      if (facts.offerSeq !== state.openOffer!.seq) {
         return bad('bad-transition', `the open offer is seq ${state.openOffer!.seq}`);
       }
       break;
-    case 'split': {
-      const b = body as unknown as SplitBody;
-      if (b.children.some((c) => c.lot === state.lot))
-        return bad('bad-transition', 'a lot is not its own child');
-      const sum = b.children.reduce((s, c) => s + c.count.value, 0);
-      if (!state.remaining.estimated && sum > state.remaining.value) {
-        return bad('bad-transition', `children hold ${sum} beads but the lot has ${state.remaining.value}`);
-      }
-      break;
-    }
+    case 'split':
     case 'combined': {
-      const b = body as unknown as CombinedBody;
-      if (b.child === state.lot) return bad('bad-transition', 'a lot is not its own child');
-      if (!state.remaining.estimated && b.count.value > state.remaining.value) {
-        return bad('bad-transition', `takes ${b.count.value} beads but the lot has ${state.remaining.value}`);
-      }
+      const kids = kind === 'split' ? facts.children! : [{ lot: facts.child!, count: facts.count! }];
+      if (kids.some((c) => c.lot === state.lot)) return bad('bad-transition', 'a lot is not its own child');
+      const sum = kids.reduce((a, c) => a + c.count.value, 0);
+      const free = exactRemaining(state);
+      if (free !== null && sum > free)
+        return bad('bad-transition', `takes ${sum} beads but ${free} are left in the lot`);
+      if (free === null && countOf(state) === null && kids.every((c) => !c.count.estimated))
+        unchecked.push('the count of the lot (its description was removed)');
       break;
     }
     case 'redacted': {
-      const t = (body as unknown as RedactedBody).target;
+      const t = facts.target!;
       if (t > head) return bad('bad-transition', `seq ${t} is not an earlier entry`);
       if (t === 0) return bad('bad-transition', 'the registered entry cannot be redacted');
       if (state.linkSeqs.includes(t))
@@ -343,14 +409,33 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       break;
     }
     case 'note': {
-      const ref = (body as unknown as NoteBody).ref;
+      const ref = facts.ref;
       if (ref !== undefined && ref > head) return bad('bad-transition', `seq ${ref} is not an earlier entry`);
       break;
     }
     default:
       break;
   }
-  return { ok: true };
+  return done(unchecked);
+}
+
+function done(unchecked: string[]): TransitionResult {
+  return unchecked.length ? { ok: true, unchecked } : { ok: true };
+}
+
+function countText(c: BeadCount): string {
+  return `${c.estimated ? 'about ' : ''}${c.value}`;
+}
+
+/** The newest description's count; null when a version-1 description body was removed. */
+function countOf(state: RollState): BeadCount | null {
+  if (state.count !== undefined) return state.count;
+  // A state stored before `count` existed: its remaining count is the best it knows.
+  return state.description ? state.description.count : null;
+}
+
+function takenOf(state: RollState): BeadCount {
+  return state.taken ?? { value: 0, estimated: false };
 }
 
 /** True when two opinions disagree: different known origins, or periods that do not overlap. */
@@ -388,12 +473,14 @@ export interface ReducibleEntry {
 /**
  * Applies one entry to a state (null for the first entry) and returns the new state. Pure.
  * Preconditions: the entry passed {@link checkTransition} against `state` and its header and
- * body were verified. A missing body (redacted) has the effect the format defines: a
- * description becomes null and the lot unlisted, an opinion stops counting, an offer's
- * recipient becomes unknown, a sale date unknown.
+ * body were verified. The entry's rule facts come from its header (version 2) or its body
+ * (version 1). A missing version-1 body has the effect the format defines: a description's
+ * count and listing become unknown, an offer's recipient unknown; in every version a removed
+ * opinion stops counting and a sale date becomes unknown.
  */
 export function reduceEntry(state: RollState | null, entry: ReducibleEntry): RollState {
   const { header: h, body } = entry;
+  const facts: RuleFacts | null = h.facts ?? (body ? factsOf(h.kind, body) : null);
   const head: RollHead = { lot: h.lot, seq: h.seq, hash: entry.hash, time: h.time };
   if (state === null) {
     const d = (body as RegisteredBody).description;
@@ -406,7 +493,11 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       listedKnown: true,
       description: d,
       descriptionSeq: 0,
+      count: d.count,
+      taken: { value: 0, estimated: false },
       remaining: d.count,
+      exhibits: [],
+      version: h.v,
       openOffer: null,
       opinions: [],
       attribution: null,
@@ -423,19 +514,23 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       redactedSeqs: [],
     });
   }
-  const s: RollState = { ...state, head };
+  const s: RollState = { ...state, head, version: Math.max(state.version ?? 1, h.v) as FormatVersion };
   switch (h.kind) {
     case 'described': {
-      const d = body ? (body as RegisteredBody).description : null;
-      s.description = d;
+      s.description = body ? (body as RegisteredBody).description : null;
       s.descriptionSeq = h.seq;
       s.descriptionSeqs = [...s.descriptionSeqs, h.seq];
-      s.listed = d ? d.listed : false;
-      s.listedKnown = d !== null;
-      if (ACTIVE.includes(s.status))
-        s.remaining = d ? d.count : { value: s.remaining.value, estimated: true };
+      s.listed = facts ? facts.listed! : false;
+      s.listedKnown = facts !== null;
+      if (ACTIVE.includes(s.status)) {
+        s.count = facts ? facts.count! : null;
+        s.remaining = remainingAfter(s, null);
+      }
       break;
     }
+    case 'exhibit-added':
+      if (facts?.original) s.exhibits = [...(s.exhibits ?? []), { seq: h.seq, sha256: facts.original }];
+      break;
     case 'opinion':
       s.opinions = [
         ...s.opinions,
@@ -443,14 +538,14 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       ];
       break;
     case 'opinion-withdrawn':
-      if (body) s.opinions = s.opinions.filter((o) => o.seq !== (body as OpinionWithdrawnBody).opinionSeq);
+      if (facts) s.opinions = s.opinions.filter((o) => o.seq !== facts.opinionSeq);
       break;
     case 'transfer-offered':
       s.status = 'offered';
       s.openOffer = {
         seq: h.seq,
         offerer: h.actor,
-        recipient: body ? (body as TransferOfferedBody).recipient : null,
+        recipient: facts ? facts.recipient! : null,
         time: h.time,
       };
       break;
@@ -465,27 +560,19 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       s.status = 'held';
       s.openOffer = null;
       break;
-    case 'split': {
-      const b = body as SplitBody;
-      const sum = b.children.reduce((a, c) => a + c.count.value, 0);
-      const estimated = s.remaining.estimated || b.children.some((c) => c.count.estimated);
-      const left = Math.max(0, s.remaining.value - sum);
-      s.remaining = { value: left, estimated: left === 0 ? false : estimated };
-      s.children = [...s.children, ...b.children.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count }))];
-      s.linkSeqs = [...s.linkSeqs, h.seq];
-      if (left === 0) s.status = 'split';
-      break;
-    }
+    case 'split':
     case 'combined': {
-      const b = body as CombinedBody;
-      const left = Math.max(0, s.remaining.value - b.count.value);
-      s.remaining = {
-        value: left,
-        estimated: left === 0 ? false : s.remaining.estimated || b.count.estimated,
+      const kids = h.kind === 'split' ? facts!.children! : [{ lot: facts!.child!, count: facts!.count! }];
+      const took: BeadCount = {
+        value: kids.reduce((a, c) => a + c.count.value, 0),
+        estimated: kids.some((c) => c.count.estimated),
       };
-      s.children = [...s.children, { lot: b.child, seq: h.seq, count: b.count }];
+      const before = s.taken ?? { value: 0, estimated: false };
+      s.taken = { value: before.value + took.value, estimated: before.estimated || took.estimated };
+      s.remaining = remainingAfter(s, took);
+      s.children = [...s.children, ...kids.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count }))];
       s.linkSeqs = [...s.linkSeqs, h.seq];
-      if (left === 0) s.status = 'combined';
+      if (s.remaining.value === 0) s.status = h.kind;
       break;
     }
     case 'observed':
@@ -507,11 +594,12 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       s.status = 'retired';
       break;
     case 'redacted': {
-      const t = (body as RedactedBody).target;
+      const t = facts!.target!;
       s.redactionSeqs = [...s.redactionSeqs, h.seq];
       s.redactedSeqs = [...s.redactedSeqs, t];
       if (s.opinions.some((o) => o.seq === t))
         s.opinions = s.opinions.map((o) => (o.seq === t ? { ...o, body: null } : o));
+      if (s.exhibits?.some((e) => e.seq === t)) s.exhibits = s.exhibits.filter((e) => e.seq !== t);
       // The same effect as reading the target without its body, so a state never depends on
       // whether the removed body was still at hand.
       if (t === s.soldSeq) s.soldOn = null;
@@ -521,6 +609,25 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       break;
   }
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
+}
+
+/**
+ * Beads left after `took` more were taken (null: after a new description): the count less
+ * everything taken, never below 0; estimated when either is. When the count is not known (a
+ * removed version-1 description) the previous remainder is carried on, marked estimated.
+ */
+function remainingAfter(s: RollState, took: BeadCount | null): BeadCount {
+  const count = countOf(s);
+  if (count === null || s.count === undefined) {
+    const value = Math.max(0, s.remaining.value - (took?.value ?? 0));
+    return {
+      value,
+      estimated: value === 0 ? false : count === null || s.remaining.estimated || !!took?.estimated,
+    };
+  }
+  const taken = takenOf(s);
+  const value = Math.max(0, count.value - taken.value);
+  return { value, estimated: value === 0 ? false : count.estimated || taken.estimated };
 }
 
 /**

@@ -1,5 +1,11 @@
-/** Format version written in every entry header. */
-export const FORMAT_VERSION = 1;
+/** Format version written in every new entry header. */
+export const FORMAT_VERSION = 2;
+
+/** Every entry format version a verifier reads; each keeps its own rules. */
+export const FORMAT_VERSIONS = [1, 2] as const;
+
+/** An entry format version. */
+export type FormatVersion = (typeof FORMAT_VERSIONS)[number];
 
 /** Every kind of entry, in the order the format lists them. */
 export const ENTRY_KINDS = [
@@ -29,6 +35,9 @@ export type EntryKind = (typeof ENTRY_KINDS)[number];
 /** Account id that writes `transfer-lapsed` entries; no person or business ever holds it. */
 export const SYSTEM_ACTOR = 'beadroll:system';
 
+/** Prefix of reserved account ids: never issued to a person or business. */
+export const RESERVED_ACTOR_PREFIX = 'beadroll:';
+
 /** `prev` of every seq-0 entry: 64 zero hex digits. */
 export const GENESIS_PREV = '0'.repeat(64);
 
@@ -41,7 +50,7 @@ export interface ParentRef {
 
 /** Decoded entry header (its canonical JSON string is what the entry hash covers). */
 export interface EntryHeader {
-  v: 1;
+  v: FormatVersion;
   lot: string;
   seq: number;
   kind: EntryKind;
@@ -51,6 +60,43 @@ export interface EntryHeader {
   parents?: ParentRef[];
   body: string;
   sealed?: string;
+  /** Version 2 and later: the rule facts of the entry (see {@link RuleFacts}); absent in version 1. */
+  facts?: RuleFacts;
+}
+
+/**
+ * The facts the roll rules depend on, copied from the body under the same names and written in
+ * the header from version 2 on, so that removing a body never changes what the rules can check.
+ */
+export interface RuleFacts {
+  /** registered, described: the description's count. split/combined children carry their own. */
+  count?: BeadCount;
+  /** registered, described: the description's listing. */
+  listed?: boolean;
+  /** exhibit-added: SHA-256 of a public exhibit's original. */
+  original?: string;
+  /** exhibit-added: the exhibit is a sealed field. */
+  sealedOnly?: true;
+  /** opinion: the cited exhibits. */
+  exhibits?: string[];
+  /** opinion-withdrawn. */
+  opinionSeq?: number;
+  /** transfer-offered. */
+  recipient?: string;
+  /** transfer-accepted, -declined, -withdrawn, -lapsed. */
+  offerSeq?: number;
+  /** split. */
+  children?: SplitChild[];
+  /** combined. */
+  child?: string;
+  /** redacted. */
+  target?: number;
+  /** note. */
+  ref?: number;
+  /** described, observed: seq of the earlier entry the correction names. */
+  corrects?: number;
+  /** sale-voided: seq of the sale it voids. */
+  saleSeq?: number;
 }
 
 /** A count of beads: exact, or an estimate marked as such. */
@@ -104,6 +150,8 @@ export interface Observations {
   holeShape?: 'irregular' | 'regular';
   windingMarks?: 'seen' | 'not-seen';
   beadShape?: 'irregular' | 'uniform';
+  /** A seam line where the two halves of a mould met. */
+  mouldSeam?: 'seen' | 'not-seen';
   surface?: 'glossy' | 'satin' | 'matte' | 'worn';
   foil?: 'none' | 'intact' | 'worn';
   uvA?: 'not-tested' | 'none' | 'green-glow' | 'other';

@@ -5,6 +5,7 @@ import {
   CONFIDENCES,
   DECORATIONS,
   ENTRY_KINDS,
+  FORMAT_VERSION,
   EXHIBIT_KINDS,
   LOT_FORMS,
   ORIGINS,
@@ -13,6 +14,7 @@ import {
   SEALED_FIELD_NAMES,
   TECHNIQUES,
   type EntryKind,
+  type FormatVersion,
   type SealedFieldName,
 } from './types.js';
 
@@ -73,6 +75,8 @@ type Obj = Record<string, unknown>;
 
 class Checker {
   issues: FieldIssue[] = [];
+  /** Format version whose body shapes apply. */
+  constructor(readonly version: FormatVersion = FORMAT_VERSION) {}
   fail(path: string, message: string): void {
     this.issues.push({ path, message });
   }
@@ -279,13 +283,24 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
       o.observations,
       p,
       [],
-      ['hole', 'holeShape', 'windingMarks', 'beadShape', 'surface', 'foil', 'uvA', 'note'],
+      [
+        'hole',
+        'holeShape',
+        'windingMarks',
+        'beadShape',
+        ...(c.version >= 2 ? ['mouldSeam'] : []),
+        'surface',
+        'foil',
+        'uvA',
+        'note',
+      ],
     );
     if (!ob) return;
     c.oneOf(ob, 'hole', p, ['clean', 'powder', 'green-traces', 'not-seen'], true);
     c.oneOf(ob, 'holeShape', p, ['irregular', 'regular'], true);
     c.oneOf(ob, 'windingMarks', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'beadShape', p, ['irregular', 'uniform'], true);
+    c.oneOf(ob, 'mouldSeam', p, ['seen', 'not-seen'], true);
     c.oneOf(ob, 'surface', p, ['glossy', 'satin', 'matte', 'worn'], true);
     c.oneOf(ob, 'foil', p, ['none', 'intact', 'worn'], true);
     c.oneOf(ob, 'uvA', p, ['not-tested', 'none', 'green-glow', 'other'], true);
@@ -422,11 +437,16 @@ function answer(c: Checker, b: unknown): void {
 }
 
 /**
- * Checks a decoded body (nonce included) against the shape its kind requires. Returns every
- * problem found (empty when valid); never throws. Precondition: `kind` is an {@link EntryKind}.
+ * Checks a decoded body (nonce included) against the shape its kind requires in format
+ * `version` (default {@link FORMAT_VERSION}). Returns every problem found (empty when valid);
+ * never throws. Precondition: `kind` is an {@link EntryKind}.
  */
-export function bodyIssues(kind: EntryKind, body: unknown): FieldIssue[] {
-  const c = new Checker();
+export function bodyIssues(
+  kind: EntryKind,
+  body: unknown,
+  version: FormatVersion = FORMAT_VERSION,
+): FieldIssue[] {
+  const c = new Checker(version);
   if (!ENTRY_KINDS.includes(kind)) return [{ path: 'kind', message: 'is not a known kind' }];
   bodyCheckers[kind](c, body);
   if (
@@ -490,4 +510,117 @@ export function sealedValueIssues(name: string, value: unknown): FieldIssue[] {
     path: i.path === 'v' || i.path === '' ? path : `${path}.${i.path.replace(/^v\.?/, '')}`,
     message: i.message,
   }));
+}
+
+/**
+ * Checks the `facts` member of a version-2 header against the shape its kind requires (see
+ * the format's rule-fact table). Returns every problem (empty when valid); never throws.
+ * Precondition: `kind` is an {@link EntryKind}.
+ */
+export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
+  const c = new Checker();
+  const p = 'facts';
+  const exact = (required: string[], optional: string[] = []) => c.obj(facts, p, required, optional);
+  switch (kind) {
+    case 'registered':
+    case 'described': {
+      const o = exact(['count', 'listed'], kind === 'described' ? ['corrects'] : []);
+      if (!o) break;
+      if ('count' in o) c.count(o.count, join(p, 'count'));
+      c.bool(o, 'listed', p);
+      c.int(o, 'corrects', p, 0, SEQ_MAX, true);
+      break;
+    }
+    case 'exhibit-added': {
+      const o = c.obj(facts, p, [], ['original', 'sealedOnly']);
+      if (!o) break;
+      if ('original' in o === 'sealedOnly' in o) c.fail(p, 'must hold exactly one of original, sealedOnly');
+      c.pattern(o, 'original', p, isHex64, '64 lower-case hex digits', true);
+      if ('sealedOnly' in o && o.sealedOnly !== true) c.fail(join(p, 'sealedOnly'), 'must be true');
+      break;
+    }
+    case 'opinion': {
+      const o = exact(['exhibits']);
+      if (o)
+        c.list(
+          o,
+          'exhibits',
+          p,
+          (x, q) => (isHex64(x) ? undefined : c.fail(q, 'must be an exhibit sha256')),
+          LIMITS.listItems,
+        );
+      break;
+    }
+    case 'opinion-withdrawn': {
+      const o = exact(['opinionSeq']);
+      if (o) c.int(o, 'opinionSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'transfer-offered': {
+      const o = exact(['recipient']);
+      if (o) c.pattern(o, 'recipient', p, isActorId, 'an account id');
+      break;
+    }
+    case 'transfer-accepted':
+    case 'transfer-declined':
+    case 'transfer-withdrawn':
+    case 'transfer-lapsed': {
+      const o = exact(['offerSeq']);
+      if (o) c.int(o, 'offerSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'split': {
+      const o = exact(['children']);
+      if (!o) break;
+      c.list(
+        o,
+        'children',
+        p,
+        (x, q) => {
+          const ch = c.obj(x, q, ['lot', 'count']);
+          if (!ch) return;
+          c.pattern(ch, 'lot', q, isCanonicalLotCode, 'a canonical lot code');
+          if ('count' in ch) c.count(ch.count, join(q, 'count'), 1);
+        },
+        LIMITS.children,
+      );
+      if (Array.isArray(o.children) && o.children.length === 0)
+        c.fail(join(p, 'children'), 'must name at least one child');
+      break;
+    }
+    case 'combined': {
+      const o = exact(['child', 'count']);
+      if (!o) break;
+      c.pattern(o, 'child', p, isCanonicalLotCode, 'a canonical lot code');
+      if ('count' in o) c.count(o.count, join(p, 'count'), 1);
+      break;
+    }
+    case 'redacted': {
+      const o = exact(['target']);
+      if (o) c.int(o, 'target', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'note': {
+      const o = exact([], ['ref']);
+      if (o) c.int(o, 'ref', p, 0, SEQ_MAX, true);
+      break;
+    }
+    case 'observed': {
+      const o = exact([], ['corrects']);
+      if (o) c.int(o, 'corrects', p, 0, SEQ_MAX, true);
+      break;
+    }
+    case 'sale-voided': {
+      const o = exact(['saleSeq']);
+      if (o) c.int(o, 'saleSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'sold':
+    case 'retired':
+      exact([]);
+      break;
+    default:
+      c.fail('kind', 'is not a known kind');
+  }
+  return c.issues;
 }

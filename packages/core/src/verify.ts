@@ -1,8 +1,9 @@
-import { parseCanonical } from './canonical.js';
+import { canonicalise, parseCanonical } from './canonical.js';
+import { factsOf } from './facts.js';
 import { decodeHeader, isHeaderProblem, NEVER_REDACTED, type ReasonCode, type StoredEntry } from './entry.js';
 import { bodyDigest, entryHash } from './hash.js';
 import { checkTransition, reduceEntry, type RollHead, type RollState } from './rules.js';
-import { GENESIS_PREV, type AnyBody, type EntryHeader, type RedactedBody } from './types.js';
+import { GENESIS_PREV, type AnyBody, type EntryHeader } from './types.js';
 import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
 
@@ -15,13 +16,24 @@ export interface VerifyFailure {
   message: string;
 }
 
-/** An unbroken roll and its derived state. */
+/** A rule a version-1 entry could not be checked against, because a removed body held its fact. */
+export interface UncheckedRule {
+  seq: number;
+  message: string;
+}
+
+/**
+ * An unbroken roll and its derived state. `unchecked` is empty for a roll that is fully
+ * checked; otherwise the roll is "not fully checkable after a removal" (version 1 only) and
+ * each item names an entry and the rule that could not be applied to it.
+ */
 export interface VerifySuccess {
   ok: true;
   lot: string;
   entries: number;
   head: RollHead;
   state: RollState;
+  unchecked: UncheckedRule[];
 }
 
 /** Outcome of verifying a roll. */
@@ -45,6 +57,7 @@ export class RollVerifier {
   private state: RollState | null = null;
   private failure: VerifyFailure | null = null;
   private pending = new Set<number>();
+  private unchecked: UncheckedRule[] = [];
   private count = 0;
   /** The last entry accepted, decoded; valid until the next `push`. */
   last: VerifiedEntry | null = null;
@@ -90,6 +103,8 @@ export class RollVerifier {
       return this.fail(h.seq, 'bad-prev', 'prev does not name the previous entry');
     if (prev && h.time < prev.time)
       return this.fail(h.seq, 'bad-time', 'time is earlier than the previous entry');
+    if (this.state && h.v < (this.state.version ?? 1))
+      return this.fail(h.seq, 'bad-header', `version ${h.v} after an entry of version ${this.state.version}`);
     if (h.parents) {
       if (h.seq !== 0 || h.kind !== 'registered')
         return this.fail(h.seq, 'bad-parent', 'only a registered entry names parents');
@@ -110,20 +125,30 @@ export class RollVerifier {
       }
       if (bodyDigest(entry.body) !== h.body)
         return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
-      const issues = bodyIssues(h.kind, body);
+      const issues = bodyIssues(h.kind, body, h.v);
       // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
-      if (issues.length === 0 && (h.v as number) >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
+      if (issues.length === 0 && h.v >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
+      if (h.facts && canonicalise(factsOf(h.kind, body)) !== canonicalise(h.facts))
+        return this.fail(h.seq, 'bad-facts', 'the header facts differ from the body');
+      if ('sealedOnly' in body && h.sealed === undefined)
+        return this.fail(h.seq, 'bad-body', 'a sealed-only exhibit needs the header to commit sealed fields');
     }
+    if (h.facts?.sealedOnly && h.sealed === undefined)
+      return this.fail(h.seq, 'bad-facts', 'a sealed-only exhibit needs the header to commit sealed fields');
     const t = checkTransition(this.state, {
       kind: h.kind,
       actor: h.actor,
       body,
+      facts: h.facts,
       parents: h.parents,
+      version: h.v,
       time: h.time,
     });
     if (!t.ok) return this.fail(h.seq, t.code, t.message);
-    if (h.kind === 'redacted') this.pending.delete((body as RedactedBody).target);
+    for (const message of t.unchecked ?? []) this.unchecked.push({ seq: h.seq, message });
+    if (h.kind === 'redacted')
+      this.pending.delete(h.facts ? h.facts.target! : (body as { target: number }).target);
     this.state = reduceEntry(this.state, { header: h, hash: entry.hash, body });
     this.last = { hash: entry.hash, header: h, body };
     this.count++;
@@ -138,7 +163,14 @@ export class RollVerifier {
       const seq = Math.min(...this.pending);
       return this.fail(seq, 'missing-body', 'the body is missing and no redacted entry names it');
     }
-    return { ok: true, lot: this.state.lot, entries: this.count, head: this.state.head, state: this.state };
+    return {
+      ok: true,
+      lot: this.state.lot,
+      entries: this.count,
+      head: this.state.head,
+      state: this.state,
+      unchecked: [...this.unchecked],
+    };
   }
 }
 

@@ -90,48 +90,73 @@ describe('the committed example bundle', () => {
 describe('bundle shape', () => {
   const good = createBundle([]);
   it('accepts an empty bundle', () => expect(verifyBundle(parseBundle(good)).ok).toBe(true));
-  const bad: Array<[string, unknown, string]> = [
+  it('reads bundle versions 1 and 2', () => {
+    expect(good.version).toBe(2);
+    expect(verifyBundle(parseBundle({ ...good, version: 1 })).ok).toBe(true);
+  });
+  const unreadable: Array<[string, unknown, string]> = [
     ['not an object', [], 'not-a-bundle'],
     ['wrong format', { ...good, format: 'other' }, 'not-a-bundle'],
-    ['unknown version', { ...good, version: 2 }, 'unknown-version'],
+    ['unknown version', { ...good, version: 3 }, 'unknown-version'],
     ['unknown member', { ...good, extra: 1 }, 'not-a-bundle'],
     ['rolls not a list', { ...good, rolls: {} }, 'not-a-bundle'],
-    ['bad lot code', { ...good, rolls: [{ lot: 'nope', scope: 'full', entries: [] }] }, 'not-a-bundle'],
-    [
-      'entry with wrong types',
-      {
-        ...good,
-        rolls: [
-          {
-            lot: '7K2QM9XAT',
-            scope: 'full',
-            entries: [{ hash: 1, header: '{}', body: null, logIndex: null }],
-          },
-        ],
-      },
-      'not-a-bundle',
-    ],
-    [
-      'bad log index',
-      {
-        ...good,
-        rolls: [
-          {
-            lot: '7K2QM9XAT',
-            scope: 'full',
-            entries: [{ hash: 'a', header: '{}', body: null, logIndex: -1 }],
-          },
-        ],
-      },
-      'not-a-bundle',
-    ],
+    ['checkpoints not a list', { ...good, checkpoints: null }, 'not-a-bundle'],
   ];
-  for (const [desc, value, code] of bad) {
+  for (const [desc, value, code] of unreadable) {
     it(`refuses ${desc} with a typed error`, () => {
       expect(() => parseBundle(value)).toThrow(BundleError);
       expect(() => parseBundle(value)).toThrow(expect.objectContaining({ code }));
     });
   }
+  const entry = (over: Record<string, unknown>) => ({
+    hash: 'a',
+    header: '{}',
+    body: null,
+    logIndex: null,
+    ...over,
+  });
+  const brokenRolls: Array<[string, unknown, string]> = [
+    ['a roll that is not an object', 'x', 'bad-roll'],
+    ['a roll with an unknown member', { lot: '7K2QM9XAT', scope: 'full', entries: [], x: 1 }, 'bad-roll'],
+    ['an unknown scope', { lot: '7K2QM9XAT', scope: 'part', entries: [] }, 'bad-roll'],
+    ['a bad lot code', { lot: 'nope', scope: 'full', entries: [] }, 'bad-lot-code'],
+    [
+      'an entry with wrong types',
+      { lot: '7K2QM9XAT', scope: 'full', entries: [entry({ hash: 1 })] },
+      'bad-entry',
+    ],
+    [
+      'an entry with an unknown member',
+      { lot: '7K2QM9XAT', scope: 'full', entries: [entry({ x: 1 })] },
+      'bad-entry',
+    ],
+    [
+      'a bad log index',
+      { lot: '7K2QM9XAT', scope: 'full', entries: [entry({ logIndex: -1 })] },
+      'bad-log-index',
+    ],
+    [
+      'a fractional log index',
+      { lot: '7K2QM9XAT', scope: 'full', entries: [entry({ logIndex: 1.5 })] },
+      'bad-log-index',
+    ],
+  ];
+  for (const [desc, roll, reason] of brokenRolls) {
+    it(`reads a bundle with ${desc} and reports that roll broken (${reason})`, () => {
+      const r = verifyBundle(parseBundle({ ...good, rolls: [roll] }));
+      expect(r.ok).toBe(false);
+      expect(r.failures).toEqual([expect.objectContaining({ reason })]);
+    });
+  }
+  it('reports every copy of a lot that appears twice', () => {
+    const b = clone(parseBundleText(readFileSync(examplePath, 'utf8')));
+    b.rolls.push(clone(b).rolls[0]!);
+    const r = verifyBundle(b);
+    expect(r.failures.filter((f) => f.reason === 'duplicate-lot').map((f) => f.lot)).toEqual([
+      b.rolls[0]!.lot,
+      b.rolls[0]!.lot,
+    ]);
+  });
   it('refuses malformed JSON and oversize text', () => {
     expect(() => parseBundleText('{"format":')).toThrow(expect.objectContaining({ code: 'not-json' }));
     expect(() => parseBundleText(JSON.stringify(good), 10)).toThrow(
@@ -140,7 +165,7 @@ describe('bundle shape', () => {
   });
   it('reports broken entries instead of throwing', () => {
     const b = clone(parseBundleText(readFileSync(examplePath, 'utf8')));
-    b.rolls[0]!.entries[2]!.header = '{"v":1,"seq":9007199254740993}';
+    b.rolls[0]!.entries[2]!.header = '{"v":2,"seq":9007199254740993}';
     const r = verifyBundle(b);
     expect(r.failures[0]).toMatchObject({ lot: b.rolls[0]!.lot, seq: 2, reason: 'non-canonical' });
   });

@@ -66,6 +66,47 @@ describe('npm run verify', () => {
     expect(r.code).toBe(1);
     expect(r.out).toContain('non-canonical');
   });
+  it('exits 1, naming the lot and the reason, on a readable bundle with a malformed roll', () => {
+    const cases: Array<[string, (b: { rolls: Array<Record<string, unknown>> }) => void, string]> = [
+      ['duplicate lot', (b) => b.rolls.push({ ...b.rolls[0]! }), 'duplicate-lot'],
+      ['bad lot code', (b) => (b.rolls[0]!.lot = 'NOT-A-LOT'), 'bad-lot-code'],
+      [
+        'bad log index',
+        (b) => ((b.rolls[0]!.entries as Array<Record<string, unknown>>)[0]!.logIndex = -3),
+        'bad-log-index',
+      ],
+      ['bad roll', (b) => (b.rolls[0]!.scope = 'some'), 'bad-roll'],
+      ['bad entry', (b) => ((b.rolls[0]!.entries as unknown[])[0] = 'x'), 'bad-entry'],
+    ];
+    for (const [desc, mutate, reason] of cases) {
+      const b = JSON.parse(example);
+      mutate(b);
+      const r = run(file(desc.replace(/ /g, '-') + '.json', JSON.stringify(b)));
+      expect(r.code, desc).toBe(1);
+      expect(r.out).toContain(`(${reason})`);
+    }
+  });
+  it('exits 2 on bytes that are not UTF-8, or a byte-order mark', () => {
+    const p = join(dir, 'latin1.json');
+    writeFileSync(
+      p,
+      Buffer.concat([
+        Buffer.from(example.slice(0, 40)),
+        Buffer.from([0xe9, 0xff]),
+        Buffer.from(example.slice(40)),
+      ]),
+    );
+    expect(run(p).code).toBe(2);
+    const q = join(dir, 'bom.json');
+    writeFileSync(q, Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(example)]));
+    expect(run(q).code).toBe(2);
+  });
+  it('exits 0 on a version-1 bundle and says which rolls are not fully checkable after a removal', () => {
+    const v1 = readFileSync(new URL('./fixtures/bundle-v1.json', import.meta.url), 'utf8');
+    const r = run(file('v1.json', v1));
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('not fully checkable after a removal');
+  });
   it('exits 2 on a file over the size limit (checked before reading), a missing file, or no argument', () => {
     const p = file('big.json', example);
     const r = run(p, '--max-bytes', '100');

@@ -7,6 +7,7 @@ import {
   type BodyFields,
   type BuiltEntry,
   type EntryKind,
+  type FormatVersion,
   type LotDescription,
   type RandomSource,
   type RollState,
@@ -41,6 +42,7 @@ export class RollBuilder {
   constructor(
     readonly lot = LOT,
     readonly random: RandomSource = seededRandom('roll ' + lot),
+    readonly version?: FormatVersion,
   ) {}
 
   time(): string {
@@ -56,25 +58,35 @@ export class RollBuilder {
     extra: {
       sealed?: SealedValues;
       parents?: { lot: string; seq: number; hash: string }[];
+      /** Build without asking the rules (and without folding it into the state). */
       unchecked?: boolean;
       /** The entry's time instead of the next minute. */
       time?: string;
+      /** With `unchecked`: fold it into the state anyway, as a careless writer would. */
+      force?: boolean;
     } = {},
   ): BuiltEntry | { refused: string } {
     const time = extra.time ?? this.time();
     if (!extra.unchecked) {
-      const t = checkTransition(this.state, { kind, actor, body, parents: extra.parents, time });
+      const t = checkTransition(this.state, {
+        kind,
+        actor,
+        body,
+        parents: extra.parents,
+        version: this.version,
+        time,
+      });
       if (!t.ok) return { refused: t.code };
     }
     const head = this.built.length ? headOf(this.built.at(-1)!) : null;
     const b = buildEntry(
       head,
       { lot: this.lot, kind, actor, time, body, sealed: extra.sealed, parents: extra.parents },
-      { random: this.random },
+      { random: this.random, version: this.version },
     );
     this.built.push(b);
     this.stored.push(b.stored);
-    if (!extra.unchecked)
+    if (!extra.unchecked || extra.force)
       this.state = reduceEntry(this.state, { header: b.header, hash: b.stored.hash, body: b.body });
     return b;
   }
@@ -114,8 +126,8 @@ export function opinion(
 }
 
 /** A generated, valid roll driven by a list of choices (for property tests). */
-export function generatedRoll(choices: number[], seed = 'gen'): RollBuilder {
-  const r = new RollBuilder(LOT, seededRandom(seed)).register();
+export function generatedRoll(choices: number[], seed = 'gen', version?: FormatVersion): RollBuilder {
+  const r = new RollBuilder(LOT, seededRandom(seed), version).register();
   const actors = [HOLDER, OTHER, THIRD];
   for (const c of choices) {
     const s = r.state!;

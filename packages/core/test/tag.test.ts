@@ -75,7 +75,7 @@ describe('QR capacity table (ISO/IEC 18004, alphanumeric mode)', () => {
 
   it('knows the 45 alphanumeric characters and nothing else', () => {
     expect(QR_ALPHANUMERIC_CHARSET).toBe(capacity.alphanumericCharset);
-    expect(isQrAlphanumeric('HTTPS://A.B:1/L/$%*+- ')).toBe(true);
+    expect(isQrAlphanumeric('HTTPS://A.EXAMPLE:1/L/$%*+- ')).toBe(true);
     expect(isQrAlphanumeric('https://a')).toBe(false);
     expect(isQrAlphanumeric('A_B')).toBe(false);
   });
@@ -158,7 +158,7 @@ describe('tag payload against the qrcode encoder', () => {
   });
 
   it('puts a 16-character host in a version 2 symbol at L, and never falls back to byte mode', () => {
-    const text = tagPayload('tags.beads.co.uk', '7K2QM9XAT', 'ABCDEFGHJK');
+    const text = tagPayload('tag.bead.example', '7K2QM9XAT', 'ABCDEFGHJK');
     expect(text.length).toBe(47);
     expect(QRCode.create([{ data: text, mode: 'alphanumeric' }], { errorCorrectionLevel: 'L' }).version).toBe(
       2,

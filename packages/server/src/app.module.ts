@@ -21,6 +21,8 @@ import { OpinionsModule } from './opinions/opinions.module';
 import { LineageModule } from './lineage/lineage.module';
 import { ExhibitsModule } from './exhibits/exhibits.module';
 import { TagsModule } from './tags/tags.module';
+import { IdempotencyModule } from './idempotency/idempotency.module';
+import { StandbyModule } from './standby/standby.module';
 
 @Module({
   imports: [
@@ -30,6 +32,8 @@ import { TagsModule } from './tags/tags.module';
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
     }),
+    StandbyModule,
+    IdempotencyModule,
     HealthModule,
     MailModule,
     AuthModule,

@@ -8,6 +8,7 @@ import express, { type NextFunction, type Request, type Response } from 'express
 import helmet from 'helmet';
 import type { AppConfig } from './config/app-config';
 import { APP_CONFIG } from './config/config.module';
+import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 
@@ -41,11 +42,18 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     },
     crossOriginEmbedderPolicy: false,
   });
+  // Which server process answered: with several behind a load balancer, logs and people can tell.
+  app.use((_req: Request, res: Response, next: NextFunction) => {
+    res.setHeader('Beadroll-Instance', config.instanceName);
+    next();
+  });
   app.use(publicLotFastPath(app, securityHeaders));
   app.use(securityHeaders);
   app.use(cookieParser());
+  const limits = { maxBytes: config.requests.maxJsonBytes, maxDepth: config.requests.maxDepth };
+  for (const parser of bodyParsers(limits)) app.use(parser);
   app.setGlobalPrefix('api', { exclude: UNPREFIXED });
-  app.useGlobalPipes(createValidationPipe());
+  app.useGlobalPipes(new InputSafetyPipe(limits.maxDepth), createValidationPipe());
 
   const openApi = new DocumentBuilder()
     .setTitle('Beadroll API')

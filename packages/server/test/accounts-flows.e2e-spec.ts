@@ -4,7 +4,7 @@ import { createAccount, signIn } from './support/accounts';
 import { lastMailTo, linkIn } from './support/mail';
 import { createTestApp, type TestApp } from './support/test-app';
 
-const BASE = 'http://beadroll.test';
+const BASE = 'http://beadroll.example';
 const W = { 'X-Beadroll-Request': '1' };
 
 function applicant(n: string) {
@@ -13,9 +13,9 @@ function applicant(n: string) {
     displayName: `Dana Vetro ${n}`,
     handle: `dana-vetro-${n}`,
     business: 'Vetro Trade Beads',
-    town: 'Marrowby',
-    country: 'Norland',
-    email: `dana.${n}@example.test`,
+    town: 'Zanfirico Cross',
+    country: 'Punty Reach',
+    email: `dana.${n}@example.invalid`,
     password: 'a long enough passphrase',
   };
 }
@@ -71,7 +71,11 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
 
     const queue = await registrar.agent.get('/api/registry/accounts?status=pending').expect(200);
     const row = queue.body.items.find((i: { handle: string }) => i.handle === a.handle);
-    expect(row).toMatchObject({ business: 'Vetro Trade Beads', town: 'Marrowby', country: 'Norland' });
+    expect(row).toMatchObject({
+      business: 'Vetro Trade Beads',
+      town: 'Zanfirico Cross',
+      country: 'Punty Reach',
+    });
     await registrar.agent.post(`/api/registry/accounts/${row.id}/approve`).set(W).expect(200);
     expect(lastMailTo(t, a.email).subject).toMatch(/verified/i);
 
@@ -81,7 +85,7 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     expect(Object.keys(card.body).sort()).toEqual(
       ['business', 'country', 'displayName', 'handle', 'id', 'status', 'town', 'verifiedSince'].sort(),
     );
-    expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Marrowby' });
+    expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Zanfirico Cross' });
   });
 
   it('a second sign-up with a known address answers the same and mails the owner a notice', async () => {
@@ -137,7 +141,7 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     expect(r5.body.error.fields[0].field).toBe('handle');
     // Nothing was created by any of them.
     for (const n of ['four', 'five', 'six', 'seven']) {
-      expect(t.app.get(FakeSmtp).to(`dana.${n}@example.test`)).toEqual([]);
+      expect(t.app.get(FakeSmtp).to(`dana.${n}@example.invalid`)).toEqual([]);
     }
   });
 
@@ -147,7 +151,7 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     const unknown = await http()
       .post('/api/auth/forgot-password')
       .set(W)
-      .send({ email: 'nobody@example.test' })
+      .send({ email: 'nobody@example.invalid' })
       .expect(202);
     expect(unknown.body.message).toMatch(/check your e-mail/i);
     const token = linkIn(lastMailTo(t, a.email), `${BASE}/reset-password`).searchParams.get('token')!;

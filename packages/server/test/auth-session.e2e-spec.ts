@@ -45,7 +45,7 @@ describe('sign-in, the global guard and CSRF', () => {
     const unknown = await request(t.app.getHttpServer())
       .post('/api/auth/sign-in')
       .set('X-Beadroll-Request', '1')
-      .send({ email: 'nobody@example.test', password: 'not the password' })
+      .send({ email: 'nobody@example.invalid', password: 'not the password' })
       .expect(401);
     expect(wrong.body.error.code).toBe('invalid_credentials');
     expect(unknown.body.error.message).toBe(wrong.body.error.message);
@@ -54,7 +54,7 @@ describe('sign-in, the global guard and CSRF', () => {
   it('refuses a write without the CSRF header with 403 csrf, before anything else', async () => {
     const res = await request(t.app.getHttpServer())
       .post('/api/auth/sign-in')
-      .send({ email: 'x@example.test', password: 'y' })
+      .send({ email: 'x@example.invalid', password: 'y' })
       .expect(403);
     expect(res.body.error.code).toBe('csrf');
     const wrongValue = await request(t.app.getHttpServer())

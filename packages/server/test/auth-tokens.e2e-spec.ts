@@ -137,7 +137,7 @@ describe('session tokens: tampering, expiry, rotation and reuse', () => {
 
   it('hashes at the production scrypt cost (N=2^17, r=8, p=1) and verifies the result', async () => {
     const production = loadConfig({});
-    expect(production.scrypt).toEqual({ cost: 131072, blockSize: 8, parallelization: 1 });
+    expect(production.scrypt).toEqual({ cost: 131072, blockSize: 8, parallelization: 1, concurrency: 1 });
     const service = new PasswordsService(production);
     const hash = await service.hash('correct horse battery staple');
     expect(hash).toMatch(/^scrypt\$131072\$8\$1\$/);
@@ -169,7 +169,7 @@ describe('rate limits and the development mailbox', () => {
       request(t.app.getHttpServer())
         .post('/api/auth/sign-in')
         .set(W)
-        .send({ email: 'who@example.test', password: 'guess guess guess' });
+        .send({ email: 'who@example.invalid', password: 'guess guess guess' });
     for (let i = 0; i < 3; i++) expect((await attempt()).status).toBe(401);
     const locked = await attempt();
     expect(locked.status).toBe(429);

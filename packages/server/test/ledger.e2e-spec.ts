@@ -398,7 +398,8 @@ describe('the ledger on PostgreSQL', () => {
         `UPDATE entry_bodies SET body = replace(body, '"powder"', '"clean"') WHERE entry_id = $1`,
         [await entryId(made[0]!, 2)],
       );
-      // 2: a header changed (its stored hash no longer matches).
+      // 2: a header changed: its kind no longer fits its rule facts, which a verifier reads
+      // before it recomputes the hash (the stored hash no longer matches either).
       await tamper(`UPDATE entries SET header = replace(header, '"observed"', '"described"') WHERE id = $1`, [
         await entryId(made[1]!, 1),
       ]);
@@ -407,7 +408,7 @@ describe('the ledger on PostgreSQL', () => {
 
       const expected = [
         { lot: made[0], seq: 2, reason: 'bad-body-digest' },
-        { lot: made[1], seq: 1, reason: 'bad-hash' },
+        { lot: made[1], seq: 1, reason: 'bad-facts' },
         { lot: made[2], seq: 1, reason: 'missing-body' },
       ];
       for (const e of expected) {

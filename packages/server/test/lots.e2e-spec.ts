@@ -65,7 +65,7 @@ describe('lots over HTTP', () => {
     await ana.agent
       .post(`/api/lots/${lot.code}/observations`)
       .set(W)
-      .send({ observations: { windingMarks: 'seen', foil: 'none' } })
+      .send({ observations: { windingMarks: 'seen', mouldSeam: 'not-seen', foil: 'none' } })
       .expect(201);
     const listed = await ana.agent
       .put(`/api/lots/${lot.code}/listing`)
@@ -79,7 +79,7 @@ describe('lots over HTTP', () => {
       storageLocation: 'tray 3',
       acquisitionCost: { amount: 3200, currency: 'EUR' },
     });
-    expect(detail.body.observations).toEqual({ windingMarks: 'seen', foil: 'none' });
+    expect(detail.body.observations).toEqual({ windingMarks: 'seen', mouldSeam: 'not-seen', foil: 'none' });
     const seenByBen = await ben.agent.get(`/api/lots/${lot.code}`).expect(200);
     expect(seenByBen.body.sealed).toEqual({});
     expect(JSON.stringify(seenByBen.body)).not.toContain('tray 3');

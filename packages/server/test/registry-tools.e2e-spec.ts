@@ -218,7 +218,7 @@ describe("the registrar's tools", () => {
   describe('reports', () => {
     it('files a report into the queue and tells the holder without the reporter’s address', async () => {
       const code = await newLot();
-      const reporter = `buyer-${randomBytes(3).toString('hex')}@example.test`;
+      const reporter = `buyer-${randomBytes(3).toString('hex')}@example.invalid`;
       const res = await http()
         .post(`/api/public/lots/${code}/reports`)
         .set(...CSRF)

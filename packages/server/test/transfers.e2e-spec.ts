@@ -11,7 +11,7 @@ import { lastMailTo, linkIn } from './support/mail';
 import { createTestApp, type TestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
-const BASE = 'http://beadroll.test';
+const BASE = 'http://beadroll.example';
 
 describe('transfers between dealers and sales to private buyers', () => {
   let t: TestApp;
@@ -105,7 +105,7 @@ describe('transfers between dealers and sales to private buyers', () => {
       .send({
         lot: code,
         recipient: b.id,
-        note: 'as agreed at the Saltmere fair',
+        note: 'as agreed at the Murrine Vale fair',
         price: { amount: 12500, currency: 'EUR' },
       });
     expect(res.status).toBe(201);
@@ -202,8 +202,8 @@ describe('transfers between dealers and sales to private buyers', () => {
         lot: code,
         date: '2026-05-16',
         price: { amount: 19900, currency: 'EUR' },
-        buyerNote: 'collector from Brindlecombe, wants first refusal on roses',
-        buyerEmail: 'buyer@example.test',
+        buyerNote: 'collector from Aventurine Combe, wants first refusal on roses',
+        buyerEmail: 'buyer@example.invalid',
       });
     expect(sale.status).toBe(201);
     expect(sale.body).toMatchObject({
@@ -212,11 +212,11 @@ describe('transfers between dealers and sales to private buyers', () => {
       receiptSent: true,
       listed: true,
     });
-    const receipt = lastMailTo(t, 'buyer@example.test');
+    const receipt = lastMailTo(t, 'buyer@example.invalid');
     expect(linkIn(receipt, `${BASE}/l/`).pathname).toBe(`/l/${code}`);
     expect(receipt.text).not.toMatch(/19900|199[.,]00/);
     const entries = await roll(code);
-    expect(JSON.stringify(entries)).not.toContain('buyer@example.test');
+    expect(JSON.stringify(entries)).not.toContain('buyer@example.invalid');
     expect(JSON.stringify(entries)).not.toContain('first refusal');
     const sales = await b.agent.get('/api/transfers/sales');
     expect(sales.body.items[0]).toMatchObject({ lot: { code }, buyerNote: expect.stringContaining('roses') });
@@ -289,7 +289,7 @@ describe('transfers between dealers and sales to private buyers', () => {
     await bad(a, { lot: code, recipient: assessor.id }, 400, 'recipient');
     await bad(a, { lot: code, email: suspended.email }, 400, 'email');
     await bad(a, { lot: code }, 400, 'recipient');
-    await bad(a, { lot: code, recipient: b.id, email: 'x@example.test' }, 400, 'recipient');
+    await bad(a, { lot: code, recipient: b.id, email: 'x@example.invalid' }, 400, 'recipient');
     await bad(a, { lot: 'not-a-code', recipient: b.id }, 400, 'lot');
     await bad(a, { lot: code, recipient: b.id, price: { amount: -1, currency: 'EUR' } }, 400, 'price.amount');
     await bad(
@@ -334,7 +334,7 @@ describe('transfers between dealers and sales to private buyers', () => {
     await badSale({ lot: code, date: '2026-05-16' }, 400, 'price');
     await badSale({ lot: code, date: '2026-05-16', price, buyerEmail: 'nope' }, 400, 'buyerEmail');
     await badSale(
-      { lot: unlisted, date: '2026-05-16', price, buyerEmail: 'b@example.test' },
+      { lot: unlisted, date: '2026-05-16', price, buyerEmail: 'b@example.invalid' },
       400,
       'buyerEmail',
     );
@@ -354,17 +354,17 @@ describe('transfers between dealers and sales to private buyers', () => {
     const res = await a.agent
       .post('/api/transfers/offers')
       .set(W)
-      .send({ lot: code, email: 'Newcomer-1@Example.test', price: { amount: 3000, currency: 'SEK' } });
+      .send({ lot: code, email: 'Newcomer-1@Example.invalid', price: { amount: 3000, currency: 'SEK' } });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ made: 'invitation', invitation: { status: 'waiting' } });
-    const invite = lastMailTo(t, 'newcomer-1@example.test');
-    expect(linkIn(invite, `${BASE}/sign-up`).searchParams.get('email')).toBe('Newcomer-1@Example.test');
+    const invite = lastMailTo(t, 'newcomer-1@example.invalid');
+    expect(linkIn(invite, `${BASE}/sign-up`).searchParams.get('email')).toBe('Newcomer-1@Example.invalid');
     expect(invite.text).not.toContain('3000');
     expect(await headSeq(code)).toBe(0);
     const dup = await a.agent
       .post('/api/transfers/offers')
       .set(W)
-      .send({ lot: code, email: 'newcomer-1@example.test' });
+      .send({ lot: code, email: 'newcomer-1@example.invalid' });
     expect(dup.status).toBe(409);
 
     // They apply (an unverified account with that address), then the registrar verifies them.
@@ -375,7 +375,7 @@ describe('transfers between dealers and sales to private buyers', () => {
     expect(entries.map((e) => e.kind)).toEqual(['registered', 'transfer-offered']);
     expect(entries[1]!.actor).toBe(a.id);
     expect(JSON.parse(entries[1]!.body!).recipient).toBe(newcomer.id);
-    expect(JSON.stringify(entries).toLowerCase()).not.toContain('newcomer-1@example.test');
+    expect(JSON.stringify(entries).toLowerCase()).not.toContain('newcomer-1@example.invalid');
     const incoming = await newcomer.agent.get('/api/transfers/offers').query({ box: 'incoming' });
     expect(incoming.body.items[0]).toMatchObject({ lot: { code }, price: { amount: 3000, currency: 'SEK' } });
     expect(lastMailTo(t, newcomer.email).subject).toContain('offers you a lot');

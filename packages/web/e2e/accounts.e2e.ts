@@ -37,15 +37,15 @@ describe('accounts in Chromium', () => {
     const { page } = browser;
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
-    const email = `sela.${Date.now()}@example.test`;
+    const email = `sela.${Date.now()}@example.invalid`;
     const password = 'seven glass beads in a row';
 
     await page.goto(`${baseUrl}/sign-up`);
     await page.getByRole('textbox', { name: 'Your name' }).fill('Sela Marrowind');
     await page.getByRole('textbox', { name: /handle/i }).fill(`sela-${Date.now()}`);
     await page.getByRole('textbox', { name: 'Business name' }).fill('Marrowind Old Glass');
-    await page.getByRole('textbox', { name: 'Town' }).fill('Fernhollow');
-    await page.getByRole('textbox', { name: 'Country' }).fill('Estmark');
+    await page.getByRole('textbox', { name: 'Town' }).fill('Smalti Hollow');
+    await page.getByRole('textbox', { name: 'Country' }).fill('Frit Marches');
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Apply' }).click();

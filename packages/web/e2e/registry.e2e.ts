@@ -71,7 +71,7 @@ describe("the registrar's tools in Chromium", () => {
       await page
         .getByLabel('What is wrong')
         .fill('The period looks too early for beads with this kind of hole.');
-      await page.getByLabel(/Your e-mail address/).fill('fair.visitor@example.test');
+      await page.getByLabel(/Your e-mail address/).fill('fair.visitor@example.invalid');
       await screenshot(page, 'registry-report-form-390');
       await page.getByRole('button', { name: 'Send the report' }).click();
       await page.getByRole('status').filter({ hasText: 'The registrar will look at your report.' }).waitFor();

@@ -56,7 +56,7 @@ describe('transfers in Chromium', () => {
     await choose(page, 'Lot', LOT);
     await dialog.getByRole('textbox', { name: /Find the dealer/ }).fill('calloway');
     await dialog.getByRole('radio', { name: new RegExp(ines.displayName) }).check();
-    await dialog.getByRole('textbox', { name: /Note/ }).fill('the strand you liked at Brindlecombe');
+    await dialog.getByRole('textbox', { name: /Note/ }).fill('the strand you liked at Aventurine Combe');
     await dialog.getByRole('textbox', { name: 'Agreed price (optional): amount' }).fill('210.00');
     await screenshot(page, 'transfers-offer-dialog-1280');
     await dialog.getByRole('button', { name: 'Send the offer' }).click();

@@ -11,6 +11,7 @@ import { SignUpDto } from './dto/sign-up.dto';
 import { ForgotPasswordDto, type MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
 import { RateLimitGuard } from './rate-limit.guard';
 import { type SessionResponse, toMeResponse } from './dto/session.response';
+import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
 
 @ApiTags('auth')
@@ -68,6 +69,7 @@ export class AuthController {
   @Public()
   @UseGuards(RateLimitGuard)
   @Post('sign-in')
+  @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
   async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
@@ -78,6 +80,7 @@ export class AuthController {
 
   @Public()
   @Post('session/refresh')
+  @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
@@ -96,6 +99,7 @@ export class AuthController {
 
   @Public()
   @Post('session/sign-out')
+  @NoReplay()
   @HttpCode(204)
   @ApiOperation({ summary: 'Sign out: ends this session and clears its cookies' })
   async signOut(

@@ -27,8 +27,15 @@ export class AccessGuard extends AuthGuard('access') {
     return { session: false, property: 'account' };
   }
 
-  override handleRequest<T>(_err: unknown, user: T): T {
-    // A bad or expired token counts as no sign-in; whether that is allowed is decided below.
+  override handleRequest<T>(err: unknown, user: T): T {
+    // A bad or expired token counts as no sign-in; whether that is allowed is decided below. A
+    // failure to look the session up (the database is away) is not a sign-out: the client should
+    // try again, not forget who it is.
+    if (err)
+      throw new AppError(
+        'unavailable',
+        'Beadroll cannot check your sign-in just now. Please try again in a moment.',
+      );
     return (user || undefined) as T;
   }
 

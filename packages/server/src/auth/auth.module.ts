@@ -17,6 +17,8 @@ import { EmailTokensService } from './email-tokens.service';
 import { JWT_ALGORITHM, loadJwtSecret } from './jwt-secret';
 import { PasswordsService } from './passwords.service';
 import { SessionsService } from './sessions.service';
+import { PgThrottlerStorage } from './pg-throttler.storage';
+import { DataSource } from 'typeorm';
 
 /** Sessions, passwords and the global guard every route passes through. */
 @Module({
@@ -24,9 +26,10 @@ import { SessionsService } from './sessions.service';
     TypeOrmModule.forFeature([Account, Session, RefreshToken, EmailToken]),
     PassportModule,
     ThrottlerModule.forRootAsync({
-      inject: [APP_CONFIG],
-      useFactory: (config: AppConfig) => ({
+      inject: [APP_CONFIG, DataSource],
+      useFactory: (config: AppConfig, dataSource: DataSource) => ({
         throttlers: [{ ttl: config.throttle.ttlMs, limit: config.throttle.limit }],
+        storage: new PgThrottlerStorage(dataSource),
       }),
     }),
     JwtModule.registerAsync({

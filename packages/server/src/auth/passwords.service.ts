@@ -1,5 +1,6 @@
 import { randomBytes, scrypt, timingSafeEqual, type ScryptOptions } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
+import pLimit from 'p-limit';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 
@@ -19,17 +20,22 @@ function derive(password: string, salt: Buffer, N: number, r: number, p: number)
 /**
  * Password hashing with node:crypto's scrypt (runs on the libuv pool, off the event loop).
  * Stored as `scrypt$N$r$p$salt$key` (base64url), so a later change of cost still verifies old hashes.
+ * Each hash holds about 128·N·r bytes (128 MiB at the default cost) while it runs, so at most
+ * `SCRYPT_CONCURRENCY` run at once and a burst of sign-ins waits in line instead of exhausting memory.
  */
 @Injectable()
 export class PasswordsService {
   private dummy?: Promise<string>;
+  private readonly queue: pLimit.Limit;
 
-  constructor(@Inject(APP_CONFIG) private readonly config: AppConfig) {}
+  constructor(@Inject(APP_CONFIG) private readonly config: AppConfig) {
+    this.queue = pLimit(config.scrypt.concurrency);
+  }
 
   async hash(password: string): Promise<string> {
     const { cost, blockSize, parallelization } = this.config.scrypt;
     const salt = randomBytes(SALT_LENGTH);
-    const key = await derive(password, salt, cost, blockSize, parallelization);
+    const key = await this.queue(() => derive(password, salt, cost, blockSize, parallelization));
     return [
       'scrypt',
       cost,
@@ -50,7 +56,9 @@ export class PasswordsService {
     const [scheme, n, r, p, salt, key] = stored.split('$');
     if (scheme !== 'scrypt' || !key) return false;
     const expected = Buffer.from(key, 'base64url');
-    const actual = await derive(password, Buffer.from(salt, 'base64url'), Number(n), Number(r), Number(p));
+    const actual = await this.queue(() =>
+      derive(password, Buffer.from(salt, 'base64url'), Number(n), Number(r), Number(p)),
+    );
     return actual.length === expected.length && timingSafeEqual(actual, expected);
   }
 }

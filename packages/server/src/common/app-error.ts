@@ -29,6 +29,8 @@ export const ERROR_STATUS = {
   offer_closed: HttpStatus.CONFLICT,
   /** An upload of bytes the registrar removed (their digest is on the blocked list). */
   blocked_content: HttpStatus.CONFLICT,
+  /** An idempotency key sent again with a different request. */
+  idempotency_key_reused: HttpStatus.UNPROCESSABLE_ENTITY,
   payload_too_large: HttpStatus.PAYLOAD_TOO_LARGE,
   unsupported_media_type: HttpStatus.UNSUPPORTED_MEDIA_TYPE,
   rate_limited: HttpStatus.TOO_MANY_REQUESTS,

@@ -24,6 +24,8 @@ export function tagRequest(req: Request, res: Response, started = process.hrtime
     const url = req.originalUrl ?? req.url;
     const query = url.indexOf('?');
     const path = query < 0 ? url : url.slice(0, query);
+    // A load balancer asks for the health report every second or so: log only when it is not 200.
+    if (path === '/api/health' && res.statusCode === 200) return;
     logger.log(`${id} ${req.method} ${path} ${res.statusCode} ${ms.toFixed(1)}ms`);
   });
 }

@@ -1,3 +1,4 @@
+import { hostname } from 'node:os';
 import { isAbsolute, resolve } from 'node:path';
 
 /** The one typed configuration of the server, validated once at boot from the environment. */
@@ -9,6 +10,13 @@ export interface AppConfig {
   readonly webDist: string;
   readonly demoMode: boolean;
   readonly devMailbox: boolean;
+  /** Name of this server process, shown by /api/health and on every response (`Beadroll-Instance`). */
+  readonly instanceName: string;
+  /**
+   * A streaming hot standby of the database (same role and database), for public reads while
+   * its replay lag is under `maxLagMs`; null when there is none.
+   */
+  readonly standby: { readonly host: string; readonly port: number; readonly maxLagMs: number } | null;
   readonly db: {
     readonly host: string;
     readonly port: number;
@@ -24,7 +32,20 @@ export interface AppConfig {
     readonly fakeSmtp: boolean;
   };
   readonly jwtSecretFile: string;
-  readonly scrypt: { readonly cost: number; readonly blockSize: number; readonly parallelization: number };
+  readonly scrypt: {
+    readonly cost: number;
+    readonly blockSize: number;
+    readonly parallelization: number;
+    /** Password hashes computed at once (each needs about 128·N·r bytes); the rest wait their turn. */
+    readonly concurrency: number;
+  };
+  /** Limits applied to every request body before it is validated. */
+  readonly requests: {
+    /** Largest JSON or form body, in bytes. */
+    readonly maxJsonBytes: number;
+    /** Deepest nesting of objects and lists in a body or query. */
+    readonly maxDepth: number;
+  };
   readonly throttle: { readonly limit: number; readonly ttlMs: number };
   readonly transfers: {
     /** An offer nobody answered lapses after this many days. */
@@ -152,6 +173,8 @@ export function loadConfig(env: Env = process.env): AppConfig {
     webDist: path(env, 'WEB_DIST', 'packages/web/dist'),
     demoMode,
     devMailbox: bool(env, 'DEV_MAILBOX', demoMode),
+    instanceName: str(env, 'INSTANCE_NAME', `${hostname()}:${port}`, 100),
+    standby: standbyConfig(env),
     db: {
       host: str(env, 'PGHOST', '127.0.0.1'),
       port: int(env, 'PGPORT', 55432, 1, 65535),
@@ -170,6 +193,11 @@ export function loadConfig(env: Env = process.env): AppConfig {
       cost: int(env, 'SCRYPT_COST', 131072, 2, 1 << 22),
       blockSize: int(env, 'SCRYPT_BLOCK_SIZE', 8, 1, 64),
       parallelization: int(env, 'SCRYPT_PARALLELIZATION', 1, 1, 16),
+      concurrency: int(env, 'SCRYPT_CONCURRENCY', 1, 1, 64),
+    },
+    requests: {
+      maxJsonBytes: int(env, 'REQUEST_MAX_JSON_BYTES', 256 * 1024, 1024, 64 * 1024 * 1024),
+      maxDepth: int(env, 'REQUEST_MAX_DEPTH', 32, 4, 1000),
     },
     throttle: {
       limit: int(env, 'THROTTLE_LIMIT', 10, 1, 1_000_000),
@@ -192,6 +220,16 @@ export function loadConfig(env: Env = process.env): AppConfig {
       quotaBytes: int(env, 'EXHIBIT_QUOTA_BYTES', 2 * 1024 * 1024 * 1024, 0, Number.MAX_SAFE_INTEGER),
       processingConcurrency: int(env, 'EXHIBIT_PROCESSING_CONCURRENCY', 2, 1, 64),
     },
+  };
+}
+
+function standbyConfig(env: Env): AppConfig['standby'] {
+  const host = str(env, 'PG_STANDBY_HOST', '');
+  if (host === '') return null;
+  return {
+    host,
+    port: int(env, 'PG_STANDBY_PORT', 5432, 1, 65535),
+    maxLagMs: int(env, 'STANDBY_MAX_LAG_MS', 2000, 0, 3_600_000),
   };
 }
 

@@ -14,6 +14,7 @@ import { RedactionRequest } from '../registry/entities/redaction-request.entity'
 import { RegistrarAction } from '../registry/entities/registrar-action.entity';
 import { Report } from '../registry/entities/report.entity';
 import { ExhibitEntity } from '../exhibits/entities/exhibit.entity';
+import { IdempotencyRecord } from '../idempotency/entities/idempotency-record.entity';
 
 // Every TypeORM entity, listed explicitly (no globbing): add a feature's entities here.
 export const ENTITIES: Array<new (...args: never[]) => object> = [
@@ -34,4 +35,5 @@ export const ENTITIES: Array<new (...args: never[]) => object> = [
   RedactionRequest,
   Report,
   ExhibitEntity,
+  IdempotencyRecord,
 ];

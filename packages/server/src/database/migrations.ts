@@ -5,7 +5,9 @@ import { CreateTransfers1796159943028 } from '../migrations/1796159943028-Create
 import { CreateRegistrarTools1796161169142 } from '../migrations/1796161169142-CreateRegistrarTools';
 import { CreateExhibits1796160000000 } from '../migrations/1796160000000-CreateExhibits';
 import { AddExhibitSentDigest1796172657749 } from '../migrations/1796172657749-AddExhibitSentDigest';
-import { AddSaleVoidedKind1796180000000 } from '../migrations/1796180000000-AddSaleVoidedKind';
+import { CreateRateLimits1796470946374 } from '../migrations/1796470946374-CreateRateLimits';
+import { CreateIdempotencyKeys1796480000000 } from '../migrations/1796480000000-CreateIdempotencyKeys';
+import { AddSaleVoidedKind1796490000000 } from '../migrations/1796490000000-AddSaleVoidedKind';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -15,5 +17,7 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   CreateExhibits1796160000000,
   CreateRegistrarTools1796161169142,
   AddExhibitSentDigest1796172657749,
-  AddSaleVoidedKind1796180000000,
+  CreateRateLimits1796470946374,
+  CreateIdempotencyKeys1796480000000,
+  AddSaleVoidedKind1796490000000,
 ];

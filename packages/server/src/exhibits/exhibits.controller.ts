@@ -7,6 +7,7 @@ import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
 import type { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
+import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
 import { UploadGuardInterceptor } from './upload';
 
 @ApiTags('exhibits')
@@ -20,7 +21,7 @@ export class ExhibitsController {
   @ApiOperation({ summary: 'Add one evidence file to a lot as an exhibit-added entry' })
   @ApiConsumes('multipart/form-data')
   @ApiBody({ type: AddExhibitBodyDoc })
-  @UseInterceptors(UploadGuardInterceptor, FileInterceptor('file'))
+  @UseInterceptors(UploadGuardInterceptor, FileInterceptor('file'), IdempotencyInterceptor)
   add(
     @CurrentAccount() account: Principal,
     @Param('code') code: string,

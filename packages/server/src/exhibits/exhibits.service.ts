@@ -201,10 +201,11 @@ export class ExhibitsService {
 
   /** The exhibits of a lot the viewer may read; sealed ones only to the dealer who added them. */
   async list(viewer: Principal, codeText: string): Promise<ExhibitListResponse> {
-    const code = await this.lots.readableCode(viewer, codeText);
+    const { code, upTo } = await this.lots.readAccess(viewer, codeText);
     const rows = await this.exhibits.find({ where: { lotCode: code }, order: { seq: 'ASC' } });
     return {
       exhibits: rows
+        .filter((r) => upTo === null || r.seq <= upTo)
         .filter((r) => !r.sealed || r.addedBy === viewer.id)
         .map((r) => toExhibitResponse(r, r.createdAt.toISOString(), this.base(code, false))),
     };
@@ -231,9 +232,10 @@ export class ExhibitsService {
     seqText: string,
     variant: string,
   ): Promise<ServedExhibitFile> {
-    const code = await this.lots.readableCode(viewer, codeText);
+    const { code, upTo } = await this.lots.readAccess(viewer, codeText);
     const row = await this.row(code, seqText);
-    if (!row || (row.sealed && row.addedBy !== viewer.id)) throw NOT_FOUND();
+    if (!row || (upTo !== null && row.seq > upTo) || (row.sealed && row.addedBy !== viewer.id))
+      throw NOT_FOUND();
     return this.serve(row, variant);
   }
 

@@ -275,7 +275,10 @@ export class LineageService {
    * beside it names anyway) and nothing more.
    */
   async ancestry(viewer: Viewer, text: string): Promise<AncestryResponse> {
-    const code = await this.lots.readableCode(viewer, text);
+    const { code, upTo } = await this.lots.readAccess(viewer, text);
+    // A former holder reads the lot as it stood at the handover: its own row from that prefix,
+    // and only the lots split or combined from it before then.
+    const asOf = upTo === null ? null : await this.lots.detail(viewer, code);
     const nodes = new Map<string, AncestryNodeResponse>();
     const edges = new Map<string, AncestryEdgeResponse>();
     const rows = new Map<string, GraphRow>();
@@ -292,16 +295,17 @@ export class LineageService {
           break;
         }
         const row = rows.get(f.code);
-        const readable = !!row && this.canRead(viewer, row);
+        const root = asOf !== null && f.code === code;
+        const readable = !!row && (root || this.canRead(viewer, row));
         nodes.set(f.code, {
           code: f.code,
           displayCode: formatLotCode(f.code),
           depth: f.depth,
           readable,
-          title: readable ? row.title : null,
-          status: readable ? row.status : null,
-          listed: readable ? row.listed : null,
-          count: readable ? row.state.remaining : null,
+          title: !readable ? null : root ? asOf.title : row.title,
+          status: !readable ? null : root ? asOf.status : row.status,
+          listed: !readable ? null : root ? asOf.listed : row.listed,
+          count: !readable ? null : root ? asOf.remaining : row.state.remaining,
         });
         if (!readable) continue;
         if (f.depth <= 0)
@@ -317,6 +321,7 @@ export class LineageService {
           }
         if (f.depth >= 0)
           for (const c of row.state.children) {
+            if (root && c.seq > upTo!) continue;
             edges.set(`${f.code}/${c.seq}/${c.lot}`, {
               from: f.code,
               to: c.lot,

@@ -1,5 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import {
+  checkTransition,
   formatLotCode,
   verifyRoll,
   type Bundle,
@@ -40,7 +41,7 @@ export interface LotReadGrant {
 }
 
 /** What a viewer may read of a lot: all of it (`upTo` null) or its roll up to a seq. */
-interface ReadAccess {
+export interface ReadAccess {
   code: string;
   lotId: string;
   upTo: number | null;
@@ -240,7 +241,16 @@ export class LotsService {
       const d = tx.state(code).description;
       if (!d)
         throw new AppError('roll_rule', 'the newest description was redacted: write a new description first');
-      if (d.listed === listed) return;
+      if (d.listed === listed) {
+        // Nothing to write, but only someone who could have written it learns that.
+        const t = checkTransition(tx.state(code), {
+          kind: 'described',
+          actor: actor.id,
+          body: { description: d },
+        });
+        if (!t.ok) throw new AppError(t.code === 'bad-actor' ? 'forbidden' : 'roll_rule', t.message);
+        return;
+      }
       await tx.append(code, { kind: 'described', actor: actor.id, body: { description: { ...d, listed } } });
     });
     return this.detail(actor, code);
@@ -381,8 +391,12 @@ export class LotsService {
     return view.code;
   }
 
-  /** The viewer's access to a lot: in full, up to a seq through a grant, or the same 404. */
-  private async readAccess(viewer: Viewer, text: string): Promise<ReadAccess> {
+  /**
+   * The viewer's access to a lot: in full (`upTo` null), up to a seq through a grant (a former
+   * holder, up to the handover), or the same 404. Every read of a lot's roll, opinions, exhibits
+   * and ancestry goes through it.
+   */
+  async readAccess(viewer: Viewer, text: string): Promise<ReadAccess> {
     const code = RollReaderService.canonicalCode(text);
     const view = code ? await this.view(code) : null;
     if (view && this.canRead(viewer, view)) return { code: view.code, lotId: view.lot_id, upTo: null };

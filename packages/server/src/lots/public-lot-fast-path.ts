@@ -1,7 +1,7 @@
 import type { INestApplicationContext } from '@nestjs/common';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import { tagRequest } from '../common/request-id.middleware';
-import { PublicLotsService } from './public-lots.service';
+import { PublicLotsService, READ_FROM_HEADER } from './public-lots.service';
 
 /** `GET /api/public/lots/{code}` in its plain form: a code of letters and digits, no query. */
 const PLAIN_LOT_URL = /^\/api\/public\/lots\/([0-9A-Za-z]{1,32})$/;
@@ -24,12 +24,13 @@ export function publicLotFastPath(
     const code = PLAIN_LOT_URL.exec(req.url)?.[1];
     if (code === undefined) return next();
     const started = process.hrtime.bigint();
-    lots.lotText(code).then(
-      (text) => {
+    lots.lotRead(code).then(
+      ({ text, from }) => {
         securityHeaders(req, res, (err?: unknown) => {
           if (err) return next(err);
           tagRequest(req, res, started);
           res.setHeader('Content-Type', 'application/json; charset=utf-8');
+          res.setHeader(READ_FROM_HEADER, from);
           res.send(text);
         });
       },

@@ -1,3 +1,4 @@
+import { BUNDLE_VERSION } from '@beadroll/core';
 import type { PublicDealerCard } from './dto/public-lot.dto';
 
 /**
@@ -58,7 +59,7 @@ export function publicLotText(code: string, row: PublicLotRow): string {
   for (const card of row.cards ?? []) cards[card.id] = card;
   const lot = JSON.stringify(code);
   return (
-    `{"code":${lot},"bundle":{"format":"beadroll-bundle","version":1,` +
+    `{"code":${lot},"bundle":{"format":"beadroll-bundle","version":${BUNDLE_VERSION},` +
     `"rolls":[{"lot":${lot},"scope":"full","entries":${row.entries}}],"checkpoints":[]},` +
     `"cards":${JSON.stringify(cards)}}`
   );

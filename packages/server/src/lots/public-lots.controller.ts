@@ -1,9 +1,10 @@
-import { Controller, Get, Header, Param, Res } from '@nestjs/common';
+import { Controller, Get, Header, Param, Req, Res } from '@nestjs/common';
 import { ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
-import type { Response } from 'express';
+import type { Request, Response } from 'express';
+import { ACCESS_COOKIE } from '../auth/cookies';
 import { Public } from '../auth/auth.decorators';
 import { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
-import { PublicLotsService } from './public-lots.service';
+import { PublicLotsService, READ_FROM_HEADER } from './public-lots.service';
 
 @ApiTags('public')
 @Public()
@@ -18,8 +19,15 @@ export class PublicLotsController {
   @ApiOkResponse({ type: PublicLotResponse })
   @ApiNotFoundResponse({ description: 'any code that is not a listed lot' })
   @Header('Content-Type', 'application/json; charset=utf-8')
-  lot(@Param('code') code: string): Promise<string> {
-    return this.lots.lotText(code);
+  async lot(
+    @Param('code') code: string,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<string> {
+    const signedIn = typeof req.cookies?.[ACCESS_COOKIE] === 'string';
+    const { text, from } = await this.lots.lotRead(code, signedIn);
+    res.setHeader(READ_FROM_HEADER, from);
+    return text;
   }
 
   @Get(':code/bundle')

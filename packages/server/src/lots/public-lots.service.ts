@@ -1,12 +1,16 @@
 import { Injectable } from '@nestjs/common';
-import { SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
+import { BUNDLE_VERSION, SYSTEM_ACTOR, type Bundle, type EntryHeader } from '@beadroll/core';
 import { DataSource } from 'typeorm';
+import { StandbyService, type ReadSource } from '../standby/standby.service';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
 import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
+
+/** Response header naming where public lot data was read: `standby` or `primary`. */
+export const READ_FROM_HEADER = 'Beadroll-Read-From';
 
 /** The one answer to any code that is not a listed lot: no hint of why. */
 function notFound(): AppError {
@@ -20,7 +24,7 @@ function notFound(): AppError {
 export function toPublicBundle(b: Bundle): PublicBundle {
   return {
     format: 'beadroll-bundle',
-    version: 1,
+    version: BUNDLE_VERSION,
     rolls: b.rolls.map((r) => ({
       lot: r.lot,
       scope: r.scope,
@@ -53,6 +57,7 @@ export class PublicLotsService {
     private readonly dataSource: DataSource,
     private readonly bundles: BundleService,
     private readonly cards: DealerCardsService,
+    private readonly standby: StandbyService,
   ) {}
 
   /**
@@ -61,13 +66,25 @@ export class PublicLotsService {
    * takes the bundle walk over its ancestors.
    */
   async lotText(text: string): Promise<string> {
+    return (await this.lotRead(text)).text;
+  }
+
+  /**
+   * {@link lotText}, and where its one statement was answered: the hot standby while it is
+   * close enough behind, else the primary (see `StandbyService`). A signed-in reader
+   * (`signedIn`) always reads the primary, so a dealer sees what they have just written.
+   */
+  async lotRead(text: string, signedIn = false): Promise<{ text: string; from: ReadSource }> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
-    const rows: PublicLotRow[] = await this.dataSource.query(PUBLIC_LOT_SQL, [code]);
+    const { manager, from } = signedIn
+      ? { manager: this.dataSource.manager, from: 'primary' as const }
+      : await this.standby.reader();
+    const rows: PublicLotRow[] = await manager.query(PUBLIC_LOT_SQL, [code]);
     const row = rows[0];
     if (!row) throw notFound();
-    if (!row.has_parents) return publicLotText(code, row);
-    return JSON.stringify(await this.lot(code));
+    if (!row.has_parents) return { text: publicLotText(code, row), from };
+    return { text: JSON.stringify(await this.lot(code)), from: 'primary' };
   }
 
   /** The public data of a listed lot, built from its bundle (ancestors included). */
@@ -97,10 +114,10 @@ export class PublicLotsService {
   async listedCode(text: string): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
-    const rows: unknown[] = await this.dataSource.query(
-      'SELECT 1 FROM "lot_views" WHERE "code" = $1 AND "listed"',
-      [code],
-    );
+    const { manager } = await this.standby.reader();
+    const rows: unknown[] = await manager.query('SELECT 1 FROM "lot_views" WHERE "code" = $1 AND "listed"', [
+      code,
+    ]);
     if (rows.length === 0) throw notFound();
     return code;
   }

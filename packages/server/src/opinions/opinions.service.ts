@@ -152,9 +152,10 @@ export class OpinionsService {
 
   /** The standing opinions of a lot with their roles, derived by core from the verified roll. */
   async list(viewer: Writer, text: string): Promise<LotOpinionsResponse> {
-    const code = await this.lots.readableCode(viewer, text);
-    const lot = (await this.reader.findLot(code))!;
-    const r = verifyRoll(await this.reader.entries(lot.id), { lot: code });
+    const { code, lotId, upTo } = await this.lots.readAccess(viewer, text);
+    const r = verifyRoll(await this.reader.entries(lotId, upTo === null ? {} : { limit: upTo + 1 }), {
+      lot: code,
+    });
     if (!r.ok)
       throw new AppError('internal', `the roll of ${code} does not verify at seq ${r.seq}: ${r.reason}`);
     const state = r.state;

@@ -6,6 +6,7 @@ import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { CloseAccountDto } from './dto/registry-tools.dto';
+import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { type PersonalDataExport, PersonalDataService } from './personal-data.service';
 
 @ApiTags('account')
@@ -28,6 +29,7 @@ export class PersonalDataController {
   }
 
   @Post('close')
+  @NoReplay()
   @HttpCode(200)
   @Roles('dealer', 'assessor')
   @ApiOperation({

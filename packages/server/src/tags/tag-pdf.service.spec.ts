@@ -15,7 +15,7 @@ const ISO_ALPHANUMERIC_L = [25, 47, 77, 114, 154, 195];
 const isoVersion = (length: number) => ISO_ALPHANUMERIC_L.findIndex((c) => c >= length) + 1;
 
 const HOST = 'beads.example'; // invented
-const HOST16 = 'tags.beads.co.uk'; // 16 characters: the longest host for version 2 at L
+const HOST16 = 'tag.bead.example'; // 16 characters: the longest host for version 2 at L
 
 const svc = new TagPdfService();
 // Invented lots: codes from the core generator with a fixed seed, references from invented hashes.
@@ -182,16 +182,16 @@ describe('tag layouts that cannot carry a readable tag are refused', () => {
 
   it('refuses the barbell flag when the host makes its symbol version 3 (under 0.4 mm a module)', async () => {
     // 17 characters → 48-character payload → version 3 (capacity 47 at version 2, level L).
-    expect(await field('tags.beadsx.co.uk', { design: 'barbell' })).toEqual(['design']);
+    expect(await field('tags.bead.example', { design: 'barbell' })).toEqual(['design']);
     // The string tag still carries it.
-    await expect(svc.render(items(1), { design: 'string' }, 'tags.beadsx.co.uk')).resolves.toBeInstanceOf(
+    await expect(svc.render(items(1), { design: 'string' }, 'tags.bead.example')).resolves.toBeInstanceOf(
       Buffer,
     );
     // A taller flag can carry a version 3 symbol: (29 + 8) × 0.4 = 14.8 mm.
     await expect(
-      svc.render(items(1), { design: 'barbell', labelHeightMm: 14.8 }, 'tags.beadsx.co.uk'),
+      svc.render(items(1), { design: 'barbell', labelHeightMm: 14.8 }, 'tags.bead.example'),
     ).resolves.toBeInstanceOf(Buffer);
-    expect(await field('tags.beadsx.co.uk', { design: 'barbell', labelHeightMm: 14 })).toEqual([
+    expect(await field('tags.bead.example', { design: 'barbell', labelHeightMm: 14 })).toEqual([
       'labelHeightMm',
     ]);
   });

@@ -3,6 +3,7 @@ import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import { ListLotsDto, PrintTagsDto } from './dto/print-tags.dto';
+import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { TagsService, type TagLayoutsResponse, type TagLotResponse } from './tags.service';
 
 @ApiTags('tags')
@@ -27,6 +28,7 @@ export class TagsController {
   }
 
   @Post('pdf')
+  @NoReplay()
   @HttpCode(200)
   @Roles('dealer')
   @ApiOperation({

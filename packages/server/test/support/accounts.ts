@@ -34,7 +34,7 @@ let counter = 0;
 export async function createAccount(t: TestApp, opts: CreateAccountOptions): Promise<TestAccount> {
   counter += 1;
   const handle = opts.handle ?? `${opts.role}-${counter}-${randomBytes(3).toString('hex')}`;
-  const email = `${handle}@example.test`;
+  const email = `${handle}@example.invalid`;
   const password = `pw-${randomBytes(9).toString('base64url')}`;
   const status = opts.status ?? 'verified';
   const repo = t.app.get(DataSource).getRepository(Account);
@@ -46,8 +46,8 @@ export async function createAccount(t: TestApp, opts: CreateAccountOptions): Pro
       email,
       displayName: opts.displayName ?? `Test ${opts.role} ${counter}`,
       business: opts.business ?? `Test Beads ${counter}`,
-      town: opts.town ?? 'Testford',
-      country: opts.country ?? 'Testland',
+      town: opts.town ?? 'Incalmo Ford',
+      country: opts.country ?? 'Gather Marches',
       passwordHash: await t.app.get(PasswordsService).hash(password),
       emailVerifiedAt: new Date(),
       verifiedAt: status === 'verified' || status === 'suspended' ? new Date() : null,

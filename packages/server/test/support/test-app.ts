@@ -60,6 +60,28 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   };
 }
 
+/** An empty database (no migrations run) beside the test databases, for restores; dropped by `drop()`. */
+export async function createEmptyDatabase(): Promise<TestDatabase> {
+  if (!process.env.PGHOST) throw new Error('PGHOST is not set: run the server tests through `npm test`.');
+  const name = `bt_${randomBytes(6).toString('hex')}`;
+  const admin = adminClient();
+  await admin.connect();
+  await admin.query(`CREATE DATABASE ${name}`);
+  await admin.end();
+  return {
+    name,
+    async drop() {
+      const client = adminClient();
+      await client.connect();
+      try {
+        await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+      } finally {
+        await client.end();
+      }
+    },
+  };
+}
+
 /** A superuser connection to a test database, for tests that tamper with stored rows on purpose. */
 export async function superuserClient(database: string): Promise<Client> {
   const user = process.env.BEADROLL_TEST_PG_SUPERUSER;
@@ -101,7 +123,7 @@ export async function createTestApp(env: Record<string, string> = {}): Promise<T
     FAKE_SMTP: 'true',
     SMTP_PORT: '0',
     DEV_MAILBOX: 'true',
-    PUBLIC_BASE_URL: 'http://beadroll.test',
+    PUBLIC_BASE_URL: 'http://beadroll.example',
     ...env,
   });
   const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();

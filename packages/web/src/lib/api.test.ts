@@ -1,5 +1,6 @@
-import { afterEach, describe, expect, it, vi } from 'vitest';
-import { api, ApiError, CSRF_HEADER } from './api';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { api, ApiError, CSRF_HEADER, IDEMPOTENCY_HEADER, RETRY_DELAYS_MS, sendPendingWrites } from './api';
+import { pendingWrites } from './pending-writes';
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -36,5 +37,91 @@ describe('api client', () => {
       (fetchMock.mock.calls[i] as unknown as [string, RequestInit])[1].headers as Record<string, string>;
     expect(headersOf(0)[CSRF_HEADER]).toBeUndefined();
     expect(headersOf(1)[CSRF_HEADER]).toBe('1');
+  });
+});
+
+describe('writes with idempotency keys', () => {
+  const saved = [...RETRY_DELAYS_MS];
+  beforeEach(() => {
+    RETRY_DELAYS_MS.splice(0, RETRY_DELAYS_MS.length, 0, 0, 0);
+    localStorage.clear();
+  });
+  afterEach(() => {
+    RETRY_DELAYS_MS.splice(0, RETRY_DELAYS_MS.length, ...saved);
+  });
+
+  const keyOf = (call: unknown) =>
+    ((call as [string, RequestInit])[1].headers as Record<string, string>)[IDEMPOTENCY_HEADER];
+
+  it('sends a fresh key per action and the same key on each retry after no answer or a 5xx', async () => {
+    const answers: Array<() => Promise<Response>> = [
+      async () => {
+        throw new TypeError('Failed to fetch');
+      },
+      async () => new Response('{}', { status: 502 }),
+      async () =>
+        new Response('{"ok":true}', { status: 201, headers: { 'Content-Type': 'application/json' } }),
+      async () =>
+        new Response('{"ok":true}', { status: 201, headers: { 'Content-Type': 'application/json' } }),
+    ];
+    const fetchMock = vi.fn(() => answers.shift()!());
+    vi.stubGlobal('fetch', fetchMock);
+    expect(await api('/api/lots', { body: { a: 1 } })).toEqual({ ok: true });
+    await api('/api/lots', { body: { a: 1 } });
+    const keys = fetchMock.mock.calls.map(keyOf);
+    expect(keys[0]).toMatch(/^[0-9a-f-]{36}$/);
+    expect(keys.slice(0, 3)).toEqual([keys[0], keys[0], keys[0]]);
+    expect(keys[3]).not.toBe(keys[0]);
+    expect(keyOf(fetchMock.mock.calls[0])).toBeDefined();
+    expect(localStorage.getItem('beadroll.pending-writes')).toBeNull();
+  });
+
+  it('does not repeat a write the server refused', async () => {
+    const fetchMock = stubFetch(409, { error: { code: 'roll_rule', message: 'no' } });
+    await expect(
+      api('/api/lots/X/listing', { method: 'PUT', body: { listed: true } }),
+    ).rejects.toBeInstanceOf(ApiError);
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+    expect(pendingWrites()).toEqual([]);
+  });
+
+  it('keeps an unanswered write across a reload and sends it again with its key', async () => {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => {
+        throw new TypeError('Failed to fetch');
+      }),
+    );
+    await expect(
+      api('/api/lots/X/observations', { body: { observations: { foil: 'none' } } }),
+    ).rejects.toMatchObject({
+      code: 'network',
+    });
+    const [kept] = pendingWrites();
+    expect(kept).toMatchObject({ path: '/api/lots/X/observations', method: 'POST' });
+    // The next page load:
+    const fetchMock = stubFetch(201, { ok: true });
+    await sendPendingWrites();
+    expect(keyOf(fetchMock.mock.calls[0])).toBe(kept!.key);
+    expect(
+      JSON.parse((fetchMock.mock.calls[0] as unknown as [string, RequestInit])[1].body as string),
+    ).toEqual({
+      observations: { foil: 'none' },
+    });
+    expect(pendingWrites()).toEqual([]);
+  });
+
+  it('never keeps a body holding a password', async () => {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => {
+        throw new TypeError('Failed to fetch');
+      }),
+    );
+    await expect(
+      api('/api/auth/sign-in', { body: { email: 'a@example.test', password: 'secret words' } }),
+    ).rejects.toBeDefined();
+    await expect(api('/api/account/password', { body: { password: 'secret words' } })).rejects.toBeDefined();
+    expect(localStorage.getItem('beadroll.pending-writes')).toBeNull();
   });
 });

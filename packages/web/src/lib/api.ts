@@ -1,3 +1,5 @@
+import { forgetPending, keepPending, mayKeep, pendingWrites } from './pending-writes';
+
 /** One field-level problem from the server's 400 body. */
 export interface FieldProblem {
   field: string;
@@ -28,12 +30,58 @@ export class ApiError extends Error {
 /** Header that every non-GET request carries; the server refuses state changes without it. */
 export const CSRF_HEADER = 'X-Beadroll-Request';
 
+/** Header naming one user action: its retries carry the same key, so the server writes it once. */
+export const IDEMPOTENCY_HEADER = 'Idempotency-Key';
+
+/** Pauses before each retry of a write that got no answer or a 5xx (milliseconds). */
+export const RETRY_DELAYS_MS = [400, 1200, 3000];
+
+/** A fresh idempotency key for one user action. */
+export function newIdempotencyKey(): string {
+  return crypto.randomUUID();
+}
+
+/** Whether a failed write may be sent again with its key: no answer, or the server's own failure. */
+export function isRetryable(err: unknown): boolean {
+  return err instanceof ApiError && (err.status === 0 || err.status >= 500);
+}
+
+const sleep = (ms: number, signal?: AbortSignal) =>
+  new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(resolve, ms);
+    signal?.addEventListener(
+      'abort',
+      () => {
+        clearTimeout(timer);
+        reject(new DOMException('Aborted', 'AbortError'));
+      },
+      { once: true },
+    );
+  });
+
+/**
+ * Runs `attempt` and repeats it after each pause of {@link RETRY_DELAYS_MS} while it fails with no
+ * answer or a 5xx. The caller keeps the same idempotency key across attempts.
+ */
+export async function withRetries<T>(attempt: () => Promise<T>, signal?: AbortSignal): Promise<T> {
+  for (let i = 0; ; i++) {
+    try {
+      return await attempt();
+    } catch (err) {
+      if (!isRetryable(err) || i >= RETRY_DELAYS_MS.length) throw err;
+      await sleep(RETRY_DELAYS_MS[i]!, signal);
+    }
+  }
+}
+
 type Json = Record<string, unknown> | unknown[];
 
 export interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: Json | FormData;
   signal?: AbortSignal;
+  /** The write's idempotency key; a fresh one per call when omitted. */
+  idempotencyKey?: string;
 }
 
 /** Turns any failed response into an ApiError with a message a person can read. */
@@ -81,6 +129,44 @@ function refreshSession(): Promise<boolean> {
  * access cookie is renewed once through the refresh route and the request repeated.
  */
 export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+  const method = opts.method ?? (opts.body ? 'POST' : 'GET');
+  if (method === 'GET') return once<T>(path, opts);
+  // One user action: one key for every attempt, kept across a reload until it is answered.
+  const key = opts.idempotencyKey ?? newIdempotencyKey();
+  const keep = mayKeep(path) && !(opts.body instanceof FormData);
+  if (keep) keepPending({ key, path, method, body: opts.body, at: Date.now() });
+  try {
+    const out = await withRetries(() => once<T>(path, { ...opts, method, idempotencyKey: key }), opts.signal);
+    if (keep) forgetPending(key);
+    return out;
+  } catch (err) {
+    // Answered, even with a refusal: nothing left to send again. Unanswered: kept for a reload.
+    if (keep && !isRetryable(err)) forgetPending(key);
+    throw err;
+  }
+}
+
+/**
+ * Sends again, each with its own key, the writes an earlier page sent but never saw answered;
+ * the server does each once at most. Called once when the app starts.
+ */
+export async function sendPendingWrites(): Promise<void> {
+  for (const w of pendingWrites()) {
+    try {
+      await once(w.path, {
+        method: w.method as RequestOptions['method'],
+        body: w.body as Json | undefined,
+        idempotencyKey: w.key,
+      });
+      forgetPending(w.key);
+    } catch (err) {
+      if (!isRetryable(err)) forgetPending(w.key);
+    }
+  }
+}
+
+/** One attempt, renewing a lapsed session once. */
+async function once<T>(path: string, opts: RequestOptions): Promise<T> {
   try {
     return await request<T>(path, opts);
   } catch (err) {
@@ -98,6 +184,7 @@ async function request<T>(path: string, opts: RequestOptions): Promise<T> {
   const method = opts.method ?? (opts.body ? 'POST' : 'GET');
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (method !== 'GET') headers[CSRF_HEADER] = '1';
+  if (method !== 'GET' && opts.idempotencyKey) headers[IDEMPOTENCY_HEADER] = opts.idempotencyKey;
   let body: BodyInit | undefined;
   if (opts.body instanceof FormData) body = opts.body;
   else if (opts.body !== undefined) {

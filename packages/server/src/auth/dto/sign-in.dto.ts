@@ -2,7 +2,7 @@ import { ApiProperty } from '@nestjs/swagger';
 import { IsEmail, IsString, MaxLength, MinLength } from 'class-validator';
 
 export class SignInDto {
-  @ApiProperty({ example: 'dealer@example.test' })
+  @ApiProperty({ example: 'dealer@example.invalid' })
   @IsEmail({}, { message: 'must be an e-mail address' })
   @MaxLength(254)
   email: string;

@@ -34,21 +34,21 @@ export class SignUpDto {
   @MaxLength(120, { message: 'must be at most 120 characters' })
   business: string;
 
-  @ApiProperty({ example: 'Lindenbrook' })
+  @ApiProperty({ example: 'Pulegoso Brook' })
   @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'is required' })
   @MaxLength(80, { message: 'must be at most 80 characters' })
   town: string;
 
-  @ApiProperty({ example: 'Norland' })
+  @ApiProperty({ example: 'Punty Reach' })
   @Transform(trim)
   @IsString()
   @MinLength(2, { message: 'is required' })
   @MaxLength(80, { message: 'must be at most 80 characters' })
   country: string;
 
-  @ApiProperty({ example: 'mira@example.test' })
+  @ApiProperty({ example: 'mira@example.invalid' })
   @Transform(trim)
   @IsEmail({}, { message: 'must be an e-mail address' })
   @MaxLength(254, { message: 'must be at most 254 characters' })

@@ -6,6 +6,7 @@ const HOLE = ['clean', 'powder', 'green-traces', 'not-seen'] as const;
 const HOLE_SHAPE = ['irregular', 'regular'] as const;
 const WINDING = ['seen', 'not-seen'] as const;
 const BEAD_SHAPE = ['irregular', 'uniform'] as const;
+const MOULD_SEAM = ['seen', 'not-seen'] as const;
 const SURFACE = ['glossy', 'satin', 'matte', 'worn'] as const;
 const FOIL = ['none', 'intact', 'worn'] as const;
 const UV_A = ['not-tested', 'none', 'green-glow', 'other'] as const;
@@ -31,6 +32,11 @@ export class ObservationsDto implements Observations {
   @IsOptional()
   @IsIn(BEAD_SHAPE)
   beadShape?: Observations['beadShape'];
+
+  @ApiPropertyOptional({ enum: MOULD_SEAM, description: 'a seam where the halves of a mould met' })
+  @IsOptional()
+  @IsIn(MOULD_SEAM)
+  mouldSeam?: Observations['mouldSeam'];
 
   @ApiPropertyOptional({ enum: SURFACE })
   @IsOptional()

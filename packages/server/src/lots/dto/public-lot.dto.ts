@@ -17,7 +17,7 @@ export class PublicBundleRoll {
 /** An export bundle as served publicly (ledger format §11); it never holds a sealed salt or value. */
 export class PublicBundle {
   @ApiProperty({ enum: ['beadroll-bundle'] }) format: 'beadroll-bundle';
-  @ApiProperty({ enum: [1] }) version: 1;
+  @ApiProperty({ enum: [1, 2], description: 'bundle version; 2 is written now' }) version: 1 | 2;
   @ApiProperty({ type: [PublicBundleRoll] }) rolls: PublicBundleRoll[];
   @ApiProperty({ type: [Object] }) checkpoints: unknown[];
 }

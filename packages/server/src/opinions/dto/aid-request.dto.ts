@@ -1,6 +1,7 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
 import {
   DECORATIONS,
+  LIMITS,
   ORIGINS,
   TECHNIQUES,
   type Decoration,
@@ -8,7 +9,7 @@ import {
   type Technique,
   yearProblem,
 } from '@beadroll/core';
-import { ArrayMaxSize, IsArray, IsIn, IsOptional } from 'class-validator';
+import { ArrayMaxSize, IsArray, IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
 import { ObservationsDto } from '../../lots/dto/observations.dto';
 import { thisYear, YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
 import { Plausible } from '../../common/plausible';
@@ -42,7 +43,7 @@ export class AidDraftDto {
   period?: AidPeriodDto;
 }
 
-/** What the attribution aid reads: clues, decoration and a draft; every part optional. */
+/** What the attribution aid reads: clues, decoration, words written on the lot and a draft; every part optional. */
 export class AttributionAidDto {
   @ApiPropertyOptional({ type: ObservationsDto })
   @NestedObject(() => ObservationsDto, { optional: true })
@@ -54,6 +55,31 @@ export class AttributionAidDto {
   @ArrayMaxSize(DECORATIONS.length)
   @IsIn(DECORATIONS, { each: true })
   decoration?: Decoration[];
+
+  @ApiPropertyOptional({
+    type: [String],
+    maxItems: 50,
+    description:
+      'what is written on the lot (title, description, notes); brings the uranium and lead cautions when they name such glass',
+    example: ['Uranium glass pressed beads'],
+  })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(50)
+  @IsString({ each: true })
+  @MaxLength(LIMITS.longText, { each: true })
+  words?: string[];
+
+  @ApiPropertyOptional({
+    enum: ORIGINS,
+    isArray: true,
+    description: 'origins named by opinions already on the record',
+  })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(ORIGINS.length)
+  @IsIn(ORIGINS, { each: true })
+  recordedOrigins?: Origin[];
 
   @ApiPropertyOptional({ type: AidDraftDto })
   @NestedObject(() => AidDraftDto, { optional: true })

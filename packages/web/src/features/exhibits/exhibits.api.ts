@@ -1,6 +1,13 @@
 import { EXHIBIT_KINDS, type ExhibitDerivative, type ExhibitFile, type ExhibitKind } from '@beadroll/core';
 import { queryOptions } from '@tanstack/react-query';
-import { api, ApiError, CSRF_HEADER } from '../../lib/api';
+import {
+  api,
+  ApiError,
+  CSRF_HEADER,
+  IDEMPOTENCY_HEADER,
+  newIdempotencyKey,
+  withRetries,
+} from '../../lib/api';
 
 /** Screen labels of the exhibit kinds on a roll. */
 export const EXHIBIT_KIND_LABELS: Record<ExhibitKind, string> = {
@@ -72,10 +79,24 @@ export function uploadExhibit(
   onProgress: (fraction: number) => void,
   signal?: AbortSignal,
 ): Promise<UploadResult> {
+  // One key for the upload: a retry after no answer or a 5xx adds the exhibit once at most.
+  const key = newIdempotencyKey();
+  return withRetries(() => sendExhibit(code, file, meta, onProgress, key, signal), signal);
+}
+
+function sendExhibit(
+  code: string,
+  file: File,
+  meta: UploadMeta,
+  onProgress: (fraction: number) => void,
+  key: string,
+  signal?: AbortSignal,
+): Promise<UploadResult> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', `/api/lots/${encodeURIComponent(code)}/exhibits`);
     xhr.setRequestHeader(CSRF_HEADER, '1');
+    xhr.setRequestHeader(IDEMPOTENCY_HEADER, key);
     xhr.setRequestHeader('Accept', 'application/json');
     xhr.withCredentials = true;
     xhr.responseType = 'text';

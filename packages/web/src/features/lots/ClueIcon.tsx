@@ -102,6 +102,14 @@ function drawing(question: string, value: string, s: ReturnType<typeof useStyles
           <circle cx="26" cy="16" r="4.5" className={s.glass} />
         </>
       );
+    case 'mouldSeam:seen':
+      return (
+        <Side>
+          <line x1="16" y1="5" x2="16" y2="27" className={s.mark} strokeWidth={1.8} />
+        </Side>
+      );
+    case 'mouldSeam:not-seen':
+      return <Side />;
     case 'surface:glossy':
       return (
         <EndOn hole={false}>

@@ -1,9 +1,10 @@
-import { BASE_GLASS, DECORATIONS, LOT_FORMS } from '@beadroll/core';
+import { BASE_GLASS, DECORATIONS, LOT_FORMS, safetyCautions } from '@beadroll/core';
 import {
   Button,
   Checkbox,
   Field,
   Input,
+  Link,
   makeStyles,
   Radio,
   RadioGroup,
@@ -15,6 +16,7 @@ import {
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
 import { CheckGroup } from '../../lib/CheckGroup';
+import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
 import { MoneyField } from '../transfers/MoneyField';
@@ -45,6 +47,7 @@ const useStyles = makeStyles({
   checks: { display: 'flex', flexWrap: 'wrap', columnGap: tokens.spacingHorizontalM },
   // Fluent's horizontal radio group keeps to one line; five forms do not fit a phone.
   choices: { flexWrap: 'wrap' },
+  source: { color: tokens.colorNeutralForeground3, flexBasis: '100%' },
   helper: {
     display: 'flex',
     flexWrap: 'wrap',
@@ -97,6 +100,28 @@ function toggle<T>(list: T[], item: T, on: boolean): T[] {
 function inchesHint(mm: string): string | undefined {
   const n = Number(mm.replace(',', '.'));
   return mm.trim() && Number.isFinite(n) && n > 0 ? `= ${inchesOf(n)} in` : undefined;
+}
+
+/** Where the count helper's formula comes from, shown beside it. */
+function CountSource() {
+  const styles = useStyles();
+  return (
+    <Text block size={200} className={styles.source}>
+      Formula from the trade pages “How Many Beads in a Strand” (
+      <Link
+        href="https://www.wirejewelry.com/jewelry_making_tips_techniques/How-Many-Beads-in-a-Strand_416.html"
+        target="_blank"
+        rel="noreferrer"
+      >
+        WireJewelry.com
+      </Link>
+      ) and “How many beads per inch?” (
+      <Link href="https://artbeads.com/how-many-beads-per-inch/" target="_blank" rel="noreferrer">
+        Artbeads
+      </Link>
+      ): length in inches × 25.4 ÷ bead size along the string in mm.
+    </Text>
+  );
 }
 
 /** The public description: what it is, size and count, look, condition. */
@@ -232,6 +257,7 @@ export function DescriptionSections({
                 Count helper: {strand} mm ÷ {size} mm ≈ <strong>{estimate} beads</strong> (knots and spacers
                 make it fewer).
               </Text>
+              <CountSource />
               <Button
                 size="small"
                 onClick={() => {
@@ -243,10 +269,13 @@ export function DescriptionSections({
               </Button>
             </>
           ) : (
-            <Text size={200}>
-              Count helper: give a strand length and a bead size, and the number of beads is estimated as
-              length ÷ size.
-            </Text>
+            <>
+              <Text size={200}>
+                Count helper: give a strand length and a bead size, and the number of beads is estimated as
+                length ÷ size.
+              </Text>
+              <CountSource />
+            </>
           )}
         </div>
       </Section>
@@ -309,6 +338,12 @@ export function DescriptionSections({
           />
         </Field>
       </Section>
+      <SafetyCautions
+        cautions={safetyCautions({
+          words: [draft.title, draft.summary, draft.colours, draft.decorationNote, draft.condition],
+        }).filter((c) => c.rule === 'uranium-handling' || c.rule === 'lead-glass')}
+        label="Handling cautions"
+      />
     </>
   );
 }

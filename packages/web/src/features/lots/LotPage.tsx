@@ -1,4 +1,4 @@
-import { verifyRoll, type RollState } from '@beadroll/core';
+import { recordCautions, verifyRoll, type RollState } from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -32,6 +32,7 @@ import {
 } from './labels';
 import { LOT_ACTIONS, LOT_PANELS, type LotActionContext } from './lot-actions';
 import { lotsQueries, useActorNames, type OwnSealedDetails } from './lots.api';
+import { SafetyCautions } from '../safety/SafetyCautions';
 import { PrivateMark } from './PrivateMark';
 import { checkedSealedDetails } from './sealed-details';
 import { timelineOf, type TimelineLine } from './timeline';
@@ -310,6 +311,9 @@ export function LotPage() {
       <Verification result={result} />
       {ctx ? <ActionBar ctx={ctx} /> : null}
       {state ? <Summary state={state} /> : null}
+      {result.ok ? (
+        <SafetyCautions cautions={recordCautions(result.verified)} label="Handling cautions" />
+      ) : null}
       {sealed ? <SealedDetails sealed={sealed.details} /> : null}
       {result.ok ? <Timeline entries={result.verified} viewer={account} /> : null}
       {ctx ? LOT_PANELS.map((p) => <Fragment key={p.id}>{p.render(ctx)}</Fragment>) : null}

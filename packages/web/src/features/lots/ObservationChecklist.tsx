@@ -1,8 +1,12 @@
-import type { Observations } from '@beadroll/core';
+import { safetyCautions, type Observations } from '@beadroll/core';
 import { Field, makeStyles, mergeClasses, Text, Textarea, tokens } from '@fluentui/react-components';
+import { SafetyCautions } from '../safety/SafetyCautions';
 import { UvACaution } from '../safety/UvACaution';
 import { ClueIcon } from './ClueIcon';
-import { OBSERVATION_QUESTIONS } from './labels';
+import { HINT_MARK, OBSERVATION_QUESTIONS } from './labels';
+
+/** Cautions the checklist shows as the clues are chosen: handling uranium glass, lead in glass. */
+const CHECKLIST_CAUTIONS = ['uranium-handling', 'lead-glass'];
 
 const useStyles = makeStyles({
   list: { display: 'grid', gap: tokens.spacingVerticalL },
@@ -40,6 +44,7 @@ const useStyles = makeStyles({
   radio: { position: 'absolute', opacity: 0, width: '1px', height: '1px', margin: 0 },
   words: { display: 'grid', gap: tokens.spacingVerticalXXS },
   hint: { color: tokens.colorNeutralForeground3 },
+  mark: { color: tokens.colorNeutralForeground3, fontStyle: 'italic' },
   clear: {
     justifySelf: 'start',
     background: 'none',
@@ -53,8 +58,11 @@ const useStyles = makeStyles({
 });
 
 /**
- * The physical clues as quick choices, each with a one-line explanation and a drawing. Leaving
- * a clue unanswered records nothing for it. Choosing a UV-A result shows the UV caution.
+ * The physical clues as quick choices, each with a one-line explanation (marked on screen as
+ * common practice, no source) and a drawing. Leaving a clue unanswered records nothing for it.
+ * The UV caution stands before the UV choices, so it is read before testing; a green glow brings
+ * the uranium handling caution, and lead glass or crystal named in the note (or suggested by
+ * the clues) the lead caution.
  */
 export function ObservationChecklist({
   value,
@@ -75,7 +83,9 @@ export function ObservationChecklist({
     else next[key] = v;
     onChange(next as Observations);
   };
-  const uvTested = value.uvA !== undefined && value.uvA !== 'not-tested';
+  const cautions = safetyCautions({ observations: value, words: value.note ? [value.note] : [] }).filter(
+    (c) => CHECKLIST_CAUTIONS.includes(c.rule),
+  );
   return (
     <div className={styles.list}>
       {OBSERVATION_QUESTIONS.map((q) => {
@@ -89,6 +99,7 @@ export function ObservationChecklist({
             data-invalid={problem ? 'true' : undefined}
           >
             <legend className={styles.legend}>{q.label}</legend>
+            {q.key === 'uvA' ? <UvACaution /> : null}
             <div className={styles.choices}>
               {q.choices.map((c) => {
                 const checked = value[q.key] === c.value;
@@ -118,7 +129,15 @@ export function ObservationChecklist({
                 Clear “{q.label.toLowerCase()}” (not recorded)
               </button>
             ) : null}
-            {q.key === 'uvA' && uvTested ? <UvACaution /> : null}
+            <Text size={200} className={styles.mark}>
+              Hints: {HINT_MARK}.
+            </Text>
+            {q.key === 'uvA' ? (
+              <SafetyCautions
+                cautions={cautions.filter((c) => c.rule === 'uranium-handling')}
+                label="Handling cautions"
+              />
+            ) : null}
             {problem ? (
               <Text id={`${name}-error`} role="alert">
                 {problem}
@@ -139,6 +158,7 @@ export function ObservationChecklist({
           resize="vertical"
         />
       </Field>
+      <SafetyCautions cautions={cautions.filter((c) => c.rule !== 'uranium-handling')} label="Lead caution" />
     </div>
   );
 }

@@ -107,16 +107,23 @@ export interface ObservationQuestion {
   choices: ObservationChoice[];
 }
 
+/** How the checklist's hints are marked on screen: they are the trade's habit, not a cited fact. */
+export const HINT_MARK = 'common practice, no source';
+
 /**
  * The clues of the checklist, in the order a dealer looks at a bead. The hints are common
- * practice among bead dealers, no source.
+ * practice among bead dealers, no source; the screen says so beside them (HINT_MARK).
  */
 export const OBSERVATION_QUESTIONS: ObservationQuestion[] = [
   {
     key: 'hole',
     label: 'Inside the hole',
     choices: [
-      { value: 'clean', label: 'Clean', hint: 'Smooth glass right through; nothing left from the mandrel.' },
+      {
+        value: 'clean',
+        label: 'Clean',
+        hint: 'Smooth glass right through, no powder; old and new beads can both look like this.',
+      },
       { value: 'powder', label: 'White or grey powder', hint: 'Traces of release agent left in the hole.' },
       {
         value: 'green-traces',
@@ -158,8 +165,20 @@ export const OBSERVATION_QUESTIONS: ObservationQuestion[] = [
       {
         value: 'uniform',
         label: 'Uniform',
-        hint: 'Beads alike in size and shape, as from a mould or machine.',
+        hint: 'Beads alike in size and shape, as from a mould, cut cane or a practised hand.',
       },
+    ],
+  },
+  {
+    key: 'mouldSeam',
+    label: 'Mould seam',
+    choices: [
+      {
+        value: 'seen',
+        label: 'Seen',
+        hint: 'A fine raised line round the bead where two halves of a mould met.',
+      },
+      { value: 'not-seen', label: 'Not seen', hint: 'No seam line, even under a loupe.' },
     ],
   },
   {
@@ -187,7 +206,11 @@ export const OBSERVATION_QUESTIONS: ObservationQuestion[] = [
     choices: [
       { value: 'not-tested', label: 'Not tested', hint: 'No UV test made.' },
       { value: 'none', label: 'No glow', hint: 'The glass stays dark under the torch.' },
-      { value: 'green-glow', label: 'Green glow', hint: 'A bright green glow, as uranium glass gives.' },
+      {
+        value: 'green-glow',
+        label: 'Green glow',
+        hint: 'A bright green glow. Uranium glass glows so, but manganese glass can glow greenish too.',
+      },
       { value: 'other', label: 'Another glow', hint: 'A glow of another colour; say which in the note.' },
     ],
   },

@@ -1,5 +1,4 @@
 import {
-  Link,
   makeStyles,
   MessageBar,
   MessageBarBody,
@@ -8,9 +7,17 @@ import {
   Text,
   tokens,
 } from '@fluentui/react-components';
-import type { AidResult, AidSource } from '@beadroll/core';
+import type { AidResult, Indication } from '@beadroll/core';
+import { SafetyCautions } from '../safety/SafetyCautions';
+import { Sources } from '../safety/Sources';
 import { UvACaution } from '../safety/UvACaution';
-import { ORIGIN_LABELS, TECHNIQUE_LABELS } from './words';
+import { ORIGIN_LABELS, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
+
+function indicationLabel(ind: Indication): string {
+  if (ind.origin) return ORIGIN_LABELS[ind.origin];
+  if (ind.technique) return TECHNIQUE_LABELS[ind.technique];
+  return ind.qualifier === 'later-copy' ? 'Later work in an older style' : QUALIFIER_LABELS[ind.qualifier!];
+}
 
 const useStyles = makeStyles({
   root: { display: 'grid', gap: tokens.spacingVerticalM },
@@ -20,45 +27,12 @@ const useStyles = makeStyles({
     display: 'grid',
     gap: tokens.spacingVerticalS,
   },
-  sources: { color: tokens.colorNeutralForeground3 },
   disclaimer: {
     padding: tokens.spacingHorizontalM,
     borderRadius: tokens.borderRadiusMedium,
     backgroundColor: tokens.colorNeutralBackground3,
   },
 });
-
-const STANDING_WORDS: Record<AidSource['standing'], string> = {
-  museum: 'museum',
-  standard: 'standards or safety body',
-  scholar: 'bead scholar',
-  'trade-page': 'trade page',
-  'common-practice': 'trade practice',
-  'from-memory': 'from memory, unchecked',
-};
-
-/** Sources of one rule: museums and standards bodies first (core already orders them). */
-export function Sources({ sources }: { sources: AidSource[] }) {
-  const styles = useStyles();
-  return (
-    <Text block size={200} className={styles.sources}>
-      Sources:{' '}
-      {sources.map((s, i) => (
-        <span key={`${s.title}-${i}`}>
-          {i > 0 ? '; ' : ''}
-          {s.url ? (
-            <Link href={s.url} target="_blank" rel="noreferrer">
-              {s.title}
-            </Link>
-          ) : (
-            s.title
-          )}{' '}
-          ({STANDING_WORDS[s.standing]})
-        </span>
-      ))}
-    </Text>
-  );
-}
 
 /**
  * What the attribution aid makes of the clues and the draft: ranked indications with their
@@ -82,7 +56,13 @@ export function AidPanel({ result }: { result: AidResult }) {
             <MessageBar key={w.rule} intent="warning" layout="multiline">
               <MessageBarBody>
                 <MessageBarTitle>
-                  {w.wholePeriod ? 'The whole period is too early' : 'The period starts too early'}
+                  {w.clueIsHint
+                    ? w.wholePeriod
+                      ? 'The whole period may be too early'
+                      : 'The period may start too early'
+                    : w.wholePeriod
+                      ? 'The whole period is too early'
+                      : 'The period starts too early'}
                 </MessageBarTitle>
                 <Text block>
                   {w.message} (not before {w.notBefore})
@@ -98,10 +78,8 @@ export function AidPanel({ result }: { result: AidResult }) {
       ) : (
         <ol className={styles.list} aria-label="Indications">
           {result.indications.map((ind) => (
-            <li key={`${ind.origin ?? ''}${ind.technique ?? ''}`}>
-              <Text weight="semibold">
-                {ind.origin ? ORIGIN_LABELS[ind.origin] : TECHNIQUE_LABELS[ind.technique!]}
-              </Text>{' '}
+            <li key={`${ind.origin ?? ''}${ind.technique ?? ''}${ind.qualifier ?? ''}`}>
+              <Text weight="semibold">{indicationLabel(ind)}</Text>{' '}
               <Text size={200}>(weight {ind.score})</Text>
               {ind.reasons.map((r) => (
                 <div key={r.rule}>
@@ -116,14 +94,7 @@ export function AidPanel({ result }: { result: AidResult }) {
       {(uv || otherCautions.length > 0) && (
         <div aria-label="Cautions">
           {uv && <UvACaution />}
-          {otherCautions.map((c) => (
-            <MessageBar key={c.rule} intent="warning" layout="multiline">
-              <MessageBarBody>
-                <Text block>{c.text}</Text>
-                <Sources sources={c.sources} />
-              </MessageBarBody>
-            </MessageBar>
-          ))}
+          <SafetyCautions cautions={otherCautions} />
         </div>
       )}
     </section>

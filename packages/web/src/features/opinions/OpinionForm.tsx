@@ -112,13 +112,14 @@ export function OpinionForm({
       attributionAid({
         observations: observations ?? undefined,
         decoration,
+        words: [originNote, decorationText, rationale, observations?.note ?? ''],
         draft: {
           origin,
           technique,
           period: fromYear !== null && toYear !== null ? { from: fromYear, to: toYear } : undefined,
         },
       }),
-    [observations, decoration, origin, technique, fromYear, toYear],
+    [observations, decoration, origin, technique, fromYear, toYear, originNote, decorationText, rationale],
   );
   const thisYear = new Date().getUTCFullYear();
   const periodProblem =

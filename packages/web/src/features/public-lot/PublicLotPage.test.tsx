@@ -347,3 +347,20 @@ function nameOf(id: string): string {
   return `${c.displayName} (${c.business})`;
 }
 void DEALER_A;
+
+describe('public lot page: an old (format version 1) roll whose removed body held a rule fact', () => {
+  it('says the history is unbroken but not fully checkable after a removal', async () => {
+    // The version-1 example bundle as the version-1 writer made it: its second lot has a note
+    // whose body the registrar removed, so the note's reference can no longer be checked.
+    const frozen = (await import('../../../../core/test/fixtures/bundle-v1.json')).default as core.Bundle;
+    const data: PublicLotResponse = {
+      code: frozen.rolls[1]!.lot,
+      bundle: core.createBundle([structuredClone(frozen.rolls[1]!)]),
+      cards: CARDS,
+    };
+    serve(data);
+    open(`/L/${data.code}`);
+    await waitFor(() => expect(status()).toHaveTextContent('not fully checkable after a removal'));
+    expect(status()).not.toHaveTextContent('History broken');
+  });
+});

@@ -7,6 +7,7 @@ import { Ancestry } from './Ancestry';
 import { brandVars } from './brand-vars';
 import { checkLot, checkTag, type LotCheck } from './check-lot';
 import { exhibitsOf, Gallery } from './Gallery';
+import { HandlingCautions } from './HandlingCautions';
 import { HolderCard, LotFacts } from './LotFacts';
 import { NotFound } from './NotFound';
 import { Opinions } from './Opinions';
@@ -74,6 +75,7 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
           <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
           {check?.ok && <LotFacts state={check.state} />}
+          {check?.ok && <HandlingCautions entries={check.entries} />}
         </div>
         {q.isError && (
           <div className="pl-card pl-error" role="alert">

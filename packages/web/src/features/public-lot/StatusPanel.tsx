@@ -35,6 +35,24 @@ export function StatusPanel({
 }
 
 function HistoryLine({ check }: { check: LotCheck }) {
+  if (check.ok && check.unchecked.length > 0) {
+    const first = check.unchecked[0]!;
+    return (
+      <>
+        <p className="pl-status-line pl-warn">
+          <span aria-hidden="true" className="pl-mark">
+            !
+          </span>{' '}
+          Unbroken, but not fully checkable after a removal
+        </p>
+        <p className="pl-status-sub">
+          Every fingerprint and link checks out, but the registrar removed an old entry's contents, and{' '}
+          {check.unchecked.length === 1 ? 'one rule' : `${check.unchecked.length} rules`} of this older
+          history could not be checked without them (entry {first.seq}: {first.message}).
+        </p>
+      </>
+    );
+  }
   if (check.ok) {
     const n = check.entries.length;
     const more = check.bundleEntries - n;

@@ -10,6 +10,7 @@ import {
   verifyRoll,
   type Bundle,
   type BundleRoll,
+  type UncheckedRule,
   type ReasonCode,
   type RollState,
   type VerifiedEntry,
@@ -46,6 +47,11 @@ export type LotCheck =
       ancestors: AncestorView[];
       /** Entries checked across the whole bundle (this roll and its ancestors). */
       bundleEntries: number;
+      /**
+       * Rules an old (format version 1) entry could not be checked against because a removed
+       * body held the fact they need; empty when the history is fully checked.
+       */
+      unchecked: UncheckedRule[];
     }
   | {
       ok: false;
@@ -114,6 +120,7 @@ export function checkLot(code: string, raw: unknown): LotCheck {
     state: own.state,
     ancestors: ancestorsOf(code, own.state, bundle, all.rolls),
     bundleEntries: all.entries,
+    unchecked: all.rolls.flatMap((r) => r.unchecked),
   };
 }
 

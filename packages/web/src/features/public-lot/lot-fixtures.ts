@@ -23,7 +23,7 @@ const card = (id: string, displayName: string, business: string, town: string): 
 
 export const CARDS: Record<string, DealerCard> = {
   [DEALER_A]: card(DEALER_A, 'Ines Varro', 'Varro Old Glass', 'Larkmoor'),
-  [DEALER_B]: card(DEALER_B, 'Osric Pell', 'Pell & Daughter Beads', 'Oldbridge'),
+  [DEALER_B]: card(DEALER_B, 'Osric Pell', 'Pell & Daughter Beads', 'Sommerso Bridge'),
   [ASSESSOR]: card(ASSESSOR, 'Wren Abelard', 'Abelard Bead Studies', 'Fennick'),
 };
 

@@ -115,6 +115,13 @@ export const BREAK_WORDS: Record<ReasonCode, string> = {
   'missing-body': 'its contents are missing and no removal by the registrar is on record',
   'bad-body': 'its contents are not a valid entry of its kind',
   'bad-transition': 'the rules of a roll do not allow it at that point',
+  'bad-facts': 'the facts its header commits to do not match its contents',
+  'bad-roll': 'the data served for this lot is not shaped like a roll',
+  'bad-entry': 'an entry in the data served is not shaped like an entry',
+  'bad-lot-code': 'the data served names a lot code that is not valid',
+  'duplicate-lot': 'the data served holds this lot more than once',
+  'bad-log-index': 'an entry carries a log position that is not a whole number',
+  'unnamed-link': 'the data served includes an entry of another lot that no lot here was made from',
 };
 
 const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observations[K]>) => string } = {
@@ -128,6 +135,7 @@ const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observat
   holeShape: (v) => (v === 'irregular' ? 'irregular hole' : 'regular hole'),
   windingMarks: (v) => (v === 'seen' ? 'winding marks seen' : 'no winding marks seen'),
   beadShape: (v) => (v === 'irregular' ? 'irregular shapes' : 'uniform shapes'),
+  mouldSeam: (v) => (v === 'seen' ? 'mould seam seen' : 'no mould seam seen'),
   surface: (v) => `${v} surface`,
   foil: (v) => ({ none: 'no foil', intact: 'foil intact', worn: 'foil worn' })[v],
   uvA: (v) =>
@@ -143,7 +151,17 @@ const OBSERVATION_WORDS: { [K in keyof Observations]-?: (v: NonNullable<Observat
 /** The recorded physical clues as a list of short phrases. */
 export function observationPhrases(o: Observations): string[] {
   const out: string[] = [];
-  for (const key of ['hole', 'holeShape', 'windingMarks', 'beadShape', 'surface', 'foil', 'uvA'] as const) {
+  const keys = [
+    'hole',
+    'holeShape',
+    'windingMarks',
+    'beadShape',
+    'mouldSeam',
+    'surface',
+    'foil',
+    'uvA',
+  ] as const;
+  for (const key of keys) {
     const v = o[key];
     if (v !== undefined) out.push((OBSERVATION_WORDS[key] as (x: typeof v) => string)(v));
   }

@@ -26,10 +26,10 @@ const registrar: Me = {
   status: 'verified',
   handle: 'registry-desk',
   displayName: 'Juno Pellarin',
-  email: 'juno@example.test',
+  email: 'juno@example.invalid',
   business: 'Registry',
-  town: 'Kestrel Ford',
-  country: 'Valdaria',
+  town: 'Rocaille Ford',
+  country: 'Marver Isles',
   emailVerified: true,
   verifiedSince: '2025-03-01T09:00:00Z',
   statusReason: null,
@@ -68,14 +68,14 @@ describe('report a problem (public page)', () => {
 
     await user.click(screen.getByRole('radio', { name: 'Suspected counterfeit or imitation' }));
     await user.type(screen.getByLabelText('What is wrong'), 'The holes are drilled, not wound.');
-    await user.type(screen.getByLabelText(/Your e-mail address/), 'buyer@example.test');
+    await user.type(screen.getByLabelText(/Your e-mail address/), 'buyer@example.invalid');
     await user.click(screen.getByRole('button', { name: 'Send the report' }));
     expect(await screen.findByRole('status')).toHaveTextContent('The registrar will look at your report.');
     expect(calls[0]!.url).toBe('/api/public/lots/7K2QM9XAT/reports');
     expect(JSON.parse(calls[0]!.body)).toEqual({
       category: 'counterfeit',
       text: 'The holes are drilled, not wound.',
-      email: 'buyer@example.test',
+      email: 'buyer@example.invalid',
     });
   });
 
@@ -106,7 +106,7 @@ describe('report a problem (public page)', () => {
     expect(await screen.findByText('must be an e-mail address')).toBeInTheDocument();
     // Nothing typed is lost, and mending the field takes its old error away.
     expect(screen.getByLabelText('What is wrong')).toHaveValue('Entry 3 names my street.');
-    await user.type(screen.getByLabelText(/Your e-mail address/), '@example.test');
+    await user.type(screen.getByLabelText(/Your e-mail address/), '@example.invalid');
     expect(screen.queryByText('must be an e-mail address')).not.toBeInTheDocument();
   });
 });

@@ -31,9 +31,13 @@ export function UvACaution() {
           <ul className={styles.list}>
             {caution.sources.map((s) => (
               <li key={s.title}>
-                <Link href={s.url} target="_blank" rel="noreferrer">
-                  {s.title}
-                </Link>
+                {s.url ? (
+                  <Link href={s.url} target="_blank" rel="noreferrer">
+                    {s.title}
+                  </Link>
+                ) : (
+                  s.title
+                )}
               </li>
             ))}
           </ul>

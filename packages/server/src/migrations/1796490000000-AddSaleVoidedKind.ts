@@ -23,8 +23,8 @@ const BEFORE = [
 const list = (kinds: string[]) => kinds.map((k) => `'${k}'`).join(', ');
 
 /** Rolls take a `sale-voided` entry: the seller undoes a sale recorded by mistake. */
-export class AddSaleVoidedKind1796180000000 implements MigrationInterface {
-  name = 'AddSaleVoidedKind1796180000000';
+export class AddSaleVoidedKind1796490000000 implements MigrationInterface {
+  name = 'AddSaleVoidedKind1796490000000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`ALTER TABLE "entries" DROP CONSTRAINT "ck_entries_kind"`);

@@ -1,0 +1,79 @@
+import type {
+  AnyBody,
+  CombinedBody,
+  DescribedBody,
+  ObservedBody,
+  SaleVoidedBody,
+  EntryKind,
+  ExhibitAddedBody,
+  NoteBody,
+  OpinionBody,
+  OpinionWithdrawnBody,
+  RedactedBody,
+  RegisteredBody,
+  RuleFacts,
+  SplitBody,
+  TransferAnswerBody,
+  TransferOfferedBody,
+} from './types.js';
+
+/**
+ * The rule facts of a body (format version 2): the members the roll rules read, copied under
+ * the same names. Pure. Precondition: `body` has the shape of `kind` (see `bodyIssues`); the
+ * nonce and free text never appear in the result.
+ */
+export function factsOf(kind: EntryKind, body: AnyBody | Omit<AnyBody, 'nonce'>): RuleFacts {
+  switch (kind) {
+    case 'registered':
+    case 'described': {
+      const d = (body as RegisteredBody).description;
+      const c = (body as DescribedBody).corrects;
+      return {
+        count: { value: d.count.value, estimated: d.count.estimated },
+        listed: d.listed,
+        ...(c ? { corrects: c.seq } : {}),
+      };
+    }
+    case 'exhibit-added': {
+      const b = body as ExhibitAddedBody;
+      return 'exhibit' in b ? { original: b.exhibit.original.sha256 } : { sealedOnly: true };
+    }
+    case 'opinion':
+      return { exhibits: [...(body as OpinionBody).exhibits] };
+    case 'opinion-withdrawn':
+      return { opinionSeq: (body as OpinionWithdrawnBody).opinionSeq };
+    case 'transfer-offered':
+      return { recipient: (body as TransferOfferedBody).recipient };
+    case 'transfer-accepted':
+    case 'transfer-declined':
+    case 'transfer-withdrawn':
+    case 'transfer-lapsed':
+      return { offerSeq: (body as TransferAnswerBody).offerSeq };
+    case 'split':
+      return {
+        children: (body as SplitBody).children.map((c) => ({
+          lot: c.lot,
+          count: { value: c.count.value, estimated: c.count.estimated },
+        })),
+      };
+    case 'combined': {
+      const b = body as CombinedBody;
+      return { child: b.child, count: { value: b.count.value, estimated: b.count.estimated } };
+    }
+    case 'redacted':
+      return { target: (body as RedactedBody).target };
+    case 'note': {
+      const ref = (body as NoteBody).ref;
+      return ref === undefined ? {} : { ref };
+    }
+    case 'observed': {
+      const c = (body as ObservedBody).corrects;
+      return c ? { corrects: c.seq } : {};
+    }
+    case 'sale-voided':
+      return { saleSeq: (body as SaleVoidedBody).saleSeq };
+    case 'sold':
+    case 'retired':
+      return {};
+  }
+}
