@@ -7,6 +7,7 @@ import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
 import { INHERITED_SCOPE, verifyInheritedRoll } from './inherited.js';
+import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
 import type { BundleCheckpoint } from './log.js';
 import { verifyRoll, type UncheckedRule, type VerifiedEntry, type VerifyFailure } from './verify.js';
@@ -206,6 +207,8 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
     if (bodyDigest(e.body) !== h.body)
       return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
     const issues = bodyIssues(h.kind, body, h.v);
+    if (issues.length === 0 && h.v >= 2)
+      issues.push(...bodyBoundIssues(h.kind, body as SplitBody | CombinedBody, h.time));
     if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
     if (h.facts && canonicalise(factsOf(h.kind, body as SplitBody)) !== canonicalise(h.facts))
       return fail(h.seq, 'bad-facts', 'the header facts differ from the body');

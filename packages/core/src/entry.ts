@@ -20,6 +20,7 @@ import {
   type ParentRef,
   type SealedValues,
 } from './types.js';
+import { bodyBoundIssues, sealedBoundIssues } from './bounds.js';
 import { bodyIssues, factsIssues, isActorId, isEntryTime, isHex64 } from './validate.js';
 
 /** An entry as stored and exported: the exact canonical strings and the claimed entry hash. */
@@ -126,10 +127,13 @@ export function buildEntry<K extends EntryKind>(
   if (issues.length > 0) throw new ValidationError(issues, 'bad-draft');
 
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
-  const bIssues = bodyIssues(draft.kind, body, version);
-  if (bIssues.length > 0)
+  let bIssues = bodyIssues(draft.kind, body, version);
+  // New entries meet the plausibility bounds too (format version 2 rules).
+  if (bIssues.length === 0) bIssues = bodyBoundIssues(draft.kind, body, draft.time);
+  const sIssues = draft.sealed && bIssues.length === 0 ? sealedBoundIssues(draft.sealed, draft.time) : [];
+  if (bIssues.length > 0 || sIssues.length > 0)
     throw new ValidationError(
-      bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })),
+      [...bIssues.map((i) => ({ ...i, path: i.path ? `body.${i.path}` : 'body' })), ...sIssues],
       'bad-body',
     );
   let bodyText: string;

@@ -1,6 +1,9 @@
 import type {
   AnyBody,
   CombinedBody,
+  DescribedBody,
+  ObservedBody,
+  SaleVoidedBody,
   EntryKind,
   ExhibitAddedBody,
   NoteBody,
@@ -24,7 +27,12 @@ export function factsOf(kind: EntryKind, body: AnyBody | Omit<AnyBody, 'nonce'>)
     case 'registered':
     case 'described': {
       const d = (body as RegisteredBody).description;
-      return { count: { value: d.count.value, estimated: d.count.estimated }, listed: d.listed };
+      const c = (body as DescribedBody).corrects;
+      return {
+        count: { value: d.count.value, estimated: d.count.estimated },
+        listed: d.listed,
+        ...(c ? { corrects: c.seq } : {}),
+      };
     }
     case 'exhibit-added': {
       const b = body as ExhibitAddedBody;
@@ -58,7 +66,12 @@ export function factsOf(kind: EntryKind, body: AnyBody | Omit<AnyBody, 'nonce'>)
       const ref = (body as NoteBody).ref;
       return ref === undefined ? {} : { ref };
     }
-    case 'observed':
+    case 'observed': {
+      const c = (body as ObservedBody).corrects;
+      return c ? { corrects: c.seq } : {};
+    }
+    case 'sale-voided':
+      return { saleSeq: (body as SaleVoidedBody).saleSeq };
     case 'sold':
     case 'retired':
       return {};

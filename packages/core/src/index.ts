@@ -74,6 +74,7 @@ export type { StoredEntry, EntryDraft, BuiltEntry, ReasonCode, HeaderProblem } f
 export {
   FINAL_STATUSES,
   TRANSITION_RULES,
+  VOID_WINDOW_MS,
   checkTransition,
   isReservedActor,
   opinionsDisagree,
@@ -243,3 +244,23 @@ export type {
   SourceStanding,
 } from './aid-rules.js';
 export { periodWords, yearWords } from './period.js';
+export {
+  BOUNDS,
+  CURRENCIES,
+  EARLIEST_DATE,
+  amountProblem,
+  beadSizeProblem,
+  bodyBoundIssues,
+  countProblem,
+  currencyOf,
+  currencyProblem,
+  dateProblem,
+  descriptionIssues,
+  moneyIssues,
+  parseAmount,
+  sealedBoundIssues,
+  strandLengthProblem,
+  yearProblem,
+  yearText,
+} from './bounds.js';
+export type { Currency } from './bounds.js';

@@ -94,6 +94,12 @@ export interface RollState {
   soldOn: string | null;
   /** seq of the `sold` entry, or null. */
   soldSeq: number | null;
+  /** time of the `sold` entry, or null (a sale may be voided within {@link VOID_WINDOW_MS} of it). */
+  soldTime: string | null;
+  /** seqs of the entries holding a description (`registered` and `described`), oldest first. */
+  descriptionSeqs: number[];
+  /** seqs of the `observed` entries, oldest first. */
+  observationSeqs: number[];
   parents: ParentRef[];
   children: ChildLink[];
   /** seqs of `split`/`combined` entries (never redactable). */
@@ -116,7 +122,12 @@ export interface TransitionDraft {
   parents?: ParentRef[];
   /** Format version of the entry; default {@link FORMAT_VERSION}. */
   version?: FormatVersion;
+  /** The entry's time (RFC 3339 UTC); rules that depend on time (voiding a sale) need it. */
+  time?: string;
 }
+
+/** How long after a sale its seller may void it: 24 hours, in milliseconds. */
+export const VOID_WINDOW_MS = 24 * 60 * 60 * 1000;
 
 /**
  * Outcome of {@link checkTransition}. `unchecked` (version 1 only) lists what the rules could
@@ -195,6 +206,11 @@ export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
   split: { actor: 'holder', statuses: ['held'], summary: 'children counts do not exceed an exact count' },
   combined: { actor: 'holder', statuses: ['held'], summary: 'count taken does not exceed an exact count' },
   sold: { actor: 'holder', statuses: ['held'], summary: 'sale to a private buyer' },
+  'sale-voided': {
+    actor: 'holder',
+    statuses: ['sold'],
+    summary: 'the seller, within 24 hours of the sale it names (the current sale); the lot is held again',
+  },
   retired: { actor: 'holder', statuses: ['held'], summary: 'taken out of trade' },
   redacted: {
     actor: 'anyone',
@@ -227,6 +243,7 @@ const FACT_RULE_KINDS = new Set<EntryKind>([
   'transfer-withdrawn',
   'transfer-lapsed',
   'note',
+  'sale-voided',
 ]);
 
 function sameCount(a: BeadCount, b: BeadCount): boolean {
@@ -306,7 +323,21 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
   }
   const head = state.head.seq;
   switch (kind) {
+    case 'observed':
+      if (facts.corrects !== undefined && !state.observationSeqs.includes(facts.corrects))
+        return bad('bad-transition', `seq ${facts.corrects} is not an earlier observation`);
+      break;
+    case 'sale-voided': {
+      if (facts.saleSeq !== state.soldSeq) return bad('bad-transition', `the sale is seq ${state.soldSeq}`);
+      if (draft.time === undefined || state.soldTime === null)
+        return bad('bad-transition', 'a void needs the time of the sale and of the void');
+      if (Date.parse(draft.time) - Date.parse(state.soldTime) > VOID_WINDOW_MS)
+        return bad('bad-transition', 'a sale can be voided only within 24 hours of it');
+      break;
+    }
     case 'described': {
+      if (facts.corrects !== undefined && !state.descriptionSeqs.includes(facts.corrects))
+        return bad('bad-transition', `seq ${facts.corrects} is not an earlier description`);
       const count = countOf(state);
       const next = facts.count!;
       if (FINAL_STATUSES.includes(state.status)) {
@@ -473,6 +504,9 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       dissents: [],
       soldOn: null,
       soldSeq: null,
+      soldTime: null,
+      descriptionSeqs: [0],
+      observationSeqs: [],
       parents: h.parents ?? [],
       children: [],
       linkSeqs: [],
@@ -485,6 +519,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
     case 'described': {
       s.description = body ? (body as RegisteredBody).description : null;
       s.descriptionSeq = h.seq;
+      s.descriptionSeqs = [...s.descriptionSeqs, h.seq];
       s.listed = facts ? facts.listed! : false;
       s.listedKnown = facts !== null;
       if (ACTIVE.includes(s.status)) {
@@ -540,10 +575,20 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       if (s.remaining.value === 0) s.status = h.kind;
       break;
     }
+    case 'observed':
+      s.observationSeqs = [...s.observationSeqs, h.seq];
+      break;
     case 'sold':
       s.status = 'sold';
       s.soldOn = body ? (body as SoldBody).date : null;
       s.soldSeq = h.seq;
+      s.soldTime = h.time;
+      break;
+    case 'sale-voided':
+      s.status = 'held';
+      s.soldOn = null;
+      s.soldSeq = null;
+      s.soldTime = null;
       break;
     case 'retired':
       s.status = 'retired';

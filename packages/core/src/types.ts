@@ -23,6 +23,7 @@ export const ENTRY_KINDS = [
   'split',
   'combined',
   'sold',
+  'sale-voided',
   'retired',
   'redacted',
   'note',
@@ -92,6 +93,10 @@ export interface RuleFacts {
   target?: number;
   /** note. */
   ref?: number;
+  /** described, observed: seq of the earlier entry the correction names. */
+  corrects?: number;
+  /** sale-voided: seq of the sale it voids. */
+  saleSeq?: number;
 }
 
 /** A count of beads: exact, or an estimate marked as such. */
@@ -228,11 +233,19 @@ export interface BodyBase {
 export interface RegisteredBody extends BodyBase {
   description: LotDescription;
 }
+/** Names the earlier entry a `described` or `observed` entry corrects, and why. */
+export interface Correction {
+  /** seq of an earlier entry of the same kind (`registered` counts as a description). */
+  seq: number;
+  reason: string;
+}
 export interface DescribedBody extends BodyBase {
   description: LotDescription;
+  corrects?: Correction;
 }
 export interface ObservedBody extends BodyBase {
   observations: Observations;
+  corrects?: Correction;
 }
 export type ExhibitAddedBody = (BodyBase & { exhibit: ExhibitRef }) | (BodyBase & { sealedOnly: true });
 export interface OpinionBody extends BodyBase {
@@ -282,6 +295,12 @@ export interface SoldBody extends BodyBase {
   /** Calendar date of the sale, YYYY-MM-DD. */
   date: string;
 }
+/** Undoes a mistaken sale: written by the seller within 24 hours of the `sold` entry. */
+export interface SaleVoidedBody extends BodyBase {
+  /** seq of the `sold` entry it voids. */
+  saleSeq: number;
+  reason?: string;
+}
 export interface RetiredBody extends BodyBase {
   note?: string;
 }
@@ -311,6 +330,7 @@ export interface BodyByKind {
   split: SplitBody;
   combined: CombinedBody;
   sold: SoldBody;
+  'sale-voided': SaleVoidedBody;
   retired: RetiredBody;
   redacted: RedactedBody;
   note: NoteBody;

@@ -268,9 +268,15 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     const o = c.obj(b, '', ['nonce', 'description']);
     if (o && 'description' in o) checkDescription(c, o.description, 'description');
   },
-  described: (c, b) => bodyCheckers.registered(c, b),
+  described: (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'description'], ['corrects']);
+    if (!o) return;
+    if ('description' in o) checkDescription(c, o.description, 'description');
+    if ('corrects' in o) checkCorrection(c, o.corrects);
+  },
   observed: (c, b) => {
-    const o = c.obj(b, '', ['nonce', 'observations']);
+    const o = c.obj(b, '', ['nonce', 'observations'], ['corrects']);
+    if (o && 'corrects' in o) checkCorrection(c, o.corrects);
     if (!o || !('observations' in o)) return;
     const p = 'observations';
     const ob = c.obj(
@@ -400,6 +406,12 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     const o = c.obj(b, '', ['nonce', 'date']);
     if (o) c.pattern(o, 'date', '', isCalendarDate, 'a date YYYY-MM-DD');
   },
+  'sale-voided': (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'saleSeq'], ['reason']);
+    if (!o) return;
+    c.int(o, 'saleSeq', '', 0, SEQ_MAX);
+    c.str(o, 'reason', '', LIMITS.longText, true);
+  },
   retired: (c, b) => {
     const o = c.obj(b, '', ['nonce'], ['note']);
     if (o) c.str(o, 'note', '', LIMITS.longText, true);
@@ -417,6 +429,13 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     c.int(o, 'ref', '', 0, SEQ_MAX, true);
   },
 };
+
+function checkCorrection(c: Checker, v: unknown): void {
+  const o = c.obj(v, 'corrects', ['seq', 'reason']);
+  if (!o) return;
+  c.int(o, 'seq', 'corrects', 0, SEQ_MAX);
+  c.str(o, 'reason', 'corrects', LIMITS.longText);
+}
 
 function answer(c: Checker, b: unknown): void {
   const o = c.obj(b, '', ['nonce', 'offerSeq'], ['note']);
@@ -513,10 +532,11 @@ export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
   switch (kind) {
     case 'registered':
     case 'described': {
-      const o = exact(['count', 'listed']);
+      const o = exact(['count', 'listed'], kind === 'described' ? ['corrects'] : []);
       if (!o) break;
       if ('count' in o) c.count(o.count, join(p, 'count'));
       c.bool(o, 'listed', p);
+      c.int(o, 'corrects', p, 0, SEQ_MAX, true);
       break;
     }
     case 'exhibit-added': {
@@ -593,7 +613,16 @@ export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
       if (o) c.int(o, 'ref', p, 0, SEQ_MAX, true);
       break;
     }
-    case 'observed':
+    case 'observed': {
+      const o = exact([], ['corrects']);
+      if (o) c.int(o, 'corrects', p, 0, SEQ_MAX, true);
+      break;
+    }
+    case 'sale-voided': {
+      const o = exact(['saleSeq']);
+      if (o) c.int(o, 'saleSeq', p, 0, SEQ_MAX);
+      break;
+    }
     case 'sold':
     case 'retired':
       exact([]);

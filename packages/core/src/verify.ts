@@ -4,6 +4,7 @@ import { decodeHeader, isHeaderProblem, NEVER_REDACTED, type ReasonCode, type St
 import { bodyDigest, entryHash } from './hash.js';
 import { checkTransition, reduceEntry, type RollHead, type RollState } from './rules.js';
 import { GENESIS_PREV, type AnyBody, type EntryHeader } from './types.js';
+import { bodyBoundIssues } from './bounds.js';
 import { bodyIssues, isHex64 } from './validate.js';
 
 /** The first entry at which a roll breaks. */
@@ -125,6 +126,8 @@ export class RollVerifier {
       if (bodyDigest(entry.body) !== h.body)
         return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
       const issues = bodyIssues(h.kind, body, h.v);
+      // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
+      if (issues.length === 0 && h.v >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
       if (h.facts && canonicalise(factsOf(h.kind, body)) !== canonicalise(h.facts))
         return this.fail(h.seq, 'bad-facts', 'the header facts differ from the body');
@@ -140,6 +143,7 @@ export class RollVerifier {
       facts: h.facts,
       parents: h.parents,
       version: h.v,
+      time: h.time,
     });
     if (!t.ok) return this.fail(h.seq, t.code, t.message);
     for (const message of t.unchecked ?? []) this.unchecked.push({ seq: h.seq, message });

@@ -60,10 +60,13 @@ export class RollBuilder {
       parents?: { lot: string; seq: number; hash: string }[];
       /** Build without asking the rules (and without folding it into the state). */
       unchecked?: boolean;
+      /** The entry's time instead of the next minute. */
+      time?: string;
       /** With `unchecked`: fold it into the state anyway, as a careless writer would. */
       force?: boolean;
     } = {},
   ): BuiltEntry | { refused: string } {
+    const time = extra.time ?? this.time();
     if (!extra.unchecked) {
       const t = checkTransition(this.state, {
         kind,
@@ -71,13 +74,14 @@ export class RollBuilder {
         body,
         parents: extra.parents,
         version: this.version,
+        time,
       });
       if (!t.ok) return { refused: t.code };
     }
     const head = this.built.length ? headOf(this.built.at(-1)!) : null;
     const b = buildEntry(
       head,
-      { lot: this.lot, kind, actor, time: this.time(), body, sealed: extra.sealed, parents: extra.parents },
+      { lot: this.lot, kind, actor, time, body, sealed: extra.sealed, parents: extra.parents },
       { random: this.random, version: this.version },
     );
     this.built.push(b);

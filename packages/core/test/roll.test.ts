@@ -554,7 +554,7 @@ describe('verification', () => {
               : kind === 'observed'
                 ? { observations: {} }
                 : kind === 'sold'
-                  ? { date: '2025-02-01' }
+                  ? { date: '2025-01-01' }
                   : {};
           r.add(kind, intruder, body as never, { unchecked: true });
           expect(verifyRoll(r.stored)).toMatchObject({

@@ -14,6 +14,7 @@ import { MailModule } from './mail/mail.module';
 import { AccountsModule } from './accounts/accounts.module';
 import { LedgerModule } from './ledger/ledger.module';
 import { LotsModule } from './lots/lots.module';
+import { LotImportsModule } from './lot-imports/lot-imports.module';
 import { TransfersModule } from './transfers/transfers.module';
 import { RegistryToolsModule } from './registry/registry.module';
 import { OpinionsModule } from './opinions/opinions.module';
@@ -42,6 +43,7 @@ import { StandbyModule } from './standby/standby.module';
     AccountsModule,
     LedgerModule,
     LotsModule,
+    LotImportsModule,
     OpinionsModule,
     LineageModule,
     ExhibitsModule,

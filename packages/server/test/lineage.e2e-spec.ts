@@ -158,7 +158,10 @@ describe('splits and combinations', () => {
         .send({ children: [child(30), child(0)] });
       expect(empty.status).toBe(400);
       expect(empty.body.error.fields).toEqual([
-        { field: 'children.1.description.count.value', reason: 'a new lot holds at least one bead' },
+        {
+          field: 'children.1.description.count.value',
+          reason: 'Enter a whole number of beads between 1 and 1,000,000',
+        },
       ]);
       const badTitle = await odile.agent
         .post(`/api/lots/${parent}/splits`)

@@ -14,7 +14,7 @@ async function signIn(page: Page, baseUrl: string, email: string, password: stri
   await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }
 
 async function signOut(page: Page) {
@@ -98,6 +98,9 @@ describe('accounts in Chromium', () => {
     await signOut(page);
 
     await signIn(page, baseUrl, email, password);
+    // A verified dealer lands on the inventory.
+    await page.getByRole('heading', { name: 'Inventory', level: 1 }).waitFor();
+    await page.goto(`${baseUrl}/account`);
     await expect(page.locator('#account-title').textContent()).resolves.toBe('Sela Marrowind');
     await page.getByText('Verified', { exact: true }).waitFor();
     expect(await page.getByRole('link', { name: 'Verification queue' }).count()).toBe(0);

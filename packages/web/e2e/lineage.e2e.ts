@@ -26,7 +26,7 @@ describe('splitting a strand in Chromium', () => {
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(ines.email);
     await page.getByLabel('Password').fill(demo.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 
     // A fresh strand to split, registered through the API as the signed-in dealer.
     const code = await page.evaluate(async () => {

@@ -19,7 +19,7 @@ async function signIn(page: Page, baseUrl: string, email: string, password: stri
   await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }
 
 /** A listed lot of the demo scenario. */

@@ -136,7 +136,7 @@ describe('the fair scanner, signed in as the holder', () => {
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(dealer.email);
     await page.getByLabel('Password').fill(demo.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     await page.goto(`${baseUrl}/scan`);
     await page.getByRole('button', { name: 'Start camera' }).click();
     await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });

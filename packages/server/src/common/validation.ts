@@ -33,7 +33,8 @@ function reasonsOf(constraints: Record<string, string>): string[] {
     .map(([, reason]) => reason);
 }
 
-function flatten(errors: ValidationError[], prefix = ''): FieldProblem[] {
+/** class-validator's errors as field problems, one reason per field path. */
+export function flatten(errors: ValidationError[], prefix = ''): FieldProblem[] {
   const out: FieldProblem[] = [];
   for (const e of errors) {
     const field = prefix ? `${prefix}.${e.property}` : e.property;
@@ -49,6 +50,8 @@ export function createValidationPipe(): ValidationPipe {
   return new ValidationPipe({
     whitelist: true,
     forbidNonWhitelisted: true,
+    // One reason per field, the first that fails: a dealer reads one thing to fix.
+    stopAtFirstError: true,
     transform: true,
     exceptionFactory: (errors) => AppError.validation(flatten(errors)),
   });

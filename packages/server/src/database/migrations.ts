@@ -12,6 +12,7 @@ import { CreateLog1796490000000 } from '../migrations/1796490000000-CreateLog';
 import { InventorySearch1796490300000 } from '../migrations/1796490300000-InventorySearch';
 import { OpinionRequests1796490400000 } from '../migrations/1796490400000-OpinionRequests';
 import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
+import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddSaleVoidedKind';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -28,4 +29,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   InventorySearch1796490300000,
   OpinionRequests1796490400000,
   ApplicantDetails1796490500000,
+  AddSaleVoidedKind1796490600000,
 ];

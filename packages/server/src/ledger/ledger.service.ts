@@ -7,6 +7,7 @@ import {
   entryHash,
   isHeaderProblem,
   checkTransition,
+  verifyRoll,
   generateLotCode,
   isCanonicalLotCode,
   reduceEntry,
@@ -124,6 +125,22 @@ export class RollTransaction {
     return lot;
   }
 
+  /**
+   * A state stored before the rules tracked sale times and correctable entries lacks those
+   * fields: it is derived again from the lot's verified entries (once; the next write stores it).
+   */
+  private async current(lotId: string, state: RollState): Promise<RollState> {
+    if (Array.isArray(state.descriptionSeqs) && state.soldTime !== undefined) return state;
+    const rows: Array<{ hash: string; header: string; body: string | null }> = await this.manager.query(
+      `SELECT e."hash", e."header", b."body" FROM "entries" e
+       LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE e."lot_id" = $1 ORDER BY e."seq"`,
+      [lotId],
+    );
+    const v = verifyRoll(rows);
+    if (!v.ok) throw new AppError('internal', `the roll of lot ${state.lot} does not verify`);
+    return v.state;
+  }
+
   /** The derived state of a locked lot (after any entries this transaction appended). */
   state(code: string): RollState {
     const lot = this.locked.get(code);
@@ -160,7 +177,7 @@ export class RollTransaction {
     } catch (e) {
       refusal(e, options.fields);
     }
-    const t = checkTransition(state, { kind: draft.kind, actor: draft.actor, body: built.body });
+    const t = checkTransition(state, { kind: draft.kind, actor: draft.actor, body: built.body, time });
     if (!t.ok) throw transitionError(t.code, t.message);
     const next = reduceEntry(state, { header: built.header, hash: built.stored.hash, body: built.body });
     const entry = await this.insert(lot.id, built, next, draft.sealedAlsoVisibleTo);

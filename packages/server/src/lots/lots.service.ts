@@ -6,6 +6,7 @@ import {
   inheritedRecord,
   verifyRoll,
   type Bundle,
+  type Correction,
   type LotDescription,
   type Money,
   type ObservedBody,
@@ -88,6 +89,7 @@ const FIELD_NAMES = {
   'sealed.acquisition-source': 'sealed.acquisition.source',
   'sealed.acquisition-cost': 'sealed.acquisition.cost',
   'sealed.private-note': 'sealed.privateNote',
+  'body.corrects': 'corrects',
 };
 
 const SORT_COLUMNS: Record<NonNullable<ListLotsQueryDto['sort']>, string> = {
@@ -215,6 +217,38 @@ export class LotsService {
     return this.detail(actor, code);
   }
 
+  /**
+   * Registers many lots in ONE transaction: all are written or none. `progress` hears how many
+   * are written so far. A refusal names the 0-based index of the lot in `index`.
+   */
+  async registerMany(
+    actor: Viewer,
+    dtos: CreateLotDto[],
+    progress: (done: number) => void,
+  ): Promise<string[]> {
+    return this.ledger.withLots([], async (tx) => {
+      const codes: string[] = [];
+      for (const [i, dto] of dtos.entries()) {
+        try {
+          const reg = await tx.register(
+            {
+              actor: actor.id,
+              description: plain<LotDescription>(dto.description),
+              sealed: sealedValuesOf(dto.sealed),
+            },
+            { fields: FIELD_NAMES },
+          );
+          codes.push(reg.lot);
+        } catch (e) {
+          if (e instanceof AppError) (e as AppError & { index?: number }).index = i;
+          throw e;
+        }
+        progress(i + 1);
+      }
+      return codes;
+    });
+  }
+
   /** A full new description (`described`). */
   async describe(actor: Viewer, text: string, dto: DescribeLotDto): Promise<LotDetailResponse> {
     const code = await this.readableCode(actor, text);
@@ -223,7 +257,10 @@ export class LotsService {
       {
         kind: 'described',
         actor: actor.id,
-        body: { description: plain<LotDescription>(dto.description) },
+        body: {
+          description: plain<LotDescription>(dto.description),
+          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
+        },
         sealed: sealedValuesOf(dto.sealed),
       },
       { fields: FIELD_NAMES },
@@ -236,7 +273,14 @@ export class LotsService {
     const code = await this.readableCode(actor, text);
     await this.ledger.append(
       code,
-      { kind: 'observed', actor: actor.id, body: { observations: plain<ObservationsDto>(dto.observations) } },
+      {
+        kind: 'observed',
+        actor: actor.id,
+        body: {
+          observations: plain<ObservationsDto>(dto.observations),
+          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
+        },
+      },
       { fields: FIELD_NAMES },
     );
     return this.detail(actor, code);

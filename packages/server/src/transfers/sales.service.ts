@@ -12,7 +12,7 @@ import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService, type Viewer } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
-import type { ListSalesQueryDto, RecordSaleDto } from './dto/transfer-requests.dto';
+import type { ListSalesQueryDto, RecordSaleDto, VoidSaleDto } from './dto/transfer-requests.dto';
 import type { SaleListResponse, SaleResponse } from './dto/transfer-responses.dto';
 import { transferLetters } from './transfer-letters';
 import { notAvailable } from './transfers.service';
@@ -106,6 +106,28 @@ export class SalesService {
     }
     const rows = await this.rows(' AND s."code" = $2', [me.id, code]);
     return toSale(rows[0]!);
+  }
+
+  /**
+   * Voids the lot's sale (`sale-voided`): only its seller, only within 24 hours of recording it
+   * (core's rule, checked against the entry's time); the lot is held again.
+   */
+  async voidSale(me: Principal, lot: string, dto: VoidSaleDto): Promise<void> {
+    const code = RollReaderService.canonicalCode(lot);
+    if (!code) throw new AppError('not_found', 'Not found.');
+    await this.lots.readableCode(me, code);
+    await this.ledger.withLots([code], async (tx) => {
+      const state = tx.state(code);
+      if (state.status !== 'sold' || state.soldSeq === null)
+        throw new AppError('roll_rule', 'This lot has no sale to void.');
+      if (state.holder !== me.id) throw new AppError('forbidden', 'Only the seller can void this sale.');
+      const body = { saleSeq: state.soldSeq, ...(dto.reason !== undefined ? { reason: dto.reason } : {}) };
+      await tx.append(
+        code,
+        { kind: 'sale-voided', actor: me.id, body },
+        { fields: { 'body.reason': 'reason' } },
+      );
+    });
   }
 
   async list(me: Viewer, q: ListSalesQueryDto): Promise<SaleListResponse> {

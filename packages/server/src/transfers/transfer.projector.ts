@@ -51,5 +51,7 @@ export class TransferProjector implements RollProjector, OnModuleInit {
         [lotId, entry.lot, title, entry.seq, entry.actor, b.date, entry.time],
       );
     }
+    // A voided sale leaves the seller's list of sales; the roll keeps both entries.
+    if (entry.kind === 'sale-voided') await m.query('DELETE FROM "sales" WHERE "lot_id" = $1', [lotId]);
   }
 }

@@ -8,6 +8,7 @@ import {
   ListOffersQueryDto,
   ListSalesQueryDto,
   RecordSaleDto,
+  VoidSaleDto,
 } from './dto/transfer-requests.dto';
 import {
   CreateOfferResponse,
@@ -134,6 +135,18 @@ export class TransfersController {
   @ApiOkResponse({ type: SaleResponse })
   recordSale(@CurrentAccount() me: Principal, @Body() dto: RecordSaleDto): Promise<SaleResponse> {
     return this.sales.record(me, dto);
+  }
+
+  @Post('sales/:code/void')
+  @HttpCode(204)
+  @RollWriter()
+  @ApiOperation({ summary: 'Void the lot’s sale recorded by mistake (sale-voided), within 24 hours of it' })
+  voidSale(
+    @CurrentAccount() me: Principal,
+    @Param('code') code: string,
+    @Body() dto: VoidSaleDto,
+  ): Promise<void> {
+    return this.sales.voidSale(me, code, dto);
   }
 
   @Get('sales')

@@ -70,6 +70,12 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'POST /api/transfers/invitations/:id/cancel': { roles: ['dealer'] },
   'POST /api/transfers/sales': { roles: ['dealer'], writer: true },
   'GET /api/transfers/sales': { roles: ['dealer'] },
+  'POST /api/transfers/sales/:code/void': { roles: ['dealer'], writer: true },
+  // importing lots from a spreadsheet
+  'GET /api/lot-imports/template': { roles: ['dealer'] },
+  'POST /api/lot-imports/sheets': { roles: ['dealer'] },
+  'POST /api/lot-imports/checks': { roles: ['dealer'] },
+  'POST /api/lot-imports': { roles: ['dealer'], writer: true },
   // registrar's tools: redaction, reports, the record, a dealer's own data
   'POST /api/registry/redactions': { roles: ['registrar'] },
   'GET /api/registry/redaction-requests': { roles: ['registrar'] },

@@ -1,3 +1,4 @@
+import { ImportLotsPage } from '../features/lot-imports/ImportLotsPage';
 import { FluentProvider } from '@fluentui/react-components';
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -34,6 +35,7 @@ const NAV: NavItem[] = [
   { to: '/registry', label: 'Verification queue', roles: ['registrar'] },
   { to: '/lots', label: 'Inventory', roles: ['dealer'] },
   { to: '/lots/new', label: 'Register a lot', roles: ['dealer'], writer: true },
+  { to: '/lots/import', label: 'Import lots', roles: ['dealer'], writer: true },
   { to: '/transfers/incoming', label: 'Incoming', roles: ['dealer'], After: WaitingOffersCount },
   { to: '/transfers/outgoing', label: 'Outgoing', roles: ['dealer'] },
   { to: '/transfers/sales', label: 'Sales', roles: ['dealer'] },
@@ -62,6 +64,7 @@ export const routes: RouteObject[] = [
       { path: 'registry', element: <RegistryPage /> },
       { path: 'lots', element: <InventoryPage /> },
       { path: 'lots/new', element: <RegisterLotPage /> },
+      { path: 'lots/import', element: <ImportLotsPage /> },
       { path: 'lots/:code', element: <LotPage /> },
       { path: 'transfers/incoming', element: <OffersPage box="incoming" key="incoming" /> },
       { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },

@@ -1,7 +1,11 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import {
   BASE_GLASS,
+  beadSizeProblem,
+  BOUNDS,
+  countProblem,
   DECORATIONS,
+  strandLengthProblem,
   LIMITS,
   LOT_FORMS,
   type BaseGlass,
@@ -14,30 +18,20 @@ import {
   IsArray,
   IsBoolean,
   IsIn,
-  IsInt,
-  IsNumber,
   IsOptional,
   IsString,
-  Max,
   MaxLength,
-  Min,
   MinLength,
   registerDecorator,
   type ValidationArguments,
 } from 'class-validator';
 import { NestedObject } from '../../common/validation';
-
-/** The largest count core accepts. */
-const MAX_COUNT = 10_000_000;
-/** Lengths are stored in mm with at most one decimal (0.1 mm). */
-const MAX_MM = 100_000;
+import { Plausible } from '../../common/plausible';
 
 /** A count of beads, exact or estimated. */
 export class CountDto {
-  @ApiProperty({ minimum: 0, maximum: MAX_COUNT, example: 120 })
-  @IsInt()
-  @Min(0)
-  @Max(MAX_COUNT)
+  @ApiProperty({ minimum: BOUNDS.count.min, maximum: BOUNDS.count.max, example: 120 })
+  @Plausible(countProblem)
   value: number;
 
   @ApiProperty({ description: 'true when the count is an estimate' })
@@ -56,24 +50,20 @@ function MinNotAboveMax() {
           const o = args.object as { max?: unknown };
           return typeof value !== 'number' || typeof o.max !== 'number' || value <= o.max;
         },
-        defaultMessage: () => 'the smallest diameter must not be larger than the largest',
+        defaultMessage: () => 'Enter a smallest bead size that is not larger than the largest',
       },
     });
 }
 
 /** Bead diameter range in mm. */
 export class DiameterDto {
-  @ApiProperty({ minimum: 0, maximum: MAX_MM, example: 6 })
-  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
-  @Min(0)
-  @Max(MAX_MM)
+  @ApiProperty({ minimum: BOUNDS.beadSizeMm.min, maximum: BOUNDS.beadSizeMm.max, example: 6 })
+  @Plausible(beadSizeProblem)
   @MinNotAboveMax()
   min: number;
 
-  @ApiProperty({ minimum: 0, maximum: MAX_MM, example: 9.5 })
-  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
-  @Min(0)
-  @Max(MAX_MM)
+  @ApiProperty({ minimum: BOUNDS.beadSizeMm.min, maximum: BOUNDS.beadSizeMm.max, example: 9.5 })
+  @Plausible(beadSizeProblem)
   max: number;
 }
 
@@ -104,11 +94,13 @@ export class LotDescriptionDto {
   @NestedObject(() => DiameterDto, { optional: true })
   diameterMm?: DiameterDto;
 
-  @ApiPropertyOptional({ description: 'strand length in mm (1 in = 25.4 mm)', minimum: 0, maximum: MAX_MM })
+  @ApiPropertyOptional({
+    description: 'strand length in mm (1 in = 25.4 mm)',
+    minimum: BOUNDS.strandLengthMm.min,
+    maximum: BOUNDS.strandLengthMm.max,
+  })
   @IsOptional()
-  @IsNumber({ maxDecimalPlaces: 1, allowNaN: false, allowInfinity: false })
-  @Min(0)
-  @Max(MAX_MM)
+  @Plausible(strandLengthProblem)
   strandLengthMm?: number;
 
   @ApiProperty({ type: [String], maxItems: LIMITS.listItems, example: ['white', 'pink'] })

@@ -1,5 +1,6 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import {
+  LIMITS,
   LOT_FORMS,
   ORIGINS,
   TECHNIQUES,
@@ -9,7 +10,17 @@ import {
   type Technique,
 } from '@beadroll/core';
 import { Transform, Type } from 'class-transformer';
-import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import {
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+} from 'class-validator';
 import { LotDescriptionDto } from './lot-description.dto';
 import { ObservationsDto } from './observations.dto';
 import { SealedDetailsDto } from './sealed-details.dto';
@@ -30,8 +41,26 @@ export class CreateLotDto {
   sealed?: SealedDetailsDto;
 }
 
+/** Names the earlier entry a new description or observation corrects, and why. */
+export class CorrectionDto {
+  @ApiProperty({ description: 'seq of the earlier entry (a description, or an observation)', example: 0 })
+  @IsInt({ message: 'Choose the entry this corrects' })
+  @Min(0, { message: 'Choose the entry this corrects' })
+  seq: number;
+
+  @ApiProperty({ maxLength: LIMITS.longText, example: 'The colour was written wrong' })
+  @IsString()
+  @MinLength(1, { message: 'Say what was wrong' })
+  @MaxLength(LIMITS.longText)
+  reason: string;
+}
+
 /** A full new description (a `described` entry), optionally with new sealed details. */
 export class DescribeLotDto {
+  @ApiPropertyOptional({ type: CorrectionDto, description: 'when this description corrects an earlier one' })
+  @NestedObject(() => CorrectionDto, { optional: true })
+  corrects?: CorrectionDto;
+
   @ApiProperty({ type: LotDescriptionDto })
   @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
@@ -43,6 +72,10 @@ export class DescribeLotDto {
 
 /** New observations (an `observed` entry). */
 export class ObserveLotDto {
+  @ApiPropertyOptional({ type: CorrectionDto, description: 'when these observations correct earlier ones' })
+  @NestedObject(() => CorrectionDto, { optional: true })
+  corrects?: CorrectionDto;
+
   @ApiProperty({ type: ObservationsDto })
   @NestedObject(() => ObservationsDto)
   observations: ObservationsDto;

@@ -1,30 +1,22 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { LIMITS } from '@beadroll/core';
-import {
-  IsInt,
-  IsISO4217CurrencyCode,
-  IsOptional,
-  IsString,
-  Matches,
-  Max,
-  MaxLength,
-  Min,
-  MinLength,
-} from 'class-validator';
+import { amountProblem, currencyProblem, dateProblem, LIMITS } from '@beadroll/core';
+import { IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
 import { NestedObject } from '../../common/validation';
+import { nowIso, Plausible } from '../../common/plausible';
 
 /** Money in integer minor units of an ISO 4217 currency. */
 export class MoneyDto {
-  @ApiProperty({ description: 'integer minor units (cents, pence…)', minimum: 0, example: 4500 })
-  @IsInt()
-  @Min(0)
-  @Max(Number.MAX_SAFE_INTEGER)
+  @ApiProperty({
+    description: 'integer minor units of the currency (cents, pence…)',
+    minimum: 1,
+    example: 4500,
+  })
+  @Plausible((v, o) => amountProblem(v, o.currency))
   amount: number;
 
-  // The list of codes is validator.js's copy of ISO 4217; the pattern keeps them in capitals.
+  // The list of codes is core's (ISO 4217 from the currency-codes package).
   @ApiProperty({ description: 'ISO 4217 code', example: 'EUR' })
-  @IsISO4217CurrencyCode({ message: 'currency must be an ISO 4217 currency code' })
-  @Matches(/^[A-Z]{3}$/, { message: 'currency must be written in capitals, as in EUR' })
+  @Plausible(currencyProblem)
   currency: string;
 }
 
@@ -32,7 +24,8 @@ export class MoneyDto {
 export class AcquisitionDto {
   @ApiPropertyOptional({ example: '2026-05-14', description: 'YYYY-MM-DD' })
   @IsOptional()
-  @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'date must be a date YYYY-MM-DD' })
+  @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'Enter the date as YYYY-MM-DD' })
+  @Plausible((v) => dateProblem(v, nowIso()))
   date?: string;
 
   @ApiPropertyOptional({ maxLength: LIMITS.longText, example: 'estate sale' })

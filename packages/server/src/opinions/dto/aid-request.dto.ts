@@ -7,34 +7,22 @@ import {
   type Decoration,
   type Origin,
   type Technique,
+  yearProblem,
 } from '@beadroll/core';
-import {
-  ArrayMaxSize,
-  IsArray,
-  IsIn,
-  IsInt,
-  IsOptional,
-  IsString,
-  Max,
-  MaxLength,
-  Min,
-} from 'class-validator';
+import { ArrayMaxSize, IsArray, IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
 import { ObservationsDto } from '../../lots/dto/observations.dto';
-import { YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
+import { thisYear, YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
+import { Plausible } from '../../common/plausible';
 import { NestedObject } from '../../common/validation';
 
 /** A drafted period for the plausibility checks (the approximate flag does not matter to them). */
 export class AidPeriodDto {
   @ApiPropertyOptional({ minimum: YEAR_MIN, maximum: YEAR_MAX })
-  @IsInt()
-  @Min(YEAR_MIN)
-  @Max(YEAR_MAX)
+  @Plausible((v) => yearProblem(v, thisYear()))
   from: number;
 
   @ApiPropertyOptional({ minimum: YEAR_MIN, maximum: YEAR_MAX })
-  @IsInt()
-  @Min(YEAR_MIN)
-  @Max(YEAR_MAX)
+  @Plausible((v) => yearProblem(v, thisYear()))
   to: number;
 }
 

@@ -9,6 +9,8 @@ import {
   type Origin,
   type Qualifier,
   type Technique,
+  BOUNDS,
+  yearProblem,
 } from '@beadroll/core';
 import {
   ArrayMaxSize,
@@ -16,33 +18,32 @@ import {
   IsArray,
   IsBoolean,
   IsIn,
-  IsInt,
   IsOptional,
   IsString,
   Matches,
-  Max,
   MaxLength,
-  Min,
   MinLength,
 } from 'class-validator';
 import { NestedObject } from '../../common/validation';
+import { nowIso, Plausible } from '../../common/plausible';
 
-/** Earliest and latest years the ledger format accepts in a period. */
-export const YEAR_MIN = -5000;
+/** Earliest year a period may name (core's bounds); the latest is this year. */
+export const YEAR_MIN = BOUNDS.year.min;
 export const YEAR_MAX = 9999;
+
+/** This year (UTC), the latest a period may reach. */
+export function thisYear(): number {
+  return new Date(nowIso()).getUTCFullYear();
+}
 
 /** A closed year range; `approximate` reads "about 1850–1900". */
 export class PeriodDto {
   @ApiProperty({ minimum: YEAR_MIN, maximum: YEAR_MAX, example: 1850 })
-  @IsInt()
-  @Min(YEAR_MIN)
-  @Max(YEAR_MAX)
+  @Plausible((v) => yearProblem(v, thisYear()))
   from: number;
 
   @ApiProperty({ minimum: YEAR_MIN, maximum: YEAR_MAX, example: 1900 })
-  @IsInt()
-  @Min(YEAR_MIN)
-  @Max(YEAR_MAX)
+  @Plausible((v) => yearProblem(v, thisYear()))
   to: number;
 
   @ApiProperty()

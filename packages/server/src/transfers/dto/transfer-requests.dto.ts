@@ -66,6 +66,16 @@ export class AnswerOfferDto {
   note?: string;
 }
 
+/** Voids the lot's sale recorded by mistake (`sale-voided`), within 24 hours of it. */
+export class VoidSaleDto {
+  @ApiPropertyOptional({ maxLength: LIMITS.longText, example: 'Recorded on the wrong lot' })
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(LIMITS.longText)
+  reason?: string;
+}
+
 /** Records a sale to a private buyer (`sold`). */
 export class RecordSaleDto {
   @ApiProperty({ description: 'lot code, with or without hyphens' })

@@ -8,8 +8,6 @@ import {
   DialogTitle,
   Field,
   makeStyles,
-  Tab,
-  TabList,
   Table,
   TableBody,
   TableCell,
@@ -21,6 +19,7 @@ import {
   Title2,
   tokens,
 } from '@fluentui/react-components';
+import { FilterButtons } from '../../lib/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
@@ -285,17 +284,12 @@ export function RegistryPage() {
       <Title2 as="h1" id="registry-title">
         Account verification
       </Title2>
-      <TabList
-        selectedValue={status}
-        onTabSelect={(_, d) => update({ status: String(d.value), page: '1' })}
-        aria-label="Accounts by status"
-      >
-        {STATUSES.map((s) => (
-          <Tab key={s.value} value={s.value}>
-            {s.label}
-          </Tab>
-        ))}
-      </TabList>
+      <FilterButtons
+        label="Accounts by status"
+        value={status}
+        options={STATUSES}
+        onChange={(v) => update({ status: String(v), page: '1' })}
+      />
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label="Accounts">
           <TableHeader>

@@ -2,12 +2,19 @@ import { Button, Field, Input, Link, Text } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
-import { accountsApi } from './accounts.api';
+import { accountsApi, type Me } from './accounts.api';
 import { fieldError, FormError, FormPage } from './FormPage';
 
-/** Only paths inside the app are followed after signing in. */
-function safeNext(next: string | null): string {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/account';
+/**
+ * Where a sign-in lands: the page asked for (only paths inside the app), else the account's
+ * daily work — a dealer's inventory, the registrar's verification queue, an assessor's start
+ * page (the listed lots to give opinions on) — and the account page while not yet verified.
+ */
+export function landingFor(account: Me, next: string | null): string {
+  if (next && next.startsWith('/') && !next.startsWith('//')) return next;
+  if (account.role === 'registrar') return '/registry';
+  if (account.status !== 'verified') return '/account';
+  return account.role === 'dealer' ? '/lots' : '/';
 }
 
 export function SignInPage() {
@@ -20,7 +27,7 @@ export function SignInPage() {
     mutationFn: () => accountsApi.signIn({ email, password }),
     onSuccess: ({ account }) => {
       client.setQueryData(['session'], account);
-      navigate(safeNext(params.get('next')));
+      navigate(landingFor(account, params.get('next')));
     },
   });
   return (

@@ -107,44 +107,49 @@ export function ExhibitGallery({ exhibits }: { exhibits: ExhibitResponse[] }) {
           );
         })}
       </ul>
-      <Dialog open={open !== null} onOpenChange={(_ev, d) => !d.open && setOpen(null)}>
-        <DialogSurface aria-describedby={undefined}>
-          {open && (
-            <DialogBody>
-              <DialogTitle>{title(open)}</DialogTitle>
-              <DialogContent>
-                {web && open.urls.web ? (
-                  <VerifiedImage
-                    src={open.urls.web}
-                    sha256={web.sha256}
-                    alt={title(open)}
-                    className={styles.big}
-                  />
-                ) : (
-                  <Text>This exhibit has no picture to show; download the original below.</Text>
-                )}
-                <div className={styles.meta}>
-                  {open.caption && <Text>{open.caption}</Text>}
-                  <Caption1>
-                    Kind: {EXHIBIT_KIND_LABELS[open.kind]} · entry {open.seq}
-                  </Caption1>
-                  <Caption1 className={styles.hash}>SHA-256 of the original: {open.original.sha256}</Caption1>
-                  {open.urls.original && (
-                    <Link href={open.urls.original} download>
-                      Download the original ({open.original.mediaType})
-                    </Link>
+      {/* Mounted only while open: a closed dialog would still set up the focus trap's hidden stops. */}
+      {open !== null && (
+        <Dialog open onOpenChange={(_ev, d) => !d.open && setOpen(null)}>
+          <DialogSurface aria-describedby={undefined}>
+            {open && (
+              <DialogBody>
+                <DialogTitle>{title(open)}</DialogTitle>
+                <DialogContent>
+                  {web && open.urls.web ? (
+                    <VerifiedImage
+                      src={open.urls.web}
+                      sha256={web.sha256}
+                      alt={title(open)}
+                      className={styles.big}
+                    />
+                  ) : (
+                    <Text>This exhibit has no picture to show; download the original below.</Text>
                   )}
-                </div>
-              </DialogContent>
-              <DialogActions>
-                <Button appearance="primary" onClick={() => setOpen(null)}>
-                  Close
-                </Button>
-              </DialogActions>
-            </DialogBody>
-          )}
-        </DialogSurface>
-      </Dialog>
+                  <div className={styles.meta}>
+                    {open.caption && <Text>{open.caption}</Text>}
+                    <Caption1>
+                      Kind: {EXHIBIT_KIND_LABELS[open.kind]} · entry {open.seq}
+                    </Caption1>
+                    <Caption1 className={styles.hash}>
+                      SHA-256 of the original: {open.original.sha256}
+                    </Caption1>
+                    {open.urls.original && (
+                      <Link href={open.urls.original} download>
+                        Download the original ({open.original.mediaType})
+                      </Link>
+                    )}
+                  </div>
+                </DialogContent>
+                <DialogActions>
+                  <Button appearance="primary" onClick={() => setOpen(null)}>
+                    Close
+                  </Button>
+                </DialogActions>
+              </DialogBody>
+            )}
+          </DialogSurface>
+        </Dialog>
+      )}
     </>
   );
 }

@@ -1,3 +1,4 @@
+import { CheckGroup } from '../../lib/CheckGroup';
 import {
   Checkbox,
   Field,
@@ -142,31 +143,29 @@ export function CombineDialog({
             {lots.map((l) => {
               const c = choices[l.code];
               return (
-                <Field key={l.code} validationMessage={partMessage(l.code)}>
-                  <div className={styles.part}>
+                <CheckGroup key={l.code} className={styles.part} validationMessage={partMessage(l.code)}>
+                  <Checkbox
+                    label={`${l.displayCode} · ${l.title} (${beadsText(l.count)})`}
+                    checked={c?.on ?? false}
+                    onChange={(_e, d) => set(l.code, { on: d.checked === true }, l)}
+                  />
+                  {c?.on && (
                     <Checkbox
-                      label={`${l.displayCode} · ${l.title} (${beadsText(l.count)})`}
-                      checked={c?.on ?? false}
-                      onChange={(_e, d) => set(l.code, { on: d.checked === true }, l)}
+                      label="Whole lot"
+                      checked={c.whole}
+                      onChange={(_e, d) => set(l.code, { whole: d.checked === true }, l)}
                     />
-                    {c?.on && (
-                      <Checkbox
-                        label="Whole lot"
-                        checked={c.whole}
-                        onChange={(_e, d) => set(l.code, { whole: d.checked === true }, l)}
-                      />
-                    )}
-                    {c?.on && !c.whole && (
-                      <Input
-                        aria-label={`Beads from ${l.displayCode}`}
-                        type="number"
-                        min={1}
-                        value={c.count}
-                        onChange={(_e, d) => set(l.code, { count: d.value }, l)}
-                      />
-                    )}
-                  </div>
-                </Field>
+                  )}
+                  {c?.on && !c.whole && (
+                    <Input
+                      aria-label={`Beads from ${l.displayCode}`}
+                      type="number"
+                      min={1}
+                      value={c.count}
+                      onChange={(_e, d) => set(l.code, { count: d.value }, l)}
+                    />
+                  )}
+                </CheckGroup>
               );
             })}
           </div>

@@ -15,9 +15,11 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
+import { CheckGroup } from '../../lib/CheckGroup';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
+import { MoneyField } from '../transfers/MoneyField';
 import { PrivateMark } from './PrivateMark';
 
 const useStyles = makeStyles({
@@ -286,30 +288,34 @@ export function DescriptionSections({
         >
           <Input value={draft.colours} onChange={(_, d) => change('colours', d.value)} />
         </Field>
-        <Field label="Base glass" validationMessage={error('description.baseGlass')}>
-          <div className={styles.checks}>
-            {BASE_GLASS.map((g) => (
-              <Checkbox
-                key={g}
-                label={BASE_GLASS_LABEL[g]}
-                checked={draft.baseGlass.includes(g)}
-                onChange={(_, d) => change('baseGlass', toggle(draft.baseGlass, g, d.checked === true))}
-              />
-            ))}
-          </div>
-        </Field>
-        <Field label="Decoration" validationMessage={error('description.decoration')}>
-          <div className={styles.checks}>
-            {DECORATIONS.map((x) => (
-              <Checkbox
-                key={x}
-                label={DECORATION_LABEL[x]}
-                checked={draft.decoration.includes(x)}
-                onChange={(_, d) => change('decoration', toggle(draft.decoration, x, d.checked === true))}
-              />
-            ))}
-          </div>
-        </Field>
+        <CheckGroup
+          label="Base glass"
+          className={styles.checks}
+          validationMessage={error('description.baseGlass')}
+        >
+          {BASE_GLASS.map((g) => (
+            <Checkbox
+              key={g}
+              label={BASE_GLASS_LABEL[g]}
+              checked={draft.baseGlass.includes(g)}
+              onChange={(_, d) => change('baseGlass', toggle(draft.baseGlass, g, d.checked === true))}
+            />
+          ))}
+        </CheckGroup>
+        <CheckGroup
+          label="Decoration"
+          className={styles.checks}
+          validationMessage={error('description.decoration')}
+        >
+          {DECORATIONS.map((x) => (
+            <Checkbox
+              key={x}
+              label={DECORATION_LABEL[x]}
+              checked={draft.decoration.includes(x)}
+              onChange={(_, d) => change('decoration', toggle(draft.decoration, x, d.checked === true))}
+            />
+          ))}
+        </CheckGroup>
         <Field label="About the decoration" validationMessage={error('description.decorationNote')}>
           <Textarea
             value={draft.decorationNote}
@@ -382,27 +388,18 @@ export function PrivateSections({
           </Field>
         </div>
         <div className={styles.row}>
-          <Field
+          <MoneyField
             label="Cost"
-            validationMessage={error('sealed.acquisition.cost.amount') ?? error('sealed.acquisition.cost')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.costAmount}
-              onChange={(_, d) => change('costAmount', d.value)}
-            />
-          </Field>
-          <Field
-            label="Currency"
-            hint="ISO 4217 code"
-            validationMessage={error('sealed.acquisition.cost.currency')}
-          >
-            <Input
-              value={draft.costCurrency}
-              maxLength={3}
-              onChange={(_, d) => change('costCurrency', d.value.toUpperCase())}
-            />
-          </Field>
+            amount={draft.costAmount}
+            currency={draft.costCurrency}
+            onAmount={(v) => change('costAmount', v)}
+            onCurrency={(v) => change('costCurrency', v)}
+            validationMessage={
+              error('sealed.acquisition.cost.amount') ??
+              error('sealed.acquisition.cost.currency') ??
+              error('sealed.acquisition.cost')
+            }
+          />
         </div>
         <Field label="Private note" validationMessage={error('sealed.privateNote')}>
           <Textarea

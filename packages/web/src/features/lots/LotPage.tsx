@@ -14,7 +14,7 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
-import { Fragment, useMemo, useState } from 'react';
+import { Fragment, useMemo, useState, type ReactNode } from 'react';
 import { Link, useLocation, useParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import { OnRecordPanel } from '../opinions/OnRecordPanel';
@@ -37,7 +37,7 @@ import { lotsQueries, useActorNames, type OwnSealedDetails } from './lots.api';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { PrivateMark } from './PrivateMark';
 import { checkedSealedDetails } from './sealed-details';
-import { timelineOf } from './timeline';
+import { timelineOf, type TimelineLine } from './timeline';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
@@ -56,6 +56,7 @@ const useStyles = makeStyles({
   },
   term: { color: tokens.colorNeutralForeground3 },
   def: { margin: 0, overflowWrap: 'anywhere' },
+  fold: { display: 'grid', gap: tokens.spacingVerticalXS, color: tokens.colorNeutralForeground2 },
   timeline: { listStyleType: 'none', margin: 0, padding: 0, display: 'grid', gap: tokens.spacingVerticalM },
   item: {
     display: 'grid',
@@ -197,26 +198,60 @@ function Timeline({
     viewer,
   );
   const lines = timelineOf(entries, (id) => name(id, false));
+  const bySeq = new Map(lines.map((l) => [l.seq, l]));
+  // An entry a later one corrects is shown folded under that correction, not on its own.
+  const folded = new Set(
+    lines.flatMap((l) => (l.corrects && bySeq.has(l.corrects.seq) ? [l.corrects.seq] : [])),
+  );
+  const render = (l: TimelineLine, nested = false): ReactNode => {
+    const original = l.corrects ? bySeq.get(l.corrects.seq) : undefined;
+    const body = (
+      <>
+        <Text>
+          <Text weight="semibold">{name(l.actor, true)}</Text> {l.what}
+        </Text>
+        {l.detail ? <Text>{l.detail}</Text> : null}
+        {l.corrects ? (
+          <Text>
+            Corrects entry {l.corrects.seq}: {l.corrects.reason}
+          </Text>
+        ) : null}
+        <Text size={200} className={styles.meta}>
+          <time dateTime={l.time}>{formatTime(l.time)}</time> · entry {l.seq} · {l.kind} · hash{' '}
+          <span className={styles.hash} title={l.hash}>
+            {shortHash(l.hash)}
+          </span>
+        </Text>
+        {original ? (
+          <details className={styles.fold}>
+            <summary>
+              Entry {original.seq}, as first written (corrected on {formatTime(l.time)})
+            </summary>
+            {render(original, true)}
+          </details>
+        ) : null}
+      </>
+    );
+    return nested ? (
+      <div className={styles.item} data-kind={l.kind}>
+        {body}
+      </div>
+    ) : (
+      <li key={l.seq} className={styles.item} data-kind={l.kind}>
+        {body}
+      </li>
+    );
+  };
   return (
     <section aria-labelledby="lot-timeline-title">
       <Title3 as="h2" id="lot-timeline-title">
         History
       </Title3>
       <ol className={styles.timeline} reversed>
-        {[...lines].reverse().map((l) => (
-          <li key={l.seq} className={styles.item} data-kind={l.kind}>
-            <Text>
-              <Text weight="semibold">{name(l.actor, true)}</Text> {l.what}
-            </Text>
-            {l.detail ? <Text>{l.detail}</Text> : null}
-            <Text size={200} className={styles.meta}>
-              <time dateTime={l.time}>{formatTime(l.time)}</time> · entry {l.seq} · {l.kind} · hash{' '}
-              <span className={styles.hash} title={l.hash}>
-                {shortHash(l.hash)}
-              </span>
-            </Text>
-          </li>
-        ))}
+        {[...lines]
+          .reverse()
+          .filter((l) => !folded.has(l.seq))
+          .map((l) => render(l))}
       </ol>
     </section>
   );

@@ -1,10 +1,12 @@
-import type { Observations } from '@beadroll/core';
-import { MessageBar, MessageBarBody, Text } from '@fluentui/react-components';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { VOID_WINDOW_MS, type Observations } from '@beadroll/core';
+import { Field, MessageBar, MessageBarBody, Text, Textarea } from '@fluentui/react-components';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import { useNavigate } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import { FormError } from '../accounts/FormPage';
 import { ActionDialog } from './ActionDialog';
+import { correctionOf, CorrectionFields, NO_CORRECTION, type CorrectionDraft } from './CorrectionFields';
 import type { LotActionContext } from './lot-actions';
 import {
   draftFromDescription,
@@ -12,9 +14,10 @@ import {
   EMPTY_DRAFT,
   type FieldErrors,
   type LotDraft,
+  saveDraft,
 } from './lot-draft';
 import { DescriptionSections, PrivateSections, type Change } from './LotFormSections';
-import { lotsApi } from './lots.api';
+import { lotsApi, lotsQueries } from './lots.api';
 import { ObservationChecklist } from './ObservationChecklist';
 
 type Props = LotActionContext & { close: () => void };
@@ -37,6 +40,7 @@ export function DescribeAction({ code, state, close }: Props) {
     state.description ? draftFromDescription(state.description) : EMPTY_DRAFT,
   );
   const [local, setLocal] = useState<FieldErrors>({});
+  const [fix, setFix] = useState<CorrectionDraft>(NO_CORRECTION);
   const write = useLotWrite(
     (input: Parameters<typeof lotsApi.describe>[1]) => lotsApi.describe(code, input),
     close,
@@ -52,11 +56,25 @@ export function DescribeAction({ code, state, close }: Props) {
       pending={write.isPending}
       onSubmit={() => {
         const { input, errors } = draftToRequest({ ...draft, observations: {} });
+        const { corrects, problem } = correctionOf(fix);
+        if (problem) errors['corrects.reason'] = problem;
         setLocal(errors);
-        if (input) write.mutate({ description: input.description, sealed: input.sealed });
+        if (input && !problem)
+          write.mutate({
+            description: input.description,
+            sealed: input.sealed,
+            ...(corrects ? { corrects } : {}),
+          });
       }}
     >
       <Text>A new description replaces the current one on the lot page; the old one stays on the roll.</Text>
+      <CorrectionFields
+        value={fix}
+        onChange={setFix}
+        seqs={state.descriptionSeqs ?? []}
+        what="description"
+        error={error('corrects.reason') ?? error('corrects')}
+      />
       <DescriptionSections draft={draft} change={change} error={error} />
       <PrivateSections draft={draft} change={change} error={error} />
       <FormError error={write.error} />
@@ -65,10 +83,16 @@ export function DescribeAction({ code, state, close }: Props) {
 }
 
 /** Records new observations (`observed`). */
-export function ObserveAction({ code, close }: Props) {
+export function ObserveAction({ code, state, close }: Props) {
   const [obs, setObs] = useState<Observations>({});
   const [empty, setEmpty] = useState(false);
-  const write = useLotWrite((o: Observations) => lotsApi.observe(code, o), close);
+  const [fix, setFix] = useState<CorrectionDraft>(NO_CORRECTION);
+  const [fixProblem, setFixProblem] = useState<string | undefined>();
+  const write = useLotWrite(
+    (v: { observations: Observations; corrects?: { seq: number; reason: string } }) =>
+      lotsApi.observe(code, v.observations, v.corrects),
+    close,
+  );
   const error = (f: string) =>
     write.error instanceof ApiError ? write.error.fieldMessage(`observations.${f}`) : undefined;
   return (
@@ -81,9 +105,21 @@ export function ObserveAction({ code, close }: Props) {
         const o = { ...obs };
         if (o.note !== undefined && !o.note.trim()) delete o.note;
         setEmpty(Object.keys(o).length === 0);
-        if (Object.keys(o).length) write.mutate(o);
+        const { corrects, problem } = correctionOf(fix);
+        setFixProblem(problem);
+        if (Object.keys(o).length && !problem)
+          write.mutate({ observations: o, ...(corrects ? { corrects } : {}) });
       }}
     >
+      <CorrectionFields
+        value={fix}
+        onChange={setFix}
+        seqs={state.observationSeqs ?? []}
+        what="observation"
+        error={
+          fixProblem ?? (write.error instanceof ApiError ? write.error.fieldMessage('corrects') : undefined)
+        }
+      />
       <ObservationChecklist value={obs} onChange={setObs} idPrefix="observe" error={error} />
       {empty ? (
         <MessageBar intent="error">
@@ -115,4 +151,58 @@ export function ListingAction({ code, state, close }: Props) {
       <FormError error={write.error} />
     </ActionDialog>
   );
+}
+
+/** Voids the lot's sale recorded by mistake (`sale-voided`): the seller, within 24 hours of it. */
+export function VoidSaleAction({ code, state, close }: Props) {
+  const [reason, setReason] = useState('');
+  const write = useLotWrite(() => lotsApi.voidSale(code, reason.trim() || undefined), close);
+  const until = state.soldTime ? new Date(Date.parse(state.soldTime) + VOID_WINDOW_MS) : null;
+  return (
+    <ActionDialog
+      title="Void the sale"
+      close={close}
+      submitLabel={write.isPending ? 'Voiding…' : 'Void the sale'}
+      pending={write.isPending}
+      onSubmit={() => write.mutate(undefined)}
+    >
+      <Text>
+        Use this only when the sale was recorded by mistake. The sale stays on the roll with the void written
+        after it, and the lot is yours to sell again.
+        {until ? ` You can void it until ${until.toLocaleString()}.` : ''}
+      </Text>
+      <Field label="Why (shown on the history)">
+        <Textarea value={reason} maxLength={5000} onChange={(_, d) => setReason(d.value)} resize="vertical" />
+      </Field>
+      <FormError error={write.error} />
+    </ActionDialog>
+  );
+}
+
+/** True while the viewer's own sale of this lot may still be voided. */
+export function mayVoidSale(state: LotActionContext['state'], viewerId: string, now = Date.now()): boolean {
+  return (
+    state.status === 'sold' &&
+    state.holder === viewerId &&
+    state.soldTime !== null &&
+    state.soldTime !== undefined &&
+    now - Date.parse(state.soldTime) <= VOID_WINDOW_MS
+  );
+}
+
+/**
+ * "Register another like this": the register form opens with this lot's description and latest
+ * observations copied in; photos and private details are not copied.
+ */
+export function RegisterLikeAction({ code, state, close }: Props) {
+  const navigate = useNavigate();
+  const detail = useQuery(lotsQueries.detail(code));
+  useEffect(() => {
+    if (!state.description || detail.isPending) return;
+    const observations = detail.data?.observations ?? {};
+    saveDraft({ ...draftFromDescription(state.description), observations: observations ?? {} });
+    close();
+    navigate('/lots/new?like=' + encodeURIComponent(code));
+  }, [state.description, detail.isPending, detail.data, close, navigate, code]);
+  return null;
 }

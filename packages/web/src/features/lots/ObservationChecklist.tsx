@@ -96,6 +96,7 @@ export function ObservationChecklist({
             key={q.key}
             className={styles.group}
             aria-describedby={problem ? `${name}-error` : undefined}
+            data-invalid={problem ? 'true' : undefined}
           >
             <legend className={styles.legend}>{q.label}</legend>
             {q.key === 'uvA' ? <UvACaution /> : null}

@@ -9,9 +9,11 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useEffect, useState } from 'react';
-import { Link, Navigate, useNavigate } from 'react-router-dom';
+import { useEffect, useRef, useState } from 'react';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { PhotoPicker, uploadPending, type PendingPhoto } from '../exhibits/PhotoPicker';
 import { ApiError } from '../../lib/api';
+import { focusFirstError } from '../../lib/focus-first-error';
 import { useSession } from '../accounts/accounts.api';
 import { FormError } from '../accounts/FormPage';
 import {
@@ -54,12 +56,32 @@ export function RegisterLotPage() {
   const [draft, setDraft] = useState<LotDraft>(() => loadDraft());
   const [local, setLocal] = useState<FieldErrors>({});
   useEffect(() => saveDraft(draft), [draft]);
+  const formRef = useRef<HTMLFormElement>(null);
+  const [params] = useSearchParams();
+  const [photos, setPhotos] = useState<PendingPhoto[]>([]);
+  const [registered, setRegistered] = useState<string | null>(null);
+  const [uploadFailed, setUploadFailed] = useState(0);
+  const updatePhoto = (id: string, patch: Partial<PendingPhoto>) =>
+    setPhotos((ps) => ps.map((p) => (p.id === id ? { ...p, ...patch } : p)));
+  const sendPhotos = async (code: string) => {
+    const failed = await uploadPending(code, photos, updatePhoto);
+    setUploadFailed(failed);
+    await client.invalidateQueries({ queryKey: ['lots'] });
+    if (failed === 0) navigate(`/lots/${code}`);
+  };
   const register = useMutation({
     mutationFn: lotsApi.register,
+    onError: () => focusFirstError(formRef.current),
     onSuccess: async (lot) => {
       clearDraft();
       await client.invalidateQueries({ queryKey: ['lots'] });
-      navigate(`/lots/${lot.code}`, { state: { registered: true } });
+      if (photos.length === 0) {
+        navigate(`/lots/${lot.code}`, { state: { registered: true } });
+        return;
+      }
+      // The lot exists: its photos go up now, in the same flow, each with its progress.
+      setRegistered(lot.code);
+      await sendPhotos(lot.code);
     },
   });
 
@@ -73,9 +95,11 @@ export function RegisterLotPage() {
     local[field] ?? (register.error instanceof ApiError ? register.error.fieldMessage(field) : undefined);
 
   const submit = () => {
+    if (registered) return;
     const { input, errors } = draftToRequest(draft);
     setLocal(errors);
     if (input) register.mutate(input);
+    else focusFirstError(formRef.current);
   };
 
   return (
@@ -83,11 +107,20 @@ export function RegisterLotPage() {
       <Title2 as="h1" id="register-title">
         Register a lot
       </Title2>
+      {params.get('like') ? (
+        <MessageBar intent="info">
+          <MessageBarBody>
+            The description and observations are copied from the lot you were on. Photos and private details
+            are not copied: add this lot’s own.
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
       <Text>
         Registering writes the first entry of the lot’s roll. What you type is kept in this browser until the
         lot is registered; the private details only until you close the browser.
       </Text>
       <form
+        ref={formRef}
         className={styles.form}
         noValidate
         onSubmit={(e) => {
@@ -107,6 +140,17 @@ export function RegisterLotPage() {
             error={(f) => error(`observations.${f}`)}
           />
         </Section>
+        <Section
+          id="lot-photos"
+          title="Photos"
+          lead="Choose photos or take them with your phone’s camera. They are added to the roll as exhibits as soon as the lot is registered."
+        >
+          <PhotoPicker
+            photos={photos}
+            onChange={setPhotos}
+            disabled={registered !== null || register.isPending}
+          />
+        </Section>
         <PrivateSections draft={draft} change={change} error={error} />
         <ListingSection draft={draft} change={change} error={error} />
         {Object.keys(local).length ? (
@@ -116,9 +160,27 @@ export function RegisterLotPage() {
         ) : (
           <FormError error={register.error} />
         )}
+        {registered && uploadFailed > 0 ? (
+          <MessageBar intent="warning">
+            <MessageBarBody>
+              The lot is registered, but{' '}
+              {uploadFailed === 1 ? 'one photo was' : `${uploadFailed} photos were`} not added.{' '}
+              <Button size="small" onClick={() => void sendPhotos(registered)}>
+                Try again
+              </Button>{' '}
+              <Link to={`/lots/${registered}`}>Go to the lot</Link>
+            </MessageBarBody>
+          </MessageBar>
+        ) : null}
         <div className={styles.buttons}>
-          <Button appearance="primary" type="submit" disabled={register.isPending}>
-            {register.isPending ? 'Registering…' : 'Register the lot'}
+          <Button appearance="primary" type="submit" disabled={register.isPending || registered !== null}>
+            {register.isPending
+              ? 'Registering…'
+              : registered
+                ? 'Adding the photos…'
+                : photos.length
+                  ? `Register the lot and add ${photos.length === 1 ? 'its photo' : `its ${photos.length} photos`}`
+                  : 'Register the lot'}
           </Button>
           <Button
             onClick={() => {

@@ -14,7 +14,14 @@ import { OpinionsPanel } from '../opinions/OpinionsPanel';
 import { AskOpinionAction } from '../opinion-requests/AskOpinionAction';
 import { RemovalRequestAction } from '../registry/RemovalRequestAction';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { DescribeAction, ListingAction, ObserveAction } from './LotPageActions';
+import {
+  DescribeAction,
+  ListingAction,
+  mayVoidSale,
+  ObserveAction,
+  RegisterLikeAction,
+  VoidSaleAction,
+} from './LotPageActions';
 
 /**
  * What an action or a panel on the lot page gets: the lot's canonical code, the state core's
@@ -103,6 +110,19 @@ export const LOT_ACTIONS: LotAction[] = [
     render: (ctx) => (
       <RecordSaleDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />
     ),
+  },
+  {
+    id: 'void-sale',
+    label: 'Void the sale',
+    visible: (ctx) =>
+      ctx.viewer !== null && ctx.viewer.status === 'verified' && mayVoidSale(ctx.state, ctx.viewer.id),
+    render: (ctx) => <VoidSaleAction {...ctx} />,
+  },
+  {
+    id: 'register-like',
+    label: 'Register another like this',
+    visible: (ctx) => viewerHolds(ctx) && ctx.state.description !== null,
+    render: (ctx) => <RegisterLikeAction {...ctx} />,
   },
   {
     id: 'split',

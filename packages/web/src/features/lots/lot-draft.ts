@@ -1,4 +1,16 @@
-import type { BaseGlass, Decoration, LotDescription, LotForm, Observations } from '@beadroll/core';
+import {
+  beadSizeProblem,
+  countProblem,
+  currencyProblem,
+  dateProblem,
+  parseAmount,
+  strandLengthProblem,
+  type BaseGlass,
+  type Decoration,
+  type LotDescription,
+  type LotForm,
+  type Observations,
+} from '@beadroll/core';
 import { MM_PER_INCH } from './labels';
 import type { CreateLotInput, SealedInput } from './lots.api';
 
@@ -95,45 +107,44 @@ export function estimateBeads(strandLengthMm: number, beadSizeMm: number): numbe
   return Math.round(strandLengthMm / beadSizeMm);
 }
 
-function length(v: string, field: string, errors: FieldErrors): number | undefined {
+function length(
+  v: string,
+  field: string,
+  errors: FieldErrors,
+  problem: (n: unknown) => string | null,
+): number | undefined {
   const t = v.trim().replace(',', '.');
   if (!t) return undefined;
-  if (!LENGTH.test(t) || Number(t) > 100_000) {
-    errors[field] = 'Give millimetres with at most one decimal, as in 8 or 8.5.';
+  const n = LENGTH.test(t) ? Number(t) : NaN;
+  const p = problem(n);
+  if (p) {
+    errors[field] = `${p}.`;
     return undefined;
   }
-  return Number(t);
-}
-
-/** Digits after the decimal point of a currency (ISO 4217 minor units, as Intl knows them). */
-export function minorDigits(currency: string): number | null {
-  try {
-    return (
-      new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ??
-      2
-    );
-  } catch {
-    return null;
-  }
+  return n;
 }
 
 /**
- * Checks a draft the way the server will and builds the request. The server checks again;
- * its answers are shown at the same fields.
+ * Checks a draft with core's bounds, as the server will, and builds the request. The server
+ * checks again; its answers are shown at the same fields. `today` (YYYY-MM-DD) limits the
+ * acquisition date.
  */
-export function draftToRequest(d: LotDraft): { input: CreateLotInput | null; errors: FieldErrors } {
+export function draftToRequest(
+  d: LotDraft,
+  today = new Date().toISOString(),
+): { input: CreateLotInput | null; errors: FieldErrors } {
   const errors: FieldErrors = {};
   const title = d.title.trim();
   if (!title) errors['description.title'] = 'Give the lot a title, as in “Blue wound beads with roses”.';
   else if (title.length > 200) errors['description.title'] = 'Keep the title to 200 characters.';
   const countText = d.countValue.trim();
-  if (!COUNT.test(countText) || Number(countText) > 10_000_000)
-    errors['description.count.value'] = 'Give the number of beads as a whole number (estimate if need be).';
-  const min = length(d.diameterMin, 'description.diameterMm.min', errors);
-  const max = length(d.diameterMax, 'description.diameterMm.max', errors);
+  const countIssue = countProblem(COUNT.test(countText) ? Number(countText) : NaN);
+  if (countIssue) errors['description.count.value'] = `${countIssue} (estimate if need be).`;
+  const min = length(d.diameterMin, 'description.diameterMm.min', errors, beadSizeProblem);
+  const max = length(d.diameterMax, 'description.diameterMm.max', errors, beadSizeProblem);
   if (min !== undefined && max !== undefined && min > max)
-    errors['description.diameterMm.min'] = 'The smallest size is larger than the largest.';
-  const strand = length(d.strandLengthMm, 'description.strandLengthMm', errors);
+    errors['description.diameterMm.min'] = 'Enter a smallest bead size that is not larger than the largest.';
+  const strand = length(d.strandLengthMm, 'description.strandLengthMm', errors, strandLengthProblem);
   const colours = d.colours
     .split(',')
     .map((c) => c.trim())
@@ -145,27 +156,19 @@ export function draftToRequest(d: LotDraft): { input: CreateLotInput | null; err
   if (d.privateNote.trim()) sealed.privateNote = d.privateNote.trim();
   const acquisition: NonNullable<SealedInput['acquisition']> = {};
   if (d.acquisitionDate) {
-    if (!/^\d{4}-\d{2}-\d{2}$/.test(d.acquisitionDate))
-      errors['sealed.acquisition.date'] = 'Give the date as YYYY-MM-DD.';
+    const p = dateProblem(d.acquisitionDate, today);
+    if (p) errors['sealed.acquisition.date'] = `${p}.`;
     else acquisition.date = d.acquisitionDate;
   }
   if (d.acquisitionSource.trim()) acquisition.source = d.acquisitionSource.trim();
-  const amount = d.costAmount.trim().replace(',', '.');
-  if (amount) {
+  if (d.costAmount.trim()) {
     const currency = d.costCurrency.trim().toUpperCase();
-    const digits = /^[A-Z]{3}$/.test(currency) ? minorDigits(currency) : null;
-    if (digits === null)
-      errors['sealed.acquisition.cost.currency'] = 'Give a currency code, as in EUR or GBP.';
-    const re = digits ? new RegExp(`^\\d+(\\.\\d{1,${digits}})?$`) : /^\d+$/;
-    if (!re.test(amount))
-      errors['sealed.acquisition.cost.amount'] =
-        digits === 0
-          ? 'This currency has no smaller unit: give a whole amount.'
-          : 'Give an amount, as in 45 or 45.50.';
-    else if (digits !== null) {
-      const [whole, frac = ''] = amount.split('.');
-      const minor = Number(whole) * 10 ** digits + Number(frac.padEnd(digits, '0') || '0');
-      acquisition.cost = { amount: minor, currency };
+    const c = currencyProblem(currency);
+    if (c) errors['sealed.acquisition.cost.currency'] = `${c}.`;
+    else {
+      const parsed = parseAmount(d.costAmount, currency);
+      if ('problem' in parsed) errors['sealed.acquisition.cost.amount'] = `${parsed.problem}.`;
+      else acquisition.cost = { amount: parsed.amount, currency };
     }
   }
   if (Object.keys(acquisition).length) sealed.acquisition = acquisition;

@@ -164,10 +164,20 @@ export const lotsQueries = {
 
 export const lotsApi = {
   register: (body: CreateLotInput) => api<LotDetail>('/api/lots', { method: 'POST', body: { ...body } }),
-  describe: (code: string, body: { description: DescriptionInput; sealed?: SealedInput }) =>
-    api<LotDetail>(`/api/lots/${enc(code)}/descriptions`, { method: 'POST', body: { ...body } }),
-  observe: (code: string, observations: Observations) =>
-    api<LotDetail>(`/api/lots/${enc(code)}/observations`, { method: 'POST', body: { observations } }),
+  describe: (
+    code: string,
+    body: { description: DescriptionInput; sealed?: SealedInput; corrects?: { seq: number; reason: string } },
+  ) => api<LotDetail>(`/api/lots/${enc(code)}/descriptions`, { method: 'POST', body: { ...body } }),
+  observe: (code: string, observations: Observations, corrects?: { seq: number; reason: string }) =>
+    api<LotDetail>(`/api/lots/${enc(code)}/observations`, {
+      method: 'POST',
+      body: { observations, ...(corrects ? { corrects } : {}) },
+    }),
+  voidSale: (code: string, reason?: string) =>
+    api<void>(`/api/transfers/sales/${enc(code)}/void`, {
+      method: 'POST',
+      body: reason ? { reason } : {},
+    }),
   setListing: (code: string, listed: boolean) =>
     api<LotDetail>(`/api/lots/${enc(code)}/listing`, { method: 'PUT', body: { listed } }),
   /** Every page of the current filter, for the CSV export (the server pages at most 100). */

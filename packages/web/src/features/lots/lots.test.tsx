@@ -174,7 +174,7 @@ describe('register form validation', () => {
     });
     expect(errors['description.diameterMm.min']).toMatch(/larger than the largest/);
     expect(errors['description.strandLengthMm']).toMatch(/one decimal/);
-    expect(errors['sealed.acquisition.cost.currency']).toMatch(/currency code/);
+    expect(errors['sealed.acquisition.cost.currency']).toMatch(/ISO 4217 code/);
   });
 
   it('builds the request: minor units of the currency, one size for both ends, observations kept', () => {
@@ -342,7 +342,7 @@ describe('register form', () => {
     await user.type(screen.getByRole('textbox', { name: /Title/ }), 'Rose strand');
     await user.type(screen.getByRole('textbox', { name: /Number of beads/ }), '50');
     await user.type(screen.getByRole('textbox', { name: 'Acquired from' }), 'Estate of Ada Quill');
-    await user.type(screen.getByRole('textbox', { name: 'Cost' }), '45.50');
+    await user.type(screen.getByRole('textbox', { name: 'Cost: amount' }), '45.50');
     await user.type(screen.getByRole('textbox', { name: 'Storage location' }), 'Drawer B');
 
     const lasting = () => Object.values({ ...localStorage }).join(' ');

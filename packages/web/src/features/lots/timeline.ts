@@ -13,6 +13,8 @@ export interface TimelineLine {
   what: string;
   /** Details, when the entry carries any. */
   detail?: string;
+  /** The earlier entry this one corrects, and why. */
+  corrects?: { seq: number; reason: string };
 }
 
 function code(c: string): string {
@@ -59,12 +61,22 @@ export function timelineOf(entries: readonly VerifiedEntry[], name: (id: string)
         const d = b?.description ?? null;
         const before = previous;
         previous = d;
+        if (b?.corrects)
+          return {
+            ...line('corrected the description', d ? descriptionDetail(d) : undefined),
+            corrects: b.corrects,
+          };
         if (d && before && before.listed !== d.listed && sameApartFromListing(before, d))
           return line(d.listed ? 'listed the lot (it now has a public page)' : 'unlisted the lot');
         return line('wrote a new description', d ? descriptionDetail(d) : undefined);
       }
       case 'observed': {
         const b = body(e.body, 'observed');
+        if (b?.corrects)
+          return {
+            ...line('corrected observations', describeObservations(b.observations)),
+            corrects: b.corrects,
+          };
         return line('recorded observations', b ? describeObservations(b.observations) : undefined);
       }
       case 'exhibit-added': {
@@ -118,6 +130,13 @@ export function timelineOf(entries: readonly VerifiedEntry[], name: (id: string)
       case 'sold': {
         const b = body(e.body, 'sold');
         return line('sold the lot to a private buyer', b ? `on ${b.date}` : undefined);
+      }
+      case 'sale-voided': {
+        const b = body(e.body, 'sale-voided');
+        return line(
+          b ? `voided the sale of entry ${b.saleSeq} (recorded by mistake)` : 'voided the sale',
+          b?.reason,
+        );
       }
       case 'retired':
         return line('took the lot out of trade', body(e.body, 'retired')?.note);

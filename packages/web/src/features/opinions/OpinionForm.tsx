@@ -1,3 +1,4 @@
+import { CheckGroup } from '../../lib/CheckGroup';
 import {
   Button,
   Checkbox,
@@ -24,8 +25,10 @@ import {
   type Origin,
   type Qualifier,
   type Technique,
+  yearProblem,
 } from '@beadroll/core';
-import { useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
+import { focusFirstError } from '../../lib/focus-first-error';
 import { fieldError, FormError } from '../accounts/FormPage';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
@@ -99,6 +102,7 @@ export function OpinionForm({
   const [confidence, setConfidence] = useState<Confidence>('medium');
   const [rationale, setRationale] = useState('');
   const [cited, setCited] = useState<string[]>([]);
+  const formRef = useRef<HTMLFormElement>(null);
   const exhibits = useQuery({ ...lotsQueries.roll(code), select: exhibitsOnRoll });
 
   const fromYear = yearOrNull(from);
@@ -121,9 +125,7 @@ export function OpinionForm({
   const periodProblem =
     fromYear !== null && toYear !== null && fromYear > toYear
       ? 'The period ends before it starts.'
-      : toYear !== null && toYear > thisYear
-        ? `The period cannot end after this year (${thisYear}).`
-        : undefined;
+      : undefined;
 
   const record = useMutation({
     mutationFn: () =>
@@ -142,21 +144,28 @@ export function OpinionForm({
       await client.invalidateQueries({ queryKey: ['lots'] });
       onDone?.(r);
     },
+    onError: () => focusFirstError(formRef.current),
   });
   const err = record.error;
   const yearMessage = (field: 'period.from' | 'period.to', value: string) =>
     fieldError(err, field) ??
-    (value !== '' && yearOrNull(value) === null ? 'A whole year, for example 1880.' : undefined);
+    (value !== '' ? (yearProblem(yearOrNull(value), thisYear) ?? undefined) : undefined);
+  const localProblem =
+    periodProblem ??
+    (from !== '' && yearProblem(fromYear, thisYear)) ??
+    (to !== '' && yearProblem(toYear, thisYear));
 
   return (
     <div className={styles.root}>
       <form
+        ref={formRef}
         className={styles.form}
         noValidate
         aria-labelledby="opinion-form-title"
         onSubmit={(e) => {
           e.preventDefault();
-          if (!periodProblem) record.mutate();
+          if (!localProblem) record.mutate();
+          else focusFirstError(formRef.current);
         }}
       >
         <Subtitle1 as="h2" id="opinion-form-title">
@@ -259,7 +268,7 @@ export function OpinionForm({
             onChange={(_, d) => setRationale(d.value)}
           />
         </Field>
-        <Field
+        <CheckGroup
           label="Cited exhibits"
           hint="Exhibits on this lot’s roll. Add your own evidence to the lot first to cite it."
           validationMessage={fieldError(err, 'exhibits')}
@@ -280,7 +289,7 @@ export function OpinionForm({
           ) : (
             <Text>No exhibits on this lot’s roll yet.</Text>
           )}
-        </Field>
+        </CheckGroup>
         {aid.warnings.length > 0 && (
           <Text role="status">
             The aid has {aid.warnings.length} plausibility{' '}

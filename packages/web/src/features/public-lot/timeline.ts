@@ -11,6 +11,7 @@ import {
   type OpinionBody,
   type OpinionWithdrawnBody,
   type RedactedBody,
+  type SaleVoidedBody,
   type SoldBody,
   type SplitBody,
   type TransferAnswerBody,
@@ -56,6 +57,8 @@ export interface TimelineItem {
   removed?: { on: string; reason: string };
   /** The entry carries sealed private details (committed on the roll, not public). */
   sealed: boolean;
+  /** The earlier entry this one corrects, and why. */
+  corrects?: { seq: number; reason: string };
 }
 
 /** Builds the timeline. Preconditions: `entries` verified, in seq order. */
@@ -97,8 +100,13 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
       }
       case 'described': {
         const d = (body as DescribedBody | null)?.description;
+        const c = (body as DescribedBody | null)?.corrects;
+        if (c) item.corrects = c;
         const change = d && listed !== null && d.listed !== listed ? d.listed : null;
-        if (change === true) item.text = `Listed publicly by ${who}: “${d!.title}”, ${countWords(d!.count)}.`;
+        if (c)
+          item.text = `Description corrected by ${who}${d ? `: “${d.title}”, ${countWords(d.count)}` : ''}.`;
+        else if (change === true)
+          item.text = `Listed publicly by ${who}: “${d!.title}”, ${countWords(d!.count)}.`;
         else if (change === false) item.text = `Made private by ${who}: the lot no longer has a public page.`;
         else
           item.text = d
@@ -109,9 +117,11 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
       }
       case 'observed': {
         const o = (body as ObservedBody | null)?.observations;
+        const c = (body as ObservedBody | null)?.corrects;
+        if (c) item.corrects = c;
         const phrases = o ? observationPhrases(o) : [];
         item.text = phrases.length
-          ? `Observations by ${who}: ${phrases.join(', ')}.`
+          ? `Observations ${c ? 'corrected' : ''} by ${who}: ${phrases.join(', ')}.`.replace('  ', ' ')
           : `Observations recorded by ${who}.`;
         if (o?.note) item.quote = o.note;
         break;
@@ -195,6 +205,12 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
         item.text = b
           ? `Sold by ${who} to a private buyer on ${dateWords(b.date)}.`
           : `Sold by ${who} to a private buyer.`;
+        break;
+      }
+      case 'sale-voided': {
+        const b = body as SaleVoidedBody | null;
+        item.text = `${who} voided the sale${b ? ` of entry ${b.saleSeq}` : ''}: it was recorded by mistake, and the lot is held again.`;
+        if (b?.reason) item.quote = b.reason;
         break;
       }
       case 'retired':

@@ -8,8 +8,6 @@ import {
   DialogTitle,
   Field,
   makeStyles,
-  Tab,
-  TabList,
   Table,
   TableBody,
   TableCell,
@@ -21,6 +19,7 @@ import {
   Title2,
   tokens,
 } from '@fluentui/react-components';
+import { FilterButtons } from '../../lib/FilterButtons';
 import { formatLotCode } from '@beadroll/core';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
@@ -150,14 +149,15 @@ function Reports() {
       <Title2 as="h1" id="reports-title">
         Reports from public pages
       </Title2>
-      <TabList
-        selectedValue={status}
-        onTabSelect={(_, d) => update({ status: String(d.value), page: '1' })}
-        aria-label="Reports by status"
-      >
-        <Tab value="open">Open</Tab>
-        <Tab value="closed">Closed</Tab>
-      </TabList>
+      <FilterButtons
+        label="Reports by status"
+        value={status}
+        options={[
+          { value: 'open', label: 'Open' },
+          { value: 'closed', label: 'Closed' },
+        ]}
+        onChange={(v) => update({ status: String(v), page: '1' })}
+      />
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label="Reports">
           <TableHeader>

@@ -7,7 +7,6 @@ import {
   DialogContent,
   DialogSurface,
   DialogTitle,
-  DialogTrigger,
   Field,
   Input,
   MessageBar,
@@ -321,11 +320,16 @@ export function PrintTagsDialog({
       {surface}
     </Dialog>
   ) : (
-    <Dialog open={open} onOpenChange={(_, d) => setOpen(d.open)}>
-      <DialogTrigger disableButtonEnhancement>
-        <Button disabled={lots.length === 0}>{triggerLabel}</Button>
-      </DialogTrigger>
-      {surface}
-    </Dialog>
+    <>
+      <Button disabled={lots.length === 0} onClick={() => setOpen(true)}>
+        {triggerLabel}
+      </Button>
+      {/* Mounted only while open: a closed dialog would still set up the focus trap's hidden stops. */}
+      {open && (
+        <Dialog open onOpenChange={(_, d) => setOpen(d.open)}>
+          {surface}
+        </Dialog>
+      )}
+    </>
   );
 }

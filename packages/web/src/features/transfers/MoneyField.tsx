@@ -1,12 +1,15 @@
-import { Field, Input, makeStyles, Select, tokens } from '@fluentui/react-components';
+import { CURRENCIES } from '@beadroll/core';
+import { Field, FieldContextProvider, Input, makeStyles, Select, tokens } from '@fluentui/react-components';
 
 const useStyles = makeStyles({
   row: { display: 'flex', gap: tokens.spacingHorizontalS },
-  amount: { flexGrow: 1 },
+  amount: { flexGrow: 1, minWidth: 0 },
+  // A native select is as wide as its longest option; the currency names would push past a phone.
+  currency: { width: '7.5rem', flexShrink: 0 },
 });
 
-/** Common trade currencies first; any other ISO 4217 code can be typed by the server API. */
-export const CURRENCIES = [
+/** Common trade currencies first, then every other one core knows (ISO 4217). */
+export const COMMON_CURRENCIES = [
   'EUR',
   'GBP',
   'USD',
@@ -57,13 +60,30 @@ export function MoneyField({
           placeholder="0.00"
           autoFocus={autoFocus}
         />
-        <Select value={currency} onChange={(_, d) => onCurrency(d.value)} aria-label={`${label}: currency`}>
-          {CURRENCIES.map((c) => (
-            <option key={c} value={c}>
-              {c}
-            </option>
-          ))}
-        </Select>
+        {/* Out of the Field's context: the Field's id, label and message belong to the amount. */}
+        <FieldContextProvider value={undefined}>
+          <Select
+            className={styles.currency}
+            value={currency}
+            onChange={(_, d) => onCurrency(d.value)}
+            aria-label={`${label}: currency`}
+          >
+            <optgroup label="Common">
+              {COMMON_CURRENCIES.map((c) => (
+                <option key={c} value={c}>
+                  {c}
+                </option>
+              ))}
+            </optgroup>
+            <optgroup label="All currencies">
+              {CURRENCIES.filter((c) => !COMMON_CURRENCIES.includes(c.code)).map((c) => (
+                <option key={c.code} value={c.code}>
+                  {c.code} · {c.name}
+                </option>
+              ))}
+            </optgroup>
+          </Select>
+        </FieldContextProvider>
       </div>
     </Field>
   );

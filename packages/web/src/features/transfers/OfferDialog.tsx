@@ -26,6 +26,7 @@ import {
   heldLotsQuery,
   type Offer,
   type Invitation,
+  priceProblem,
   toMinorUnits,
   transfersApi,
 } from './transfers.api';
@@ -69,7 +70,7 @@ export function OfferDialog({
       const minor = amount.trim() ? toMinorUnits(amount, currency) : undefined;
       if (minor === null)
         throw new ApiError(400, 'validation', 'Check the price.', [
-          { field: 'price', reason: 'type an amount such as 125.50' },
+          { field: 'price', reason: priceProblem(amount, currency) ?? 'Enter the price' },
         ]);
       return transfersApi.offer({
         lot,

@@ -3,8 +3,6 @@ import {
   Button,
   MessageBar,
   MessageBarBody,
-  Tab,
-  TabList,
   Table,
   TableBody,
   TableCell,
@@ -15,6 +13,7 @@ import {
   Title2,
   Title3,
 } from '@fluentui/react-components';
+import { FilterButtons } from '../../lib/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -186,17 +185,12 @@ export function OffersPage({ box }: { box: OfferBox }) {
         </MessageBar>
       ) : null}
       <div className={styles.tabs}>
-        <TabList
-          selectedValue={status}
-          onTabSelect={(_, d) => update({ status: d.value === 'all' ? undefined : String(d.value) })}
-          aria-label="Offers by status"
-        >
-          {FILTERS.map((f) => (
-            <Tab key={f.value} value={f.value}>
-              {f.label}
-            </Tab>
-          ))}
-        </TabList>
+        <FilterButtons
+          label="Offers by status"
+          value={status}
+          options={FILTERS}
+          onChange={(v) => update({ status: v === 'all' ? undefined : String(v) })}
+        />
       </div>
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label={title}>

@@ -19,7 +19,7 @@ import { useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { fieldError, FormError } from '../accounts/FormPage';
 import { MoneyField } from './MoneyField';
-import { heldLotsQuery, type Sale, today, toMinorUnits, transfersApi } from './transfers.api';
+import { heldLotsQuery, type Sale, priceProblem, today, toMinorUnits, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
   form: { display: 'grid', gap: tokens.spacingVerticalM },
@@ -61,7 +61,7 @@ export function RecordSaleDialog({
       const minor = toMinorUnits(amount, currency);
       if (minor === null)
         throw new ApiError(400, 'validation', 'Check the price.', [
-          { field: 'price', reason: 'type the price, such as 125.50' },
+          { field: 'price', reason: priceProblem(amount, currency) ?? 'Enter the price' },
         ]);
       localStorage.setItem(LAST_CURRENCY, currency);
       return transfersApi.recordSale({

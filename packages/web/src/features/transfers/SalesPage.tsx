@@ -2,8 +2,6 @@ import {
   Button,
   MessageBar,
   MessageBarBody,
-  Tab,
-  TabList,
   Table,
   TableBody,
   TableCell,
@@ -13,6 +11,7 @@ import {
   Text,
   Title2,
 } from '@fluentui/react-components';
+import { FilterButtons } from '../../lib/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -78,17 +77,12 @@ export function SalesPage() {
         </MessageBar>
       ) : null}
       <div className={styles.tabs}>
-        <TabList
-          selectedValue={receipt}
-          onTabSelect={(_, d) => update({ receipt: d.value === 'all' ? undefined : String(d.value) })}
-          aria-label="Sales by receipt"
-        >
-          {RECEIPTS.map((r) => (
-            <Tab key={r.value} value={r.value}>
-              {r.label}
-            </Tab>
-          ))}
-        </TabList>
+        <FilterButtons
+          label="Sales by receipt"
+          value={receipt}
+          options={RECEIPTS}
+          onChange={(v) => update({ receipt: v === 'all' ? undefined : String(v) })}
+        />
       </div>
       <div className={styles.scroller}>
         <Table className={styles.table} aria-label="Sales">

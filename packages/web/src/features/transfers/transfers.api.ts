@@ -1,3 +1,4 @@
+import { currencyOf, parseAmount } from '@beadroll/core';
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '../../lib/api';
 
@@ -189,26 +190,21 @@ export const transfersApi = {
     }),
 };
 
-/** Digits after the decimal point of a currency (ISO 4217 minor units, from the browser's data). */
+/** Digits after the decimal point of a currency (ISO 4217 minor units, from core's list). */
 export function minorDigits(currency: string): number {
-  try {
-    return (
-      new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ??
-      2
-    );
-  } catch {
-    return 2;
-  }
+  return currencyOf(currency)?.digits ?? 2;
 }
 
-/** "125.50" in EUR → 12550; null when it is not an amount. */
+/** "125.50" in EUR → 12550; null when it is not an amount (see {@link priceProblem} for why). */
 export function toMinorUnits(text: string, currency: string): number | null {
-  const t = text.trim().replace(',', '.');
-  const digits = minorDigits(currency);
-  const re = digits === 0 ? /^\d+$/ : new RegExp(`^\\d+(\\.\\d{1,${digits}})?$`);
-  if (!re.test(t)) return null;
-  const [whole, frac = ''] = t.split('.');
-  return Number(whole) * 10 ** digits + Number(frac.padEnd(digits, '0') || '0');
+  const r = parseAmount(text, currency);
+  return 'amount' in r ? r.amount : null;
+}
+
+/** What to enter instead of `text` as an amount in `currency`, or null when it is fine. */
+export function priceProblem(text: string, currency: string): string | null {
+  const r = parseAmount(text, currency);
+  return 'problem' in r ? r.problem : null;
 }
 
 /** An amount in the viewer's locale, e.g. €125.50. */

@@ -153,7 +153,7 @@ describe('transfers in the web app', () => {
     });
     const router = renderAt('/transfers/incoming');
     expect(await screen.findByRole('link', { name: offer.lot.title })).toBeInTheDocument();
-    await userEvent.click(screen.getByRole('tab', { name: 'Accepted' }));
+    await userEvent.click(screen.getByRole('button', { name: 'Accepted' }));
     await waitFor(() => expect(router.state.location.search).toBe('?status=accepted'));
     await waitFor(() =>
       expect(calls.some((c) => c.url.includes('box=incoming') && c.url.includes('status=accepted'))).toBe(

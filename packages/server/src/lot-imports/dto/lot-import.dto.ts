@@ -1,0 +1,55 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
+
+/** The multipart fields beside the file: how the sheet's columns map to a lot's fields. */
+export class ImportFormDto {
+  @ApiPropertyOptional({
+    description: 'JSON object: field key → 0-based column index (left out: the suggested mapping)',
+    example: '{"title":0,"form":1,"count":2}',
+  })
+  @IsOptional()
+  @IsString()
+  @MaxLength(4000)
+  mapping?: string;
+}
+
+export class TemplateQueryDto {
+  @ApiProperty({ enum: ['csv', 'xlsx'] })
+  @IsIn(['csv', 'xlsx'])
+  format: 'csv' | 'xlsx';
+}
+
+export class ImportFieldResponse {
+  @ApiProperty() key: string;
+  @ApiProperty() header: string;
+  @ApiProperty() required: boolean;
+  @ApiProperty() hint: string;
+}
+
+export class SheetResponse {
+  @ApiProperty({ type: [String] }) headers: string[];
+  @ApiProperty({
+    description: 'the first rows, for the preview',
+    type: 'array',
+    items: { type: 'array', items: { type: 'string' } },
+  })
+  preview: string[][];
+  @ApiProperty() total: number;
+  @ApiProperty({ description: 'field key → column index suggested by the header row' })
+  suggested: Record<string, number>;
+  @ApiProperty({ type: [ImportFieldResponse] }) fields: ImportFieldResponse[];
+}
+
+export class RowProblemResponse {
+  @ApiProperty({ description: 'row number as a spreadsheet shows it (the header is row 1)' }) row: number;
+  @ApiProperty({ type: 'array', items: { type: 'object' } }) problems: Array<{
+    column: string;
+    message: string;
+  }>;
+}
+
+export class CheckResponse {
+  @ApiProperty() total: number;
+  @ApiProperty() valid: number;
+  @ApiProperty({ type: [RowProblemResponse] }) rows: RowProblemResponse[];
+}
