@@ -72,6 +72,9 @@ export const HEADER_KEYS: Readonly<Record<FormatVersion, readonly string[]>> = {
   2: [...HEADER_KEYS_V1, 'facts'],
 };
 
+/** Kinds that format version 2 added: a version-1 header naming one is `bad-header`. */
+export const VERSION_2_KINDS: readonly EntryKind[] = ['sale-voided'];
+
 /** Kinds whose bodies can never be redacted, so a missing one always breaks the roll. */
 export const NEVER_REDACTED: readonly EntryKind[] = ['registered', 'split', 'combined', 'redacted'];
 
@@ -119,6 +122,8 @@ export function buildEntry<K extends EntryKind>(
   if (head && draft.lot !== undefined && draft.lot !== head.lot)
     issues.push({ path: 'lot', message: 'differs from the roll' });
   if (!ENTRY_KINDS.includes(draft.kind)) issues.push({ path: 'kind', message: 'is not a known kind' });
+  else if (version < 2 && VERSION_2_KINDS.includes(draft.kind))
+    issues.push({ path: 'kind', message: 'is not a kind of format version 1' });
   if (!isEntryTime(draft.time)) issues.push({ path: 'time', message: 'must be YYYY-MM-DDTHH:MM:SS.sssZ' });
   else if (head && draft.time < head.time)
     issues.push({ path: 'time', message: 'must not be earlier than the previous entry' });
@@ -251,6 +256,8 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   if (typeof o.kind !== 'string' || !(ENTRY_KINDS as readonly string[]).includes(o.kind)) {
     return { reason: 'bad-header', message: 'kind is not a known kind' };
   }
+  if (o.v === 1 && (VERSION_2_KINDS as readonly string[]).includes(o.kind))
+    return { reason: 'bad-header', message: `${o.kind} is not a kind of format version 1` };
   if (!Number.isSafeInteger(o.seq) || (o.seq as number) < 0)
     return { reason: 'bad-seq', message: 'seq is not a non-negative integer' };
   if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };

@@ -269,13 +269,13 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     if (o && 'description' in o) checkDescription(c, o.description, 'description');
   },
   described: (c, b) => {
-    const o = c.obj(b, '', ['nonce', 'description'], ['corrects']);
+    const o = c.obj(b, '', ['nonce', 'description'], c.version >= 2 ? ['corrects'] : []);
     if (!o) return;
     if ('description' in o) checkDescription(c, o.description, 'description');
     if ('corrects' in o) checkCorrection(c, o.corrects);
   },
   observed: (c, b) => {
-    const o = c.obj(b, '', ['nonce', 'observations'], ['corrects']);
+    const o = c.obj(b, '', ['nonce', 'observations'], c.version >= 2 ? ['corrects'] : []);
     if (o && 'corrects' in o) checkCorrection(c, o.corrects);
     if (!o || !('observations' in o)) return;
     const p = 'observations';

@@ -460,3 +460,24 @@ describe('version-2 body fields', () => {
     expect(() => v1.add('observed', HOLDER, { observations: { mouldSeam: 'seen' } })).toThrow(/mouldSeam/);
   });
 });
+
+describe('version-2 kinds and fields stay out of version 1', () => {
+  it('a voided sale and a correction are version-2 only', () => {
+    const v1 = fortyBeads(1);
+    expect(() =>
+      v1.add(
+        'observed',
+        HOLDER,
+        {
+          observations: { hole: 'clean' },
+          corrects: { seq: 0, reason: 'x' },
+        } as never,
+        { unchecked: true },
+      ),
+    ).toThrow(/corrects/);
+    v1.add('sold', HOLDER, { date: '2025-01-02' });
+    expect(() => v1.add('sale-voided', HOLDER, { saleSeq: 1 } as never, { unchecked: true })).toThrow(
+      /format version 1/,
+    );
+  });
+});
