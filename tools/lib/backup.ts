@@ -204,7 +204,7 @@ export async function restore(
   if (imported.code !== 0) throw new UserFacingError(`the exhibit files did not restore: ${imported.out}`);
   log('auditing every roll…');
   const audit = await serverCli(env, 'audit/audit-cli.js', []);
-  log(audit.out.split('\n').pop() ?? '');
+  log(audit.code === 0 ? (audit.out.trim().split('\n').pop() ?? '') : audit.out.trim());
   const check = await serverCli(env, 'cli/exhibit-store.js', ['check']);
   const checked = JSON.parse(check.out || '{}') as { files?: number };
   const counts = await query<{ lots: number; entries: number }>(

@@ -215,6 +215,8 @@ describe('idempotent writes', () => {
       business: 'Brannock Beads',
       town: 'Lattimo Hythe',
       country: 'Cullet Shires',
+      address: '4 Quay Lane, Lattimo Hythe',
+      tradeReferences: 'Stand 9 at the Lattimo Hythe bead fair since 2020.',
     };
     const one = await request(t.app.getHttpServer())
       .post('/api/auth/sign-up')

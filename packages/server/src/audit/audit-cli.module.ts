@@ -1,14 +1,21 @@
 import { Module } from '@nestjs/common';
+import { ScheduleModule } from '@nestjs/schedule';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG, AppConfigModule } from '../config/config.module';
 import { dataSourceOptions } from '../database/data-source';
+import { MailModule } from '../mail/mail.module';
 import { AuditModule } from './audit.module';
 
-/** Just the database and the audit, for the command-line audit. */
+/**
+ * Just the database and the audit, for the command-line audit (with the scheduler registry and mail
+ * service the ledger's log services depend on; the CLI starts no job and sends nothing).
+ */
 @Module({
   imports: [
     AppConfigModule,
+    ScheduleModule.forRoot(),
+    MailModule,
     TypeOrmModule.forRootAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),
