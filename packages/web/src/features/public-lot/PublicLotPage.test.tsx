@@ -114,7 +114,7 @@ describe('public lot page: a lot that changed hands', () => {
     expect(screen.getByText('7–9.5 mm')).toBeInTheDocument();
   });
 
-  it('links to the bundle and to the offline checking page, with no command to type', async () => {
+  it('links to the bundle and gives the command to verify it offline', async () => {
     serve(lot);
     open(`/l/${lot.code}`);
     const link = await screen.findByRole('link', {
@@ -149,7 +149,7 @@ describe('public lot page: a lot that changed hands', () => {
     await user.type(box, 'nonsense');
     await user.click(screen.getByRole('button', { name: 'Check tag' }));
     expect(box).toHaveAttribute('aria-invalid', 'true');
-    expect(screen.getByText(/Type the 10 letters and digits printed on the tag/)).toBeInTheDocument();
+    expect(screen.getByText(/Type the code printed on the tag/)).toBeInTheDocument();
     const h = refOf(lot, 4);
     await user.clear(box);
     // Typed as printed, lower case: read case-insensitively (ledger format §4).
@@ -157,8 +157,26 @@ describe('public lot page: a lot that changed hands', () => {
     await user.click(screen.getByRole('button', { name: 'Check tag' }));
     expect(status()).toHaveTextContent('The code you typed matches entry 4; 1 entry added since.');
     expect(box).not.toHaveAttribute('aria-invalid');
+    // The code as printed now, with its check symbol (ledger format §4), spaces instead of dashes.
+    await user.clear(box);
+    await user.type(box, core.printedTagCode(h).replace(/-/g, ' '));
+    await user.click(screen.getByRole('button', { name: 'Check tag' }));
+    expect(status()).toHaveTextContent('The code you typed matches entry 4; 1 entry added since.');
+    // One symbol off: a typing error, not a rewritten history.
+    const off = `${h.slice(0, 9)}${h[9] === '0' ? '1' : '0'}`;
+    await user.clear(box);
+    await user.type(box, off);
+    await user.click(screen.getByRole('button', { name: 'Check tag' }));
+    expect(status()).toHaveTextContent('This code has a typing error; compare it with the tag again.');
+    // The right code at the wrong entry number is a typing error too.
     await user.clear(box);
     await user.type(box, `entry 2 · ${h}`);
+    await user.click(screen.getByRole('button', { name: 'Check tag' }));
+    expect(status()).toHaveTextContent('This code has a typing error');
+    // A well-formed code, check symbol and all, that names no entry: the history changed.
+    const stranger = core.tagReference('00'.repeat(32));
+    await user.clear(box);
+    await user.type(box, core.printedTagCode(stranger));
     await user.click(screen.getByRole('button', { name: 'Check tag' }));
     expect(status()).toHaveTextContent('Warning: this history no longer contains the entry that code names.');
   });
@@ -172,10 +190,23 @@ describe('public lot page: opinions, dissent and a removed body', () => {
     serve(lot);
     open(`/l/${lot.code}`);
     await screen.findByText(/Unbroken history as served: 6 entries/);
-    expect(screen.getByText('1 dissent from the holder’s attribution.')).toBeInTheDocument();
-    const attribution = screen.getByRole('article', { name: `Holder’s attribution by ${nameOf(DEALER_B)}` });
+    // The first thing on the page: the attribution on record and the counts, each a link.
+    const onRecord = screen.getByRole('region', { name: 'Attribution on record' });
+    expect(within(onRecord).getByRole('link', { name: '1 dissent' })).toHaveAttribute(
+      'href',
+      '#pl-op-dissent',
+    );
+    expect(within(onRecord).getByRole('link', { name: '0 opinions agree' })).toHaveAttribute(
+      'href',
+      '#pl-op-agree',
+    );
+    expect(onRecord).toHaveTextContent(`Attributed by the holder, ${nameOf(DEALER_B)}`);
+    const attribution = screen.getByRole('article', { name: `Attribution on record by ${nameOf(DEALER_B)}` });
     expect(within(attribution).getByText('Venice / Murano, about 1880–1920')).toBeInTheDocument();
-    const dissent = screen.getByRole('article', { name: `Dissent by ${nameOf(ASSESSOR)}` });
+    // The assessor's role shows on their opinion.
+    const dissent = screen.getByRole('article', {
+      name: `Dissent by ${nameOf(ASSESSOR)}, independent assessor`,
+    });
     expect(within(dissent).getByText('Bohemia / Czech lands, 1950–1980')).toBeInTheDocument();
     expect(
       within(dissent).getByText(/a later copy · pressed or moulded · high confidence · cites 1 exhibit/),
