@@ -192,7 +192,8 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
     await page.getByRole('textbox', { name: 'E-mail address' }).fill(email('teodor-brasko'));
     await page.getByLabel('Password').fill(demo.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('heading', { level: 1 }).and(page.locator('#account-title')).waitFor();
+    // Signing in lands each role on its own start page, away from the sign-in form.
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     await page.goto(`${baseUrl}/lots/${code}`);
     const panel = page.getByRole('region', { name: 'Attribution on record' });
     await panel.getByText(/Attributed by the previous holder, Odile Varnas/).waitFor();
