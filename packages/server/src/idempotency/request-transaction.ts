@@ -116,3 +116,12 @@ export class RequestTransaction {
     }
   }
 }
+
+/**
+ * Runs `fn` outside any request's transaction: work a request merely starts (a background pass
+ * that must commit on its own, such as the log sequencer's) takes connections of its own and
+ * never runs statements, BEGIN or COMMIT included, on the request's connection.
+ */
+export function outsideRequestTransaction<T>(fn: () => T): T {
+  return scopes.exit(fn);
+}

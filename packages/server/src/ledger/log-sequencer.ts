@@ -1,5 +1,6 @@
 import { Injectable, Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { DataSource, type EntityManager } from 'typeorm';
+import { outsideRequestTransaction } from '../idempotency/request-transaction';
 
 /** Transaction advisory lock held by the one pass of the log sequencer at a time ("BRLOGSQ1"). */
 export const SEQUENCER_LOCK_KEY = 0x42524c4f47535131n;
@@ -63,7 +64,9 @@ export class LogSequencer implements OnModuleInit, OnModuleDestroy {
       this.again = true;
       return;
     }
-    this.running = this.loop().finally(() => {
+    // Kicked from inside an append, perhaps within a request's transaction: the pass runs on a
+    // connection of its own, never on the request's (its COMMIT would end the request's work).
+    this.running = outsideRequestTransaction(() => this.loop()).finally(() => {
       this.running = undefined;
     });
   }
