@@ -10,7 +10,8 @@ export function focusFirstError(root: HTMLElement | null): void {
     const el = root?.querySelector<HTMLElement>('[aria-invalid="true"], [data-invalid="true"]');
     if (!el) return;
     const target = el.matches(CONTROL) ? el : (el.querySelector<HTMLElement>(CONTROL) ?? el);
-    target.scrollIntoView({ block: 'center' });
+    // Every browser has scrollIntoView; a test DOM without layout (jsdom) does not.
+    target.scrollIntoView?.({ block: 'center' });
     target.focus({ preventScroll: true });
   });
 }
