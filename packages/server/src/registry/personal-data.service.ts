@@ -6,7 +6,7 @@ import { PasswordsService } from '../auth/passwords.service';
 import { SessionsService } from '../auth/sessions.service';
 import { AppError } from '../common/app-error';
 import { MailService } from '../mail/mail.service';
-import { OfferLapseService } from './offer-lapse.service';
+import { OfferLapseService } from '../transfers/offer-lapse.service';
 import { registryLetters } from './registry-letters';
 
 /** Everything Beadroll holds about one account, as the account's own download. */

@@ -331,7 +331,8 @@ export class TransfersService implements OnModuleInit {
     const who = { offerer: this.name(offerer), recipient: this.name(recipient) };
     const url = `${this.config.publicBaseUrl}/lots/${row.code}`;
     for (const a of [offerer, recipient]) {
-      if (!a) continue;
+      // A closed account's address is gone; it gets no letter.
+      if (!a || a.status === 'closed') continue;
       await this.mail.send(
         a.email,
         transferLetters.offerEnded(
