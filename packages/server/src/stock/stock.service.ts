@@ -1,10 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import { formatLotCode, type Money, type SealedFieldName } from '@beadroll/core';
-import ExcelJS from 'exceljs';
 import { DataSource } from 'typeorm';
 import type { Viewer } from '../lots/lots.service';
 import { RollReaderService, type ViewerSealedField } from '../ledger/roll-reader.service';
-import type { ExportFormat } from './dto/stock-requests.dto';
+import { exportFile, type ExportColumn, type ExportFile, type ExportFormat } from '../export/sheet-export';
 import type {
   CurrencyFigures,
   SalesPeriod,
@@ -45,6 +44,25 @@ const SEALED: readonly SealedFieldName[] = [
   'transfer-price',
 ];
 
+const STOCK_COLUMNS: readonly ExportColumn[] = [
+  { header: 'code', key: 'code', width: 14 },
+  { header: 'title', key: 'title', width: 40 },
+  { header: 'form', key: 'form', width: 10 },
+  { header: 'count', key: 'count', width: 8 },
+  { header: 'count estimated', key: 'estimated', width: 10 },
+  { header: 'status', key: 'status', width: 10 },
+  { header: 'listed', key: 'listed', width: 8 },
+  { header: 'origin on record', key: 'origin', width: 16 },
+  { header: 'period on record from', key: 'from', width: 10 },
+  { header: 'period on record to', key: 'to', width: 10 },
+  { header: 'technique on record', key: 'technique', width: 16 },
+  { header: 'storage place', key: 'storage', width: 24 },
+  { header: 'acquisition date', key: 'date', width: 12 },
+  { header: 'acquisition source', key: 'source', width: 24 },
+  { header: 'cost', key: 'cost', width: 12, numFmt: '#,##0.00' },
+  { header: 'currency', key: 'currency', width: 9 },
+];
+
 /** ISO 4217 minor digits of a currency, as the runtime's locale data knows them (2 when unknown). */
 export function minorDigits(currency: string): number {
   try {
@@ -62,14 +80,6 @@ export function majorUnits(amount: number, currency: string): string {
   const sign = amount < 0 ? '-' : '';
   const s = String(Math.abs(amount)).padStart(digits + 1, '0');
   return `${sign}${s.slice(0, -digits)}.${s.slice(-digits)}`;
-}
-
-/**
- * A cell as text a spreadsheet shows and never runs: text starting with = + - @ or a tab or
- * carriage return gets a leading apostrophe (OWASP, "CSV Injection").
- */
-export function inertText(value: string): string {
-  return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
 }
 
 /** The newest value of a field at or before `upTo`, among the viewer's own sealed fields. */
@@ -193,7 +203,7 @@ export class StockService {
   }
 
   /** The stock held as a CSV or XLSX file: one row per lot, with the dealer's own sealed details. */
-  async export(me: Viewer, format: ExportFormat): Promise<{ body: Buffer; type: string; name: string }> {
+  async export(me: Viewer, format: ExportFormat): Promise<ExportFile> {
     const held = await this.held(me);
     const bought = await this.boughtAt(me);
     const sealed = await this.reader.sealedForLots(
@@ -201,35 +211,14 @@ export class StockService {
       me.id,
       SEALED,
     );
-    const book = new ExcelJS.Workbook();
-    book.created = new Date(0);
-    const sheet = book.addWorksheet('Stock');
-    sheet.columns = [
-      { header: 'code', key: 'code', width: 14 },
-      { header: 'title', key: 'title', width: 40 },
-      { header: 'form', key: 'form', width: 10 },
-      { header: 'count', key: 'count', width: 8 },
-      { header: 'count estimated', key: 'estimated', width: 10 },
-      { header: 'status', key: 'status', width: 10 },
-      { header: 'listed', key: 'listed', width: 8 },
-      { header: 'origin on record', key: 'origin', width: 16 },
-      { header: 'period on record from', key: 'from', width: 10 },
-      { header: 'period on record to', key: 'to', width: 10 },
-      { header: 'technique on record', key: 'technique', width: 16 },
-      { header: 'storage place', key: 'storage', width: 24 },
-      { header: 'acquisition date', key: 'date', width: 12 },
-      { header: 'acquisition source', key: 'source', width: 24 },
-      { header: 'cost', key: 'cost', width: 12 },
-      { header: 'currency', key: 'currency', width: 9 },
-    ];
-    for (const h of held) {
+    const rows = held.map((h) => {
       const fields = sealed.get(h.lot_id) ?? [];
       const cost = this.costOf(fields, bought.get(h.lot_id) ?? []);
-      const text = (v: unknown) => (typeof v === 'string' ? inertText(v) : '');
+      const text = (v: unknown) => (typeof v === 'string' ? v : '');
       const costText = cost ? majorUnits(cost.amount, cost.currency) : '';
-      sheet.addRow({
+      return {
         code: formatLotCode(h.code),
-        title: inertText(h.title),
+        title: h.title,
         form: h.form ?? '',
         count: h.count_value,
         estimated: h.count_estimated ? 'yes' : 'no',
@@ -245,23 +234,10 @@ export class StockService {
         // A number in the spreadsheet, a decimal text in the CSV (never a float's rounding).
         cost: format === 'xlsx' && cost ? Number(costText) : costText,
         currency: cost?.currency ?? '',
-      });
-    }
-    const day = new Date().toISOString().slice(0, 10);
-    if (format === 'xlsx') {
-      sheet.getColumn('cost').numFmt = '#,##0.00';
-      sheet.getRow(1).font = { bold: true };
-      sheet.views = [{ state: 'frozen', ySplit: 1 }];
-      return {
-        body: Buffer.from(await book.xlsx.writeBuffer()),
-        type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-        name: `beadroll-stock-${day}.xlsx`,
       };
-    }
-    const csv = await book.csv.writeBuffer({
-      formatterOptions: { rowDelimiter: '\r\n', includeEndRowDelimiter: true },
     });
-    return { body: Buffer.from(csv), type: 'text/csv; charset=utf-8', name: `beadroll-stock-${day}.csv` };
+    const day = new Date().toISOString().slice(0, 10);
+    return exportFile(format, `beadroll-stock-${day}`, [{ name: 'Stock', columns: STOCK_COLUMNS, rows }]);
   }
 
   /**

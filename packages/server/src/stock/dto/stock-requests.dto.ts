@@ -1,8 +1,6 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
 import { IsIn, IsOptional } from 'class-validator';
-
-export const EXPORT_FORMATS = ['csv', 'xlsx'] as const;
-export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+import { EXPORT_FORMATS, type ExportFormat } from '../../export/sheet-export';
 
 /** Which file the stock export writes. */
 export class StockExportQueryDto {
