@@ -1,4 +1,6 @@
+import { StreamableFile } from '@nestjs/common';
 import ExcelJS from 'exceljs';
+import type { Response } from 'express';
 import Papa from 'papaparse';
 
 /** The two file formats every export offers. */
@@ -90,4 +92,11 @@ export async function exportFile(
 ): Promise<ExportFile> {
   const body = format === 'csv' ? csv(sheets[0], opts.bom ?? false) : await xlsx(sheets);
   return { body, type: TYPES[format], name: `${fileBase}.${format}` };
+}
+
+/** Sends an export as an attachment from a controller (with `@Res({ passthrough: true })`). */
+export function attachment(res: Response, file: ExportFile): StreamableFile {
+  res.setHeader('Content-Type', file.type);
+  res.setHeader('Content-Disposition', `attachment; filename="${file.name}"`);
+  return new StreamableFile(file.body);
 }

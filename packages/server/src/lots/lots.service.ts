@@ -20,7 +20,14 @@ import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { attributionOnRecord as holderAttribution } from './attribution-on-record';
-import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
+import { exportFile, type ExportColumn, type ExportFile } from '../export/sheet-export';
+import type {
+  CreateLotDto,
+  DescribeLotDto,
+  ExportLotsQueryDto,
+  ListLotsQueryDto,
+  ObserveLotDto,
+} from './dto/lot-requests.dto';
 import type {
   LotDetailResponse,
   LotListResponse,
@@ -145,6 +152,21 @@ export function sealedValuesOf(dto: SealedDetailsDto | undefined): SealedValues 
   if (a?.cost !== undefined) out['acquisition-cost'] = { amount: a.cost.amount, currency: a.cost.currency };
   return Object.keys(out).length > 0 ? out : undefined;
 }
+
+/** The most lots one inventory export holds. */
+const MAX_EXPORT_LOTS = 20_000;
+
+const INVENTORY_COLUMNS: readonly ExportColumn[] = [
+  { key: 'code', header: 'code', width: 14 },
+  { key: 'title', header: 'title', width: 40 },
+  { key: 'form', header: 'form', width: 10 },
+  { key: 'count', header: 'count', width: 8 },
+  { key: 'estimated', header: 'estimated', width: 10 },
+  { key: 'origin', header: 'origin', width: 16 },
+  { key: 'status', header: 'status', width: 10 },
+  { key: 'listed', header: 'listed', width: 8 },
+  { key: 'updatedAt', header: 'last entry (UTC)', width: 24 },
+];
 
 function toSummary(r: LotViewRow): LotSummaryResponse {
   return {
@@ -378,6 +400,35 @@ export class LotsService {
     );
     const items = await Promise.all(rows.map((r) => this.withRecord(toSummary(r))));
     return { items, total, page, pageSize };
+  }
+
+  /** The inventory as a CSV or XLSX file: the list's filters, search and sort, every page. */
+  async exportList(viewer: Viewer, q: ExportLotsQueryDto): Promise<ExportFile> {
+    const { format = 'csv', ...filters } = q;
+    const rows: LotSummaryResponse[] = [];
+    for (let page = 1; rows.length < MAX_EXPORT_LOTS; page++) {
+      const r = await this.list(viewer, { ...filters, page, pageSize: 100 });
+      rows.push(...r.items);
+      if (rows.length >= r.total || r.items.length === 0) break;
+    }
+    const day = new Date().toISOString().slice(0, 10);
+    return exportFile(format, `beadroll-lots-${day}`, [
+      {
+        name: 'Lots',
+        columns: INVENTORY_COLUMNS,
+        rows: rows.map((r) => ({
+          code: r.displayCode,
+          title: r.title,
+          form: r.form,
+          count: r.count.value,
+          estimated: r.count.estimated ? 'yes' : 'no',
+          origin: r.origin,
+          status: r.status,
+          listed: r.listed ? 'yes' : 'no',
+          updatedAt: r.updatedAt,
+        })),
+      },
+    ]);
   }
 
   /**
