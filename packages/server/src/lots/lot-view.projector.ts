@@ -76,6 +76,41 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
     if (STORAGE_KINDS.has(entry.kind)) await this.projectStorage(m, lotId, entry.actor);
   }
 
+  /**
+   * Rewrites the derived columns of a lot's existing view from `s` (its `updated_at` stays: no
+   * entry was added). For refreshing stored copies after the derivation changed.
+   */
+  static async refresh(
+    m: EntityManager,
+    lotId: string,
+    s: RollState,
+    observations: Observations | null,
+  ): Promise<void> {
+    const v = lotViewValues(s, observations);
+    await m.query(
+      `UPDATE "lot_views" SET "title" = $2, "form" = $3, "status" = $4, "holder" = $5, "listed" = $6,
+         "origin" = $7, "count_value" = $8, "count_estimated" = $9, "dissent_count" = $10,
+         "offer_recipient" = $11, "observations" = $12, "head_seq" = $13, "search_text" = $14
+       WHERE "lot_id" = $1`,
+      [
+        lotId,
+        v.title,
+        v.form,
+        v.status,
+        v.holder,
+        v.listed,
+        v.origin,
+        v.count_value,
+        v.count_estimated,
+        v.dissent_count,
+        v.offer_recipient,
+        v.observations ? JSON.stringify(v.observations) : null,
+        v.head_seq,
+        v.search_text,
+      ],
+    );
+  }
+
   /** The writer's newest sealed storage place, as words only their own searches match. */
   private async projectStorage(m: EntityManager, lotId: string, actor: string): Promise<void> {
     const place = (await this.reader.sealedFor(lotId, actor, m))

@@ -2,10 +2,11 @@ import { Module } from '@nestjs/common';
 import { LedgerModule } from '../ledger/ledger.module';
 import { StockController } from './stock.controller';
 import { StockService } from './stock.service';
+import { LotViewsModule } from '../lots/lot-views.module';
 
 /** The dealer's own stock and sales figures and the stock export. */
 @Module({
-  imports: [LedgerModule],
+  imports: [LedgerModule, LotViewsModule],
   controllers: [StockController],
   providers: [StockService],
 })

@@ -10,6 +10,7 @@ import type {
   StockGroup,
   StockSummaryResponse,
 } from './dto/stock-responses.dto';
+import { LotViewsService } from '../lots/lot-views.service';
 
 /** A lot the dealer holds, with what the inventory shows of its attribution on record. */
 interface HeldRow {
@@ -115,6 +116,7 @@ function centuryKey(from: number | null): string {
 @Injectable()
 export class StockService {
   constructor(
+    private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     private readonly reader: RollReaderService,
   ) {}
@@ -258,13 +260,21 @@ export class StockService {
     return out;
   }
 
-  private held(me: Viewer): Promise<HeldRow[]> {
-    return this.dataSource.query(
-      `SELECT "lot_id", "code", "title", "form", "status", "listed", "origin", "technique", "period_from",
-              "period_to", "count_value", "count_estimated"
-         FROM "lot_views" WHERE "holder" = $1 AND "status" IN ('held', 'offered') ORDER BY "code"`,
-      [me.id],
-    );
+  private async held(me: Viewer): Promise<HeldRow[]> {
+    return (await this.views.heldBy(me.id, ['held', 'offered'])).map((v) => ({
+      lot_id: v.lotId,
+      code: v.code,
+      title: v.title,
+      form: v.form,
+      status: v.status,
+      listed: v.listed,
+      origin: v.origin,
+      technique: v.technique,
+      period_from: v.periodFrom,
+      period_to: v.periodTo,
+      count_value: v.countValue,
+      count_estimated: v.countEstimated,
+    }));
   }
 
   private sales(me: Viewer): Promise<SaleRow[]> {
