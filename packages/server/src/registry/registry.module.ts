@@ -19,6 +19,7 @@ import { RegistrarRecordController } from './registrar-record.controller';
 import { RegistrarRecordService } from './registrar-record.service';
 import { PublicReportsController, ReportsController } from './reports.controller';
 import { ReportsService } from './reports.service';
+import { LotViewsModule } from '../lots/lot-views.module';
 
 /**
  * The registrar's tools: redaction (and holders' requests), the blocked-digest list, reports
@@ -35,6 +36,7 @@ import { ReportsService } from './reports.service';
     LedgerModule,
     StorageModule,
     TransfersModule,
+    LotViewsModule,
   ],
   controllers: [
     RedactionsController,
