@@ -1,5 +1,11 @@
 import { Injectable } from '@nestjs/common';
-import { isLotCode, parseLotCode, type BundleEntry, type SealedFieldName } from '@beadroll/core';
+import {
+  isLotCode,
+  parseLotCode,
+  type BundleEntry,
+  type RollState,
+  type SealedFieldName,
+} from '@beadroll/core';
 import { DataSource, type EntityManager } from 'typeorm';
 
 /** A stored entry with the columns other features read without decoding the header. */
@@ -48,6 +54,18 @@ export class RollReaderService {
       ]);
     const r = rows[0];
     return r ? { id: r.id, code: r.code, headSeq: r.head_seq, headHash: r.head_hash } : null;
+  }
+
+  /** A lot's id and its cached state (as of its head), by canonical code; null when unknown. */
+  async cachedState(
+    code: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<{ id: string; state: RollState } | null> {
+    const rows: Array<{ id: string; state: RollState }> = await manager.query(
+      'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
+      [code],
+    );
+    return rows[0] ?? null;
   }
 
   /** The stored heads of many lots at once, by canonical code (unknown codes left out). */

@@ -1,9 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import {
-  attributionOnRecord,
   checkTransition,
   formatLotCode,
-  inheritedRecord,
   verifyRoll,
   type Bundle,
   type Correction,
@@ -19,7 +17,6 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
-import { attributionOnRecord as holderAttribution } from './attribution-on-record';
 import { exportFile, type ExportColumn, type ExportFile } from '../export/sheet-export';
 import type {
   CreateLotDto,
@@ -74,6 +71,7 @@ interface LotViewRow {
   holder: string;
   listed: boolean;
   origin: string | null;
+  origin_source: LotSummaryResponse['originSource'];
   technique: string | null;
   period_from: number | null;
   period_to: number | null;
@@ -178,7 +176,7 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
     listed: r.listed,
     holder: r.holder,
     origin: r.origin,
-    originSource: r.origin ? 'holder' : null,
+    originSource: r.origin_source,
     technique: r.technique,
     period: r.period_from === null || r.period_to === null ? null : { from: r.period_from, to: r.period_to },
     count: { value: r.count_value, estimated: r.count_estimated },
@@ -398,7 +396,7 @@ export class LotsService {
       `SELECT v.* FROM ${from} ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
       params,
     );
-    const items = await Promise.all(rows.map((r) => this.withRecord(toSummary(r))));
+    const items = rows.map(toSummary);
     return { items, total, page, pageSize };
   }
 
@@ -429,21 +427,6 @@ export class LotsService {
         })),
       },
     ]);
-  }
-
-  /**
-   * A row without a holder's attribution shows the attribution on record instead (an earlier
-   * holder's, or one made on a lot its beads came from), with the dissents against it, derived
-   * by core from the lot's public bundle.
-   */
-  private async withRecord(row: LotSummaryResponse): Promise<LotSummaryResponse> {
-    if (row.origin) return row;
-    const bundle = await this.bundles.bundleFor(row.code, (_lot, state) => state.listed);
-    const own = bundle ? verifyRoll(bundle.rolls[0]!.entries, { lot: row.code }) : null;
-    if (!bundle || !own?.ok) return row;
-    const r = attributionOnRecord(own.verified, own.state, inheritedRecord(bundle, row.code));
-    if (!r.record) return row;
-    return { ...row, origin: r.record.body.origin, originSource: r.source, dissents: r.dissent.length };
   }
 
   async detail(viewer: Viewer, text: string): Promise<LotDetailResponse> {
@@ -573,7 +556,7 @@ export class LotsService {
     const r = verifyRoll(entries, { lot: access.code });
     if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
     const s = r.state;
-    const recorded = holderAttribution(s);
+    const recorded = s.attribution?.body ?? null;
     const view = (await this.view(access.code))!;
     const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
     const head = entries[entries.length - 1]!;
