@@ -112,11 +112,17 @@ export class BundleService {
     private readonly log: LogService,
   ) {}
 
+  /**
+   * The bundle of `code`, every row read through `manager` (the primary by default; a public
+   * read may pass the hot standby's). Its checkpoint is the log's latest, with proofs of the
+   * entries this read saw.
+   */
   async bundleFor(
     code: string,
     fullAncestor: (lot: string, state: RollState) => boolean = (_lot, state) => state.listed,
+    manager: EntityManager = this.dataSource.manager,
   ): Promise<Bundle | null> {
-    const parts = await bundleRolls(this.reader, code, fullAncestor);
+    const parts = await bundleRolls(this.reader, code, fullAncestor, manager);
     if (!parts) return null;
     const checkpoint = await this.log.bundleCheckpoint(
       parts.filter((r) => r.scope === 'full').map((r) => ({ lot: r.lot, entries: r.entries })),
