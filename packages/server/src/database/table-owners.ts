@@ -81,7 +81,6 @@ export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {
   ],
   'registry/redactions.service.ts': ['exhibits'],
   'registry/reports.service.ts': ['accounts'],
-  'stock/stock.service.ts': ['sales', 'transfer_offers'],
   'transfers/demo-transfers.ts': ['entries', 'lots'],
   'transfers/sales.service.ts': ['accounts'],
   'transfers/transfers.module.ts': ['accounts'],

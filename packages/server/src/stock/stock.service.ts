@@ -1,6 +1,5 @@
 import { Injectable } from '@nestjs/common';
 import { formatLotCode, type Money, type SealedFieldName } from '@beadroll/core';
-import { DataSource } from 'typeorm';
 import type { Viewer } from '../lots/lots.service';
 import { RollReaderService, type ViewerSealedField } from '../ledger/roll-reader.service';
 import { exportFile, type ExportColumn, type ExportFile, type ExportFormat } from '../export/sheet-export';
@@ -11,6 +10,7 @@ import type {
   StockSummaryResponse,
 } from './dto/stock-responses.dto';
 import { LotViewsService } from '../lots/lot-views.service';
+import { DealsReader } from '../transfers/deals.reader';
 
 /** A lot the dealer holds, with what the inventory shows of its attribution on record. */
 interface HeldRow {
@@ -26,14 +26,6 @@ interface HeldRow {
   period_to: number | null;
   count_value: number;
   count_estimated: boolean;
-}
-
-/** One sale by the dealer: to a private buyer (`sold`) or to a dealer (an accepted offer). */
-interface SaleRow {
-  lot_id: string;
-  seq: number;
-  day: string;
-  to: 'buyer' | 'dealer';
 }
 
 const SEALED: readonly SealedFieldName[] = [
@@ -117,14 +109,14 @@ function centuryKey(from: number | null): string {
 export class StockService {
   constructor(
     private readonly views: LotViewsService,
-    private readonly dataSource: DataSource,
+    private readonly deals: DealsReader,
     private readonly reader: RollReaderService,
   ) {}
 
   async summary(me: Viewer): Promise<StockSummaryResponse> {
     const held = await this.held(me);
-    const sales = await this.sales(me);
-    const bought = await this.boughtAt(me);
+    const sales = await this.deals.salesBy(me.id);
+    const bought = await this.deals.boughtAt(me.id);
     const ids = [...new Set([...held.map((h) => h.lot_id), ...sales.map((s) => s.lot_id)])];
     const sealed = await this.reader.sealedForLots(ids, me.id, SEALED);
     const by = new Map<string, CurrencyFigures>();
@@ -207,7 +199,7 @@ export class StockService {
   /** The stock held as a CSV or XLSX file: one row per lot, with the dealer's own sealed details. */
   async export(me: Viewer, format: ExportFormat): Promise<ExportFile> {
     const held = await this.held(me);
-    const bought = await this.boughtAt(me);
+    const bought = await this.deals.boughtAt(me.id);
     const sealed = await this.reader.sealedForLots(
       held.map((h) => h.lot_id),
       me.id,
@@ -275,27 +267,5 @@ export class StockService {
       count_value: v.countValue,
       count_estimated: v.countEstimated,
     }));
-  }
-
-  private sales(me: Viewer): Promise<SaleRow[]> {
-    return this.dataSource.query(
-      `SELECT "lot_id", "seq", to_char("sold_on", 'YYYY-MM-DD') AS "day", 'buyer' AS "to"
-         FROM "sales" WHERE "seller" = $1
-       UNION ALL
-       SELECT "lot_id", "offer_seq", to_char("answered_at" AT TIME ZONE 'UTC', 'YYYY-MM-DD'), 'dealer'
-         FROM "transfer_offers" WHERE "offerer" = $1 AND "status" = 'accepted'`,
-      [me.id],
-    );
-  }
-
-  /** Per lot, the seqs of the offers the dealer accepted (their transfer price is what they paid). */
-  private async boughtAt(me: Viewer): Promise<Map<string, number[]>> {
-    const rows: Array<{ lot_id: string; offer_seq: number }> = await this.dataSource.query(
-      `SELECT "lot_id", "offer_seq" FROM "transfer_offers" WHERE "recipient" = $1 AND "status" = 'accepted'`,
-      [me.id],
-    );
-    const out = new Map<string, number[]>();
-    for (const r of rows) out.set(r.lot_id, [...(out.get(r.lot_id) ?? []), r.offer_seq]);
-    return out;
   }
 }
