@@ -80,7 +80,6 @@ export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {
     'sessions',
   ],
   'registry/redactions.service.ts': ['exhibits'],
-  'registry/reports.service.ts': ['accounts'],
   'transfers/demo-transfers.ts': ['entries', 'lots'],
   'transfers/sales.service.ts': ['accounts'],
   'transfers/transfers.module.ts': ['accounts'],

@@ -10,6 +10,7 @@ import { Report, type ReportCategory, type ReportStatus } from './entities/repor
 import { RegistrarRecordService } from './registrar-record.service';
 import { registryLetters } from './registry-letters';
 import { LotViewsService } from '../lots/lot-views.service';
+import { AccountContactsService } from '../accounts/account-contacts.service';
 
 /** A report as the registrar's queue shows it. */
 export interface ReportResponse {
@@ -49,6 +50,7 @@ const SORTS = { created: 'createdAt', lot: 'lot', category: 'category' } as cons
 @Injectable()
 export class ReportsService {
   constructor(
+    private readonly contacts: AccountContactsService,
     private readonly views: LotViewsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @InjectRepository(Report) private readonly reports: Repository<Report>,
@@ -72,16 +74,12 @@ export class ReportsService {
         reporterEmail: dto.email ?? null,
       }),
     );
-    const holders: Array<{ email: string; display_name: string }> = await this.reports.manager.query(
-      `SELECT "email", "display_name" FROM "accounts" WHERE "id"::text = $1 AND "status" <> 'closed'`,
-      [view.holder],
-    );
-    const holder = holders[0];
+    const holder = await this.contacts.contactOf(view.holder);
     if (holder) {
       await this.mail.send(
         holder.email,
         registryLetters.reportOnYourLot(
-          holder.display_name,
+          holder.displayName,
           code,
           dto.category,
           dto.text,
