@@ -179,17 +179,6 @@ export function VoidSaleAction({ code, state, close }: Props) {
   );
 }
 
-/** True while the viewer's own sale of this lot may still be voided. */
-export function mayVoidSale(state: LotActionContext['state'], viewerId: string, now = Date.now()): boolean {
-  return (
-    state.status === 'sold' &&
-    state.holder === viewerId &&
-    state.soldTime !== null &&
-    state.soldTime !== undefined &&
-    now - Date.parse(state.soldTime) <= VOID_WINDOW_MS
-  );
-}
-
 /**
  * "Register another like this": the register form opens with this lot's description and latest
  * observations copied in; photos and private details are not copied.
