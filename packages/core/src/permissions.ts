@@ -37,7 +37,7 @@ const IMPLIED_FACTS: Partial<Record<EntryKind, (s: RollState, account: string) =
 function statusWords(s: RollState): string {
   const words: Record<LotStatus, string> = {
     held: 'This lot is held, with no open offer and no sale to act on.',
-    offered: 'This lot has an open transfer offer: it must be answered or withdrawn first.',
+    offered: 'This lot has an open offer: wait for the other dealer’s answer or withdraw the offer first.',
     sold: `This lot was sold${s.soldOn ? ` on ${s.soldOn}` : ''}.`,
     split: 'This lot was split up: no beads are left in it.',
     combined: 'This lot went into another lot: no beads are left in it.',

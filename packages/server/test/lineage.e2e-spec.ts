@@ -193,7 +193,7 @@ describe('splits and combinations', () => {
       expect(notHeld.body.error.code).toBe('forbidden');
       const open = await send(offered);
       expect(open.status).toBe(409);
-      expect(open.body.error.message).toMatch(/open transfer offer/);
+      expect(open.body.error.message).toMatch(/open offer/);
       expect(await totals()).toEqual(before);
     });
   });
@@ -327,7 +327,7 @@ describe('splits and combinations', () => {
       ]);
       const open = await send([{ lot: b }, { lot: offered }], 70);
       expect(open.status).toBe(409);
-      expect(open.body.error.message).toMatch(/open transfer offer/);
+      expect(open.body.error.message).toMatch(/open offer/);
       expect(await totals()).toEqual(before);
     });
 

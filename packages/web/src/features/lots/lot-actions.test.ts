@@ -85,7 +85,7 @@ describe('the lot page offers what the roll rules allow', () => {
     expect(permission(ctx, 'sold')).toEqual({
       allowed: false,
       why: 'status',
-      reason: 'This lot has an open transfer offer: it must be answered or withdrawn first.',
+      reason: 'This lot has an open offer: wait for the other dealer’s answer or withdraw the offer first.',
     });
   });
 
