@@ -1,11 +1,10 @@
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
 describe('inventory search, sorting and paging', () => {
-  let t: TestApp;
   let ana: TestAccount;
   let ben: TestAccount;
   let venice: { code: string; displayCode: string };
@@ -45,8 +44,8 @@ describe('inventory search, sorting and paging', () => {
     };
   }
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     ana = await createAccount(t, { role: 'dealer' });
     ben = await createAccount(t, { role: 'dealer' });
     venice = await register(
@@ -74,9 +73,6 @@ describe('inventory search, sorting and paging', () => {
       decoration: [],
       listed: false,
     });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('finds a lot by its code, with or without hyphens, and by the start of it', async () => {

@@ -17,28 +17,24 @@ import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
 describe('splits and combinations', () => {
-  let t: TestApp;
   let odile: TestAccount;
   let teodor: TestAccount;
   let ledger: LedgerService;
   let reader: RollReaderService;
   let db: DataSource;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     odile = await createAccount(t, { role: 'dealer' });
     teodor = await createAccount(t, { role: 'dealer' });
     ledger = t.app.get(LedgerService);
     reader = t.app.get(RollReaderService);
     db = t.app.get(DataSource);
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function register(who: TestAccount, over: Partial<LotDescription> = {}): Promise<string> {

@@ -7,25 +7,21 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const REPO = resolve(__dirname, '../../..');
 const W = { 'X-Beadroll-Request': '1' };
 
 describe('lots over HTTP', () => {
-  let t: TestApp;
   let ana: TestAccount;
   let ben: TestAccount;
   let registrar: TestAccount;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     ana = await createAccount(t, { role: 'dealer' });
     ben = await createAccount(t, { role: 'dealer' });
     registrar = await createAccount(t, { role: 'registrar' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function entryCount(): Promise<number> {

@@ -1,6 +1,6 @@
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
@@ -15,7 +15,6 @@ const OPINION = {
 };
 
 describe('opinions on request', () => {
-  let t: TestApp;
   let holder: TestAccount;
   let other: TestAccount;
   let thea: TestAccount;
@@ -38,16 +37,13 @@ describe('opinions on request', () => {
       .send({ lot, ...body });
   }
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     holder = await createAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
     other = await createAccount(t, { role: 'dealer' });
     thea = await createAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
     ravi = await createAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
     pending = await createAccount(t, { role: 'assessor', status: 'pending' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('lets a named assessor read an unlisted lot and answer with an opinion once it is listed, which closes the request', async () => {

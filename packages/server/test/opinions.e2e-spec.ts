@@ -5,7 +5,7 @@ import { FakeSmtpService } from '../src/mail/fake-smtp.service';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 type Draft = Omit<OpinionBody, 'nonce'>;
 
@@ -25,23 +25,19 @@ function opinion(over: Partial<Draft> = {}): Draft {
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
 describe('opinions, dissent and the attribution aid over HTTP', () => {
-  let t: TestApp;
   let db: DataSource;
   let holder: TestAccount;
   let other: TestAccount;
   let assessor: TestAccount;
   let third: TestAccount;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
     holder = await createAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
     other = await createAccount(t, { role: 'dealer', displayName: 'Osric Venn' });
     assessor = await createAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
     third = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function newLot(listed = true, by: TestAccount = holder): Promise<string> {

@@ -10,7 +10,7 @@ import { BlockedDigestsService } from '../src/registry/blocked-digests.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { lastMailTo } from './support/mail';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
@@ -18,7 +18,6 @@ const CSRF = ['X-Beadroll-Request', '1'] as const;
 const sha256Hex = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 
 describe("the registrar's tools", () => {
-  let t: TestApp;
   let db: DataSource;
   let lots: LotsService;
   let ledger: LedgerService;
@@ -28,8 +27,8 @@ describe("the registrar's tools", () => {
   let other: TestAccount;
   const http = () => request(t.app.getHttpServer());
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
     lots = t.app.get(LotsService);
     ledger = t.app.get(LedgerService);
@@ -37,9 +36,6 @@ describe("the registrar's tools", () => {
     registrar = await createAccount(t, { role: 'registrar' });
     holder = await createAccount(t, { role: 'dealer', displayName: 'Marit Quell' });
     other = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function newLot(by: TestAccount = holder, over = {}): Promise<string> {

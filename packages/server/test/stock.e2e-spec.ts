@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
@@ -16,7 +16,6 @@ function binary(
 }
 
 describe('stock and sales figures', () => {
-  let t: TestApp;
   let ana: TestAccount;
   let ben: TestAccount;
 
@@ -46,8 +45,8 @@ describe('stock and sales figures', () => {
       .expect(201);
   }
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     ana = await createAccount(t, { role: 'dealer' });
     ben = await createAccount(t, { role: 'dealer' });
     // Held: two in EUR (one attributed), one in GBP, one with no cost.
@@ -76,9 +75,6 @@ describe('stock and sales figures', () => {
       .expect(201);
     // Ben's stock never shows in Ana's figures.
     await register(ben, { title: 'Ben' }, { acquisition: { cost: { amount: 99900, currency: 'EUR' } } });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('sums the cost of stock held, per currency, from the dealer’s own sealed values', async () => {
