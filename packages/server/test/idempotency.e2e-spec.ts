@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { IdempotencySweeper } from '../src/idempotency/idempotency.module';
-import { createAccount, type TestAccount } from './support/accounts';
+import { useAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
@@ -12,14 +12,12 @@ const W = { 'X-Beadroll-Request': '1' };
 
 describe('idempotent writes', () => {
   let db: DataSource;
-  let a: TestAccount;
-  let b: TestAccount;
 
   const t = useTestApp();
+  const a = useAccount(t, { role: 'dealer' });
+  const b = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
     db = t.app.get(DataSource);
-    a = await createAccount(t, { role: 'dealer' });
-    b = await createAccount(t, { role: 'dealer' });
   });
 
   async function count(sql: string, params: unknown[] = []): Promise<number> {

@@ -15,23 +15,21 @@ import { DataSource } from 'typeorm';
 import { AppError } from '../src/common/app-error';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
-import { createAccount, type TestAccount } from './support/accounts';
+import { type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
 describe('splits and combinations', () => {
-  let odile: TestAccount;
-  let teodor: TestAccount;
   let ledger: LedgerService;
   let reader: RollReaderService;
   let db: DataSource;
 
   const t = useTestApp();
+  const odile = useAccount(t, { role: 'dealer' });
+  const teodor = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    odile = await createAccount(t, { role: 'dealer' });
-    teodor = await createAccount(t, { role: 'dealer' });
     ledger = t.app.get(LedgerService);
     reader = t.app.get(RollReaderService);
     db = t.app.get(DataSource);

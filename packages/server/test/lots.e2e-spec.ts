@@ -5,7 +5,7 @@ import { join, resolve } from 'node:path';
 import { parseBundleText, verifyBundle } from '@beadroll/core';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { superuserClient, useTestApp } from './support/test-app';
 
@@ -13,16 +13,10 @@ const REPO = resolve(__dirname, '../../..');
 const W = { 'X-Beadroll-Request': '1' };
 
 describe('lots over HTTP', () => {
-  let ana: TestAccount;
-  let ben: TestAccount;
-  let registrar: TestAccount;
-
   const t = useTestApp();
-  beforeAll(async () => {
-    ana = await createAccount(t, { role: 'dealer' });
-    ben = await createAccount(t, { role: 'dealer' });
-    registrar = await createAccount(t, { role: 'registrar' });
-  });
+  const ana = useAccount(t, { role: 'dealer' });
+  const ben = useAccount(t, { role: 'dealer' });
+  const registrar = useAccount(t, { role: 'registrar' });
 
   async function entryCount(): Promise<number> {
     const [{ n }] = (await t.app.get(DataSource).query('SELECT count(*)::int AS n FROM entries')) as Array<{

@@ -1,4 +1,4 @@
-import { createAccount, type TestAccount } from './support/accounts';
+import { useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
@@ -15,12 +15,6 @@ const OPINION = {
 };
 
 describe('opinions on request', () => {
-  let holder: TestAccount;
-  let other: TestAccount;
-  let thea: TestAccount;
-  let ravi: TestAccount;
-  let pending: TestAccount;
-
   async function newLot(listed = false): Promise<string> {
     const res = await holder.agent
       .post('/api/lots')
@@ -38,13 +32,11 @@ describe('opinions on request', () => {
   }
 
   const t = useTestApp();
-  beforeAll(async () => {
-    holder = await createAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
-    other = await createAccount(t, { role: 'dealer' });
-    thea = await createAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
-    ravi = await createAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
-    pending = await createAccount(t, { role: 'assessor', status: 'pending' });
-  });
+  const holder = useAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
+  const other = useAccount(t, { role: 'dealer' });
+  const thea = useAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
+  const ravi = useAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
+  const pending = useAccount(t, { role: 'assessor', status: 'pending' });
 
   it('lets a named assessor read an unlisted lot and answer with an opinion once it is listed, which closes the request', async () => {
     const code = await newLot();

@@ -7,7 +7,7 @@ import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { BlockedDigestsService } from '../src/registry/blocked-digests.service';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { lastMailTo } from './support/mail';
 import { superuserClient, useTestApp } from './support/test-app';
@@ -22,20 +22,17 @@ describe("the registrar's tools", () => {
   let lots: LotsService;
   let ledger: LedgerService;
   let reader: RollReaderService;
-  let registrar: TestAccount;
-  let holder: TestAccount;
-  let other: TestAccount;
   const http = () => request(t.app.getHttpServer());
 
   const t = useTestApp();
+  const registrar = useAccount(t, { role: 'registrar' });
+  const holder = useAccount(t, { role: 'dealer', displayName: 'Marit Quell' });
+  const other = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
     db = t.app.get(DataSource);
     lots = t.app.get(LotsService);
     ledger = t.app.get(LedgerService);
     reader = t.app.get(RollReaderService);
-    registrar = await createAccount(t, { role: 'registrar' });
-    holder = await createAccount(t, { role: 'dealer', displayName: 'Marit Quell' });
-    other = await createAccount(t, { role: 'dealer' });
   });
 
   async function newLot(by: TestAccount = holder, over = {}): Promise<string> {
