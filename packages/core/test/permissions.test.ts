@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import {
-  allowedActions,
-  checkTransition,
-  mayAppend,
-  TRANSITION_RULES,
-  type EntryKind,
-} from '../src/index.js';
+import { allowedActions, checkTransition, mayAppend, TRANSITION_RULES } from '../src/index.js';
+import type { EntryKind, Permission } from '../src/index.js';
 import { HOLDER, OTHER, RollBuilder, THIRD, opinion } from './helpers.js';
+
+/** A refusal: what stands in the way, and the words a dealer reads. */
+function refused(why: 'actor' | 'status' | 'rule', reason: string): Permission {
+  return { allowed: false, why, reason };
+}
 
 describe('what an account may do on a lot now', () => {
   it('answers for every kind of the rule table', () => {
@@ -28,11 +28,9 @@ describe('what an account may do on a lot now', () => {
     ] as const)
       expect(mine[k]).toEqual({ allowed: true });
     const theirs = allowedActions(r.state, OTHER);
-    expect(theirs['transfer-offered']).toEqual({
-      allowed: false,
-      why: 'actor',
-      reason: 'Only the dealer who holds this lot can do this.',
-    });
+    expect(theirs['transfer-offered']).toEqual(
+      refused('actor', 'Only the dealer who holds this lot can do this.'),
+    );
     expect(theirs.registered).toMatchObject({ allowed: false, why: 'status' });
   });
 
@@ -42,11 +40,9 @@ describe('what an account may do on a lot now', () => {
     expect(mayAppend(listed.state, 'exhibit-added', OTHER)).toEqual({ allowed: true });
     const unlisted = new RollBuilder().register(HOLDER, { listed: false });
     expect(mayAppend(unlisted.state, 'opinion', HOLDER)).toEqual({ allowed: true });
-    expect(mayAppend(unlisted.state, 'opinion', OTHER)).toEqual({
-      allowed: false,
-      why: 'actor',
-      reason: 'This lot is unlisted: only the dealer who holds it can do this.',
-    });
+    expect(mayAppend(unlisted.state, 'opinion', OTHER)).toEqual(
+      refused('actor', 'This lot is unlisted: only the dealer who holds it can do this.'),
+    );
   });
 
   it('names the open offer: the recipient answers it, the offerer withdraws it, the lot waits', () => {
@@ -70,17 +66,11 @@ describe('what an account may do on a lot now', () => {
     const soon = new Date(t + 23 * 3600_000).toISOString();
     const late = new Date(t + 25 * 3600_000).toISOString();
     expect(mayAppend(r.state, 'sale-voided', HOLDER, { now: soon })).toEqual({ allowed: true });
-    expect(mayAppend(r.state, 'sale-voided', HOLDER, { now: late })).toEqual({
-      allowed: false,
-      why: 'rule',
-      reason: 'A sale can be voided only within 24 hours of it.',
-    });
+    expect(mayAppend(r.state, 'sale-voided', HOLDER, { now: late })).toEqual(
+      refused('rule', 'A sale can be voided only within 24 hours of it.'),
+    );
     expect(mayAppend(r.state, 'sale-voided', OTHER, { now: soon })).toMatchObject({ why: 'actor' });
-    expect(mayAppend(r.state, 'sold', HOLDER)).toEqual({
-      allowed: false,
-      why: 'status',
-      reason: 'This lot was sold on 2025-01-01.',
-    });
+    expect(mayAppend(r.state, 'sold', HOLDER)).toEqual(refused('status', 'This lot was sold on 2025-01-01.'));
   });
 
   it('lets an author withdraw only an opinion of their own', () => {
