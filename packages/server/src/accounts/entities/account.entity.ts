@@ -1,67 +1,68 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import { Entity } from 'typeorm';
+import * as Col from '../../database/columns';
 import type { AccountStatus, Role } from '../../auth/auth.decorators';
 
 /** A sign-in: a dealer, an assessor or the registrar. Its id is the actor id on every roll entry. */
 @Entity({ name: 'accounts' })
 export class Account {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_accounts' })
+  @Col.UuidPrimary('accounts')
   id: string;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   role: Role;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   status: AccountStatus;
 
   /** Lower-case, unique, chosen at sign-up and never changed. */
-  @Column({ type: 'varchar', length: 32 })
+  @Col.Varchar(32)
   handle: string;
 
   /** Stored as given; unique without regard to case (index on lower(email)). */
-  @Column({ type: 'varchar', length: 254 })
+  @Col.Varchar(254)
   email: string;
 
-  @Column({ name: 'display_name', type: 'varchar', length: 80 })
+  @Col.Varchar(80)
   displayName: string;
 
-  @Column({ type: 'varchar', length: 120 })
+  @Col.Varchar(120)
   business: string;
 
-  @Column({ type: 'varchar', length: 80 })
+  @Col.Varchar(80)
   town: string;
 
-  @Column({ type: 'varchar', length: 80 })
+  @Col.Varchar(80)
   country: string;
 
   /** The business's postal address, as the applicant gave it (for the registrar). */
-  @Column({ type: 'varchar', length: 300, default: '' })
+  @Col.Varchar(300, { default: '' })
   address: string;
 
-  @Column({ type: 'varchar', length: 200, nullable: true })
+  @Col.Varchar(200, { nullable: true })
   website: string | null;
 
   /** Dealers, fairs or associations who know the applicant's trade (for the registrar). */
-  @Column({ name: 'trade_references', type: 'text', default: '' })
+  @Col.Text({ default: '' })
   tradeReferences: string;
 
   /** `scrypt$N$r$p$salt$key`; null until a password is set (a new registrar). */
-  @Column({ name: 'password_hash', type: 'varchar', length: 255, nullable: true })
+  @Col.Varchar(255, { nullable: true })
   passwordHash: string | null;
 
-  @Column({ name: 'email_verified_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   emailVerifiedAt: Date | null;
 
   /** When the registrar first verified the account (kept through a later suspension). */
-  @Column({ name: 'verified_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   verifiedAt: Date | null;
 
   /** The registrar's reason for the latest rejection or suspension. */
-  @Column({ name: 'status_reason', type: 'varchar', length: 500, nullable: true })
+  @Col.Varchar(500, { nullable: true })
   statusReason: string | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 
-  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  @Col.UpdatedAt()
   updatedAt: Date;
 }

@@ -1,28 +1,18 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Entity } from 'typeorm';
+import * as Col from '../../database/columns';
+import { SingleUseToken } from './single-use-token';
 
 export type EmailTokenPurpose = 'verify-email' | 'reset-password' | 'set-password';
 
 /** A single-use, short-lived token sent in an e-mail link; only its SHA-256 is stored. */
 @Entity({ name: 'email_tokens' })
-export class EmailToken {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_email_tokens' })
+export class EmailToken extends SingleUseToken {
+  @Col.UuidPrimary('email_tokens')
   id: string;
 
-  @Column({ name: 'account_id', type: 'uuid' })
+  @Col.Uuid()
   accountId: string;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   purpose: EmailTokenPurpose;
-
-  @Column({ name: 'token_hash', type: 'char', length: 64 })
-  tokenHash: string;
-
-  @Column({ name: 'expires_at', type: 'timestamptz' })
-  expiresAt: Date;
-
-  @Column({ name: 'used_at', type: 'timestamptz', nullable: true })
-  usedAt: Date | null;
-
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
-  createdAt: Date;
 }

@@ -1,5 +1,6 @@
 import type { ExhibitRef } from '@beadroll/core';
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /**
  * Where the files of one `exhibit-added` entry are, for serving per (lot, entry). The roll
@@ -12,26 +13,26 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 
 @Index('ix_exhibits_added_by', ['addedBy'])
 @Index('ix_exhibits_original', ['originalSha256'])
 export class ExhibitEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_exhibits' })
+  @Col.UuidPrimary('exhibits')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
-  @Column({ name: 'lot_code', type: 'varchar', length: 9 })
+  @Col.LotCode()
   lotCode: string;
 
-  @Column({ type: 'integer' })
+  @Col.Integer()
   seq: number;
 
   /** Account id of the dealer who added it (the entry's actor). */
-  @Column({ name: 'added_by', type: 'varchar', length: 64 })
+  @Col.Actor()
   addedBy: string;
 
-  @Column({ type: 'boolean' })
+  @Col.Boolean()
   sealed: boolean;
 
-  @Column({ name: 'original_sha256', type: 'char', length: 64 })
+  @Col.Sha256()
   originalSha256: string;
 
   /**
@@ -40,16 +41,16 @@ export class ExhibitEntity {
    * file had removed (a photo's GPS position), so it goes on no roll and in no response but the
    * dealer's own personal-data download. A redaction blocks it with the stored files.
    */
-  @Column({ name: 'sent_sha256', type: 'char', length: 64, nullable: true, select: false })
+  @Col.Sha256({ nullable: true, select: false })
   sentSha256: string | null;
 
-  @Column({ type: 'jsonb' })
+  @Col.Jsonb()
   ref: ExhibitRef;
 
   /** Bytes of the original and its derivatives, counted against the account's quota. */
   @Column({ type: 'bigint', transformer: { to: (v: number) => v, from: (v: string) => Number(v) } })
   bytes: number;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 }

@@ -1,4 +1,5 @@
 import { Column, Entity, PrimaryColumn } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /**
  * One idempotency key an account used for a write: a digest of the request it came with, and
@@ -14,16 +15,16 @@ export class IdempotencyRecord {
   key!: string;
 
   /** SHA-256 (hex) of the method, the path and the request's body. */
-  @Column({ name: 'request_digest', type: 'char', length: 64 })
+  @Col.Sha256()
   requestDigest!: string;
 
   @Column({ type: 'smallint' })
   status!: number;
 
   /** The answer's JSON text, exactly as it was first sent (null when there was no body). */
-  @Column({ type: 'text', nullable: true })
+  @Col.Text({ nullable: true })
   body!: string | null;
 
-  @Column({ name: 'created_at', type: 'timestamptz', default: () => 'now()' })
+  @Col.Timestamp({ now: true })
   createdAt!: Date;
 }

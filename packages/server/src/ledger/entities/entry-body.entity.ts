@@ -1,4 +1,5 @@
-import { Column, Entity, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import { Entity, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import * as Col from '../../database/columns';
 import { EntryEntity } from './entry.entity';
 
 /**
@@ -15,6 +16,6 @@ export class EntryBodyEntity {
   @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_entry_bodies_entry' })
   entry?: EntryEntity;
 
-  @Column({ type: 'text' })
+  @Col.Text()
   body: string;
 }

@@ -1,4 +1,5 @@
-import { Check, Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { Check, Column, Entity, Index, JoinColumn, ManyToOne, Unique } from 'typeorm';
+import * as Col from '../../database/columns';
 import { LotEntity } from './lot.entity';
 
 /**
@@ -16,38 +17,34 @@ import { LotEntity } from './lot.entity';
 @Check('ck_entries_log_index', `"log_index" IS NULL OR "log_index" >= 0`)
 @Index('ix_entries_actor', ['actor'])
 export class EntryEntity {
-  @PrimaryGeneratedColumn('identity', {
-    type: 'bigint',
-    generatedIdentity: 'ALWAYS',
-    primaryKeyConstraintName: 'pk_entries',
-  })
+  @Col.IdentityPrimary('entries')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
   @ManyToOne(() => LotEntity, { onDelete: 'RESTRICT' })
   @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_entries_lot' })
   lot?: LotEntity;
 
-  @Column({ type: 'integer' })
+  @Col.Integer()
   seq: number;
 
-  @Column({ type: 'varchar', length: 32 })
+  @Col.Varchar(32)
   kind: string;
 
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   actor: string;
 
   /** Entry time, exactly as written in the header. */
-  @Column({ type: 'varchar', length: 24 })
+  @Col.Varchar(24)
   time: string;
 
-  @Column({ type: 'char', length: 64 })
+  @Col.Sha256()
   hash: string;
 
   /** The canonical header string (RFC 8785) that the entry hash covers. */
-  @Column({ type: 'text' })
+  @Col.Text()
   header: string;
 
   /** Position in the ledger-wide log that signed checkpoints will cover; not hashed. */
@@ -55,9 +52,9 @@ export class EntryEntity {
   logIndex: string | null;
 
   /** For a `redacted` entry, the seq whose body it removes (lets the database check a body deletion). */
-  @Column({ name: 'redacts_seq', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   redactsSeq: number | null;
 
-  @Column({ name: 'recorded_at', type: 'timestamptz', default: () => 'now()' })
+  @Col.Timestamp({ now: true })
   recordedAt: Date;
 }

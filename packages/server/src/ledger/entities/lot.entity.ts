@@ -1,5 +1,6 @@
 import type { RollState } from '@beadroll/core';
-import { Check, Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { Check, Entity, Unique } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /**
  * A lot's identity and the head of its roll. The head moves on every append (under a row
@@ -10,27 +11,27 @@ import { Check, Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, Unique
 @Check('ck_lots_code', `"code" ~ '^[0-9A-HJKMNP-TV-Z]{9}$'`)
 @Check('ck_lots_head_seq', `"head_seq" >= 0`)
 export class LotEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_lots' })
+  @Col.UuidPrimary('lots')
   id: string;
 
   /** Canonical lot code (9 symbols, no hyphens). */
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
-  @Column({ name: 'head_seq', type: 'integer' })
+  @Col.Integer()
   headSeq: number;
 
-  @Column({ name: 'head_hash', type: 'char', length: 64 })
+  @Col.Sha256()
   headHash: string;
 
   /** Entry time of the head, exactly as written in its header. */
-  @Column({ name: 'head_time', type: 'varchar', length: 24 })
+  @Col.Varchar(24)
   headTime: string;
 
   /** The reducer's state after the head entry (core's RollState), read under the row lock. */
-  @Column({ type: 'jsonb' })
+  @Col.Jsonb()
   state: RollState;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 }

@@ -1,4 +1,5 @@
-import { Check, Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { Check, Column, Entity, JoinColumn, ManyToOne, Unique } from 'typeorm';
+import * as Col from '../../database/columns';
 import { EntryEntity } from './entry.entity';
 
 /**
@@ -11,11 +12,7 @@ import { EntryEntity } from './entry.entity';
 @Check('ck_sealed_fields_salt', `"salt" ~ '^[0-9a-f]{32}$'`)
 @Check('ck_sealed_fields_commitment', `"commitment" ~ '^[0-9a-f]{64}$'`)
 export class SealedFieldEntity {
-  @PrimaryGeneratedColumn('identity', {
-    type: 'bigint',
-    generatedIdentity: 'ALWAYS',
-    primaryKeyConstraintName: 'pk_sealed_fields',
-  })
+  @Col.IdentityPrimary('sealed_fields')
   id: string;
 
   @Column({ name: 'entry_id', type: 'bigint' })
@@ -25,20 +22,20 @@ export class SealedFieldEntity {
   @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_sealed_fields_entry' })
   entry?: EntryEntity;
 
-  @Column({ type: 'varchar', length: 40 })
+  @Col.Varchar(40)
   name: string;
 
   @Column({ type: 'char', length: 32 })
   salt: string;
 
   /** The value as canonical JSON, exactly as committed. */
-  @Column({ type: 'text' })
+  @Col.Text()
   value: string;
 
-  @Column({ type: 'char', length: 64 })
+  @Col.Sha256()
   commitment: string;
 
   /** Account ids that may read this value. */
-  @Column({ name: 'visible_to', type: 'varchar', length: 64, array: true })
+  @Col.Actor({ array: true })
   visibleTo: string[];
 }

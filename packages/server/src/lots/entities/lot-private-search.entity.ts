@@ -1,4 +1,5 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
+import { Entity, Index, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
+import * as Col from '../../database/columns';
 import { LotEntity } from '../../ledger/entities/lot.entity';
 
 /**
@@ -23,6 +24,6 @@ export class LotPrivateSearchEntity {
   @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_lot_private_search_lot' })
   lot?: LotEntity;
 
-  @Column({ name: 'search_text', type: 'text' })
+  @Col.Text()
   searchText: string;
 }

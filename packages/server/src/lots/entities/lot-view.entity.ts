@@ -1,4 +1,5 @@
-import { Column, Entity, Index, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import { Entity, Index, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import * as Col from '../../database/columns';
 import type { Observations } from '@beadroll/core';
 import { LotEntity } from '../../ledger/entities/lot.entity';
 
@@ -20,71 +21,71 @@ export class LotViewEntity {
   @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_lot_views_lot' })
   lot?: LotEntity;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
   /** Empty while the newest description is redacted. */
-  @Column({ type: 'varchar', length: 200 })
+  @Col.Varchar(200)
   title: string;
 
-  @Column({ type: 'varchar', length: 16, nullable: true })
+  @Col.Word({ nullable: true })
   form: string | null;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   status: string;
 
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   holder: string;
 
-  @Column({ type: 'boolean' })
+  @Col.Boolean()
   listed: boolean;
 
   /** Origin of the attribution on record, if any. */
-  @Column({ type: 'varchar', length: 32, nullable: true })
+  @Col.Varchar(32, { nullable: true })
   origin: string | null;
 
   /** Whose opinion the attribution on record is: 'holder', 'earlier-holder' or 'ancestor'. */
-  @Column({ name: 'origin_source', type: 'varchar', length: 16, nullable: true })
+  @Col.Word({ nullable: true })
   originSource: string | null;
 
   /** Technique of the attribution on record, if any. */
-  @Column({ type: 'varchar', length: 32, nullable: true })
+  @Col.Varchar(32, { nullable: true })
   technique: string | null;
 
   /** Period of the attribution on record, if any. */
-  @Column({ name: 'period_from', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   periodFrom: number | null;
 
-  @Column({ name: 'period_to', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   periodTo: number | null;
 
-  @Column({ name: 'count_value', type: 'integer' })
+  @Col.Integer()
   countValue: number;
 
-  @Column({ name: 'count_estimated', type: 'boolean' })
+  @Col.Boolean()
   countEstimated: boolean;
 
-  @Column({ name: 'dissent_count', type: 'integer' })
+  @Col.Integer()
   dissentCount: number;
 
   /** Recipient of the open offer, who may read the lot while it is offered. */
-  @Column({ name: 'offer_recipient', type: 'varchar', length: 64, nullable: true })
+  @Col.Actor({ nullable: true })
   offerRecipient: string | null;
 
   /** The newest recorded observations. */
-  @Column({ type: 'jsonb', nullable: true })
+  @Col.Jsonb({ nullable: true })
   observations: Observations | null;
 
-  @Column({ name: 'head_seq', type: 'integer' })
+  @Col.Integer()
   headSeq: number;
 
   /** Title, summary, colours, decoration, condition and the attribution's words, for text search. */
-  @Column({ name: 'search_text', type: 'text' })
+  @Col.Text()
   searchText: string;
 
-  @Column({ name: 'registered_at', type: 'timestamptz' })
+  @Col.Timestamp()
   registeredAt: Date;
 
-  @Column({ name: 'updated_at', type: 'timestamptz' })
+  @Col.Timestamp()
   updatedAt: Date;
 }

@@ -1,4 +1,5 @@
-import { Check, Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Check, Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 export type OpinionRequestStatus = 'open' | 'answered' | 'cancelled';
 
@@ -9,38 +10,38 @@ export type OpinionRequestStatus = 'open' | 'answered' | 'cancelled';
 @Index('ix_opinion_requests_requester', ['requester', 'createdAt'])
 @Check('ck_opinion_requests_status', `"status" IN ('open', 'answered', 'cancelled')`)
 export class OpinionRequestEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_opinion_requests' })
+  @Col.UuidPrimary('opinion_requests')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
   /** The holder who asked. */
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   requester: string;
 
   /** The named assessor, or null: any verified assessor. */
-  @Column({ type: 'varchar', length: 64, nullable: true })
+  @Col.Actor({ nullable: true })
   assessor: string | null;
 
-  @Column({ type: 'text', nullable: true })
+  @Col.Text({ nullable: true })
   note: string | null;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   status: OpinionRequestStatus;
 
-  @Column({ name: 'created_at', type: 'timestamptz', default: () => 'now()' })
+  @Col.Timestamp({ now: true })
   createdAt: Date;
 
-  @Column({ name: 'closed_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   closedAt: Date | null;
 
-  @Column({ name: 'answered_by', type: 'varchar', length: 64, nullable: true })
+  @Col.Actor({ nullable: true })
   answeredBy: string | null;
 
-  @Column({ name: 'opinion_seq', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   opinionSeq: number | null;
 }

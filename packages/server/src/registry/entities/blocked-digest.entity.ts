@@ -1,4 +1,5 @@
-import { Check, Column, CreateDateColumn, Entity, PrimaryColumn } from 'typeorm';
+import { Check, Entity, PrimaryColumn } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /** The SHA-256 of a file the registrar removed: the same bytes are refused if uploaded again. */
 @Entity({ name: 'blocked_digests' })
@@ -8,15 +9,15 @@ export class BlockedDigest {
   digest: string;
 
   /** The lot and entry whose redaction blocked it. */
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   lot: string;
 
-  @Column({ type: 'integer' })
+  @Col.Integer()
   seq: number;
 
-  @Column({ type: 'varchar', length: 32 })
+  @Col.Varchar(32)
   reason: string;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 }

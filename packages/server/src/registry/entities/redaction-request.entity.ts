@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 export const REQUEST_STATUSES = ['open', 'approved', 'declined'] as const;
 export type RedactionRequestStatus = (typeof REQUEST_STATUSES)[number];
@@ -7,33 +8,33 @@ export type RedactionRequestStatus = (typeof REQUEST_STATUSES)[number];
 @Entity({ name: 'redaction_requests' })
 @Index('ix_redaction_requests_status', ['status', 'createdAt'])
 export class RedactionRequest {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_redaction_requests' })
+  @Col.UuidPrimary('redaction_requests')
   id: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   lot: string;
 
-  @Column({ type: 'integer' })
+  @Col.Integer()
   seq: number;
 
-  @Column({ type: 'uuid' })
+  @Col.Uuid()
   requester: string;
 
-  @Column({ type: 'varchar', length: 1000 })
+  @Col.Varchar(1000)
   note: string;
 
-  @Column({ type: 'varchar', length: 16, default: 'open' })
+  @Col.Word({ default: 'open' })
   status: RedactionRequestStatus;
 
-  @Column({ name: 'decided_by', type: 'uuid', nullable: true })
+  @Col.Uuid({ nullable: true })
   decidedBy: string | null;
 
-  @Column({ name: 'decided_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   decidedAt: Date | null;
 
-  @Column({ name: 'decision_note', type: 'varchar', length: 1000, nullable: true })
+  @Col.Varchar(1000, { nullable: true })
   decisionNote: string | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 }

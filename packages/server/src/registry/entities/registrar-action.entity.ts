@@ -1,4 +1,5 @@
-import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /** Kinds of decisions on the registrar's record. */
 export const REGISTRAR_ACTIONS = [
@@ -20,30 +21,26 @@ export type RegistrarActionKind = (typeof REGISTRAR_ACTIONS)[number];
 @Index('ix_registrar_actions_at', ['at', 'id'])
 @Index('ix_registrar_actions_subject', ['subject'])
 export class RegistrarAction {
-  @PrimaryGeneratedColumn('identity', {
-    type: 'bigint',
-    generatedIdentity: 'ALWAYS',
-    primaryKeyConstraintName: 'pk_registrar_actions',
-  })
+  @Col.IdentityPrimary('registrar_actions')
   id: string;
 
-  @Column({ type: 'timestamptz', default: () => 'now()' })
+  @Col.Timestamp({ now: true })
   at: Date;
 
   /** The registrar's account id. */
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   actor: string;
 
-  @Column({ type: 'varchar', length: 32 })
+  @Col.Varchar(32)
   action: RegistrarActionKind;
 
   /** An account id, `LOT/seq` for an entry, or `report:ID`. */
-  @Column({ type: 'varchar', length: 120 })
+  @Col.Varchar(120)
   subject: string;
 
-  @Column({ type: 'varchar', length: 2000, nullable: true })
+  @Col.Varchar(2000, { nullable: true })
   reason: string | null;
 
-  @Column({ type: 'jsonb', default: () => `'{}'::jsonb` })
+  @Col.Jsonb({ default: () => `'{}'::jsonb` })
   details: Record<string, unknown>;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /** What a buyer can report about a public lot page. */
 export const REPORT_CATEGORIES = ['wrong-attribution', 'counterfeit', 'personal-data', 'other'] as const;
@@ -11,34 +12,34 @@ export type ReportStatus = (typeof REPORT_STATUSES)[number];
 @Index('ix_reports_status_created', ['status', 'createdAt'])
 @Index('ix_reports_lot', ['lot'])
 export class Report {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_reports' })
+  @Col.UuidPrimary('reports')
   id: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   lot: string;
 
-  @Column({ type: 'varchar', length: 32 })
+  @Col.Varchar(32)
   category: ReportCategory;
 
-  @Column({ type: 'varchar', length: 2000 })
+  @Col.Varchar(2000)
   text: string;
 
   /** Only for the registrar's answer; never shown to the holder. */
-  @Column({ name: 'reporter_email', type: 'varchar', length: 254, nullable: true })
+  @Col.Varchar(254, { nullable: true })
   reporterEmail: string | null;
 
-  @Column({ type: 'varchar', length: 16, default: 'open' })
+  @Col.Word({ default: 'open' })
   status: ReportStatus;
 
-  @Column({ type: 'varchar', length: 2000, nullable: true })
+  @Col.Varchar(2000, { nullable: true })
   resolution: string | null;
 
-  @Column({ name: 'closed_by', type: 'uuid', nullable: true })
+  @Col.Uuid({ nullable: true })
   closedBy: string | null;
 
-  @Column({ name: 'closed_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   closedAt: Date | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 }

@@ -1,35 +1,36 @@
-import { Column, Entity, Index, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { Column, Entity, Index, Unique } from 'typeorm';
+import * as Col from '../../database/columns';
 
 /** One `sold` entry, for the seller's list of sales (the price stays a sealed field). */
 @Entity({ name: 'sales' })
 @Unique('uq_sales_lot', ['lotId'])
 @Index('ix_sales_seller', ['seller', 'soldOn'])
 export class SaleEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_sales' })
+  @Col.UuidPrimary('sales')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
-  @Column({ type: 'varchar', length: 200 })
+  @Col.Varchar(200)
   title: string;
 
-  @Column({ type: 'integer' })
+  @Col.Integer()
   seq: number;
 
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   seller: string;
 
   @Column({ name: 'sold_on', type: 'date' })
   soldOn: string;
 
-  @Column({ name: 'recorded_at', type: 'timestamptz' })
+  @Col.Timestamp()
   recordedAt: Date;
 
   /** When a receipt went to the buyer (the address itself is never stored). */
-  @Column({ name: 'receipt_sent_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   receiptSentAt: Date | null;
 }

@@ -1,13 +1,6 @@
 import type { Money } from '@beadroll/core';
-import {
-  Check,
-  Column,
-  CreateDateColumn,
-  Entity,
-  Index,
-  PrimaryGeneratedColumn,
-  UpdateDateColumn,
-} from 'typeorm';
+import { Check, Entity, Index } from 'typeorm';
+import * as Col from '../../database/columns';
 
 export const INVITATION_STATUSES = ['waiting', 'offered', 'stalled', 'cancelled'] as const;
 export type InvitationStatus = (typeof INVITATION_STATUSES)[number];
@@ -22,44 +15,44 @@ export type InvitationStatus = (typeof INVITATION_STATUSES)[number];
 @Check('ck_transfer_invitations_status', `"status" IN ('waiting', 'offered', 'stalled', 'cancelled')`)
 @Index('ix_transfer_invitations_inviter', ['inviter', 'createdAt'])
 export class TransferInvitationEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_transfer_invitations' })
+  @Col.UuidPrimary('transfer_invitations')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
-  @Column({ type: 'uuid' })
+  @Col.Uuid()
   inviter: string;
 
-  @Column({ type: 'varchar', length: 254 })
+  @Col.Varchar(254)
   email: string;
 
-  @Column({ type: 'text', nullable: true })
+  @Col.Text({ nullable: true })
   note: string | null;
 
   /** The price to seal on the offer once it is written. */
-  @Column({ type: 'jsonb', nullable: true })
+  @Col.Jsonb({ nullable: true })
   price: Money | null;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   status: InvitationStatus;
 
-  @Column({ name: 'status_reason', type: 'varchar', length: 500, nullable: true })
+  @Col.Varchar(500, { nullable: true })
   statusReason: string | null;
 
   /** The account that joined with the address, once known. */
-  @Column({ type: 'uuid', nullable: true })
+  @Col.Uuid({ nullable: true })
   invitee: string | null;
 
-  @Column({ name: 'offer_seq', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   offerSeq: number | null;
 
-  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  @Col.CreatedAt()
   createdAt: Date;
 
-  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  @Col.UpdatedAt()
   updatedAt: Date;
 }

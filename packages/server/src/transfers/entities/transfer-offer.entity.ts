@@ -1,4 +1,5 @@
-import { Check, Column, Entity, Index, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { Check, Entity, Index, Unique } from 'typeorm';
+import * as Col from '../../database/columns';
 
 export const OFFER_STATUSES = ['open', 'accepted', 'declined', 'withdrawn', 'lapsed'] as const;
 export type OfferStatus = (typeof OFFER_STATUSES)[number];
@@ -13,44 +14,44 @@ export type OfferStatus = (typeof OFFER_STATUSES)[number];
 @Index('ix_transfer_offers_offerer', ['offerer', 'offeredAt'])
 @Index('ix_transfer_offers_recipient', ['recipient', 'offeredAt'])
 export class TransferOfferEntity {
-  @PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: 'pk_transfer_offers' })
+  @Col.UuidPrimary('transfer_offers')
   id: string;
 
-  @Column({ name: 'lot_id', type: 'uuid' })
+  @Col.LotId()
   lotId: string;
 
-  @Column({ type: 'varchar', length: 9 })
+  @Col.LotCode()
   code: string;
 
   /** The lot's title when it was offered (later descriptions are not shown to a former party). */
-  @Column({ type: 'varchar', length: 200 })
+  @Col.Varchar(200)
   title: string;
 
-  @Column({ name: 'offer_seq', type: 'integer' })
+  @Col.Integer()
   offerSeq: number;
 
-  @Column({ type: 'varchar', length: 64 })
+  @Col.Actor()
   offerer: string;
 
   /** null only when the offer's body was redacted. */
-  @Column({ type: 'varchar', length: 64, nullable: true })
+  @Col.Actor({ nullable: true })
   recipient: string | null;
 
-  @Column({ type: 'varchar', length: 16 })
+  @Col.Word()
   status: OfferStatus;
 
-  @Column({ type: 'text', nullable: true })
+  @Col.Text({ nullable: true })
   note: string | null;
 
-  @Column({ name: 'offered_at', type: 'timestamptz' })
+  @Col.Timestamp()
   offeredAt: Date;
 
-  @Column({ name: 'answer_seq', type: 'integer', nullable: true })
+  @Col.Integer({ nullable: true })
   answerSeq: number | null;
 
-  @Column({ name: 'answer_note', type: 'text', nullable: true })
+  @Col.Text({ nullable: true })
   answerNote: string | null;
 
-  @Column({ name: 'answered_at', type: 'timestamptz', nullable: true })
+  @Col.Timestamp({ nullable: true })
   answeredAt: Date | null;
 }

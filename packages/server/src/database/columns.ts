@@ -1,0 +1,111 @@
+import {
+  Column,
+  type ColumnOptions,
+  CreateDateColumn,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+} from 'typeorm';
+
+/**
+ * The column kinds our tables share, as TypeORM decorators. They only describe what the
+ * migrations create (TypeORM never synchronizes here): each column is named after its property in
+ * snake_case (`displayName` → `display_name`), so renaming a property renames the column it reads
+ * and wants a migration.
+ */
+export type ColumnExtras = Pick<ColumnOptions, 'nullable' | 'default' | 'select' | 'array' | 'transformer'>;
+
+function snakeCase(property: string): string {
+  return property.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`);
+}
+
+function typed(options: ColumnOptions): PropertyDecorator {
+  return (target, property) => Column({ name: snakeCase(String(property)), ...options })(target, property);
+}
+
+/** `id uuid`, generated, as the primary key `pk_<table>`. */
+export function UuidPrimary(table: string): PropertyDecorator {
+  return PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: `pk_${table}` });
+}
+
+/** `id bigint GENERATED ALWAYS AS IDENTITY`, the primary key `pk_<table>` (read as a string). */
+export function IdentityPrimary(table: string): PropertyDecorator {
+  return PrimaryGeneratedColumn('identity', {
+    type: 'bigint',
+    generatedIdentity: 'ALWAYS',
+    primaryKeyConstraintName: `pk_${table}`,
+  });
+}
+
+/** `created_at timestamptz`, set by the database on insert. */
+export function CreatedAt(): PropertyDecorator {
+  return CreateDateColumn({ name: 'created_at', type: 'timestamptz' });
+}
+
+/** `updated_at timestamptz`, set on every save through TypeORM. */
+export function UpdatedAt(): PropertyDecorator {
+  return UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' });
+}
+
+/** A `timestamptz`; `now` gives it the database's `now()` default. */
+export function Timestamp(extras: ColumnExtras & { now?: boolean } = {}): PropertyDecorator {
+  const { now, ...rest } = extras;
+  return typed({ type: 'timestamptz', ...(now ? { default: () => 'now()' } : {}), ...rest });
+}
+
+/** A `varchar(length)`. */
+export function Varchar(length: number, extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'varchar', length, ...extras });
+}
+
+/** A `text`. */
+export function Text(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'text', ...extras });
+}
+
+/** An `integer`. */
+export function Integer(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'integer', ...extras });
+}
+
+/** A `boolean`. */
+export function Boolean(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'boolean', ...extras });
+}
+
+/** A `uuid` (an account's or a row's id kept as a reference). */
+export function Uuid(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'uuid', ...extras });
+}
+
+/** A `jsonb`. */
+export function Jsonb(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'jsonb', ...extras });
+}
+
+/** A SHA-256 in lower-case hex: `char(64)`. */
+export function Sha256(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'char', length: 64, ...extras });
+}
+
+/**
+ * An account id as rolls write it (`varchar(64)`): opaque, deliberately no foreign key, since it
+ * may be the service's own actor and a roll outlives any account row.
+ */
+export function Actor(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'varchar', length: 64, ...extras });
+}
+
+/** A canonical lot code: `varchar(9)`. */
+export function LotCode(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'varchar', length: 9, ...extras });
+}
+
+/** A short word from a closed list (a status, a role, a purpose): `varchar(16)`. */
+export function Word(extras: ColumnExtras = {}): PropertyDecorator {
+  return typed({ type: 'varchar', length: 16, ...extras });
+}
+
+/** `lot_id uuid`: the lot a row is about. */
+export function LotId(): PropertyDecorator {
+  return typed({ type: 'uuid' });
+}
