@@ -10,7 +10,6 @@ import { NestFactory } from '@nestjs/core';
 import { DataSource } from 'typeorm';
 import { Account } from '../accounts/entities/account.entity';
 import { AppModule } from '../app.module';
-import type { AccountStatus, Role } from '../auth/auth.decorators';
 import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -39,16 +38,11 @@ export interface SeedContext {
 /** One part of the scenario. Each step must be idempotent: a second run finds its data and changes nothing. */
 export type SeedStep = (app: INestApplicationContext, ctx: SeedContext) => Promise<void>;
 
-interface DemoAccount {
-  role: Role;
-  status: AccountStatus;
-  handle: string;
-  email: string;
-  displayName: string;
-  business: string;
-  town: string;
-  country: string;
-}
+/** An account of the demo, as seed-demo/accounts.json gives it. */
+type DemoAccount = Pick<
+  Account,
+  'role' | 'status' | 'handle' | 'email' | 'displayName' | 'business' | 'town' | 'country'
+>;
 
 /** Reads a JSON file from seed-demo/. */
 export function readSeedFile<T>(name: string): T {

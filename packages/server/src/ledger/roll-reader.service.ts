@@ -7,6 +7,7 @@ import {
   type SealedFieldName,
 } from '@beadroll/core';
 import { DataSource, type EntityManager } from 'typeorm';
+import { readEntryRows } from './roll-replay';
 
 /** A stored entry with the columns other features read without decoding the header. */
 export interface StoredRollEntry extends BundleEntry {
@@ -85,31 +86,16 @@ export class RollReaderService {
     opts: { fromSeq?: number; limit?: number; kinds?: string[] } = {},
     manager: EntityManager = this.dataSource.manager,
   ): Promise<StoredRollEntry[]> {
-    const rows: Array<{
-      seq: number;
-      kind: string;
-      actor: string;
-      time: string;
-      hash: string;
-      header: string;
-      body: string | null;
-      log_index: string | null;
-    }> = await manager.query(
-      `SELECT e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body", e."log_index"
-       FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-       WHERE e."lot_id" = $1 AND e."seq" >= $2 AND ($4::text[] IS NULL OR e."kind" = ANY($4))
-       ORDER BY e."seq" LIMIT $3`,
-      [lotId, opts.fromSeq ?? 0, opts.limit ?? 1_000_000, opts.kinds ?? null],
-    );
-    return rows.map((r) => ({
-      seq: r.seq,
-      kind: r.kind,
-      actor: r.actor,
-      time: r.time,
-      hash: r.hash,
-      header: r.header,
-      body: r.body,
-      logIndex: r.log_index === null ? null : Number(r.log_index),
+    const rows = await readEntryRows(manager, lotId, opts);
+    return rows.map(({ seq, kind, actor, time, hash, header, body, logIndex }) => ({
+      seq,
+      kind,
+      actor,
+      time,
+      hash,
+      header,
+      body,
+      logIndex,
     }));
   }
 

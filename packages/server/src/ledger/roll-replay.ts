@@ -17,6 +17,41 @@ export interface StoredEntryRow extends StoredEntry {
   redactsSeq: number | null;
 }
 
+/**
+ * A lot's stored entry rows in seq order, from `fromSeq`, at most `limit`, only of `kinds` when
+ * given. A redacted entry's body is null.
+ */
+export async function readEntryRows(
+  manager: EntityManager,
+  lotId: string,
+  opts: { fromSeq?: number; limit?: number; kinds?: string[] } = {},
+): Promise<Array<StoredEntryRow & { logIndex: number | null }>> {
+  const rows: Array<{
+    id: string;
+    seq: number;
+    kind: string;
+    actor: string;
+    time: string;
+    hash: string;
+    header: string;
+    body: string | null;
+    redacts_seq: number | null;
+    log_index: string | null;
+  }> = await manager.query(
+    `SELECT e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body",
+            e."redacts_seq", e."log_index"
+       FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+      WHERE e."lot_id" = $1 AND e."seq" >= $2 AND ($4::text[] IS NULL OR e."kind" = ANY($4))
+      ORDER BY e."seq" LIMIT $3`,
+    [lotId, opts.fromSeq ?? 0, opts.limit ?? 1_000_000, opts.kinds ?? null],
+  );
+  return rows.map(({ redacts_seq, log_index, ...r }) => ({
+    ...r,
+    redactsSeq: redacts_seq,
+    logIndex: log_index === null ? null : Number(log_index),
+  }));
+}
+
 /** How many entries are read from the database at once while a roll is replayed. */
 export const REPLAY_PAGE = 500;
 
@@ -35,35 +70,9 @@ export async function replayStoredRoll(
   let from = 0;
   let entries = 0;
   for (;;) {
-    const rows: Array<{
-      id: string;
-      seq: number;
-      kind: string;
-      actor: string;
-      time: string;
-      hash: string;
-      header: string;
-      body: string | null;
-      redacts_seq: number | null;
-    }> = await manager.query(
-      `SELECT e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body", e."redacts_seq"
-         FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-        WHERE e."lot_id" = $1 AND e."seq" >= $2 ORDER BY e."seq" LIMIT $3`,
-      [lot.id, from, REPLAY_PAGE],
-    );
+    const rows = await readEntryRows(manager, lot.id, { fromSeq: from, limit: REPLAY_PAGE });
     entries += rows.length;
-    for (const r of rows) {
-      const row: StoredEntryRow = {
-        id: r.id,
-        seq: r.seq,
-        kind: r.kind,
-        actor: r.actor,
-        time: r.time,
-        hash: r.hash,
-        header: r.header,
-        body: r.body,
-        redactsSeq: r.redacts_seq,
-      };
+    for (const row of rows) {
       const failure = v.push(row);
       if (failure) return { result: failure, entries };
       visit?.(row, v.last!);

@@ -90,22 +90,14 @@ export class PersonalDataService {
     const sessions = await q<{ created_at: Date; revoked_at: Date | null; revoked_why: string | null }>(
       `SELECT "created_at", "revoked_at", "revoked_why" FROM "sessions" WHERE "account_id" = $1 ORDER BY "created_at"`,
     );
-    const entries = await q<{
-      lot: string;
-      seq: number;
-      kind: string;
-      time: string;
-      hash: string;
-      header: string;
-      body: string | null;
-    }>(
+    const entries = await q<PersonalDataExport['entries'][number]>(
       `SELECT l."code" AS "lot", e."seq", e."kind", e."time", e."hash", e."header", b."body"
          FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
         WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
     );
     const sealed = await this.reader.sealedVisibleTo(accountId);
     const held = await this.views.heldBy(accountId);
-    const asSent = await q<{ lot: string; seq: number; sha256: string }>(
+    const asSent = await q<PersonalDataExport['exhibitsAsSent'][number]>(
       `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
         WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
     );

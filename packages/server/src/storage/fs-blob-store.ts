@@ -1,4 +1,3 @@
-import { randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { access, copyFile, link, mkdir, rename, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
@@ -10,7 +9,7 @@ import {
   type BlobStore,
   type PutResult,
 } from './blob-store';
-import { hashFile, spoolToFile } from './hashing';
+import { freshFileIn, hashFile, spoolToFile } from './hashing';
 
 /**
  * Blobs as files under `root`, fanned out by the first two hex pairs of their name:
@@ -26,9 +25,7 @@ export class FsBlobStore implements BlobStore {
   }
 
   async put(source: BlobSource): Promise<PutResult> {
-    const tmpDir = join(this.root, 'tmp');
-    await mkdir(tmpDir, { recursive: true });
-    const tmp = join(tmpDir, randomBytes(16).toString('hex'));
+    const tmp = await freshFileIn(join(this.root, 'tmp'));
     try {
       let digest: { sha256: string; size: number };
       if ('path' in source) {

@@ -1,5 +1,7 @@
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream, createWriteStream } from 'node:fs';
+import { mkdir } from 'node:fs/promises';
+import { join } from 'node:path';
 import { Transform, type Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 
@@ -27,4 +29,10 @@ export async function spoolToFile(stream: Readable, path: string): Promise<{ sha
   });
   await pipeline(stream, tap, createWriteStream(path, { flags: 'wx', mode: 0o600 }));
   return { sha256: hash.digest('hex'), size };
+}
+
+/** A new random file name in `dir` (made if missing), for spooling or staging a blob. */
+export async function freshFileIn(dir: string): Promise<string> {
+  await mkdir(dir, { recursive: true });
+  return join(dir, randomBytes(16).toString('hex'));
 }

@@ -1,7 +1,5 @@
-import { randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { mkdir, rm } from 'node:fs/promises';
-import { join } from 'node:path';
+import { rm } from 'node:fs/promises';
 import type { Readable } from 'node:stream';
 import {
   DeleteObjectCommand,
@@ -20,7 +18,7 @@ import {
   type BlobStore,
   type PutResult,
 } from './blob-store';
-import { hashFile, spoolToFile } from './hashing';
+import { freshFileIn, hashFile, spoolToFile } from './hashing';
 
 export interface S3BlobStoreOptions {
   bucket: string;
@@ -79,8 +77,7 @@ export class S3BlobStore implements BlobStore {
       path = source.path;
       digest = await hashFile(path);
     } else {
-      await mkdir(this.options.spoolDir, { recursive: true });
-      spooled = path = join(this.options.spoolDir, randomBytes(16).toString('hex'));
+      spooled = path = await freshFileIn(this.options.spoolDir);
       digest = await spoolToFile(source.stream, path);
     }
     try {

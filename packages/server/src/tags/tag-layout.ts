@@ -139,39 +139,34 @@ export function labelGeometry(
 ): { ok: true; geometry: LabelGeometry } | { ok: false; reason: string } {
   const modules = qrModulesPerSide(version);
   const span = modules + 2 * QR_QUIET_ZONE_MODULES;
+  const tooSmall = (room: string) => ({
+    ok: false as const,
+    reason: `a version ${version} symbol needs ${round(span * MIN_MODULE_MM)} mm at ${MIN_MODULE_MM} mm per module; ${room}`,
+  });
+  const fits = (qr: Omit<LabelGeometry['qr'], 'modules' | 'version'>, text: LabelGeometry['text']) => ({
+    ok: true as const,
+    geometry: { design, widthMm, heightMm, qr: { ...qr, modules, version }, text },
+  });
   if (design === 'string') {
     const qrRoom = Math.min(widthMm, heightMm - STRING_HOLE_MM - STRING_TEXT_MM);
     const moduleMm = Math.min(STRING_MAX_MODULE_MM, qrRoom / span);
     if (moduleMm + EPS < MIN_MODULE_MM)
-      return {
-        ok: false,
-        reason: `a version ${version} symbol needs ${round(span * MIN_MODULE_MM)} mm at ${MIN_MODULE_MM} mm per module; a ${widthMm} × ${heightMm} mm string tag leaves ${round(Math.max(qrRoom, 0))} mm`,
-      };
+      return tooSmall(`a ${widthMm} × ${heightMm} mm string tag leaves ${round(Math.max(qrRoom, 0))} mm`);
     const side = moduleMm * span;
     const qrY = STRING_HOLE_MM;
-    return {
-      ok: true,
-      geometry: {
-        design,
-        widthMm,
-        heightMm,
-        qr: { x: (widthMm - side) / 2, y: qrY, moduleMm, modules, version },
-        // The quiet zone's lower half is blank: the text may start just under the symbol.
-        text: {
-          x: 1.2,
-          y: qrY + side - moduleMm * 2,
-          w: widthMm - 2.4,
-          h: heightMm - (qrY + side - moduleMm * 2) - 0.8,
-        },
+    // The quiet zone's lower half is blank: the text may start just under the symbol.
+    return fits(
+      { x: (widthMm - side) / 2, y: qrY, moduleMm },
+      {
+        x: 1.2,
+        y: qrY + side - moduleMm * 2,
+        w: widthMm - 2.4,
+        h: heightMm - (qrY + side - moduleMm * 2) - 0.8,
       },
-    };
+    );
   }
   const moduleMm = heightMm / span;
-  if (moduleMm + EPS < MIN_MODULE_MM)
-    return {
-      ok: false,
-      reason: `a version ${version} symbol needs ${round(span * MIN_MODULE_MM)} mm at ${MIN_MODULE_MM} mm per module; a barbell flag ${heightMm} mm tall is too small`,
-    };
+  if (moduleMm + EPS < MIN_MODULE_MM) return tooSmall(`a barbell flag ${heightMm} mm tall is too small`);
   const side = moduleMm * span;
   const textX = side - moduleMm * 2;
   if (widthMm - textX - 0.8 < BARBELL_MIN_TEXT_MM)
@@ -179,16 +174,7 @@ export function labelGeometry(
       ok: false,
       reason: `a barbell flag ${widthMm} mm wide leaves ${round(widthMm - textX - 0.8)} mm beside the symbol; the code needs ${BARBELL_MIN_TEXT_MM} mm`,
     };
-  return {
-    ok: true,
-    geometry: {
-      design,
-      widthMm,
-      heightMm,
-      qr: { x: 0, y: 0, moduleMm, modules, version },
-      text: { x: textX, y: 0.8, w: widthMm - textX - 0.8, h: heightMm - 1.6 },
-    },
-  };
+  return fits({ x: 0, y: 0, moduleMm }, { x: textX, y: 0.8, w: widthMm - textX - 0.8, h: heightMm - 1.6 });
 }
 
 /** How each design fares with `host` at its default size (for the print dialog's warnings). */
