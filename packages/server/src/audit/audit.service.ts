@@ -336,6 +336,12 @@ export class AuditService {
     const same = (a: unknown, b: unknown) => jsonDifferences(a, b, 1).length === 0;
     const sameTime = (stored: unknown, time: string) =>
       stored instanceof Date && stored.getTime() === new Date(time).getTime();
+    // The kept entry a row of `table` stands for; none (and a difference) when the roll has no `kind` there.
+    const entryFor = (table: string, seq: number, kind: string, row: string): KeptEntry | undefined => {
+      const e = kept.get(seq);
+      if (e?.kind !== kind) differs(table, '(row)', seq, row, e ? `a ${e.kind} entry` : 'no such entry');
+      return e?.kind === kind ? e : undefined;
+    };
     const exhibits: Array<{
       seq: number;
       lot_code: string;
@@ -349,11 +355,8 @@ export class AuditService {
       [lot.id],
     );
     for (const x of exhibits) {
-      const e = kept.get(x.seq);
-      if (e?.kind !== 'exhibit-added') {
-        differs('exhibits', '(row)', x.seq, 'an exhibit', e ? `a ${e.kind} entry` : 'no such entry');
-        continue;
-      }
+      const e = entryFor('exhibits', x.seq, 'exhibit-added', 'an exhibit');
+      if (!e) continue;
       if (x.lot_code !== lot.code) differs('exhibits', 'lot_code', x.seq, x.lot_code, lot.code);
       if (x.added_by !== e.actor) differs('exhibits', 'added_by', x.seq, x.added_by, e.actor);
       if (x.original_sha256 !== x.ref?.original?.sha256)
@@ -395,17 +398,8 @@ export class AuditService {
       if (!offers.some((o) => o.offer_seq === seq))
         differs('transfer_offers', '(row)', seq, 'missing', 'an offer');
     for (const o of offers) {
-      const e = kept.get(o.offer_seq);
-      if (e?.kind !== 'transfer-offered') {
-        differs(
-          'transfer_offers',
-          '(row)',
-          o.offer_seq,
-          'an offer',
-          e ? `a ${e.kind} entry` : 'no such entry',
-        );
-        continue;
-      }
+      const e = entryFor('transfer_offers', o.offer_seq, 'transfer-offered', 'an offer');
+      if (!e) continue;
       if (o.code !== lot.code) differs('transfer_offers', 'code', o.offer_seq, o.code, lot.code);
       if (o.offerer !== e.actor) differs('transfer_offers', 'offerer', o.offer_seq, o.offerer, e.actor);
       const recipient = (e.body as TransferOfferedBody | null)?.recipient;
@@ -436,11 +430,8 @@ export class AuditService {
         [lot.id],
       );
     for (const x of sales) {
-      const e = kept.get(x.seq);
-      if (e?.kind !== 'sold') {
-        differs('sales', '(row)', x.seq, 'a sale', e ? `a ${e.kind} entry` : 'no such entry');
-        continue;
-      }
+      const e = entryFor('sales', x.seq, 'sold', 'a sale');
+      if (!e) continue;
       if (x.code !== lot.code) differs('sales', 'code', x.seq, x.code, lot.code);
       if (x.seller !== e.actor) differs('sales', 'seller', x.seq, x.seller, e.actor);
       const date = (e.body as SoldBody | null)?.date;

@@ -232,11 +232,7 @@ export class ExhibitsService {
   ): Promise<ServedExhibitFile> {
     const code = RollReaderService.canonicalCode(codeText);
     if (!code) throw NOT_FOUND();
-    const { manager, from } = await this.standby.reader(writer);
-    if ((await this.views.find({ code }, manager))?.listed !== true) throw NOT_FOUND();
-    const row = await this.row(code, seqText, manager);
-    if (!row || row.sealed) throw NOT_FOUND();
-    return { ...(await this.serve(row, variant)), from };
+    return this.servePublic(code, seqText, variant, await this.readerOfListed(code, writer));
   }
 
   /**
@@ -254,9 +250,8 @@ export class ExhibitsService {
     const code = RollReaderService.canonicalCode(codeText);
     const ancestor = RollReaderService.canonicalCode(ancestorText);
     if (!code || !ancestor || code === ancestor || !/^[1-9]\d{0,8}$/.test(seqText)) throw NOT_FOUND();
-    const { manager, from } = await this.standby.reader(writer);
-    if ((await this.views.find({ code }, manager))?.listed !== true) throw NOT_FOUND();
-    const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed, manager);
+    const reader = await this.readerOfListed(code, writer);
+    const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed, reader.manager);
     const seq = Number(seqText);
     const carried = bundle?.rolls
       .find((r) => r.lot === ancestor)
@@ -265,9 +260,29 @@ export class ExhibitsService {
         return h.seq === seq && h.kind === 'exhibit-added' && e.body !== null;
       });
     if (!carried) throw NOT_FOUND();
-    const row = await this.row(ancestor, seqText, manager);
+    return this.servePublic(ancestor, seqText, variant, reader);
+  }
+
+  /** Where a listed lot's public files are read from; any other lot is the same bare 404. */
+  private async readerOfListed(
+    code: string,
+    writer: boolean,
+  ): Promise<{ manager: EntityManager; from: ReadSource }> {
+    const reader = await this.standby.reader(writer);
+    if ((await this.views.find({ code }, reader.manager))?.listed !== true) throw NOT_FOUND();
+    return reader;
+  }
+
+  /** The file of a public (unsealed) exhibit on `code`'s roll, read through `reader`. */
+  private async servePublic(
+    code: string,
+    seqText: string,
+    variant: string,
+    reader: { manager: EntityManager; from: ReadSource },
+  ): Promise<ServedExhibitFile> {
+    const row = await this.row(code, seqText, reader.manager);
     if (!row || row.sealed) throw NOT_FOUND();
-    return { ...(await this.serve(row, variant)), from };
+    return { ...(await this.serve(row, variant)), from: reader.from };
   }
 
   /** A file for a signed-in viewer who may read the lot; a sealed one only for its adder. */

@@ -5,6 +5,7 @@ import {
   verifyRoll,
   type Bundle,
   type Correction,
+  type EntryKind,
   type LotDescription,
   type Money,
   type ObservedBody,
@@ -16,6 +17,7 @@ import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
+import type { AppendDraft } from '../ledger/ledger.types';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { exportFile, type ExportColumn, type ExportFile } from '../export/sheet-export';
 import type {
@@ -271,38 +273,35 @@ export class LotsService {
 
   /** A full new description (`described`). */
   async describe(actor: Viewer, text: string, dto: DescribeLotDto): Promise<LotDetailResponse> {
-    const code = await this.readableCode(actor, text);
-    await this.ledger.append(
-      code,
-      {
-        kind: 'described',
-        actor: actor.id,
-        body: {
-          description: plain<LotDescription>(dto.description),
-          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
-        },
-        sealed: sealedValuesOf(dto.sealed),
+    return this.appendAndShow(actor, text, {
+      kind: 'described',
+      body: {
+        description: plain<LotDescription>(dto.description),
+        ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
       },
-      { fields: FIELD_NAMES },
-    );
-    return this.detail(actor, code);
+      sealed: sealedValuesOf(dto.sealed),
+    });
   }
 
   /** New observations (`observed`). */
   async observe(actor: Viewer, text: string, dto: ObserveLotDto): Promise<LotDetailResponse> {
-    const code = await this.readableCode(actor, text);
-    await this.ledger.append(
-      code,
-      {
-        kind: 'observed',
-        actor: actor.id,
-        body: {
-          observations: plain<ObservationsDto>(dto.observations),
-          ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
-        },
+    return this.appendAndShow(actor, text, {
+      kind: 'observed',
+      body: {
+        observations: plain<ObservationsDto>(dto.observations),
+        ...(dto.corrects ? { corrects: plain<Correction>(dto.corrects) } : {}),
       },
-      { fields: FIELD_NAMES },
-    );
+    });
+  }
+
+  /** Writes one entry in the actor's name on a lot they may read; answers with the lot as they now see it. */
+  private async appendAndShow<K extends EntryKind>(
+    actor: Viewer,
+    text: string,
+    draft: Omit<AppendDraft<K>, 'actor'>,
+  ): Promise<LotDetailResponse> {
+    const code = await this.readableCode(actor, text);
+    await this.ledger.append(code, { ...draft, actor: actor.id }, { fields: FIELD_NAMES });
     return this.detail(actor, code);
   }
 
