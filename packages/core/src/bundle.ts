@@ -1,8 +1,9 @@
-import { canonicalise, parseCanonical } from './canonical.js';
+import { canonicalise } from './canonical.js';
 import { factsOf } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode, type StoredEntry } from './entry.js';
 import { BundleError } from './errors.js';
-import { bodyDigest, entryHash } from './hash.js';
+import { entryHash } from './hash.js';
+import { decodeStoredBody } from './stored-body.js';
 import { isCanonicalLotCode } from './lotcode.js';
 import type { RollState } from './rules.js';
 import type { CombinedBody, EntryHeader, RegisteredBody, SplitBody } from './types.js';
@@ -198,14 +199,9 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
     if (h.kind !== 'split' && h.kind !== 'combined')
       return fail(h.seq, 'bad-header', 'a link roll holds only split and combined entries');
     if (e.body === null) return fail(h.seq, 'missing-body', 'a link entry needs its body');
-    let body: unknown;
-    try {
-      body = parseCanonical(e.body);
-    } catch (x) {
-      return fail(h.seq, 'non-canonical', `body: ${(x as Error).message}`);
-    }
-    if (bodyDigest(e.body) !== h.body)
-      return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
+    const stored = decodeStoredBody(e.body, h.body);
+    if ('reason' in stored) return fail(h.seq, stored.reason, stored.message);
+    const body = stored.body;
     const issues = bodyIssues(h.kind, body, h.v);
     if (issues.length === 0 && h.v >= 2)
       issues.push(...bodyBoundIssues(h.kind, body as SplitBody | CombinedBody, h.time));

@@ -1,7 +1,8 @@
-import { canonicalise, parseCanonical } from './canonical.js';
+import { canonicalise } from './canonical.js';
 import { factsOf } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode } from './entry.js';
-import { bodyDigest, entryHash } from './hash.js';
+import { entryHash } from './hash.js';
+import { decodeStoredBody } from './stored-body.js';
 import { opinionsDisagree, type RollState } from './rules.js';
 import type { AnyBody, EntryKind, ExhibitAddedBody, ObservedBody, OpinionBody, ParentRef } from './types.js';
 import { bodyIssues, isHex64 } from './validate.js';
@@ -65,14 +66,9 @@ export function verifyInheritedRoll(r: InheritedRollInput): {
         out.push({ hash: e.hash, header: h, body: null });
         continue;
       }
-      let body: unknown;
-      try {
-        body = parseCanonical(e.body);
-      } catch (x) {
-        return fail(h.seq, 'non-canonical', `body: ${(x as Error).message}`);
-      }
-      if (bodyDigest(e.body) !== h.body)
-        return fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
+      const stored = decodeStoredBody(e.body, h.body);
+      if ('reason' in stored) return fail(h.seq, stored.reason, stored.message);
+      const body = stored.body;
       const issues = bodyIssues(h.kind, body);
       if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
       if (h.facts && canonicalise(factsOf(h.kind, body as AnyBody)) !== canonicalise(h.facts))
