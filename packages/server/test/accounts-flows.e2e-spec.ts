@@ -7,17 +7,22 @@ import { useTestApp } from './support/test-app';
 const BASE = 'http://beadroll.example';
 const W = { 'X-Beadroll-Request': '1' };
 
+/** What an applicant tells the registrar about their trade (invented). */
+const TRADE_DETAILS = {
+  business: 'Vetro Trade Beads',
+  town: 'Zanfirico Cross',
+  country: 'Punty Reach',
+  address: '12 Cinder Row, Zanfirico Cross',
+  website: 'https://vetro-beads.example',
+  tradeReferences: 'Stand 7 at the Zanfirico Cross winter bead fair; buys from Rue Lampwork Finds.',
+};
+
 function applicant(n: string) {
   return {
     role: 'dealer',
     displayName: `Dana Vetro ${n}`,
     handle: `dana-vetro-${n}`,
-    business: 'Vetro Trade Beads',
-    town: 'Zanfirico Cross',
-    country: 'Punty Reach',
-    address: '12 Cinder Row, Zanfirico Cross',
-    website: 'https://vetro-beads.example',
-    tradeReferences: 'Stand 7 at the Zanfirico Cross winter bead fair; buys from Rue Lampwork Finds.',
+    ...TRADE_DETAILS,
     email: `dana.${n}@example.invalid`,
     password: 'a long enough passphrase',
   };
@@ -70,14 +75,7 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
 
     const queue = await registrar.agent.get('/api/registry/accounts?status=pending').expect(200);
     const row = queue.body.items.find((i: { handle: string }) => i.handle === a.handle);
-    expect(row).toMatchObject({
-      business: 'Vetro Trade Beads',
-      town: 'Zanfirico Cross',
-      country: 'Punty Reach',
-      address: '12 Cinder Row, Zanfirico Cross',
-      website: 'https://vetro-beads.example',
-      tradeReferences: 'Stand 7 at the Zanfirico Cross winter bead fair; buys from Rue Lampwork Finds.',
-    });
+    expect(row).toMatchObject(TRADE_DETAILS);
     await registrar.agent.post(`/api/registry/accounts/${row.id}/approve`).set(W).expect(200);
     expect(lastMailTo(t, a.email).subject).toMatch(/verified/i);
 

@@ -5,7 +5,7 @@ import { DataSource } from 'typeorm';
 import { createAccount, type TestAccount } from './support/accounts';
 import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
 import { leftovers, rollOf, storedBlobs, upload } from './support/exhibit-http';
-import { description } from './support/lot-fixtures';
+import { registerLot } from './support/lot-fixtures';
 import { createTestApp, type TestApp } from './support/test-app';
 
 // Small limits so that a test file can go over them: 64 KiB per file, 2000 bytes per account.
@@ -19,12 +19,7 @@ let code: string;
 beforeAll(async () => {
   t = await createTestApp({ EXHIBIT_MAX_BYTES: String(MAX_BYTES), EXHIBIT_QUOTA_BYTES: String(QUOTA) });
   dealer = await createAccount(t, { role: 'dealer' });
-  const res = await dealer.agent
-    .post('/api/lots')
-    .set('X-Beadroll-Request', '1')
-    .send({ description: description() })
-    .expect(201);
-  code = (res.body as { code: string }).code;
+  code = (await registerLot(dealer)).code;
 }, 60_000);
 afterAll(() => t?.close());
 
@@ -108,12 +103,7 @@ it('stops an account at its storage quota, with a 413 naming the allowance', asy
 
   // The quota is per account: another dealer still has all of theirs.
   const second = await createAccount(t, { role: 'dealer' });
-  const lot = await second.agent
-    .post('/api/lots')
-    .set('X-Beadroll-Request', '1')
-    .send({ description: description() })
-    .expect(201);
-  await upload(second.agent, (lot.body as { code: string }).code, png, { kind: 'hole' }).expect(201);
+  await upload(second.agent, (await registerLot(second)).code, png, { kind: 'hole' }).expect(201);
 });
 
 it('lets exactly one of two simultaneous uploads through when together they go over the quota', async () => {
@@ -121,12 +111,7 @@ it('lets exactly one of two simultaneous uploads through when together they go o
   // Two lots, so that the lots' own row locks do not line the two uploads up.
   const lots: string[] = [];
   for (let i = 0; i < 2; i++) {
-    const res = await owner.agent
-      .post('/api/lots')
-      .set('X-Beadroll-Request', '1')
-      .send({ description: description() })
-      .expect(201);
-    lots.push((res.body as { code: string }).code);
+    lots.push((await registerLot(owner)).code);
   }
   // Two different images (other bytes, so no shared blobs), about 1100 bytes each with derivatives.
   const images = [await imageOf('png', 118, 80), await imageOf('png', 119, 80)];

@@ -4,7 +4,7 @@ import { BLOB_LOCK } from '../src/storage/blob-locks';
 import { createAccount, type TestAccount } from './support/accounts';
 import { imageOf, jpegWithGps } from './support/exhibit-fixtures';
 import { binary, leftovers, rollOf, sha256, storedBlobs, upload } from './support/exhibit-http';
-import { description } from './support/lot-fixtures';
+import { registerLot } from './support/lot-fixtures';
 import { createTestApp, superuserClient, type TestApp } from './support/test-app';
 
 // A caption that the test trigger below refuses when the upload's transaction commits.
@@ -20,12 +20,7 @@ beforeAll(async () => {
 afterAll(() => t?.close());
 
 async function newLot(dealer: TestAccount): Promise<string> {
-  const res = await dealer.agent
-    .post('/api/lots')
-    .set('X-Beadroll-Request', '1')
-    .send({ description: description() })
-    .expect(201);
-  return (res.body as { code: string }).code;
+  return (await registerLot(dealer)).code;
 }
 
 /** A small PNG; each width gives other bytes, so tests never share blobs by accident. */

@@ -4,7 +4,7 @@ import { createDataSource } from '../src/database/data-source';
 import { loadConfig } from '../src/config/app-config';
 import { PgThrottlerStorage } from '../src/auth/pg-throttler.storage';
 import { createAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
+import { registerLot } from './support/lot-fixtures';
 import { createTestApp, type TestApp } from './support/test-app';
 
 // Several instances behind a load balancer share PostgreSQL and nothing else: these checks run
@@ -21,13 +21,7 @@ describe('past one instance', () => {
   });
 
   async function listedLot(): Promise<string> {
-    const dealer = await createAccount(t, { role: 'dealer' });
-    const res = await dealer.agent
-      .post('/api/lots')
-      .set('X-Beadroll-Request', '1')
-      .send({ description: description() })
-      .expect(201);
-    return (res.body as { code: string }).code;
+    return (await registerLot(await createAccount(t, { role: 'dealer' }))).code;
   }
 
   it('counts rate-limited attempts in PostgreSQL, the same for every instance', async () => {

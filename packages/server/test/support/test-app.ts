@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { Test } from '@nestjs/testing';
 import { Client } from 'pg';
+import type { DataSource } from 'typeorm';
 import { AppModule } from '../../src/app.module';
 import { configureApp } from '../../src/bootstrap';
 import { loadConfig } from '../../src/config/app-config';
@@ -29,14 +30,20 @@ function adminClient(database = ADMIN_DATABASE): Client {
   });
 }
 
-/** Creates an empty database with a random name and runs every migration on it. */
-export async function createTestDatabase(): Promise<TestDatabase> {
+/** Creates an empty database with a random name beside the run's own, and returns the name. */
+async function newDatabase(): Promise<string> {
   if (!process.env.PGHOST) throw new Error('PGHOST is not set: run the server tests through `npm test`.');
   const name = `bt_${randomBytes(6).toString('hex')}`;
   const admin = adminClient();
   await admin.connect();
   await admin.query(`CREATE DATABASE ${name}`);
   await admin.end();
+  return name;
+}
+
+/** Creates an empty database with a random name and runs every migration on it. */
+export async function createTestDatabase(): Promise<TestDatabase> {
+  const name = await newDatabase();
   const dataSource = createDataSource(loadConfig({ ...process.env, PGDATABASE: name }));
   await dataSource.initialize();
   await dataSource.runMigrations({ transaction: 'each' });
@@ -62,12 +69,7 @@ export async function createTestDatabase(): Promise<TestDatabase> {
 
 /** An empty database (no migrations run) beside the test databases, for restores; dropped by `drop()`. */
 export async function createEmptyDatabase(): Promise<TestDatabase> {
-  if (!process.env.PGHOST) throw new Error('PGHOST is not set: run the server tests through `npm test`.');
-  const name = `bt_${randomBytes(6).toString('hex')}`;
-  const admin = adminClient();
-  await admin.connect();
-  await admin.query(`CREATE DATABASE ${name}`);
-  await admin.end();
+  const name = await newDatabase();
   return {
     name,
     async drop() {
@@ -166,4 +168,15 @@ export function useTestApp(env: () => Record<string, string> = () => ({})): Test
     },
     close: () => current!.close(),
   };
+}
+
+/** Expects the database to refuse `sql` from the app's own role and from a superuser alike. */
+export async function expectRefusedToAll(t: TestApp, appRole: DataSource, sql: string): Promise<void> {
+  await expect(appRole.query(sql)).rejects.toThrow(/refused/);
+  const su = await superuserClient(t.db.name);
+  try {
+    await expect(su.query(sql)).rejects.toThrow(/refused/);
+  } finally {
+    await su.end();
+  }
 }
