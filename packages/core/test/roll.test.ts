@@ -24,6 +24,7 @@ import {
   type StoredEntry,
 } from '../src/index.js';
 import { HOLDER, LOT, OTHER, RollBuilder, THIRD, description, generatedRoll, opinion } from './helpers.js';
+import dissentTable from './fixtures/dissent-cases.json' with { type: 'json' };
 
 describe('building entries', () => {
   it('links seq 0 to the genesis value and each entry to the previous hash', () => {
@@ -412,50 +413,12 @@ describe('derived state', () => {
 
   // Dissent: another author's standing opinion with a different origin (neither "unknown") or
   // a period that does not overlap the holder's latest standing opinion.
-  const dissentCases: Array<{
+  const dissentCases = dissentTable.cases as Array<{
     desc: string;
     holder: [string, number, number] | null;
     other: [string, number, number];
     dissent: boolean;
-  }> = [
-    {
-      desc: 'same origin, overlapping periods: concurs',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['venice-murano', 1880, 1920],
-      dissent: false,
-    },
-    {
-      desc: 'different origin: dissent',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['bohemia-czech', 1850, 1900],
-      dissent: true,
-    },
-    {
-      desc: 'unknown origin, overlapping: no dissent',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['unknown', 1850, 1900],
-      dissent: false,
-    },
-    {
-      desc: 'periods that only touch overlap: concurs',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['venice-murano', 1900, 1950],
-      dissent: false,
-    },
-    {
-      desc: 'periods apart: dissent',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['venice-murano', 1901, 1950],
-      dissent: true,
-    },
-    {
-      desc: 'unknown origin but periods apart: dissent',
-      holder: ['venice-murano', 1850, 1900],
-      other: ['unknown', 1950, 1990],
-      dissent: true,
-    },
-    { desc: 'no holder opinion: no dissent', holder: null, other: ['china', 1990, 2000], dissent: false },
-  ];
+  }>;
   for (const c of dissentCases) {
     it(`dissent table: ${c.desc}`, () => {
       const r = new RollBuilder().register();

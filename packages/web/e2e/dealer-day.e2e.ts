@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { formatLotCode, tagPayload, tagReference } from '@beadroll/core';
 import { openBrowser, screenshot, type Browser } from './support/browser';
-import { apiClient, demoAccount, signIn, useCameraBrowser } from './support/journey';
+import { apiClient, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
 
 const dealer = demoAccount('dealer');
 
@@ -92,10 +92,7 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
   it('sells the scanned lot in two taps after the scan', async () => {
     const { page } = browser;
     await signIn(page, baseUrl, dealer.email);
-    await page.goto(`${baseUrl}/scan`);
-    await page.getByRole('button', { name: 'Start camera' }).click();
-    await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
-    await page.getByRole('heading', { level: 1, name: lot.title }).waitFor();
+    await scanHeldLot(page, baseUrl, lot);
     const quick = page.getByRole('group', { name: 'Quick actions' });
     for (const name of ['Sell', 'Offer to a dealer', 'Print a new tag', 'History'])
       await quick.getByRole(name === 'History' ? 'link' : 'button', { name }).waitFor();

@@ -1,7 +1,7 @@
 import { describe, expect, inject, it } from 'vitest';
 import { tagPayload, tagReference } from '@beadroll/core';
 import { screenshot } from './support/browser';
-import { demo, demoAccount, signIn, useCameraBrowser } from './support/journey';
+import { demo, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
 
 // An invented lot on an invented host: nobody signed in holds it, so the scanner must send the
 // reader to its public page with the tag reference, where the tag is checked.
@@ -91,10 +91,7 @@ describe('the fair scanner, signed in as the holder', () => {
   it('reads the tag of a lot the dealer holds and opens that lot with its quick actions', async () => {
     const { page } = browser;
     await signIn(page, baseUrl, dealer.email);
-    await page.goto(`${baseUrl}/scan`);
-    await page.getByRole('button', { name: 'Start camera' }).click();
-    await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
-    await page.getByRole('heading', { level: 1, name: lot.title }).waitFor();
+    await scanHeldLot(page, baseUrl, lot);
     await page.getByText('This tag names the newest entry.').waitFor();
     await page.getByRole('button', { name: 'Print a new tag' }).waitFor();
     await screenshot(page, 'scanner-held-lot');

@@ -114,6 +114,21 @@ export function useCameraBrowser(
   return proxy(() => open!);
 }
 
+/**
+ * Starts the scanner in a {@link useCameraBrowser} page whose tag names `lot`, held by the
+ * signed-in reader, and waits for the lot's own page under the scanner with the tag's reference.
+ */
+export async function scanHeldLot(
+  page: Page,
+  baseUrl: string,
+  lot: { code: string; title: string; ref: string },
+): Promise<void> {
+  await page.goto(`${baseUrl}/scan`);
+  await page.getByRole('button', { name: 'Start camera' }).click();
+  await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
+  await page.getByRole('heading', { level: 1, name: lot.title }).waitFor();
+}
+
 /** A superuser connection to the journeys' database, for changing what the service stored. */
 export function superuser(): pg.Client {
   return new pg.Client({
