@@ -7,6 +7,7 @@ import {
   DialogSurface,
   DialogTitle,
   makeStyles,
+  mergeClasses,
   tokens,
 } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
@@ -49,7 +50,7 @@ export function ActionDialog({
   return (
     <Dialog open onOpenChange={(_, d) => !d.open && close()}>
       <DialogSurface
-        className={narrow ? `${styles.surface} ${styles.narrow}` : styles.surface}
+        className={mergeClasses(styles.surface, narrow && styles.narrow)}
         aria-describedby={describedBy}
       >
         <form
