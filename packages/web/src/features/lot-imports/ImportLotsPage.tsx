@@ -24,7 +24,14 @@ import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
 import { FormError } from '../../shared/ui/FormPage';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { lotImportsApi, type CheckResult, type Mapping, type SheetInfo } from './lot-imports.api';
+
+const PROBLEM_COLUMNS: Array<ListColumn<{ row: number; key: string; column: string; message: string }>> = [
+  { id: 'row', header: 'Row', cell: (p) => p.row },
+  { id: 'column', header: 'Column', cell: (p) => p.column },
+  { id: 'message', header: 'What to enter', cell: (p) => p.message },
+];
 
 const useStyles = makeStyles({
   page: {
@@ -219,28 +226,15 @@ export function ImportLotsPage() {
                   it again and check again; nothing has been imported.
                 </MessageBarBody>
               </MessageBar>
-              <div className={styles.scroll}>
-                <Table aria-label="Rows that need attention" size="small">
-                  <TableHeader>
-                    <TableRow>
-                      <TableHeaderCell>Row</TableHeaderCell>
-                      <TableHeaderCell>Column</TableHeaderCell>
-                      <TableHeaderCell>What to enter</TableHeaderCell>
-                    </TableRow>
-                  </TableHeader>
-                  <TableBody>
-                    {checked.rows.flatMap((r) =>
-                      r.problems.map((p, j) => (
-                        <TableRow key={`${r.row}-${j}`}>
-                          <TableCell>{r.row}</TableCell>
-                          <TableCell>{p.column}</TableCell>
-                          <TableCell>{p.message}</TableCell>
-                        </TableRow>
-                      )),
-                    )}
-                  </TableBody>
-                </Table>
-              </div>
+              <DataTable
+                label="Rows that need attention"
+                size="small"
+                columns={PROBLEM_COLUMNS}
+                rows={checked.rows.flatMap((r) =>
+                  r.problems.map((p, j) => ({ row: r.row, key: `${r.row}-${j}`, ...p })),
+                )}
+                rowKey={(p) => p.key}
+              />
             </>
           ) : (
             <MessageBar intent="success">

@@ -7,12 +7,6 @@ import {
   MessageBar,
   MessageBarBody,
   Option,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
   Textarea,
   Title2,
@@ -24,6 +18,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import {
   REDACTION_REASON_LABEL,
   redactionRequestsQuery,
@@ -37,7 +32,6 @@ const useStyles = makeStyles({
   page: { display: 'grid', gap: tokens.spacingVerticalXL, maxWidth: '960px' },
   form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '32rem' },
   row: { display: 'flex', gap: tokens.spacingHorizontalS, flexWrap: 'wrap' },
-  scroller: { overflowX: 'auto' },
   sub: { color: tokens.colorNeutralForeground3 },
 });
 
@@ -130,7 +124,7 @@ function RedactForm() {
   );
 }
 
-function RequestRow({ r }: { r: RedactionRequest }) {
+function Decision({ r }: { r: RedactionRequest }) {
   const styles = useStyles();
   const client = useQueryClient();
   const [declining, setDeclining] = useState(false);
@@ -142,42 +136,42 @@ function RequestRow({ r }: { r: RedactionRequest }) {
     onSuccess: done,
   });
   return (
-    <TableRow>
-      <TableCell>{formatDate(r.createdAt)}</TableCell>
-      <TableCell>
-        {formatLotCode(r.lot)} · entry {r.seq} ({r.kind})
-      </TableCell>
-      <TableCell>{r.note}</TableCell>
-      <TableCell>
-        <div className={styles.row}>
-          <Button
-            size="small"
-            appearance="primary"
-            onClick={() => approve.mutate()}
-            disabled={approve.isPending}
-          >
-            Remove it
-          </Button>
-          {declining ? (
-            <>
-              <Field label="Why not" validationMessage={fieldError(decline.error, 'reason')}>
-                <Input value={why} onChange={(_, d) => setWhy(d.value)} />
-              </Field>
-              <Button size="small" onClick={() => decline.mutate()} disabled={decline.isPending}>
-                Decline
-              </Button>
-            </>
-          ) : (
-            <Button size="small" onClick={() => setDeclining(true)}>
-              Decline…
+    <>
+      <div className={styles.row}>
+        <Button
+          size="small"
+          appearance="primary"
+          onClick={() => approve.mutate()}
+          disabled={approve.isPending}
+        >
+          Remove it
+        </Button>
+        {declining ? (
+          <>
+            <Field label="Why not" validationMessage={fieldError(decline.error, 'reason')}>
+              <Input value={why} onChange={(_, d) => setWhy(d.value)} />
+            </Field>
+            <Button size="small" onClick={() => decline.mutate()} disabled={decline.isPending}>
+              Decline
             </Button>
-          )}
-        </div>
-        <FormError error={approve.error} />
-      </TableCell>
-    </TableRow>
+          </>
+        ) : (
+          <Button size="small" onClick={() => setDeclining(true)}>
+            Decline…
+          </Button>
+        )}
+      </div>
+      <FormError error={approve.error} />
+    </>
   );
 }
+
+const columns: Array<ListColumn<RedactionRequest>> = [
+  { id: 'asked', header: 'Asked', cell: (r) => formatDate(r.createdAt) },
+  { id: 'entry', header: 'Entry', cell: (r) => `${formatLotCode(r.lot)} · entry ${r.seq} (${r.kind})` },
+  { id: 'why', header: 'Why', cell: (r) => r.note },
+  { id: 'decision', header: 'Decision', cell: (r) => <Decision r={r} /> },
+];
 
 function Redactions() {
   const styles = useStyles();
@@ -192,23 +186,7 @@ function Redactions() {
         <Title3 as="h2">Holders’ requests</Title3>
         {requests.data?.length === 0 && <Text>No requests are waiting.</Text>}
         {requests.data && requests.data.length > 0 && (
-          <div className={styles.scroller}>
-            <Table aria-label="Holders’ requests">
-              <TableHeader>
-                <TableRow>
-                  <TableHeaderCell>Asked</TableHeaderCell>
-                  <TableHeaderCell>Entry</TableHeaderCell>
-                  <TableHeaderCell>Why</TableHeaderCell>
-                  <TableHeaderCell>Decision</TableHeaderCell>
-                </TableRow>
-              </TableHeader>
-              <TableBody>
-                {requests.data.map((r) => (
-                  <RequestRow key={r.id} r={r} />
-                ))}
-              </TableBody>
-            </Table>
-          </div>
+          <DataTable label="Holders’ requests" columns={columns} rows={requests.data} rowKey={(r) => r.id} />
         )}
       </div>
     </section>
