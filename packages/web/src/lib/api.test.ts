@@ -2,8 +2,6 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { api, ApiError, CSRF_HEADER, IDEMPOTENCY_HEADER, RETRY_DELAYS_MS, sendPendingWrites } from './api';
 import { pendingWrites } from './pending-writes';
 
-afterEach(() => vi.unstubAllGlobals());
-
 function stubFetch(status: number, body: unknown) {
   const fetchMock = vi.fn(
     async () =>

@@ -2,7 +2,7 @@ import { Button, Field, makeStyles, Text, Textarea, Title2, tokens } from '@flue
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
 import { Navigate } from 'react-router-dom';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { ActionDialog, PanelDialog } from '../../shared/ui/ActionDialog';
 import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
@@ -30,7 +30,6 @@ const STATUSES: Array<{ value: RegistryParams['status']; label: string }> = [
   { value: 'suspended', label: 'Suspended' },
   { value: 'rejected', label: 'Not accepted' },
 ];
-const PAGE_SIZE = 20;
 const SORTS = ['business', 'town', 'applied'];
 
 type Action = 'approve' | 'reject' | 'suspend' | 'reinstate';
@@ -137,15 +136,7 @@ function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: ()
     ['Applied', formatDate(target.appliedAt)],
   ];
   return (
-    <ActionDialog
-      title={`Application of ${target.displayName}`}
-      close={onClose}
-      onSubmit={onClose}
-      submitLabel="Close"
-      pending={false}
-      done
-      narrow
-    >
+    <PanelDialog title={`Application of ${target.displayName}`} close={onClose}>
       <dl className={styles.facts}>
         {facts.map(([term, detail]) => (
           <Fragment key={term}>
@@ -154,7 +145,7 @@ function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: ()
           </Fragment>
         ))}
       </dl>
-    </ActionDialog>
+    </PanelDialog>
   );
 }
 
@@ -239,7 +230,7 @@ export function RegistryPage() {
     'pending') as RegistryParams['status'];
   const sort = list.sort ? `${list.sort.desc ? '-' : ''}${list.sort.key}` : 'applied';
   const query = useQuery({
-    ...registryQuery({ status, sort, page: list.page, pageSize: PAGE_SIZE }),
+    ...registryQuery({ status, sort, page: list.page, pageSize: list.pageSize }),
     enabled: account?.role === 'registrar',
   });
 
@@ -263,13 +254,10 @@ export function RegistryPage() {
       <ListView
         label="Accounts"
         columns={columns}
-        data={query.data}
-        rowKey={(a) => a.id}
+        query={query}
         list={list}
-        pageSize={PAGE_SIZE}
         noun={['account', 'accounts']}
-        empty={<Text>No accounts here.</Text>}
-        wide
+        empty="No accounts here."
       />
       {dialog?.action === 'reject' || dialog?.action === 'suspend' ? (
         <ReasonDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />

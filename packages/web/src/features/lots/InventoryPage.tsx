@@ -26,7 +26,12 @@ import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { Link, Navigate, useNavigate } from 'react-router-dom';
 import type { ListColumn } from '../../shared/ui/list/DataTable';
-import { oneOf, useListParams, type ListSort as UrlSort } from '../../shared/ui/list/list-params';
+import {
+  oneOf,
+  useListParams,
+  type ListParams,
+  type ListSort as UrlSort,
+} from '../../shared/ui/list/list-params';
 import { ListView } from '../../shared/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { toCsv } from './csv';
@@ -41,7 +46,6 @@ import {
   type LotSummary,
 } from './lots.api';
 
-const PAGE_SIZE = 20;
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 const DEFAULT_SORT: UrlSort = { key: 'updated', desc: true };
 
@@ -77,11 +81,11 @@ const useStyles = makeStyles({
 });
 
 /** The list's parameters for the server, from the address. */
-function lotParams(search: URLSearchParams, page: number, sort: UrlSort | undefined): LotListParams {
+function lotParams({ search, page, pageSize, sort }: ListParams): LotListParams {
   const listed = search.get('listed');
   return {
     page,
-    pageSize: PAGE_SIZE,
+    pageSize,
     sort: (sort?.key ?? DEFAULT_SORT.key) as ListSort,
     order: (sort ?? DEFAULT_SORT).desc ? 'desc' : 'asc',
     q: search.get('q')?.trim() || undefined,
@@ -211,7 +215,7 @@ export function InventoryPage() {
   const navigate = useNavigate();
   const list = useListParams({ sort: DEFAULT_SORT, sorts: LIST_SORTS });
   const { update } = list;
-  const params = lotParams(list.search, list.page, list.sort);
+  const params = lotParams(list);
   const columns = useColumns();
   const [text, setText] = useState(params.q ?? '');
   const [exporting, setExporting] = useState(false);
@@ -334,13 +338,11 @@ export function InventoryPage() {
         <ListView
           label="Lots"
           columns={columns}
-          data={query.data}
+          query={query}
           rowKey={(r) => r.code}
           list={list}
-          pageSize={PAGE_SIZE}
           noun={['lot', 'lots']}
           size="small"
-          stale={query.isPlaceholderData}
           card={(r) => <LotCard lot={r} />}
           empty={
             <Card className={styles.empty}>

@@ -2,7 +2,7 @@ import * as core from '@beadroll/core';
 import { QueryClient } from '@tanstack/react-query';
 import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import {
   ABC_BYTES,
   ASSESSOR,
@@ -35,7 +35,6 @@ beforeEach(() => {
   URL.createObjectURL = vi.fn(() => `blob:test/${++n}`);
   URL.revokeObjectURL = vi.fn();
 });
-afterEach(() => vi.unstubAllGlobals());
 
 function serve(data: PublicLotResponse) {
   served.set(`/api/public/lots/${data.code}`, () => json(data));

@@ -41,8 +41,8 @@ export function RecordPage() {
 function Record() {
   const styles = useStyles();
   const listStyles = useListStyles();
-  const list = useListParams();
-  const query = useQuery(actionsQuery({ page: list.page, pageSize: PAGE_SIZE }));
+  const list = useListParams({ pageSize: PAGE_SIZE });
+  const query = useQuery(actionsQuery({ page: list.page, pageSize: list.pageSize }));
   return (
     <section className={listStyles.page} aria-labelledby="record-title">
       <Title2 as="h1" id="record-title">
@@ -63,13 +63,10 @@ function Record() {
       <ListView
         label="Registrar’s record"
         columns={columns}
-        data={query.data}
-        rowKey={(a) => a.id}
+        query={query}
         list={list}
-        pageSize={PAGE_SIZE}
         noun={['decision', 'decisions']}
-        empty={<Text>Nothing on the record yet.</Text>}
-        wide
+        empty="Nothing on the record yet."
       />
     </section>
   );

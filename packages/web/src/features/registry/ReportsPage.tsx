@@ -16,8 +16,6 @@ const useStyles = makeStyles({
   text: { whiteSpace: 'pre-wrap', maxWidth: '28rem' },
 });
 
-const PAGE_SIZE = 20;
-
 function CloseDialog({ report, onClose }: { report: Report; onClose: () => void }) {
   const client = useQueryClient();
   const [resolution, setResolution] = useState('');
@@ -97,7 +95,7 @@ function Reports() {
   const [closing, setClosing] = useState<Report | null>(null);
   const columns = useColumns(setClosing);
   const status = list.search.get('status') === 'closed' ? 'closed' : 'open';
-  const query = useQuery(reportsQuery({ status, page: list.page, pageSize: PAGE_SIZE }));
+  const query = useQuery(reportsQuery({ status, page: list.page, pageSize: list.pageSize }));
   return (
     <section className={styles.page} aria-labelledby="reports-title">
       <Title2 as="h1" id="reports-title">
@@ -117,13 +115,10 @@ function Reports() {
       <ListView
         label="Reports"
         columns={columns}
-        data={query.data}
-        rowKey={(r) => r.id}
+        query={query}
         list={list}
-        pageSize={PAGE_SIZE}
         noun={['report', 'reports']}
         empty={<Text>No {status} reports.</Text>}
-        wide
       />
       {closing && <CloseDialog report={closing} onClose={() => setClosing(null)} />}
     </section>

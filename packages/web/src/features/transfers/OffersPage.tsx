@@ -22,7 +22,6 @@ import {
   transfersApi,
 } from './transfers.api';
 
-const PAGE_SIZE = 20;
 const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
   { value: 'all', label: 'All' },
   { value: 'open', label: 'Waiting' },
@@ -184,7 +183,7 @@ export function OffersPage({ box }: { box: OfferBox }) {
   const columns = useColumns(box);
   const status = FILTERS.find((f) => f.value === list.search.get('status'))?.value ?? 'all';
   const query = useQuery({
-    ...offersQuery(box, status === 'all' ? undefined : status, list.page, PAGE_SIZE),
+    ...offersQuery(box, status === 'all' ? undefined : status, list.page, list.pageSize),
     enabled: account?.role === 'dealer',
   });
   const [offering, setOffering] = useState(false);
@@ -223,13 +222,10 @@ export function OffersPage({ box }: { box: OfferBox }) {
       <ListView
         label={title}
         columns={columns}
-        data={query.data}
-        rowKey={(o) => o.id}
+        query={query}
         list={list}
-        pageSize={PAGE_SIZE}
         noun={['offer', 'offers']}
-        empty={<Text>No offers here.</Text>}
-        wide
+        empty="No offers here."
       />
       {box === 'outgoing' ? <Invitations /> : null}
       {offering ? (

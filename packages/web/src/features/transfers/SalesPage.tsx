@@ -10,7 +10,6 @@ import { useSession } from '../accounts/accounts.api';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { formatMoney, type Sale, type SaleReceiptFilter, salesQuery } from './transfers.api';
 
-const PAGE_SIZE = 20;
 const RECEIPTS: Array<{ value: 'all' | 'sent' | 'none'; label: string }> = [
   { value: 'all', label: 'All sales' },
   { value: 'sent', label: 'Receipt sent' },
@@ -64,7 +63,7 @@ export function SalesPage() {
       receipt === 'all' ? undefined : (receipt as SaleReceiptFilter),
       undefined,
       list.page,
-      PAGE_SIZE,
+      list.pageSize,
     ),
     enabled: account?.role === 'dealer',
   });
@@ -103,13 +102,10 @@ export function SalesPage() {
       <ListView
         label="Sales"
         columns={columns}
-        data={query.data}
-        rowKey={(s) => s.id}
+        query={query}
         list={list}
-        pageSize={PAGE_SIZE}
         noun={['sale', 'sales']}
-        empty={<Text>No sales here yet.</Text>}
-        wide
+        empty="No sales here yet."
       />
       {recording ? <RecordSaleDialog onClose={() => setRecording(false)} onDone={setDone} /> : null}
     </section>

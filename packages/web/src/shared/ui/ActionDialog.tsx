@@ -15,6 +15,7 @@ import type { ReactNode } from 'react';
 const useStyles = makeStyles({
   surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
   narrow: { maxWidth: 'min(560px, 100vw - 16px)' },
+  wide: { maxWidth: 'min(1100px, 96vw)' },
   content: { display: 'grid', gap: tokens.spacingVerticalM, maxHeight: '70vh', overflowY: 'auto' },
 });
 
@@ -75,6 +76,42 @@ export function ActionDialog({
             </DialogActions>
           </DialogBody>
         </form>
+      </DialogSurface>
+    </Dialog>
+  );
+}
+
+/**
+ * A modal that shows something (a photo, an application, a form with its own buttons) with one
+ * Close button. `wide` gives room to a long form or a large picture.
+ */
+export function PanelDialog({
+  title,
+  close,
+  wide = false,
+  children,
+}: {
+  title: string;
+  close: () => void;
+  wide?: boolean;
+  children: ReactNode;
+}) {
+  const styles = useStyles();
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
+      <DialogSurface
+        className={mergeClasses(styles.surface, wide ? styles.wide : styles.narrow)}
+        aria-describedby={undefined}
+      >
+        <DialogBody>
+          <DialogTitle>{title}</DialogTitle>
+          <DialogContent className={styles.content}>{children}</DialogContent>
+          <DialogActions>
+            <Button appearance="primary" onClick={close}>
+              Close
+            </Button>
+          </DialogActions>
+        </DialogBody>
       </DialogSurface>
     </Dialog>
   );

@@ -71,39 +71,36 @@ export function Pager({
 
 /**
  * One page of a server-paged list: the table (sorting by its headings), optionally a card per
- * row on a phone, and the pager. The order and page live in the address through `list`.
- * `data` is the page the server sent (undefined while the first one loads); `empty` shows in
- * place of the table when the list has no rows.
+ * row on a phone, and the pager. The order and page live in the address through `list`;
+ * `query` is the page the server sent (no data while the first one loads, placeholder data
+ * while the next one does); `empty` shows in place of the table when the list has no rows.
  */
 export function ListView<T extends RowData>({
   label,
   columns,
-  data,
-  rowKey,
+  query,
+  rowKey = (row) => (row as { id: string }).id,
   list,
-  pageSize,
   noun,
   empty,
-  stale = false,
-  wide = false,
   size,
   card,
 }: {
   label: string;
   columns: ReadonlyArray<ListColumn<T>>;
-  data: { items: readonly T[]; total: number } | undefined;
-  rowKey: (row: T) => string;
+  query: { data?: { items: readonly T[]; total: number }; isPlaceholderData?: boolean };
+  /** Each row's key; the row's `id` unless told otherwise. */
+  rowKey?: (row: T) => string;
   list: ListParams;
-  pageSize: number;
   noun: readonly [string, string];
+  /** Shown instead of the table when there are no rows; words are shown as text. */
   empty?: ReactNode;
-  stale?: boolean;
-  wide?: boolean;
   size?: 'small' | 'medium';
   /** A phone shows each row as this card instead of the table. */
   card?: (row: T) => ReactNode;
 }) {
   const styles = useStyles();
+  const { data, isPlaceholderData: stale = false } = query;
   const items = data?.items ?? [];
   const total = data?.total ?? 0;
   const table = (
@@ -114,11 +111,12 @@ export function ListView<T extends RowData>({
       rowKey={rowKey}
       sort={list.sort}
       onSort={list.setSort}
-      wide={wide}
+      wide
       size={size}
     />
   );
-  if (data && total === 0 && empty !== undefined) return <>{empty}</>;
+  if (data && total === 0 && empty !== undefined)
+    return typeof empty === 'string' ? <Text>{empty}</Text> : <>{empty}</>;
   return (
     <>
       <div className={stale ? styles.stale : undefined} aria-busy={stale}>
@@ -139,7 +137,7 @@ export function ListView<T extends RowData>({
         <Pager
           page={list.page}
           total={total}
-          pageSize={pageSize}
+          pageSize={list.pageSize}
           noun={noun}
           loading={stale}
           onPage={list.setPage}

@@ -19,7 +19,8 @@ export function oneOf<T extends string>(value: string | null, allowed: readonly 
 export function useListParams({
   sort: defaultSort,
   sorts,
-}: { sort?: ListSort; sorts?: readonly string[] } = {}) {
+  pageSize = 20,
+}: { sort?: ListSort; sorts?: readonly string[]; pageSize?: number } = {}) {
   const [search, setSearch] = useSearchParams();
   const page = Math.max(1, Math.floor(Number(search.get('page'))) || 1);
   const key = search.get('sort');
@@ -39,6 +40,7 @@ export function useListParams({
   return {
     search,
     page,
+    pageSize,
     sort,
     update,
     setPage: (p: number) => update({ page: p > 1 ? String(p) : undefined }),
