@@ -1,4 +1,4 @@
-import { Button, Field, makeStyles, Text, Textarea, Title2, tokens } from '@fluentui/react-components';
+import { Button, Field, makeStyles, Text, Textarea, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
 import { Navigate } from 'react-router-dom';
@@ -11,6 +11,7 @@ import { useListParams } from '../../shared/ui/list/list-params';
 import { ListView, useListStyles } from '../../shared/ui/list/ListView';
 import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
 import { ROLE_LABEL } from './labels';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
   facts: {
@@ -239,10 +240,7 @@ export function RegistryPage() {
   if (account.role !== 'registrar') return <Text>Only the registrar can see this page.</Text>;
 
   return (
-    <section className={styles.page} aria-labelledby="registry-title">
-      <Title2 as="h1" id="registry-title">
-        Account verification
-      </Title2>
+    <Page title="Account verification">
       <div className={styles.tabs}>
         <FilterButtons
           label="Accounts by status"
@@ -268,6 +266,6 @@ export function RegistryPage() {
       {dialog?.action === 'read' ? (
         <ApplicationDialog target={dialog.target} onClose={() => setDialog(null)} />
       ) : null}
-    </section>
+    </Page>
   );
 }

@@ -15,7 +15,6 @@ import {
   TableHeaderCell,
   TableRow,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
@@ -26,6 +25,7 @@ import { useSession } from '../accounts/accounts.api';
 import { FormError } from '../../shared/ui/FormPage';
 import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { lotImportsApi, type CheckResult, type Mapping, type SheetInfo } from './lot-imports.api';
+import { Page } from '../../shared/ui/Page';
 
 const PROBLEM_COLUMNS: Array<ListColumn<{ row: number; key: string; column: string; message: string }>> = [
   { id: 'row', header: 'Row', cell: (p) => p.row },
@@ -34,12 +34,6 @@ const PROBLEM_COLUMNS: Array<ListColumn<{ row: number; key: string; column: stri
 ];
 
 const useStyles = makeStyles({
-  page: {
-    display: 'grid',
-    gridTemplateColumns: 'minmax(0, 1fr)',
-    gap: tokens.spacingVerticalL,
-    maxWidth: '960px',
-  },
   step: {
     display: 'grid',
     gap: tokens.spacingVerticalM,
@@ -104,10 +98,7 @@ export function ImportLotsPage() {
   const ready = checked !== null && checked.rows.length === 0 && checked.total > 0;
 
   return (
-    <section className={styles.page} aria-labelledby="import-title">
-      <Title2 as="h1" id="import-title">
-        Import lots from a spreadsheet
-      </Title2>
+    <Page title="Import lots from a spreadsheet" width="medium">
       <Text>
         For a large purchase: one row per lot, up to 500 lots at once. Nothing is written until every row is
         right, and then all of them are registered together.
@@ -271,6 +262,6 @@ export function ImportLotsPage() {
           {run.isSuccess ? <Link to="/lots">See them in the inventory</Link> : null}
         </section>
       ) : null}
-    </section>
+    </Page>
   );
 }

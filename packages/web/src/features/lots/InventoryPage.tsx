@@ -19,7 +19,6 @@ import {
   SearchBox,
   Spinner,
   Text,
-  Title2,
   tokens,
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
@@ -45,6 +44,7 @@ import {
   type LotListParams,
   type LotSummary,
 } from './lots.api';
+import { Page } from '../../shared/ui/Page';
 
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 const DEFAULT_SORT: UrlSort = { key: 'updated', desc: true };
@@ -57,14 +57,6 @@ const SOURCE_NOTE: Record<NonNullable<LotSummary['originSource']>, string> = {
 };
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
-  top: {
-    display: 'flex',
-    flexWrap: 'wrap',
-    gap: tokens.spacingHorizontalM,
-    alignItems: 'center',
-    justifyContent: 'space-between',
-  },
   filters: {
     display: 'grid',
     gridTemplateColumns: 'repeat(auto-fit, minmax(10rem, 1fr))',
@@ -256,11 +248,9 @@ export function InventoryPage() {
   };
 
   return (
-    <section className={styles.page} aria-labelledby="inventory-title">
-      <div className={styles.top}>
-        <Title2 as="h1" id="inventory-title">
-          Inventory
-        </Title2>
+    <Page
+      title="Inventory"
+      actions={
         <div className={styles.buttons}>
           <Button onClick={exportCsv} disabled={exporting || total === 0}>
             {exporting ? 'Preparing…' : 'Export CSV'}
@@ -271,7 +261,8 @@ export function InventoryPage() {
             </Button>
           ) : null}
         </div>
-      </div>
+      }
+    >
       <div className={styles.filters} role="search" aria-label="Find lots">
         <Field label="Search">
           <SearchBox
@@ -368,7 +359,7 @@ export function InventoryPage() {
           }
         />
       )}
-    </section>
+    </Page>
   );
 }
 

@@ -6,7 +6,6 @@ import {
   ProgressBar,
   Field,
   Text,
-  Title2,
   tokens,
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
@@ -14,9 +13,9 @@ import { useRef, useState } from 'react';
 import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { runAudit, type AuditEvent } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '960px' },
   sub: { color: tokens.colorNeutralForeground3 },
 });
 
@@ -76,10 +75,7 @@ function Audit() {
   const share =
     progress && progress.lots > 0 ? progress.lotsChecked / progress.lots : running ? undefined : 0;
   return (
-    <section className={styles.page} aria-labelledby="audit-title">
-      <Title2 as="h1" id="audit-title">
-        Full-ledger audit
-      </Title2>
+    <Page title="Full-ledger audit" width="medium">
       <Text className={styles.sub}>
         Verifies every roll in the database from its first entry: hashes, links between entries, the rules of
         each entry, parent links of split and combined lots. Then it compares every copy the database keeps
@@ -126,6 +122,6 @@ function Audit() {
       {broken.length > 0 && (
         <DataTable label="Broken rolls" columns={columns} rows={broken} rowKey={(b) => b.lot} />
       )}
-    </section>
+    </Page>
   );
 }

@@ -1,10 +1,11 @@
-import { Link, makeStyles, Text, Title2, tokens } from '@fluentui/react-components';
+import { Link, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
 import type { ListColumn } from '../../shared/ui/list/DataTable';
 import { useListParams } from '../../shared/ui/list/list-params';
 import { ListView, useListStyles } from '../../shared/ui/list/ListView';
 import { actionsQuery, type RegistrarAction } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
   row: { display: 'flex', gap: tokens.spacingHorizontalL, alignItems: 'center', flexWrap: 'wrap' },
@@ -44,10 +45,7 @@ function Record() {
   const list = useListParams({ pageSize: PAGE_SIZE });
   const query = useQuery(actionsQuery({ page: list.page, pageSize: list.pageSize }));
   return (
-    <section className={listStyles.page} aria-labelledby="record-title">
-      <Title2 as="h1" id="record-title">
-        Registrar’s record
-      </Title2>
+    <Page title="Registrar’s record">
       <Text className={listStyles.sub}>
         Every verification decision, suspension, redaction and answered report, kept append-only: nothing here
         can be changed or deleted.
@@ -68,6 +66,6 @@ function Record() {
         noun={['decision', 'decisions']}
         empty="Nothing on the record yet."
       />
-    </section>
+    </Page>
   );
 }

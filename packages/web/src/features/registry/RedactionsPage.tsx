@@ -9,14 +9,13 @@ import {
   Option,
   Text,
   Textarea,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
 import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import {
@@ -27,9 +26,9 @@ import {
   type RedactionRequest,
 } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalXL, maxWidth: '960px' },
   form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '32rem' },
   row: { display: 'flex', gap: tokens.spacingHorizontalS, flexWrap: 'wrap' },
   sub: { color: tokens.colorNeutralForeground3 },
@@ -64,14 +63,7 @@ function RedactForm() {
     onSuccess: () => client.invalidateQueries({ queryKey: ['registry'] }),
   });
   return (
-    <form
-      className={styles.form}
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        redact.mutate();
-      }}
-    >
+    <Form className={styles.form} onSubmit={() => redact.mutate()}>
       <Title3 as="h2">Remove an entry’s contents</Title3>
       <Text className={styles.sub}>
         A redacted entry goes on the lot’s roll naming the entry and the reason; the contents (and an
@@ -120,7 +112,7 @@ function RedactForm() {
           Remove the contents
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }
 
@@ -174,13 +166,9 @@ const columns: Array<ListColumn<RedactionRequest>> = [
 ];
 
 function Redactions() {
-  const styles = useStyles();
   const requests = useQuery(redactionRequestsQuery());
   return (
-    <section className={styles.page} aria-labelledby="redactions-title">
-      <Title2 as="h1" id="redactions-title">
-        Redaction
-      </Title2>
+    <Page title="Redaction" width="medium">
       <RedactForm />
       <div>
         <Title3 as="h2">Holders’ requests</Title3>
@@ -189,6 +177,6 @@ function Redactions() {
           <DataTable label="Holders’ requests" columns={columns} rows={requests.data} rowKey={(r) => r.id} />
         )}
       </div>
-    </section>
+    </Page>
   );
 }

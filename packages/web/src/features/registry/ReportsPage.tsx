@@ -1,5 +1,5 @@
 import { formatLotCode } from '@beadroll/core';
-import { Button, Field, makeStyles, Text, Textarea, Title2 } from '@fluentui/react-components';
+import { Button, Field, makeStyles, Text, Textarea } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
@@ -11,6 +11,7 @@ import { useListParams } from '../../shared/ui/list/list-params';
 import { ListView, useListStyles } from '../../shared/ui/list/ListView';
 import { REPORT_CATEGORY_LABEL, registryToolsApi, reportsQuery, type Report } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
   text: { whiteSpace: 'pre-wrap', maxWidth: '28rem' },
@@ -97,10 +98,7 @@ function Reports() {
   const status = list.search.get('status') === 'closed' ? 'closed' : 'open';
   const query = useQuery(reportsQuery({ status, page: list.page, pageSize: list.pageSize }));
   return (
-    <section className={styles.page} aria-labelledby="reports-title">
-      <Title2 as="h1" id="reports-title">
-        Reports from public pages
-      </Title2>
+    <Page title="Reports from public pages">
       <div className={styles.tabs}>
         <FilterButtons
           label="Reports by status"
@@ -121,6 +119,6 @@ function Reports() {
         empty={<Text>No {status} reports.</Text>}
       />
       {closing && <CloseDialog report={closing} onClose={() => setClosing(null)} />}
-    </section>
+    </Page>
   );
 }

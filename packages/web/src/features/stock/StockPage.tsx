@@ -8,7 +8,6 @@ import {
   Spinner,
   Subtitle1,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
@@ -27,16 +26,9 @@ import {
   type SalesPeriod,
   type StockGroup,
 } from './stock.api';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
-  top: {
-    display: 'flex',
-    flexWrap: 'wrap',
-    gap: tokens.spacingHorizontalM,
-    alignItems: 'center',
-    justifyContent: 'space-between',
-  },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
   currency: { display: 'grid', gap: tokens.spacingVerticalM, padding: tokens.spacingHorizontalL },
   grid: {
@@ -76,11 +68,9 @@ export function StockPage() {
   const data = query.data;
 
   return (
-    <section className={styles.page} aria-labelledby="stock-title">
-      <div className={styles.top}>
-        <Title2 as="h1" id="stock-title">
-          Stock and sales
-        </Title2>
+    <Page
+      title="Stock and sales"
+      actions={
         <div className={styles.actions}>
           <Button as="a" href={stockExportUrl('csv')} download>
             Download stock as CSV
@@ -89,7 +79,8 @@ export function StockPage() {
             Download stock as XLSX
           </Button>
         </div>
-      </div>
+      }
+    >
       <Text>
         Figures from your own private details only: what you paid (your recorded cost, or the price of a
         transfer you accepted) and what you sold for. Nobody else sees them.
@@ -126,7 +117,7 @@ export function StockPage() {
           )}
         </>
       )}
-    </section>
+    </Page>
   );
 }
 

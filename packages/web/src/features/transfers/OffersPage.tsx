@@ -1,4 +1,4 @@
-import { Badge, Button, MessageBar, MessageBarBody, Text, Title2, Title3 } from '@fluentui/react-components';
+import { Badge, Button, MessageBar, MessageBarBody, Text, Title3 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
@@ -21,6 +21,7 @@ import {
   type OfferStatus,
   transfersApi,
 } from './transfers.api';
+import { Page } from '../../shared/ui/Page';
 
 const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
   { value: 'all', label: 'All' },
@@ -195,17 +196,16 @@ export function OffersPage({ box }: { box: OfferBox }) {
   if (account.role !== 'dealer') return <Text>Only dealers take part in transfers.</Text>;
 
   return (
-    <section className={styles.page} aria-labelledby="offers-title">
-      <div className={styles.head}>
-        <Title2 as="h1" id="offers-title" className={styles.grow}>
-          {title}
-        </Title2>
-        {box === 'outgoing' && canWrite ? (
+    <Page
+      title={title}
+      actions={
+        box === 'outgoing' && canWrite ? (
           <Button appearance="primary" onClick={() => setOffering(true)}>
             Offer a lot
           </Button>
-        ) : null}
-      </div>
+        ) : null
+      }
+    >
       {made ? (
         <MessageBar intent="success">
           <MessageBarBody>{made}</MessageBarBody>
@@ -240,6 +240,6 @@ export function OffersPage({ box }: { box: OfferBox }) {
           }
         />
       ) : null}
-    </section>
+    </Page>
   );
 }

@@ -1,4 +1,4 @@
-import { Button, MessageBar, MessageBarBody, Text, Title2 } from '@fluentui/react-components';
+import { Button, MessageBar, MessageBarBody, Text } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
@@ -9,6 +9,7 @@ import { ListView, useListStyles } from '../../shared/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { formatMoney, type Sale, type SaleReceiptFilter, salesQuery } from './transfers.api';
+import { Page } from '../../shared/ui/Page';
 
 const RECEIPTS: Array<{ value: 'all' | 'sent' | 'none'; label: string }> = [
   { value: 'all', label: 'All sales' },
@@ -73,17 +74,16 @@ export function SalesPage() {
   if (account.role !== 'dealer') return <Text>Only dealers record sales.</Text>;
 
   return (
-    <section className={styles.page} aria-labelledby="sales-title">
-      <div className={styles.head}>
-        <Title2 as="h1" id="sales-title" className={styles.grow}>
-          Sales
-        </Title2>
-        {canWrite ? (
+    <Page
+      title="Sales"
+      actions={
+        canWrite ? (
           <Button appearance="primary" onClick={() => setRecording(true)}>
             Record a sale
           </Button>
-        ) : null}
-      </div>
+        ) : null
+      }
+    >
       {done ? (
         <MessageBar intent="success">
           <MessageBarBody>
@@ -108,6 +108,6 @@ export function SalesPage() {
         empty="No sales here yet."
       />
       {recording ? <RecordSaleDialog onClose={() => setRecording(false)} onDone={setDone} /> : null}
-    </section>
+    </Page>
   );
 }

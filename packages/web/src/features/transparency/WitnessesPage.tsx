@@ -1,7 +1,7 @@
 import { Button, Field, Input, makeStyles, Text, Title2, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
 import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { RegistrarOnly } from '../registry/RegistrarOnly';
 import { witnessesApi, witnessesQuery, type Witness } from './witnesses.api';
@@ -69,14 +69,7 @@ function Witnesses() {
       )}
       <DataTable label="Witnesses" columns={columns} rows={q.data?.items ?? []} rowKey={(w) => w.id} />
       {q.data && q.data.items.length === 0 && <Text>No witness is registered yet.</Text>}
-      <form
-        className={styles.form}
-        noValidate
-        onSubmit={(e) => {
-          e.preventDefault();
-          register.mutate();
-        }}
-      >
+      <Form className={styles.form} onSubmit={() => register.mutate()}>
         <Field
           label="Register a witness by its key"
           hint="The witness prints it with npm run witness -- --print-key: name+keyid+key"
@@ -90,7 +83,7 @@ function Witnesses() {
             Register the witness
           </Button>
         </div>
-      </form>
+      </Form>
     </div>
   );
 }

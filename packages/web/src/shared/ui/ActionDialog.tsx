@@ -11,6 +11,7 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
+import { Form } from './FormPage';
 
 const useStyles = makeStyles({
   surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
@@ -54,13 +55,7 @@ export function ActionDialog({
         className={mergeClasses(styles.surface, narrow && styles.narrow)}
         aria-describedby={describedBy}
       >
-        <form
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            onSubmit();
-          }}
-        >
+        <Form onSubmit={onSubmit}>
           <DialogBody>
             <DialogTitle>{title}</DialogTitle>
             <DialogContent className={styles.content}>{children}</DialogContent>
@@ -75,7 +70,7 @@ export function ActionDialog({
               )}
             </DialogActions>
           </DialogBody>
-        </form>
+        </Form>
       </DialogSurface>
     </Dialog>
   );
