@@ -4,13 +4,6 @@ import type { LotActionContext } from '../lots/lot-actions';
 import { lotsQueries } from '../lots/lots.api';
 import { OpinionForm } from './OpinionForm';
 
-/** Verified dealers and assessors may record an opinion: the holder always, anyone else on a listed lot. */
-export function mayRecordOpinion(ctx: LotActionContext): boolean {
-  const v = ctx.viewer;
-  if (!v || v.status !== 'verified' || (v.role !== 'dealer' && v.role !== 'assessor')) return false;
-  return ctx.state.holder === v.id || ctx.state.listed;
-}
-
 /** The opinion form in a dialog on the lot page; the attribution aid reads the lot's newest clues. */
 export function OpinionAction({ code, state, viewer, close }: LotActionContext & { close: () => void }) {
   const lot = useQuery(lotsQueries.detail(code));
