@@ -84,7 +84,7 @@ export function AccountPage() {
     ['Verified since', formatDate(account.verifiedSince)],
   ];
   return (
-    <Page title={account.displayName} width="narrow">
+    <Page title={account.displayName} width="narrow" headingId="account-title">
       <div>
         <Badge appearance="tint" color={account.status === 'verified' ? 'success' : 'warning'}>
           {STATUS_LABEL[account.status]}

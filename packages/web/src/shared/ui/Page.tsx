@@ -17,15 +17,19 @@ export function Page({
   title,
   actions,
   width,
+  headingId,
   children,
 }: {
   title: ReactNode;
+  /** A fixed id for the heading, where something links to it; otherwise one is made up. */
+  headingId?: string;
   actions?: ReactNode;
   width?: 'narrow' | 'medium';
   children: ReactNode;
 }) {
   const styles = useStyles();
-  const id = useId();
+  const madeId = useId();
+  const id = headingId ?? madeId;
   const heading = (
     <Title2 as="h1" id={id} className={actions ? styles.grow : undefined}>
       {title}
