@@ -1,5 +1,5 @@
 import { existsSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
@@ -107,6 +107,20 @@ function isServerPath(path: string): boolean {
   );
 }
 
+/**
+ * The service workers and web app manifests keep their names from one release to the next:
+ * the browser must ask again each time (never immutable, never an hour old), or a phone would
+ * keep an old worker and its old files.
+ */
+function offlineAppHeaders(res: Response, path: string): void {
+  const name = basename(path).replace(/\.(br|gz)$/, '');
+  if (/^(app|lot)-sw\.js$/.test(name)) res.setHeader('Cache-Control', 'no-cache');
+  else if (name.endsWith('.webmanifest')) {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.setHeader('Content-Type', 'application/manifest+json; charset=utf-8');
+  }
+}
+
 /** The public page with the log's verifier key written into its `beadroll-log-key` meta element. */
 function withLogKey(html: string, logKey: string): string {
   const safe = logKey.replace(/[^A-Za-z0-9./:+=_-]/g, '');
@@ -135,7 +149,7 @@ function serveWeb(app: NestExpressApplication, webDist: string, logKey: string):
   // API and development paths never name a file: skip the file lookup for them.
   const files = expressStaticGzip(webDist, {
     ...precompressed,
-    serveStatic: { index: false, maxAge: '1h' },
+    serveStatic: { index: false, maxAge: '1h', setHeaders: offlineAppHeaders },
   });
   app.use((req: Request, res: Response, next: NextFunction) =>
     isServerPath(req.path) ? next() : files(req, res, next),

@@ -21,6 +21,9 @@ describe('web delivery', () => {
     writeFileSync(join(dir, 'assets', 'public-AbC123.js'), script);
     writeFileSync(join(dir, 'assets', 'public-AbC123.js.br'), brotliCompressSync(script));
     writeFileSync(join(dir, 'assets', 'public-AbC123.js.gz'), gzipSync(script));
+    writeFileSync(join(dir, 'lot-sw.js'), 'self.addEventListener("fetch", () => {});\n');
+    writeFileSync(join(dir, 'app-sw.js'), 'self.addEventListener("fetch", () => {});\n');
+    writeFileSync(join(dir, 'lot.webmanifest'), '{"name":"Lot history"}');
     t = await createTestApp({ WEB_DIST: dir });
   });
   afterAll(async () => {
@@ -79,5 +82,22 @@ describe('web delivery', () => {
     expect((await get('/l/7K2QM9XAA')).headers['link']).toBeUndefined();
     expect((await get('/l/%E0%A4%A')).headers['link']).toBeUndefined();
     expect((await get('/lots')).headers['link']).toBeUndefined();
+  });
+
+  // A service worker's script keeps its address across releases, so it must be checked with the
+  // server every time (no-cache, RFC 9111 §5.2.2.4), never kept as immutable; the W3C Service
+  // Workers spec's update check looks at the script only when the HTTP cache lets it through.
+  // The web app manifest is served as application/manifest+json (W3C Web Application Manifest §1.1).
+  it('sends the service workers and the web app manifest to be checked again every time', async () => {
+    for (const path of ['/lot-sw.js', '/app-sw.js']) {
+      const sw = await get(path, 'gzip, deflate, br');
+      expect(sw.status).toBe(200);
+      expect(sw.headers['content-type']).toMatch(/javascript/);
+      expect(sw.headers['cache-control']).toBe('no-cache');
+    }
+    const manifest = await get('/lot.webmanifest');
+    expect(manifest.status).toBe(200);
+    expect(manifest.headers['content-type']).toMatch(/^application\/manifest\+json/);
+    expect(manifest.headers['cache-control']).toBe('no-cache');
   });
 });

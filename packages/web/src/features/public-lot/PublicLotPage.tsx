@@ -76,7 +76,12 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
           {check?.ok && <OnRecord record={check.record} cards={cards} inherited={check.inherited} />}
         </div>
         <div className="pl-side">
-          <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
+          <StatusPanel
+            check={check}
+            loading={q.isPending}
+            tagRef={tagRef}
+            savedCopy={q.data?.found ? q.data.savedCopy : undefined}
+          />
           {check?.ok && data && <LogPanel code={code} bundle={data.bundle} />}
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
           {check?.ok && <LotFacts state={check.state} />}
