@@ -1,4 +1,5 @@
 import { existsSync, readFileSync } from 'node:fs';
+import type { ServerResponse } from 'node:http';
 import { basename, join } from 'node:path';
 import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
@@ -112,7 +113,7 @@ function isServerPath(path: string): boolean {
  * the browser must ask again each time (never immutable, never an hour old), or a phone would
  * keep an old worker and its old files.
  */
-function offlineAppHeaders(res: Response, path: string): void {
+function offlineAppHeaders(res: ServerResponse, path: string): void {
   const name = basename(path).replace(/\.(br|gz)$/, '');
   if (/^(app|lot)-sw\.js$/.test(name)) res.setHeader('Cache-Control', 'no-cache');
   else if (name.endsWith('.webmanifest')) {

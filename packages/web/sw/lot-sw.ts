@@ -34,29 +34,42 @@ const markSavedCopy: WorkboxPlugin = {
   },
 };
 
+const onlyWhole: WorkboxPlugin = {
+  cacheWillUpdate: async ({ response }) => (response.status === 200 ? response : null),
+};
+
 // The page itself: fresh from the server when it answers (it carries the log's current key).
-registerRoute(
-  ({ request }) => request.mode === 'navigate',
-  new NetworkFirst({
-    cacheName: 'beadroll-lot-pages',
-    networkTimeoutSeconds: NETWORK_TIMEOUT_S,
-    plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS })],
-  }),
-);
+const pages = new NetworkFirst({
+  cacheName: 'beadroll-lot-pages',
+  networkTimeoutSeconds: NETWORK_TIMEOUT_S,
+  plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS }), onlyWhole],
+});
+registerRoute(({ request }) => request.mode === 'navigate', pages);
 
 // The lot's data and bundle: only answers that were given in full (200) are kept.
-registerRoute(
-  ({ url, sameOrigin }) => sameOrigin && LOT_DATA.test(url.pathname),
-  new NetworkFirst({
-    cacheName: 'beadroll-lot-data',
-    networkTimeoutSeconds: NETWORK_TIMEOUT_S,
-    plugins: [
-      new ExpirationPlugin({ maxEntries: MAX_LOTS * 2 }),
-      { cacheWillUpdate: async ({ response }) => (response.status === 200 ? response : null) },
-      markSavedCopy,
-    ],
-  }),
-);
+const lotData = new NetworkFirst({
+  cacheName: 'beadroll-lot-data',
+  networkTimeoutSeconds: NETWORK_TIMEOUT_S,
+  plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS * 2 }), onlyWhole, markSavedCopy],
+});
+registerRoute(({ url, sameOrigin }) => sameOrigin && LOT_DATA.test(url.pathname), lotData);
+
+// The first visit loads before this worker runs: the page then names its own address and its
+// lot's data, and they are fetched once more through the routes above, so that visit is kept too.
+self.addEventListener('message', (event) => {
+  const msg = event.data as { type?: unknown; page?: unknown; lotData?: unknown } | null;
+  if (msg?.type !== 'keep-lot') return;
+  const scope = self.registration.scope;
+  const jobs: Promise<unknown>[] = [];
+  if (typeof msg.page === 'string' && msg.page.startsWith(scope))
+    jobs.push(pages.handleAll({ event, request: new Request(msg.page) })[1]);
+  if (typeof msg.lotData === 'string') {
+    const url = new URL(msg.lotData, self.location.href);
+    if (url.origin === self.location.origin && LOT_DATA.test(url.pathname))
+      jobs.push(lotData.handleAll({ event, request: new Request(url, { credentials: 'same-origin' }) })[1]);
+  }
+  event.waitUntil(Promise.all(jobs).catch(() => undefined));
+});
 
 // Photos and their thumbnails: the bytes of an entry's exhibit never change.
 registerRoute(
@@ -65,7 +78,7 @@ registerRoute(
     cacheName: 'beadroll-lot-exhibits',
     plugins: [
       new ExpirationPlugin({ maxEntries: 200, maxAgeSeconds: 30 * 24 * 3600 }),
-      { cacheWillUpdate: async ({ response }) => (response.status === 200 ? response : null) },
+      onlyWhole,
     ],
   }),
 );

@@ -13,6 +13,7 @@ import { formatLotCode } from '@beadroll/core';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
+import { ApiError } from '../../lib/api';
 import type { QueuedWrite } from '../../lib/outbox';
 import { OutboxPanel } from '../outbox/OutboxPanel';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
@@ -57,7 +58,10 @@ export function ScannedLotPage() {
 
   // No signal and the lot not opened before on this page: the code from the tag is all there is.
   // A sale can still be recorded; it waits on this device and the server checks it when sent.
-  if (lot.isPending && lot.fetchStatus === 'paused')
+  const noSignal =
+    (lot.isPending && (lot.fetchStatus === 'paused' || navigator.onLine === false)) ||
+    (lot.isError && lot.error instanceof ApiError && lot.error.status === 0);
+  if (noSignal)
     return (
       <section className={styles.page} aria-labelledby="lot-title">
         <OutboxPanel />

@@ -1,0 +1,258 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { formatLotCode } from '@beadroll/core';
+import pg from 'pg';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot, type Browser } from './support/browser';
+
+// Offline at a fair: the public page opened once opens again with no signal, checked again in
+// the browser and marked as the saved copy; the dealer's quick sale made with no signal waits
+// on the phone and is sent once when the signal returns.
+
+// The invented demo scenario: its accounts share one password.
+const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as { password: string; accounts: Array<{ role: string; email: string; status?: string }> };
+const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
+
+/** A superuser connection to the journeys' database, to count what the server stored. */
+function superuser(): pg.Client {
+  return new pg.Client({
+    host: process.env.PGHOST,
+    port: Number(process.env.PGPORT),
+    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
+    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
+    database: inject('database'),
+  });
+}
+
+/** Registers an invented listed lot for the demo dealer through the API; returns its code. */
+async function registerLot(baseUrl: string, title: string): Promise<string> {
+  const headers: Record<string, string> = { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' };
+  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers,
+    body: JSON.stringify({ email: dealer.email, password: demo.password }),
+  });
+  expect(signIn.ok).toBe(true);
+  headers.cookie = signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
+  const res = await fetch(`${baseUrl}/api/lots`, {
+    method: 'POST',
+    headers,
+    body: JSON.stringify({
+      description: {
+        title,
+        form: 'strand',
+        count: { value: 40, estimated: false },
+        colours: ['amber'],
+        baseGlass: ['transparent'],
+        decoration: [],
+        listed: true,
+      },
+      observations: { hole: 'clean' },
+    }),
+  });
+  expect(res.ok, String(res.status)).toBe(true);
+  return ((await res.json()) as { code: string }).code;
+}
+
+async function signIn(page: Page, baseUrl: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByRole('textbox', { name: 'E-mail address' }).fill(dealer.email);
+  await page.getByLabel('Password').fill(demo.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
+
+/** Waits until the page's Cache Storage holds at least one entry in each named cache. */
+async function waitForCaches(page: Page, names: string[]): Promise<void> {
+  await page.waitForFunction(
+    async (wanted) => {
+      for (const name of wanted) {
+        if (!(await caches.has(name))) return false;
+        if ((await (await caches.open(name)).keys()).length === 0) return false;
+      }
+      return true;
+    },
+    names,
+    { timeout: 30_000, polling: 250 },
+  );
+}
+
+/** The writes waiting in the phone's outbox (IndexedDB `beadroll-outbox`, store `queue`). */
+function outbox(page: Page): Promise<Array<{ key: string; label: string }>> {
+  return page.evaluate(
+    () =>
+      new Promise((ok, fail) => {
+        const open = indexedDB.open('beadroll-outbox');
+        open.onerror = () => fail(open.error);
+        open.onsuccess = () => {
+          const get = open.result.transaction('queue').objectStore('queue').get('writes');
+          get.onsuccess = () => ok((get.result as Array<{ key: string; label: string }>) ?? []);
+          get.onerror = () => fail(get.error);
+        };
+      }),
+  );
+}
+
+describe('offline at a fair', () => {
+  const baseUrl = inject('baseUrl');
+  let db: pg.Client;
+
+  beforeAll(async () => {
+    db = superuser();
+    await db.connect();
+  });
+  afterAll(async () => {
+    await db?.end();
+  });
+
+  describe('a buyer’s phone (390 px) reopening a lot page with no signal', () => {
+    let browser: Browser;
+    let code: string;
+    const title = 'Amber wound beads from the harbour stall';
+
+    beforeAll(async () => {
+      code = await registerLot(baseUrl, title);
+      browser = await openBrowser({ width: 390, height: 844 });
+    });
+    afterAll(async () => {
+      await browser?.close();
+    });
+
+    it('shows the last verified history, checked again and marked offline with its time', async () => {
+      const { page, context } = browser;
+      await page.goto(`${baseUrl}/l/${code}`);
+      await page.locator('.pl-status-line.pl-ok').waitFor();
+      // The page's worker keeps the page and the lot's data of this first visit.
+      await waitForCaches(page, ['beadroll-lot-pages', 'beadroll-lot-data']);
+
+      await context.setOffline(true);
+      await page.reload();
+      const mark = page.locator('.pl-offline-line');
+      await mark.waitFor();
+      expect(await mark.textContent()).toMatch(/^offline: as verified at .*\d{1,2}:\d{2}/);
+      await page.locator('.pl-status-line.pl-ok').waitFor();
+      expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe(title);
+      const width = await page.evaluate(() => document.documentElement.scrollWidth);
+      expect(width).toBeLessThanOrEqual(390);
+      await screenshot(page, 'offline-public-page-390');
+    });
+
+    it('says so when the saved copy no longer verifies', async () => {
+      const { page } = browser;
+      // Someone changes the kept copy on the phone: the lot's title inside its first entry.
+      const changed = await page.evaluate(
+        async ([dataPath, from]) => {
+          const cache = await caches.open('beadroll-lot-data');
+          const kept = await cache.match(dataPath);
+          if (!kept) return false;
+          const text = await kept.text();
+          const headers = new Headers(kept.headers);
+          await cache.put(dataPath, new Response(text.replace(from, 'Amber beads, swapped'), { headers }));
+          return text.includes(from);
+        },
+        [`/api/public/lots/${code}`, title] as const,
+      );
+      expect(changed).toBe(true);
+      await page.reload();
+      await page.locator('.pl-offline-line').waitFor();
+      expect(await page.locator('.pl-offline-line').textContent()).toMatch(/no longer verifies/);
+      expect(await page.locator('.pl-status-line.pl-ok').count()).toBe(0);
+      await screenshot(page, 'offline-public-page-broken-390');
+    });
+  });
+
+  describe('a dealer’s quick sale at the stand (390 px) with no signal', () => {
+    let browser: Browser;
+    let code: string;
+
+    beforeAll(async () => {
+      code = await registerLot(baseUrl, 'Striped amber beads for the stand');
+      browser = await openBrowser({ width: 390, height: 844 });
+    });
+    afterAll(async () => {
+      await browser?.close();
+    });
+
+    it('keeps the sale waiting, sends it once when the signal returns, and the lot shows sold', async () => {
+      const { page, context } = browser;
+      await signIn(page, baseUrl);
+      await page.goto(`${baseUrl}/scan`);
+      await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
+      // The dealer app's worker has precached the app.
+      await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
+
+      await context.setOffline(true);
+      await page.getByLabel('Lot code from the tag').fill(formatLotCode(code));
+      await page.getByRole('button', { name: 'Open' }).click();
+      await page.waitForURL(`${baseUrl}/scan/lots/${code}`);
+      await page
+        .getByText('No signal: the lot’s details cannot be looked up now.', { exact: false })
+        .waitFor();
+      await page.getByRole('button', { name: 'Sell' }).click();
+      await page.getByLabel('Price: amount').fill('45.00');
+      await page.getByRole('button', { name: 'Record the sale' }).click();
+      const waiting = page.getByText(`Waiting to send: 1 — sale of ${formatLotCode(code)}`);
+      await waiting.waitFor();
+      await screenshot(page, 'offline-quick-sale-waiting-390');
+
+      // Kept on the phone, not in the page: a reload with no signal still shows it waiting.
+      await page.reload();
+      await waiting.waitFor();
+      const kept = await outbox(page);
+      expect(kept).toHaveLength(1);
+      const { rows: before } = await db.query(
+        `SELECT count(*)::int AS n FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+          WHERE l."code" = $1 AND e."kind" = 'sold'`,
+        [code],
+      );
+      expect(before[0].n).toBe(0);
+
+      await context.setOffline(false);
+      await waiting.waitFor({ state: 'detached', timeout: 30_000 });
+      await page.getByText(/Status: sold/).waitFor({ timeout: 30_000 });
+
+      // The same write sent again (as after an answer lost on the way back): the server
+      // recognises its idempotency key and writes nothing more.
+      await page.evaluate(
+        (write) =>
+          new Promise<void>((ok, fail) => {
+            const open = indexedDB.open('beadroll-outbox');
+            open.onsuccess = () => {
+              const tx = open.result.transaction('queue', 'readwrite');
+              tx.objectStore('queue').put([write], 'writes');
+              tx.oncomplete = () => ok();
+              tx.onerror = () => fail(tx.error);
+            };
+          }),
+        kept[0]!,
+      );
+      await page.reload();
+      await page.getByText(/Status: sold/).waitFor({ timeout: 30_000 });
+      await page.waitForFunction(
+        () =>
+          new Promise<boolean>((ok) => {
+            const open = indexedDB.open('beadroll-outbox');
+            open.onsuccess = () => {
+              const get = open.result.transaction('queue').objectStore('queue').get('writes');
+              get.onsuccess = () => ok(((get.result as unknown[]) ?? []).length === 0);
+            };
+          }),
+        undefined,
+        { timeout: 30_000, polling: 500 },
+      );
+      const { rows } = await db.query(
+        `SELECT count(*)::int AS n FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+          WHERE l."code" = $1 AND e."kind" = 'sold'`,
+        [code],
+      );
+      expect(rows[0].n).toBe(1);
+      await screenshot(page, 'offline-quick-sale-sent-390');
+    });
+  });
+});
