@@ -76,10 +76,7 @@ registerRoute(
   ({ url, sameOrigin }) => sameOrigin && LOT_EXHIBIT.test(url.pathname),
   new CacheFirst({
     cacheName: 'beadroll-lot-exhibits',
-    plugins: [
-      new ExpirationPlugin({ maxEntries: 200, maxAgeSeconds: 30 * 24 * 3600 }),
-      onlyWhole,
-    ],
+    plugins: [new ExpirationPlugin({ maxEntries: 200, maxAgeSeconds: 30 * 24 * 3600 }), onlyWhole],
   }),
 );
 
