@@ -70,21 +70,23 @@ async function signIn(page: Page, baseUrl: string): Promise<void> {
 
 /** Waits until the page's Cache Storage holds at least one entry in each named cache. */
 async function waitForCaches(page: Page, names: string[]): Promise<void> {
-  await page.waitForFunction(
-    async (wanted) => {
+  const deadline = Date.now() + 30_000;
+  for (;;) {
+    const ready = await page.evaluate(async (wanted) => {
       for (const name of wanted) {
         if (!(await caches.has(name))) return false;
         if ((await (await caches.open(name)).keys()).length === 0) return false;
       }
       return true;
-    },
-    names,
-    { timeout: 30_000, polling: 250 },
-  );
+    }, names);
+    if (ready) return;
+    if (Date.now() > deadline) throw new Error(`the caches ${names.join(', ')} stayed empty`);
+    await page.waitForTimeout(250);
+  }
 }
 
-/** The writes waiting in the phone's outbox (IndexedDB `beadroll-outbox`, store `queue`). */
-function outbox(page: Page): Promise<Array<{ key: string; label: string }>> {
+/** Reads the writes waiting in the phone's outbox (IndexedDB `beadroll-outbox`, store `queue`). */
+function readQueue(page: Page): Promise<Array<{ key: string; label: string }>> {
   return page.evaluate(
     () =>
       new Promise((ok, fail) => {
@@ -204,7 +206,7 @@ describe('offline at a fair', () => {
       // Kept on the phone, not in the page: a reload with no signal still shows it waiting.
       await page.reload();
       await waiting.waitFor();
-      const kept = await outbox(page);
+      const kept = await readQueue(page);
       expect(kept).toHaveLength(1);
       const { rows: before } = await db.query(
         `SELECT count(*)::int AS n FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
@@ -234,18 +236,11 @@ describe('offline at a fair', () => {
       );
       await page.reload();
       await page.getByText(/Status: sold/).waitFor({ timeout: 30_000 });
-      await page.waitForFunction(
-        () =>
-          new Promise<boolean>((ok) => {
-            const open = indexedDB.open('beadroll-outbox');
-            open.onsuccess = () => {
-              const get = open.result.transaction('queue').objectStore('queue').get('writes');
-              get.onsuccess = () => ok(((get.result as unknown[]) ?? []).length === 0);
-            };
-          }),
-        undefined,
-        { timeout: 30_000, polling: 500 },
-      );
+      const deadline = Date.now() + 30_000;
+      while ((await readQueue(page)).length > 0) {
+        expect(Date.now()).toBeLessThan(deadline);
+        await page.waitForTimeout(250);
+      }
       const { rows } = await db.query(
         `SELECT count(*)::int AS n FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
           WHERE l."code" = $1 AND e."kind" = 'sold'`,
