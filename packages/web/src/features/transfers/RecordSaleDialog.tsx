@@ -19,8 +19,8 @@ import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { ApiError } from '../../lib/api';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
-import { fieldError, FormError } from '../accounts/FormPage';
-import { MoneyField } from './MoneyField';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { MoneyField } from '../../shared/ui/MoneyField';
 import { heldLotsQuery, type Sale, priceProblem, today, toMinorUnits, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
