@@ -11,11 +11,19 @@ const ICONS = [
   { src: '/icons/beadroll-maskable.svg', sizes: 'any', type: 'image/svg+xml', purpose: 'maskable' },
 ];
 
-/** Writes the two icons (drawn in icons.ts) into the build. */
+/** Writes the two icons (drawn in icons.ts) into the build, and names the icon and the theme colour in the page. */
 function emitIcons(): Plugin {
   return {
     name: 'beadroll-icons',
     apply: 'build',
+    transformIndexHtml: () => [
+      { tag: 'meta', attrs: { name: 'theme-color', content: beadrollBrand[80] }, injectTo: 'head' },
+      {
+        tag: 'link',
+        attrs: { rel: 'icon', href: '/icons/beadroll.svg', type: 'image/svg+xml' },
+        injectTo: 'head',
+      },
+    ],
     generateBundle() {
       this.emitFile({ type: 'asset', fileName: 'icons/beadroll.svg', source: iconSvg(false) });
       this.emitFile({ type: 'asset', fileName: 'icons/beadroll-maskable.svg', source: iconSvg(true) });

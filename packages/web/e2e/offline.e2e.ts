@@ -145,6 +145,27 @@ describe('offline at a fair', () => {
       await screenshot(page, 'offline-public-page-390');
     });
 
+    it('can be installed: Chromium finds a web app manifest, icons and a service worker', async () => {
+      const { page, context } = browser;
+      // The installability checks of the browser itself (DevTools protocol), on the page as served.
+      await context.setOffline(false);
+      try {
+        await page.reload();
+        await page.locator('.pl-status-line.pl-ok').waitFor();
+        const cdp = await context.newCDPSession(page);
+        const manifest = (await cdp.send('Page.getAppManifest')) as { url: string; errors: unknown[] };
+        expect(manifest.url).toBe(`${baseUrl}/lot.webmanifest?lot=${code}`);
+        expect(manifest.errors).toEqual([]);
+        const { installabilityErrors } = (await cdp.send('Page.getInstallabilityErrors')) as {
+          installabilityErrors: { errorId: string }[];
+        };
+        expect(installabilityErrors).toEqual([]);
+        await cdp.detach();
+      } finally {
+        await context.setOffline(true);
+      }
+    });
+
     it('says so when the saved copy no longer verifies', async () => {
       const { page } = browser;
       // Someone changes the kept copy on the phone: the lot's title inside its first entry.
