@@ -1,71 +1,32 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { formatLotCode } from '@beadroll/core';
-import pg from 'pg';
+import type pg from 'pg';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { screenshot } from './support/browser';
+import { apiClient, demoAccount, signIn, superuser, useBrowser } from './support/journey';
 
 // Offline at a fair: the public page opened once opens again with no signal, checked again in
 // the browser and marked as the saved copy; the dealer's quick sale made with no signal waits
 // on the phone and is sent once when the signal returns.
 
-// The invented demo scenario: its accounts share one password.
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; status?: string }> };
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
-
-/** A superuser connection to the journeys' database, to count what the server stored. */
-function superuser(): pg.Client {
-  return new pg.Client({
-    host: process.env.PGHOST,
-    port: Number(process.env.PGPORT),
-    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
-    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
-    database: inject('database'),
-  });
-}
+const dealer = demoAccount('dealer');
 
 /** Registers an invented listed lot for the demo dealer through the API; returns its code. */
 async function registerLot(baseUrl: string, title: string): Promise<string> {
-  const headers: Record<string, string> = { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' };
-  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers,
-    body: JSON.stringify({ email: dealer.email, password: demo.password }),
+  const call = await apiClient(baseUrl, dealer.email);
+  const lot = await call<{ code: string }>('/api/lots', {
+    description: {
+      title,
+      form: 'strand',
+      count: { value: 40, estimated: false },
+      colours: ['amber'],
+      baseGlass: ['transparent'],
+      decoration: [],
+      listed: true,
+    },
+    observations: { hole: 'clean' },
   });
-  expect(signIn.ok).toBe(true);
-  headers.cookie = signIn.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-  const res = await fetch(`${baseUrl}/api/lots`, {
-    method: 'POST',
-    headers,
-    body: JSON.stringify({
-      description: {
-        title,
-        form: 'strand',
-        count: { value: 40, estimated: false },
-        colours: ['amber'],
-        baseGlass: ['transparent'],
-        decoration: [],
-        listed: true,
-      },
-      observations: { hole: 'clean' },
-    }),
-  });
-  expect(res.ok, String(res.status)).toBe(true);
-  return ((await res.json()) as { code: string }).code;
-}
-
-async function signIn(page: Page, baseUrl: string): Promise<void> {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(dealer.email);
-  await page.getByLabel('Password').fill(demo.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  return lot.code;
 }
 
 /** Waits until the page's Cache Storage holds at least one entry in each named cache. */
@@ -114,16 +75,12 @@ describe('offline at a fair', () => {
   });
 
   describe('a buyer’s phone (390 px) reopening a lot page with no signal', () => {
-    let browser: Browser;
+    const browser = useBrowser({ width: 390, height: 844 });
     let code: string;
     const title = 'Amber wound beads from the harbour stall';
 
     beforeAll(async () => {
       code = await registerLot(baseUrl, title);
-      browser = await openBrowser({ width: 390, height: 844 });
-    });
-    afterAll(async () => {
-      await browser?.close();
     });
 
     it('shows the last verified history, checked again and marked offline with its time', async () => {
@@ -191,20 +148,16 @@ describe('offline at a fair', () => {
   });
 
   describe('a dealer’s quick sale at the stand (390 px) with no signal', () => {
-    let browser: Browser;
+    const browser = useBrowser({ width: 390, height: 844 });
     let code: string;
 
     beforeAll(async () => {
       code = await registerLot(baseUrl, 'Striped amber beads for the stand');
-      browser = await openBrowser({ width: 390, height: 844 });
-    });
-    afterAll(async () => {
-      await browser?.close();
     });
 
     it('keeps the sale waiting, sends it once when the signal returns, and the lot shows sold', async () => {
       const { page, context } = browser;
-      await signIn(page, baseUrl);
+      await signIn(page, baseUrl, dealer.email);
       await page.goto(`${baseUrl}/scan`);
       await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
       // The dealer app's worker has precached the app.
