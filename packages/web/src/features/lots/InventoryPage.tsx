@@ -33,12 +33,11 @@ import {
 } from '../../shared/ui/list/list-params';
 import { ListView } from '../../shared/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
-import { toCsv } from './csv';
 import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
 import {
   LIST_SORTS,
-  lotsApi,
+  lotsExportUrl,
   lotsQueries,
   type ListSort,
   type LotListParams,
@@ -173,33 +172,6 @@ function LotCard({ lot: r }: { lot: LotSummary }) {
   );
 }
 
-function download(name: string, text: string) {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.click();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
-}
-
-/** The CSV of lots: the table's columns in words. */
-export function lotsCsv(rows: readonly LotSummary[]): string {
-  return toCsv(
-    ['code', 'title', 'form', 'count', 'estimated', 'origin', 'status', 'listed', 'last entry (UTC)'],
-    rows.map((r) => [
-      r.displayCode,
-      r.title,
-      r.form ?? '',
-      r.count.value,
-      r.count.estimated ? 'yes' : 'no',
-      r.origin ?? '',
-      r.status,
-      r.listed ? 'yes' : 'no',
-      r.updatedAt,
-    ]),
-  );
-}
-
 /** The dealer's inventory: the server pages, sorts and filters; the URL keeps the view. */
 export function InventoryPage() {
   const styles = useStyles();
@@ -210,7 +182,6 @@ export function InventoryPage() {
   const params = lotParams(list);
   const columns = useColumns();
   const [text, setText] = useState(params.q ?? '');
-  const [exporting, setExporting] = useState(false);
   const query = useQuery({ ...lotsQueries.list(params), enabled: account !== null });
 
   // Searching as one types, a moment after the last key.
@@ -234,26 +205,18 @@ export function InventoryPage() {
     params.listed !== undefined,
   );
 
-  const exportCsv = async () => {
-    setExporting(true);
-    try {
-      const { page: _p, pageSize: _s, ...rest } = params;
-      download(
-        `beadroll-lots-${new Date().toISOString().slice(0, 10)}.csv`,
-        lotsCsv(await lotsApi.listAll(rest)),
-      );
-    } finally {
-      setExporting(false);
-    }
-  };
+  const { page: _p, pageSize: _s, ...filters } = params;
 
   return (
     <Page
       title="Inventory"
       actions={
         <div className={styles.buttons}>
-          <Button onClick={exportCsv} disabled={exporting || total === 0}>
-            {exporting ? 'Preparing…' : 'Export CSV'}
+          <Button as="a" href={lotsExportUrl(filters, 'csv')} download disabled={total === 0}>
+            Export CSV
+          </Button>
+          <Button as="a" href={lotsExportUrl(filters, 'xlsx')} download disabled={total === 0}>
+            Export XLSX
           </Button>
           {account.role === 'dealer' && account.status === 'verified' ? (
             <Button appearance="primary" onClick={() => navigate('/lots/new')}>

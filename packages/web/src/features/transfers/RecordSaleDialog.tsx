@@ -1,6 +1,8 @@
 import { Button, Field, Input, makeStyles, Text, Textarea, tokens } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { formatLotCode } from '@beadroll/core';
+import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { MoneyField } from '../../shared/ui/MoneyField';
@@ -24,12 +26,15 @@ export function RecordSaleDialog({
   title,
   onClose,
   onDone,
+  onQueued,
 }: {
   /** The lot; when absent the dialog asks for one of the dealer's held lots. */
   code?: string;
   title?: string;
   onClose: () => void;
   onDone?: (sale: Sale) => void;
+  /** With no signal the sale is kept on this device and sent later; told here when so. */
+  onQueued?: (write: QueuedWrite) => void;
 }) {
   const styles = useStyles();
   const client = useQueryClient();
@@ -44,17 +49,30 @@ export function RecordSaleDialog({
     mutationFn: () => {
       const minor = sealedPrice(amount, currency);
       localStorage.setItem(LAST_CURRENCY, currency);
-      return transfersApi.recordSale({
-        lot,
-        date,
-        price: { amount: minor, currency },
-        ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
-        ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
+      // At a fair stand with no signal the sale waits on this device (same key when sent).
+      return sendOrQueue<Sale>({
+        path: transfersApi.salesPath,
+        method: 'POST',
+        body: {
+          lot,
+          date,
+          price: { amount: minor, currency },
+          ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
+          ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
+        },
+        label: `sale of ${formatLotCode(lot)}`,
       });
     },
-    onSuccess: async (sale) => {
+    // Runs with no signal too: the write is then kept, not sent.
+    networkMode: 'always',
+    onSuccess: async (result) => {
+      if (!result.sent) {
+        onQueued?.(result.queued);
+        onClose();
+        return;
+      }
       await refreshAfterTransfer(client);
-      onDone?.(sale);
+      onDone?.(result.answer);
       onClose();
     },
   });
