@@ -62,6 +62,9 @@ export {
 export type { SealedField, SealedSet, SealedDisclosure } from './sealed.js';
 export {
   HEADER_KEYS,
+  VERSION_2_KINDS,
+  VERSION_3_KINDS,
+  kindSince,
   NEVER_REDACTED,
   REASON_CODES,
   buildEntry,
@@ -86,6 +89,7 @@ export type {
   RollHead,
   OpinionRecord,
   OpenOffer,
+  OpenRequest,
   ChildLink,
   RollState,
   TransitionDraft,

@@ -33,7 +33,7 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
       const r = run(join(dir, 'intact.json'));
       expect(r.err).toBe('');
       expect(r.code).toBe(0);
-      expect(r.out).toContain('6 lots, 17 entries, 3 cross-lot links');
+      expect(r.out).toContain('6 lots, 18 entries, 3 cross-lot links');
       expect(r.out.match(/ intact /g)).toHaveLength(6);
       expect(r.out).toMatch(/^verified: /m);
     });
