@@ -79,6 +79,7 @@ export {
   TRANSITION_RULES,
   VOID_WINDOW_MS,
   checkTransition,
+  requestFor,
   isReservedActor,
   opinionsDisagree,
   reduceEntry,

@@ -465,6 +465,18 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
   return done(unchecked);
 }
 
+/**
+ * The open request an opinion or evidence by `actor` would answer (format version 3): the oldest
+ * open request naming `actor`, else the oldest open to any assessor; undefined when none asks
+ * them, or `actor` is the holder. Pure. Whether `actor` really is an assessor (which a request
+ * open to any requires) is the caller's to check.
+ */
+export function requestFor(state: RollState, actor: string): number | undefined {
+  if (actor === state.holder) return undefined;
+  const open = state.openRequests ?? [];
+  return (open.find((q) => q.assessor === actor) ?? open.find((q) => q.assessor === null))?.seq;
+}
+
 /** The `request` rule fact of a draft, from its facts or its body; undefined when it has none. */
 function requestOf(draft: TransitionDraft): number | undefined {
   if (draft.facts) return draft.facts.request;

@@ -10,6 +10,7 @@ import {
   isHeaderProblem,
   parseCanonical,
   reduceEntry,
+  requestFor,
   verifyRoll,
   type BuiltEntry,
   type RollState,
@@ -129,6 +130,13 @@ describe('opinion requests (format version 3)', () => {
     });
     r.add('opinion', ASSESSOR, { ...opinion('india', 1900, 1950), request: q });
     expect(verifyRoll(r.stored).ok).toBe(true);
+  });
+  it('requestFor picks the request naming the author first, then one open to any; none for the holder', () => {
+    const { r, request } = asked(null);
+    const named = r.add('opinion-requested', HOLDER, { assessor: ASSESSOR }).header.seq;
+    expect(requestFor(r.state!, ASSESSOR)).toBe(named);
+    expect(requestFor(r.state!, THIRD)).toBe(request);
+    expect(requestFor(r.state!, HOLDER)).toBeUndefined();
   });
   it('a redacted request keeps its facts in the header, so its answer is still checked', () => {
     const { r, request } = asked();

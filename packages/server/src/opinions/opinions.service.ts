@@ -12,6 +12,7 @@ import {
   type NoteBody,
   type OpinionBody,
   type RollState,
+  requestFor,
 } from '@beadroll/core';
 import { Repository } from 'typeorm';
 import { Account } from '../accounts/entities/account.entity';
@@ -95,19 +96,21 @@ export class OpinionsService {
       const state = tx.state(code);
       const lotId = (await this.reader.findLot(code, tx.manager))!.id;
       const asked = await this.requests.isAsked(me, lotId, tx.manager);
-      // The ledger's rules admit an opinion from anyone but the holder on a listed lot only: an
-      // assessor asked about an unlisted lot reads it, and the holder lists it for the answer.
-      if (state.holder !== me.id && !state.listed)
+      // An asked assessor's opinion names the open request on the roll that asks them (core's
+      // rules then admit it on an unlisted lot too) and answers it.
+      const request = asked ? requestFor(state, me.id) : undefined;
+      if (request !== undefined) body.request = request;
+      if (state.holder !== me.id && !state.listed && request === undefined)
         throw asked
           ? new AppError(
               'roll_rule',
-              'This lot is unlisted: an opinion from anyone but its holder goes only on the roll of a listed lot. Ask the holder to list it, then record your opinion.',
+              'This lot is unlisted and its holder asked you before requests went on the roll: ask the holder to list it, or to ask you again, then record your opinion.',
             )
           : new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
       await this.checkExhibits(tx, code, body.exhibits);
       await this.checkDailyLimit(tx, code, me.id, now);
       const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });
-      if (asked) await this.requests.answer(tx.manager, lotId, me.id, entry.seq);
+      if (asked && request === undefined) await this.requests.answer(tx.manager, lotId, me.id, entry.seq);
       return {
         entry,
         dissent: entry.state.dissents.some((d) => d.seq === entry.seq),
