@@ -14,6 +14,7 @@ import { OpinionRequests1796490400000 } from '../migrations/1796490400000-Opinio
 import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
 import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddSaleVoidedKind';
 import { OpinionRequestsOnTheRoll1796490700000 } from '../migrations/1796490700000-OpinionRequestsOnTheRoll';
+import { ApplicantDocument1796490800000 } from '../migrations/1796490800000-ApplicantDocument';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -32,4 +33,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   ApplicantDetails1796490500000,
   AddSaleVoidedKind1796490600000,
   OpinionRequestsOnTheRoll1796490700000,
+  ApplicantDocument1796490800000,
 ];
