@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import {
   Checkbox,
   Field,
@@ -17,7 +17,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
-import { ActionDialog } from '../lots/ActionDialog';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { beadsText } from './words';
 

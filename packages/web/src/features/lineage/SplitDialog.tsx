@@ -16,7 +16,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
-import { ActionDialog } from '../lots/ActionDialog';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
 import { beadsText } from './words';
 

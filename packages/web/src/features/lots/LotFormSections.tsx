@@ -15,11 +15,11 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
-import { MoneyField } from '../transfers/MoneyField';
+import { MoneyField } from '../../shared/ui/MoneyField';
 import { PrivateMark } from './PrivateMark';
 
 const useStyles = makeStyles({

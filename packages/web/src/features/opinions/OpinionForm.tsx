@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import {
   Button,
   Checkbox,
@@ -28,8 +28,8 @@ import {
   yearProblem,
 } from '@beadroll/core';
 import { useMemo, useRef, useState } from 'react';
-import { focusFirstError } from '../../lib/focus-first-error';
-import { fieldError, FormError } from '../accounts/FormPage';
+import { focusFirstError } from '../../shared/ui/focus-first-error';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';
