@@ -71,6 +71,11 @@ describe('accounts in Chromium', () => {
       .png()
       .toBuffer();
     await documentInput.setInputFiles({ name: 'trade-licence.png', mimeType: 'image/png', buffer: licence });
+    const wide = page.viewportSize()!;
+    await page.setViewportSize({ width: 390, height: 844 });
+    await documentInput.scrollIntoViewIfNeeded();
+    await screenshot(page, 'accounts-sign-up-document-390');
+    await page.setViewportSize(wide);
     await page.getByRole('button', { name: 'Apply' }).click();
     await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
 
