@@ -8,6 +8,7 @@ import {
   entryHash,
   factsIssues,
   isHeaderProblem,
+  mayAppend,
   parseCanonical,
   reduceEntry,
   requestFor,
@@ -137,6 +138,14 @@ describe('opinion requests (format version 3)', () => {
     expect(requestFor(r.state!, ASSESSOR)).toBe(named);
     expect(requestFor(r.state!, THIRD)).toBe(request);
     expect(requestFor(r.state!, HOLDER)).toBeUndefined();
+  });
+  it('mayAppend lets the asked assessor, and no one else but the holder, add evidence and an opinion on the unlisted lot', () => {
+    const { r } = asked();
+    for (const kind of ['opinion', 'exhibit-added'] as const) {
+      expect(mayAppend(r.state!, kind, ASSESSOR).allowed).toBe(true);
+      expect(mayAppend(r.state!, kind, HOLDER).allowed).toBe(true);
+      expect(mayAppend(r.state!, kind, THIRD)).toMatchObject({ allowed: false, why: 'actor' });
+    }
   });
   it('a redacted request keeps its facts in the header, so its answer is still checked', () => {
     const { r, request } = asked();

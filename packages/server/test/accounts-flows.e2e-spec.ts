@@ -4,7 +4,7 @@ import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
 import { createAccount, signIn } from './support/accounts';
 import { binary } from './support/exhibit-http';
 import { lastMailTo, linkIn } from './support/mail';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const BASE = 'http://beadroll.example';
 const W = { 'X-Beadroll-Request': '1' };
@@ -26,14 +26,10 @@ function applicant(n: string) {
 }
 
 describe('accounts: sign-up, e-mail, verification by the registrar, passwords', () => {
-  let t: TestApp;
   let http: () => ReturnType<typeof request>;
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     http = () => request(t.app.getHttpServer());
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('sign-up → verification mail → link page → POST confirm → registrar approves → a verified dealer signs in', async () => {

@@ -22,12 +22,11 @@ import { CheckpointsService } from '../src/log/checkpoints.service';
 import { LogSequencer } from '../src/ledger/log-sequencer';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF: [string, string] = ['X-Beadroll-Request', '1'];
 
 describe('the ledger-wide log', () => {
-  let t: TestApp;
   let ledger: LedgerService;
   let checkpoints: CheckpointsService;
   let sequencer: LogSequencer;
@@ -35,8 +34,8 @@ describe('the ledger-wide log', () => {
   let base: string;
   const lots: string[] = [];
 
+  const t = useTestApp(() => ({ CHECKPOINT_SECONDS: '3600' }));
   beforeAll(async () => {
-    t = await createTestApp({ CHECKPOINT_SECONDS: '3600' });
     ledger = t.app.get(LedgerService);
     checkpoints = t.app.get(CheckpointsService);
     sequencer = t.app.get(LogSequencer);
@@ -44,9 +43,6 @@ describe('the ledger-wide log', () => {
     actor = d.id;
     await t.app.listen(0, '127.0.0.1');
     base = `http://127.0.0.1:${(t.app.getHttpServer().address() as AddressInfo).port}`;
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   const http = () => request(t.app.getHttpServer());

@@ -1,17 +1,6 @@
-import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { openBrowser, screenshot, type Browser } from './support/browser';
-
-/** A superuser connection to the journeys' database, for changing what the service stored. */
-function superuser(): pg.Client {
-  return new pg.Client({
-    host: process.env.PGHOST,
-    port: Number(process.env.PGPORT),
-    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
-    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
-    database: inject('database'),
-  });
-}
+import { superuser } from './support/journey';
 
 async function checkpointText(baseUrl: string): Promise<string> {
   const res = await fetch(`${baseUrl}/api/log/checkpoint`);

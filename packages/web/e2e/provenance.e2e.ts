@@ -1,15 +1,10 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { printedTagCode, tagReference } from '@beadroll/core';
-import pg from 'pg';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demo, demoHandle, pageErrors, superuser, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; handle: string }> };
-const email = (handle: string) => demo.accounts.find((a) => a.handle === handle)!.email;
+const email = (handle: string) => demoHandle(handle).email;
 
 /** A phone's first screen: 390 × 844 CSS pixels. */
 const PHONE = { width: 390, height: 844 };
@@ -78,19 +73,12 @@ async function inFirstScreen(page: Page, locator: ReturnType<Page['locator']>): 
 }
 
 describe('provenance travels with the beads, at 390 px in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser(PHONE);
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser(PHONE);
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('an assessor’s dissent on a parent strand shows on the first screen of a strand split from it', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
     const ines = await client(baseUrl, 'ines-calloway-rue');
     const halvard = await client(baseUrl, 'halvard-nimmo');
     const { code: parent } = await ines.post<{ code: string }>('/api/lots', {
@@ -247,13 +235,7 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
     };
     const tagged = roll.bundle.rolls[0]!.entries[1]!.hash;
     // Someone with the database's keys removes the newest entry, the one the tag was printed at.
-    const db = new pg.Client({
-      host: process.env.PGHOST,
-      port: Number(process.env.PGPORT),
-      user: process.env.BEADROLL_TEST_PG_SUPERUSER,
-      password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
-      database: inject('database'),
-    });
+    const db = superuser();
     await db.connect();
     const where = `"entry_id" IN (SELECT e."id" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
                     WHERE l."code" = $1 AND e."seq" = 1)`;

@@ -12,6 +12,7 @@ import {
   type NoteBody,
   type OpinionBody,
   type RollState,
+  mayAppend,
   requestFor,
 } from '@beadroll/core';
 import { Repository } from 'typeorm';
@@ -24,6 +25,7 @@ import { APP_CONFIG } from '../config/config.module';
 import { LedgerClock } from '../ledger/ledger.clock';
 import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { requireMayAppend } from '../ledger/roll-rule.error';
 import { LotsService } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
 import { OpinionRequestsService } from './opinion-requests.service';
@@ -100,13 +102,12 @@ export class OpinionsService {
       // rules then admit it on an unlisted lot too) and answers it.
       const request = asked ? requestFor(state, me.id) : undefined;
       if (request !== undefined) body.request = request;
-      if (state.holder !== me.id && !state.listed && request === undefined)
-        throw asked
-          ? new AppError(
-              'roll_rule',
-              'This lot is unlisted and its holder asked you before requests went on the roll: ask the holder to list it, or to ask you again, then record your opinion.',
-            )
-          : new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
+      if (asked && request === undefined && !mayAppend(state, 'opinion', me.id).allowed)
+        throw new AppError(
+          'roll_rule',
+          'This lot is unlisted and its holder asked you before requests went on the roll: ask the holder to list it, or to ask you again, then record your opinion.',
+        );
+      requireMayAppend(state, 'opinion', me.id);
       await this.checkExhibits(tx, code, body.exhibits);
       await this.checkDailyLimit(tx, code, me.id, now);
       const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });

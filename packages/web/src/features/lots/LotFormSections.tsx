@@ -1,4 +1,4 @@
-import { BASE_GLASS, DECORATIONS, LOT_FORMS, safetyCautions } from '@beadroll/core';
+import { LIMITS, BASE_GLASS, DECORATIONS, LOT_FORMS, safetyCautions } from '@beadroll/core';
 import {
   Button,
   Checkbox,
@@ -153,7 +153,7 @@ export function DescriptionSections({
         <Field label="Title" required validationMessage={error('description.title')}>
           <Input
             value={draft.title}
-            maxLength={200}
+            maxLength={LIMITS.title}
             placeholder="Blue wound beads with pink roses"
             onChange={(_, d) => change('title', d.value)}
           />

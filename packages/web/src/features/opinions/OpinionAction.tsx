@@ -8,27 +8,12 @@ import {
   DialogTitle,
   makeStyles,
 } from '@fluentui/react-components';
-import { requestFor } from '@beadroll/core';
 import { useQuery } from '@tanstack/react-query';
 import type { LotActionContext } from '../lots/lot-actions';
 import { lotsQueries } from '../lots/lots.api';
 import { OpinionForm } from './OpinionForm';
 
 const useStyles = makeStyles({ surface: { maxWidth: 'min(1100px, 96vw)', width: '100%' } });
-
-/**
- * Verified dealers and assessors may record an opinion: the holder always, anyone else on a listed
- * lot, and an assessor whom an open request on the roll asks (the server names the request).
- */
-export function mayRecordOpinion(ctx: LotActionContext): boolean {
-  const v = ctx.viewer;
-  if (!v || v.status !== 'verified' || (v.role !== 'dealer' && v.role !== 'assessor')) return false;
-  return (
-    ctx.state.holder === v.id ||
-    ctx.state.listed ||
-    (v.role === 'assessor' && requestFor(ctx.state, v.id) !== undefined)
-  );
-}
 
 /** The opinion form in a dialog on the lot page; the attribution aid reads the lot's newest clues. */
 export function OpinionAction({ code, state, viewer, close }: LotActionContext & { close: () => void }) {

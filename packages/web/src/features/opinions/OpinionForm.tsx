@@ -13,6 +13,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import {
+  LIMITS,
   attributionAid,
   CONFIDENCES,
   ORIGINS,
@@ -35,7 +36,7 @@ import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';
 import { CONFIDENCE_LABELS, ORIGIN_LABELS, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
 
-const RATIONALE_MAX = 5000;
+const RATIONALE_MAX = LIMITS.longText;
 
 const useStyles = makeStyles({
   root: {
@@ -185,7 +186,11 @@ export function OpinionForm({
           hint={origin === 'other' ? 'Say where.' : 'Optional: a town, a workshop, a region.'}
           validationMessage={fieldError(err, 'originNote')}
         >
-          <Input value={originNote} maxLength={200} onChange={(_, d) => setOriginNote(d.value)} />
+          <Input
+            value={originNote}
+            maxLength={LIMITS.shortText}
+            onChange={(_, d) => setOriginNote(d.value)}
+          />
         </Field>
         <div className={styles.row}>
           <Field

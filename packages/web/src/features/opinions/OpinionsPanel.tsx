@@ -1,3 +1,4 @@
+import { LIMITS } from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -176,7 +177,7 @@ function OpinionCard({
           }}
         >
           <Field label="Your answer" validationMessage={fieldError(reply.error, 'text')}>
-            <Textarea value={text} maxLength={5000} onChange={(_, d) => setText(d.value)} />
+            <Textarea value={text} maxLength={LIMITS.longText} onChange={(_, d) => setText(d.value)} />
           </Field>
           <FormError error={reply.error && !fieldError(reply.error, 'text') ? reply.error : null} />
           <div className={styles.actions}>
