@@ -59,7 +59,7 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
     it('with --log-key, checks the bundle’s checkpoint of the public log too (format §14.5)', () => {
       const good = run(join(dir, 'logged.json'), '--log-key', logged.logKey);
       expect(good.code).toBe(0);
-      expect(good.out).toMatch(/^ {2}checkpoint of 17 entries {2}signature checks with the log's key$/m);
+      expect(good.out).toMatch(/^ {2}checkpoint of 18 entries {2}signature checks with the log's key$/m);
       expect(good.out).not.toContain('NOT SHOWN');
       const without = run(join(dir, 'logged.json'));
       expect(without.code).toBe(0);
