@@ -13,8 +13,9 @@ import { InventorySearch1796490300000 } from '../migrations/1796490300000-Invent
 import { OpinionRequests1796490400000 } from '../migrations/1796490400000-OpinionRequests';
 import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
 import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddSaleVoidedKind';
-import { OpinionRequestsOnTheRoll1796490700000 } from '../migrations/1796490700000-OpinionRequestsOnTheRoll';
-import { ApplicantDocument1796490800000 } from '../migrations/1796490800000-ApplicantDocument';
+import { InheritedAttributionInSearch1796490800000 } from '../migrations/1796490800000-InheritedAttributionInSearch';
+import { OpinionRequestsOnTheRoll1796490900000 } from '../migrations/1796490900000-OpinionRequestsOnTheRoll';
+import { ApplicantDocument1796491000000 } from '../migrations/1796491000000-ApplicantDocument';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -32,6 +33,7 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   OpinionRequests1796490400000,
   ApplicantDetails1796490500000,
   AddSaleVoidedKind1796490600000,
-  OpinionRequestsOnTheRoll1796490700000,
-  ApplicantDocument1796490800000,
+  InheritedAttributionInSearch1796490800000,
+  OpinionRequestsOnTheRoll1796490900000,
+  ApplicantDocument1796491000000,
 ];

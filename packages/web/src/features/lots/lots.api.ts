@@ -115,6 +115,15 @@ export interface LotListParams {
   mine?: boolean;
 }
 
+/** Where the browser downloads the lot list from, with its filters (the session cookie goes with it). */
+export function lotsExportUrl(
+  params: Omit<LotListParams, 'page' | 'pageSize'>,
+  format: 'csv' | 'xlsx',
+): string {
+  const q = listQueryString(params);
+  return `/api/lots/export?${q ? `${q}&` : ''}format=${format}`;
+}
+
 /** The query string of a list request; unset filters are left out. */
 export function listQueryString(params: Partial<LotListParams>): string {
   const out = new URLSearchParams();
@@ -181,14 +190,6 @@ export const lotsApi = {
   setListing: (code: string, listed: boolean) =>
     api<LotDetail>(`/api/lots/${enc(code)}/listing`, { method: 'PUT', body: { listed } }),
   /** Every page of the current filter, for the CSV export (the server pages at most 100). */
-  async listAll(params: Omit<LotListParams, 'page' | 'pageSize'>): Promise<LotSummary[]> {
-    const out: LotSummary[] = [];
-    for (let page = 1; ; page++) {
-      const r = await api<LotListPage>(`/api/lots?${listQueryString({ ...params, page, pageSize: 100 })}`);
-      out.push(...r.items);
-      if (out.length >= r.total || r.items.length === 0) return out;
-    }
-  },
 };
 
 /** A public card of a verified dealer or assessor. */

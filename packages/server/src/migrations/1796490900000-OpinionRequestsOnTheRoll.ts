@@ -28,8 +28,8 @@ const list = (kinds: string[]) => kinds.map((k) => `'${k}'`).join(', ');
  * `opinion-request-closed`, and each request row keeps the seq of its `opinion-requested` entry
  * (null for requests made before, which stay off the roll).
  */
-export class OpinionRequestsOnTheRoll1796490700000 implements MigrationInterface {
-  name = 'OpinionRequestsOnTheRoll1796490700000';
+export class OpinionRequestsOnTheRoll1796490900000 implements MigrationInterface {
+  name = 'OpinionRequestsOnTheRoll1796490900000';
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`ALTER TABLE "entries" DROP CONSTRAINT "ck_entries_kind"`);
