@@ -165,6 +165,11 @@ export async function sendPendingWrites(): Promise<void> {
   }
 }
 
+/** One attempt with the caller's idempotency key, renewing a lapsed session once (for queued writes). */
+export function sendOnce<T>(path: string, opts: RequestOptions): Promise<T> {
+  return once<T>(path, opts);
+}
+
 /** One attempt, renewing a lapsed session once. */
 async function once<T>(path: string, opts: RequestOptions): Promise<T> {
   try {

@@ -177,6 +177,7 @@ export const transfersApi = {
       method: 'POST',
       body: note ? { note } : {},
     }),
+  salesPath: '/api/transfers/sales',
   recordSale: (draft: SaleDraft) => api<Sale>('/api/transfers/sales', { method: 'POST', body: { ...draft } }),
   offerInvitation: (id: string) =>
     api<Invitation>(`/api/transfers/invitations/${encodeURIComponent(id)}/offer`, {
