@@ -1,5 +1,17 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  ParseUUIDPipe,
+  Post,
+  Query,
+  Res,
+  StreamableFile,
+} from '@nestjs/common';
+import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
@@ -16,6 +28,24 @@ export class RegistryController {
   })
   list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
     return this.registry.list(q);
+  }
+
+  @Get(':id/document')
+  @ApiOperation({ summary: 'Download the document an applicant sent with their application' })
+  @ApiProduces('application/pdf', 'image/jpeg', 'image/png')
+  async document(
+    @Param('id', ParseUUIDPipe) id: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    const file = await this.registry.document(id);
+    res.setHeader('Content-Type', file.type);
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader(
+      'Content-Disposition',
+      `attachment; filename="applicant-document.${file.type.split('/')[1]}"; filename*=UTF-8''${encodeURIComponent(file.name)}`,
+    );
+    return new StreamableFile(file.body, { length: file.size || undefined });
   }
 
   @Post(':id/approve')

@@ -1,5 +1,19 @@
-import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Inject,
+  Post,
+  Req,
+  Res,
+  UploadedFile,
+  UseGuards,
+  UseInterceptors,
+} from '@nestjs/common';
+import { FileInterceptor } from '@nestjs/platform-express';
+import { ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { SIGN_UP_UPLOAD, SignUpUploadInterceptor, type UploadedDocument } from './applicant-document';
 import type { Request, Response } from 'express';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -34,9 +48,14 @@ export class AuthController {
   @UseGuards(RateLimitGuard)
   @Post('sign-up')
   @HttpCode(202)
-  @ApiOperation({ summary: 'Apply for a dealer or assessor account (always answers "check your e-mail")' })
-  signUp(@Body() dto: SignUpDto): Promise<MessageResponse> {
-    return this.auth.signUp(dto);
+  @UseInterceptors(SignUpUploadInterceptor, FileInterceptor('document', SIGN_UP_UPLOAD))
+  @ApiConsumes('application/json', 'multipart/form-data')
+  @ApiOperation({
+    summary:
+      'Apply for a dealer or assessor account (always answers "check your e-mail"); as a form, with an optional document (PDF, JPEG or PNG, at most 10 MB) for the registrar',
+  })
+  signUp(@Body() dto: SignUpDto, @UploadedFile() document?: UploadedDocument): Promise<MessageResponse> {
+    return this.auth.signUp(dto, document);
   }
 
   @Public()

@@ -41,6 +41,8 @@ export interface ApplicantResponse {
   address: string;
   website: string | null;
   tradeReferences: string;
+  /** The applicant's optional document (download it from `…/document`), or null. */
+  document: { sha256: string; mediaType: string; size: number; name: string } | null;
   appliedAt: string;
   verifiedSince: string | null;
   statusReason: string | null;
@@ -67,6 +69,15 @@ export function toApplicantResponse(a: Account): ApplicantResponse {
     address: a.address,
     website: a.website,
     tradeReferences: a.tradeReferences,
+    document:
+      a.documentSha256 && a.documentType
+        ? {
+            sha256: a.documentSha256,
+            mediaType: a.documentType,
+            size: a.documentSize ?? 0,
+            name: a.documentName ?? 'document',
+          }
+        : null,
     appliedAt: a.createdAt.toISOString(),
     verifiedSince: a.verifiedAt?.toISOString() ?? null,
     statusReason: a.statusReason,

@@ -44,6 +44,20 @@ export class Account {
   @Column({ name: 'trade_references', type: 'text', default: '' })
   tradeReferences: string;
 
+  /** The applicant's optional document, in blob storage under this SHA-256 (for the registrar). */
+  @Column({ name: 'document_sha256', type: 'char', length: 64, nullable: true })
+  documentSha256: string | null;
+
+  @Column({ name: 'document_type', type: 'varchar', length: 40, nullable: true })
+  documentType: string | null;
+
+  @Column({ name: 'document_size', type: 'integer', nullable: true })
+  documentSize: number | null;
+
+  /** The file name as the applicant sent it (shown, never used as a path). */
+  @Column({ name: 'document_name', type: 'varchar', length: 200, nullable: true })
+  documentName: string | null;
+
   /** `scrypt$N$r$p$salt$key`; null until a password is set (a new registrar). */
   @Column({ name: 'password_hash', type: 'varchar', length: 255, nullable: true })
   passwordHash: string | null;

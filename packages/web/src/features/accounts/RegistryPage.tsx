@@ -134,6 +134,16 @@ function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: ()
       ),
     ],
     ['Trade references', target.tradeReferences || 'Not given'],
+    [
+      'Document',
+      target.document ? (
+        <a href={`/api/registry/accounts/${target.id}/document`} download={target.document.name}>
+          Download {target.document.name} ({documentSize(target.document.size)})
+        </a>
+      ) : (
+        'None sent'
+      ),
+    ],
     ['Applied', formatDate(target.appliedAt)],
   ];
   return (
@@ -268,4 +278,11 @@ export function RegistryPage() {
       ) : null}
     </Page>
   );
+}
+
+/** A file size in words: kB up to a megabyte, then MB with one decimal. */
+function documentSize(bytes: number): string {
+  return bytes < 1024 * 1024
+    ? `${Math.max(1, Math.round(bytes / 1024))} kB`
+    : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 }

@@ -38,6 +38,8 @@ export interface Applicant {
   address: string;
   website: string | null;
   tradeReferences: string;
+  /** The document sent with the application (the registrar downloads it), or null. */
+  document?: { sha256: string; mediaType: string; size: number; name: string } | null;
   appliedAt: string;
   verifiedSince: string | null;
   statusReason: string | null;
@@ -107,7 +109,14 @@ export const accountsApi = {
   signIn: (body: { email: string; password: string }) =>
     api<{ account: Me }>('/api/auth/sign-in', { method: 'POST', body }),
   signOut: () => api<void>('/api/auth/session/sign-out', { method: 'POST' }),
-  signUp: (body: Record<string, string>) => api<Message>('/api/auth/sign-up', { method: 'POST', body }),
+  /** Sends the application; with a document, as a form carrying the file in `document`. */
+  signUp: (body: Record<string, string>, document?: File | null) => {
+    if (!document) return api<Message>('/api/auth/sign-up', { method: 'POST', body });
+    const form = new FormData();
+    for (const [k, v] of Object.entries(body)) form.append(k, v);
+    form.append('document', document);
+    return api<Message>('/api/auth/sign-up', { method: 'POST', body: form });
+  },
   verifyEmail: (token: string) => api<Message>('/api/auth/verify-email', { method: 'POST', body: { token } }),
   forgotPassword: (email: string) =>
     api<Message>('/api/auth/forgot-password', { method: 'POST', body: { email } }),

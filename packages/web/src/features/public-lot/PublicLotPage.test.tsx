@@ -188,7 +188,7 @@ describe('public lot page: opinions, dissent and a removed body', () => {
   it('shows the holder’s attribution, the dissent with its author, and the chart', async () => {
     serve(lot);
     open(`/l/${lot.code}`);
-    await screen.findByText(/Unbroken history as served: 6 entries/);
+    await screen.findByText(/Unbroken history as served: 7 entries/);
     // The first thing on the page: the attribution on record and the counts, each a link.
     const onRecord = screen.getByRole('region', { name: 'Attribution on record' });
     expect(within(onRecord).getByRole('link', { name: '1 dissent' })).toHaveAttribute(
@@ -216,6 +216,11 @@ describe('public lot page: opinions, dissent and a removed body', () => {
     );
     expect(chart.querySelectorAll('.pl-bar-dissent').length).toBe(1);
     expect(chart.querySelectorAll('.pl-bar-attribution').length).toBe(1);
+    // The holder asked the assessor on the roll; the evidence and opinion say they answer it.
+    expect(
+      screen.getByText(`Opinion asked of an assessor, ${nameOf(ASSESSOR)}, by ${nameOf(DEALER_B)}.`),
+    ).toBeInTheDocument();
+    expect(screen.getByText(/in answer to the request of entry 2\./)).toBeInTheDocument();
   });
 
   it('says when the registrar removed an entry and shows nothing of it', async () => {
