@@ -1,7 +1,7 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
-import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
+import { ApplicantResponse, ReasonDto, RegistryQueryDto, RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
 
 @ApiTags('registry')
@@ -14,6 +14,7 @@ export class RegistryController {
   @ApiOperation({
     summary: 'Dealer and assessor accounts by status (the pending ones are the verification queue)',
   })
+  @ApiOkResponse({ type: RegistryPage })
   list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
     return this.registry.list(q);
   }
@@ -21,6 +22,7 @@ export class RegistryController {
   @Post(':id/approve')
   @HttpCode(200)
   @ApiOperation({ summary: 'Verify an applicant' })
+  @ApiOkResponse({ type: ApplicantResponse })
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -31,6 +33,7 @@ export class RegistryController {
   @Post(':id/reject')
   @HttpCode(200)
   @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reject(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -42,6 +45,7 @@ export class RegistryController {
   @Post(':id/suspend')
   @HttpCode(200)
   @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   suspend(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -53,6 +57,7 @@ export class RegistryController {
   @Post(':id/reinstate')
   @HttpCode(200)
   @ApiOperation({ summary: 'Lift a suspension' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reinstate(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

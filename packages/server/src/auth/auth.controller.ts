@@ -1,5 +1,5 @@
 import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiAcceptedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -8,9 +8,9 @@ import { AuthService } from './auth.service';
 import { clearSessionCookies, REFRESH_COOKIE, setSessionCookies } from './cookies';
 import { SignInDto } from './dto/sign-in.dto';
 import { SignUpDto } from './dto/sign-up.dto';
-import { ForgotPasswordDto, type MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
+import { ForgotPasswordDto, MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
 import { RateLimitGuard } from './rate-limit.guard';
-import { type SessionResponse, toMeResponse } from './dto/session.response';
+import { SessionResponse, toMeResponse } from './dto/session.response';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
 
@@ -26,6 +26,7 @@ export class AuthController {
   @Public()
   @Get('session')
   @ApiOperation({ summary: 'The signed-in account, or null' })
+  @ApiOkResponse({ type: SessionResponse })
   async session(@CurrentAccount() principal?: Principal): Promise<SessionResponse> {
     return { account: principal ? toMeResponse(await this.auth.me(principal.id)) : null };
   }
@@ -35,6 +36,7 @@ export class AuthController {
   @Post('sign-up')
   @HttpCode(202)
   @ApiOperation({ summary: 'Apply for a dealer or assessor account (always answers "check your e-mail")' })
+  @ApiAcceptedResponse({ type: MessageResponse })
   signUp(@Body() dto: SignUpDto): Promise<MessageResponse> {
     return this.auth.signUp(dto);
   }
@@ -44,6 +46,7 @@ export class AuthController {
   @Post('verify-email')
   @HttpCode(200)
   @ApiOperation({ summary: 'Confirm an e-mail address with the token from the e-mailed link' })
+  @ApiOkResponse({ type: MessageResponse })
   verifyEmail(@Body() dto: TokenDto): Promise<MessageResponse> {
     return this.auth.verifyEmail(dto.token);
   }
@@ -53,6 +56,7 @@ export class AuthController {
   @Post('forgot-password')
   @HttpCode(202)
   @ApiOperation({ summary: 'E-mail a link to choose a new password (always answers "check your e-mail")' })
+  @ApiAcceptedResponse({ type: MessageResponse })
   forgotPassword(@Body() dto: ForgotPasswordDto): Promise<MessageResponse> {
     return this.auth.forgotPassword(dto.email);
   }
@@ -62,6 +66,7 @@ export class AuthController {
   @Post('reset-password')
   @HttpCode(200)
   @ApiOperation({ summary: 'Set a new password with the token from the e-mailed link (ends every session)' })
+  @ApiOkResponse({ type: MessageResponse })
   resetPassword(@Body() dto: ResetPasswordDto): Promise<MessageResponse> {
     return this.auth.resetPassword(dto.token, dto.password);
   }
@@ -72,6 +77,7 @@ export class AuthController {
   @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
+  @ApiOkResponse({ type: SessionResponse })
   async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
     const { account, session } = await this.auth.signIn(dto.email, dto.password);
     setSessionCookies(res, this.config, session.access, session.refresh);
@@ -83,6 +89,7 @@ export class AuthController {
   @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
+  @ApiOkResponse({ type: SessionResponse })
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
     const token: unknown = req.cookies?.[REFRESH_COOKIE];
     // No refresh cookie at all: nobody is signed in, which is an answer, not an error.

@@ -1,3 +1,4 @@
+import type { PartyName } from '../accounts/dto/dealer-card.dto';
 import { Injectable, type OnModuleInit } from '@nestjs/common';
 import { formatLotCode } from '@beadroll/core';
 import { DataSource, type EntityManager } from 'typeorm';
@@ -27,13 +28,6 @@ interface RequestRow {
   created_at: Date;
   closed_at: Date | null;
   opinion_seq: number | null;
-}
-
-interface Party {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
 }
 
 /**
@@ -188,7 +182,7 @@ export class OpinionRequestsService implements OnModuleInit {
       params,
     );
     const ids = [...new Set(rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter(Boolean))];
-    const parties = new Map<string, Party>();
+    const parties = new Map<string, PartyName>();
     if (ids.length) {
       const people: Array<{ id: string; handle: string; display_name: string; business: string }> =
         await this.dataSource.query(

@@ -1474,6 +1474,26 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
+        MeResponse: {
+            id: string;
+            /** @enum {string} */
+            role: "dealer" | "assessor" | "registrar";
+            /** @enum {string} */
+            status: "pending" | "verified" | "rejected" | "suspended" | "closed";
+            handle: string;
+            displayName: string;
+            email: string;
+            business: string;
+            town: string;
+            country: string;
+            emailVerified: boolean;
+            verifiedSince: string | null;
+            statusReason: string | null;
+            createdAt: string;
+        };
+        SessionResponse: {
+            account: components["schemas"]["MeResponse"] | null;
+        };
         SignUpDto: {
             /** @enum {string} */
             role: "dealer" | "assessor";
@@ -1510,6 +1530,9 @@ export interface components {
             /** @description must be 12 to 128 characters long */
             password: string;
         };
+        MessageResponse: {
+            message: string;
+        };
         TokenDto: {
             /** @description The token from the e-mailed link */
             token: string;
@@ -1533,16 +1556,75 @@ export interface components {
             /** @description must be 12 to 128 characters long */
             newPassword: string;
         };
-        Object: Record<string, never>;
+        ApplicantResponse: {
+            id: string;
+            /** @enum {string} */
+            role: "dealer" | "assessor" | "registrar";
+            /** @enum {string} */
+            status: "pending" | "verified" | "rejected" | "suspended" | "closed";
+            handle: string;
+            displayName: string;
+            email: string;
+            business: string;
+            town: string;
+            country: string;
+            address: string;
+            website: string | null;
+            tradeReferences: string;
+            appliedAt: string;
+            verifiedSince: string | null;
+            statusReason: string | null;
+        };
+        RegistryPage: {
+            items: components["schemas"]["ApplicantResponse"][];
+            total: number;
+            page: number;
+            pageSize: number;
+        };
         ReasonDto: {
             /** @description Sent to the account holder by e-mail */
             reason: string;
+        };
+        DealerCard: {
+            id: string;
+            handle: string;
+            displayName: string;
+            business: string;
+            town: string;
+            country: string;
+            /** @description RFC 3339 time the registrar first verified the account */
+            verifiedSince: string;
+            /** @enum {string} */
+            status: "verified" | "suspended" | "former";
+            /**
+             * @description what the account does: a dealer, an independent assessor, or the registrar
+             * @enum {string}
+             */
+            role: "dealer" | "assessor" | "registrar";
+        };
+        DealerCardsResponse: {
+            /** @description cards by account id; ids never verified are left out */
+            cards: {
+                [key: string]: components["schemas"]["DealerCard"];
+            };
         };
         CosignatureDto: {
             /** @description The checkpoint note the witness was served and cosigned */
             checkpoint: string;
             /** @description The witness’s signature line (C2SP tlog-cosignature) */
             cosignature: string;
+        };
+        WitnessResponse: {
+            id: string;
+            name: string;
+            key: string;
+            registeredAt: string;
+            lastCosignedAt: string | null;
+            lastCosignedSize: number | null;
+        };
+        WitnessListResponse: {
+            logKey: string;
+            items: components["schemas"]["WitnessResponse"][];
         };
         RegisterWitnessDto: {
             /** @description The witness’s verifier key: name+keyid+base64(0x04 ‖ Ed25519 public key) */
@@ -1653,7 +1735,7 @@ export interface components {
             storageLocation?: string;
             acquisitionDate?: string;
             acquisitionSource?: string;
-            acquisitionCost?: Record<string, never>;
+            acquisitionCost?: components["schemas"]["MoneyDto"];
             privateNote?: string;
         };
         LotDetailResponse: {
@@ -1821,7 +1903,9 @@ export interface components {
             code: string;
             bundle: components["schemas"]["PublicBundle"];
             /** @description cards by account id: every actor on the rolls, and the recipient of each transfer offer */
-            cards: Record<string, never>;
+            cards: {
+                [key: string]: components["schemas"]["DealerCard"];
+            };
         };
         ImportFieldResponse: {
             key: string;
@@ -1855,6 +1939,16 @@ export interface components {
             valid: number;
             rows: components["schemas"]["RowProblemResponse"][];
         };
+        PartyCard: {
+            id: string;
+            handle: string;
+            displayName: string;
+            business: string;
+            town: string;
+            country: string;
+            /** @enum {string} */
+            status: "verified" | "suspended" | "former";
+        };
         OpinionReply: {
             seq: number;
             author: string;
@@ -1880,7 +1974,9 @@ export interface components {
             dissents: number[];
             opinions: components["schemas"]["OpinionView"][];
             /** @description public cards of the authors, by account id */
-            cards: Record<string, never>;
+            cards: {
+                [key: string]: components["schemas"]["PartyCard"];
+            };
         };
         PeriodDto: {
             /** @example 1850 */
@@ -1948,7 +2044,7 @@ export interface components {
             title: string;
             listed: boolean;
         };
-        RequestParty: {
+        PartyName: {
             id: string;
             handle: string;
             displayName: string;
@@ -1957,9 +2053,9 @@ export interface components {
         OpinionRequestResponse: {
             id: string;
             lot: components["schemas"]["RequestLot"];
-            requester: components["schemas"]["RequestParty"];
+            requester: components["schemas"]["PartyName"];
             /** @description null: any verified assessor */
-            assessor: components["schemas"]["RequestParty"] | null;
+            assessor: components["schemas"]["PartyName"] | null;
             note: Record<string, never> | null;
             /** @enum {string} */
             status: "open" | "answered" | "cancelled";
@@ -1967,7 +2063,7 @@ export interface components {
             closedAt: Record<string, never> | null;
             /** @description the seq of the opinion that answered it */
             opinionSeq: Record<string, never> | null;
-            answeredBy: components["schemas"]["RequestParty"] | null;
+            answeredBy: components["schemas"]["PartyName"] | null;
         };
         OpinionRequestListResponse: {
             items: components["schemas"]["OpinionRequestResponse"][];
@@ -1976,7 +2072,7 @@ export interface components {
             pageSize: number;
         };
         AssessorListResponse: {
-            items: components["schemas"]["RequestParty"][];
+            items: components["schemas"]["PartyName"][];
         };
         AidPeriodDto: {
             from?: number;
@@ -2087,18 +2183,8 @@ export interface components {
             /** Format: binary */
             file: string;
         };
-        PartyResponse: {
-            id: string;
-            handle: string;
-            displayName: string;
-            business: string;
-            town: string;
-            country: string;
-            /** @enum {string} */
-            status: "verified" | "suspended" | "former";
-        };
         DealerSearchResponse: {
-            items: components["schemas"]["PartyResponse"][];
+            items: components["schemas"]["PartyCard"][];
         };
         CreateOfferDto: {
             /**
@@ -2128,8 +2214,8 @@ export interface components {
             offerSeq: number;
             /** @enum {string} */
             status: "open" | "accepted" | "declined" | "withdrawn" | "lapsed";
-            offerer: components["schemas"]["PartyResponse"] | null;
-            recipient: components["schemas"]["PartyResponse"] | null;
+            offerer: components["schemas"]["PartyCard"] | null;
+            recipient: components["schemas"]["PartyCard"] | null;
             /** @enum {string} */
             viewerIs: "offerer" | "recipient";
             note?: string;
@@ -2140,7 +2226,7 @@ export interface components {
             answerSeq?: number;
             answerNote?: string;
             /** @description sealed transfer price, shown to the two dealers only */
-            price?: Record<string, never>;
+            price?: components["schemas"]["MoneyDto"];
         };
         InvitationResponse: {
             id: string;
@@ -2150,7 +2236,7 @@ export interface components {
             status: "waiting" | "offered" | "stalled" | "cancelled";
             statusReason?: string;
             note?: string;
-            price?: Record<string, never>;
+            price?: components["schemas"]["MoneyDto"];
             /** @description the offer made from it */
             offerId?: string;
             createdAt: string;
@@ -2196,7 +2282,7 @@ export interface components {
             /** @description YYYY-MM-DD */
             date: string;
             /** @description sealed sale price */
-            price?: Record<string, never>;
+            price?: components["schemas"]["MoneyDto"];
             /** @description sealed buyer note */
             buyerNote?: string;
             recordedAt: string;
@@ -2247,9 +2333,19 @@ export interface components {
             /** @description The registrar’s answer; e-mailed to the reporter when they left an address */
             resolution: string;
         };
+        Object: Record<string, never>;
         CloseAccountDto: {
             /** @description Your current password, to confirm */
             password: string;
+        };
+        TagLotResponse: {
+            code: string;
+            held: boolean;
+            title?: string;
+            listed?: boolean;
+            status?: string;
+            seq?: number;
+            ref?: string;
         };
         SheetDto: {
             /** @enum {string} */
@@ -2273,6 +2369,9 @@ export interface components {
         };
         ListLotsDto: {
             lots: string[];
+        };
+        TagListResponse: {
+            listed: string[];
         };
         CostTotal: {
             lots: number;
@@ -2357,7 +2456,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["SessionResponse"];
+                };
             };
         };
     };
@@ -2378,7 +2479,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
@@ -2399,7 +2502,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
@@ -2420,7 +2525,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
@@ -2441,7 +2548,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
@@ -2462,7 +2571,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["SessionResponse"];
+                };
             };
         };
     };
@@ -2479,7 +2590,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["SessionResponse"];
+                };
             };
         };
     };
@@ -2513,7 +2626,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MeResponse"];
+                };
             };
         };
     };
@@ -2534,15 +2649,17 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
     RegistryController_list: {
         parameters: {
             query?: {
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
                 status?: "pending" | "verified" | "suspended" | "rejected";
                 sort?: "applied" | "-applied" | "business" | "-business" | "town" | "-town";
             };
@@ -2556,7 +2673,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RegistryPage"];
+                };
             };
         };
     };
@@ -2575,7 +2694,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ApplicantResponse"];
+                };
             };
         };
     };
@@ -2598,7 +2719,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ApplicantResponse"];
+                };
             };
         };
     };
@@ -2621,7 +2744,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ApplicantResponse"];
+                };
             };
         };
     };
@@ -2640,7 +2765,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ApplicantResponse"];
+                };
             };
         };
     };
@@ -2660,7 +2787,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["DealerCardsResponse"];
+                };
             };
         };
     };
@@ -2679,7 +2808,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["DealerCard"];
+                };
             };
         };
     };
@@ -2828,7 +2959,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["WitnessListResponse"];
+                };
             };
         };
     };
@@ -2849,7 +2982,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["WitnessResponse"];
+                };
             };
         };
     };
@@ -3307,8 +3442,8 @@ export interface operations {
     OpinionRequestsController_list: {
         parameters: {
             query: {
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
                 box: "sent" | "received";
             };
             header?: never;
@@ -3630,8 +3765,8 @@ export interface operations {
     TransfersController_list: {
         parameters: {
             query: {
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
                 box: "incoming" | "outgoing";
                 status?: "open" | "accepted" | "declined" | "withdrawn" | "lapsed";
                 /** @description only offers of this lot (code, with or without hyphens) */
@@ -3836,8 +3971,8 @@ export interface operations {
     TransfersController_listSales: {
         parameters: {
             query?: {
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
                 /** @description sold on or after, YYYY-MM-DD */
                 from?: string;
                 /** @description sold on or before, YYYY-MM-DD */
@@ -4042,8 +4177,8 @@ export interface operations {
     ReportsController_list: {
         parameters: {
             query?: {
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
                 status?: "open" | "closed";
                 sort?: "created" | "-created" | "lot" | "-lot" | "category" | "-category";
             };
@@ -4194,7 +4329,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["TagLotResponse"];
+                };
             };
         };
     };
@@ -4236,7 +4373,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["TagListResponse"];
+                };
             };
         };
     };

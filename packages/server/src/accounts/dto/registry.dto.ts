@@ -28,29 +28,30 @@ export class ReasonDto {
   reason: string;
 }
 
-export interface ApplicantResponse {
-  id: string;
-  role: Account['role'];
+export class ApplicantResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: Account['role'];
+  @ApiProperty({ enum: ['pending', 'verified', 'rejected', 'suspended', 'closed'] })
   status: Account['status'];
-  handle: string;
-  displayName: string;
-  email: string;
-  business: string;
-  town: string;
-  country: string;
-  address: string;
-  website: string | null;
-  tradeReferences: string;
-  appliedAt: string;
-  verifiedSince: string | null;
-  statusReason: string | null;
+  @ApiProperty() handle: string;
+  @ApiProperty() displayName: string;
+  @ApiProperty() email: string;
+  @ApiProperty() business: string;
+  @ApiProperty() town: string;
+  @ApiProperty() country: string;
+  @ApiProperty() address: string;
+  @ApiProperty({ type: String, nullable: true }) website: string | null;
+  @ApiProperty() tradeReferences: string;
+  @ApiProperty() appliedAt: string;
+  @ApiProperty({ type: String, nullable: true }) verifiedSince: string | null;
+  @ApiProperty({ type: String, nullable: true }) statusReason: string | null;
 }
 
-export interface RegistryPage {
-  items: ApplicantResponse[];
-  total: number;
-  page: number;
-  pageSize: number;
+export class RegistryPage {
+  @ApiProperty({ type: [ApplicantResponse] }) items: ApplicantResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
 }
 
 export function toApplicantResponse(a: Account): ApplicantResponse {

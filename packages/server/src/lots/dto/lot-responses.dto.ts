@@ -1,5 +1,6 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import type { BeadCount, LotDescription, LotStatus, Money, Observations } from '@beadroll/core';
+import type { BeadCount, LotDescription, LotStatus, Observations } from '@beadroll/core';
+import { MoneyDto } from './sealed-details.dto';
 
 /** One row of the lot list. */
 export class LotSummaryResponse {
@@ -44,7 +45,7 @@ export class OwnSealedDetails {
   @ApiPropertyOptional() storageLocation?: string;
   @ApiPropertyOptional() acquisitionDate?: string;
   @ApiPropertyOptional() acquisitionSource?: string;
-  @ApiPropertyOptional() acquisitionCost?: Money;
+  @ApiPropertyOptional({ type: MoneyDto }) acquisitionCost?: MoneyDto;
   @ApiPropertyOptional() privateNote?: string;
 }
 
