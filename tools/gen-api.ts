@@ -23,7 +23,8 @@ async function generate(): Promise<Map<string, string>> {
   };
   const document = await buildOpenApiDocument();
   const json = `${JSON.stringify(document, null, 2)}\n`;
-  const types = HEADER + astToString(await openapiTS(JSON.parse(json) as OpenAPI3));
+  const types =
+    HEADER + astToString(await openapiTS(JSON.parse(json) as OpenAPI3, { emptyObjectsUnknown: true }));
   return new Map([
     [DOCUMENT, json],
     [SCHEMA, types],
