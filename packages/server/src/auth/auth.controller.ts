@@ -10,7 +10,7 @@ import { SignInDto } from './dto/sign-in.dto';
 import { SignUpDto } from './dto/sign-up.dto';
 import { ForgotPasswordDto, MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
 import { RateLimitGuard } from './rate-limit.guard';
-import { SessionResponse, toMeResponse } from './dto/session.response';
+import { SessionResponse, SignedInResponse, toMeResponse } from './dto/session.response';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
 
@@ -77,8 +77,8 @@ export class AuthController {
   @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
-  @ApiOkResponse({ type: SessionResponse })
-  async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+  @ApiOkResponse({ type: SignedInResponse })
+  async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SignedInResponse> {
     const { account, session } = await this.auth.signIn(dto.email, dto.password);
     setSessionCookies(res, this.config, session.access, session.refresh);
     return { account: toMeResponse(account) };

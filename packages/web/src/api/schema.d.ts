@@ -1551,6 +1551,9 @@ export interface components {
             email: string;
             password: string;
         };
+        SignedInResponse: {
+            account: components["schemas"]["MeResponse"];
+        };
         ChangePasswordDto: {
             currentPassword: string;
             /** @description must be 12 to 128 characters long */
@@ -2607,7 +2610,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["SessionResponse"];
+                    "application/json": components["schemas"]["SignedInResponse"];
                 };
             };
         };

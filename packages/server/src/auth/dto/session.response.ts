@@ -40,3 +40,8 @@ export function toMeResponse(a: Account): MeResponse {
     createdAt: a.createdAt.toISOString(),
   };
 }
+
+/** The account a sign-in or a renewal has just opened a session for. */
+export class SignedInResponse {
+  @ApiProperty({ type: MeResponse }) account: MeResponse;
+}
