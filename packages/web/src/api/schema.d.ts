@@ -2147,15 +2147,16 @@ export interface components {
         LinkedLotResponse: {
             code: string;
             displayCode: string;
-            count: Record<string, unknown>;
+            count: components["schemas"]["BeadCountResponse"];
         };
         SplitResponse: {
             parent: string;
             /** @description seq of the parent’s split entry */
             seq: number;
             /** @description beads still in the parent (0: the parent is used up) */
-            remaining: Record<string, unknown>;
-            status: string;
+            remaining: components["schemas"]["BeadCountResponse"];
+            /** @enum {string} */
+            status: "held" | "offered" | "sold" | "split" | "combined" | "retired";
             children: components["schemas"]["LinkedLotResponse"][];
         };
         CombinedPartDto: {
@@ -2177,9 +2178,10 @@ export interface components {
             /** @description seq of its combined entry */
             seq: number;
             /** @description beads taken */
-            count: Record<string, unknown>;
-            remaining: Record<string, unknown>;
-            status: string;
+            count: components["schemas"]["BeadCountResponse"];
+            remaining: components["schemas"]["BeadCountResponse"];
+            /** @enum {string} */
+            status: "held" | "offered" | "sold" | "split" | "combined" | "retired";
         };
         CombineResponse: {
             lot: components["schemas"]["LinkedLotResponse"];
@@ -2193,9 +2195,10 @@ export interface components {
             /** @description false: a lot the viewer may not open (only its code is known) */
             readable: boolean;
             title: string | null;
-            status: string | null;
+            /** @enum {string|null} */
+            status: "held" | "offered" | "sold" | "split" | "combined" | "retired" | null;
             listed: boolean | null;
-            count: Record<string, unknown> | null;
+            count: components["schemas"]["BeadCountResponse"] | null;
         };
         AncestryEdgeResponse: {
             from: string;
@@ -2203,7 +2206,7 @@ export interface components {
             /** @enum {string} */
             kind: "split" | "combined";
             seq: number;
-            count: Record<string, unknown>;
+            count: components["schemas"]["BeadCountResponse"];
         };
         AncestryResponse: {
             code: string;

@@ -10,7 +10,8 @@ import {
 } from '@beadroll/core';
 import { MoneyDto } from './sealed-details.dto';
 
-const LOT_STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
+/** Every status a lot can be in (core's `LotStatus`). */
+export const LOT_STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 
 /** A count of beads, exact or estimated (core's `BeadCount`). */
 export class BeadCountResponse implements BeadCount {

@@ -32,7 +32,7 @@ export const opinionsApi = {
     answer(
       client.POST('/api/lots/{code}/opinions', {
         params: { path: { code } },
-        body: body as Schemas['RecordOpinionDto'],
+        body,
       }),
     ) as Promise<OpinionWrite>,
   withdraw: (code: string, seq: number, note?: string) =>
