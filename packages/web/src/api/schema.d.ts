@@ -2395,6 +2395,12 @@ export interface components {
             columns?: number;
             /** @description rows of labels; omitted: as many as fit */
             rows?: number;
+            marginTopMm: number;
+            marginRightMm: number;
+            marginBottomMm: number;
+            marginLeftMm: number;
+            gapXMm: number;
+            gapYMm: number;
             /** @description cells already used on the first sheet */
             skip?: number;
             /** @description draw thin cutting lines around each cell */

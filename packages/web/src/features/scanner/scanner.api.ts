@@ -1,22 +1,18 @@
 import { queryOptions } from '@tanstack/react-query';
-import { ApiError, api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
+import { ApiError } from '../../lib/api';
 
 /** A scanned lot as the server's tag maker answers: held by the signed-in dealer or not. */
-export interface ScannedLot {
-  code: string;
-  held: boolean;
-  title?: string;
-  listed?: boolean;
-  status?: string;
-  seq?: number;
-  ref?: string;
-}
+export type ScannedLot = Schemas['TagLotResponse'];
+
+const tagLot = (code: string) => answer(client.GET('/api/tags/lots/{code}', { params: { path: { code } } }));
 
 export const scannerQueries = {
   lot: (code: string) =>
     queryOptions({
       queryKey: ['tags', 'lot', code],
-      queryFn: () => api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`),
+      queryFn: () => tagLot(code),
     }),
 };
 
@@ -27,7 +23,7 @@ export const scannerQueries = {
  */
 export async function lookupScannedLot(code: string): Promise<ScannedLot> {
   try {
-    return await api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`);
+    return await tagLot(code);
   } catch (e) {
     if (e instanceof ApiError) return { code, held: false };
     throw e;
