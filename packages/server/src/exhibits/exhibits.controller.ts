@@ -1,10 +1,17 @@
 import { Body, Controller, Get, Param, Post, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBody,
+  ApiConsumes,
+  ApiOperation,
+  ApiTags,
+  ApiOkResponse,
+  ApiCreatedResponse,
+} from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
 import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
-import type { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
+import { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
 import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
@@ -22,6 +29,7 @@ export class ExhibitsController {
   @ApiConsumes('multipart/form-data')
   @ApiBody({ type: AddExhibitBodyDoc })
   @UseInterceptors(UploadGuardInterceptor, FileInterceptor('file'), IdempotencyInterceptor)
+  @ApiCreatedResponse({ type: AddExhibitResponse })
   add(
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
@@ -33,6 +41,7 @@ export class ExhibitsController {
 
   @Get()
   @ApiOperation({ summary: 'The exhibits of a lot the viewer may read (own sealed ones included)' })
+  @ApiOkResponse({ type: ExhibitListResponse })
   list(@CurrentAccount() account: Principal, @Param('code') code: string): Promise<ExhibitListResponse> {
     return this.exhibits.list(account, code);
   }

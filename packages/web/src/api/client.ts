@@ -22,3 +22,11 @@ export async function answer<T>(call: Promise<{ data?: T }>): Promise<T> {
 export function actionKey(key: string | undefined): Record<string, string> {
   return key ? { 'Idempotency-Key': key } : {};
 }
+
+/**
+ * The answer of a typed call, as a `WithCore` type (api/types.ts): where the document says only "an
+ * object", the caller names core's type for it.
+ */
+export async function answerWithCore<T>(call: Promise<{ data?: unknown }>): Promise<T> {
+  return (await call).data as T;
+}

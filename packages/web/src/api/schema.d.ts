@@ -2224,6 +2224,34 @@ export interface components {
             /** Format: binary */
             file: string;
         };
+        ExhibitUrls: {
+            original?: string;
+            web?: string;
+            thumb?: string;
+        };
+        ExhibitResponse: {
+            seq: number;
+            /** @enum {string} */
+            kind: "whole-lot" | "close-up" | "hole" | "uv-a" | "reference-page" | "receipt" | "other";
+            caption?: string;
+            /** @description on the roll only as a commitment; shown to the dealer who added it */
+            sealed: boolean;
+            addedBy: string;
+            time: string;
+            /** @description the stored file as the roll names it (core's ExhibitFile) */
+            original: Record<string, unknown>;
+            /** @description the files derived from it (core's ExhibitDerivative) */
+            derivatives: Record<string, unknown>[];
+            urls: components["schemas"]["ExhibitUrls"];
+        };
+        AddExhibitResponse: {
+            exhibit: components["schemas"]["ExhibitResponse"];
+            /** @description how the file was kept, for the uploader (for example a PDF stored as sent) */
+            notes: string[];
+        };
+        ExhibitListResponse: {
+            exhibits: components["schemas"]["ExhibitResponse"][];
+        };
         DealerSearchResponse: {
             items: components["schemas"]["PartyCard"][];
         };
@@ -3680,7 +3708,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ExhibitListResponse"];
+                };
             };
         };
     };
@@ -3703,7 +3733,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["AddExhibitResponse"];
+                };
             };
         };
     };

@@ -1,7 +1,7 @@
 import type { LotDescription, Money, Observations, StoredEntry } from '@beadroll/core';
 import { SYSTEM_ACTOR } from '@beadroll/core';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { answer, client } from '../../api/client';
+import { answer, answerWithCore, client } from '../../api/client';
 import type { operations } from '../../api/schema';
 import type { Schemas, WithCore } from '../../api/types';
 
@@ -88,33 +88,33 @@ export const lotsQueries = {
     queryOptions({
       queryKey: ['lots', 'detail', code],
       queryFn: ({ signal }) =>
-        answer(client.GET('/api/lots/{code}', { ...lot(code), signal })) as Promise<LotDetail>,
+        answerWithCore<LotDetail>(client.GET('/api/lots/{code}', { ...lot(code), signal })),
     }),
   roll: (code: string) =>
     queryOptions({
       queryKey: ['lots', 'roll', code],
       queryFn: ({ signal }) =>
-        answer(client.GET('/api/lots/{code}/roll', { ...lot(code), signal })) as Promise<RawRoll>,
+        answerWithCore<RawRoll>(client.GET('/api/lots/{code}/roll', { ...lot(code), signal })),
     }),
 };
 
 export const lotsApi = {
-  register: (body: CreateLotInput) => answer(client.POST('/api/lots', { body })) as Promise<LotDetail>,
+  register: (body: CreateLotInput) => answerWithCore<LotDetail>(client.POST('/api/lots', { body })),
   describe: (
     code: string,
     body: { description: DescriptionInput; sealed?: SealedInput; corrects?: { seq: number; reason: string } },
-  ) => answer(client.POST('/api/lots/{code}/descriptions', { ...lot(code), body })) as Promise<LotDetail>,
+  ) => answerWithCore<LotDetail>(client.POST('/api/lots/{code}/descriptions', { ...lot(code), body })),
   observe: (code: string, observations: Observations, corrects?: { seq: number; reason: string }) =>
-    answer(
+    answerWithCore<LotDetail>(
       client.POST('/api/lots/{code}/observations', {
         ...lot(code),
         body: { observations, ...(corrects ? { corrects } : {}) },
       }),
-    ) as Promise<LotDetail>,
+    ),
   voidSale: (code: string, reason?: string) =>
     answer(client.POST('/api/transfers/sales/{code}/void', { ...lot(code), body: reason ? { reason } : {} })),
   setListing: (code: string, listed: boolean) =>
-    answer(client.PUT('/api/lots/{code}/listing', { ...lot(code), body: { listed } })) as Promise<LotDetail>,
+    answerWithCore<LotDetail>(client.PUT('/api/lots/{code}/listing', { ...lot(code), body: { listed } })),
   /** Every page of the current filter, for the CSV export (the server pages at most 100). */
   async listAll(params: Omit<LotListParams, 'page' | 'pageSize'>): Promise<LotSummary[]> {
     const out: LotSummary[] = [];

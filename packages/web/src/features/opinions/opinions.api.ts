@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { OpinionBody } from '@beadroll/core';
-import { answer, client } from '../../api/client';
+import { answerWithCore, client } from '../../api/client';
 import type { Schemas, WithCore } from '../../api/types';
 
 export type OpinionRole = 'attribution' | 'dissent' | 'other';
@@ -24,26 +24,26 @@ export const opinionsQuery = (code: string) =>
   queryOptions({
     queryKey: ['lots', 'detail', code, 'opinions'],
     queryFn: () =>
-      answer(client.GET('/api/lots/{code}/opinions', { params: { path: { code } } })) as Promise<LotOpinions>,
+      answerWithCore<LotOpinions>(client.GET('/api/lots/{code}/opinions', { params: { path: { code } } })),
   });
 
 export const opinionsApi = {
   record: (code: string, body: OpinionDraft) =>
-    answer(
+    answerWithCore<OpinionWrite>(
       client.POST('/api/lots/{code}/opinions', {
         params: { path: { code } },
         body,
       }),
-    ) as Promise<OpinionWrite>,
+    ),
   withdraw: (code: string, seq: number, note?: string) =>
-    answer(
+    answerWithCore<OpinionWrite>(
       client.POST('/api/lots/{code}/opinions/{seq}/withdrawal', {
         ...opinion(code, seq),
         body: note ? { note } : {},
       }),
-    ) as Promise<OpinionWrite>,
+    ),
   reply: (code: string, seq: number, text: string) =>
-    answer(
+    answerWithCore<OpinionWrite>(
       client.POST('/api/lots/{code}/opinions/{seq}/replies', { ...opinion(code, seq), body: { text } }),
-    ) as Promise<OpinionWrite>,
+    ),
 };
