@@ -1,6 +1,6 @@
 import { EXHIBIT_KINDS, type ExhibitDerivative, type ExhibitFile, type ExhibitKind } from '@beadroll/core';
 import { queryOptions } from '@tanstack/react-query';
-import { answer, answerWithCore, client } from '../../api/client';
+import { answerWithCore, client } from '../../api/client';
 import type { Schemas, WithCore } from '../../api/types';
 import { ApiError, CSRF_HEADER, IDEMPOTENCY_HEADER, newIdempotencyKey, withRetries } from '../../lib/api';
 
