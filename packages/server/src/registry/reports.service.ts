@@ -1,3 +1,4 @@
+import type { ReportResponse } from './dto/registry-responses.dto';
 import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { Repository } from 'typeorm';
@@ -9,22 +10,6 @@ import { MailService } from '../mail/mail.service';
 import { Report, type ReportCategory, type ReportStatus } from './entities/report.entity';
 import { RegistrarRecordService } from './registrar-record.service';
 import { registryLetters } from './registry-letters';
-
-/** A report as the registrar's queue shows it. */
-export interface ReportResponse {
-  id: string;
-  lot: string;
-  category: ReportCategory;
-  text: string;
-  /** Whether the reporter left an address for the answer (the address itself stays with the report). */
-  answerWanted: boolean;
-  reporterEmail: string | null;
-  status: ReportStatus;
-  resolution: string | null;
-  closedBy: string | null;
-  closedAt: string | null;
-  createdAt: string;
-}
 
 export function toReportResponse(r: Report): ReportResponse {
   return {

@@ -2378,6 +2378,32 @@ export interface components {
             /** @description Why, for the registrar’s record (never on the roll) */
             note?: string;
         };
+        RedactionResponse: {
+            lot: string;
+            /** @description the entry whose body was removed */
+            seq: number;
+            /** @description the `redacted` entry now on the roll */
+            redactionSeq: number;
+            /** @enum {string} */
+            reason: "personal-data" | "unlawful-content" | "abuse" | "holder-request";
+            time: string;
+            /** @description SHA-256 of the files removed with an exhibit (now on the blocked list) */
+            blockedDigests: string[];
+        };
+        RedactionRequestResponse: {
+            id: string;
+            lot: string;
+            seq: number;
+            kind: string;
+            requester: string;
+            note: string;
+            /** @enum {string} */
+            status: "open" | "approved" | "declined";
+            decidedBy: string | null;
+            decidedAt: string | null;
+            decisionNote: string | null;
+            createdAt: string;
+        };
         DecisionNoteDto: {
             note?: string;
         };
@@ -2398,11 +2424,54 @@ export interface components {
             /** @description Only for the registrar’s answer; never passed on */
             email?: string;
         };
+        FiledReportResponse: {
+            id: string;
+            message: string;
+        };
+        ReportResponse: {
+            id: string;
+            lot: string;
+            /** @enum {string} */
+            category: "wrong-attribution" | "counterfeit" | "personal-data" | "other";
+            text: string;
+            /** @description whether the reporter left an address for the answer (the address itself stays with the report) */
+            answerWanted: boolean;
+            reporterEmail: string | null;
+            /** @enum {string} */
+            status: "open" | "closed";
+            resolution: string | null;
+            closedBy: string | null;
+            closedAt: string | null;
+            createdAt: string;
+        };
+        ReportPage: {
+            items: components["schemas"]["ReportResponse"][];
+            total: number;
+            page: number;
+            pageSize: number;
+        };
         CloseReportDto: {
             /** @description The registrar’s answer; e-mailed to the reporter when they left an address */
             resolution: string;
         };
-        Object: Record<string, unknown>;
+        RegistrarActionResponse: {
+            id: string;
+            at: string;
+            actor: string;
+            /** @enum {string} */
+            action: "approved" | "rejected" | "suspended" | "reinstated" | "redacted" | "redaction-declined" | "report-closed";
+            subject: string;
+            reason: string | null;
+            details: {
+                [key: string]: unknown;
+            };
+        };
+        RegistrarActionPage: {
+            items: components["schemas"]["RegistrarActionResponse"][];
+            total: number;
+            page: number;
+            pageSize: number;
+        };
         CloseAccountDto: {
             /** @description Your current password, to confirm */
             password: string;
@@ -4138,7 +4207,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RedactionResponse"];
+                };
             };
         };
     };
@@ -4157,7 +4228,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RedactionRequestResponse"][];
+                };
             };
         };
     };
@@ -4180,7 +4253,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RedactionResponse"];
+                };
             };
         };
     };
@@ -4203,7 +4278,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RedactionRequestResponse"];
+                };
             };
         };
     };
@@ -4226,7 +4303,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RedactionRequestResponse"];
+                };
             };
         };
     };
@@ -4249,7 +4328,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["FiledReportResponse"];
+                };
             };
         };
     };
@@ -4271,7 +4352,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ReportPage"];
+                };
             };
         };
     };
@@ -4294,7 +4377,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["ReportResponse"];
+                };
             };
         };
     };
@@ -4302,8 +4387,8 @@ export interface operations {
         parameters: {
             query?: {
                 action?: "approved" | "rejected" | "suspended" | "reinstated" | "redacted" | "redaction-declined" | "report-closed";
-                page?: components["schemas"]["Object"];
-                pageSize?: components["schemas"]["Object"];
+                page?: number;
+                pageSize?: number;
             };
             header?: never;
             path?: never;
@@ -4315,7 +4400,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["RegistrarActionPage"];
+                };
             };
         };
     };
@@ -4372,7 +4459,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["MessageResponse"];
+                };
             };
         };
     };
