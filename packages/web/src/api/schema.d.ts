@@ -1957,7 +1957,9 @@ export interface components {
             preview: string[][];
             total: number;
             /** @description field key → column index suggested by the header row */
-            suggested: Record<string, unknown>;
+            suggested: {
+                [key: string]: number;
+            };
             fields: components["schemas"]["ImportFieldResponse"][];
         };
         ImportFormDto: {
@@ -1967,10 +1969,14 @@ export interface components {
              */
             mapping?: string;
         };
+        CellProblemResponse: {
+            column: string;
+            message: string;
+        };
         RowProblemResponse: {
             /** @description row number as a spreadsheet shows it (the header is row 1) */
             row: number;
-            problems: Record<string, unknown>[];
+            problems: components["schemas"]["CellProblemResponse"][];
         };
         CheckResponse: {
             total: number;
