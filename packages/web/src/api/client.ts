@@ -7,7 +7,7 @@ import type { paths } from './schema';
  * OpenAPI document. Every call goes through the app's one transport (`lib/api.ts`), so a failure
  * is thrown as an ApiError and a call that returns has its answer.
  */
-export const client = createClient<paths>({
+export const client = /* @__PURE__ */ createClient<paths>({
   // A full address, so the request can be built outside a page too; the transport sends the path.
   baseUrl: typeof location === 'undefined' ? 'http://localhost' : location.origin,
   fetch: transport,

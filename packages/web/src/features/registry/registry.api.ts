@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { answer, client } from '../../api/client';
 import type { Schemas } from '../../api/types';
-import { ApiError, toApiError } from '../../lib/api';
+import { api, ApiError, toApiError } from '../../lib/api';
 
 export type RedactionReason = 'personal-data' | 'unlawful-content' | 'abuse' | 'holder-request';
 export const REDACTION_REASON_LABEL: Record<RedactionReason, string> = {
@@ -65,15 +65,19 @@ export const redactionRequestsQuery = () =>
 
 const byId = (id: string) => ({ params: { path: { id } } });
 
+/**
+ * Files a report from the public page. Through `lib/api` rather than the typed client: the public
+ * page's bundle stays without the client (the answer's type is still the generated one).
+ */
+export function fileReport(
+  code: string,
+  body: { category: string; text: string; email?: string },
+): Promise<Schemas['FiledReportResponse']> {
+  return api(`/api/public/lots/${encodeURIComponent(code)}/reports`, { body });
+}
+
 export const registryToolsApi = {
-  fileReport: (code: string, body: { category: string; text: string; email?: string }) =>
-    answer(
-      client.POST('/api/public/lots/{code}/reports', {
-        params: { path: { code } },
-        // The form's category is one of REPORT_CATEGORY_LABEL's keys; the server names any other.
-        body: body as Schemas['ReportDto'],
-      }),
-    ),
+  fileReport,
   closeReport: (id: string, resolution: string) =>
     answer(client.POST('/api/registry/reports/{id}/close', { ...byId(id), body: { resolution } })),
   redact: (body: { lot: string; seq: number; reason: RedactionReason; note?: string }) =>
