@@ -1,7 +1,9 @@
 // `npm run test:cluster`: Beadroll past one machine, tried on this one. Starts two app instances
 // behind HAProxy, a PostgreSQL primary with a streaming hot standby and a fake S3 (a throw-away
 // cluster in .data/test-cluster), then checks that both instances serve, a session works on
-// either, writes go through both, public reads come from the standby, a killed instance loses
+// either, every instance's mail lands in one mailbox, writes go through both, public reads (lot
+// data, lots with parents, bundles, exhibit files) come from the standby while a writer reads
+// their own writes, a killed instance loses
 // no acknowledged write while the balancer keeps serving, and the full-ledger audit passes.
 // Prints a table and ends with "N passed, M failed". `--built` skips the build.
 import { rmSync } from 'node:fs';
@@ -106,6 +108,25 @@ async function main(): Promise<number> {
       [...who].map(([k, v]) => `${k}: ${v} answered`).join(', '),
     );
 
+    // 2b. One mailbox: a letter sent by each instance shows on every instance's mailbox page.
+    for (const i of c.instances)
+      await fetch(`http://127.0.0.1:${i.port}/api/auth/forgot-password`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'x-beadroll-request': '1' },
+        body: JSON.stringify({ email: dealer.email }),
+      });
+    const letters = await Promise.all(
+      c.instances.map(async (i) => {
+        const html = await (await fetch(`http://127.0.0.1:${i.port}/dev/mailbox`)).text();
+        return html.split(`To ${dealer.email}`).length - 1;
+      }),
+    );
+    record(
+      'one mailbox: every instance’s mailbox page shows the mail every instance sent',
+      letters.every((n) => n >= c.instances.length),
+      c.instances.map((i, k) => `${i.name} shows ${letters[k]} letters to the dealer`).join(', '),
+    );
+
     const register = async (title: string) => {
       try {
         const r = await fetch(`${c.url}/api/lots`, {
@@ -136,7 +157,7 @@ async function main(): Promise<number> {
     );
 
     // 4. Public reads of a listed lot come from the standby (once it has replayed the write).
-    const code = first.find((r) => r.code)?.code;
+    const code = first.find((r) => r.code)?.code ?? undefined;
     let from = '';
     const until = Date.now() + 15_000;
     while (Date.now() < until) {
@@ -150,6 +171,59 @@ async function main(): Promise<number> {
       'public reads are answered by the standby',
       from === 'standby',
       `read from ${from}, lag ${health.standby.lagMs} ms`,
+    );
+
+    // 4b. The other public reads come from the standby too: a lot's export bundle, a lot with
+    // parents (its ancestors walked on the standby), and a public exhibit's file.
+    const fromStandby = async (path: string): Promise<string> => {
+      let seen = '';
+      const end = Date.now() + 15_000;
+      while (Date.now() < end) {
+        const r = await fetch(`${c.url}${path}`);
+        await r.arrayBuffer();
+        seen = r.ok ? (r.headers.get('beadroll-read-from') ?? 'no header') : `status ${r.status}`;
+        if (seen === 'standby') break;
+        await new Promise((res) => setTimeout(res, 250));
+      }
+      return seen;
+    };
+    const child = report.publicLots.find((p) => p.why === 'split child')?.code;
+    const exhibit = (
+      await db.query(
+        `SELECT x."lot_code" AS "code", x."seq" FROM "exhibits" x
+           JOIN "lot_views" v ON v."code" = x."lot_code" AND v."listed"
+          WHERE NOT x."sealed" ORDER BY x."lot_code", x."seq" LIMIT 1`,
+      )
+    ).rows[0] as { code: string; seq: number } | undefined;
+    const reads: Array<[string, string | undefined]> = [
+      ['a listed lot’s export bundle', code && `/api/public/lots/${code}/bundle`],
+      ['a lot with parents (split child)', child && `/api/public/lots/${child}`],
+      ['the bundle of a lot with parents', child && `/api/public/lots/${child}/bundle`],
+      [
+        'a public exhibit’s file',
+        exhibit && `/api/public/lots/${exhibit.code}/exhibits/${exhibit.seq}/thumb`,
+      ],
+    ];
+    for (const [what, path] of reads) {
+      const seenFrom = path ? await fromStandby(path) : 'nothing to read in the demo data';
+      record(`public read from the standby: ${what}`, seenFrom === 'standby', `read from ${seenFrom}`);
+    }
+
+    // 4c. A writer reads their own write at once: their reads go to the primary.
+    const mine = await register(`cluster ${run} own`);
+    const own = await fetch(`${c.url}/api/public/lots/${mine.code}`, { headers: { cookie } });
+    const ownBody = (await own.json().catch(() => ({}))) as { code?: string };
+    const ownBundle = await fetch(`${c.url}/api/public/lots/${mine.code}/bundle`, { headers: { cookie } });
+    await ownBundle.arrayBuffer();
+    record(
+      'a writer reads their own write at once (from the primary)',
+      mine.status === 201 &&
+        own.ok &&
+        ownBody.code === mine.code &&
+        own.headers.get('beadroll-read-from') === 'primary' &&
+        ownBundle.ok &&
+        ownBundle.headers.get('beadroll-read-from') === 'primary',
+      `registered ${mine.status}; public data ${own.status} from ${own.headers.get('beadroll-read-from')}, bundle ${ownBundle.status} from ${ownBundle.headers.get('beadroll-read-from')}`,
     );
 
     // 5. One instance killed in the middle of a burst.

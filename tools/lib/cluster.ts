@@ -1,9 +1,11 @@
 // Several Beadroll servers behind HAProxy, a PostgreSQL primary with a streaming hot standby,
-// and exhibits in S3 (a local fake S3 server): used by `npm run start:cluster` and by the
+// exhibits in S3 (a local fake S3 server) and one fake SMTP server every instance sends to, whose
+// mail each instance's /dev/mailbox page shows: used by `npm run start:cluster` and by the
 // cluster test. Everything listens on 127.0.0.1.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import { ensureJwtSecret, REPO } from './app-env.ts';
 import { pgEnv, startPrivateCluster, startStandby, type PrivateCluster, type Standby } from './pg.ts';
@@ -117,6 +119,29 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
   await s3.run();
   log(`fake S3 on 127.0.0.1:${s3Port} (bucket ${BUCKET})`);
 
+  // One mailbox for the whole cluster (unless FAKE_SMTP=false asks for a real SMTP server): a
+  // fake SMTP server in this process that every instance sends to, its messages served to the
+  // instances' mailbox pages (MAILBOX_URL).
+  let mail: { smtpPort: number; url: string; close(): Promise<void> } | undefined;
+  if ((process.env.FAKE_SMTP ?? 'true') !== 'false') {
+    const { MailCatcher, serveMessages } = createRequire(import.meta.url)(
+      join(REPO, 'packages/server/dist/mail/mail-catcher.js'),
+    ) as typeof import('../../packages/server/src/mail/mail-catcher.ts');
+    const catcher = new MailCatcher();
+    const smtpPort = await catcher.listen(0);
+    const http = await serveMessages(catcher, 0);
+    const url = `http://127.0.0.1:${(http.address() as AddressInfo).port}`;
+    mail = {
+      smtpPort,
+      url,
+      async close() {
+        await catcher.close();
+        await new Promise((r) => http.close(r));
+      },
+    };
+    log(`fake SMTP on 127.0.0.1:${smtpPort}, the one mailbox of every instance`);
+  }
+
   const publicBaseUrl = process.env.PUBLIC_BASE_URL ?? `http://127.0.0.1:${opts.port}`;
   const env: NodeJS.ProcessEnv = {
     ...process.env,
@@ -134,7 +159,14 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
     S3_SECRET_ACCESS_KEY: 'S3RVER',
     S3_FORCE_PATH_STYLE: 'true',
     DEMO_MODE: opts.demo ? 'true' : (process.env.DEMO_MODE ?? 'false'),
-    FAKE_SMTP: process.env.FAKE_SMTP ?? 'true',
+    ...(mail
+      ? {
+          FAKE_SMTP: 'false',
+          SMTP_HOST: '127.0.0.1',
+          SMTP_PORT: String(mail.smtpPort),
+          MAILBOX_URL: mail.url,
+        }
+      : { FAKE_SMTP: 'false' }),
     MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2',
     MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '131072',
     ...opts.extraEnv,
@@ -193,6 +225,7 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
         ),
       );
       await s3.close();
+      await mail?.close();
       standby.stop();
       primary.stop();
     },

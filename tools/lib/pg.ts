@@ -331,6 +331,9 @@ export async function startStandby(opts: {
         'stream',
         '-S',
         STANDBY_SLOT,
+        // Checkpoint at once rather than spread over checkpoint_timeout: a spread checkpoint can
+        // keep the copy waiting for minutes on a busy machine.
+        '--checkpoint=fast',
       ]);
     } catch (err) {
       rmSync(data, { recursive: true, force: true });

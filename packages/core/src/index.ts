@@ -94,6 +94,8 @@ export type {
   TransitionRule,
   ReducibleEntry,
 } from './rules.js';
+export { mayAppend, allowedActions } from './permissions.js';
+export type { Permission, PermissionContext } from './permissions.js';
 export { RollVerifier, createRollVerifier, verifyRoll } from './verify.js';
 export type {
   VerifyFailure,

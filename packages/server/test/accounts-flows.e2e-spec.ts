@@ -2,7 +2,7 @@ import request from 'supertest';
 import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
 import { createAccount, signIn } from './support/accounts';
 import { lastMailTo, linkIn } from './support/mail';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const BASE = 'http://beadroll.example';
 const W = { 'X-Beadroll-Request': '1' };
@@ -24,14 +24,10 @@ function applicant(n: string) {
 }
 
 describe('accounts: sign-up, e-mail, verification by the registrar, passwords', () => {
-  let t: TestApp;
   let http: () => ReturnType<typeof request>;
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     http = () => request(t.app.getHttpServer());
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('sign-up → verification mail → link page → POST confirm → registrar approves → a verified dealer signs in', async () => {

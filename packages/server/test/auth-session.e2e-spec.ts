@@ -1,15 +1,9 @@
 import request from 'supertest';
 import { createAccount } from './support/accounts';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('sign-in, the global guard and CSRF', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('signs in with httpOnly SameSite=Lax cookies and reports the session', async () => {
     const a = await createAccount(t, { role: 'dealer', displayName: 'Ada Glass' });

@@ -5,7 +5,7 @@ import request from 'supertest';
 import { PasswordsService } from '../src/auth/passwords.service';
 import { loadConfig } from '../src/config/app-config';
 import { createAccount } from './support/accounts';
-import { createTestApp, type TestApp } from './support/test-app';
+import { createTestApp, type TestApp, useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
@@ -27,14 +27,10 @@ function cookieValue(setCookie: string[] | string | undefined, name: string): st
 }
 
 describe('session tokens: tampering, expiry, rotation and reuse', () => {
-  let t: TestApp;
   let secret: string;
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     secret = readFileSync(join(t.dataDir, 'jwt.key'), 'utf8').trim();
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function claimsOf(agentCookie: string): Promise<{ sub: string; sid: string }> {

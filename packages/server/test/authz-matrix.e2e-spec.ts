@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { createAccount, signIn } from './support/accounts';
 import { type Access, AUTHZ_TABLE } from './support/authz-table';
-import { createTestApp, type TestApp } from './support/test-app';
+import { type TestApp, useTestApp } from './support/test-app';
 
 type Who = 'anonymous' | 'pending' | 'suspended' | 'dealer' | 'assessor' | 'registrar';
 const WHO: Who[] = ['anonymous', 'pending', 'suspended', 'dealer', 'assessor', 'registrar'];
@@ -54,19 +54,15 @@ function concrete(path: string): string {
 }
 
 describe('authorisation matrix', () => {
-  let t: TestApp;
   const creds: Partial<Record<Who, { email: string; password: string }>> = {};
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     creds.pending = await createAccount(t, { role: 'dealer', status: 'pending' });
     creds.suspended = await createAccount(t, { role: 'dealer', status: 'suspended' });
     creds.dealer = await createAccount(t, { role: 'dealer' });
     creds.assessor = await createAccount(t, { role: 'assessor' });
     creds.registrar = await createAccount(t, { role: 'registrar' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('lists every route of the server in the table, and nothing that is not a route', () => {

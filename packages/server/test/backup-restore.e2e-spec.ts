@@ -6,7 +6,7 @@ import { createAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { sha256, upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
-import { createEmptyDatabase, createTestApp, type TestApp, type TestDatabase } from './support/test-app';
+import { createEmptyDatabase, type TestDatabase, useTestApp } from './support/test-app';
 
 const REPO = resolve(__dirname, '..', '..', '..');
 const W = { 'X-Beadroll-Request': '1' };
@@ -22,17 +22,15 @@ function tool(name: 'backup' | 'restore', dir: string, env: Record<string, strin
 }
 
 describe('backup and restore', () => {
-  let t: TestApp;
   let empty: TestDatabase;
   let work: string;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     empty = await createEmptyDatabase();
     work = mkdtempSync(join(tmpdir(), 'beadroll-backup-'));
   });
   afterAll(async () => {
-    await t.close();
     await empty.drop();
     rmSync(work, { recursive: true, force: true });
   });

@@ -1,25 +1,18 @@
 import { verifyRoll } from '@beadroll/core';
 import { LedgerClock } from '../src/ledger/ledger.clock';
-import { createAccount, type TestAccount } from './support/accounts';
+import { useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 const HOUR = 3_600_000;
 
 describe('corrections and voided sales', () => {
-  let t: TestApp;
-  let seller: TestAccount;
-  let other: TestAccount;
-
-  beforeAll(async () => {
-    t = await createTestApp();
-    seller = await createAccount(t, { role: 'dealer' });
-    other = await createAccount(t, { role: 'dealer' });
-  });
+  const t = useTestApp();
+  const seller = useAccount(t, { role: 'dealer' });
+  const other = useAccount(t, { role: 'dealer' });
   afterAll(async () => {
     jest.restoreAllMocks();
-    await t.close();
   });
 
   async function register(): Promise<string> {

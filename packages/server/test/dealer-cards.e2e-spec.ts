@@ -1,16 +1,10 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { createAccount } from './support/accounts';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('public dealer cards by account id', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('answers the cards of verified accounts and leaves out pending and unknown ids', async () => {
     const dealer = await createAccount(t, {

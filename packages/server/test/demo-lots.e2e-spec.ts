@@ -11,7 +11,7 @@ import {
 import { runSeed, seedAccounts, type DemoReport } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 /** Keys that name private facts; none may appear anywhere in public data (the header's `sealed` is only the root of salted digests). */
 const PRIVATE_KEYS =
@@ -45,13 +45,12 @@ function decodeStrings(v: unknown): unknown {
 const DEMO_LOT_STEPS = [seedAccounts, seedLots];
 
 describe('the demo lots', () => {
-  let t: TestApp;
   let loaded: LoadedDemoLot[];
   let report: DemoReport;
   const dealers: Record<string, string> = {};
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     // The accounts and the lots, as npm start loads them (later steps add lots of their own).
     report = await runSeed(t.app, DEMO_LOT_STEPS);
     for (const row of (await t.app.get(DataSource).query('SELECT id, handle FROM accounts')) as Array<{
@@ -65,9 +64,6 @@ describe('the demo lots', () => {
       readDemoLots(DEMO_LOTS_FILE),
       dealers,
     );
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('are a few dozen varied lots with the same codes on every load, loaded once', async () => {

@@ -2,16 +2,10 @@ import { verifyRoll } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { runSeed } from '../src/demo/seed';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('demo scenario: opinions', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('gives demo lots opinions, one of them the assessor’s dissent on a listed lot, once', async () => {
     const first = await runSeed(t.app);

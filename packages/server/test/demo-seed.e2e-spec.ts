@@ -3,16 +3,10 @@ import { join } from 'node:path';
 import { DataSource } from 'typeorm';
 import { runSeed } from '../src/demo/seed';
 import { signIn } from './support/accounts';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('demo scenario: accounts', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('loads once, a second run changes nothing, and every printed sign-in works', async () => {
     const first = await runSeed(t.app);

@@ -2,16 +2,10 @@ import { parseBundleText, verifyBundle } from '@beadroll/core';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { runSeed } from '../src/demo/seed';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('demo scenario: transfers and sales', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('loads once; shows a lot that changed hands, every ending of an offer, and sales', async () => {
     const first = await runSeed(t.app);

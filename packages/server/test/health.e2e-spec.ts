@@ -1,15 +1,9 @@
 import request from 'supertest';
 import { buildOpenApiDocument } from '../src/openapi/openapi-document';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('health and the API surface', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('reports the database as ok', async () => {
     const res = await request(t.app.getHttpServer()).get('/api/health').expect(200);

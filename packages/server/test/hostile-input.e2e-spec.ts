@@ -1,9 +1,9 @@
 import request from 'supertest';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, useAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 const NUL = String.fromCharCode(0);
@@ -17,23 +17,16 @@ function deepJson(depth: number): string {
 }
 
 describe('hostile input answers 400, never 500', () => {
-  let t: TestApp;
-  let holder: TestAccount;
-  let other: TestAccount;
-  let registrar: TestAccount;
   let listedCode: string;
 
+  const t = useTestApp();
+  const holder = useAccount(t, { role: 'dealer' });
+  const other = useAccount(t, { role: 'dealer' });
+  const registrar = useAccount(t, { role: 'registrar' });
   beforeAll(async () => {
-    t = await createTestApp();
-    holder = await createAccount(t, { role: 'dealer' });
-    other = await createAccount(t, { role: 'dealer' });
-    registrar = await createAccount(t, { role: 'registrar' });
     listedCode = (
       await holder.agent.post('/api/lots').set(W).send({ description: description() }).expect(201)
     ).body.code as string;
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   const anon = () => request(t.app.getHttpServer());
@@ -137,18 +130,9 @@ describe('hostile input answers 400, never 500', () => {
 });
 
 describe('authorisation follows the roll', () => {
-  let t: TestApp;
-  let a: TestAccount;
-  let b: TestAccount;
-
-  beforeAll(async () => {
-    t = await createTestApp();
-    a = await createAccount(t, { role: 'dealer' });
-    b = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
+  const a = useAccount(t, { role: 'dealer' });
+  const b = useAccount(t, { role: 'dealer' });
 
   it('refuses a listing change by a dealer who does not hold the lot, even when nothing would change', async () => {
     const code = (

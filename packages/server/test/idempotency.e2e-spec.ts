@@ -2,28 +2,22 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { IdempotencySweeper } from '../src/idempotency/idempotency.module';
-import { createAccount, type TestAccount } from './support/accounts';
+import { useAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
 describe('idempotent writes', () => {
-  let t: TestApp;
   let db: DataSource;
-  let a: TestAccount;
-  let b: TestAccount;
 
+  const t = useTestApp();
+  const a = useAccount(t, { role: 'dealer' });
+  const b = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
-    a = await createAccount(t, { role: 'dealer' });
-    b = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function count(sql: string, params: unknown[] = []): Promise<number> {

@@ -1,41 +1,14 @@
-import { createAccount, type TestAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
-
-const W = { 'X-Beadroll-Request': '1' };
+import { type TestAccount, useAccount } from './support/accounts';
+import { recordOpinion, registerLot } from './support/lot-fixtures';
+import { useTestApp } from './support/test-app';
 
 describe('inventory search, sorting and paging', () => {
-  let t: TestApp;
-  let ana: TestAccount;
-  let ben: TestAccount;
   let venice: { code: string; displayCode: string };
   let bohemia: { code: string; displayCode: string };
 
-  async function register(who: TestAccount, over: object, sealed?: object) {
-    const res = await who.agent
-      .post('/api/lots')
-      .set(W)
-      .send({ description: description(over), ...(sealed ? { sealed } : {}) })
-      .expect(201);
-    return res.body as { code: string; displayCode: string };
-  }
+  const register = registerLot;
 
-  async function attribute(who: TestAccount, code: string, over: object) {
-    await who.agent
-      .post(`/api/lots/${code}/opinions`)
-      .set(W)
-      .send({
-        origin: 'venice-murano',
-        period: { from: 1880, to: 1920, approximate: true },
-        technique: 'wound-lampwork',
-        qualifier: 'attributed-to',
-        confidence: 'medium',
-        rationale: 'Raised roses over trailing, irregular holes.',
-        exhibits: [],
-        ...over,
-      })
-      .expect(201);
-  }
+  const attribute = recordOpinion;
 
   async function find(who: TestAccount, query: Record<string, string>) {
     const res = await who.agent.get('/api/lots').query(query).expect(200);
@@ -45,10 +18,10 @@ describe('inventory search, sorting and paging', () => {
     };
   }
 
+  const t = useTestApp();
+  const ana = useAccount(t, { role: 'dealer' });
+  const ben = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
-    ana = await createAccount(t, { role: 'dealer' });
-    ben = await createAccount(t, { role: 'dealer' });
     venice = await register(
       ana,
       { title: 'Pâte de verre roses', colours: ['white', 'pink'], listed: true },
@@ -74,9 +47,6 @@ describe('inventory search, sorting and paging', () => {
       decoration: [],
       listed: false,
     });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('finds a lot by its code, with or without hyphens, and by the start of it', async () => {

@@ -18,24 +18,20 @@ import { LogSequencer } from '../src/ledger/log-sequencer';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { dealer, description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 describe('the ledger on PostgreSQL', () => {
-  let t: TestApp;
   let ledger: LedgerService;
   let lots: LotsService;
   let reader: RollReaderService;
   let db: DataSource;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     ledger = t.app.get(LedgerService);
     lots = t.app.get(LotsService);
     reader = t.app.get(RollReaderService);
     db = t.app.get(DataSource);
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function storedRoll(code: string) {

@@ -2,16 +2,10 @@ import { inheritedRecord, parseBundle, verifyBundle, type EntryHeader, type Roll
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { runSeed, seedAccounts, seedLineage } from '../src/demo/seed';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 describe('demo scenario: a split strand and a combined piece', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('loads once, reports a listed split child whose public bundle verifies with its parent', async () => {
     const first = await runSeed(t.app, [seedAccounts, seedLineage]);

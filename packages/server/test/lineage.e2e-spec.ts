@@ -15,30 +15,24 @@ import { DataSource } from 'typeorm';
 import { AppError } from '../src/common/app-error';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
-import { createAccount, type TestAccount } from './support/accounts';
+import { type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
 describe('splits and combinations', () => {
-  let t: TestApp;
-  let odile: TestAccount;
-  let teodor: TestAccount;
   let ledger: LedgerService;
   let reader: RollReaderService;
   let db: DataSource;
 
+  const t = useTestApp();
+  const odile = useAccount(t, { role: 'dealer' });
+  const teodor = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
-    odile = await createAccount(t, { role: 'dealer' });
-    teodor = await createAccount(t, { role: 'dealer' });
     ledger = t.app.get(LedgerService);
     reader = t.app.get(RollReaderService);
     db = t.app.get(DataSource);
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function register(who: TestAccount, over: Partial<LotDescription> = {}): Promise<string> {
@@ -193,7 +187,7 @@ describe('splits and combinations', () => {
       expect(notHeld.body.error.code).toBe('forbidden');
       const open = await send(offered);
       expect(open.status).toBe(409);
-      expect(open.body.error.message).toMatch(/open transfer offer/);
+      expect(open.body.error.message).toMatch(/open offer/);
       expect(await totals()).toEqual(before);
     });
   });
@@ -327,7 +321,7 @@ describe('splits and combinations', () => {
       ]);
       const open = await send([{ lot: b }, { lot: offered }], 70);
       expect(open.status).toBe(409);
-      expect(open.body.error.message).toMatch(/open transfer offer/);
+      expect(open.body.error.message).toMatch(/open offer/);
       expect(await totals()).toEqual(before);
     });
 

@@ -22,12 +22,11 @@ import { CheckpointsService } from '../src/log/checkpoints.service';
 import { LogSequencer } from '../src/ledger/log-sequencer';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF: [string, string] = ['X-Beadroll-Request', '1'];
 
 describe('the ledger-wide log', () => {
-  let t: TestApp;
   let ledger: LedgerService;
   let checkpoints: CheckpointsService;
   let sequencer: LogSequencer;
@@ -35,8 +34,8 @@ describe('the ledger-wide log', () => {
   let base: string;
   const lots: string[] = [];
 
+  const t = useTestApp(() => ({ CHECKPOINT_SECONDS: '3600' }));
   beforeAll(async () => {
-    t = await createTestApp({ CHECKPOINT_SECONDS: '3600' });
     ledger = t.app.get(LedgerService);
     checkpoints = t.app.get(CheckpointsService);
     sequencer = t.app.get(LogSequencer);
@@ -44,9 +43,6 @@ describe('the ledger-wide log', () => {
     actor = d.id;
     await t.app.listen(0, '127.0.0.1');
     base = `http://127.0.0.1:${(t.app.getHttpServer().address() as AddressInfo).port}`;
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   const http = () => request(t.app.getHttpServer());
@@ -268,6 +264,55 @@ describe('the ledger-wide log', () => {
     expect(b.size).toBeGreaterThan(a.size);
     // Both carry valid log signatures: the evidence stands on its own.
     expect(base64Decode(latest.split('\n')[2]!)).not.toBeNull();
+  });
+
+  it('refuses to sign while an entry the log numbered is missing, and signs again once it is back', async () => {
+    const { lot } = await ledger.register({ actor, description: description() });
+    await sequencer.settle();
+    const su = await superuserClient(t.db.name);
+    try {
+      const { rows } = await su.query<{ entry: { log_index: string }; body: unknown }>(
+        `SELECT row_to_json(e) AS "entry", (SELECT row_to_json(b) FROM entry_bodies b WHERE b.entry_id = e.id) AS "body"
+           FROM entries e JOIN lots l ON l.id = e.lot_id WHERE l.code = $1 AND e.seq = 0`,
+        [lot],
+      );
+      const index = Number(rows[0]!.entry.log_index);
+      // Someone with the database's keys removes an entry (and its body), then the checkpoints.
+      await su.query('BEGIN');
+      await su.query('SET LOCAL session_replication_role = replica');
+      await su.query(
+        'DELETE FROM entry_bodies WHERE entry_id IN (SELECT id FROM entries WHERE log_index = $1)',
+        [index],
+      );
+      expect((await su.query('DELETE FROM entries WHERE log_index = $1', [index])).rowCount).toBe(1);
+      await su.query('DELETE FROM log_checkpoints');
+      await su.query('COMMIT');
+      await ledger.register({ actor, description: description() });
+      const refused = await sign();
+      expect(refused).toMatchObject({
+        signed: false,
+        refused: expect.stringContaining(`no entry at index ${index}: an entry was removed`),
+      });
+      checkpoints.invalidate();
+      await http().get('/api/log/checkpoint').expect(503);
+
+      // Restored from a backup, the log is whole again and the next pass signs it.
+      await su.query('BEGIN');
+      await su.query('SET LOCAL session_replication_role = replica');
+      await su.query(
+        'INSERT INTO entries OVERRIDING SYSTEM VALUE SELECT * FROM json_populate_record(NULL::entries, $1)',
+        [rows[0]!.entry],
+      );
+      if (rows[0]!.body)
+        await su.query(
+          'INSERT INTO entry_bodies OVERRIDING SYSTEM VALUE SELECT * FROM json_populate_record(NULL::entry_bodies, $1)',
+          [rows[0]!.body],
+        );
+      await su.query('COMMIT');
+    } finally {
+      await su.end();
+    }
+    expect(await sign()).toMatchObject({ signed: true });
   });
 
   it('the proof routes are public', async () => {

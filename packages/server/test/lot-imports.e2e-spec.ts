@@ -2,8 +2,8 @@ import ExcelJS from 'exceljs';
 import Papa from 'papaparse';
 import { DataSource } from 'typeorm';
 import { IMPORT_FIELDS } from '../src/lot-imports/import-columns';
-import { createAccount, type TestAccount } from './support/accounts';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useAccount } from './support/accounts';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 const HEADERS = IMPORT_FIELDS.map((f) => f.header);
@@ -35,19 +35,14 @@ function csv(rows: string[][]): Buffer {
 }
 
 describe('importing lots from a spreadsheet', () => {
-  let t: TestApp;
-  let dealer: TestAccount;
   let db: DataSource;
   const lotCount = async () =>
     Number(((await db.query('SELECT count(*)::int AS n FROM "lots"')) as Array<{ n: number }>)[0]!.n);
 
+  const t = useTestApp();
+  const dealer = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
-    dealer = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('offers the template as CSV and XLSX, with every column', async () => {

@@ -5,28 +5,18 @@ import { join, resolve } from 'node:path';
 import { parseBundleText, verifyBundle } from '@beadroll/core';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const REPO = resolve(__dirname, '../../..');
 const W = { 'X-Beadroll-Request': '1' };
 
 describe('lots over HTTP', () => {
-  let t: TestApp;
-  let ana: TestAccount;
-  let ben: TestAccount;
-  let registrar: TestAccount;
-
-  beforeAll(async () => {
-    t = await createTestApp();
-    ana = await createAccount(t, { role: 'dealer' });
-    ben = await createAccount(t, { role: 'dealer' });
-    registrar = await createAccount(t, { role: 'registrar' });
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
+  const ana = useAccount(t, { role: 'dealer' });
+  const ben = useAccount(t, { role: 'dealer' });
+  const registrar = useAccount(t, { role: 'registrar' });
 
   async function entryCount(): Promise<number> {
     const [{ n }] = (await t.app.get(DataSource).query('SELECT count(*)::int AS n FROM entries')) as Array<{

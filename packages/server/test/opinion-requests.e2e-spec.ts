@@ -1,6 +1,6 @@
-import { createAccount, type TestAccount } from './support/accounts';
+import { useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
@@ -15,13 +15,6 @@ const OPINION = {
 };
 
 describe('opinions on request', () => {
-  let t: TestApp;
-  let holder: TestAccount;
-  let other: TestAccount;
-  let thea: TestAccount;
-  let ravi: TestAccount;
-  let pending: TestAccount;
-
   async function newLot(listed = false): Promise<string> {
     const res = await holder.agent
       .post('/api/lots')
@@ -38,17 +31,12 @@ describe('opinions on request', () => {
       .send({ lot, ...body });
   }
 
-  beforeAll(async () => {
-    t = await createTestApp();
-    holder = await createAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
-    other = await createAccount(t, { role: 'dealer' });
-    thea = await createAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
-    ravi = await createAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
-    pending = await createAccount(t, { role: 'assessor', status: 'pending' });
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
+  const holder = useAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
+  const other = useAccount(t, { role: 'dealer' });
+  const thea = useAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
+  const ravi = useAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
+  const pending = useAccount(t, { role: 'assessor', status: 'pending' });
 
   it('lets a named assessor read an unlisted lot and answer with an opinion once it is listed, which closes the request', async () => {
     const code = await newLot();

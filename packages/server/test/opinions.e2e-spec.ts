@@ -3,45 +3,26 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { FakeSmtpService } from '../src/mail/fake-smtp.service';
 import { LedgerService } from '../src/ledger/ledger.service';
-import { createAccount, type TestAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
+import { description, opinionDraft } from './support/lot-fixtures';
+import { useTestApp } from './support/test-app';
 
 type Draft = Omit<OpinionBody, 'nonce'>;
 
-function opinion(over: Partial<Draft> = {}): Draft {
-  return {
-    origin: 'venice-murano',
-    period: { from: 1880, to: 1920, approximate: true },
-    technique: 'wound-lampwork',
-    qualifier: 'attributed-to',
-    confidence: 'medium',
-    rationale: 'Raised roses over trailing, irregular holes.',
-    exhibits: [],
-    ...over,
-  };
-}
+const opinion = opinionDraft;
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
 describe('opinions, dissent and the attribution aid over HTTP', () => {
-  let t: TestApp;
   let db: DataSource;
-  let holder: TestAccount;
-  let other: TestAccount;
-  let assessor: TestAccount;
-  let third: TestAccount;
 
+  const t = useTestApp();
+  const holder = useAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
+  const other = useAccount(t, { role: 'dealer', displayName: 'Osric Venn' });
+  const assessor = useAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
+  const third = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
-    holder = await createAccount(t, { role: 'dealer', displayName: 'Mirela Holt' });
-    other = await createAccount(t, { role: 'dealer', displayName: 'Osric Venn' });
-    assessor = await createAccount(t, { role: 'assessor', displayName: 'Thea Quill' });
-    third = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function newLot(listed = true, by: TestAccount = holder): Promise<string> {

@@ -2,25 +2,21 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { runSeed } from '../src/demo/seed';
 import { PublicLotsService } from '../src/lots/public-lots.service';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 /**
  * The public lot answer written by PostgreSQL in one statement must be the very JSON text that
  * serialising the bundle-built response gives, for every lot of the demo scenario.
  */
 describe('public lot data as one statement', () => {
-  let t: TestApp;
   let service: PublicLotsService;
   let lots: Array<{ code: string; listed: boolean }>;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     await runSeed(t.app);
     service = t.app.get(PublicLotsService);
     lots = await t.app.get(DataSource).query('SELECT "code", "listed" FROM "lot_views" ORDER BY "code"');
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('escapes strings exactly as JSON.stringify does', async () => {

@@ -7,10 +7,10 @@ import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { BlockedDigestsService } from '../src/registry/blocked-digests.service';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { lastMailTo } from './support/mail';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
@@ -18,28 +18,21 @@ const CSRF = ['X-Beadroll-Request', '1'] as const;
 const sha256Hex = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 
 describe("the registrar's tools", () => {
-  let t: TestApp;
   let db: DataSource;
   let lots: LotsService;
   let ledger: LedgerService;
   let reader: RollReaderService;
-  let registrar: TestAccount;
-  let holder: TestAccount;
-  let other: TestAccount;
   const http = () => request(t.app.getHttpServer());
 
+  const t = useTestApp();
+  const registrar = useAccount(t, { role: 'registrar' });
+  const holder = useAccount(t, { role: 'dealer', displayName: 'Marit Quell' });
+  const other = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
     lots = t.app.get(LotsService);
     ledger = t.app.get(LedgerService);
     reader = t.app.get(RollReaderService);
-    registrar = await createAccount(t, { role: 'registrar' });
-    holder = await createAccount(t, { role: 'dealer', displayName: 'Marit Quell' });
-    other = await createAccount(t, { role: 'dealer' });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   async function newLot(by: TestAccount = holder, over = {}): Promise<string> {

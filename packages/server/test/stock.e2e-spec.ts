@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
-import { createAccount, type TestAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
-import { createTestApp, type TestApp } from './support/test-app';
+import { createAccount, useAccount } from './support/accounts';
+import { recordOpinion, registerLot } from './support/lot-fixtures';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 
@@ -16,40 +16,14 @@ function binary(
 }
 
 describe('stock and sales figures', () => {
-  let t: TestApp;
-  let ana: TestAccount;
-  let ben: TestAccount;
+  const register = registerLot;
 
-  async function register(who: TestAccount, over: object, sealed?: object) {
-    const res = await who.agent
-      .post('/api/lots')
-      .set(W)
-      .send({ description: description(over), ...(sealed ? { sealed } : {}) })
-      .expect(201);
-    return res.body as { code: string; displayCode: string };
-  }
+  const attribute = recordOpinion;
 
-  async function attribute(who: TestAccount, code: string, over: object = {}) {
-    await who.agent
-      .post(`/api/lots/${code}/opinions`)
-      .set(W)
-      .send({
-        origin: 'venice-murano',
-        period: { from: 1880, to: 1920, approximate: true },
-        technique: 'wound-lampwork',
-        qualifier: 'attributed-to',
-        confidence: 'medium',
-        rationale: 'Raised roses over trailing, irregular holes.',
-        exhibits: [],
-        ...over,
-      })
-      .expect(201);
-  }
-
+  const t = useTestApp();
+  const ana = useAccount(t, { role: 'dealer' });
+  const ben = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
-    ana = await createAccount(t, { role: 'dealer' });
-    ben = await createAccount(t, { role: 'dealer' });
     // Held: two in EUR (one attributed), one in GBP, one with no cost.
     const a = await register(
       ana,
@@ -76,9 +50,6 @@ describe('stock and sales figures', () => {
       .expect(201);
     // Ben's stock never shows in Ana's figures.
     await register(ben, { title: 'Ben' }, { acquisition: { cost: { amount: 99900, currency: 'EUR' } } });
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   it('sums the cost of stock held, per currency, from the dealer’s own sealed values', async () => {

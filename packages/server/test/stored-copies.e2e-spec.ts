@@ -6,7 +6,7 @@ import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { createTestApp, superuserClient, type TestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
@@ -18,23 +18,19 @@ type Broken = Extract<AuditEvent, { type: 'broken' }>;
  * roll, and no write is decided by a cached copy the roll contradicts.
  */
 describe('stored copies of a roll', () => {
-  let t: TestApp;
   let ledger: LedgerService;
   let registrar: TestAccount;
   let holder: TestAccount;
   let other: TestAccount;
 
+  const t = useTestApp();
   beforeAll(async () => {
-    t = await createTestApp();
     ledger = t.app.get(LedgerService);
     [registrar, holder, other] = await Promise.all([
       createAccount(t, { role: 'registrar' }),
       createAccount(t, { role: 'dealer' }),
       createAccount(t, { role: 'dealer' }),
     ]);
-  });
-  afterAll(async () => {
-    await t.close();
   });
 
   /** A superuser with triggers off for its session: the one way to change a stored row. */

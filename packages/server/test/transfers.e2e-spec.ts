@@ -5,41 +5,36 @@ import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { LAPSE_LOCK_KEY, OfferLapseService } from '../src/transfers/offer-lapse.service';
 import { TransfersService } from '../src/transfers/transfers.service';
-import { createAccount, type TestAccount } from './support/accounts';
+import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
 import { lastMailTo, linkIn } from './support/mail';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
 const BASE = 'http://beadroll.example';
 
 describe('transfers between dealers and sales to private buyers', () => {
-  let t: TestApp;
-  let a: TestAccount;
-  let b: TestAccount;
-  let c: TestAccount;
   let db: DataSource;
 
+  const t = useTestApp();
+  const a = useAccount(t, {
+    role: 'dealer',
+    displayName: 'Mira Tollan',
+    business: 'Tollan Glass Cabinet',
+    handle: 'mira-tollan',
+  });
+  const b = useAccount(t, {
+    role: 'dealer',
+    displayName: 'Oskar Wendle',
+    business: 'Wendle Bead Barrow',
+    handle: 'oskar-wendle',
+  });
+  const c = useAccount(t, { role: 'dealer' });
   beforeAll(async () => {
-    t = await createTestApp();
     db = t.app.get(DataSource);
-    a = await createAccount(t, {
-      role: 'dealer',
-      displayName: 'Mira Tollan',
-      business: 'Tollan Glass Cabinet',
-      handle: 'mira-tollan',
-    });
-    b = await createAccount(t, {
-      role: 'dealer',
-      displayName: 'Oskar Wendle',
-      business: 'Wendle Bead Barrow',
-      handle: 'oskar-wendle',
-    });
-    c = await createAccount(t, { role: 'dealer' });
   });
   afterAll(async () => {
     jest.restoreAllMocks();
-    await t.close();
   });
 
   async function register(owner: TestAccount, listed = true): Promise<string> {

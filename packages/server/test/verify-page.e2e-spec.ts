@@ -2,18 +2,12 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import request from 'supertest';
-import { createTestApp, type TestApp } from './support/test-app';
+import { useTestApp } from './support/test-app';
 
 const PAGE = join(__dirname, '..', '..', 'verify', 'dist', 'verify.html');
 
 describe('the offline verifier page', () => {
-  let t: TestApp;
-  beforeAll(async () => {
-    t = await createTestApp();
-  });
-  afterAll(async () => {
-    await t.close();
-  });
+  const t = useTestApp();
 
   it('is served at /verify to anyone, as the one built file, under a policy that allows no connection', async () => {
     const res = await request(t.app.getHttpServer()).get('/verify').expect(200);

@@ -1,17 +1,19 @@
-// beadroll-verify FILE [--max-bytes N]: checks an exported bundle offline and prints one line per
-// roll. Exit 0: every roll and link intact. 1: a readable bundle with a broken roll (lot, seq
+// beadroll-verify FILE [--max-bytes N] [--log-key KEY]: checks an exported bundle offline and
+// prints one line per roll; with the registry's log key (its /api/log/key) also the bundle's
+// checkpoints of the public log. Exit 0: every roll and link intact (and every checkpoint). 1: a readable bundle with a broken roll (lot, seq
 // and reason named). 2: not a bundle at all (unreadable, over the size limit, not UTF-8, not
 // JSON, not a bundle's shape, an unknown version), or a wrong command line.
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
-import { DEFAULT_MAX_BUNDLE_BYTES } from '@beadroll/core';
-import { reportBundleBytes, reportLines, unreadableReport, type ExitCode } from './report.js';
+import { DEFAULT_MAX_BUNDLE_BYTES, type VerifierKey } from '@beadroll/core';
+import { readLogKey, reportBundleBytes, reportLines, unreadableReport, type ExitCode } from './report.js';
 
 export interface CliIo {
   out: (line: string) => void;
   err: (line: string) => void;
 }
 
-const USAGE = 'usage: beadroll-verify FILE [--max-bytes N]  (in the repository: npm run verify -- FILE)';
+const USAGE =
+  'usage: beadroll-verify FILE [--max-bytes N] [--log-key KEY]  (in the repository: npm run verify -- FILE)';
 
 /** Reads at most `limit + 1` bytes, so an oversized file is never read whole. */
 function readUpTo(file: string, limit: number): { bytes: Uint8Array; size: number } {
@@ -44,15 +46,25 @@ export function runCli(args: string[], io: CliIo, usageLine = USAGE): ExitCode {
   };
   let file: string | null = null;
   let maxBytes = DEFAULT_MAX_BUNDLE_BYTES;
+  let logKey: VerifierKey | undefined;
   for (let i = 0; i < args.length; i++) {
     const a = args[i]!;
-    if (a === '--max-bytes') {
+    if (a === '--log-key') {
+      try {
+        logKey = readLogKey(args[++i] ?? '');
+      } catch (e) {
+        return usage(`--log-key: ${(e as Error).message}`);
+      }
+    } else if (a === '--max-bytes') {
       const n = Number(args[++i]);
       if (!Number.isSafeInteger(n) || n <= 0) return usage('--max-bytes needs a positive whole number');
       maxBytes = n;
     } else if (a === '--help' || a === '-h') {
       io.out(usageLine);
-      io.out('Exit 0: every roll intact. 1: a roll is broken. 2: the file is not a bundle.');
+      io.out(
+        "--log-key KEY: the registry's log key (its /api/log/key), to check the bundle's checkpoints too.",
+      );
+      io.out('Exit 0: every roll intact. 1: a roll or checkpoint is broken. 2: the file is not a bundle.');
       return 0;
     } else if (file === null) file = a;
     else return usage(`unexpected argument ${a}`);
@@ -67,7 +79,7 @@ export function runCli(args: string[], io: CliIo, usageLine = USAGE): ExitCode {
   const report =
     read.size > maxBytes
       ? unreadableReport('too-large', `${file} is ${read.size} bytes, over the limit of ${maxBytes}`)
-      : reportBundleBytes(read.bytes, maxBytes);
+      : reportBundleBytes(read.bytes, maxBytes, logKey);
   const lines = reportLines(report);
   if (report.exitCode === 2) for (const l of lines) io.err(l);
   else for (const l of lines) io.out(l);

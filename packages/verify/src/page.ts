@@ -1,7 +1,7 @@
 // The offline verifier page: reads a dropped or chosen file on this device and shows core's
 // verdict for every roll. It makes no network request of any kind.
-import { sha256HexOfBytes } from '@beadroll/core';
-import { reportBundleBytes, type Report } from './report.js';
+import { DEFAULT_MAX_BUNDLE_BYTES, sha256HexOfBytes, type VerifierKey } from '@beadroll/core';
+import { readLogKey, reportBundleBytes, type Report } from './report.js';
 
 const VERDICT: Record<Report['exitCode'], string> = {
   0: 'Intact: every roll is unbroken and every link checks both ways.',
@@ -29,8 +29,54 @@ function sizeWords(n: number): string {
   return `${(n / 1024 / 1024).toFixed(1)} MiB`;
 }
 
+/** The checkpoints of the public log, as checked with the log's key, or how many were not checked. */
+function checkpointParts(report: Report, keyProblem: string | null): Node[] {
+  const parts: Node[] = [];
+  if (keyProblem) parts.push(el('p', { class: 'v-detail' }, `The log key was not used: ${keyProblem}.`));
+  if (report.checkpoints.length > 0) {
+    const list = el('ul', { class: 'v-rolls', 'aria-label': 'Checkpoints of the public log' });
+    for (const c of report.checkpoints) {
+      const item = el(
+        'li',
+        { class: 'v-roll v-checkpoint', 'data-ok': String(c.ok) },
+        el(
+          'div',
+          { class: 'v-roll-head' },
+          el('span', { class: 'v-code' }, c.size === null ? 'Checkpoint' : `Checkpoint of ${c.size} entries`),
+          el('span', { class: 'v-state' }, c.ok ? 'checks with the log’s key' : 'broken'),
+        ),
+      );
+      if (c.message) item.append(el('p', { class: 'v-detail' }, c.message));
+      for (const i of c.inclusions)
+        item.append(
+          el(
+            'p',
+            { class: i.ok ? 'v-meta' : 'v-detail' },
+            `Lot ${i.code}, entry ${i.seq}, at log index ${i.logIndex}: ${i.ok ? 'in the log' : `not shown in the log — ${i.message}`}`,
+          ),
+        );
+      list.append(item);
+    }
+    parts.push(el('h2', {}, 'Public log'), list);
+  } else if (report.uncheckedCheckpoints > 0)
+    parts.push(
+      el(
+        'p',
+        { class: 'v-meta' },
+        `The file carries ${report.uncheckedCheckpoints === 1 ? 'a checkpoint' : `${report.uncheckedCheckpoints} checkpoints`} of the registry's public log; give the log key above to check ${report.uncheckedCheckpoints === 1 ? 'it' : 'them'} too.`,
+      ),
+    );
+  return parts;
+}
+
 /** Renders a report; every text goes in as text, never as markup. */
-function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Report): void {
+function render(
+  target: HTMLElement,
+  name: string,
+  bytes: Uint8Array,
+  report: Report,
+  keyProblem: string | null = null,
+): void {
   const parts: Node[] = [];
   parts.push(el('h2', {}, 'Result'));
   const noted =
@@ -119,6 +165,7 @@ function render(target: HTMLElement, name: string, bytes: Uint8Array, report: Re
       );
     }
     for (const n of report.notes) parts.push(el('p', { class: 'v-note' }, n));
+    parts.push(...checkpointParts(report, keyProblem));
   }
   parts.push(el('p', { class: 'v-meta' }, `In one line: ${report.headline}`));
   target.replaceChildren(...parts);
@@ -130,7 +177,16 @@ async function check(file: File, target: HTMLElement): Promise<void> {
   target.hidden = false;
   target.replaceChildren(el('p', {}, `Checking ${file.name}…`));
   const bytes = new Uint8Array(await file.arrayBuffer());
-  render(target, file.name, bytes, reportBundleBytes(bytes));
+  const keyText = (document.getElementById('logkey') as HTMLInputElement).value.trim();
+  let logKey: VerifierKey | undefined;
+  let keyProblem: string | null = null;
+  if (keyText)
+    try {
+      logKey = readLogKey(keyText);
+    } catch (e) {
+      keyProblem = (e as Error).message;
+    }
+  render(target, file.name, bytes, reportBundleBytes(bytes, DEFAULT_MAX_BUNDLE_BYTES, logKey), keyProblem);
 }
 
 function start(): void {

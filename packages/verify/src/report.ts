@@ -4,9 +4,12 @@ import {
   formatLotCode,
   parseBundleBytes,
   parseBundleText,
+  parseVerifierKey,
   verifyBundle,
+  verifyBundleCheckpoint,
   type Bundle,
   type BundleVerification,
+  type VerifierKey,
 } from '@beadroll/core';
 
 /** Exit status of the command line: 0 intact, 1 a readable bundle with a broken roll, 2 not a bundle. */
@@ -43,6 +46,17 @@ export interface RollLine {
   notes: string[];
 }
 
+/** One checkpoint of the public log carried by the bundle, as checked with the log's key. */
+export interface CheckpointLine {
+  ok: boolean;
+  /** Entries the checkpoint covers, when its signature verified. */
+  size: number | null;
+  /** Why the checkpoint's note did not verify. */
+  message: string | null;
+  /** Each roll's entry the checkpoint says is in the log, and whether its proof holds. */
+  inclusions: Array<{ code: string; seq: number; logIndex: number; ok: boolean; message: string | null }>;
+}
+
 /** The outcome of checking one file, shared by the command line and the offline page. */
 export interface Report {
   exitCode: ExitCode;
@@ -59,6 +73,21 @@ export interface Report {
   notes: string[];
   /** Why the file is not a bundle at all (exit 2). */
   unreadable: { code: string; message: string } | null;
+  /** The bundle's log checkpoints as checked with the log's key (§14.5); empty without a key. */
+  checkpoints: CheckpointLine[];
+  /** Checkpoints the file carries that were not checked, for want of the log's key. */
+  uncheckedCheckpoints: number;
+}
+
+/** Reads the log's verifier key text (`name+keyid+base64`); throws a message in words when it is not one. */
+export function readLogKey(text: string): VerifierKey {
+  try {
+    return parseVerifierKey(text.trim());
+  } catch (e) {
+    throw new Error(`the log key is not a verifier key (${e instanceof Error ? e.message : String(e)})`, {
+      cause: e,
+    });
+  }
 }
 
 const ROLL_KEYS = new Set(['lot', 'scope', 'entries', 'ok', 'failure', 'state', 'unchecked']);
@@ -165,6 +194,45 @@ export function reportVerification(result: BundleVerification): Report {
     failures,
     notes,
     unreadable: null,
+    checkpoints: [],
+    uncheckedCheckpoints: 0,
+  };
+}
+
+/**
+ * Adds the check of the bundle's log checkpoints (§14.5) to a report of its rolls: with the log's
+ * key, every checkpoint's signature and inclusion proofs, a failure making the report broken;
+ * without one, only how many were left unchecked.
+ */
+function withCheckpoints(report: Report, bundle: Bundle, logKey: VerifierKey | undefined): Report {
+  const members = bundle.checkpoints as unknown[];
+  if (!logKey) return { ...report, uncheckedCheckpoints: members.length };
+  const checkpoints = members.map((m): CheckpointLine => {
+    const r = verifyBundleCheckpoint(m, bundle.rolls, logKey);
+    return {
+      ok: r.ok,
+      size: r.checkpoint?.size ?? null,
+      message: r.message ?? null,
+      inclusions: r.inclusions.map((i) => ({
+        code: codeOf(i.lot),
+        seq: i.seq,
+        logIndex: i.logIndex,
+        ok: i.ok,
+        message: i.message ?? null,
+      })),
+    };
+  });
+  const bad = checkpoints.find((c) => !c.ok);
+  if (!bad) return { ...report, checkpoints };
+  const wrong = bad.inclusions.find((i) => !i.ok);
+  const why = wrong
+    ? `lot ${wrong.code} seq ${wrong.seq} is not shown in the log at index ${wrong.logIndex} (${wrong.message})`
+    : `its signature does not check with the log's key (${bad.message})`;
+  return {
+    ...report,
+    checkpoints,
+    exitCode: report.exitCode === 0 ? 1 : report.exitCode,
+    headline: report.exitCode === 0 ? `broken: a checkpoint of the public log: ${why}` : report.headline,
   };
 }
 
@@ -183,31 +251,44 @@ export function unreadableReport(code: string, message: string): Report {
     failures: [],
     notes: [],
     unreadable: { code, message },
+    checkpoints: [],
+    uncheckedCheckpoints: 0,
   };
 }
 
 /**
  * Checks the bytes of a file with core: the size limit, strict UTF-8, JSON and the bundle's
- * shape (exit 2 when any of these fail), then every roll and link (exit 0 or 1). Never throws.
+ * shape (exit 2 when any of these fail), then every roll and link, and with the log's key
+ * (`logKey`) its log checkpoints (exit 0 or 1). Never throws.
  */
-export function reportBundleBytes(bytes: Uint8Array, maxBytes = DEFAULT_MAX_BUNDLE_BYTES): Report {
-  return reportParsed(() => parseBundleBytes(bytes, maxBytes));
+export function reportBundleBytes(
+  bytes: Uint8Array,
+  maxBytes = DEFAULT_MAX_BUNDLE_BYTES,
+  logKey?: VerifierKey,
+): Report {
+  return reportParsed(() => parseBundleBytes(bytes, maxBytes), logKey);
 }
 
 /** Like {@link reportBundleBytes}, for text already decoded. Never throws. */
-export function reportBundleText(text: string, maxBytes = DEFAULT_MAX_BUNDLE_BYTES): Report {
-  return reportParsed(() => parseBundleText(text, maxBytes));
+export function reportBundleText(
+  text: string,
+  maxBytes = DEFAULT_MAX_BUNDLE_BYTES,
+  logKey?: VerifierKey,
+): Report {
+  return reportParsed(() => parseBundleText(text, maxBytes), logKey);
 }
 
-function reportParsed(parse: () => Bundle): Report {
+function reportParsed(parse: () => Bundle, logKey: VerifierKey | undefined): Report {
+  let bundle: Bundle;
   let result: BundleVerification;
   try {
-    result = verifyBundle(parse());
+    bundle = parse();
+    result = verifyBundle(bundle);
   } catch (e) {
     if (e instanceof BundleError) return unreadableReport(e.code, e.message);
     return unreadableReport('not-a-bundle', e instanceof Error ? e.message : String(e));
   }
-  return reportVerification(result);
+  return withCheckpoints(reportVerification(result), bundle, logKey);
 }
 
 /** The report as lines of plain text, as the command line prints it. */
@@ -234,7 +315,21 @@ export function reportLines(report: Report): string[] {
   for (const p of report.problems)
     out.push(`  bundle  BROKEN   ${p.seq === null ? '' : `at seq ${p.seq}: `}${p.reason} — ${p.message}`);
   for (const n of report.notes) out.push(`  note: ${n}`);
+  for (const c of report.checkpoints) {
+    if (c.size === null) out.push(`  checkpoint  BROKEN   ${c.message ?? 'its signature does not check'}`);
+    else
+      out.push(`  checkpoint of ${plural(c.size, 'entry', 'entries')}  signature checks with the log's key`);
+    for (const i of c.inclusions)
+      out.push(
+        `      lot ${i.code} seq ${i.seq} at log index ${i.logIndex}: ${i.ok ? 'in the log' : `NOT SHOWN IN THE LOG — ${i.message}`}`,
+      );
+  }
+  if (report.uncheckedCheckpoints > 0)
+    out.push(
+      `  ${plural(report.uncheckedCheckpoints, 'checkpoint')} of the public log not checked: give the log's key with --log-key`,
+    );
   if (report.exitCode === 0) out.push(report.headline);
+  else if (report.failures.length === 0) out.push(report.headline);
   else for (const f of report.failures) out.push(brokenLine(f));
   return out;
 }

@@ -7,7 +7,15 @@ import { mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { EXAMPLE, EXAMPLE_V1, filesIn, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
+import {
+  EXAMPLE,
+  EXAMPLE_V1,
+  exampleWithCheckpoint,
+  filesIn,
+  NOT_BUNDLES,
+  REPO,
+  tamperedExample,
+} from './fixtures.js';
 
 interface Run {
   code: number | null;
@@ -16,11 +24,13 @@ interface Run {
 }
 
 const tampered = tamperedExample();
+const logged = exampleWithCheckpoint();
 const formatted = (lot: string) => `${lot.slice(0, 4)}-${lot.slice(4, 8)}-${lot.slice(8)}`;
 const dir = filesIn({
   'intact.json': EXAMPLE,
   'v1.json': EXAMPLE_V1,
   'broken.json': tampered.text,
+  'logged.json': logged.text,
   ...Object.fromEntries(NOT_BUNDLES.map((f) => [f.name, f.bytes])),
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -44,6 +54,24 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
       expect(r.out).toMatch(/^ {2}[0-9A-Z-]{11} {2}intact, not fully checkable after a removal/m);
       expect(r.out).toMatch(/^ {6}seq \d+: could not check /m);
       expect(r.out).toMatch(/^verified: .*; 1 roll is not fully checkable after a removal$/m);
+    });
+
+    it('with --log-key, checks the bundle’s checkpoint of the public log too (format §14.5)', () => {
+      const good = run(join(dir, 'logged.json'), '--log-key', logged.logKey);
+      expect(good.code).toBe(0);
+      expect(good.out).toMatch(/^ {2}checkpoint of 17 entries {2}signature checks with the log's key$/m);
+      expect(good.out).not.toContain('NOT SHOWN');
+      const without = run(join(dir, 'logged.json'));
+      expect(without.code).toBe(0);
+      expect(without.out).toContain(
+        "1 checkpoint of the public log not checked: give the log's key with --log-key",
+      );
+      const forged = run(join(dir, 'logged.json'), '--log-key', logged.otherKey);
+      expect(forged.code).toBe(1);
+      expect(forged.out).toMatch(/^broken: a checkpoint of the public log: its signature does not check/m);
+      const wrong = run(join(dir, 'logged.json'), '--log-key', 'not-a-key');
+      expect(wrong.code).toBe(2);
+      expect(wrong.err).toMatch(/^--log-key: the log key is not a verifier key/m);
     });
 
     it('exits 1 on a broken roll, naming the lot, the entry and the reason', () => {

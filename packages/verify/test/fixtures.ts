@@ -2,6 +2,15 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import {
+  base64Encode,
+  entryLeafHash,
+  formatCheckpoint,
+  formatVerifierKey,
+  MerkleTree,
+  noteSigner,
+  signNote,
+} from '@beadroll/core';
 
 /** The repository's root directory. */
 export const REPO = fileURLToPath(new URL('../../../', import.meta.url));
@@ -57,4 +66,50 @@ export function filesIn(files: Record<string, Uint8Array | string>): string {
   const dir = mkdtempSync(join(tmpdir(), 'beadroll-verify-test-'));
   for (const [name, bytes] of Object.entries(files)) writeFileSync(join(dir, name), bytes);
   return dir;
+}
+
+/**
+ * The example as the registry would export it with its public log: every entry numbered in the
+ * log in roll order, one signed checkpoint (C2SP tlog-checkpoint, Ed25519) of them all, and for
+ * each full roll an inclusion proof (RFC 9162 §2.1.3) of its head. Returns the text, the log's
+ * verifier key and, for tests of a forged signature, the key of another signer of the same name.
+ */
+export function exampleWithCheckpoint(): { text: string; logKey: string; otherKey: string } {
+  const b = JSON.parse(EXAMPLE) as {
+    rolls: Array<ExampleRoll & { scope: string }>;
+    checkpoints: unknown[];
+  };
+  const leaves: string[] = [];
+  for (const r of b.rolls)
+    for (const e of r.entries) {
+      e.logIndex = leaves.length;
+      leaves.push(e.hash);
+    }
+  const tree = new MerkleTree(leaves.map(entryLeafHash));
+  const size = leaves.length;
+  const signer = noteSigner('log.beads.example', new Uint8Array(32).fill(7));
+  const other = noteSigner('log.beads.example', new Uint8Array(32).fill(8));
+  const note = signNote(formatCheckpoint({ origin: signer.name, size, root: tree.root(size) }), signer);
+  b.checkpoints = [
+    {
+      note,
+      inclusions: b.rolls
+        .filter((r) => r.scope === 'full')
+        .map((r) => {
+          const head = r.entries.at(-1)!;
+          const seq = (JSON.parse(head.header) as { seq: number }).seq;
+          return {
+            lot: r.lot,
+            seq,
+            logIndex: head.logIndex!,
+            proof: tree.inclusionProof(head.logIndex!, size).map(base64Encode),
+          };
+        }),
+    },
+  ];
+  return {
+    text: JSON.stringify(b),
+    logKey: formatVerifierKey(signer.name, signer.publicKey),
+    otherKey: formatVerifierKey(other.name, other.publicKey),
+  };
 }

@@ -8,10 +8,18 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildVerifier, PAGE_FILE } from '../build.mjs';
 import { reportBundleText } from '../src/report.js';
-import { EXAMPLE, EXAMPLE_V1, NOT_BUNDLES, REPO, tamperedExample } from './fixtures.js';
+import {
+  EXAMPLE,
+  EXAMPLE_V1,
+  exampleWithCheckpoint,
+  NOT_BUNDLES,
+  REPO,
+  tamperedExample,
+} from './fixtures.js';
 
 const ARTIFACTS = join(REPO, 'test-artifacts');
 const tampered = tamperedExample();
+const logged = exampleWithCheckpoint();
 
 describe('the offline verifier page', () => {
   let browser: Browser;
@@ -114,6 +122,34 @@ describe('the offline verifier page', () => {
     }, tampered.text);
     await expect.poll(resultExit).toBe('1');
     expect(await page.locator('#result').textContent()).toContain('dropped.beadroll.json');
+  });
+
+  it('checks the file’s checkpoint of the public log with the log key typed in (format §14.5)', async () => {
+    await choose('logged.beadroll.json', logged.text);
+    await expect.poll(resultExit).toBe('0');
+    expect(await page.locator('#result').textContent()).toContain('give the log key above to check it too');
+    // The label names the field: clicking its text focuses it.
+    await page.getByText('The registry’s log key', { exact: false }).click();
+    await page.keyboard.type(logged.logKey);
+    await choose('logged.beadroll.json', logged.text);
+    await expect.poll(() => page.locator('.v-checkpoint').count()).toBe(1);
+    expect(await resultExit()).toBe('0');
+    const cp = page.locator('.v-checkpoint');
+    expect(await cp.getAttribute('data-ok')).toBe('true');
+    expect(await cp.textContent()).toContain('Checkpoint of 17 entries');
+    expect(await cp.textContent()).toContain('in the log');
+    await page.screenshot({ path: join(ARTIFACTS, 'verify-page-checkpoint-390.png'), fullPage: true });
+    // A checkpoint signed by another key is broken.
+    await page.locator('#logkey').fill(logged.otherKey);
+    await choose('logged.beadroll.json', logged.text);
+    await expect.poll(resultExit).toBe('1');
+    expect(await page.locator('.v-checkpoint').getAttribute('data-ok')).toBe('false');
+    // Text that is not a key is said so, and the file is still checked without it.
+    await page.locator('#logkey').fill('not a key');
+    await choose('logged.beadroll.json', logged.text);
+    await expect.poll(resultExit).toBe('0');
+    expect(await page.locator('#result').textContent()).toContain('The log key was not used');
+    await page.locator('#logkey').fill('');
   });
 
   it('offers no download of itself when opened from a file', async () => {

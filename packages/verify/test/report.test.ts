@@ -2,8 +2,14 @@
 // of the format add are shown, never dropped.
 import type { BundleVerification } from '@beadroll/core';
 import { describe, expect, it } from 'vitest';
-import { reportBundleBytes, reportBundleText, reportLines, reportVerification } from '../src/report.js';
-import { EXAMPLE, EXAMPLE_V1, tamperedExample } from './fixtures.js';
+import {
+  readLogKey,
+  reportBundleBytes,
+  reportBundleText,
+  reportLines,
+  reportVerification,
+} from '../src/report.js';
+import { EXAMPLE, EXAMPLE_V1, exampleWithCheckpoint, tamperedExample } from './fixtures.js';
 
 describe('the verifier report', () => {
   it('shows every roll of the example as intact, with exit 0', () => {
@@ -97,5 +103,60 @@ describe('the verifier report', () => {
     // 0xC3 0x28 is an invalid two-byte sequence (RFC 3629 §3: a lead byte needs a continuation byte).
     expect(reportBundleBytes(new Uint8Array([0xc3, 0x28])).unreadable?.code).toBe('not-utf8');
     expect(reportBundleBytes(new TextEncoder().encode(EXAMPLE), 10).unreadable?.code).toBe('too-large');
+  });
+
+  describe('checkpoints of the public log (ledger format §14.5)', () => {
+    const { text, logKey, otherKey } = exampleWithCheckpoint();
+
+    it('checks the signature and every inclusion proof with the log’s key', () => {
+      const r = reportBundleText(text, undefined, readLogKey(logKey));
+      expect(r.exitCode).toBe(0);
+      expect(r.checkpoints).toHaveLength(1);
+      expect(r.checkpoints[0]).toMatchObject({ ok: true, message: null });
+      expect(r.checkpoints[0]!.inclusions.length).toBeGreaterThan(0);
+      expect(r.checkpoints[0]!.inclusions.every((i) => i.ok)).toBe(true);
+      expect(reportLines(r).join('\n')).toMatch(
+        /checkpoint of \d+ entries {2}signature checks with the log's key/,
+      );
+    });
+
+    it('without the key, leaves the checkpoint unchecked and says how to check it', () => {
+      const r = reportBundleText(text);
+      expect(r.exitCode).toBe(0);
+      expect(r.checkpoints).toEqual([]);
+      expect(r.uncheckedCheckpoints).toBe(1);
+      expect(reportLines(r).join('\n')).toContain('1 checkpoint of the public log not checked');
+    });
+
+    it('a checkpoint signed by another key is broken, exit 1', () => {
+      const r = reportBundleText(text, undefined, readLogKey(otherKey));
+      expect(r.exitCode).toBe(1);
+      expect(r.checkpoints[0]!.ok).toBe(false);
+      expect(r.headline).toMatch(/^broken: a checkpoint of the public log: its signature does not check/);
+    });
+
+    it('an entry placed at another log index than its proof is broken, naming the lot and entry', () => {
+      const b = JSON.parse(text) as {
+        checkpoints: Array<{
+          inclusions: Array<{ lot: string; seq: number; logIndex: number; proof: string[] }>;
+        }>;
+        rolls: Array<{ lot: string; entries: Array<{ logIndex: number }> }>;
+      };
+      const inc = b.checkpoints[0]!.inclusions[0]!;
+      // Two leaves trade places: the roll's head claims the index of another entry.
+      const other = b.rolls.find((r) => r.lot !== inc.lot)!.entries[0]!;
+      const head = b.rolls.find((r) => r.lot === inc.lot)!.entries.find((e) => e.logIndex === inc.logIndex)!;
+      [head.logIndex, other.logIndex] = [other.logIndex, head.logIndex];
+      inc.logIndex = head.logIndex;
+      const r = reportBundleText(JSON.stringify(b), undefined, readLogKey(logKey));
+      expect(r.exitCode).toBe(1);
+      const bad = r.checkpoints[0]!.inclusions.find((i) => !i.ok)!;
+      expect(bad).toMatchObject({ seq: inc.seq, logIndex: inc.logIndex });
+      expect(r.headline).toContain(`seq ${inc.seq} is not shown in the log at index ${inc.logIndex}`);
+    });
+
+    it('a log key that is not a key is refused in words', () => {
+      expect(() => readLogKey('not a key')).toThrow(/the log key is not a verifier key/);
+    });
   });
 });

@@ -1,42 +1,16 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
-import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot } from './support/browser';
+import { demoAccount, pageErrors, signIn, signOut, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; displayName: string }> };
-const registrar = demo.accounts.find((a) => a.role === 'registrar')!;
-
-async function signIn(page: Page, baseUrl: string, email: string, password: string) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
-
-async function signOut(page: Page) {
-  await page.getByRole('button', { name: /account menu of/i }).click();
-  await page.getByRole('menuitem', { name: 'Sign out' }).click();
-  await page.getByRole('link', { name: 'Sign in' }).waitFor();
-}
+const registrar = demoAccount('registrar');
 
 describe('accounts in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('sign up → open the mail in the mailbox → confirm → the registrar approves → sign in as a verified dealer', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
     const email = `sela.${Date.now()}@example.invalid`;
     const password = 'seven glass beads in a row';
 
@@ -76,7 +50,7 @@ describe('accounts in Chromium', () => {
     await page.getByRole('button', { name: 'Confirm my e-mail address' }).click();
     await page.getByRole('heading', { name: 'E-mail address confirmed' }).waitFor();
 
-    await signIn(page, baseUrl, registrar.email, demo.password);
+    await signIn(page, baseUrl, registrar.email);
     await page.getByRole('link', { name: 'Verification queue' }).click();
     const row = page.getByRole('row').filter({ hasText: 'Sela Marrowind' });
     await row.waitFor();
@@ -97,7 +71,7 @@ describe('accounts in Chromium', () => {
     await row.waitFor({ state: 'detached' });
     await signOut(page);
 
-    await signIn(page, baseUrl, email, password);
+    await signIn(page, baseUrl, email, { password });
     // A verified dealer lands on the inventory.
     await page.getByRole('heading', { name: 'Inventory', level: 1 }).waitFor();
     await page.goto(`${baseUrl}/account`);
@@ -115,7 +89,7 @@ describe('accounts in Chromium', () => {
       await page.goto(`${baseUrl}/sign-in`);
       await page.getByRole('button', { name: 'Sign in' }).waitFor();
       await screenshot(page, 'accounts-sign-in-390');
-      await signIn(page, baseUrl, registrar.email, demo.password);
+      await signIn(page, baseUrl, registrar.email);
       await screenshot(page, 'accounts-account-390');
       await page.goto(`${baseUrl}/registry`);
       await page.getByRole('heading', { name: 'Account verification' }).waitFor();

@@ -1,41 +1,9 @@
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { formatLotCode, tagPayload, tagReference } from '@beadroll/core';
-import { writeTagVideo } from './support/fake-camera';
 import { openBrowser, screenshot, type Browser } from './support/browser';
-import type { Page } from 'playwright-core';
+import { apiClient, demoAccount, signIn, useCameraBrowser } from './support/journey';
 
-// The invented demo scenario: its accounts share one password.
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; status?: string }> };
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
-
-/** A signed-in HTTP client for a demo account. */
-async function client(baseUrl: string, email: string) {
-  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
-    body: JSON.stringify({ email, password: demo.password }),
-  });
-  expect(signIn.ok).toBe(true);
-  const cookie = signIn.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-  return async <T>(path: string, body?: unknown): Promise<T> => {
-    const res = await fetch(`${baseUrl}${path}`, {
-      method: body === undefined ? 'GET' : 'POST',
-      headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1', cookie },
-      ...(body === undefined ? {} : { body: JSON.stringify(body) }),
-    });
-    const json = (await res.json()) as T;
-    expect(res.ok, JSON.stringify(json)).toBe(true);
-    return json;
-  };
-}
+const dealer = demoAccount('dealer');
 
 /** Registers an invented lot for the demo dealer; returns its code, title and tag reference. */
 async function registerLot(
@@ -43,7 +11,7 @@ async function registerLot(
   title: string,
   opinion?: object,
 ): Promise<{ code: string; title: string; ref: string }> {
-  const call = await client(baseUrl, dealer.email);
+  const call = await apiClient(baseUrl, dealer.email);
   let lot = await call<{ code: string; headHash: string }>('/api/lots', {
     description: {
       title,
@@ -61,15 +29,6 @@ async function registerLot(
     lot = await call(`/api/lots/${lot.code}`);
   }
   return { code: lot.code, title, ref: tagReference(lot.headHash) };
-}
-
-async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
-  await page.getByLabel('Password').fill(demo.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  // Signing in lands each role on its own start page, away from the sign-in form.
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }
 
 describe('finding a lot in the inventory', () => {
@@ -121,29 +80,14 @@ describe('finding a lot in the inventory', () => {
 
 describe('a sale at a fair from a scanned tag, on a phone', () => {
   const baseUrl = inject('baseUrl');
-  let dir: string;
-  let browser: Browser;
   let lot: { code: string; title: string; ref: string };
-
-  beforeAll(async () => {
-    lot = await registerLot(baseUrl, 'Striped drawn beads for the fair');
-    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
-    const video = join(dir, 'tag.y4m');
-    await writeTagVideo(video, tagPayload(new URL(baseUrl).host, lot.code, lot.ref));
-    browser = await openBrowser({
-      width: 390,
-      height: 844,
-      args: [
-        '--use-fake-device-for-media-stream',
-        '--use-fake-ui-for-media-stream',
-        `--use-file-for-fake-video-capture=${video}`,
-      ],
-    });
-  });
-  afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
-  });
+  const browser = useCameraBrowser(
+    async () => {
+      lot = await registerLot(baseUrl, 'Striped drawn beads for the fair');
+      return tagPayload(new URL(baseUrl).host, lot.code, lot.ref);
+    },
+    { width: 390, height: 844 },
+  );
 
   it('sells the scanned lot in two taps after the scan', async () => {
     const { page } = browser;
@@ -157,7 +101,7 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
       await quick.getByRole(name === 'History' ? 'link' : 'button', { name }).waitFor();
     await screenshot(page, 'scanned-lot-quick-actions-390');
 
-    const call = await client(baseUrl, dealer.email);
+    const call = await apiClient(baseUrl, dealer.email);
     type Figures = { currencies: Array<{ currency: string; salesByYear: Array<{ revenue: number }> }> };
     const soldFor = (f: Figures) =>
       f.currencies.find((c) => c.currency === 'EUR')?.salesByYear.reduce((n, y) => n + y.revenue, 0) ?? 0;
@@ -198,7 +142,7 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
   });
 });
 
-const assessor = demo.accounts.find((a) => a.role === 'assessor' && a.status === 'verified')!;
+const assessor = demoAccount('assessor');
 
 describe('an opinion on request', () => {
   const baseUrl = inject('baseUrl');
@@ -208,7 +152,7 @@ describe('an opinion on request', () => {
   beforeAll(async () => {
     lot = await registerLot(baseUrl, 'Chevron beads from a trunk in the attic');
     // Listed, so the assessor's opinion may go on its roll.
-    const call = await client(baseUrl, dealer.email);
+    const call = await apiClient(baseUrl, dealer.email);
     await call(`/api/lots/${lot.code}/descriptions`, {
       description: {
         title: lot.title,
@@ -274,7 +218,7 @@ describe('an opinion on request', () => {
       .filter({ hasText: lot.title })
       .getByText('Answered')
       .waitFor();
-    const call = await client(baseUrl, dealer.email);
+    const call = await apiClient(baseUrl, dealer.email);
     const sent = await call<{ items: Array<{ lot: { code: string }; status: string }> }>(
       '/api/opinion-requests?box=sent',
     );

@@ -5,6 +5,7 @@ import { parseBundle, type ExhibitAddedBody } from '@beadroll/core';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { openBrowser, screenshot, type Browser } from './support/browser';
+import { pageErrors } from './support/journey';
 
 const REPO = resolve(__dirname, '..', '..', '..');
 
@@ -75,8 +76,7 @@ describe('attaching evidence photos to a lot (1280 px)', () => {
 
   it('attaches two photos with progress shown, sees them in the gallery, and their entries verify', async () => {
     const { page, context } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
     const files = [
       { name: 'strand-front.jpg', mimeType: 'image/jpeg', buffer: await photo(200) },
       { name: 'strand-clasp.jpg', mimeType: 'image/jpeg', buffer: await photo(60) },

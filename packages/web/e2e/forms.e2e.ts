@@ -1,30 +1,15 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { resolve } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot } from './support/browser';
+import { demoAccount, signIn, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as {
-  password: string;
-  accounts: Array<{ role: string; status: string; email: string; handle?: string }>;
-};
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
-const registrar = demo.accounts.find((a) => a.role === 'registrar')!;
-const assessor = demo.accounts.find((a) => a.role === 'assessor' && a.status === 'verified')!;
+const dealer = demoAccount('dealer');
+const registrar = demoAccount('registrar');
+const assessor = demoAccount('assessor');
 const AXE = readFileSync(createRequire(__filename).resolve('axe-core/axe.min.js'), 'utf8');
-
-async function signIn(page: Page, baseUrl: string, email: string) {
-  await page.context().clearCookies();
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
-  await page.getByLabel('Password').fill(demo.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
 
 const TOGGLES = 'input[type=checkbox], input[type=radio]';
 
@@ -128,19 +113,13 @@ async function photo(hue: number): Promise<Buffer> {
 }
 
 describe('forms a dealer fills in, in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
   let lotUrl = '';
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('registers a lot with two photos chosen on the form; they upload with progress once the lot exists', async () => {
     const { page } = browser;
-    await signIn(page, baseUrl, dealer.email);
+    await signIn(page, baseUrl, dealer.email, { fresh: true });
     // A dealer lands on the inventory.
     await page.getByRole('heading', { name: 'Inventory', level: 1 }).waitFor();
     await page.goto(`${baseUrl}/lots/new`);
@@ -229,9 +208,9 @@ describe('forms a dealer fills in, in Chromium', () => {
       '/account/data',
     ])
       await check(path, h1);
-    await signIn(page, baseUrl, assessor.email);
+    await signIn(page, baseUrl, assessor.email, { fresh: true });
     for (const path of ['/', '/account', '/account/data']) await check(path, h1);
-    await signIn(page, baseUrl, registrar.email);
+    await signIn(page, baseUrl, registrar.email, { fresh: true });
     // The registrar lands on the verification queue.
     expect(new URL(page.url()).pathname).toBe('/registry');
     for (const path of [
@@ -248,7 +227,7 @@ describe('forms a dealer fills in, in Chromium', () => {
 
   it('imports lots from a spreadsheet: the dry run names a bad row, nothing is written until it is fixed', async () => {
     const { page } = browser;
-    await signIn(page, baseUrl, dealer.email);
+    await signIn(page, baseUrl, dealer.email, { fresh: true });
     await page.goto(`${baseUrl}/lots/import`);
     const header = 'Title,Form,Number of beads,Bead size largest (mm),Currency,Cost\n';
     const bad = header + 'Amber strand,strand,40,8,EUR,12.50\nBlue strand,strand,30,99999,EUR,9\n';
@@ -283,7 +262,7 @@ describe('forms a dealer fills in, in Chromium', () => {
   it('fits a 390 px phone: the register form with its photo buttons', async () => {
     const phone = await openBrowser({ width: 390, height: 844 });
     try {
-      await signIn(phone.page, baseUrl, dealer.email);
+      await signIn(phone.page, baseUrl, dealer.email, { fresh: true });
       await phone.page.goto(`${baseUrl}/lots/new`);
       await phone.page.getByRole('button', { name: 'Take a photo' }).waitFor();
       expect(await phone.page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);

@@ -1,15 +1,10 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { useBrowser } from './support/journey';
 
 describe('the start page in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('renders in the shipped Atkinson Hyperlegible font with no console errors', async () => {
     const { page } = browser;

@@ -1,32 +1,17 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ role: string; email: string; handle: string }> };
-const ines = demo.accounts.find((a) => a.handle === 'ines-calloway-rue')!;
+const ines = demoHandle('ines-calloway-rue');
 
 describe('splitting a strand in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('splits a strand into two and shows the ancestry on a new lot’s dealer and public pages', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await page.goto(`${baseUrl}/sign-in`);
-    await page.getByRole('textbox', { name: 'E-mail address' }).fill(ines.email);
-    await page.getByLabel('Password').fill(demo.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    const errors = pageErrors(page);
+    await signIn(page, baseUrl, ines.email);
 
     // A fresh strand to split, registered through the API as the signed-in dealer.
     const code = await page.evaluate(async () => {

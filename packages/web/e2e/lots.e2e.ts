@@ -1,25 +1,10 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot } from './support/browser';
+import { demoAccount, pageErrors, signIn, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as {
-  password: string;
-  accounts: Array<{ role: string; status: string; email: string; displayName: string }>;
-};
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
+const dealer = demoAccount('dealer');
 const TITLE = 'Pink rose beads from Quillmere';
-
-async function signIn(page: Page, baseUrl: string) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(dealer.email);
-  await page.getByLabel('Password').fill(demo.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
 
 /** Nothing on the page reaches past a 390 px phone screen, so it never scrolls sideways. */
 async function fitsPhone(page: Page) {
@@ -27,21 +12,14 @@ async function fitsPhone(page: Page) {
 }
 
 describe('the dealer’s lots in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
   let lotUrl = '';
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('register a lot with observations → find it in the inventory → its page shows registered and observed, verified', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl);
+    const errors = pageErrors(page);
+    await signIn(page, baseUrl, dealer.email);
 
     await page.getByRole('link', { name: 'Register a lot' }).click();
     await page.getByRole('heading', { name: 'Register a lot' }).waitFor();
@@ -111,7 +89,7 @@ describe('the dealer’s lots in Chromium', () => {
     const phone = await openBrowser({ width: 390, height: 844 });
     try {
       const { page } = phone;
-      await signIn(page, baseUrl);
+      await signIn(page, baseUrl, dealer.email);
       await page.goto(`${baseUrl}/lots/new`);
       await page.getByRole('heading', { name: 'Register a lot' }).waitFor();
       await screenshot(page, 'lots-register-390');

@@ -1,47 +1,22 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { parseBundle, type OpinionBody } from '@beadroll/core';
-import type { Page } from 'playwright-core';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as {
-  password: string;
-  accounts: Array<{ role: string; handle: string; email: string; displayName: string }>;
-};
-const byHandle = (h: string) => demo.accounts.find((a) => a.handle === h)!;
-const holder = byHandle('odile-varnas');
-const second = byHandle('teodor-brasko');
-
-async function signIn(page: Page, baseUrl: string, email: string) {
-  await page.context().clearCookies();
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
-  await page.getByLabel('Password').fill(demo.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
+const holder = demoHandle('odile-varnas');
+const second = demoHandle('teodor-brasko');
 
 describe('opinions in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('a second dealer adds an exhibit and records a dissent citing it, with the aid beside the form; the holder sees it on the lot and finds the e-mail', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
 
     // The holder registers a listed lot and records an attribution (through the API, as a client would).
-    await signIn(page, baseUrl, holder.email);
+    await signIn(page, baseUrl, holder.email, { fresh: true });
     const headers = { 'X-Beadroll-Request': '1' };
     const lot = await page.request.post(`${baseUrl}/api/lots`, {
       headers,
@@ -75,7 +50,7 @@ describe('opinions in Chromium', () => {
     expect(mine.status()).toBe(201);
 
     // A second dealer opens the lot page and first adds evidence of their own: a close-up of a hole.
-    await signIn(page, baseUrl, second.email);
+    await signIn(page, baseUrl, second.email, { fresh: true });
     await page.goto(`${baseUrl}/lots/${code}`);
     await page.getByRole('article', { name: /Holder’s attribution by Odile Varnas/ }).waitFor();
     const closeUp = await sharp({
@@ -131,7 +106,7 @@ describe('opinions in Chromium', () => {
     expect(opinion.exhibits).toEqual([exhibit.exhibit.original.sha256]);
 
     // The holder sees the dissent beside the attribution on the lot's page, answers it, and has the e-mail.
-    await signIn(page, baseUrl, holder.email);
+    await signIn(page, baseUrl, holder.email, { fresh: true });
     await page.goto(`${baseUrl}/lots/${code}`);
     const seen = page.getByRole('article', { name: /Dissent by Teodor Brasko/ });
     await seen.waitFor();

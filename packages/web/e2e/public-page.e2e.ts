@@ -5,21 +5,11 @@ import { formatLotCode, parseBundle, tagReference, type Bundle } from '@beadroll
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { openBrowser, screenshot, type Browser } from './support/browser';
+import { pageErrors, superuser } from './support/journey';
 
 const require = createRequire(import.meta.url);
 const AXE = require.resolve('axe-core/axe.min.js');
 const REPO = resolve(__dirname, '..', '..', '..');
-
-/** A superuser connection to the journeys' database, for changing what the service stored. */
-function superuser(): pg.Client {
-  return new pg.Client({
-    host: process.env.PGHOST,
-    port: Number(process.env.PGPORT),
-    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
-    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
-    database: inject('database'),
-  });
-}
 
 /** The listed lot with the longest roll on the ledger, if any. */
 async function longestListedLot(db: pg.Client): Promise<string | null> {
@@ -121,8 +111,7 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
 
   it('opens the tag’s address and says the history is unbroken and the tag matches', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
     const seq = Math.max(0, entries().length - 2);
     const h = tagReference(entries()[seq]!.hash);
     const requests: string[] = [];

@@ -1,36 +1,13 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
-import pg from 'pg';
-import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { beforeAll, describe, expect, inject, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoAccount, pageErrors, signIn, superuser, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as {
-  password: string;
-  accounts: Array<{ role: string; status: string; email: string; displayName: string }>;
-};
-const registrar = demo.accounts.find((a) => a.role === 'registrar')!;
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
-
-async function signIn(page: Page, baseUrl: string, email: string, password: string) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
+const registrar = demoAccount('registrar');
+const dealer = demoAccount('dealer');
 
 /** A listed lot of the demo scenario. */
 async function listedLot(): Promise<string> {
-  const db = new pg.Client({
-    host: process.env.PGHOST,
-    port: Number(process.env.PGPORT),
-    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
-    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
-    database: inject('database'),
-  });
+  const db = superuser();
   await db.connect();
   try {
     const { rows } = await db.query<{ code: string }>(
@@ -51,18 +28,11 @@ describe("the registrar's tools in Chromium", () => {
   });
 
   describe('a buyer reports a problem on a phone', () => {
-    let browser: Browser;
-    beforeAll(async () => {
-      browser = await openBrowser({ width: 390, height: 844 });
-    });
-    afterAll(async () => {
-      await browser.close();
-    });
+    const browser = useBrowser({ width: 390, height: 844 });
 
     it('opens the form from the public page, is told what is missing, and sends the report', async () => {
       const { page } = browser;
-      const errors: string[] = [];
-      page.on('pageerror', (e) => errors.push(e.message));
+      const errors = pageErrors(page);
       await page.goto(`${baseUrl}/l/${code}`);
       await page.getByRole('button', { name: 'Report a problem with this page' }).click();
       await page.getByRole('button', { name: 'Send the report' }).click();
@@ -82,19 +52,12 @@ describe("the registrar's tools in Chromium", () => {
   });
 
   describe('the registrar at a desk', () => {
-    let browser: Browser;
-    beforeAll(async () => {
-      browser = await openBrowser();
-    });
-    afterAll(async () => {
-      await browser.close();
-    });
+    const browser = useBrowser();
 
     it('finds the report in the queue and runs the full-ledger audit with progress', async () => {
       const { page } = browser;
-      const errors: string[] = [];
-      page.on('pageerror', (e) => errors.push(e.message));
-      await signIn(page, baseUrl, registrar.email, demo.password);
+      const errors = pageErrors(page);
+      await signIn(page, baseUrl, registrar.email);
 
       await page.goto(`${baseUrl}/registry/reports`);
       const row = page.getByRole('row').filter({ hasText: 'too early for beads' });
@@ -118,19 +81,12 @@ describe("the registrar's tools in Chromium", () => {
     });
   });
   describe('a holder asks for the removal of an entry and the registrar removes it', () => {
-    let browser: Browser;
-    beforeAll(async () => {
-      browser = await openBrowser({ width: 1280, height: 900 });
-    });
-    afterAll(async () => {
-      await browser.close();
-    });
+    const browser = useBrowser({ width: 1280, height: 900 });
 
     it('asks from the lot page; the request waits in the registrar’s queue; removal keeps the roll verifying', async () => {
       const { page } = browser;
-      const errors: string[] = [];
-      page.on('pageerror', (e) => errors.push(e.message));
-      await signIn(page, baseUrl, dealer.email, demo.password);
+      const errors = pageErrors(page);
+      await signIn(page, baseUrl, dealer.email);
       const headers = { 'X-Beadroll-Request': '1' };
       const made = await page.request.post(`${baseUrl}/api/lots`, {
         headers,
@@ -173,7 +129,7 @@ describe("the registrar's tools in Chromium", () => {
       await dialog.getByRole('button', { name: 'Close' }).click();
 
       await page.context().clearCookies();
-      await signIn(page, baseUrl, registrar.email, demo.password);
+      await signIn(page, baseUrl, registrar.email);
       await page.goto(`${baseUrl}/registry/redactions`);
       const row = page
         .getByRole('table', { name: 'Holders’ requests' })

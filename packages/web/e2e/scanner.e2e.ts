@@ -1,10 +1,7 @@
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import { tagPayload, tagReference } from '@beadroll/core';
-import { writeTagVideo } from './support/fake-camera';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { screenshot } from './support/browser';
+import { demo, demoAccount, signIn, useCameraBrowser } from './support/journey';
 
 // An invented lot on an invented host: nobody signed in holds it, so the scanner must send the
 // reader to its public page with the tag reference, where the tag is checked.
@@ -13,26 +10,9 @@ const REF = 'ABCDEFGHJK';
 
 describe('the fair scanner with a fake camera in Chromium', () => {
   const baseUrl = inject('baseUrl');
-  let dir: string;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
-    const video = join(dir, 'tag.y4m');
-    await writeTagVideo(video, tagPayload('fair.beads.example', CODE, REF));
-    browser = await openBrowser({
-      width: 420,
-      height: 860,
-      args: [
-        '--use-fake-device-for-media-stream',
-        '--use-fake-ui-for-media-stream',
-        `--use-file-for-fake-video-capture=${video}`,
-      ],
-    });
-  });
-  afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
+  const browser = useCameraBrowser(async () => tagPayload('fair.beads.example', CODE, REF), {
+    width: 420,
+    height: 860,
   });
 
   it('reads a tag of a lot the reader does not hold and opens its public page with the tag reference', async () => {
@@ -62,14 +42,7 @@ describe('the fair scanner with a fake camera in Chromium', () => {
   });
 });
 
-// The invented demo scenario: its dealers share one password.
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as {
-  password: string;
-  accounts: Array<{ role: string; email: string; status?: string }>;
-};
-const dealer = demo.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
+const dealer = demoAccount('dealer');
 
 /** Signs the demo dealer in over HTTP and registers an invented lot for them; returns it with its head. */
 async function heldLot(baseUrl: string): Promise<{ code: string; title: string; ref: string }> {
@@ -106,37 +79,18 @@ async function heldLot(baseUrl: string): Promise<{ code: string; title: string; 
 
 describe('the fair scanner, signed in as the holder', () => {
   const baseUrl = inject('baseUrl');
-  let dir: string;
-  let browser: Browser;
   let lot: { code: string; title: string; ref: string };
-
-  beforeAll(async () => {
-    lot = await heldLot(baseUrl);
-    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
-    const video = join(dir, 'tag.y4m');
-    await writeTagVideo(video, tagPayload(new URL(baseUrl).host, lot.code, lot.ref));
-    browser = await openBrowser({
-      width: 420,
-      height: 860,
-      args: [
-        '--use-fake-device-for-media-stream',
-        '--use-fake-ui-for-media-stream',
-        `--use-file-for-fake-video-capture=${video}`,
-      ],
-    });
-  });
-  afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
-  });
+  const browser = useCameraBrowser(
+    async () => {
+      lot = await heldLot(baseUrl);
+      return tagPayload(new URL(baseUrl).host, lot.code, lot.ref);
+    },
+    { width: 420, height: 860 },
+  );
 
   it('reads the tag of a lot the dealer holds and opens that lot with its quick actions', async () => {
     const { page } = browser;
-    await page.goto(`${baseUrl}/sign-in`);
-    await page.getByRole('textbox', { name: 'E-mail address' }).fill(dealer.email);
-    await page.getByLabel('Password').fill(demo.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    await signIn(page, baseUrl, dealer.email);
     await page.goto(`${baseUrl}/scan`);
     await page.getByRole('button', { name: 'Start camera' }).click();
     await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });

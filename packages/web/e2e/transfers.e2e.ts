@@ -1,14 +1,10 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { openBrowser, screenshot } from './support/browser';
+import { demo, demoHandle, pageErrors, signOut, useBrowser } from './support/journey';
 
-const demo = JSON.parse(
-  readFileSync(resolve(__dirname, '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
-) as { password: string; accounts: Array<{ handle: string; email: string; displayName: string }> };
-const teodor = demo.accounts.find((a) => a.handle === 'teodor-brasko')!;
-const ines = demo.accounts.find((a) => a.handle === 'ines-calloway-rue')!;
+const teodor = demoHandle('teodor-brasko');
+const ines = demoHandle('ines-calloway-rue');
 // A lot of the demo scenario that Teodor holds after it changed hands (seed-demo/transfers.json).
 const LOT = 'Wound beads with blue trailing, a long strand';
 
@@ -26,26 +22,13 @@ async function choose(page: Page, name: string, text: string) {
   await select.selectOption(value!);
 }
 
-async function signOut(page: Page) {
-  await page.getByRole('button', { name: /account menu of/i }).click();
-  await page.getByRole('menuitem', { name: 'Sign out' }).click();
-  await page.getByRole('link', { name: 'Sign in' }).waitFor();
-}
-
 describe('transfers in Chromium', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const baseUrl = inject('baseUrl');
-  beforeAll(async () => {
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   it('A offers, B follows the e-mailed link and accepts, the lot is B’s, B records a sale', async () => {
     const { page } = browser;
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
+    const errors = pageErrors(page);
 
     // Dealer A offers one of their lots, with a sealed price.
     await page.goto(`${baseUrl}/sign-in?next=/transfers/outgoing`);
@@ -110,7 +93,7 @@ describe('transfers in Chromium', () => {
       const { page } = phone;
       // Odile has an open incoming offer in the demo scenario.
       await page.goto(`${baseUrl}/sign-in?next=/transfers/incoming`);
-      await signIn(page, demo.accounts.find((a) => a.handle === 'odile-varnas')!.email);
+      await signIn(page, demoHandle('odile-varnas').email);
       await page.getByRole('heading', { name: 'Incoming offers' }).waitFor();
       await page.getByRole('link', { name: 'Opaque turquoise ring beads' }).waitFor();
       await screenshot(page, 'transfers-incoming-390');

@@ -1,6 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { In, IsNull, Not, Repository } from 'typeorm';
+import { In, IsNull, Not, Repository, type EntityManager } from 'typeorm';
 import { AppError } from '../common/app-error';
 import { DealerCard } from './dto/dealer-card.dto';
 import { Account } from './entities/account.entity';
@@ -29,11 +29,12 @@ export class DealerCardsService {
   constructor(@InjectRepository(Account) private readonly accounts: Repository<Account>) {}
 
   /** Cards for the given account ids; ids of accounts never verified (or unknown) are left out. */
-  async cardsFor(ids: string[]): Promise<Map<string, DealerCard>> {
+  async cardsFor(ids: string[], manager?: EntityManager): Promise<Map<string, DealerCard>> {
     const unique = [...new Set(ids)].filter((id) => /^[0-9a-f-]{36}$/i.test(id));
     const out = new Map<string, DealerCard>();
     if (!unique.length) return out;
-    const rows = await this.accounts.find({ where: { id: In(unique), verifiedAt: Not(IsNull()) } });
+    const accounts = manager ? manager.getRepository(Account) : this.accounts;
+    const rows = await accounts.find({ where: { id: In(unique), verifiedAt: Not(IsNull()) } });
     for (const row of rows) {
       const card = toCard(row);
       if (card) out.set(row.id, card);

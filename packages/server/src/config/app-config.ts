@@ -32,6 +32,11 @@ export interface AppConfig {
     readonly from: string;
     /** Start an in-process fake SMTP server on smtpPort (0 = any free port) and keep what it receives. */
     readonly fakeSmtp: boolean;
+    /**
+     * Where the mailbox page reads mail from when several instances share one fake SMTP server
+     * (`GET {mailboxUrl}/messages`); '' = this process's own fake SMTP server.
+     */
+    readonly mailboxUrl: string;
   };
   readonly jwtSecretFile: string;
   /** The ledger-wide log: its Ed25519 signing key (made on first start) and how often it signs. */
@@ -196,6 +201,7 @@ export function loadConfig(env: Env = process.env): AppConfig {
       smtpPort: int(env, 'SMTP_PORT', 0, 0, 65535),
       from: str(env, 'MAIL_FROM', 'Beadroll <no-reply@beadroll.invalid>'),
       fakeSmtp: bool(env, 'FAKE_SMTP', demoMode),
+      mailboxUrl: optionalUrl(env, 'MAILBOX_URL'),
     },
     jwtSecretFile: path(env, 'JWT_SECRET_FILE', resolve(dataDir, 'secrets', 'jwt.key')),
     log: {

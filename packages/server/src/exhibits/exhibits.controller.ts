@@ -12,6 +12,7 @@ import type { Request, Response } from 'express';
 import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
 import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
 import { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
+import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
 import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
@@ -77,7 +78,9 @@ export class PublicExhibitsController {
     @Req() req: Request,
     @Res() res: Response,
   ): Promise<void> {
-    sendExhibitFile(req, res, await this.exhibits.publicFile(code, seq, variant), true);
+    const served = await this.exhibits.publicFile(code, seq, variant, readsOwnWrites(req));
+    res.setHeader(READ_FROM_HEADER, served.from!);
+    sendExhibitFile(req, res, served, true);
   }
 }
 
@@ -99,6 +102,8 @@ export class PublicInheritedExhibitsController {
     @Req() req: Request,
     @Res() res: Response,
   ): Promise<void> {
-    sendExhibitFile(req, res, await this.exhibits.inheritedFile(code, lot, seq, variant), true);
+    const served = await this.exhibits.inheritedFile(code, lot, seq, variant, readsOwnWrites(req));
+    res.setHeader(READ_FROM_HEADER, served.from!);
+    sendExhibitFile(req, res, served, true);
   }
 }

@@ -14,6 +14,7 @@ import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService } from '../lots/lots.service';
 import { BlockedDigestsService } from '../registry/blocked-digests.service';
+import { StandbyService, type ReadSource } from '../standby/standby.service';
 import { lockBlobNames } from '../storage/blob-locks';
 import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { hashFile } from '../storage/hashing';
@@ -34,6 +35,8 @@ export interface ServedExhibitFile {
   file: ExhibitFile;
   /** A name for the download, made from the lot and entry (never the uploader's file name). */
   downloadName: string;
+  /** For a public file: where its rows were read (the hot standby or the primary). */
+  from?: ReadSource;
 }
 
 const NOT_FOUND = () => new AppError('not_found', 'Not found.');
@@ -64,6 +67,7 @@ export class ExhibitsService {
     private readonly lots: LotsService,
     private readonly blocked: BlockedDigestsService,
     private readonly bundles: BundleService,
+    private readonly standby: StandbyService,
   ) {
     this.processing = pLimit(config.exhibits.processingConcurrency);
   }
@@ -213,18 +217,28 @@ export class ExhibitsService {
     };
   }
 
-  /** A file of a listed lot's public exhibit; anything else is the same bare 404. */
-  async publicFile(codeText: string, seqText: string, variant: string): Promise<ServedExhibitFile> {
+  /**
+   * A file of a listed lot's public exhibit; anything else is the same bare 404. Its rows are
+   * read from the hot standby while it is close enough behind, else (and always for a
+   * signed-in `writer`) from the primary; the bytes come from the blob store either way.
+   */
+  async publicFile(
+    codeText: string,
+    seqText: string,
+    variant: string,
+    writer = false,
+  ): Promise<ServedExhibitFile> {
     const code = RollReaderService.canonicalCode(codeText);
     if (!code) throw NOT_FOUND();
-    const listed: Array<{ listed: boolean }> = await this.dataSource.query(
+    const { manager, from } = await this.standby.reader(writer);
+    const listed: Array<{ listed: boolean }> = await manager.query(
       'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
       [code],
     );
     if (listed[0]?.listed !== true) throw NOT_FOUND();
-    const row = await this.row(code, seqText);
+    const row = await this.row(code, seqText, manager);
     if (!row || row.sealed) throw NOT_FOUND();
-    return this.serve(row, variant);
+    return { ...(await this.serve(row, variant)), from };
   }
 
   /**
@@ -237,16 +251,18 @@ export class ExhibitsService {
     ancestorText: string,
     seqText: string,
     variant: string,
+    writer = false,
   ): Promise<ServedExhibitFile> {
     const code = RollReaderService.canonicalCode(codeText);
     const ancestor = RollReaderService.canonicalCode(ancestorText);
     if (!code || !ancestor || code === ancestor || !/^[1-9]\d{0,8}$/.test(seqText)) throw NOT_FOUND();
-    const listed: Array<{ listed: boolean }> = await this.dataSource.query(
+    const { manager, from } = await this.standby.reader(writer);
+    const listed: Array<{ listed: boolean }> = await manager.query(
       'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
       [code],
     );
     if (listed[0]?.listed !== true) throw NOT_FOUND();
-    const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed);
+    const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed, manager);
     const seq = Number(seqText);
     const carried = bundle?.rolls
       .find((r) => r.lot === ancestor)
@@ -255,9 +271,9 @@ export class ExhibitsService {
         return h.seq === seq && h.kind === 'exhibit-added' && e.body !== null;
       });
     if (!carried) throw NOT_FOUND();
-    const row = await this.row(ancestor, seqText);
+    const row = await this.row(ancestor, seqText, manager);
     if (!row || row.sealed) throw NOT_FOUND();
-    return this.serve(row, variant);
+    return { ...(await this.serve(row, variant)), from };
   }
 
   /** A file for a signed-in viewer who may read the lot; a sealed one only for its adder. */
@@ -274,9 +290,10 @@ export class ExhibitsService {
     return this.serve(row, variant);
   }
 
-  private async row(code: string, seqText: string): Promise<ExhibitEntity | null> {
+  private async row(code: string, seqText: string, manager?: EntityManager): Promise<ExhibitEntity | null> {
     if (!/^[1-9]\d{0,8}$/.test(seqText)) return null;
-    return this.exhibits.findOne({ where: { lotCode: code, seq: Number(seqText) } });
+    const exhibits = manager ? manager.getRepository(ExhibitEntity) : this.exhibits;
+    return exhibits.findOne({ where: { lotCode: code, seq: Number(seqText) } });
   }
 
   private async serve(row: ExhibitEntity, variant: string): Promise<ServedExhibitFile> {

@@ -8,7 +8,7 @@ import {
   type ExhibitAddedBody,
   type RollState,
 } from '@beadroll/core';
-import { DataSource } from 'typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
 import { LogService } from '../log/log.service';
 import { RollReaderService, type StoredRollEntry } from './roll-reader.service';
 
@@ -41,13 +41,21 @@ export class BundleService {
     private readonly log: LogService,
   ) {}
 
+  /**
+   * The bundle of `code`, every row read through `manager` (the primary by default; a public
+   * read may pass the hot standby's). Its checkpoint is the log's latest, with proofs of the
+   * entries this read saw.
+   */
   async bundleFor(
     code: string,
     fullAncestor: (lot: string, state: RollState) => boolean = (_lot, state) => state.listed,
+    manager: EntityManager = this.dataSource.manager,
   ): Promise<Bundle | null> {
-    const lot = await this.reader.findLot(code);
+    const lot = await this.reader.findLot(code, manager);
     if (!lot) return null;
-    const parts: RollPart[] = [{ lot: code, scope: 'full', entries: await this.reader.entries(lot.id) }];
+    const parts: RollPart[] = [
+      { lot: code, scope: 'full', entries: await this.reader.entries(lot.id, undefined, manager) },
+    ];
     const queue = [parts[0]!];
     while (queue.length > 0) {
       const part = queue.shift()!;
@@ -61,27 +69,33 @@ export class BundleService {
           known.links!.add(p.seq);
           continue;
         }
-        const rows: Array<{ id: string; state: RollState }> = await this.dataSource.query(
+        const rows: Array<{ id: string; state: RollState }> = await manager.query(
           'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
           [p.lot],
         );
         const row = rows[0];
         if (!row) continue; // the verifier will report the missing parent
         if (fullAncestor(p.lot, row.state)) {
-          const full: RollPart = { lot: p.lot, scope: 'full', entries: await this.reader.entries(row.id) };
+          const full: RollPart = {
+            lot: p.lot,
+            scope: 'full',
+            entries: await this.reader.entries(row.id, undefined, manager),
+          };
           parts.push(full);
           queue.push(full);
           continue;
         }
         const standing = new Set(row.state.opinions.filter((o) => o.body).map((o) => o.seq));
         const cited = new Set(row.state.opinions.flatMap((o) => o.body?.exhibits ?? []));
-        const travelling = (await this.reader.entries(row.id, { kinds: TRAVELLING_KINDS })).filter((e) => {
-          if (e.kind === 'opinion') return standing.has(e.seq) && e.body !== null;
-          if (e.kind !== 'exhibit-added') return true;
-          if (e.body === null) return false;
-          const b = JSON.parse(e.body) as ExhibitAddedBody;
-          return 'exhibit' in b && cited.has(b.exhibit.original.sha256);
-        });
+        const travelling = (await this.reader.entries(row.id, { kinds: TRAVELLING_KINDS }, manager)).filter(
+          (e) => {
+            if (e.kind === 'opinion') return standing.has(e.seq) && e.body !== null;
+            if (e.kind !== 'exhibit-added') return true;
+            if (e.body === null) return false;
+            const b = JSON.parse(e.body) as ExhibitAddedBody;
+            return 'exhibit' in b && cited.has(b.exhibit.original.sha256);
+          },
+        );
         const part: RollPart = {
           lot: p.lot,
           scope: INHERITED_SCOPE,

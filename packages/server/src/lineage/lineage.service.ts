@@ -11,6 +11,7 @@ import { DataSource } from 'typeorm';
 import { AppError, type FieldProblem } from '../common/app-error';
 import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { requireMayAppend } from '../ledger/roll-rule.error';
 import { LotsService, type Viewer } from '../lots/lots.service';
 import type { CombineLotsDto, SplitLotDto } from './dto/lineage-requests.dto';
 import type {
@@ -59,22 +60,6 @@ function beadsGone(fields: FieldProblem[]): AppError {
   );
 }
 
-/** Refuses a write on a lot that is not held by the actor and free of offers (409/403). */
-function requireHeld(code: string, state: RollState, actor: string): void {
-  if (state.holder !== actor)
-    throw new AppError('forbidden', `lot ${formatLotCode(code)} is held by another dealer`);
-  if (state.status === 'offered')
-    throw new AppError(
-      'roll_rule',
-      `lot ${formatLotCode(code)} has an open transfer offer: it can be divided or combined once the offer is answered or withdrawn`,
-    );
-  if (state.status !== 'held')
-    throw new AppError(
-      'roll_rule',
-      `lot ${formatLotCode(code)} is ${state.status}: it has no beads left to use`,
-    );
-}
-
 /**
  * Splits and combinations: a lot's beads go into new lots, and the rolls link both ways. Each
  * is one ledger transaction over every lot involved (locked in the ledger's fixed order): the
@@ -109,7 +94,7 @@ export class LineageService {
     });
     if (problems.length) throw AppError.validation(problems);
     const seen = (await this.states([code])).get(code)!;
-    requireHeld(code, seen, actor.id);
+    requireMayAppend(seen, 'split', actor.id, { lot: code });
     const total = sumOf(descriptions.map((d) => d.count));
     const had = seen.description?.count ?? seen.remaining;
     if (!had.estimated && total.value > had.value)
@@ -124,7 +109,7 @@ export class LineageService {
         },
       ]);
     return this.ledger.withLots([code], async (tx) => {
-      requireHeld(code, tx.state(code), actor.id);
+      requireMayAppend(tx.state(code), 'split', actor.id, { lot: code });
       const codes = await this.newCodes(tx, descriptions.length, preset.codes);
       const split = await tx.append(code, {
         kind: 'split',
@@ -185,7 +170,7 @@ export class LineageService {
         problems.push({ field: `parts.${i}.lot`, reason: 'you do not hold this lot' });
     });
     if (problems.length) throw AppError.validation(problems);
-    for (const code of codes) requireHeld(code, seen.get(code)!, actor.id);
+    for (const code of codes) requireMayAppend(seen.get(code)!, 'combined', actor.id, { lot: code });
     for (const [i, code] of codes.entries()) {
       const ancestors = await this.ancestorsOf(code);
       const other = codes.find((c) => c !== code && ancestors.has(c));
@@ -231,7 +216,7 @@ export class LineageService {
 
     return this.ledger.withLots(codes, async (tx) => {
       const states = new Map(codes.map((c) => [c, tx.state(c)] as const));
-      for (const code of codes) requireHeld(code, states.get(code)!, actor.id);
+      for (const code of codes) requireMayAppend(states.get(code)!, 'combined', actor.id, { lot: code });
       const now = taken(states);
       const nowTotal = sumOf(now);
       if (nowTotal.value !== description.count.value || nowTotal.estimated !== total.estimated)

@@ -12,6 +12,7 @@ import {
   formatVerifierKey,
   hashHex,
   logOrigin,
+  type MerkleTree,
   noteSigner,
   signNote,
   verifyConsistency,
@@ -21,7 +22,7 @@ import { DataSource } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { loadLogSeed } from './log-key';
-import { LogTreeService } from './log-tree.service';
+import { LogGapError, LogTreeService } from './log-tree.service';
 
 /** Transaction advisory lock held by the one instance that signs a checkpoint ("BRLOGSG1"). */
 export const CHECKPOINT_LOCK_KEY = 0x42524c4f47534731n;
@@ -59,6 +60,8 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   private signerValue?: NoteSigner;
   private running?: Promise<SignRun>;
   private latestCache?: { at: number; value: LatestCheckpoint | null };
+  /** The last refusal logged, so a refusal that stands is logged once, not every pass. */
+  private refusal?: string;
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -152,7 +155,18 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       if (last && Number(last.size) === size) return { signed: false, size };
       if (last && !force && Number(last.age) < this.config.log.checkpointSeconds)
         return { signed: false, size };
-      const tree = await this.tree.rebuild(size);
+      let tree: MerkleTree;
+      try {
+        tree = await this.tree.rebuild(size);
+      } catch (err) {
+        // A removed entry leaves a hole no checkpoint may cover: refuse, every pass, until the
+        // entry is back (restored from a backup), rather than sign a log with a leaf missing.
+        if (!(err instanceof LogGapError)) throw err;
+        return this.refuse(
+          size,
+          `the log of ${size} entries has no entry at index ${err.index}: an entry was removed`,
+        );
+      }
       const root = tree.root(size);
       if (last) {
         const lastSize = Number(last.size);
@@ -168,10 +182,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
                 )
               ? `the log of ${size} entries is not consistent with its last checkpoint of ${lastSize}: a past entry changed`
               : undefined;
-        if (refused) {
-          this.logger.error(`checkpoint refused: ${refused}`);
-          return { signed: false, size, refused };
-        }
+        if (refused) return this.refuse(size, refused);
       }
       const note = signNote(formatCheckpoint({ origin: this.signer.name, size, root }), this.signer);
       await runner.query('INSERT INTO "log_checkpoints" ("size", "root", "note") VALUES ($1, $2, $3)', [
@@ -181,11 +192,18 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       ]);
       await runner.commitTransaction();
       this.latestCache = undefined;
+      this.refusal = undefined;
       return { signed: true, size };
     } finally {
       if (runner.isTransactionActive) await runner.rollbackTransaction();
       await runner.release();
     }
+  }
+
+  private refuse(size: number, refused: string): SignRun {
+    if (refused !== this.refusal) this.logger.error(`checkpoint refused: ${refused}`);
+    this.refusal = refused;
+    return { signed: false, size, refused };
   }
 
   /** The latest signed checkpoint with its cosignatures, or null before the first. */

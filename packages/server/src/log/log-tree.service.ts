@@ -4,6 +4,13 @@ import { DataSource } from 'typeorm';
 
 const PAGE = 10_000;
 
+/** The entries table has no entry at a log index below the log's size: an entry was removed. */
+export class LogGapError extends Error {
+  constructor(readonly index: number) {
+    super(`the log has no leaf ${index}`);
+  }
+}
+
 /**
  * This instance's copy of the ledger-wide Merkle tree, read from the entries by log index and
  * extended as the log grows. The signer rebuilds it from the database before every signature,
@@ -62,10 +69,10 @@ export class LogTreeService {
         [start, end],
       );
       rows.forEach((r, i) => {
-        if (Number(r.log_index) !== start + i) throw new Error(`the log has no leaf ${start + i}`);
+        if (Number(r.log_index) !== start + i) throw new LogGapError(start + i);
         out.push(r.hash);
       });
-      if (rows.length !== end - start) throw new Error(`the log has no leaf ${start + rows.length}`);
+      if (rows.length !== end - start) throw new LogGapError(start + rows.length);
     }
     return out;
   }

@@ -1,10 +1,10 @@
 import { Controller, Get, Header, Param, Req, Res } from '@nestjs/common';
 import { ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import { ACCESS_COOKIE } from '../auth/cookies';
 import { Public } from '../auth/auth.decorators';
 import { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
-import { PublicLotsService, READ_FROM_HEADER } from './public-lots.service';
+import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
+import { PublicLotsService } from './public-lots.service';
 
 @ApiTags('public')
 @Public()
@@ -24,8 +24,7 @@ export class PublicLotsController {
     @Req() req: Request,
     @Res({ passthrough: true }) res: Response,
   ): Promise<string> {
-    const signedIn = typeof req.cookies?.[ACCESS_COOKIE] === 'string';
-    const { text, from } = await this.lots.lotRead(code, signedIn);
+    const { text, from } = await this.lots.lotRead(code, readsOwnWrites(req));
     res.setHeader(READ_FROM_HEADER, from);
     return text;
   }
@@ -36,10 +35,11 @@ export class PublicLotsController {
   @ApiNotFoundResponse({ description: 'any code that is not a listed lot' })
   async bundle(
     @Param('code') text: string,
+    @Req() req: Request,
     @Res({ passthrough: true }) res: Response,
   ): Promise<PublicBundle> {
-    const code = await this.lots.listedCode(text);
-    const bundle = await this.lots.bundle(code);
+    const { code, bundle, from } = await this.lots.bundleRead(text, readsOwnWrites(req));
+    res.setHeader(READ_FROM_HEADER, from);
     res.setHeader('Content-Disposition', `attachment; filename="${code}.beadroll.json"`);
     return bundle;
   }

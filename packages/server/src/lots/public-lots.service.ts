@@ -7,7 +7,7 @@ import {
   type EntryHeader,
   type TransferOfferedBody,
 } from '@beadroll/core';
-import { DataSource } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import { StandbyService, type ReadSource } from '../standby/standby.service';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { AppError } from '../common/app-error';
@@ -17,8 +17,7 @@ import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
 import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
 
-/** Response header naming where public lot data was read: `standby` or `primary`. */
-export const READ_FROM_HEADER = 'Beadroll-Read-From';
+export { READ_FROM_HEADER } from '../standby/read-from';
 
 /** The one answer to any code that is not a listed lot: no hint of why. */
 function notFound(): AppError {
@@ -57,7 +56,6 @@ export function toPublicBundle(b: Bundle): PublicBundle {
 @Injectable()
 export class PublicLotsService {
   constructor(
-    private readonly dataSource: DataSource,
     private readonly bundles: BundleService,
     private readonly cards: DealerCardsService,
     private readonly standby: StandbyService,
@@ -74,16 +72,15 @@ export class PublicLotsService {
   }
 
   /**
-   * {@link lotText}, and where its one statement was answered: the hot standby while it is
-   * close enough behind, else the primary (see `StandbyService`). A signed-in reader
+   * {@link lotText}, and where it was read: the hot standby while it is close enough behind,
+   * else the primary (see `StandbyService`). A lot without parents takes one statement; a split
+   * child or combined piece walks its ancestors on the same connection. A signed-in reader
    * (`signedIn`) always reads the primary, so a dealer sees what they have just written.
    */
   async lotRead(text: string, signedIn = false): Promise<{ text: string; from: ReadSource }> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
-    const { manager, from } = signedIn
-      ? { manager: this.dataSource.manager, from: 'primary' as const }
-      : await this.standby.reader();
+    const { manager, from } = await this.standby.reader(signedIn);
     const rows: PublicLotRow[] = await manager.query(PUBLIC_LOT_SQL, [code]);
     const row = rows[0];
     if (!row) throw notFound();
@@ -96,13 +93,21 @@ export class PublicLotsService {
       const checkpoint = await this.log.rollCheckpoint(code, head);
       return { text: publicLotText(code, row, checkpoint ? JSON.stringify([checkpoint]) : '[]'), from };
     }
-    return { text: JSON.stringify(await this.lot(code)), from: 'primary' };
+    return { text: JSON.stringify(await this.lotFrom(code, manager)), from };
   }
 
   /** The public data of a listed lot, built from its bundle (ancestors included). */
   async lot(text: string): Promise<PublicLotResponse> {
-    const code = await this.listedCode(text);
-    const bundle = await this.bundle(code);
+    const code = RollReaderService.canonicalCode(text);
+    if (!code) throw notFound();
+    const { manager } = await this.standby.reader();
+    await this.listedCode(code, manager);
+    return this.lotFrom(code, manager);
+  }
+
+  /** The public data of the listed lot `code`, every row read through `manager`. */
+  private async lotFrom(code: string, manager: EntityManager): Promise<PublicLotResponse> {
+    const bundle = await this.bundleFrom(code, manager);
     const ids = new Set<string>();
     for (const r of bundle.rolls)
       for (const e of r.entries) {
@@ -111,27 +116,38 @@ export class PublicLotsService {
         if (h.kind === 'transfer-offered' && e.body !== null)
           ids.add((JSON.parse(e.body) as TransferOfferedBody).recipient);
       }
-    const found = await this.cards.cardsFor([...ids]);
+    const found = await this.cards.cardsFor([...ids], manager);
     const cards: Record<string, DealerCard> = {};
     for (const [id, card] of found) cards[id] = card;
     return { code, bundle, cards };
   }
 
+  /**
+   * The export bundle of a listed lot and where it was read (the standby while close enough
+   * behind, else the primary; always the primary for a signed-in reader).
+   */
+  async bundleRead(
+    text: string,
+    signedIn = false,
+  ): Promise<{ code: string; bundle: PublicBundle; from: ReadSource }> {
+    const { manager, from } = await this.standby.reader(signedIn);
+    const code = await this.listedCode(text, manager);
+    return { code, bundle: await this.bundleFrom(code, manager), from };
+  }
+
   /** The bundle of a listed lot: unlisted ancestors only in link scope. */
-  async bundle(code: string): Promise<PublicBundle> {
-    const b = await this.bundles.bundleFor(code, (_lot, state) => state.listed);
+  private async bundleFrom(code: string, manager: EntityManager): Promise<PublicBundle> {
+    const b = await this.bundles.bundleFor(code, (_lot, state) => state.listed, manager);
     if (!b) throw notFound();
     return toPublicBundle(b);
   }
 
   /** The canonical code of a listed lot, or the bare 404. */
-  async listedCode(text: string): Promise<string> {
+  async listedCode(text: string, manager?: EntityManager): Promise<string> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
-    const { manager } = await this.standby.reader();
-    const rows: unknown[] = await manager.query('SELECT 1 FROM "lot_views" WHERE "code" = $1 AND "listed"', [
-      code,
-    ]);
+    const m = manager ?? (await this.standby.reader()).manager;
+    const rows: unknown[] = await m.query('SELECT 1 FROM "lot_views" WHERE "code" = $1 AND "listed"', [code]);
     if (rows.length === 0) throw notFound();
     return code;
   }

@@ -56,25 +56,24 @@ export class MailboxController {
   @Get()
   @Header('Content-Type', 'text/html; charset=utf-8')
   @Header('Cache-Control', 'no-store')
-  list(@Req() req: Request): string {
+  async list(@Req() req: Request): Promise<string> {
     this.allow(req);
-    const body = !this.fake.enabled
+    const messages = await this.fake.mailbox();
+    const body = !messages
       ? '<p>The fake SMTP server is off (FAKE_SMTP=false): mail goes to the configured server.</p>'
-      : this.fake.messages.length
-        ? this.fake.messages.map(article).join('\n')
+      : messages.length
+        ? messages.map(article).join('\n')
         : '<p>No mail yet.</p>';
-    return page(
-      'Development mailbox',
-      `<p class="meta">Mail sent by this Beadroll server, newest first.</p>${body}`,
-    );
+    const whose = this.fake.shared ? 'every Beadroll instance of this cluster' : 'this Beadroll server';
+    return page('Development mailbox', `<p class="meta">Mail sent by ${whose}, newest first.</p>${body}`);
   }
 
   @Get(':id')
   @Header('Content-Type', 'text/html; charset=utf-8')
   @Header('Cache-Control', 'no-store')
-  one(@Req() req: Request, @Param('id', ParseIntPipe) id: number): string {
+  async one(@Req() req: Request, @Param('id', ParseIntPipe) id: number): Promise<string> {
     this.allow(req);
-    const m = this.fake.messages.find((x) => x.id === id);
+    const m = (await this.fake.mailbox())?.find((x) => x.id === id);
     if (!m) throw new AppError('not_found', 'Not found.');
     return m.html || page(m.subject, `<pre>${linkify(m.text)}</pre>`);
   }

@@ -13,6 +13,7 @@ import {
   type NoteBody,
   type OpinionBody,
   type RollState,
+  mayAppend,
 } from '@beadroll/core';
 import { Repository } from 'typeorm';
 import { Account } from '../accounts/entities/account.entity';
@@ -24,6 +25,7 @@ import { APP_CONFIG } from '../config/config.module';
 import { LedgerClock } from '../ledger/ledger.clock';
 import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { requireMayAppend } from '../ledger/roll-rule.error';
 import { LotsService } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
 import { OpinionRequestsService } from './opinion-requests.service';
@@ -97,13 +99,12 @@ export class OpinionsService {
       const asked = await this.requests.isAsked(me, lotId, tx.manager);
       // The ledger's rules admit an opinion from anyone but the holder on a listed lot only: an
       // assessor asked about an unlisted lot reads it, and the holder lists it for the answer.
-      if (state.holder !== me.id && !state.listed)
-        throw asked
-          ? new AppError(
-              'roll_rule',
-              'This lot is unlisted: an opinion from anyone but its holder goes only on the roll of a listed lot. Ask the holder to list it, then record your opinion.',
-            )
-          : new AppError('forbidden', 'Only the holder may record an opinion on an unlisted lot.');
+      if (asked && !mayAppend(state, 'opinion', me.id).allowed)
+        throw new AppError(
+          'roll_rule',
+          'This lot is unlisted: an opinion from anyone but its holder goes only on the roll of a listed lot. Ask the holder to list it, then record your opinion.',
+        );
+      requireMayAppend(state, 'opinion', me.id);
       await this.checkExhibits(tx, code, body.exhibits);
       await this.checkDailyLimit(tx, code, me.id, now);
       const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });

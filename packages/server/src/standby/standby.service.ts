@@ -2,6 +2,7 @@ import { Inject, Injectable, Logger, type OnApplicationShutdown } from '@nestjs/
 import { DataSource, type EntityManager } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { ENTITIES } from '../database/entities';
 
 /** Where a read was answered from. */
 export type ReadSource = 'standby' | 'primary';
@@ -41,8 +42,12 @@ export class StandbyService implements OnApplicationShutdown {
     private readonly primary: DataSource,
   ) {}
 
-  /** The manager for a public read and where it reads from. */
-  async reader(): Promise<{ manager: EntityManager; from: ReadSource }> {
+  /**
+   * The manager for a public read and where it reads from. A `writer` (a signed-in reader, who
+   * may have just written) always reads the primary, so they see their own writes at once.
+   */
+  async reader(writer = false): Promise<{ manager: EntityManager; from: ReadSource }> {
+    if (writer) return { manager: this.primary.manager, from: 'primary' };
     const status = await this.status();
     if (status.usable && this.source) return { manager: this.source.manager, from: 'standby' };
     return { manager: this.primary.manager, from: 'primary' };
@@ -94,7 +99,8 @@ export class StandbyService implements OnApplicationShutdown {
         username: db.user,
         password: db.password,
         database: db.database,
-        entities: [],
+        // The same entities as the primary, so a public read can use its repositories here too.
+        entities: ENTITIES,
         synchronize: false,
         migrationsRun: false,
         logging: ['error'],

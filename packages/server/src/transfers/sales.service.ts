@@ -10,12 +10,12 @@ import { APP_CONFIG } from '../config/config.module';
 import { LedgerClock } from '../ledger/ledger.clock';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { requireMayAppend } from '../ledger/roll-rule.error';
 import { LotsService, type Viewer } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
 import type { ListSalesQueryDto, RecordSaleDto, VoidSaleDto } from './dto/transfer-requests.dto';
 import type { SaleListResponse, SaleResponse } from './dto/transfer-responses.dto';
 import { transferLetters } from './transfer-letters';
-import { notAvailable } from './transfers.service';
 
 const FIELD_NAMES = {
   'body.date': 'date',
@@ -66,10 +66,7 @@ export class SalesService {
     if (dto.buyerNote !== undefined) sealed['buyer-note'] = dto.buyerNote;
     const listed = await this.ledger.withLots([code], async (tx) => {
       const state = tx.state(code);
-      if (state.holder !== me.id)
-        throw new AppError('forbidden', 'Only the dealer who holds this lot can record its sale.');
-      const blocked = notAvailable(state, 'sold');
-      if (blocked) throw blocked;
+      requireMayAppend(state, 'sold', me.id);
       if (dto.buyerEmail !== undefined && !state.listed) {
         throw AppError.validation([
           {
@@ -118,10 +115,8 @@ export class SalesService {
     await this.lots.readableCode(me, code);
     await this.ledger.withLots([code], async (tx) => {
       const state = tx.state(code);
-      if (state.status !== 'sold' || state.soldSeq === null)
-        throw new AppError('roll_rule', 'This lot has no sale to void.');
-      if (state.holder !== me.id) throw new AppError('forbidden', 'Only the seller can void this sale.');
-      const body = { saleSeq: state.soldSeq, ...(dto.reason !== undefined ? { reason: dto.reason } : {}) };
+      requireMayAppend(state, 'sale-voided', me.id);
+      const body = { saleSeq: state.soldSeq!, ...(dto.reason !== undefined ? { reason: dto.reason } : {}) };
       await tx.append(
         code,
         { kind: 'sale-voided', actor: me.id, body },

@@ -1,6 +1,6 @@
 import { Inject, Injectable, Logger, type OnModuleInit } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { formatLotCode, type Money, type RollState } from '@beadroll/core';
+import { formatLotCode, type Money } from '@beadroll/core';
 import { DataSource, In, Repository } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { partyCard, type PartyCard } from '../accounts/dto/dealer-card.dto';
@@ -13,6 +13,7 @@ import { APP_CONFIG } from '../config/config.module';
 import type { RollTransaction } from '../ledger/ledger.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { requireMayAppend } from '../ledger/roll-rule.error';
 import { LotsService, type Viewer } from '../lots/lots.service';
 import { MailService } from '../mail/mail.service';
 import type { AnswerOfferDto, CreateOfferDto, ListOffersQueryDto } from './dto/transfer-requests.dto';
@@ -49,23 +50,6 @@ const ANSWER_OUTCOME = { accept: 'accepted', decline: 'declined', withdraw: 'wit
 
 function party(card: DealerCard | undefined): PartyCard | null {
   return card ? partyCard(card) : null;
-}
-
-/** Why a lot in this state cannot be offered or sold now, or null when it can. */
-export function notAvailable(state: RollState, what: 'offered' | 'sold'): AppError | null {
-  switch (state.status) {
-    case 'held':
-      return null;
-    case 'offered':
-      return new AppError(
-        'roll_rule',
-        `This lot has an open offer, so it cannot be ${what} now. Withdraw the offer or wait for its answer first.`,
-      );
-    case 'sold':
-      return new AppError('roll_rule', `This lot was sold${state.soldOn ? ` on ${state.soldOn}` : ''}.`);
-    default:
-      return new AppError('roll_rule', `This lot is ${state.status} and can no longer be ${what}.`);
-  }
 }
 
 /**
@@ -270,10 +254,7 @@ export class TransfersService implements OnModuleInit {
     price: Money | undefined,
   ): Promise<TransferOfferEntity> {
     const state = tx.state(code);
-    if (state.holder !== offerer)
-      throw new AppError('forbidden', 'Only the dealer who holds this lot can offer it.');
-    const blocked = notAvailable(state, 'offered');
-    if (blocked) throw blocked;
+    requireMayAppend(state, 'transfer-offered', offerer);
     const e = await tx.append(
       code,
       {
@@ -358,10 +339,7 @@ export class TransfersService implements OnModuleInit {
     const lot = (await this.reader.findLot(code))!;
     // Who holds the lot is read from its roll (replayed under the lot's lock), never the cached copy.
     const state = await this.ledger.withLots([code], async (tx) => tx.state(code));
-    if (state.holder !== me.id)
-      throw new AppError('forbidden', 'Only the dealer who holds this lot can offer it.');
-    const blocked = notAvailable(state, 'offered');
-    if (blocked) throw blocked;
+    requireMayAppend(state, 'transfer-offered', me.id);
     const dup = await this.invitations
       .createQueryBuilder('i')
       .where(`i.lotId = :lot AND i.status = 'waiting' AND lower(i.email) = lower(:email)`, {

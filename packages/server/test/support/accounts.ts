@@ -68,3 +68,31 @@ export async function signIn(
   await agent.post('/api/auth/sign-in').set('X-Beadroll-Request', '1').send({ email, password }).expect(200);
   return agent;
 }
+
+/**
+ * An account for the tests of the enclosing `describe`, created (as {@link createAccount} does)
+ * before them; declare it after `useTestApp`, whose app it needs. Reads through to the account.
+ */
+export function useAccount(t: TestApp, opts: CreateAccountOptions): TestAccount {
+  let a: TestAccount | undefined;
+  beforeAll(async () => {
+    a = await createAccount(t, opts);
+  });
+  return {
+    get id() {
+      return a!.id;
+    },
+    get handle() {
+      return a!.handle;
+    },
+    get email() {
+      return a!.email;
+    },
+    get password() {
+      return a!.password;
+    },
+    get agent() {
+      return a!.agent;
+    },
+  };
+}

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
-import type { LotDescription } from '@beadroll/core';
+import type { LotDescription, OpinionBody } from '@beadroll/core';
 import type { Viewer } from '../../src/lots/lots.service';
+import type { TestAccount } from './accounts';
 
 /** An invented dealer (only the id and role matter to the services). */
 export function dealer(): Viewer {
@@ -22,4 +23,45 @@ export function description(over: Partial<LotDescription> = {}): LotDescription 
     listed: true,
     ...over,
   };
+}
+
+/** A valid opinion body, less its nonce: an attribution to Venice with a medium confidence. */
+export function opinionDraft(over: Partial<Omit<OpinionBody, 'nonce'>> = {}): Omit<OpinionBody, 'nonce'> {
+  return {
+    origin: 'venice-murano',
+    period: { from: 1880, to: 1920, approximate: true },
+    technique: 'wound-lampwork',
+    qualifier: 'attributed-to',
+    confidence: 'medium',
+    rationale: 'Raised roses over trailing, irregular holes.',
+    exhibits: [],
+    ...over,
+  };
+}
+
+/** Registers a lot over HTTP as `who` with {@link description} changed by `over`; expects 201. */
+export async function registerLot(
+  who: TestAccount,
+  over: Partial<LotDescription> = {},
+  sealed?: object,
+): Promise<{ code: string; displayCode: string }> {
+  const res = await who.agent
+    .post('/api/lots')
+    .set('X-Beadroll-Request', '1')
+    .send({ description: description(over), ...(sealed ? { sealed } : {}) })
+    .expect(201);
+  return res.body as { code: string; displayCode: string };
+}
+
+/** Records an opinion over HTTP as `who` ({@link opinionDraft} changed by `over`); expects 201. */
+export async function recordOpinion(
+  who: TestAccount,
+  code: string,
+  over: Partial<Omit<OpinionBody, 'nonce'>> = {},
+): Promise<void> {
+  await who.agent
+    .post(`/api/lots/${code}/opinions`)
+    .set('X-Beadroll-Request', '1')
+    .send(opinionDraft(over))
+    .expect(201);
 }

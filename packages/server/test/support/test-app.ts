@@ -141,3 +141,29 @@ export async function createTestApp(env: Record<string, string> = {}): Promise<T
     },
   };
 }
+
+/**
+ * The app for the tests of the enclosing `describe`: booted on a fresh database before them (with
+ * `env()` added to its configuration) and closed after. The returned object reads through to it.
+ */
+export function useTestApp(env: () => Record<string, string> = () => ({})): TestApp {
+  let current: TestApp | undefined;
+  beforeAll(async () => {
+    current = await createTestApp(env());
+  });
+  afterAll(async () => {
+    await current?.close();
+  });
+  return {
+    get app() {
+      return current!.app;
+    },
+    get db() {
+      return current!.db;
+    },
+    get dataDir() {
+      return current!.dataDir;
+    },
+    close: () => current!.close(),
+  };
+}

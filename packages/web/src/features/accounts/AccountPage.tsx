@@ -16,8 +16,9 @@ import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { accountsApi, useSession } from './accounts.api';
-import { fieldError, FormError, FormSuccess } from './FormPage';
-import { formatDate, ROLE_LABEL, STATUS_LABEL } from './labels';
+import { fieldError, FormError, FormSuccess } from '../../shared/ui/FormPage';
+import { formatDate } from '../../shared/ui/format';
+import { ROLE_LABEL, STATUS_LABEL } from './labels';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '720px' },

@@ -19,14 +19,15 @@ import {
   Title2,
   tokens,
 } from '@fluentui/react-components';
-import { FilterButtons } from '../../lib/FilterButtons';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
 import { Navigate, useSearchParams } from 'react-router-dom';
 import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
-import { fieldError, FormError } from './FormPage';
-import { formatDate, ROLE_LABEL } from './labels';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { formatDate } from '../../shared/ui/format';
+import { ROLE_LABEL } from './labels';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gap: tokens.spacingVerticalL },

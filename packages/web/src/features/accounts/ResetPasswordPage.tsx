@@ -3,7 +3,7 @@ import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
-import { fieldError, FormError, FormPage, FormSuccess } from './FormPage';
+import { fieldError, FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
 
 /** Opened from a reset or set-password link; the password changes on the POST from this page. */
 export function ResetPasswordPage() {

@@ -2,7 +2,7 @@ import { Button, Link } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { Link as RouterLink, useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
-import { FormError, FormPage, FormSuccess } from './FormPage';
+import { FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
 
 /** Opened from the e-mailed link; nothing changes until the button is pressed (link scanners only GET). */
 export function VerifyEmailPage() {

@@ -13,7 +13,3 @@ export const STATUS_LABEL: Record<AccountStatus, string> = {
   suspended: 'Suspended',
   closed: 'Closed',
 };
-
-export function formatDate(iso: string | null): string {
-  return iso ? new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' }) : '—';
-}

@@ -11,7 +11,7 @@ import {
   Text,
   tokens,
 } from '@fluentui/react-components';
-import type { ExhibitKind } from '@beadroll/core';
+import { LIMITS, type ExhibitKind } from '@beadroll/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useId, useRef, useState } from 'react';
 import { ApiError } from '../../lib/api';
@@ -207,7 +207,7 @@ export function ExhibitUploader({ code }: { code: string }) {
                 >
                   <Input
                     value={item.caption}
-                    maxLength={1000}
+                    maxLength={LIMITS.caption}
                     disabled={item.status === 'sending' || item.status === 'done'}
                     onChange={(_e, d) => update(item.id, { caption: d.value })}
                   />

@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import {
   Checkbox,
   Field,
@@ -12,12 +12,12 @@ import {
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
+import { LIMITS, LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
-import { ActionDialog } from '../lots/ActionDialog';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { beadsText } from './words';
 
@@ -174,7 +174,7 @@ export function CombineDialog({
             required
             validationMessage={err?.fieldMessage('description.title')}
           >
-            <Input value={title} maxLength={200} onChange={(_e, d) => setTitle(d.value)} />
+            <Input value={title} maxLength={LIMITS.title} onChange={(_e, d) => setTitle(d.value)} />
           </Field>
           <Field label="Form">
             <Select value={form} onChange={(_e, d) => setForm(d.value as LotForm)}>

@@ -11,12 +11,12 @@ import {
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { LOT_FORMS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
+import { LIMITS, LOT_FORMS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
-import { ActionDialog } from '../lots/ActionDialog';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
 import { beadsText } from './words';
 
@@ -138,7 +138,11 @@ export function SplitDialog({
               </legend>
               <div className={styles.row}>
                 <Field label="Title" required validationMessage={fieldMsg(i, 'title')}>
-                  <Input value={r.title} maxLength={200} onChange={(_e, d) => set(i, { title: d.value })} />
+                  <Input
+                    value={r.title}
+                    maxLength={LIMITS.title}
+                    onChange={(_e, d) => set(i, { title: d.value })}
+                  />
                 </Field>
                 <Field
                   label="Beads"

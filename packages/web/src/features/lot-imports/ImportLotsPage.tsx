@@ -23,7 +23,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { FormError } from '../accounts/FormPage';
+import { FormError } from '../../shared/ui/FormPage';
 import { lotImportsApi, type CheckResult, type Mapping, type SheetInfo } from './lot-imports.api';
 
 const useStyles = makeStyles({

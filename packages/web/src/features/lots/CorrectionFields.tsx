@@ -1,3 +1,4 @@
+import { LIMITS } from '@beadroll/core';
 import { Checkbox, Field, Select, Textarea } from '@fluentui/react-components';
 
 /** What a correction names: the earlier entry and why it was wrong (empty = not a correction). */
@@ -59,7 +60,7 @@ export function CorrectionFields({
           <Field label="What was wrong" required validationMessage={error}>
             <Textarea
               value={value.reason}
-              maxLength={5000}
+              maxLength={LIMITS.longText}
               onChange={(_, d) => onChange({ ...value, reason: d.value })}
               resize="vertical"
             />

@@ -1,4 +1,4 @@
-import { BASE_GLASS, DECORATIONS, LOT_FORMS, safetyCautions } from '@beadroll/core';
+import { LIMITS, BASE_GLASS, DECORATIONS, LOT_FORMS, safetyCautions } from '@beadroll/core';
 import {
   Button,
   Checkbox,
@@ -15,11 +15,11 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
-import { MoneyField } from '../transfers/MoneyField';
+import { MoneyField } from '../../shared/ui/MoneyField';
 import { PrivateMark } from './PrivateMark';
 
 const useStyles = makeStyles({
@@ -153,7 +153,7 @@ export function DescriptionSections({
         <Field label="Title" required validationMessage={error('description.title')}>
           <Input
             value={draft.title}
-            maxLength={200}
+            maxLength={LIMITS.title}
             placeholder="Blue wound beads with pink roses"
             onChange={(_, d) => change('title', d.value)}
           />

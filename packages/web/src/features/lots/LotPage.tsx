@@ -147,6 +147,20 @@ function SealedDetails({ sealed }: { sealed: OwnSealedDetails }) {
 }
 
 function Verification({ result }: { result: ReturnType<typeof verifyRoll> }) {
+  if (result.ok && result.unchecked.length > 0) {
+    const first = result.unchecked[0]!;
+    const rules = result.unchecked.length === 1 ? 'one rule' : `${result.unchecked.length} rules`;
+    return (
+      <MessageBar intent="warning" layout="multiline" aria-label="Verification">
+        <MessageBarBody>
+          <MessageBarTitle>Unbroken, but not fully checkable after a removal</MessageBarTitle>
+          All {result.entries} entries link up by their hashes, but the registrar removed an older entry's
+          contents and {rules} of that older history could not be checked without them (entry {first.seq}:{' '}
+          {first.message}).
+        </MessageBarBody>
+      </MessageBar>
+    );
+  }
   if (result.ok)
     return (
       <MessageBar intent="success" layout="multiline" aria-label="Verification">

@@ -1,11 +1,11 @@
-import { VOID_WINDOW_MS, type Observations } from '@beadroll/core';
+import { LIMITS, VOID_WINDOW_MS, type Observations } from '@beadroll/core';
 import { Field, MessageBar, MessageBarBody, Text, Textarea } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
-import { FormError } from '../accounts/FormPage';
-import { ActionDialog } from './ActionDialog';
+import { FormError } from '../../shared/ui/FormPage';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { correctionOf, CorrectionFields, NO_CORRECTION, type CorrectionDraft } from './CorrectionFields';
 import type { LotActionContext } from './lot-actions';
 import {
@@ -172,21 +172,15 @@ export function VoidSaleAction({ code, state, close }: Props) {
         {until ? ` You can void it until ${until.toLocaleString()}.` : ''}
       </Text>
       <Field label="Why (shown on the history)">
-        <Textarea value={reason} maxLength={5000} onChange={(_, d) => setReason(d.value)} resize="vertical" />
+        <Textarea
+          value={reason}
+          maxLength={LIMITS.longText}
+          onChange={(_, d) => setReason(d.value)}
+          resize="vertical"
+        />
       </Field>
       <FormError error={write.error} />
     </ActionDialog>
-  );
-}
-
-/** True while the viewer's own sale of this lot may still be voided. */
-export function mayVoidSale(state: LotActionContext['state'], viewerId: string, now = Date.now()): boolean {
-  return (
-    state.status === 'sold' &&
-    state.holder === viewerId &&
-    state.soldTime !== null &&
-    state.soldTime !== undefined &&
-    now - Date.parse(state.soldTime) <= VOID_WINDOW_MS
   );
 }
 

@@ -1,15 +1,14 @@
-import type { RollState } from '@beadroll/core';
+import { FINAL_STATUSES, mayAppend, type EntryKind, type Permission, type RollState } from '@beadroll/core';
 import type { ReactNode } from 'react';
 import type { Me } from '../accounts/accounts.api';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
 import { WithdrawOfferAction } from '../transfers/WithdrawOfferAction';
 import { ExhibitsSection } from '../exhibits/ExhibitsSection';
-import { mayAddExhibits } from '../exhibits/exhibits-panel';
 import { AncestryPanel } from '../lineage/AncestryPanel';
 import { CombineDialog } from '../lineage/CombineDialog';
 import { SplitDialog } from '../lineage/SplitDialog';
-import { mayRecordOpinion, OpinionAction } from '../opinions/OpinionAction';
+import { OpinionAction } from '../opinions/OpinionAction';
 import { OpinionsPanel } from '../opinions/OpinionsPanel';
 import { AskOpinionAction } from '../opinion-requests/AskOpinionAction';
 import { RemovalRequestAction } from '../registry/RemovalRequestAction';
@@ -17,7 +16,6 @@ import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import {
   DescribeAction,
   ListingAction,
-  mayVoidSale,
   ObserveAction,
   RegisterLikeAction,
   VoidSaleAction,
@@ -51,16 +49,36 @@ export interface LotPanel {
   render: (ctx: LotActionContext) => ReactNode;
 }
 
-const ACTIVE: ReadonlyArray<RollState['status']> = ['held', 'offered'];
+/**
+ * The account the page may write as: a verified dealer or assessor. Roles and account status are
+ * the server's policy; what that account may append to this roll is core's {@link mayAppend}.
+ */
+export function writerOf(viewer: Me | null): string | null {
+  if (!viewer || viewer.status !== 'verified') return null;
+  return viewer.role === 'dealer' || viewer.role === 'assessor' ? viewer.id : null;
+}
 
-/** The holder of a lot that is still held (not sold, split away, combined or retired). */
+/** Whether the signed-in account may append `kind` to the lot now, and if not, why. */
+export function permission(ctx: LotActionContext, kind: EntryKind, now = new Date()): Permission {
+  const writer = writerOf(ctx.viewer);
+  if (writer === null)
+    return { allowed: false, why: 'actor', reason: 'Sign in as a verified dealer or assessor.' };
+  return mayAppend(ctx.state, kind, writer, { now: now.toISOString() });
+}
+
+/** True when the signed-in account may append `kind` to the lot now. */
+export function may(ctx: LotActionContext, kind: EntryKind): boolean {
+  return permission(ctx, kind).allowed;
+}
+
+/** The viewer holds the lot (in trade or not): the holder's own tools (describe, removal requests). */
 export function viewerHolds(ctx: LotActionContext): boolean {
-  return (
-    ctx.viewer !== null &&
-    ctx.viewer.role === 'dealer' &&
-    ctx.viewer.status === 'verified' &&
-    ctx.state.holder === ctx.viewer.id
-  );
+  return writerOf(ctx.viewer) !== null && ctx.state.holder === ctx.viewer!.id;
+}
+
+/** The viewer holds the lot and it is still in trade (held or on offer). */
+function holdsInTrade(ctx: LotActionContext): boolean {
+  return viewerHolds(ctx) && !FINAL_STATUSES.includes(ctx.state.status);
 }
 
 /** Actions in the order they appear. Features add one line each. */
@@ -68,25 +86,25 @@ export const LOT_ACTIONS: LotAction[] = [
   {
     id: 'describe',
     label: 'Describe',
-    visible: (ctx) => viewerHolds(ctx),
+    visible: (ctx) => may(ctx, 'described'),
     render: (ctx) => <DescribeAction {...ctx} />,
   },
   {
     id: 'observe',
     label: 'Record observations',
-    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    visible: (ctx) => may(ctx, 'observed'),
     render: (ctx) => <ObserveAction {...ctx} />,
   },
   {
     id: 'listing',
     label: 'List / unlist',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.description !== null,
+    visible: (ctx) => may(ctx, 'described') && ctx.state.description !== null,
     render: (ctx) => <ListingAction {...ctx} />,
   },
   {
     id: 'print-tag',
     label: 'Print tag',
-    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    visible: holdsInTrade,
     render: (ctx) => (
       <PrintTagsDialog lots={[{ code: ctx.code, listed: ctx.state.listed }]} onClose={ctx.close} />
     ),
@@ -94,19 +112,19 @@ export const LOT_ACTIONS: LotAction[] = [
   {
     id: 'offer',
     label: 'Offer to a dealer',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    visible: (ctx) => may(ctx, 'transfer-offered'),
     render: (ctx) => <OfferDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />,
   },
   {
     id: 'withdraw-offer',
     label: 'Withdraw the offer',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'offered',
+    visible: (ctx) => may(ctx, 'transfer-withdrawn'),
     render: (ctx) => <WithdrawOfferAction code={ctx.code} close={ctx.close} />,
   },
   {
     id: 'sale',
     label: 'Record a sale',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held',
+    visible: (ctx) => may(ctx, 'sold'),
     render: (ctx) => (
       <RecordSaleDialog code={ctx.code} title={ctx.state.description?.title} onClose={ctx.close} />
     ),
@@ -114,8 +132,7 @@ export const LOT_ACTIONS: LotAction[] = [
   {
     id: 'void-sale',
     label: 'Void the sale',
-    visible: (ctx) =>
-      ctx.viewer !== null && ctx.viewer.status === 'verified' && mayVoidSale(ctx.state, ctx.viewer.id),
+    visible: (ctx) => may(ctx, 'sale-voided'),
     render: (ctx) => <VoidSaleAction {...ctx} />,
   },
   {
@@ -127,25 +144,25 @@ export const LOT_ACTIONS: LotAction[] = [
   {
     id: 'split',
     label: 'Split',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    visible: (ctx) => may(ctx, 'split') && ctx.state.description !== null,
     render: (ctx) => <SplitDialog lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
   },
   {
     id: 'combine',
     label: 'Combine with other lots',
-    visible: (ctx) => viewerHolds(ctx) && ctx.state.status === 'held' && ctx.state.description !== null,
+    visible: (ctx) => may(ctx, 'combined') && ctx.state.description !== null,
     render: (ctx) => <CombineDialog lot={{ ...ctx.state, code: ctx.code }} onClose={ctx.close} />,
   },
   {
     id: 'opinion',
     label: 'Record an opinion',
-    visible: mayRecordOpinion,
+    visible: (ctx) => may(ctx, 'opinion'),
     render: (ctx) => <OpinionAction {...ctx} />,
   },
   {
     id: 'ask-opinion',
     label: 'Ask for an opinion',
-    visible: (ctx) => viewerHolds(ctx) && ACTIVE.includes(ctx.state.status),
+    visible: holdsInTrade,
     render: (ctx) => <AskOpinionAction {...ctx} />,
   },
   {
@@ -158,7 +175,7 @@ export const LOT_ACTIONS: LotAction[] = [
 
 /** Sections of the lot page, in order. Features add one line each. */
 export const LOT_PANELS: LotPanel[] = [
-  { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={mayAddExhibits(ctx)} /> },
+  { id: 'exhibits', render: (ctx) => <ExhibitsSection code={ctx.code} canAdd={may(ctx, 'exhibit-added')} /> },
   {
     id: 'opinions',
     render: (ctx) => (

@@ -1,4 +1,5 @@
 import {
+  LIMITS,
   beadSizeProblem,
   countProblem,
   currencyProblem,
@@ -136,7 +137,8 @@ export function draftToRequest(
   const errors: FieldErrors = {};
   const title = d.title.trim();
   if (!title) errors['description.title'] = 'Give the lot a title, as in “Blue wound beads with roses”.';
-  else if (title.length > 200) errors['description.title'] = 'Keep the title to 200 characters.';
+  else if (title.length > LIMITS.title)
+    errors['description.title'] = `Keep the title to ${LIMITS.title} characters.`;
   const countText = d.countValue.trim();
   const countIssue = countProblem(COUNT.test(countText) ? Number(countText) : NaN);
   if (countIssue) errors['description.count.value'] = `${countIssue} (estimate if need be).`;
@@ -149,7 +151,8 @@ export function draftToRequest(
     .split(',')
     .map((c) => c.trim())
     .filter(Boolean);
-  if (colours.some((c) => c.length > 200)) errors['description.colours'] = 'Keep each colour short.';
+  if (colours.some((c) => c.length > LIMITS.shortText))
+    errors['description.colours'] = 'Keep each colour short.';
 
   const sealed: SealedInput = {};
   if (d.storageLocation.trim()) sealed.storageLocation = d.storageLocation.trim();

@@ -115,6 +115,42 @@ function makeRoll(): { roll: RawRoll; code: string } {
   };
 }
 
+/**
+ * A valid version-1 roll: a listed lot, another dealer's note on it, then the registrar removes
+ * the description that listed it after a newer one replaced it. Without that body the rule "others write only on a listed lot"
+ * cannot be checked for the note (format, section 9.4), so the roll is unbroken but not fully
+ * checkable.
+ */
+function makeRedactedV1Roll(): { roll: RawRoll; code: string } {
+  const random = seededRandom('lot page v1 removal');
+  const code = generateLotCode(random);
+  const drafts = [
+    { kind: 'registered', actor: ME.id, body: { description: DESCRIPTION } },
+    { kind: 'described', actor: ME.id, body: { description: { ...DESCRIPTION, listed: true } } },
+    { kind: 'note', actor: 'acct-other-dealer', body: { text: 'Seen at the spring fair.' } },
+    {
+      kind: 'described',
+      actor: ME.id,
+      body: { description: { ...DESCRIPTION, listed: true, title: 'Pink rose wound beads, restrung' } },
+    },
+    { kind: 'redacted', actor: 'acct-registrar', body: { target: 1, reason: 'personal-data' } },
+  ] as const;
+  let head: RollHead | null = null;
+  const entries: RawRoll['entries'] = [];
+  drafts.forEach((d, seq) => {
+    const time = `2026-03-01T10:0${seq}:00.000Z`;
+    const built: BuiltEntry = buildEntry(
+      head,
+      { ...(head ? {} : { lot: code }), kind: d.kind, time, actor: d.actor, body: d.body as never },
+      { random, version: 1 },
+    );
+    head = { lot: code, seq, hash: built.stored.hash, time };
+    entries.push({ ...built.stored, seq, kind: d.kind, actor: d.actor, time, logIndex: null });
+  });
+  entries[1] = { ...entries[1]!, body: null };
+  return { code, roll: { lot: code, entries } };
+}
+
 function json(body: unknown, status = 200) {
   return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 }
@@ -390,6 +426,24 @@ describe('lot page', () => {
       'List / unlist',
     ]);
     expect(LOT_ACTIONS.slice(0, 3).map((a) => a.id)).toEqual(['describe', 'observe', 'listing']);
+  });
+
+  it('marks an older roll whose removed entry leaves a rule unchecked', async () => {
+    const { roll, code } = makeRedactedV1Roll();
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (url: string) => {
+        if (url === '/api/auth/session') return json({ account: ME });
+        if (url === `/api/lots/${code}/roll`) return json(roll);
+        return json({}, 404);
+      }),
+    );
+    renderAt(`/lots/${code}`);
+    expect(await screen.findByText('Unbroken, but not fully checkable after a removal')).toBeInTheDocument();
+    expect(screen.queryByText('Verified in this browser')).not.toBeInTheDocument();
+    expect(screen.getByLabelText('Verification')).toHaveTextContent(
+      /2 rules .*entry 1: the rules of described/,
+    );
   });
 
   it('says so when the roll was tampered with, and shows no state from it', async () => {

@@ -15,13 +15,6 @@ import { OpinionForm } from './OpinionForm';
 
 const useStyles = makeStyles({ surface: { maxWidth: 'min(1100px, 96vw)', width: '100%' } });
 
-/** Verified dealers and assessors may record an opinion: the holder always, anyone else on a listed lot. */
-export function mayRecordOpinion(ctx: LotActionContext): boolean {
-  const v = ctx.viewer;
-  if (!v || v.status !== 'verified' || (v.role !== 'dealer' && v.role !== 'assessor')) return false;
-  return ctx.state.holder === v.id || ctx.state.listed;
-}
-
 /** The opinion form in a dialog on the lot page; the attribution aid reads the lot's newest clues. */
 export function OpinionAction({ code, state, viewer, close }: LotActionContext & { close: () => void }) {
   const styles = useStyles();

@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../lib/CheckGroup';
+import { CheckGroup } from '../../shared/ui/CheckGroup';
 import {
   Button,
   Checkbox,
@@ -13,6 +13,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import {
+  LIMITS,
   attributionAid,
   CONFIDENCES,
   ORIGINS,
@@ -28,14 +29,14 @@ import {
   yearProblem,
 } from '@beadroll/core';
 import { useMemo, useRef, useState } from 'react';
-import { focusFirstError } from '../../lib/focus-first-error';
-import { fieldError, FormError } from '../accounts/FormPage';
+import { focusFirstError } from '../../shared/ui/focus-first-error';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';
 import { CONFIDENCE_LABELS, ORIGIN_LABELS, QUALIFIER_LABELS, TECHNIQUE_LABELS } from './words';
 
-const RATIONALE_MAX = 5000;
+const RATIONALE_MAX = LIMITS.longText;
 
 const useStyles = makeStyles({
   root: {
@@ -185,7 +186,11 @@ export function OpinionForm({
           hint={origin === 'other' ? 'Say where.' : 'Optional: a town, a workshop, a region.'}
           validationMessage={fieldError(err, 'originNote')}
         >
-          <Input value={originNote} maxLength={200} onChange={(_, d) => setOriginNote(d.value)} />
+          <Input
+            value={originNote}
+            maxLength={LIMITS.shortText}
+            onChange={(_, d) => setOriginNote(d.value)}
+          />
         </Field>
         <div className={styles.row}>
           <Field

@@ -1,3 +1,4 @@
+import { LIMITS } from '@beadroll/core';
 import {
   Badge,
   Button,
@@ -12,7 +13,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../accounts/FormPage';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { brandVars } from '../public-lot/brand-vars';
 import { ConsensusChart } from '../public-lot/ConsensusChart';
 import '../public-lot/public-lot.css';
@@ -176,7 +177,7 @@ function OpinionCard({
           }}
         >
           <Field label="Your answer" validationMessage={fieldError(reply.error, 'text')}>
-            <Textarea value={text} maxLength={5000} onChange={(_, d) => setText(d.value)} />
+            <Textarea value={text} maxLength={LIMITS.longText} onChange={(_, d) => setText(d.value)} />
           </Field>
           <FormError error={reply.error && !fieldError(reply.error, 'text') ? reply.error : null} />
           <div className={styles.actions}>

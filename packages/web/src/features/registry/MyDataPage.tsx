@@ -15,7 +15,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, FormError } from '../accounts/FormPage';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { registryToolsApi } from './registry.api';
 
 const useStyles = makeStyles({

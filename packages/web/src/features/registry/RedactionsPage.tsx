@@ -22,8 +22,8 @@ import {
 import { formatLotCode } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../accounts/FormPage';
-import { formatDate } from '../accounts/labels';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { formatDate } from '../../shared/ui/format';
 import {
   REDACTION_REASON_LABEL,
   redactionRequestsQuery,

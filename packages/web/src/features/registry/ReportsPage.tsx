@@ -19,14 +19,14 @@ import {
   Title2,
   tokens,
 } from '@fluentui/react-components';
-import { FilterButtons } from '../../lib/FilterButtons';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { formatLotCode } from '@beadroll/core';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { fieldError, FormError } from '../accounts/FormPage';
-import { formatDate } from '../accounts/labels';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { formatDate } from '../../shared/ui/format';
 import { REPORT_CATEGORY_LABEL, registryToolsApi, reportsQuery, type Report } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
 

@@ -19,8 +19,8 @@ import {
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
-import { fieldError, FormError } from '../accounts/FormPage';
-import { MoneyField } from './MoneyField';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { MoneyField } from '../../shared/ui/MoneyField';
 import {
   dealerSearchQuery,
   heldLotsQuery,

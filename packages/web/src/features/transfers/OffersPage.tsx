@@ -13,15 +13,15 @@ import {
   Title2,
   Title3,
 } from '@fluentui/react-components';
-import { FilterButtons } from '../../lib/FilterButtons';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { FormError } from '../accounts/FormPage';
+import { FormError } from '../../shared/ui/FormPage';
 import { OfferDialog } from './OfferDialog';
-import { Pager, useListParams, useListStyles } from './ListParts';
+import { Pager, useListParams, useListStyles } from '../../shared/ui/ListParts';
 import {
   formatDateTime,
   formatMoney,

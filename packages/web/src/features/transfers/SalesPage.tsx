@@ -11,13 +11,13 @@ import {
   Text,
   Title2,
 } from '@fluentui/react-components';
-import { FilterButtons } from '../../lib/FilterButtons';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { Pager, useListParams, useListStyles } from './ListParts';
+import { Pager, useListParams, useListStyles } from '../../shared/ui/ListParts';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { formatMoney, type Sale, type SaleReceiptFilter, salesQuery } from './transfers.api';
 

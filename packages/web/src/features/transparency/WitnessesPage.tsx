@@ -15,7 +15,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../accounts/FormPage';
+import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { RegistrarOnly } from '../registry/RegistrarOnly';
 import { witnessesApi, witnessesQuery } from './witnesses.api';
 

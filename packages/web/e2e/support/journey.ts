@@ -1,0 +1,157 @@
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import pg from 'pg';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, expect, inject } from 'vitest';
+import { openBrowser, type Browser } from './browser';
+import { writeTagVideo } from './fake-camera';
+
+/** An account of the invented demo scenario (seed-demo/accounts.json). */
+export interface DemoAccount {
+  role: string;
+  status: string;
+  handle: string;
+  email: string;
+  displayName: string;
+}
+
+/** The invented demo scenario's accounts: they share one password. */
+export const demo = JSON.parse(
+  readFileSync(resolve(__dirname, '..', '..', '..', '..', 'seed-demo', 'accounts.json'), 'utf8'),
+) as { password: string; accounts: DemoAccount[] };
+
+/** The first demo account that is `role` (verified, where accounts of the role can be). */
+export function demoAccount(role: 'dealer' | 'assessor' | 'registrar'): DemoAccount {
+  return demo.accounts.find((a) => a.role === role && (role === 'registrar' || a.status === 'verified'))!;
+}
+
+/** The demo account with this handle. */
+export function demoHandle(handle: string): DemoAccount {
+  return demo.accounts.find((a) => a.handle === handle)!;
+}
+
+/**
+ * Signs in on the sign-in page and waits to land on the account's own start page (each role has
+ * its own, away from the sign-in form). `fresh` drops an earlier session first.
+ */
+export async function signIn(
+  page: Page,
+  baseUrl: string,
+  email: string,
+  opts: { password?: string; fresh?: boolean } = {},
+): Promise<void> {
+  if (opts.fresh) await page.context().clearCookies();
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByRole('textbox', { name: 'E-mail address' }).fill(email);
+  await page.getByLabel('Password').fill(opts.password ?? demo.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
+
+/** Signs out from the account menu and waits for the signed-out header. */
+export async function signOut(page: Page): Promise<void> {
+  await page.getByRole('button', { name: /account menu of/i }).click();
+  await page.getByRole('menuitem', { name: 'Sign out' }).click();
+  await page.getByRole('link', { name: 'Sign in' }).waitFor();
+}
+
+/**
+ * A browser for the journeys of the enclosing `describe`: opened before them, closed after. The
+ * returned object reads through to it (`const { page } = browser` inside a test).
+ */
+export function useBrowser(opts: Parameters<typeof openBrowser>[0] = {}): Browser {
+  let open: Browser | undefined;
+  beforeAll(async () => {
+    open = await openBrowser(opts);
+  });
+  afterAll(async () => {
+    await open?.close();
+  });
+  return proxy(() => open!);
+}
+
+/** A browser that reads through to the one `current` returns when used. */
+function proxy(current: () => Browser): Browser {
+  return {
+    get context() {
+      return current().context;
+    },
+    get page() {
+      return current().page;
+    },
+    close: () => current().close(),
+  };
+}
+
+/**
+ * A browser for the enclosing `describe` whose camera shows a tag: `payload` (run before the
+ * journeys, after any setup it does) gives the tag's QR text, played as a fake camera's video.
+ */
+export function useCameraBrowser(
+  payload: () => Promise<string>,
+  size: { width: number; height: number },
+): Browser {
+  let open: Browser | undefined;
+  let dir: string | undefined;
+  beforeAll(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'beadroll-camera-'));
+    const video = join(dir, 'tag.y4m');
+    await writeTagVideo(video, await payload());
+    open = await openBrowser({
+      ...size,
+      args: [
+        '--use-fake-device-for-media-stream',
+        '--use-fake-ui-for-media-stream',
+        `--use-file-for-fake-video-capture=${video}`,
+      ],
+    });
+  });
+  afterAll(async () => {
+    await open?.close();
+    if (dir) rmSync(dir, { recursive: true, force: true });
+  });
+  return proxy(() => open!);
+}
+
+/** A superuser connection to the journeys' database, for changing what the service stored. */
+export function superuser(): pg.Client {
+  return new pg.Client({
+    host: process.env.PGHOST,
+    port: Number(process.env.PGPORT),
+    user: process.env.BEADROLL_TEST_PG_SUPERUSER,
+    password: process.env.BEADROLL_TEST_PG_SUPERPASSWORD,
+    database: inject('database'),
+  });
+}
+
+/** A signed-in HTTP client for a demo account: GET without a body, POST with one. */
+export async function apiClient(baseUrl: string, email: string) {
+  const signedIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
+    body: JSON.stringify({ email, password: demo.password }),
+  });
+  expect(signedIn.ok).toBe(true);
+  const cookie = signedIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
+  return async <T>(path: string, body?: unknown): Promise<T> => {
+    const res = await fetch(`${baseUrl}${path}`, {
+      method: body === undefined ? 'GET' : 'POST',
+      headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1', cookie },
+      ...(body === undefined ? {} : { body: JSON.stringify(body) }),
+    });
+    const json = (await res.json()) as T;
+    expect(res.ok, JSON.stringify(json)).toBe(true);
+    return json;
+  };
+}
+
+/** Collects the uncaught errors of `page` from now on (a journey expects none). */
+export function pageErrors(page: Page): string[] {
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  return errors;
+}
