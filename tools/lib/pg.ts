@@ -124,6 +124,44 @@ function quoteLiteral(value: string): string {
 }
 
 /**
+ * Starts the cluster in `data` with the server `settings` unless pg_ctl says it is already
+ * running; refuses when something else holds the port, and shows the log's tail when it fails.
+ */
+async function startIfStopped(
+  bin: string,
+  data: string,
+  log: string,
+  port: number,
+  settings: string[],
+  words: { portTaken: string; failed: string },
+): Promise<void> {
+  try {
+    asOwner(join(bin, 'pg_ctl'), ['-D', data, 'status']);
+    return;
+  } catch {
+    // not running: start it below
+  }
+  if (await portInUse(port)) throw new UserFacingError(words.portTaken);
+  try {
+    asOwner(join(bin, 'pg_ctl'), [
+      '-D',
+      data,
+      '-l',
+      log,
+      '-w',
+      '-t',
+      '60',
+      '-o',
+      settings.join(' '),
+      'start',
+    ]);
+  } catch (err) {
+    const tail = existsSync(log) ? readFileSync(log, 'utf8').trim().split('\n').slice(-5).join('\n') : '';
+    throw new UserFacingError(`${words.failed} (log: ${log}):\n${tail || (err as Error).message}`);
+  }
+}
+
+/**
  * Starts (creating it on first use) a PostgreSQL cluster in `base` listening on 127.0.0.1:port,
  * with an application role and database. `durable: false` trades crash safety for speed (tests only).
  * Credentials are generated once and kept in `base/credentials.json`, never in git.
@@ -189,42 +227,13 @@ export async function startPrivateCluster(opts: {
   mkdirSync(sock, { recursive: true });
   chownSync(sock, uid, gid);
 
-  let running: boolean;
-  try {
-    asOwner(join(bin, 'pg_ctl'), ['-D', data, 'status']);
-    running = true;
-  } catch {
-    running = false;
-  }
-  if (!running) {
-    if (await portInUse(opts.port)) {
-      throw new UserFacingError(
-        `PGPORT ${opts.port} is already in use on 127.0.0.1: stop what holds it, or set PGPORT to a free port.`,
-      );
-    }
-    const settings = ['-p', String(opts.port), '-k', sock, '-c', 'listen_addresses=127.0.0.1'];
-    if (!opts.durable)
-      settings.push('-c', 'fsync=off', '-c', 'synchronous_commit=off', '-c', 'full_page_writes=off');
-    try {
-      asOwner(join(bin, 'pg_ctl'), [
-        '-D',
-        data,
-        '-l',
-        log,
-        '-w',
-        '-t',
-        '60',
-        '-o',
-        settings.join(' '),
-        'start',
-      ]);
-    } catch (err) {
-      const tail = existsSync(log) ? readFileSync(log, 'utf8').trim().split('\n').slice(-5).join('\n') : '';
-      throw new UserFacingError(
-        `PostgreSQL failed to start (log: ${log}):\n${tail || (err as Error).message}`,
-      );
-    }
-  }
+  const settings = ['-p', String(opts.port), '-k', sock, '-c', 'listen_addresses=127.0.0.1'];
+  if (!opts.durable)
+    settings.push('-c', 'fsync=off', '-c', 'synchronous_commit=off', '-c', 'full_page_writes=off');
+  await startIfStopped(bin, data, log, opts.port, settings, {
+    portTaken: `PGPORT ${opts.port} is already in use on 127.0.0.1: stop what holds it, or set PGPORT to a free port.`,
+    failed: 'PostgreSQL failed to start',
+  });
 
   const roleExists = psql(
     bin,
@@ -340,47 +349,13 @@ export async function startStandby(opts: {
       throw new UserFacingError(`pg_basebackup failed for the standby: ${(err as Error).message}`);
     }
   }
-  let running: boolean;
-  try {
-    asOwner(join(bin, 'pg_ctl'), ['-D', data, 'status']);
-    running = true;
-  } catch {
-    running = false;
-  }
-  if (!running) {
-    if (await portInUse(opts.port))
-      throw new UserFacingError(`port ${opts.port} for the standby is already in use on 127.0.0.1.`);
-    const settings = [
-      '-p',
-      String(opts.port),
-      '-k',
-      sock,
-      '-c',
-      'listen_addresses=127.0.0.1',
-      '-c',
-      'hot_standby=on',
-    ];
-    if (!opts.durable) settings.push('-c', 'fsync=off', '-c', 'full_page_writes=off');
-    try {
-      asOwner(join(bin, 'pg_ctl'), [
-        '-D',
-        data,
-        '-l',
-        log,
-        '-w',
-        '-t',
-        '60',
-        '-o',
-        settings.join(' '),
-        'start',
-      ]);
-    } catch (err) {
-      const tail = existsSync(log) ? readFileSync(log, 'utf8').trim().split('\n').slice(-5).join('\n') : '';
-      throw new UserFacingError(
-        `the standby failed to start (log: ${log}):\n${tail || (err as Error).message}`,
-      );
-    }
-  }
+  const settings = ['-p', String(opts.port), '-k', sock, '-c', 'listen_addresses=127.0.0.1'];
+  settings.push('-c', 'hot_standby=on');
+  if (!opts.durable) settings.push('-c', 'fsync=off', '-c', 'full_page_writes=off');
+  await startIfStopped(bin, data, log, opts.port, settings, {
+    portTaken: `port ${opts.port} for the standby is already in use on 127.0.0.1.`,
+    failed: 'the standby failed to start',
+  });
   return {
     port: opts.port,
     stop() {

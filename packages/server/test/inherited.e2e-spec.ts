@@ -145,6 +145,28 @@ describe('what an unlisted parent passes on', () => {
       expect((await request(server).get(path)).status).toBe(404);
   });
 
+  it('the inventory lists, filters and finds the child by the attribution it inherits', async () => {
+    const codes = (body: { items: Array<{ code: string }> }) => body.items.map((i) => i.code);
+    const found = await holder.agent.get('/api/lots').query({ mine: true, q: 'Venetian 19th' }).expect(200);
+    expect(codes(found.body)).toContain(kid);
+    const row = found.body.items.find((i: { code: string }) => i.code === kid);
+    // The same record a buyer's browser derives from the public data.
+    const rec = (await recordOf(kid)).record!;
+    expect(row).toMatchObject({
+      origin: rec.body.origin,
+      originSource: 'ancestor',
+      technique: rec.body.technique,
+      period: { from: rec.body.period.from, to: rec.body.period.to },
+    });
+    const byOrigin = await holder.agent
+      .get('/api/lots')
+      .query({ mine: true, origin: 'venice-murano' })
+      .expect(200);
+    expect(codes(byOrigin.body)).toContain(kid);
+    const other = await holder.agent.get('/api/lots').query({ mine: true, origin: 'india' }).expect(200);
+    expect(codes(other.body)).not.toContain(kid);
+  });
+
   it('the child’s holder adopts the inherited attribution; an adopts naming no standing opinion is a 400 naming it', async () => {
     const rec = (await recordOf(kid)).record!;
     const bad = await holder.agent

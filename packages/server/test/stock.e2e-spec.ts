@@ -129,6 +129,30 @@ describe('stock and sales figures', () => {
     sheet.eachRow((r) => r.eachCell((c) => expect(c.type).not.toBe(ExcelJS.ValueType.Formula)));
   });
 
+  it('exports the inventory list through the same path: filters kept, formulas stay text', async () => {
+    const res = await ana.agent.get('/api/lots/export').query({ mine: true, format: 'csv' }).expect(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/attachment; filename="beadroll-lots-.*\.csv"/);
+    const lines = res.text.split('\r\n');
+    expect(lines[0]).toBe('code,title,form,count,estimated,origin,status,listed,last entry (UTC)');
+    // OWASP, "CSV Injection": the title starting with = is prefixed so it is never run.
+    expect(lines.find((l) => l.includes('HYPERLINK'))).toMatch(/^\w{4}-\w{4}-\w,"'=HYPERLINK/);
+    expect(lines.filter((l) => l.includes('Ben'))).toEqual([]);
+    const xlsx = await ana.agent
+      .get('/api/lots/export')
+      .query({ mine: true, format: 'xlsx' })
+      .buffer(true)
+      .parse(binary as never)
+      .expect(200);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load(xlsx.body as never);
+    const sheet = book.getWorksheet('Lots')!;
+    expect(sheet.rowCount).toBe(lines.filter((l) => l !== '').length);
+    sheet.eachRow((r) => r.eachCell((c) => expect(c.type).not.toBe(ExcelJS.ValueType.Formula)));
+    const bad = await ana.agent.get('/api/lots/export').query({ format: 'ods' }).expect(400);
+    expect(bad.body.error.fields).toEqual([expect.objectContaining({ field: 'format' })]);
+  });
+
   it('answers 400 naming the field for an unknown format, and 403 to an assessor', async () => {
     const res = await ana.agent.get('/api/stock/export').query({ format: 'pdf' }).expect(400);
     expect(res.body.error.fields).toEqual([expect.objectContaining({ field: 'format' })]);

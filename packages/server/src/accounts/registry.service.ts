@@ -5,6 +5,7 @@ import { SessionsService } from '../auth/sessions.service';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import type { Letter } from '../mail/letters';
 import { MailService } from '../mail/mail.service';
 import { accountLetters } from './account-letters';
 import {
@@ -30,6 +31,36 @@ export interface RegistryDecision {
 export type RegistryDecisionListener = (d: RegistryDecision) => Promise<void>;
 
 /** The registrar's work: the verification queue, approval, rejection, suspension. */
+/** The registrar's decisions that move an account between two statuses, with the letter each sends. */
+const MOVES: Record<
+  'rejected' | 'suspended' | 'reinstated',
+  {
+    from: Account['status'];
+    to: Account['status'];
+    refused: string;
+    letter: (name: string, reason: string) => Letter;
+  }
+> = {
+  rejected: {
+    from: 'pending',
+    to: 'rejected',
+    refused: 'only pending applications can be rejected',
+    letter: (name, reason) => accountLetters.rejected(name, reason),
+  },
+  suspended: {
+    from: 'verified',
+    to: 'suspended',
+    refused: 'only verified accounts can be suspended',
+    letter: (name, reason) => accountLetters.suspended(name, reason),
+  },
+  reinstated: {
+    from: 'suspended',
+    to: 'verified',
+    refused: 'only suspended accounts can be reinstated',
+    letter: (name) => accountLetters.reinstated(name),
+  },
+};
+
 @Injectable()
 export class RegistryService {
   private readonly logger = new Logger('registry');
@@ -107,46 +138,38 @@ export class RegistryService {
   }
 
   async reject(id: string, reason: string, registrar: string): Promise<ApplicantResponse> {
-    const a = await this.target(id);
-    if (a.status !== 'pending')
-      throw new AppError(
-        'conflict',
-        `This account is ${a.status}; only pending applications can be rejected.`,
-      );
-    a.status = 'rejected';
-    a.statusReason = reason;
-    await this.accounts.save(a);
-    await this.decided({ action: 'rejected', registrar, account: a.id, reason });
-    await this.mail.send(a.email, accountLetters.rejected(a.displayName, reason));
-    return toApplicantResponse(a);
+    return this.move(id, registrar, 'rejected', reason);
   }
 
   /** Suspends a verified account: it keeps reading, writes nothing, and is signed out everywhere. */
   async suspend(id: string, reason: string, registrar: string): Promise<ApplicantResponse> {
-    const a = await this.target(id);
-    if (a.status !== 'verified')
-      throw new AppError('conflict', `This account is ${a.status}; only verified accounts can be suspended.`);
-    a.status = 'suspended';
-    a.statusReason = reason;
-    await this.accounts.save(a);
-    await this.sessions.revokeAll(a.id, 'suspended');
-    await this.decided({ action: 'suspended', registrar, account: a.id, reason });
-    await this.mail.send(a.email, accountLetters.suspended(a.displayName, reason));
-    return toApplicantResponse(a);
+    return this.move(id, registrar, 'suspended', reason);
   }
 
   async reinstate(id: string, registrar: string): Promise<ApplicantResponse> {
+    return this.move(id, registrar, 'reinstated', null);
+  }
+
+  /**
+   * One registrar decision that moves an account from one status to another ({@link MOVES}):
+   * refused (409) from any other status; recorded, told to its listeners and mailed to the
+   * account. A suspended account is signed out everywhere.
+   */
+  private async move(
+    id: string,
+    registrar: string,
+    action: keyof typeof MOVES,
+    reason: string | null,
+  ): Promise<ApplicantResponse> {
+    const m = MOVES[action];
     const a = await this.target(id);
-    if (a.status !== 'suspended')
-      throw new AppError(
-        'conflict',
-        `This account is ${a.status}; only suspended accounts can be reinstated.`,
-      );
-    a.status = 'verified';
-    a.statusReason = null;
+    if (a.status !== m.from) throw new AppError('conflict', `This account is ${a.status}; ${m.refused}.`);
+    a.status = m.to;
+    a.statusReason = reason;
     await this.accounts.save(a);
-    await this.decided({ action: 'reinstated', registrar, account: a.id, reason: null });
-    await this.mail.send(a.email, accountLetters.reinstated(a.displayName));
+    if (m.to === 'suspended') await this.sessions.revokeAll(a.id, 'suspended');
+    await this.decided({ action, registrar, account: a.id, reason });
+    await this.mail.send(a.email, m.letter(a.displayName, reason ?? ''));
     return toApplicantResponse(a);
   }
 

@@ -22,6 +22,8 @@ import { DataSource } from 'typeorm';
 import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
 import { lotViewValues } from '../lots/lot-view.projector';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
+import { attributionRecordOf } from '../lots/attribution-record';
+import { RollReaderService } from '../ledger/roll-reader.service';
 
 /**
  * The audit's reason for a lot whose roll verifies but whose stored copies (the columns kept
@@ -109,7 +111,12 @@ const LOT_BATCH = 200;
  */
 @Injectable()
 export class AuditService {
-  constructor(private readonly dataSource: DataSource) {}
+  /** Reads rolls for deriving each lot's attribution on record, as the projector does. */
+  private readonly reader: RollReaderService;
+
+  constructor(private readonly dataSource: DataSource) {
+    this.reader = new RollReaderService(dataSource);
+  }
 
   async *run(progressEvery = 50): AsyncGenerator<AuditEvent> {
     const [{ n }] = (await this.dataSource.query('SELECT count(*)::int AS "n" FROM "lots"')) as Array<{
@@ -198,7 +205,7 @@ export class AuditService {
     const view = views[0];
     if (!view) differs('lot_views', '(row)', null, 'missing', 'one row');
     else {
-      const want = lotViewValues(state, observations);
+      const want = lotViewValues(state, observations, await attributionRecordOf(this.reader, state));
       for (const [column, value] of Object.entries(want)) {
         for (const d of jsonDifferences(view[column], value)) {
           const at = d.path === '(whole value)' ? column : `${column}.${d.path}`;

@@ -1,6 +1,15 @@
 import { applyDecorators, ValidationPipe, type ValidationError } from '@nestjs/common';
+import { ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsDefined, IsObject, IsOptional, ValidateNested } from 'class-validator';
+import {
+  IsDefined,
+  IsObject,
+  IsOptional,
+  IsString,
+  MaxLength,
+  MinLength,
+  ValidateNested,
+} from 'class-validator';
 import { AppError, type FieldProblem } from './app-error';
 
 /**
@@ -17,6 +26,17 @@ export function NestedObject(
     IsObject(),
     ValidateNested(),
     Type(type),
+  );
+}
+
+/** An optional text field: when given, a string of 1 to `max` characters. */
+export function OptionalText(max: number): PropertyDecorator {
+  return applyDecorators(
+    ApiPropertyOptional({ maxLength: max }),
+    IsOptional(),
+    IsString(),
+    MinLength(1),
+    MaxLength(max),
   );
 }
 

@@ -13,6 +13,7 @@ import { InventorySearch1796490300000 } from '../migrations/1796490300000-Invent
 import { OpinionRequests1796490400000 } from '../migrations/1796490400000-OpinionRequests';
 import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
 import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddSaleVoidedKind';
+import { InheritedAttributionInSearch1796490800000 } from '../migrations/1796490800000-InheritedAttributionInSearch';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -30,4 +31,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   OpinionRequests1796490400000,
   ApplicantDetails1796490500000,
   AddSaleVoidedKind1796490600000,
+  InheritedAttributionInSearch1796490800000,
 ];

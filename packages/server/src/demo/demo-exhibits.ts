@@ -10,6 +10,7 @@ import type { Principal } from '../auth/auth.decorators';
 import { ExhibitsService } from '../exhibits/exhibits.service';
 import { drawDemoPicture, type DemoPicture } from './demo-pictures';
 import type { SeedStep } from './seed';
+import { LotViewsService } from '../lots/lot-views.service';
 
 /** The scenario's exhibits (the seed-demo folder, as the loader's SEED_DIR). */
 const DEMO_EXHIBITS_FILE = resolve(__dirname, '..', '..', '..', '..', 'seed-demo', 'exhibits.json');
@@ -28,16 +29,13 @@ interface DemoLotExhibits {
 export const seedExhibits: SeedStep = async (app, ctx) => {
   const data = app.get(DataSource);
   const exhibits = app.get(ExhibitsService);
+  const views = app.get(LotViewsService);
   const work = join(ctx.config.dataDir, 'tmp', `demo-exhibits-${randomBytes(8).toString('hex')}`);
   await mkdir(work, { recursive: true, mode: 0o700 });
   try {
     const lots = JSON.parse(readFileSync(DEMO_EXHIBITS_FILE, 'utf8')) as DemoLotExhibits[];
     for (const lot of lots) {
-      const rows: Array<{ code: string; holder: string }> = await data.query(
-        'SELECT "code", "holder" FROM "lot_views" WHERE "title" = $1 ORDER BY "code" LIMIT 1',
-        [lot.lot],
-      );
-      const found = rows[0];
+      const found = await views.firstTitled(lot.lot);
       if (!found) continue;
       const has: unknown[] = await data.query('SELECT 1 FROM "exhibits" WHERE "lot_code" = $1 LIMIT 1', [
         found.code,

@@ -28,6 +28,7 @@ import {
 } from './dto/exhibit-response.dto';
 import { ExhibitEntity } from './entities/exhibit.entity';
 import { ExhibitProcessor, type ProcessedFile } from './exhibit-processor';
+import { LotViewsService } from '../lots/lot-views.service';
 
 /** A stored file ready to send, with what the response headers need. */
 export interface ServedExhibitFile {
@@ -58,6 +59,7 @@ export class ExhibitsService {
   private readonly processing: pLimit.Limit;
 
   constructor(
+    private readonly views: LotViewsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @Inject(BLOB_STORE) private readonly store: BlobStore,
     @InjectRepository(ExhibitEntity) private readonly exhibits: Repository<ExhibitEntity>,
@@ -231,11 +233,7 @@ export class ExhibitsService {
     const code = RollReaderService.canonicalCode(codeText);
     if (!code) throw NOT_FOUND();
     const { manager, from } = await this.standby.reader(writer);
-    const listed: Array<{ listed: boolean }> = await manager.query(
-      'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
-      [code],
-    );
-    if (listed[0]?.listed !== true) throw NOT_FOUND();
+    if ((await this.views.find({ code }, manager))?.listed !== true) throw NOT_FOUND();
     const row = await this.row(code, seqText, manager);
     if (!row || row.sealed) throw NOT_FOUND();
     return { ...(await this.serve(row, variant)), from };
@@ -257,11 +255,7 @@ export class ExhibitsService {
     const ancestor = RollReaderService.canonicalCode(ancestorText);
     if (!code || !ancestor || code === ancestor || !/^[1-9]\d{0,8}$/.test(seqText)) throw NOT_FOUND();
     const { manager, from } = await this.standby.reader(writer);
-    const listed: Array<{ listed: boolean }> = await manager.query(
-      'SELECT "listed" FROM "lot_views" WHERE "code" = $1',
-      [code],
-    );
-    if (listed[0]?.listed !== true) throw NOT_FOUND();
+    if ((await this.views.find({ code }, manager))?.listed !== true) throw NOT_FOUND();
     const bundle = await this.bundles.bundleFor(code, (_lot, state) => state.listed, manager);
     const seq = Number(seqText);
     const carried = bundle?.rolls

@@ -12,7 +12,7 @@ import { DataSource, type EntityManager } from 'typeorm';
 import { LogService } from '../log/log.service';
 import { RollReaderService, type StoredRollEntry } from './roll-reader.service';
 
-interface RollPart {
+export interface RollPart {
   lot: string;
   scope: BundleScope;
   entries: StoredRollEntry[];
@@ -24,6 +24,77 @@ interface RollPart {
 
 /** Kinds of an unlisted ancestor's entries that may travel to its descendants. */
 const TRAVELLING_KINDS = ['registered', 'split', 'combined', 'opinion', 'exhibit-added'];
+
+/**
+ * The rolls of a lot's bundle, its own first in full, then its ancestors: in full when
+ * `fullAncestor` says so, otherwise in 'inherited' scope (see {@link BundleService}). Read
+ * through `manager` when given (inside an append transaction it sees that transaction's
+ * entries). null when the lot does not exist.
+ */
+export async function bundleRolls(
+  reader: RollReaderService,
+  code: string,
+  fullAncestor: (lot: string, state: RollState) => boolean = (_lot, state) => state.listed,
+  manager?: EntityManager,
+): Promise<RollPart[] | null> {
+  const lot = await reader.findLot(code, manager);
+  if (!lot) return null;
+  const parts: RollPart[] = [
+    { lot: code, scope: 'full', entries: await reader.entries(lot.id, {}, manager) },
+  ];
+  const queue = [parts[0]!];
+  while (queue.length > 0) {
+    const part = queue.shift()!;
+    const first = part.scope === 'full' ? part.entries[0] : part.travelling?.[0];
+    if (!first || first.seq !== 0) continue;
+    const header = JSON.parse(first.header) as EntryHeader;
+    for (const p of header.parents ?? []) {
+      const known = parts.find((x) => x.lot === p.lot);
+      if (known?.scope === 'full') continue;
+      if (known) {
+        known.links!.add(p.seq);
+        continue;
+      }
+      const row = await reader.cachedState(p.lot, manager);
+      if (!row) continue; // the verifier will report the missing parent
+      if (fullAncestor(p.lot, row.state)) {
+        const full: RollPart = {
+          lot: p.lot,
+          scope: 'full',
+          entries: await reader.entries(row.id, {}, manager),
+        };
+        parts.push(full);
+        queue.push(full);
+        continue;
+      }
+      const standing = new Set(row.state.opinions.filter((o) => o.body).map((o) => o.seq));
+      const cited = new Set(row.state.opinions.flatMap((o) => o.body?.exhibits ?? []));
+      const travelling = (await reader.entries(row.id, { kinds: TRAVELLING_KINDS }, manager)).filter((e) => {
+        if (e.kind === 'opinion') return standing.has(e.seq) && e.body !== null;
+        if (e.kind !== 'exhibit-added') return true;
+        if (e.body === null) return false;
+        const b = JSON.parse(e.body) as ExhibitAddedBody;
+        return 'exhibit' in b && cited.has(b.exhibit.original.sha256);
+      });
+      const part: RollPart = {
+        lot: p.lot,
+        scope: INHERITED_SCOPE,
+        entries: [],
+        links: new Set([p.seq]),
+        travelling,
+      };
+      parts.push(part);
+      queue.push(part);
+    }
+  }
+  for (const part of parts) {
+    if (part.scope !== INHERITED_SCOPE) continue;
+    part.entries = part
+      .travelling!.filter((e) => (e.kind !== 'split' && e.kind !== 'combined') || part.links!.has(e.seq))
+      .map((e) => (e.kind === 'registered' ? { ...e, body: null } : e));
+  }
+  return parts;
+}
 
 /**
  * Builds export bundles: the lot's full roll first, then its ancestors — in full when
@@ -51,68 +122,8 @@ export class BundleService {
     fullAncestor: (lot: string, state: RollState) => boolean = (_lot, state) => state.listed,
     manager: EntityManager = this.dataSource.manager,
   ): Promise<Bundle | null> {
-    const lot = await this.reader.findLot(code, manager);
-    if (!lot) return null;
-    const parts: RollPart[] = [
-      { lot: code, scope: 'full', entries: await this.reader.entries(lot.id, undefined, manager) },
-    ];
-    const queue = [parts[0]!];
-    while (queue.length > 0) {
-      const part = queue.shift()!;
-      const first = part.scope === 'full' ? part.entries[0] : part.travelling?.[0];
-      if (!first || first.seq !== 0) continue;
-      const header = JSON.parse(first.header) as EntryHeader;
-      for (const p of header.parents ?? []) {
-        const known = parts.find((x) => x.lot === p.lot);
-        if (known?.scope === 'full') continue;
-        if (known) {
-          known.links!.add(p.seq);
-          continue;
-        }
-        const rows: Array<{ id: string; state: RollState }> = await manager.query(
-          'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
-          [p.lot],
-        );
-        const row = rows[0];
-        if (!row) continue; // the verifier will report the missing parent
-        if (fullAncestor(p.lot, row.state)) {
-          const full: RollPart = {
-            lot: p.lot,
-            scope: 'full',
-            entries: await this.reader.entries(row.id, undefined, manager),
-          };
-          parts.push(full);
-          queue.push(full);
-          continue;
-        }
-        const standing = new Set(row.state.opinions.filter((o) => o.body).map((o) => o.seq));
-        const cited = new Set(row.state.opinions.flatMap((o) => o.body?.exhibits ?? []));
-        const travelling = (await this.reader.entries(row.id, { kinds: TRAVELLING_KINDS }, manager)).filter(
-          (e) => {
-            if (e.kind === 'opinion') return standing.has(e.seq) && e.body !== null;
-            if (e.kind !== 'exhibit-added') return true;
-            if (e.body === null) return false;
-            const b = JSON.parse(e.body) as ExhibitAddedBody;
-            return 'exhibit' in b && cited.has(b.exhibit.original.sha256);
-          },
-        );
-        const part: RollPart = {
-          lot: p.lot,
-          scope: INHERITED_SCOPE,
-          entries: [],
-          links: new Set([p.seq]),
-          travelling,
-        };
-        parts.push(part);
-        queue.push(part);
-      }
-    }
-    for (const part of parts) {
-      if (part.scope !== INHERITED_SCOPE) continue;
-      part.entries = part
-        .travelling!.filter((e) => (e.kind !== 'split' && e.kind !== 'combined') || part.links!.has(e.seq))
-        .map((e) => (e.kind === 'registered' ? { ...e, body: null } : e));
-    }
+    const parts = await bundleRolls(this.reader, code, fullAncestor, manager);
+    if (!parts) return null;
     const checkpoint = await this.log.bundleCheckpoint(
       parts.filter((r) => r.scope === 'full').map((r) => ({ lot: r.lot, entries: r.entries })),
     );

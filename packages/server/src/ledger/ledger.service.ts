@@ -367,6 +367,22 @@ export class LedgerService {
     return this.withLots([code], (tx) => tx.append(code, draft, options));
   }
 
+  /**
+   * Deletes the sealed values an account being closed recorded for itself alone, inside the
+   * closing transaction `m`; their salted commitments stay in the headers, so every roll still
+   * verifies. A value shared with the other party of a transfer is that party's record too: it
+   * stays. The database refuses the delete unless this transaction names the closing account.
+   */
+  async forgetSealedValuesOf(accountId: string, m: EntityManager): Promise<void> {
+    await m.query(`SELECT set_config('beadroll.closing_account', $1, true)`, [accountId]);
+    await m.query(
+      `DELETE FROM "sealed_fields" s USING "entries" e
+        WHERE e."id" = s."entry_id" AND e."actor" = $1::text AND s."visible_to" = ARRAY[$1::varchar]`,
+      [accountId],
+    );
+    await m.query(`SELECT set_config('beadroll.closing_account', '', true)`);
+  }
+
   /** Registers one new lot, in its own transaction. */
   register(draft: RegisterDraft, options?: AppendOptions): Promise<AppendedEntry> {
     return this.withLots([], (tx) => tx.register(draft, options));

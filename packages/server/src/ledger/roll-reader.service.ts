@@ -1,5 +1,11 @@
 import { Injectable } from '@nestjs/common';
-import { isLotCode, parseLotCode, type BundleEntry, type SealedFieldName } from '@beadroll/core';
+import {
+  isLotCode,
+  parseLotCode,
+  type BundleEntry,
+  type RollState,
+  type SealedFieldName,
+} from '@beadroll/core';
 import { DataSource, type EntityManager } from 'typeorm';
 
 /** A stored entry with the columns other features read without decoding the header. */
@@ -48,6 +54,29 @@ export class RollReaderService {
       ]);
     const r = rows[0];
     return r ? { id: r.id, code: r.code, headSeq: r.head_seq, headHash: r.head_hash } : null;
+  }
+
+  /** A lot's id and its cached state (as of its head), by canonical code; null when unknown. */
+  async cachedState(
+    code: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<{ id: string; state: RollState } | null> {
+    const rows: Array<{ id: string; state: RollState }> = await manager.query(
+      'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
+      [code],
+    );
+    return rows[0] ?? null;
+  }
+
+  /** The stored heads of many lots at once, by canonical code (unknown codes left out). */
+  async findLots(codes: readonly string[]): Promise<LotHead[]> {
+    if (codes.length === 0) return [];
+    const rows: Array<{ id: string; code: string; head_seq: number; head_hash: string }> =
+      await this.dataSource.query(
+        'SELECT "id", "code", "head_seq", "head_hash" FROM "lots" WHERE "code" = ANY($1)',
+        [codes],
+      );
+    return rows.map((r) => ({ id: r.id, code: r.code, headSeq: r.head_seq, headHash: r.head_hash }));
   }
 
   /** Entries of a lot in seq order, from `fromSeq`, at most `limit`. */
@@ -136,6 +165,48 @@ export class RollReaderService {
       out.set(lot_id, list);
     }
     return out;
+  }
+
+  /**
+   * Every sealed value `accountId` may read, on any lot, ordered by lot code, seq and name (the
+   * dealer's own data download).
+   */
+  async sealedVisibleTo(
+    accountId: string,
+  ): Promise<
+    Array<{ lot: string; seq: number; name: string; value: string; salt: string; commitment: string }>
+  > {
+    return this.dataSource.query(
+      `SELECT l."code" AS "lot", e."seq", s."name", s."value", s."salt", s."commitment"
+         FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id" JOIN "lots" l ON l."id" = e."lot_id"
+        WHERE $1::text = ANY(s."visible_to") ORDER BY l."code", e."seq", s."name"`,
+      [accountId],
+    );
+  }
+
+  /**
+   * The named sealed values `viewer` may read at the given entries (lot id and seq pairs), for
+   * lists that show a price or note beside each row. Values are parsed.
+   */
+  async sealedAt(
+    at: ReadonlyArray<{ lotId: string; seq: number }>,
+    viewer: string,
+    names: readonly SealedFieldName[],
+  ): Promise<Array<{ lotId: string; seq: number; name: SealedFieldName; value: unknown }>> {
+    if (at.length === 0 || names.length === 0) return [];
+    const rows: Array<{ lot_id: string; seq: number; name: SealedFieldName; value: string }> =
+      await this.dataSource.query(
+        `SELECT e."lot_id", e."seq", s."name", s."value" FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
+          WHERE s."name" = ANY($4::text[]) AND $1 = ANY(s."visible_to")
+            AND (e."lot_id", e."seq") IN (SELECT * FROM unnest($2::uuid[], $3::int[]))`,
+        [viewer, at.map((a) => a.lotId), at.map((a) => a.seq), names],
+      );
+    return rows.map((r) => ({
+      lotId: r.lot_id,
+      seq: r.seq,
+      name: r.name,
+      value: JSON.parse(r.value) as unknown,
+    }));
   }
 
   /** Commitments of every sealed field of the given entries (names and digests only). */

@@ -1,5 +1,6 @@
 import {
   createRollVerifier,
+  type RollState,
   type RollVerification,
   type StoredEntry,
   type VerifiedEntry,
@@ -71,6 +72,48 @@ export async function replayStoredRoll(
     from = rows[rows.length - 1]!.seq + 1;
   }
   return { result: v.finish(), entries };
+}
+
+/** What a caller of {@link refreshCachedStates} does with each lot whose roll verifies. */
+export interface RefreshVisitor {
+  /** Sees each entry once core has accepted it. */
+  entry?(row: StoredEntryRow, entry: VerifiedEntry): void;
+  /** Runs after the lot's cached state was rewritten, with that state. */
+  done(state: RollState): Promise<void>;
+}
+
+/**
+ * Rewrites every lot's cached head and state in `lots` from a replay of its roll through
+ * today's core, for rolls that verify (broken rolls are left for the audit to report), and
+ * lets `forLot` refresh what other modules derive from the same replay. Returns how many lots
+ * were rewritten.
+ */
+export async function refreshCachedStates(
+  manager: EntityManager,
+  forLot: (lot: { id: string; code: string }) => RefreshVisitor,
+): Promise<number> {
+  let after = '';
+  let refreshed = 0;
+  for (;;) {
+    const lots: Array<{ id: string; code: string }> = await manager.query(
+      'SELECT "id", "code" FROM "lots" WHERE "code" > $1 ORDER BY "code" LIMIT 200',
+      [after],
+    );
+    if (lots.length === 0) return refreshed;
+    for (const lot of lots) {
+      after = lot.code;
+      const visitor = forLot(lot);
+      const { result } = await replayStoredRoll(manager, lot, (row, e) => visitor.entry?.(row, e));
+      if (!result.ok) continue;
+      const state = JSON.parse(JSON.stringify(result.state)) as RollState;
+      await manager.query(
+        'UPDATE "lots" SET "head_seq" = $2, "head_hash" = $3, "head_time" = $4, "state" = $5 WHERE "id" = $1',
+        [lot.id, state.head.seq, state.head.hash, state.head.time, JSON.stringify(state)],
+      );
+      await visitor.done(state);
+      refreshed++;
+    }
+  }
 }
 
 /** One place where a stored JSON value differs from the expected one. */

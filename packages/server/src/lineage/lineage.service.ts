@@ -21,6 +21,7 @@ import type {
   CombineResponse,
   SplitResponse,
 } from './dto/lineage-responses.dto';
+import { LotViewsService } from '../lots/lot-views.service';
 
 /** The most lots an ancestry graph shows. */
 export const ANCESTRY_NODE_LIMIT = 200;
@@ -70,6 +71,7 @@ function beadsGone(fields: FieldProblem[]): AppError {
 @Injectable()
 export class LineageService {
   constructor(
+    private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
@@ -361,11 +363,18 @@ export class LineageService {
 
   private async graphRows(codes: string[]): Promise<GraphRow[]> {
     if (codes.length === 0) return [];
-    return this.dataSource.query(
-      `SELECT l."code", l."state", v."title", v."status", v."listed", v."holder", v."offer_recipient"
-       FROM "lots" l JOIN "lot_views" v ON v."lot_id" = l."id" WHERE l."code" = ANY($1)`,
-      [codes],
-    );
+    const [states, views] = await Promise.all([this.states(codes), this.views.findMany({ codes })]);
+    return views
+      .filter((v) => states.has(v.code))
+      .map((v) => ({
+        code: v.code,
+        state: states.get(v.code)!,
+        title: v.title,
+        status: v.status as LotStatus,
+        listed: v.listed,
+        holder: v.holder,
+        offer_recipient: v.offerRecipient,
+      }));
   }
 
   private async linkKinds(edges: AncestryEdgeResponse[]): Promise<Map<string, 'split' | 'combined'>> {

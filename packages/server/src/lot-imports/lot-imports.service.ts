@@ -15,7 +15,8 @@ import {
   type CellProblem,
   type ColumnMapping,
 } from './import-columns';
-import { readSheet, templateCsv, templateXlsx, type Sheet } from './sheet-reader';
+import { exportFile, type ExportFile, type ExportFormat } from '../export/sheet-export';
+import { readSheet, type Sheet } from './sheet-reader';
 
 /** One uploaded file as the import steps receive it. */
 export interface SheetFile {
@@ -39,21 +40,27 @@ interface CheckedRow {
 export class LotImportsService {
   constructor(private readonly lots: LotsService) {}
 
-  async template(format: 'csv' | 'xlsx'): Promise<{ body: Buffer | string; type: string; name: string }> {
-    const headers = IMPORT_FIELDS.map((f) => f.header);
-    const example = IMPORT_FIELDS.map((f) => f.example);
-    if (format === 'csv')
-      return {
-        body: templateCsv(headers, example),
-        type: 'text/csv; charset=utf-8',
-        name: 'beadroll-lots.csv',
-      };
-    const hints = IMPORT_FIELDS.map((f) => `${f.required ? 'required; ' : ''}${f.hint}`);
-    return {
-      body: await templateXlsx(headers, example, hints),
-      type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-      name: 'beadroll-lots.xlsx',
-    };
+  /** The template: the header row and one example row, and in XLSX a sheet of hints. */
+  template(format: ExportFormat): Promise<ExportFile> {
+    const lots = IMPORT_FIELDS.map((f) => ({ key: f.key, header: f.header, width: 22 }));
+    const example = Object.fromEntries(IMPORT_FIELDS.map((f) => [f.key, f.example]));
+    const hints = IMPORT_FIELDS.map((f) => ({
+      column: f.header,
+      hint: `${f.required ? 'required; ' : ''}${f.hint}`,
+    }));
+    const help = [
+      { key: 'column', header: 'Column', width: 40 },
+      { key: 'hint', header: 'What to enter', width: 40 },
+    ];
+    return exportFile(
+      format,
+      'beadroll-lots',
+      [
+        { name: 'Lots', columns: lots, rows: [example] },
+        { name: 'How to fill in', columns: help, rows: hints },
+      ],
+      { bom: true },
+    );
   }
 
   async sheet(file: SheetFile | undefined): Promise<SheetResponse> {

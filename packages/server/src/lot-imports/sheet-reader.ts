@@ -72,22 +72,3 @@ export async function readSheet(bytes: Buffer, name: string): Promise<Sheet> {
     ]);
   return { headers: headers!.map((h) => h.trim()), rows };
 }
-
-/** The template as CSV: the header row and one example row. */
-export function templateCsv(headers: string[], example: string[]): string {
-  return '\uFEFF' + Papa.unparse([headers, example], { newline: '\r\n' }) + '\r\n';
-}
-
-/** The template as XLSX: the header row, one example row, and a sheet of hints. */
-export async function templateXlsx(headers: string[], example: string[], hints: string[]): Promise<Buffer> {
-  const book = new ExcelJS.Workbook();
-  const lots = book.addWorksheet('Lots');
-  lots.addRow(headers).font = { bold: true };
-  lots.addRow(example);
-  lots.columns.forEach((c) => (c.width = 22));
-  const help = book.addWorksheet('How to fill in');
-  help.addRow(['Column', 'What to enter']).font = { bold: true };
-  headers.forEach((h, i) => help.addRow([h, hints[i]]));
-  help.columns.forEach((c) => (c.width = 40));
-  return Buffer.from(await book.xlsx.writeBuffer());
-}

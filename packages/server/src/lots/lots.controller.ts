@@ -1,4 +1,15 @@
-import { Body, Controller, Get, Header, Param, Post, Put, Query, Res } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  Header,
+  Param,
+  Post,
+  Put,
+  Query,
+  Res,
+  type StreamableFile,
+} from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Bundle } from '@beadroll/core';
 import type { Response } from 'express';
@@ -6,11 +17,13 @@ import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.
 import {
   CreateLotDto,
   DescribeLotDto,
+  ExportLotsQueryDto,
   ListLotsQueryDto,
   ObserveLotDto,
   SetListingDto,
 } from './dto/lot-requests.dto';
 import { LotDetailResponse, LotListResponse, RollResponse, VerifyResponse } from './dto/lot-responses.dto';
+import { attachment } from '../export/sheet-export';
 import { LotsService } from './lots.service';
 
 @ApiTags('lots')
@@ -34,6 +47,18 @@ export class LotsController {
   @ApiOkResponse({ type: LotListResponse })
   list(@CurrentAccount() me: Principal, @Query() q: ListLotsQueryDto): Promise<LotListResponse> {
     return this.lots.list(me, q);
+  }
+
+  @Get('export')
+  @Header('Cache-Control', 'no-store')
+  @ApiOperation({ summary: 'The lot list as CSV or XLSX, with the list’s filters, search and sort' })
+  @ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  async export(
+    @CurrentAccount() me: Principal,
+    @Query() q: ExportLotsQueryDto,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    return attachment(res, await this.lots.exportList(me, q));
   }
 
   @Get(':code')

@@ -1,9 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import {
-  attributionOnRecord,
   checkTransition,
   formatLotCode,
-  inheritedRecord,
   verifyRoll,
   type Bundle,
   type Correction,
@@ -19,8 +17,14 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
-import { attributionOnRecord as holderAttribution } from './attribution-on-record';
-import type { CreateLotDto, DescribeLotDto, ListLotsQueryDto, ObserveLotDto } from './dto/lot-requests.dto';
+import { exportFile, type ExportColumn, type ExportFile } from '../export/sheet-export';
+import type {
+  CreateLotDto,
+  DescribeLotDto,
+  ExportLotsQueryDto,
+  ListLotsQueryDto,
+  ObserveLotDto,
+} from './dto/lot-requests.dto';
 import type {
   LotDetailResponse,
   LotListResponse,
@@ -67,6 +71,7 @@ interface LotViewRow {
   holder: string;
   listed: boolean;
   origin: string | null;
+  origin_source: LotSummaryResponse['originSource'];
   technique: string | null;
   period_from: number | null;
   period_to: number | null;
@@ -146,6 +151,21 @@ export function sealedValuesOf(dto: SealedDetailsDto | undefined): SealedValues 
   return Object.keys(out).length > 0 ? out : undefined;
 }
 
+/** The most lots one inventory export holds. */
+const MAX_EXPORT_LOTS = 20_000;
+
+const INVENTORY_COLUMNS: readonly ExportColumn[] = [
+  { key: 'code', header: 'code', width: 14 },
+  { key: 'title', header: 'title', width: 40 },
+  { key: 'form', header: 'form', width: 10 },
+  { key: 'count', header: 'count', width: 8 },
+  { key: 'estimated', header: 'estimated', width: 10 },
+  { key: 'origin', header: 'origin', width: 16 },
+  { key: 'status', header: 'status', width: 10 },
+  { key: 'listed', header: 'listed', width: 8 },
+  { key: 'updatedAt', header: 'last entry (UTC)', width: 24 },
+];
+
 function toSummary(r: LotViewRow): LotSummaryResponse {
   return {
     code: r.code,
@@ -156,7 +176,7 @@ function toSummary(r: LotViewRow): LotSummaryResponse {
     listed: r.listed,
     holder: r.holder,
     origin: r.origin,
-    originSource: r.origin ? 'holder' : null,
+    originSource: r.origin_source,
     technique: r.technique,
     period: r.period_from === null || r.period_to === null ? null : { from: r.period_from, to: r.period_to },
     count: { value: r.count_value, estimated: r.count_estimated },
@@ -376,23 +396,37 @@ export class LotsService {
       `SELECT v.* FROM ${from} ${clause} ORDER BY ${order} LIMIT ${p(pageSize)} OFFSET ${p((page - 1) * pageSize)}`,
       params,
     );
-    const items = await Promise.all(rows.map((r) => this.withRecord(toSummary(r))));
+    const items = rows.map(toSummary);
     return { items, total, page, pageSize };
   }
 
-  /**
-   * A row without a holder's attribution shows the attribution on record instead (an earlier
-   * holder's, or one made on a lot its beads came from), with the dissents against it, derived
-   * by core from the lot's public bundle.
-   */
-  private async withRecord(row: LotSummaryResponse): Promise<LotSummaryResponse> {
-    if (row.origin) return row;
-    const bundle = await this.bundles.bundleFor(row.code, (_lot, state) => state.listed);
-    const own = bundle ? verifyRoll(bundle.rolls[0]!.entries, { lot: row.code }) : null;
-    if (!bundle || !own?.ok) return row;
-    const r = attributionOnRecord(own.verified, own.state, inheritedRecord(bundle, row.code));
-    if (!r.record) return row;
-    return { ...row, origin: r.record.body.origin, originSource: r.source, dissents: r.dissent.length };
+  /** The inventory as a CSV or XLSX file: the list's filters, search and sort, every page. */
+  async exportList(viewer: Viewer, q: ExportLotsQueryDto): Promise<ExportFile> {
+    const { format = 'csv', ...filters } = q;
+    const rows: LotSummaryResponse[] = [];
+    for (let page = 1; rows.length < MAX_EXPORT_LOTS; page++) {
+      const r = await this.list(viewer, { ...filters, page, pageSize: 100 });
+      rows.push(...r.items);
+      if (rows.length >= r.total || r.items.length === 0) break;
+    }
+    const day = new Date().toISOString().slice(0, 10);
+    return exportFile(format, `beadroll-lots-${day}`, [
+      {
+        name: 'Lots',
+        columns: INVENTORY_COLUMNS,
+        rows: rows.map((r) => ({
+          code: r.displayCode,
+          title: r.title,
+          form: r.form,
+          count: r.count.value,
+          estimated: r.count.estimated ? 'yes' : 'no',
+          origin: r.origin,
+          status: r.status,
+          listed: r.listed ? 'yes' : 'no',
+          updatedAt: r.updatedAt,
+        })),
+      },
+    ]);
   }
 
   async detail(viewer: Viewer, text: string): Promise<LotDetailResponse> {
@@ -522,7 +556,7 @@ export class LotsService {
     const r = verifyRoll(entries, { lot: access.code });
     if (!r.ok) throw new AppError('internal', `the roll of ${access.code} does not verify at seq ${r.seq}`);
     const s = r.state;
-    const recorded = holderAttribution(s);
+    const recorded = s.attribution?.body ?? null;
     const view = (await this.view(access.code))!;
     const observed = entries.filter((e) => e.kind === 'observed' && e.body !== null).pop();
     const head = entries[entries.length - 1]!;

@@ -14,6 +14,10 @@ import type {
   OpinionRequestListResponse,
   OpinionRequestResponse,
 } from './dto/opinion-request.dto';
+import { LotViewsService } from '../lots/lot-views.service';
+
+/** SQL: the lot of request `r` is still held by its requester. */
+const HELD_BY_REQUESTER = LotViewsService.heldBySql('r."lot_id"', 'r."requester"');
 
 interface RequestRow {
   id: string;
@@ -38,6 +42,7 @@ interface RequestRow {
 @Injectable()
 export class OpinionRequestsService implements OnModuleInit {
   constructor(
+    private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
@@ -52,9 +57,9 @@ export class OpinionRequestsService implements OnModuleInit {
     if (viewer.role !== 'assessor') return false;
     const rows: unknown[] = await m.query(
       `SELECT 1 FROM "opinion_requests" r
-         JOIN "lot_views" v ON v."lot_id" = r."lot_id" AND v."holder" = r."requester"
          JOIN "accounts" a ON a."id"::text = $2 AND a."role" = 'assessor' AND a."status" = 'verified'
         WHERE r."lot_id" = $1 AND r."status" = 'open' AND (r."assessor" IS NULL OR r."assessor" = $2)
+          AND ${HELD_BY_REQUESTER}
         LIMIT 1`,
       [lotId, viewer.id],
     );
@@ -123,12 +128,11 @@ export class OpinionRequestsService implements OnModuleInit {
       // Open requests to this assessor or to any, while the requester still holds the lot; and
       // the ones this assessor answered.
       where = `((r."status" = 'open' AND (r."assessor" IS NULL OR r."assessor" = $1)
-                 AND v."holder" = r."requester")
+                 AND ${HELD_BY_REQUESTER})
                OR r."answered_by" = $1 OR (r."assessor" = $1 AND r."status" = 'cancelled'))`;
     }
     const [{ total }] = (await this.dataSource.query(
-      `SELECT count(*)::int AS "total" FROM "opinion_requests" r JOIN "lot_views" v ON v."lot_id" = r."lot_id"
-        WHERE ${where}`,
+      `SELECT count(*)::int AS "total" FROM "opinion_requests" r WHERE ${where}`,
       [me.id],
     )) as Array<{ total: number }>;
     const items = await this.rows(
@@ -174,13 +178,19 @@ export class OpinionRequestsService implements OnModuleInit {
   }
 
   private async rows(where: string, params: unknown[]): Promise<OpinionRequestResponse[]> {
-    const rows: RequestRow[] = await this.dataSource.query(
-      `SELECT r."id", r."code", v."title", v."listed", r."requester", r."assessor", r."answered_by", r."note",
+    const found: Array<Omit<RequestRow, 'title' | 'listed'> & { lot_id: string }> =
+      await this.dataSource.query(
+        `SELECT r."id", r."lot_id", r."code", r."requester", r."assessor", r."answered_by", r."note",
               r."status", r."created_at", r."closed_at", r."opinion_seq"
-         FROM "opinion_requests" r JOIN "lot_views" v ON v."lot_id" = r."lot_id"
+         FROM "opinion_requests" r
         WHERE ${where}`,
-      params,
-    );
+        params,
+      );
+    const views = await this.views.findMany({ lotIds: [...new Set(found.map((r) => r.lot_id))] });
+    const rows: RequestRow[] = found.flatMap((r) => {
+      const v = views.find((x) => x.lotId === r.lot_id);
+      return v ? [{ ...r, title: v.title, listed: v.listed }] : [];
+    });
     const ids = [...new Set(rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter(Boolean))];
     const parties = new Map<string, PartyName>();
     if (ids.length) {

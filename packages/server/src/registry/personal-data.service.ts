@@ -6,8 +6,11 @@ import { PasswordsService } from '../auth/passwords.service';
 import { SessionsService } from '../auth/sessions.service';
 import { AppError } from '../common/app-error';
 import { MailService } from '../mail/mail.service';
-import { OfferLapseService } from './offer-lapse.service';
+import { OfferLapseService } from '../transfers/offer-lapse.service';
 import { registryLetters } from './registry-letters';
+import { LotViewsService } from '../lots/lot-views.service';
+import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 
 /** Everything Beadroll holds about one account, as the account's own download. */
 export interface PersonalDataExport {
@@ -70,6 +73,9 @@ const FORMER_NAME = 'Former dealer';
 @Injectable()
 export class PersonalDataService {
   constructor(
+    private readonly ledger: LedgerService,
+    private readonly reader: RollReaderService,
+    private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     @InjectRepository(Account) private readonly accounts: Repository<Account>,
     private readonly passwords: PasswordsService,
@@ -97,21 +103,8 @@ export class PersonalDataService {
          FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
         WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
     );
-    const sealed = await q<{
-      lot: string;
-      seq: number;
-      name: string;
-      value: string;
-      salt: string;
-      commitment: string;
-    }>(
-      `SELECT l."code" AS "lot", e."seq", s."name", s."value", s."salt", s."commitment"
-         FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id" JOIN "lots" l ON l."id" = e."lot_id"
-        WHERE $1::text = ANY(s."visible_to") ORDER BY l."code", e."seq", s."name"`,
-    );
-    const held = await q<{ code: string }>(
-      `SELECT "code" FROM "lot_views" WHERE "holder" = $1::text ORDER BY "code"`,
-    );
+    const sealed = await this.reader.sealedVisibleTo(accountId);
+    const held = await this.views.heldBy(accountId);
     const asSent = await q<{ lot: string; seq: number; sha256: string }>(
       `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
         WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
@@ -200,14 +193,7 @@ export class PersonalDataService {
           statusReason: null,
         },
       );
-      await m.query(`SELECT set_config('beadroll.closing_account', $1, true)`, [a.id]);
-      await m.query(
-        // A value shared with the other party of a transfer is that party's record too: it stays.
-        `DELETE FROM "sealed_fields" s USING "entries" e
-          WHERE e."id" = s."entry_id" AND e."actor" = $1::text AND s."visible_to" = ARRAY[$1::varchar]`,
-        [a.id],
-      );
-      await m.query(`SELECT set_config('beadroll.closing_account', '', true)`);
+      await this.ledger.forgetSealedValuesOf(a.id, m);
       await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [a.id]);
       await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
     });

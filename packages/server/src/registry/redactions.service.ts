@@ -11,6 +11,7 @@ import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { BlockedDigestsService } from './blocked-digests.service';
 import { RedactionRequest, type RedactionRequestStatus } from './entities/redaction-request.entity';
 import { RegistrarRecordService } from './registrar-record.service';
+import { LotViewsService } from '../lots/lot-views.service';
 
 function toRequestResponse(r: RedactionRequest, kind: string): RedactionRequestResponse {
   return {
@@ -48,6 +49,7 @@ export class RedactionsService {
   private readonly log = new Logger(RedactionsService.name);
 
   constructor(
+    private readonly views: LotViewsService,
     private readonly ledger: LedgerService,
     private readonly reader: RollReaderService,
     private readonly blocked: BlockedDigestsService,
@@ -170,11 +172,8 @@ export class RedactionsService {
     const lot = await this.reader.findLot(code);
     const [target] = await this.reader.entries(lot!.id, { fromSeq: seq, limit: 1 });
     if (!target || target.seq !== seq) throw seqProblem(`lot ${code} has no entry ${seq}`);
-    const rows: Array<{ holder: string }> = await this.requests.manager.query(
-      `SELECT "holder" FROM "lot_views" WHERE "code" = $1`,
-      [code],
-    );
-    if (rows[0]?.holder !== requester || target.actor !== requester)
+    const view = await this.views.find({ code }, this.requests.manager);
+    if (view?.holder !== requester || target.actor !== requester)
       throw new AppError('forbidden', 'Only the holder can ask for the removal of their own entries.');
     if (target.body === null) throw seqProblem(`entry ${seq} is already redacted`);
     const open = await this.requests.findOne({ where: { lot: code, seq, status: 'open' } });

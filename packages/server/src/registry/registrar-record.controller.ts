@@ -26,7 +26,8 @@ export class RegistrarRecordController {
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('Content-Disposition', `attachment; filename="registrar-record.${q.format}"`);
     if (q.format === 'csv') {
-      res.type('text/csv; charset=utf-8').send(await this.record.csv());
+      const file = await this.record.csv();
+      res.type(file.type).send(file.body);
     } else {
       res
         .type('application/json; charset=utf-8')

@@ -2,6 +2,7 @@ import type { RegistrarActionResponse } from './dto/registry-responses.dto';
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { EntityManager, Repository } from 'typeorm';
+import { exportFile, type ExportColumn, type ExportFile } from '../export/sheet-export';
 import { RegistrarAction, type RegistrarActionKind } from './entities/registrar-action.entity';
 
 /** One decision as written to the record. */
@@ -25,12 +26,15 @@ export function toRegistrarActionResponse(a: RegistrarAction): RegistrarActionRe
   };
 }
 
-const CSV_COLUMNS = ['id', 'at', 'actor', 'action', 'subject', 'reason', 'details'] as const;
-
-/** One CSV field as RFC 4180 §2 quotes it: in double quotes, inner quotes doubled. */
-function csvField(v: string): string {
-  return /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
-}
+const CSV_COLUMNS: readonly ExportColumn[] = [
+  'id',
+  'at',
+  'actor',
+  'action',
+  'subject',
+  'reason',
+  'details',
+].map((key) => ({ key, header: key }));
 
 /**
  * The registrar's record: every redaction, suspension and verification decision, append-only
@@ -72,13 +76,9 @@ export class RegistrarRecordService {
     return rows.map(toRegistrarActionResponse);
   }
 
-  /** The whole record as CSV (RFC 4180: CRLF line ends, a header line). */
-  async csv(): Promise<string> {
-    const lines = [CSV_COLUMNS.join(',')];
-    for (const a of await this.all()) {
-      const values = [a.id, a.at, a.actor, a.action, a.subject, a.reason ?? '', JSON.stringify(a.details)];
-      lines.push(values.map(csvField).join(','));
-    }
-    return lines.join('\r\n') + '\r\n';
+  /** The whole record as a CSV file (RFC 4180: CRLF line ends, a header line). */
+  async csv(): Promise<ExportFile> {
+    const rows = (await this.all()).map((a) => ({ ...a, details: JSON.stringify(a.details) }));
+    return exportFile('csv', 'registrar-record', [{ name: 'Record', columns: CSV_COLUMNS, rows }]);
   }
 }

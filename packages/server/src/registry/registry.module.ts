@@ -5,11 +5,12 @@ import { RegistryService } from '../accounts/registry.service';
 import { AuthModule } from '../auth/auth.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { StorageModule } from '../storage/storage.module';
+import { TransfersModule } from '../transfers/transfers.module';
 import { BlockedDigestsModule } from './blocked-digests.module';
 import { RedactionRequest } from './entities/redaction-request.entity';
 import { RegistrarAction } from './entities/registrar-action.entity';
 import { Report } from './entities/report.entity';
-import { OfferLapseService } from './offer-lapse.service';
+import { OfferLapseService } from '../transfers/offer-lapse.service';
 import { PersonalDataController } from './personal-data.controller';
 import { PersonalDataService } from './personal-data.service';
 import { RedactionRequestsController, RedactionsController } from './redactions.controller';
@@ -18,6 +19,7 @@ import { RegistrarRecordController } from './registrar-record.controller';
 import { RegistrarRecordService } from './registrar-record.service';
 import { PublicReportsController, ReportsController } from './reports.controller';
 import { ReportsService } from './reports.service';
+import { LotViewsModule } from '../lots/lot-views.module';
 
 /**
  * The registrar's tools: redaction (and holders' requests), the blocked-digest list, reports
@@ -33,6 +35,8 @@ import { ReportsService } from './reports.service';
     AccountsModule,
     LedgerModule,
     StorageModule,
+    TransfersModule,
+    LotViewsModule,
   ],
   controllers: [
     RedactionsController,
@@ -42,14 +46,8 @@ import { ReportsService } from './reports.service';
     RegistrarRecordController,
     PersonalDataController,
   ],
-  providers: [
-    RegistrarRecordService,
-    RedactionsService,
-    ReportsService,
-    OfferLapseService,
-    PersonalDataService,
-  ],
-  exports: [BlockedDigestsModule, RedactionsService, RegistrarRecordService, OfferLapseService],
+  providers: [RegistrarRecordService, RedactionsService, ReportsService, PersonalDataService],
+  exports: [BlockedDigestsModule, RedactionsService, RegistrarRecordService],
 })
 export class RegistryToolsModule implements OnModuleInit {
   constructor(

@@ -10,6 +10,8 @@ import { MailService } from '../mail/mail.service';
 import { Report, type ReportCategory, type ReportStatus } from './entities/report.entity';
 import { RegistrarRecordService } from './registrar-record.service';
 import { registryLetters } from './registry-letters';
+import { LotViewsService } from '../lots/lot-views.service';
+import { AccountContactsService } from '../accounts/account-contacts.service';
 
 export function toReportResponse(r: Report): ReportResponse {
   return {
@@ -33,6 +35,8 @@ const SORTS = { created: 'createdAt', lot: 'lot', category: 'category' } as cons
 @Injectable()
 export class ReportsService {
   constructor(
+    private readonly contacts: AccountContactsService,
+    private readonly views: LotViewsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @InjectRepository(Report) private readonly reports: Repository<Report>,
     private readonly mail: MailService,
@@ -45,12 +49,8 @@ export class ReportsService {
     dto: { category: ReportCategory; text: string; email?: string },
   ): Promise<{ id: string; message: string }> {
     const code = RollReaderService.canonicalCode(lotText);
-    const rows: Array<{ holder: string }> = code
-      ? await this.reports.manager.query(`SELECT "holder" FROM "lot_views" WHERE "code" = $1 AND "listed"`, [
-          code,
-        ])
-      : [];
-    if (!code || !rows[0]) throw new AppError('not_found', 'Not found.');
+    const view = code ? await this.views.find({ code }, this.reports.manager) : null;
+    if (!code || !view?.listed) throw new AppError('not_found', 'Not found.');
     const saved = await this.reports.save(
       this.reports.create({
         lot: code,
@@ -59,16 +59,12 @@ export class ReportsService {
         reporterEmail: dto.email ?? null,
       }),
     );
-    const holders: Array<{ email: string; display_name: string }> = await this.reports.manager.query(
-      `SELECT "email", "display_name" FROM "accounts" WHERE "id"::text = $1 AND "status" <> 'closed'`,
-      [rows[0].holder],
-    );
-    const holder = holders[0];
+    const holder = await this.contacts.contactOf(view.holder);
     if (holder) {
       await this.mail.send(
         holder.email,
         registryLetters.reportOnYourLot(
-          holder.display_name,
+          holder.displayName,
           code,
           dto.category,
           dto.text,

@@ -1,7 +1,8 @@
-import { Controller, Get, Header, Query, Res, StreamableFile } from '@nestjs/common';
+import { Controller, Get, Header, Query, Res, type StreamableFile } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
+import { attachment } from '../export/sheet-export';
 import { StockExportQueryDto } from './dto/stock-requests.dto';
 import { StockSummaryResponse } from './dto/stock-responses.dto';
 import { StockService } from './stock.service';
@@ -33,9 +34,6 @@ export class StockController {
     @Query() q: StockExportQueryDto,
     @Res({ passthrough: true }) res: Response,
   ): Promise<StreamableFile> {
-    const file = await this.stock.export(me, q.format ?? 'csv');
-    res.setHeader('Content-Type', file.type);
-    res.setHeader('Content-Disposition', `attachment; filename="${file.name}"`);
-    return new StreamableFile(file.body);
+    return attachment(res, await this.stock.export(me, q.format ?? 'csv'));
   }
 }

@@ -1,16 +1,16 @@
 import { Injectable } from '@nestjs/common';
 import { formatLotCode, type Money, type SealedFieldName } from '@beadroll/core';
-import ExcelJS from 'exceljs';
-import { DataSource } from 'typeorm';
 import type { Viewer } from '../lots/lots.service';
 import { RollReaderService, type ViewerSealedField } from '../ledger/roll-reader.service';
-import type { ExportFormat } from './dto/stock-requests.dto';
+import { exportFile, type ExportColumn, type ExportFile, type ExportFormat } from '../export/sheet-export';
 import type {
   CurrencyFigures,
   SalesPeriod,
   StockGroup,
   StockSummaryResponse,
 } from './dto/stock-responses.dto';
+import { LotViewsService } from '../lots/lot-views.service';
+import { DealsReader } from '../transfers/deals.reader';
 
 /** A lot the dealer holds, with what the inventory shows of its attribution on record. */
 interface HeldRow {
@@ -28,14 +28,6 @@ interface HeldRow {
   count_estimated: boolean;
 }
 
-/** One sale by the dealer: to a private buyer (`sold`) or to a dealer (an accepted offer). */
-interface SaleRow {
-  lot_id: string;
-  seq: number;
-  day: string;
-  to: 'buyer' | 'dealer';
-}
-
 const SEALED: readonly SealedFieldName[] = [
   'acquisition-cost',
   'acquisition-date',
@@ -43,6 +35,25 @@ const SEALED: readonly SealedFieldName[] = [
   'storage-location',
   'sale-price',
   'transfer-price',
+];
+
+const STOCK_COLUMNS: readonly ExportColumn[] = [
+  { header: 'code', key: 'code', width: 14 },
+  { header: 'title', key: 'title', width: 40 },
+  { header: 'form', key: 'form', width: 10 },
+  { header: 'count', key: 'count', width: 8 },
+  { header: 'count estimated', key: 'estimated', width: 10 },
+  { header: 'status', key: 'status', width: 10 },
+  { header: 'listed', key: 'listed', width: 8 },
+  { header: 'origin on record', key: 'origin', width: 16 },
+  { header: 'period on record from', key: 'from', width: 10 },
+  { header: 'period on record to', key: 'to', width: 10 },
+  { header: 'technique on record', key: 'technique', width: 16 },
+  { header: 'storage place', key: 'storage', width: 24 },
+  { header: 'acquisition date', key: 'date', width: 12 },
+  { header: 'acquisition source', key: 'source', width: 24 },
+  { header: 'cost', key: 'cost', width: 12, numFmt: '#,##0.00' },
+  { header: 'currency', key: 'currency', width: 9 },
 ];
 
 /** ISO 4217 minor digits of a currency, as the runtime's locale data knows them (2 when unknown). */
@@ -62,14 +73,6 @@ export function majorUnits(amount: number, currency: string): string {
   const sign = amount < 0 ? '-' : '';
   const s = String(Math.abs(amount)).padStart(digits + 1, '0');
   return `${sign}${s.slice(0, -digits)}.${s.slice(-digits)}`;
-}
-
-/**
- * A cell as text a spreadsheet shows and never runs: text starting with = + - @ or a tab or
- * carriage return gets a leading apostrophe (OWASP, "CSV Injection").
- */
-export function inertText(value: string): string {
-  return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
 }
 
 /** The newest value of a field at or before `upTo`, among the viewer's own sealed fields. */
@@ -105,14 +108,15 @@ function centuryKey(from: number | null): string {
 @Injectable()
 export class StockService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly views: LotViewsService,
+    private readonly deals: DealsReader,
     private readonly reader: RollReaderService,
   ) {}
 
   async summary(me: Viewer): Promise<StockSummaryResponse> {
     const held = await this.held(me);
-    const sales = await this.sales(me);
-    const bought = await this.boughtAt(me);
+    const sales = await this.deals.salesBy(me.id);
+    const bought = await this.deals.boughtAt(me.id);
     const ids = [...new Set([...held.map((h) => h.lot_id), ...sales.map((s) => s.lot_id)])];
     const sealed = await this.reader.sealedForLots(ids, me.id, SEALED);
     const by = new Map<string, CurrencyFigures>();
@@ -193,43 +197,22 @@ export class StockService {
   }
 
   /** The stock held as a CSV or XLSX file: one row per lot, with the dealer's own sealed details. */
-  async export(me: Viewer, format: ExportFormat): Promise<{ body: Buffer; type: string; name: string }> {
+  async export(me: Viewer, format: ExportFormat): Promise<ExportFile> {
     const held = await this.held(me);
-    const bought = await this.boughtAt(me);
+    const bought = await this.deals.boughtAt(me.id);
     const sealed = await this.reader.sealedForLots(
       held.map((h) => h.lot_id),
       me.id,
       SEALED,
     );
-    const book = new ExcelJS.Workbook();
-    book.created = new Date(0);
-    const sheet = book.addWorksheet('Stock');
-    sheet.columns = [
-      { header: 'code', key: 'code', width: 14 },
-      { header: 'title', key: 'title', width: 40 },
-      { header: 'form', key: 'form', width: 10 },
-      { header: 'count', key: 'count', width: 8 },
-      { header: 'count estimated', key: 'estimated', width: 10 },
-      { header: 'status', key: 'status', width: 10 },
-      { header: 'listed', key: 'listed', width: 8 },
-      { header: 'origin on record', key: 'origin', width: 16 },
-      { header: 'period on record from', key: 'from', width: 10 },
-      { header: 'period on record to', key: 'to', width: 10 },
-      { header: 'technique on record', key: 'technique', width: 16 },
-      { header: 'storage place', key: 'storage', width: 24 },
-      { header: 'acquisition date', key: 'date', width: 12 },
-      { header: 'acquisition source', key: 'source', width: 24 },
-      { header: 'cost', key: 'cost', width: 12 },
-      { header: 'currency', key: 'currency', width: 9 },
-    ];
-    for (const h of held) {
+    const rows = held.map((h) => {
       const fields = sealed.get(h.lot_id) ?? [];
       const cost = this.costOf(fields, bought.get(h.lot_id) ?? []);
-      const text = (v: unknown) => (typeof v === 'string' ? inertText(v) : '');
+      const text = (v: unknown) => (typeof v === 'string' ? v : '');
       const costText = cost ? majorUnits(cost.amount, cost.currency) : '';
-      sheet.addRow({
+      return {
         code: formatLotCode(h.code),
-        title: inertText(h.title),
+        title: h.title,
         form: h.form ?? '',
         count: h.count_value,
         estimated: h.count_estimated ? 'yes' : 'no',
@@ -245,23 +228,10 @@ export class StockService {
         // A number in the spreadsheet, a decimal text in the CSV (never a float's rounding).
         cost: format === 'xlsx' && cost ? Number(costText) : costText,
         currency: cost?.currency ?? '',
-      });
-    }
-    const day = new Date().toISOString().slice(0, 10);
-    if (format === 'xlsx') {
-      sheet.getColumn('cost').numFmt = '#,##0.00';
-      sheet.getRow(1).font = { bold: true };
-      sheet.views = [{ state: 'frozen', ySplit: 1 }];
-      return {
-        body: Buffer.from(await book.xlsx.writeBuffer()),
-        type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-        name: `beadroll-stock-${day}.xlsx`,
       };
-    }
-    const csv = await book.csv.writeBuffer({
-      formatterOptions: { rowDelimiter: '\r\n', includeEndRowDelimiter: true },
     });
-    return { body: Buffer.from(csv), type: 'text/csv; charset=utf-8', name: `beadroll-stock-${day}.csv` };
+    const day = new Date().toISOString().slice(0, 10);
+    return exportFile(format, `beadroll-stock-${day}`, [{ name: 'Stock', columns: STOCK_COLUMNS, rows }]);
   }
 
   /**
@@ -282,34 +252,20 @@ export class StockService {
     return out;
   }
 
-  private held(me: Viewer): Promise<HeldRow[]> {
-    return this.dataSource.query(
-      `SELECT "lot_id", "code", "title", "form", "status", "listed", "origin", "technique", "period_from",
-              "period_to", "count_value", "count_estimated"
-         FROM "lot_views" WHERE "holder" = $1 AND "status" IN ('held', 'offered') ORDER BY "code"`,
-      [me.id],
-    );
-  }
-
-  private sales(me: Viewer): Promise<SaleRow[]> {
-    return this.dataSource.query(
-      `SELECT "lot_id", "seq", to_char("sold_on", 'YYYY-MM-DD') AS "day", 'buyer' AS "to"
-         FROM "sales" WHERE "seller" = $1
-       UNION ALL
-       SELECT "lot_id", "offer_seq", to_char("answered_at" AT TIME ZONE 'UTC', 'YYYY-MM-DD'), 'dealer'
-         FROM "transfer_offers" WHERE "offerer" = $1 AND "status" = 'accepted'`,
-      [me.id],
-    );
-  }
-
-  /** Per lot, the seqs of the offers the dealer accepted (their transfer price is what they paid). */
-  private async boughtAt(me: Viewer): Promise<Map<string, number[]>> {
-    const rows: Array<{ lot_id: string; offer_seq: number }> = await this.dataSource.query(
-      `SELECT "lot_id", "offer_seq" FROM "transfer_offers" WHERE "recipient" = $1 AND "status" = 'accepted'`,
-      [me.id],
-    );
-    const out = new Map<string, number[]>();
-    for (const r of rows) out.set(r.lot_id, [...(out.get(r.lot_id) ?? []), r.offer_seq]);
-    return out;
+  private async held(me: Viewer): Promise<HeldRow[]> {
+    return (await this.views.heldBy(me.id, ['held', 'offered'])).map((v) => ({
+      lot_id: v.lotId,
+      code: v.code,
+      title: v.title,
+      form: v.form,
+      status: v.status,
+      listed: v.listed,
+      origin: v.origin,
+      technique: v.technique,
+      period_from: v.periodFrom,
+      period_to: v.periodTo,
+      count_value: v.countValue,
+      count_estimated: v.countEstimated,
+    }));
   }
 }

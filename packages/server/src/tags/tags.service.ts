@@ -11,6 +11,8 @@ import { LotsService } from '../lots/lots.service';
 import type { PrintTagsDto } from './dto/print-tags.dto';
 import { DESIGN_DEFAULTS, PAPERS, tagFit, type DesignFit, type TagDesign } from './tag-layout';
 import { TagPdfService, type TagItem } from './tag-pdf.service';
+import { LotViewsService } from '../lots/lot-views.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 
 /** A lot as the tag maker sees it: what goes on the tag, read from the roll's head. */
 export class TagLotResponse {
@@ -54,6 +56,8 @@ interface HeadRow {
 @Injectable()
 export class TagsService {
   constructor(
+    private readonly reader: RollReaderService,
+    private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     private readonly lots: LotsService,
     private readonly pdf: TagPdfService,
@@ -162,15 +166,23 @@ export class TagsService {
     return rows;
   }
 
-  /** Each lot's head from the derived view, with the head entry's hash from the roll. */
+  /** Each lot's title, listing and holder from the derived view, with its head from the roll. */
   private async heads(codes: string[]): Promise<Map<string, HeadRow>> {
-    const rows = (await this.dataSource.query(
-      `SELECT v."code", v."title", v."listed", v."status", v."holder", v."head_seq", e."hash"
-         FROM "lot_views" v
-         JOIN "entries" e ON e."lot_id" = v."lot_id" AND e."seq" = v."head_seq"
-        WHERE v."code" = ANY($1)`,
-      [codes],
-    )) as HeadRow[];
-    return new Map(rows.map((r) => [r.code, { ...r, hash: r.hash.trim() }]));
+    const [views, heads] = await Promise.all([this.views.findMany({ codes }), this.reader.findLots(codes)]);
+    const out = new Map<string, HeadRow>();
+    for (const v of views) {
+      const head = heads.find((h) => h.code === v.code);
+      if (!head) continue;
+      out.set(v.code, {
+        code: v.code,
+        title: v.title,
+        listed: v.listed,
+        status: v.status,
+        holder: v.holder,
+        head_seq: head.headSeq,
+        hash: head.headHash.trim(),
+      });
+    }
+    return out;
   }
 }

@@ -6,6 +6,7 @@ import { LedgerService } from '../ledger/ledger.service';
 import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
 import { sealedValuesOf } from '../lots/lots.service';
 import { TransfersService } from './transfers.service';
+import { LotViewsService } from '../lots/lot-views.service';
 
 type Then = 'accept' | 'decline' | 'withdraw' | 'lapse' | 'open';
 
@@ -61,17 +62,13 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
     }
   }
   if (banner) {
-    const rows: Array<{ holder: string; status: string; head_seq: number }> = await db.query(
-      'SELECT "holder", "status", "head_seq" FROM "lot_views" WHERE "code" = $1',
-      [banner.code],
-    );
-    const dealers = Object.keys(ctx.accounts).filter((h) => ctx.accounts[h] !== rows[0]?.holder);
+    const row = await app.get(LotViewsService).find({ code: banner.code });
+    const dealers = Object.keys(ctx.accounts).filter((h) => ctx.accounts[h] !== row?.holder);
     const to = ['teodor-brasko', 'odile-varnas'].find((h) => dealers.includes(h));
     const done: unknown[] = await db.query(
       `SELECT 1 FROM "transfer_offers" WHERE "code" = $1 AND "status" = 'accepted'`,
       [banner.code],
     );
-    const row = rows[0];
     if (row && to && (done.length > 0 || row.status === 'held')) {
       if (done.length === 0) {
         await ledger.withLots([banner.code], async (tx) => {

@@ -1,7 +1,7 @@
 import { Inject, Injectable, Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { SchedulerRegistry } from '@nestjs/schedule';
 import { SYSTEM_ACTOR } from '@beadroll/core';
-import { DataSource, LessThanOrEqual } from 'typeorm';
+import { DataSource, LessThanOrEqual, type QueryRunner } from 'typeorm';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -23,10 +23,11 @@ export interface LapseRun {
 }
 
 /**
- * Lapses offers nobody answered within the configured days, writing `transfer-lapsed` as the
- * system account. One server at a time takes the pass (a PostgreSQL advisory lock); each lapse
- * is its own append under the lot's row lock and re-checks that the offer is still open, so an
- * answer arriving at the same moment wins or loses cleanly.
+ * The one writer of `transfer-lapsed`, as the system account: the timed pass lapses offers nobody
+ * answered within the configured days, and `lapseOffersOf` lapses every open offer of an account
+ * that is suspended or closed. Both run under one PostgreSQL advisory lock, so one server at a
+ * time lapses anything; each lapse is its own append under the lot's row lock and re-checks that
+ * the offer is still open, so an answer arriving at the same moment wins or loses cleanly.
  */
 @Injectable()
 export class OfferLapseService implements OnModuleInit, OnModuleDestroy {
@@ -67,41 +68,80 @@ export class OfferLapseService implements OnModuleInit, OnModuleDestroy {
   }
 
   private async pass(): Promise<LapseRun> {
-    const runner = this.dataSource.createQueryRunner();
+    const result = await this.underLock(false, async () => {
+      let lapsed = 0;
+      const cutoff = new Date(this.clock.now().getTime() - this.config.transfers.lapseDays * 86_400_000);
+      for (;;) {
+        const due: TransferOfferEntity[] = await this.offers().find({
+          where: { status: 'open', offeredAt: LessThanOrEqual(cutoff) },
+          order: { offeredAt: 'ASC' },
+          take: BATCH,
+        });
+        let done = 0;
+        for (const offer of due) if (await this.lapse(offer, cutoff)) done += 1;
+        lapsed += done;
+        if (due.length < BATCH || done === 0) break;
+      }
+      return lapsed;
+    });
+    return result === undefined ? { ran: false, lapsed: 0 } : { ran: true, lapsed: result };
+  }
+
+  /**
+   * Lapses every open offer the account made or was made, at once (its account was suspended or
+   * closed); waits for a pass another server is running. Returns the codes of the lots whose
+   * offers lapsed.
+   */
+  async lapseOffersOf(accountId: string): Promise<string[]> {
+    const codes = await this.underLock(true, async () => {
+      const open = await this.offers().find({
+        where: [
+          { status: 'open', offerer: accountId },
+          { status: 'open', recipient: accountId },
+        ],
+        order: { code: 'ASC' },
+      });
+      const lapsed: string[] = [];
+      for (const offer of open) if (await this.lapse(offer)) lapsed.push(offer.code);
+      return lapsed;
+    });
+    if (codes?.length) this.logger.log(`lapsed ${codes.length} open offer(s) of account ${accountId}`);
+    return codes ?? [];
+  }
+
+  private offers() {
+    return this.dataSource.getRepository(TransferOfferEntity);
+  }
+
+  /** Runs `work` holding the lapse lock on a connection of its own; undefined when not waiting and taken. */
+  private async underLock<T>(wait: boolean, work: () => Promise<T>): Promise<T | undefined> {
+    const runner: QueryRunner = this.dataSource.createQueryRunner();
     await runner.connect();
+    const key = LAPSE_LOCK_KEY.toString();
     try {
-      const [{ locked }] = (await runner.query('SELECT pg_try_advisory_lock($1::bigint) AS "locked"', [
-        LAPSE_LOCK_KEY.toString(),
-      ])) as Array<{ locked: boolean }>;
-      if (!locked) return { ran: false, lapsed: 0 };
+      if (wait) await runner.query('SELECT pg_advisory_lock($1::bigint)', [key]);
+      else {
+        const [{ locked }] = (await runner.query('SELECT pg_try_advisory_lock($1::bigint) AS "locked"', [
+          key,
+        ])) as Array<{ locked: boolean }>;
+        if (!locked) return undefined;
+      }
       try {
-        let lapsed = 0;
-        const cutoff = new Date(this.clock.now().getTime() - this.config.transfers.lapseDays * 86_400_000);
-        for (;;) {
-          const due: TransferOfferEntity[] = await this.dataSource.getRepository(TransferOfferEntity).find({
-            where: { status: 'open', offeredAt: LessThanOrEqual(cutoff) },
-            order: { offeredAt: 'ASC' },
-            take: BATCH,
-          });
-          let done = 0;
-          for (const offer of due) if (await this.lapse(offer, cutoff)) done += 1;
-          lapsed += done;
-          if (due.length < BATCH || done === 0) break;
-        }
-        return { ran: true, lapsed };
+        return await work();
       } finally {
-        await runner.query('SELECT pg_advisory_unlock($1::bigint)', [LAPSE_LOCK_KEY.toString()]);
+        await runner.query('SELECT pg_advisory_unlock($1::bigint)', [key]);
       }
     } finally {
       await runner.release();
     }
   }
 
-  private async lapse(offer: TransferOfferEntity, cutoff: Date): Promise<boolean> {
+  /** Lapses one offer; with a cutoff only when it was still open at that time. */
+  private async lapse(offer: TransferOfferEntity, cutoff?: Date): Promise<boolean> {
     try {
       await this.ledger.withLots([offer.code], async (tx) => {
         await this.transfers.requireOpen(tx, offer);
-        if (new Date(tx.state(offer.code).openOffer!.time) > cutoff)
+        if (cutoff && new Date(tx.state(offer.code).openOffer!.time) > cutoff)
           throw new AppError('offer_closed', 'not due yet');
         await tx.append(offer.code, {
           kind: 'transfer-lapsed',
@@ -115,9 +155,7 @@ export class OfferLapseService implements OnModuleInit, OnModuleDestroy {
       this.logger.error(`could not lapse offer ${offer.id}: ${(err as Error).message}`);
       return false;
     }
-    const done = await this.dataSource
-      .getRepository(TransferOfferEntity)
-      .findOne({ where: { id: offer.id } });
+    const done = await this.offers().findOne({ where: { id: offer.id } });
     if (done) await this.transfers.mailOfferEnded(done, 'lapsed');
     return true;
   }

@@ -16,6 +16,7 @@ import { MailService } from '../mail/mail.service';
 import type { ListSalesQueryDto, RecordSaleDto, VoidSaleDto } from './dto/transfer-requests.dto';
 import type { SaleListResponse, SaleResponse } from './dto/transfer-responses.dto';
 import { transferLetters } from './transfer-letters';
+import { LotViewsService } from '../lots/lot-views.service';
 
 const FIELD_NAMES = {
   'body.date': 'date',
@@ -33,14 +34,16 @@ interface SaleRow {
   recorded_at: Date;
   receipt_sent_at: Date | null;
   listed: boolean;
-  price: string | null;
-  buyer_note: string | null;
+  price: Money | undefined;
+  buyer_note: string | undefined;
 }
 
 /** Sales to private buyers: the `sold` entry with its sealed price, and the seller's list. */
 @Injectable()
 export class SalesService {
   constructor(
+    private readonly reader: RollReaderService,
+    private readonly views: LotViewsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
@@ -149,18 +152,28 @@ export class SalesService {
   }
 
   /** Sales of the seller `params[0]`, with their sealed price and note; `tail` follows the WHERE clause. */
-  private rows(tail: string, params: unknown[]): Promise<SaleRow[]> {
-    const sealed = (name: string) =>
-      `(SELECT f."value" FROM "sealed_fields" f JOIN "entries" e ON e."id" = f."entry_id"
-         WHERE e."lot_id" = s."lot_id" AND e."seq" = s."seq" AND f."name" = '${name}' AND $1 = ANY(f."visible_to"))`;
-    return this.dataSource.query(
+  private async rows(tail: string, params: unknown[]): Promise<SaleRow[]> {
+    const sales: Array<Omit<SaleRow, 'listed' | 'price' | 'buyer_note'>> = await this.dataSource.query(
       `SELECT s."id", s."lot_id", s."code", s."title", s."seq", to_char(s."sold_on", 'YYYY-MM-DD') AS "sold_on",
-         s."recorded_at", s."receipt_sent_at", v."listed",
-         ${sealed('sale-price')} AS "price", ${sealed('buyer-note')} AS "buyer_note"
-       FROM "sales" s JOIN "lot_views" v ON v."lot_id" = s."lot_id"
-       WHERE s."seller" = $1${tail}`,
+         s."recorded_at", s."receipt_sent_at"
+       FROM "sales" s WHERE s."seller" = $1${tail}`,
       params,
     );
+    const seller = params[0] as string;
+    const views = await this.views.findMany({ lotIds: sales.map((r) => r.lot_id) });
+    const sealed = await this.reader.sealedAt(
+      sales.map((r) => ({ lotId: r.lot_id, seq: r.seq })),
+      seller,
+      ['sale-price', 'buyer-note'],
+    );
+    const value = (r: { lot_id: string; seq: number }, name: string) =>
+      sealed.find((f) => f.lotId === r.lot_id && f.seq === r.seq && f.name === name)?.value;
+    return sales.map((r) => ({
+      ...r,
+      listed: views.find((v) => v.lotId === r.lot_id)?.listed ?? false,
+      price: value(r, 'sale-price') as Money | undefined,
+      buyer_note: value(r, 'buyer-note') as string | undefined,
+    }));
   }
 }
 
@@ -170,8 +183,8 @@ function toSale(r: SaleRow): SaleResponse {
     lot: { code: r.code, displayCode: formatLotCode(r.code), title: r.title },
     seq: r.seq,
     date: r.sold_on,
-    ...(r.price ? { price: JSON.parse(r.price) as Money } : {}),
-    ...(r.buyer_note ? { buyerNote: JSON.parse(r.buyer_note) as string } : {}),
+    ...(r.price ? { price: r.price } : {}),
+    ...(r.buyer_note ? { buyerNote: r.buyer_note } : {}),
     recordedAt: new Date(r.recorded_at).toISOString(),
     receiptSent: r.receipt_sent_at !== null,
     listed: r.listed,

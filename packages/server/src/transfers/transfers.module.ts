@@ -11,6 +11,7 @@ import { SalesService } from './sales.service';
 import { TransferProjector } from './transfer.projector';
 import { TransfersController } from './transfers.controller';
 import { TransfersService } from './transfers.service';
+import { DealsReader } from './deals.reader';
 
 /** Transfers between dealers (offers, answers, lapses, invitations) and sales to private buyers. */
 @Module({
@@ -21,7 +22,7 @@ import { TransfersService } from './transfers.service';
     TypeOrmModule.forFeature([Account, TransferOfferEntity, TransferInvitationEntity]),
   ],
   controllers: [TransfersController],
-  providers: [TransfersService, SalesService, OfferLapseService, TransferProjector],
-  exports: [TransfersService, OfferLapseService],
+  providers: [TransfersService, SalesService, OfferLapseService, TransferProjector, DealsReader],
+  exports: [TransfersService, OfferLapseService, DealsReader],
 })
 export class TransfersModule {}

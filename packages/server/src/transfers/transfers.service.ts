@@ -26,6 +26,7 @@ import type {
 import { TransferInvitationEntity } from './entities/transfer-invitation.entity';
 import { TransferOfferEntity, type OfferStatus } from './entities/transfer-offer.entity';
 import { transferLetters, type LetterLot } from './transfer-letters';
+import { LotViewsService } from '../lots/lot-views.service';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -63,6 +64,7 @@ export class TransfersService implements OnModuleInit {
   private readonly logger = new Logger('transfers');
 
   constructor(
+    private readonly views: LotViewsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
@@ -310,7 +312,8 @@ export class TransfersService implements OnModuleInit {
     const who = { offerer: this.name(offerer), recipient: this.name(recipient) };
     const url = `${this.config.publicBaseUrl}/lots/${row.code}`;
     for (const a of [offerer, recipient]) {
-      if (!a) continue;
+      // A closed account's address is gone; it gets no letter.
+      if (!a || a.status === 'closed') continue;
       await this.mail.send(
         a.email,
         transferLetters.offerEnded(
@@ -420,10 +423,7 @@ export class TransfersService implements OnModuleInit {
       await this.invitations.save(inv);
       const inviter = await this.accounts.findOne({ where: { id: inv.inviter } });
       if (inviter) {
-        const [{ title }] = (await this.dataSource.query(
-          'SELECT "title" FROM "lot_views" WHERE "lot_id" = $1',
-          [inv.lotId],
-        )) as Array<{ title: string }>;
+        const title = (await this.views.find({ lotId: inv.lotId }))?.title ?? '';
         await this.mail.send(
           inviter.email,
           transferLetters.invitationStalled(
@@ -445,17 +445,14 @@ export class TransfersService implements OnModuleInit {
   }
 
   private async toInvitation(inv: TransferInvitationEntity): Promise<InvitationResponse> {
-    const rows: Array<{ title: string }> = await this.dataSource.query(
-      'SELECT "title" FROM "lot_views" WHERE "lot_id" = $1',
-      [inv.lotId],
-    );
+    const view = await this.views.find({ lotId: inv.lotId });
     const offer =
       inv.offerSeq !== null
         ? await this.offers.findOne({ where: { lotId: inv.lotId, offerSeq: inv.offerSeq } })
         : null;
     return {
       id: inv.id,
-      lot: { code: inv.code, displayCode: formatLotCode(inv.code), title: rows[0]?.title ?? '' },
+      lot: { code: inv.code, displayCode: formatLotCode(inv.code), title: view?.title ?? '' },
       email: inv.email,
       status: inv.status,
       ...(inv.statusReason ? { statusReason: inv.statusReason } : {}),
@@ -512,15 +509,10 @@ export class TransfersService implements OnModuleInit {
   private async prices(rows: TransferOfferEntity[], viewer: string): Promise<Map<string, Money>> {
     const out = new Map<string, Money>();
     if (!rows.length) return out;
-    const found: Array<{ lot_id: string; seq: number; value: string }> = await this.dataSource.query(
-      `SELECT e."lot_id", e."seq", s."value" FROM "sealed_fields" s JOIN "entries" e ON e."id" = s."entry_id"
-       WHERE s."name" = 'transfer-price' AND $1 = ANY(s."visible_to")
-         AND (e."lot_id", e."seq") IN (SELECT * FROM unnest($2::uuid[], $3::int[]))`,
-      [viewer, rows.map((r) => r.lotId), rows.map((r) => r.offerSeq)],
-    );
-    for (const f of found) {
-      const row = rows.find((r) => r.lotId === f.lot_id && r.offerSeq === f.seq);
-      if (row) out.set(row.id, JSON.parse(f.value) as Money);
+    const at = rows.map((r) => ({ lotId: r.lotId, seq: r.offerSeq }));
+    for (const f of await this.reader.sealedAt(at, viewer, ['transfer-price'])) {
+      const row = rows.find((r) => r.lotId === f.lotId && r.offerSeq === f.seq);
+      if (row) out.set(row.id, f.value as Money);
     }
     return out;
   }

@@ -43,6 +43,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   // lots and their rolls
   'POST /api/lots': { roles: ['dealer'], writer: true },
   'GET /api/lots': 'signed-in',
+  'GET /api/lots/export': 'signed-in',
   'GET /api/lots/:code': 'signed-in',
   'POST /api/lots/:code/descriptions': { roles: ['dealer'], writer: true },
   'POST /api/lots/:code/observations': { roles: ['dealer'], writer: true },

@@ -462,6 +462,23 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/lots/export": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The lot list as CSV or XLSX, with the list’s filters, search and sort */
+        get: operations["LotsController_export"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/lots/{code}": {
         parameters: {
             query?: never;
@@ -2518,6 +2535,7 @@ export interface components {
             sheet?: components["schemas"]["SheetDto"];
         };
         ListLotsDto: {
+            /** @description lot codes the dealer holds */
             lots: string[];
         };
         TagListResponse: {
@@ -3193,6 +3211,38 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["LotDetailResponse"];
                 };
+            };
+        };
+    };
+    LotsController_export: {
+        parameters: {
+            query?: {
+                sort?: "registered" | "updated" | "title" | "code" | "form" | "count" | "origin" | "period" | "technique" | "status" | "listed";
+                order?: "asc" | "desc";
+                status?: "held" | "offered" | "sold" | "split" | "combined" | "retired";
+                form?: "loose" | "strand" | "necklace" | "piece" | "mixed";
+                /** @description origin of the attribution on record */
+                origin?: "venice-murano" | "bohemia-czech" | "india" | "china" | "japan" | "other-european" | "unknown" | "other";
+                listed?: boolean;
+                /** @description only lots the signed-in account holds */
+                mine?: boolean;
+                /** @description technique of the attribution on record */
+                technique?: "wound-lampwork" | "drawn" | "pressed-moulded" | "furnace-wound" | "other";
+                /** @description words or the start of a code (with or without hyphens) to find in the code, title, description, attribution on record and your own storage place */
+                q?: string;
+                format?: "csv" | "xlsx";
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
         };
     };

@@ -150,7 +150,11 @@ export async function deliver(path: string, opts: RequestOptions = {}): Promise<
 
 /** A call through {@link deliver} whose answer is read as JSON (or text, or nothing for a 204). */
 export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
-  const res = await deliver(path, opts);
+  return readAnswer<T>(await deliver(path, opts));
+}
+
+/** An answered response's body: JSON, or text, or nothing for a 204. */
+async function readAnswer<T>(res: Response): Promise<T> {
   if (res.status === 204) return undefined as T;
   const type = res.headers.get('content-type') ?? '';
   return (type.includes('application/json') ? await res.json() : await res.text()) as T;
@@ -198,6 +202,11 @@ export async function sendPendingWrites(): Promise<void> {
       if (!isRetryable(err)) forgetPending(w.key);
     }
   }
+}
+
+/** One attempt with the caller's idempotency key, renewing a lapsed session once (for queued writes). */
+export async function sendOnce<T>(path: string, opts: RequestOptions): Promise<T> {
+  return readAnswer<T>(await once(path, opts));
 }
 
 /** One attempt, renewing a lapsed session once. */

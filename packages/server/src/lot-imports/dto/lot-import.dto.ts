@@ -1,5 +1,6 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
+import { EXPORT_FORMATS, type ExportFormat } from '../../export/sheet-export';
 
 /** The multipart fields beside the file: how the sheet's columns map to a lot's fields. */
 export class ImportFormDto {
@@ -14,9 +15,9 @@ export class ImportFormDto {
 }
 
 export class TemplateQueryDto {
-  @ApiProperty({ enum: ['csv', 'xlsx'] })
-  @IsIn(['csv', 'xlsx'])
-  format: 'csv' | 'xlsx';
+  @ApiProperty({ enum: EXPORT_FORMATS })
+  @IsIn(EXPORT_FORMATS)
+  format: ExportFormat;
 }
 
 export class ImportFieldResponse {

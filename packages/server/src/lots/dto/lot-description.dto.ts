@@ -25,7 +25,7 @@ import {
   registerDecorator,
   type ValidationArguments,
 } from 'class-validator';
-import { NestedObject } from '../../common/validation';
+import { NestedObject, OptionalText } from '../../common/validation';
 import { Plausible } from '../../common/plausible';
 
 /** A count of beads, exact or estimated. */
@@ -123,18 +123,10 @@ export class LotDescriptionDto {
   @IsIn(DECORATIONS, { each: true })
   decoration: Decoration[];
 
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   decorationNote?: string;
 
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   condition?: string;
 
   @ApiProperty({ description: 'true: the lot has a public page' })

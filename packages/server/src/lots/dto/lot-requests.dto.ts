@@ -1,4 +1,4 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, IntersectionType, OmitType } from '@nestjs/swagger';
 import {
   LIMITS,
   LOT_FORMS,
@@ -25,6 +25,7 @@ import { LotDescriptionDto } from './lot-description.dto';
 import { ObservationsDto } from './observations.dto';
 import { SealedDetailsDto } from './sealed-details.dto';
 import { NestedObject } from '../../common/validation';
+import { ExportFormatQueryDto } from '../../export/export-query.dto';
 
 /** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
 export class CreateLotDto {
@@ -176,3 +177,9 @@ export class ListLotsQueryDto {
   @MaxLength(200)
   q?: string;
 }
+
+/** The inventory as a file: the list's filters, search and sort, every page. */
+export class ExportLotsQueryDto extends IntersectionType(
+  OmitType(ListLotsQueryDto, ['page', 'pageSize'] as const),
+  ExportFormatQueryDto,
+) {}

@@ -1,6 +1,7 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
 import { LIMITS, type Observations } from '@beadroll/core';
-import { IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { IsIn, IsOptional } from 'class-validator';
+import { OptionalText } from '../../common/validation';
 
 const HOLE = ['clean', 'powder', 'green-traces', 'not-seen'] as const;
 const HOLE_SHAPE = ['irregular', 'regular'] as const;
@@ -53,10 +54,6 @@ export class ObservationsDto implements Observations {
   @IsIn(UV_A)
   uvA?: Observations['uvA'];
 
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   note?: string;
 }

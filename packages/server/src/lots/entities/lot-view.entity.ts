@@ -43,6 +43,10 @@ export class LotViewEntity {
   @Column({ type: 'varchar', length: 32, nullable: true })
   origin: string | null;
 
+  /** Whose opinion the attribution on record is: 'holder', 'earlier-holder' or 'ancestor'. */
+  @Column({ name: 'origin_source', type: 'varchar', length: 16, nullable: true })
+  originSource: string | null;
+
   /** Technique of the attribution on record, if any. */
   @Column({ type: 'varchar', length: 32, nullable: true })
   technique: string | null;

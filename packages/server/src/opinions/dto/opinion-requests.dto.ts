@@ -26,7 +26,7 @@ import {
   Min,
   MinLength,
 } from 'class-validator';
-import { NestedObject } from '../../common/validation';
+import { NestedObject, OptionalText } from '../../common/validation';
 import { nowIso, Plausible } from '../../common/plausible';
 
 /** Earliest year a period may name (core's bounds); the latest is this year. */
@@ -92,11 +92,7 @@ export class RecordOpinionDto {
   @IsIn(TECHNIQUES)
   technique: Technique;
 
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   decoration?: string;
 
   @ApiProperty({
@@ -135,11 +131,7 @@ export class RecordOpinionDto {
 
 /** Withdraws one's own opinion (an `opinion-withdrawn` entry). */
 export class WithdrawOpinionDto {
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   note?: string;
 }
 

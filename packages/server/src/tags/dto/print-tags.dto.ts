@@ -1,4 +1,4 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, PickType } from '@nestjs/swagger';
 import {
   ArrayMaxSize,
   ArrayMinSize,
@@ -117,12 +117,4 @@ export class PrintTagsDto {
 }
 
 /** Unlisted lots the holder confirms should get a public page. */
-export class ListLotsDto {
-  @ApiProperty({ type: [String] })
-  @IsArray()
-  @ArrayMinSize(1)
-  @ArrayMaxSize(MAX_TAGS_PER_PDF)
-  @IsString({ each: true })
-  @MaxLength(20, { each: true })
-  lots: string[];
-}
+export class ListLotsDto extends PickType(PrintTagsDto, ['lots'] as const) {}

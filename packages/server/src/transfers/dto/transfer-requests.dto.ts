@@ -15,7 +15,7 @@ import {
 import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
-import { NestedObject } from '../../common/validation';
+import { NestedObject, OptionalText } from '../../common/validation';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -58,11 +58,7 @@ export class CreateOfferDto {
 
 /** Accepts, declines or withdraws an offer, optionally with a note (public on the roll). */
 export class AnswerOfferDto {
-  @ApiPropertyOptional({ maxLength: LIMITS.longText })
-  @IsOptional()
-  @IsString()
-  @MinLength(1)
-  @MaxLength(LIMITS.longText)
+  @OptionalText(LIMITS.longText)
   note?: string;
 }
 

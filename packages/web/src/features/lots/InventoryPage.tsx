@@ -40,12 +40,11 @@ import {
 import { useEffect, useState } from 'react';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { toCsv } from './csv';
 import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
 import {
   LIST_SORTS,
-  lotsApi,
+  lotsExportUrl,
   lotsQueries,
   type ListSort,
   type LotListParams,
@@ -185,33 +184,6 @@ function Cell({ row, column }: { row: LotSummary; column: string }) {
   }
 }
 
-function download(name: string, text: string) {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.click();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
-}
-
-/** The CSV of lots: the table's columns in words. */
-export function lotsCsv(rows: readonly LotSummary[]): string {
-  return toCsv(
-    ['code', 'title', 'form', 'count', 'estimated', 'origin', 'status', 'listed', 'last entry (UTC)'],
-    rows.map((r) => [
-      r.displayCode,
-      r.title,
-      r.form ?? '',
-      r.count.value,
-      r.count.estimated ? 'yes' : 'no',
-      r.origin ?? '',
-      r.status,
-      r.listed ? 'yes' : 'no',
-      r.updatedAt,
-    ]),
-  );
-}
-
 /** The dealer's inventory: the server pages, sorts and filters; the URL keeps the view. */
 export function InventoryPage() {
   const styles = useStyles();
@@ -220,7 +192,6 @@ export function InventoryPage() {
   const [search, setSearch] = useSearchParams();
   const params = paramsFromSearch(search);
   const [text, setText] = useState(params.q ?? '');
-  const [exporting, setExporting] = useState(false);
   const query = useQuery({ ...lotsQueries.list(params), enabled: account !== null });
 
   const update = (changes: Record<string, string | undefined>, resetPage = true) => {
@@ -282,18 +253,7 @@ export function InventoryPage() {
   const rows = table.getRowModel().rows;
   const stale = query.isPlaceholderData;
 
-  const exportCsv = async () => {
-    setExporting(true);
-    try {
-      const { page: _p, pageSize: _s, ...rest } = params;
-      download(
-        `beadroll-lots-${new Date().toISOString().slice(0, 10)}.csv`,
-        lotsCsv(await lotsApi.listAll(rest)),
-      );
-    } finally {
-      setExporting(false);
-    }
-  };
+  const { page: _p, pageSize: _s, ...filters } = params;
 
   return (
     <section className={styles.page} aria-labelledby="inventory-title">
@@ -302,8 +262,11 @@ export function InventoryPage() {
           Inventory
         </Title2>
         <div className={styles.pager}>
-          <Button onClick={exportCsv} disabled={exporting || total === 0}>
-            {exporting ? 'Preparing…' : 'Export CSV'}
+          <Button as="a" href={lotsExportUrl(filters, 'csv')} download disabled={total === 0}>
+            Export CSV
+          </Button>
+          <Button as="a" href={lotsExportUrl(filters, 'xlsx')} download disabled={total === 0}>
+            Export XLSX
           </Button>
           {account.role === 'dealer' && account.status === 'verified' ? (
             <Button appearance="primary" onClick={() => navigate('/lots/new')}>

@@ -58,6 +58,25 @@ export function listQuery(params: Partial<LotListParams>): ListQuery {
   ) as ListQuery;
 }
 
+/** Where the browser downloads the lot list from, with its filters (the session cookie goes with it). */
+export function lotsExportUrl(
+  params: Omit<LotListParams, 'page' | 'pageSize'>,
+  format: 'csv' | 'xlsx',
+): string {
+  const q = listQueryString(params);
+  return `/api/lots/export?${q ? `${q}&` : ''}format=${format}`;
+}
+
+/** The query string of a list request; unset filters are left out. */
+export function listQueryString(params: Partial<LotListParams>): string {
+  const out = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) {
+    if (v === undefined || v === '') continue;
+    out.set(k, String(v));
+  }
+  return out.toString();
+}
+
 /** The description a register or describe request sends. */
 export type DescriptionInput = LotDescription;
 
@@ -115,17 +134,6 @@ export const lotsApi = {
     answer(client.POST('/api/transfers/sales/{code}/void', { ...lot(code), body: reason ? { reason } : {} })),
   setListing: (code: string, listed: boolean) =>
     answerWithCore<LotDetail>(client.PUT('/api/lots/{code}/listing', { ...lot(code), body: { listed } })),
-  /** Every page of the current filter, for the CSV export (the server pages at most 100). */
-  async listAll(params: Omit<LotListParams, 'page' | 'pageSize'>): Promise<LotSummary[]> {
-    const out: LotSummary[] = [];
-    for (let page = 1; ; page++) {
-      const r = await answer(
-        client.GET('/api/lots', { params: { query: listQuery({ ...params, page, pageSize: 100 }) } }),
-      );
-      out.push(...r.items);
-      if (out.length >= r.total || r.items.length === 0) return out;
-    }
-  },
 };
 
 /** A public card of a verified dealer or assessor. */

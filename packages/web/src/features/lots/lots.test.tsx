@@ -13,7 +13,6 @@ import userEvent from '@testing-library/user-event';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { Providers, routes } from '../../app/App';
-import { csvCell, toCsv } from './csv';
 import { LOT_ACTIONS } from './lot-actions';
 import {
   clearDraft,
@@ -295,20 +294,6 @@ describe('register form validation', () => {
     expect(loadDraft(stores)).toEqual({ ...EMPTY_DRAFT, title: 'old draft' });
     saveDraft(loadDraft(stores), stores);
     expect(localStorage.getItem('beadroll.register-draft.v1')).not.toMatch(/auction|costAmount/);
-  });
-});
-
-describe('CSV export', () => {
-  it('escapes cells a spreadsheet would run as formulas (= + - @) and quotes per RFC 4180', () => {
-    // OWASP, "CSV Injection": prefix cells starting with = + - @ (and tab, CR) with an apostrophe.
-    expect(csvCell('=HYPERLINK("x")')).toBe(`"'=HYPERLINK(""x"")"`);
-    expect(csvCell('+1')).toBe("'+1");
-    expect(csvCell('-2')).toBe("'-2");
-    expect(csvCell('@SUM(A1)')).toBe("'@SUM(A1)");
-    expect(csvCell('\tx')).toBe("'\tx");
-    expect(csvCell('roses, trailing')).toBe('"roses, trailing"');
-    expect(csvCell('plain')).toBe('plain');
-    expect(toCsv(['a', 'b'], [[1, null]])).toBe('a,b\r\n1,\r\n');
   });
 });
 

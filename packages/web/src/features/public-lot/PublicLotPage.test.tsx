@@ -400,3 +400,53 @@ describe('public lot page: an old (format version 1) roll whose removed body hel
     expect(status()).not.toHaveTextContent('History broken');
   });
 });
+
+describe('public lot page: the copy kept for no signal', () => {
+  const rolls = exampleRolls();
+  const lot = responseFor(rolls, 0);
+  // What the page's service worker gives with no signal: the kept answer, with the server's
+  // Date (RFC 9110 §6.6.1) and the worker's mark.
+  const saved = (body: unknown) =>
+    new Response(JSON.stringify(body), {
+      status: 200,
+      headers: {
+        'content-type': 'application/json',
+        date: 'Sat, 05 Dec 2026 13:32:00 GMT',
+        'beadroll-saved-copy': 'true',
+      },
+    });
+
+  it('checks the kept copy again and marks it offline with the time it was verified', async () => {
+    served.set(`/api/public/lots/${lot.code}`, () => saved(lot));
+    open(`/l/${lot.code}`);
+    await waitFor(() => expect(status()).toHaveTextContent('Unbroken history as served: 6 entries'));
+    const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' }).format(
+      new Date('2026-12-05T13:32:00Z'),
+    );
+    expect(status()).toHaveTextContent(`offline: as verified at ${when}`);
+    expect(
+      screen.getByText('The registry’s public log is checked when there is a signal.'),
+    ).toBeInTheDocument();
+    // Only the lot's data (and the photo) were asked for: no log check with no signal.
+    expect(fetchMock.mock.calls.map(([url]) => String(url))).not.toContain('/api/log/key');
+  });
+
+  it('says when the kept copy no longer verifies', async () => {
+    const changed = structuredClone(lot);
+    const entry = changed.bundle.rolls[0]!.entries[1] as unknown as { hash: string };
+    entry.hash = `${entry.hash.slice(0, -1)}${entry.hash.endsWith('0') ? '1' : '0'}`;
+    served.set(`/api/public/lots/${lot.code}`, () => saved(changed));
+    open(`/l/${lot.code}`);
+    await waitFor(() =>
+      expect(status()).toHaveTextContent(/offline: the copy kept at .* no longer verifies/),
+    );
+    expect(status()).not.toHaveTextContent('Unbroken history');
+  });
+
+  it('shows no offline mark on an answer from the server itself', async () => {
+    serve(lot);
+    open(`/l/${lot.code}`);
+    await waitFor(() => expect(status()).toHaveTextContent('Unbroken history as served: 6 entries'));
+    expect(status()).not.toHaveTextContent('offline');
+  });
+});

@@ -16,7 +16,9 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { formatLotCode } from '@beadroll/core';
 import { ApiError } from '../../lib/api';
+import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { MoneyField } from '../../shared/ui/MoneyField';
 import { heldLotsQuery, type Sale, priceProblem, today, toMinorUnits, transfersApi } from './transfers.api';
@@ -39,12 +41,15 @@ export function RecordSaleDialog({
   title,
   onClose,
   onDone,
+  onQueued,
 }: {
   /** The lot; when absent the dialog asks for one of the dealer's held lots. */
   code?: string;
   title?: string;
   onClose: () => void;
   onDone?: (sale: Sale) => void;
+  /** With no signal the sale is kept on this device and sent later; told here when so. */
+  onQueued?: (write: QueuedWrite) => void;
 }) {
   const styles = useStyles();
   const client = useQueryClient();
@@ -64,18 +69,31 @@ export function RecordSaleDialog({
           { field: 'price', reason: priceProblem(amount, currency) ?? 'Enter the price' },
         ]);
       localStorage.setItem(LAST_CURRENCY, currency);
-      return transfersApi.recordSale({
-        lot,
-        date,
-        price: { amount: minor, currency },
-        ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
-        ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
+      // At a fair stand with no signal the sale waits on this device (same key when sent).
+      return sendOrQueue<Sale>({
+        path: transfersApi.salesPath,
+        method: 'POST',
+        body: {
+          lot,
+          date,
+          price: { amount: minor, currency },
+          ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
+          ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
+        },
+        label: `sale of ${formatLotCode(lot)}`,
       });
     },
-    onSuccess: async (sale) => {
+    // Runs with no signal too: the write is then kept, not sent.
+    networkMode: 'always',
+    onSuccess: async (result) => {
+      if (!result.sent) {
+        onQueued?.(result.queued);
+        onClose();
+        return;
+      }
       await client.invalidateQueries({ queryKey: ['transfers'] });
       await client.invalidateQueries({ queryKey: ['lots'] });
-      onDone?.(sale);
+      onDone?.(result.answer);
       onClose();
     },
   });

@@ -1,28 +1,5 @@
-import type { Decoration, Origin, Period, RollState, Technique } from '@beadroll/core';
-
-/** The attribution a lot is listed, searched, sorted and exported by. */
-export interface RecordedAttribution {
-  origin: Origin;
-  period: Period;
-  technique: Technique;
-  decoration: string | null;
-}
-
-/**
- * The attribution on record of a lot, from its derived state. Everything that lists, searches,
- * sorts or exports by attribution reads it through this one function, so how it is derived can
- * change in one place. Today it is the holder's newest standing opinion.
- */
-export function attributionOnRecord(state: RollState): RecordedAttribution | null {
-  const body = state.attribution?.body;
-  if (!body) return null;
-  return {
-    origin: body.origin,
-    period: body.period,
-    technique: body.technique,
-    decoration: body.decoration ?? null,
-  };
-}
+import type { Decoration, Origin, Period, Technique } from '@beadroll/core';
+import type { AttributionRecord } from './attribution-record';
 
 /** Words a dealer types for each origin (the place names and the adjectives of the trade). */
 const ORIGIN_WORDS: Record<Origin, string> = {
@@ -68,7 +45,7 @@ function centuryWords(p: Period): string {
 }
 
 /** Searchable words for an attribution: origin names, period years and centuries, technique, decoration. */
-export function attributionWords(a: RecordedAttribution | null): string {
+export function attributionWords(a: AttributionRecord | null): string {
   if (!a) return '';
   return [ORIGIN_WORDS[a.origin], centuryWords(a.period), TECHNIQUE_WORDS[a.technique], a.decoration]
     .filter(Boolean)
