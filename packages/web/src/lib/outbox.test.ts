@@ -1,7 +1,14 @@
 import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { IDEMPOTENCY_HEADER } from './api';
-import { dismissQueuedWrite, flushOutbox, readOutbox, sendOrQueue } from './outbox';
+import {
+  SAFE_RESEND_MS,
+  TOO_OLD_TO_RESEND,
+  dismissQueuedWrite,
+  flushOutbox,
+  readOutbox,
+  sendOrQueue,
+} from './outbox';
 
 const json = (body: unknown, status = 200) =>
   new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
@@ -118,5 +125,42 @@ describe('writes kept with no signal', () => {
     await flushOutbox();
     expect(fetchMock).toHaveBeenCalledTimes(1);
     expect((await readOutbox()).filter((w) => !w.refused)).toHaveLength(2);
+  });
+
+  it('never resends a write first sent longer ago than the server keeps its key', async () => {
+    // Sent once, no answer (the server may have recorded it), then kept.
+    const start = Date.now();
+    serve(() => {
+      throw new TypeError('connection dropped');
+    });
+    const r = await sendOrQueue(sale('CCCCCCCCC'));
+    expect(r.sent).toBe(false);
+    const tries = fetchMock.mock.calls.length;
+    expect(tries).toBeGreaterThan(0);
+    const [kept] = await readOutbox();
+    expect(kept!.firstSent).toBeGreaterThanOrEqual(start);
+
+    // A day later the signal returns: it is not sent again, and says why.
+    vi.spyOn(Date, 'now').mockReturnValue(kept!.firstSent! + SAFE_RESEND_MS + 1);
+    serve(() => json({ ok: true }, 201));
+    await flushOutbox();
+    expect(fetchMock).not.toHaveBeenCalled();
+    expect((await readOutbox())[0]).toMatchObject({ key: kept!.key, refused: TOO_OLD_TO_RESEND });
+  });
+
+  it('a write made with no signal counts its age from its first sending, not from when it was made', async () => {
+    online = false;
+    serve(() => {
+      throw new TypeError('offline');
+    });
+    await sendOrQueue(sale('DDDDDDDDD'));
+    const [made] = await readOutbox();
+    expect(made!.firstSent).toBeUndefined();
+    online = true;
+    vi.spyOn(Date, 'now').mockReturnValue(made!.at + 2 * SAFE_RESEND_MS);
+    serve(() => json({ ok: true }, 201));
+    await flushOutbox();
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+    expect(await readOutbox()).toEqual([]);
   });
 });

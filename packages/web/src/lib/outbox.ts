@@ -18,9 +18,23 @@ export interface QueuedWrite {
   label: string;
   /** When it was made (ms since the epoch). */
   at: number;
-  /** Set when the server answered with a refusal: its reason. */
+  /**
+   * When it was first sent (ms since the epoch), whether or not an answer came: from then on
+   * the server may hold its key, which it keeps for 24 hours.
+   */
+  firstSent?: number;
+  /** Set when the server answered with a refusal, or when it is too old to resend: the reason. */
   refused?: string;
 }
+
+/**
+ * How long after its first sending a write may still be sent again. The server forgets an
+ * idempotency key after 24 hours; an hour less leaves room for a phone's clock being off.
+ */
+export const SAFE_RESEND_MS = 23 * 60 * 60 * 1000;
+
+export const TOO_OLD_TO_RESEND =
+  'Not sent again: it was first sent more than 23 hours ago and may already be recorded. Look at the lot’s history before making it again.';
 
 const LIST_KEY = 'writes';
 let store: UseStore | undefined;
@@ -95,6 +109,15 @@ export function flushOutbox(): Promise<void> {
     try {
       const waiting = (await readOutbox()).filter((w) => !w.refused).sort((a, b) => a.at - b.at);
       for (const w of waiting) {
+        const now = Date.now();
+        if (w.firstSent !== undefined && now - w.firstSent > SAFE_RESEND_MS) {
+          await write((list) =>
+            list.map((x) => (x.key === w.key ? { ...x, refused: TOO_OLD_TO_RESEND } : x)),
+          );
+          continue;
+        }
+        if (w.firstSent === undefined)
+          await write((list) => list.map((x) => (x.key === w.key ? { ...x, firstSent: now } : x)));
         try {
           await sendOnce(w.path, {
             method: w.method,
@@ -127,11 +150,13 @@ export async function sendOrQueue<T>(
   w: Pick<QueuedWrite, 'path' | 'method' | 'body' | 'label'>,
 ): Promise<SendResult<T>> {
   const key = newIdempotencyKey();
-  const queue = async (): Promise<SendResult<T>> => {
-    await queueWrite({ ...w, key });
-    return { sent: false, queued: { ...w, key, at: Date.now() } };
+  const queue = async (firstSent?: number): Promise<SendResult<T>> => {
+    const kept = { ...w, key, ...(firstSent === undefined ? {} : { firstSent }) };
+    await queueWrite(kept);
+    return { sent: false, queued: { ...kept, at: Date.now() } };
   };
   if (typeof navigator !== 'undefined' && navigator.onLine === false) return queue();
+  const firstSent = Date.now();
   try {
     return {
       sent: true,
@@ -140,7 +165,7 @@ export async function sendOrQueue<T>(
   } catch (err) {
     if (!isRetryable(err)) throw err;
     forgetPending(key); // kept here instead, where the dealer sees it waiting
-    return queue();
+    return queue(firstSent);
   }
 }
 

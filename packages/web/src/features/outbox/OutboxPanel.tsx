@@ -14,6 +14,7 @@ import {
   outboxSnapshot,
   readOutbox,
   startOutbox,
+  TOO_OLD_TO_RESEND,
   watchOutbox,
   type QueuedWrite,
 } from '../../lib/outbox';
@@ -58,8 +59,17 @@ export function OutboxPanel() {
       {refused.map((w) => (
         <MessageBar key={w.key} intent="error" layout="multiline">
           <MessageBarBody>
-            <MessageBarTitle>Not recorded: {w.label}</MessageBarTitle>
-            The server refused it: {w.refused}
+            {w.refused === TOO_OLD_TO_RESEND ? (
+              <>
+                <MessageBarTitle>Perhaps not recorded: {w.label}</MessageBarTitle>
+                {w.refused}
+              </>
+            ) : (
+              <>
+                <MessageBarTitle>Not recorded: {w.label}</MessageBarTitle>
+                The server refused it: {w.refused}
+              </>
+            )}
           </MessageBarBody>
           <MessageBarActions>
             <Button onClick={() => void dismissQueuedWrite(w.key)}>Dismiss</Button>
