@@ -6,7 +6,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { Providers, routes } from '../../app/App';
 import type { Me } from '../accounts/accounts.api';
 import { RecordSaleDialog } from './RecordSaleDialog';
-import { type Offer, toMinorUnits } from './transfers.api';
+import { type Offer, type Party, toMinorUnits } from './transfers.api';
 
 beforeEach(() =>
   vi.stubGlobal(
@@ -36,7 +36,7 @@ const dealer: Me = {
   createdAt: '2025-03-01T09:00:00Z',
 };
 
-const party = (id: string, displayName: string) => ({
+const party = (id: string, displayName: string): Party => ({
   id,
   handle: displayName.toLowerCase().replace(' ', '-'),
   displayName,
