@@ -1,9 +1,8 @@
 import { existsSync, readFileSync } from 'node:fs';
 import type { ServerResponse } from 'node:http';
 import { basename, join } from 'node:path';
-import { RequestMethod } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
-import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import { SwaggerModule } from '@nestjs/swagger';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import type { NextFunction, Request, Response } from 'express';
@@ -16,13 +15,7 @@ import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 import { CheckpointsService } from './log/checkpoints.service';
-
-/** Paths served outside the /api prefix (development pages, the offline verifier page). */
-const UNPREFIXED = [
-  { path: 'dev/{*rest}', method: RequestMethod.ALL },
-  { path: 'verify', method: RequestMethod.GET },
-  { path: 'verify/download', method: RequestMethod.GET },
-];
+import { createOpenApiDocument, UNPREFIXED } from './openapi/openapi-document';
 
 /**
  * Applies everything a running server needs on top of the module graph: the public lot data's
@@ -67,12 +60,7 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   app.setGlobalPrefix('api', { exclude: UNPREFIXED });
   app.useGlobalPipes(new InputSafetyPipe(limits.maxDepth), createValidationPipe());
 
-  const openApi = new DocumentBuilder()
-    .setTitle('Beadroll API')
-    .setDescription('Provenance rolls for antique and vintage glass beads')
-    .setVersion('1')
-    .build();
-  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, openApi), {
+  SwaggerModule.setup('api/docs', app, () => createOpenApiDocument(app), {
     jsonDocumentUrl: 'api/docs-json',
   });
 

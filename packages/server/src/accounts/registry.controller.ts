@@ -10,10 +10,10 @@ import {
   Res,
   StreamableFile,
 } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
-import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
+import { ApplicantResponse, ReasonDto, RegistryQueryDto, RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
 
 @ApiTags('registry')
@@ -26,6 +26,7 @@ export class RegistryController {
   @ApiOperation({
     summary: 'Dealer and assessor accounts by status (the pending ones are the verification queue)',
   })
+  @ApiOkResponse({ type: RegistryPage })
   list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
     return this.registry.list(q);
   }
@@ -51,6 +52,7 @@ export class RegistryController {
   @Post(':id/approve')
   @HttpCode(200)
   @ApiOperation({ summary: 'Verify an applicant' })
+  @ApiOkResponse({ type: ApplicantResponse })
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -61,6 +63,7 @@ export class RegistryController {
   @Post(':id/reject')
   @HttpCode(200)
   @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reject(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -72,6 +75,7 @@ export class RegistryController {
   @Post(':id/suspend')
   @HttpCode(200)
   @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   suspend(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -83,6 +87,7 @@ export class RegistryController {
   @Post(':id/reinstate')
   @HttpCode(200)
   @ApiOperation({ summary: 'Lift a suspension' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reinstate(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

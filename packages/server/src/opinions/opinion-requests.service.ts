@@ -1,5 +1,6 @@
 import { Inject, Injectable, type OnModuleInit } from '@nestjs/common';
 import { formatLotCode, type OpinionBody } from '@beadroll/core';
+import type { PartyName } from '../accounts/dto/dealer-card.dto';
 import { DataSource, type EntityManager } from 'typeorm';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
@@ -37,13 +38,6 @@ interface RequestRow {
   closed_at: Date | null;
   opinion_seq: number | null;
   request_seq: number | null;
-}
-
-interface Party {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
 }
 
 /**
@@ -305,7 +299,7 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
       return v ? [{ ...r, title: v.title, listed: v.listed }] : [];
     });
     const ids = [...new Set(rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter(Boolean))];
-    const parties = new Map<string, Party>();
+    const parties = new Map<string, PartyName>();
     if (ids.length) {
       const people: Array<{ id: string; handle: string; display_name: string; business: string }> =
         await this.dataSource.query(

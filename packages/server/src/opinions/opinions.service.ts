@@ -1,3 +1,4 @@
+import { partyCard, PartyCard } from '../accounts/dto/dealer-card.dto';
 import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import {
@@ -32,7 +33,6 @@ import { OpinionRequestsService } from './opinion-requests.service';
 import type { AttributionAidDto } from './dto/aid-request.dto';
 import type { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
 import type {
-  AuthorCard,
   LotOpinionsResponse,
   OpinionRole,
   OpinionView,
@@ -204,18 +204,8 @@ export class OpinionsService {
       ...opinions.map((o) => o.author),
       ...opinions.flatMap((o) => o.replies.map((x) => x.author)),
     ];
-    const cards: Record<string, AuthorCard> = {};
-    for (const [id, c] of await this.cards.cardsFor(ids)) {
-      cards[id] = {
-        id: c.id,
-        handle: c.handle,
-        displayName: c.displayName,
-        business: c.business,
-        town: c.town,
-        country: c.country,
-        status: c.status,
-      };
-    }
+    const cards: Record<string, PartyCard> = {};
+    for (const [id, c] of await this.cards.cardsFor(ids)) cards[id] = partyCard(c);
     return {
       lot: code,
       holder: state.holder,

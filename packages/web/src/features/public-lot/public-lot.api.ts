@@ -1,27 +1,14 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { Bundle } from '@beadroll/core';
+// Types only from the generated API: the public page carries no API client beyond lib/api.
+import type { Schemas, WithCore } from '../../api/types';
 import { ApiError, toApiError } from '../../lib/api';
 
 /** A dealer's card as the registry reports it (not part of the verified roll). */
-export interface DealerCard {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string | null;
-  town: string | null;
-  country: string | null;
-  verifiedSince: string | null;
-  status: 'verified' | 'suspended' | 'former';
-  /** What the account does; absent in data from older servers. */
-  role?: 'dealer' | 'assessor' | 'registrar';
-}
+export type DealerCard = Schemas['DealerCard'];
 
 /** The public data of a listed lot: its bundle (roll first, then ancestors) and the cards of its actors. */
-export interface PublicLotResponse {
-  code: string;
-  bundle: Bundle;
-  cards: Record<string, DealerCard>;
-}
+export type PublicLotResponse = WithCore<Schemas['PublicLotResponse'], { bundle: Bundle }>;
 
 /**
  * The copy of a lot's data this browser kept when it last opened the page, given by the page's

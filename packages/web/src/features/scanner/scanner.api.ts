@@ -1,24 +1,21 @@
 import { queryOptions } from '@tanstack/react-query';
-import { ApiError, api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
+import { ApiError } from '../../lib/api';
 
 /** A scanned lot as the server's tag maker answers: held by the signed-in dealer or not. */
-export interface ScannedLot {
-  code: string;
-  held: boolean;
+export type ScannedLot = Schemas['TagLotResponse'] & {
   /** No answer (no signal): whether the dealer holds it is not known. */
   offline?: boolean;
-  title?: string;
-  listed?: boolean;
-  status?: string;
-  seq?: number;
-  ref?: string;
-}
+};
+
+const tagLot = (code: string) => answer(client.GET('/api/tags/lots/{code}', { params: { path: { code } } }));
 
 export const scannerQueries = {
   lot: (code: string) =>
     queryOptions({
       queryKey: ['tags', 'lot', code],
-      queryFn: () => api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`),
+      queryFn: () => tagLot(code),
     }),
 };
 
@@ -30,7 +27,7 @@ export const scannerQueries = {
  */
 export async function lookupScannedLot(code: string): Promise<ScannedLot> {
   try {
-    return await api<ScannedLot>(`/api/tags/lots/${encodeURIComponent(code)}`);
+    return await tagLot(code);
   } catch (e) {
     if (e instanceof ApiError && e.status === 0) return { code, held: false, offline: true };
     if (e instanceof ApiError) return { code, held: false };

@@ -3,11 +3,11 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
 import { accounts, json, renderAt, renderWithProviders, stubServer } from '../../shared/testing/render';
 import { RecordSaleDialog } from './RecordSaleDialog';
-import { type Offer, toMinorUnits } from './transfers.api';
+import { type Offer, type Party, toMinorUnits } from './transfers.api';
 
 const dealer = accounts.dealer;
 
-const party = (id: string, displayName: string) => ({
+const party = (id: string, displayName: string): Party => ({
   id,
   handle: displayName.toLowerCase().replace(' ', '-'),
   displayName,
