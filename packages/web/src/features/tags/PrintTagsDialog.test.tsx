@@ -8,7 +8,7 @@ import { PrintTagsDialog } from './PrintTagsDialog';
 
 function layouts(barbellFits: boolean) {
   return {
-    host: barbellFits ? '127.0.0.1:3000' : 'TAGS.BEADSX.CO.UK',
+    host: barbellFits ? '127.0.0.1:3000' : 'TAGS.BEAD-REGISTER.EXAMPLE',
     version: barbellFits ? 2 : 3,
     designs: [
       { design: 'string', fits: true, moduleMm: 0.56 },
