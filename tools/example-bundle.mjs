@@ -173,7 +173,15 @@ export function buildExampleBundle(core) {
     derivatives: [],
     caption: 'Under a UV-A torch',
   };
-  b.add({ kind: 'exhibit-added', time: T(6), actor: ASSESSOR, body: { exhibit: exB } });
+  // The holder asks an assessor; the assessor's evidence and opinion name the request.
+  const asked = b.add({
+    kind: 'opinion-requested',
+    time: T(5, '12'),
+    actor: DEALER_B,
+    body: { assessor: ASSESSOR },
+  });
+  const request = asked.header.seq;
+  b.add({ kind: 'exhibit-added', time: T(6), actor: ASSESSOR, body: { exhibit: exB, request } });
   const dissent = b.add({
     kind: 'opinion',
     time: T(6, '11'),
@@ -186,6 +194,7 @@ export function buildExampleBundle(core) {
       confidence: 'high',
       rationale: 'Mould seams and an even surface point to later pressed work.',
       exhibits: [exB.original.sha256],
+      request,
     },
   });
   const note = b.add({

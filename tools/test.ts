@@ -139,6 +139,13 @@ async function main(): Promise<void> {
   const results: SuiteResult[] = [];
   const build = await step('build', 'npm', ['run', '--silent', 'build']);
   results.push(build);
+  results.push(
+    await step("web API types match the server's OpenAPI document", 'npx', [
+      'tsx',
+      'tools/gen-api.ts',
+      '--check',
+    ]),
+  );
   results.push(await step('lint (eslint)', 'npx', ['eslint', '.']));
   results.push(await step('format (prettier)', 'npx', ['prettier', '--check', '.']));
   results.push(await step('type check', 'npm', ['run', '--silent', 'typecheck']));

@@ -2,6 +2,7 @@ import { resolve } from 'node:path';
 import react from '@vitejs/plugin-react';
 import { compression } from 'vite-plugin-compression2';
 import { defineConfig } from 'vitest/config';
+import { PUBLIC_ASSETS_DIR, pwaPlugins } from './build/pwa';
 
 /**
  * The build runs twice (`npm run build`): the dealer app (index.html) with React, then, with
@@ -23,6 +24,8 @@ export default defineConfig({
       include: /\.(js|css|html|svg|json|txt|webmanifest)$/,
       threshold: 512,
     }),
+    // The web app manifest and the service worker of each page (see build/pwa.ts).
+    ...pwaPlugins(publicBuild ? 'public' : 'app'),
   ],
   resolve: publicBuild
     ? {
@@ -37,6 +40,8 @@ export default defineConfig({
     : undefined,
   build: {
     emptyOutDir: !publicBuild,
+    // The public page's files in a folder of their own: its service worker precaches exactly those.
+    ...(publicBuild ? { assetsDir: PUBLIC_ASSETS_DIR } : {}),
     rollupOptions: {
       input: publicBuild
         ? { public: resolve(__dirname, 'public.html') }

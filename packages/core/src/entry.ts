@@ -66,14 +66,25 @@ const HEADER_KEYS_V1 = [
   'sealed',
 ] as const;
 
-/** Every key a header may have, by format version (version 2 adds the required `facts`). */
+/** Every key a header may have, by format version (version 2 adds the required `facts`; version 3 keeps them). */
 export const HEADER_KEYS: Readonly<Record<FormatVersion, readonly string[]>> = {
   1: HEADER_KEYS_V1,
   2: [...HEADER_KEYS_V1, 'facts'],
+  3: [...HEADER_KEYS_V1, 'facts'],
 };
 
 /** Kinds that format version 2 added: a version-1 header naming one is `bad-header`. */
 export const VERSION_2_KINDS: readonly EntryKind[] = ['sale-voided'];
+
+/** Kinds that format version 3 added: a version-1 or version-2 header naming one is `bad-header`. */
+export const VERSION_3_KINDS: readonly EntryKind[] = ['opinion-requested', 'opinion-request-closed'];
+
+/** The first format version that has `kind` (1 for the kinds every version has). */
+export function kindSince(kind: EntryKind): FormatVersion {
+  if (VERSION_3_KINDS.includes(kind)) return 3;
+  if (VERSION_2_KINDS.includes(kind)) return 2;
+  return 1;
+}
 
 /** Kinds whose bodies can never be redacted, so a missing one always breaks the roll. */
 export const NEVER_REDACTED: readonly EntryKind[] = ['registered', 'split', 'combined', 'redacted'];
@@ -122,8 +133,8 @@ export function buildEntry<K extends EntryKind>(
   if (head && draft.lot !== undefined && draft.lot !== head.lot)
     issues.push({ path: 'lot', message: 'differs from the roll' });
   if (!ENTRY_KINDS.includes(draft.kind)) issues.push({ path: 'kind', message: 'is not a known kind' });
-  else if (version < 2 && VERSION_2_KINDS.includes(draft.kind))
-    issues.push({ path: 'kind', message: 'is not a kind of format version 1' });
+  else if (version < kindSince(draft.kind))
+    issues.push({ path: 'kind', message: `is not a kind of format version ${version}` });
   if (!isEntryTime(draft.time)) issues.push({ path: 'time', message: 'must be YYYY-MM-DDTHH:MM:SS.sssZ' });
   else if (head && draft.time < head.time)
     issues.push({ path: 'time', message: 'must not be earlier than the previous entry' });
@@ -133,7 +144,7 @@ export function buildEntry<K extends EntryKind>(
 
   const body = { ...(draft.body as object), nonce: bytesToHex(random(16)) } as AnyBody;
   let bIssues = bodyIssues(draft.kind, body, version);
-  // New entries meet the plausibility bounds too (format version 2 rules).
+  // New entries meet the plausibility bounds too (rules of format version 2 and later).
   if (bIssues.length === 0) bIssues = bodyBoundIssues(draft.kind, body, draft.time);
   const sIssues = draft.sealed && bIssues.length === 0 ? sealedBoundIssues(draft.sealed, draft.time) : [];
   if (bIssues.length > 0 || sIssues.length > 0)
@@ -246,7 +257,10 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
     return { reason: 'bad-header', message: 'the header is not an object' };
   const o = v as Record<string, unknown>;
   if (!(FORMAT_VERSIONS as readonly unknown[]).includes(o.v))
-    return { reason: 'unknown-version', message: `format version ${JSON.stringify(o.v)} is not 1 or 2` };
+    return {
+      reason: 'unknown-version',
+      message: `format version ${JSON.stringify(o.v)} is not ${FORMAT_VERSIONS.join(', ')}`,
+    };
   const keys = HEADER_KEYS[o.v as FormatVersion];
   for (const k of Object.keys(o)) {
     if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
@@ -256,8 +270,8 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   if (typeof o.kind !== 'string' || !(ENTRY_KINDS as readonly string[]).includes(o.kind)) {
     return { reason: 'bad-header', message: 'kind is not a known kind' };
   }
-  if (o.v === 1 && (VERSION_2_KINDS as readonly string[]).includes(o.kind))
-    return { reason: 'bad-header', message: `${o.kind} is not a kind of format version 1` };
+  if ((o.v as FormatVersion) < kindSince(o.kind as EntryKind))
+    return { reason: 'bad-header', message: `${o.kind} is not a kind of format version ${o.v as number}` };
   if (!Number.isSafeInteger(o.seq) || (o.seq as number) < 0)
     return { reason: 'bad-seq', message: 'seq is not a non-negative integer' };
   if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };
@@ -272,8 +286,9 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
     if (issues.length > 0) return { reason: 'bad-parent', message: issues[0]!.message };
   }
   if (o.v !== 1) {
-    if (!('facts' in o)) return { reason: 'bad-facts', message: 'a version 2 header needs facts' };
-    const issues = factsIssues(o.kind as EntryKind, o.facts);
+    if (!('facts' in o))
+      return { reason: 'bad-facts', message: `a version ${o.v as number} header needs facts` };
+    const issues = factsIssues(o.kind as EntryKind, o.facts, o.v as FormatVersion);
     if (issues.length > 0)
       return { reason: 'bad-facts', message: `${issues[0]!.path}: ${issues[0]!.message}` };
   }

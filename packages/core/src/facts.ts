@@ -8,6 +8,8 @@ import type {
   ExhibitAddedBody,
   NoteBody,
   OpinionBody,
+  OpinionRequestClosedBody,
+  OpinionRequestedBody,
   OpinionWithdrawnBody,
   RedactedBody,
   RegisteredBody,
@@ -18,7 +20,7 @@ import type {
 } from './types.js';
 
 /**
- * The rule facts of a body (format version 2): the members the roll rules read, copied under
+ * The rule facts of a body (format version 2 and later): the members the roll rules read, copied under
  * the same names. Pure. Precondition: `body` has the shape of `kind` (see `bodyIssues`); the
  * nonce and free text never appear in the result.
  */
@@ -36,10 +38,19 @@ export function factsOf(kind: EntryKind, body: AnyBody | Omit<AnyBody, 'nonce'>)
     }
     case 'exhibit-added': {
       const b = body as ExhibitAddedBody;
-      return 'exhibit' in b ? { original: b.exhibit.original.sha256 } : { sealedOnly: true };
+      const request = b.request === undefined ? {} : { request: b.request };
+      return 'exhibit' in b
+        ? { original: b.exhibit.original.sha256, ...request }
+        : { sealedOnly: true, ...request };
     }
-    case 'opinion':
-      return { exhibits: [...(body as OpinionBody).exhibits] };
+    case 'opinion': {
+      const b = body as OpinionBody;
+      return { exhibits: [...b.exhibits], ...(b.request === undefined ? {} : { request: b.request }) };
+    }
+    case 'opinion-requested':
+      return { assessor: (body as OpinionRequestedBody).assessor };
+    case 'opinion-request-closed':
+      return { request: (body as OpinionRequestClosedBody).request };
     case 'opinion-withdrawn':
       return { opinionSeq: (body as OpinionWithdrawnBody).opinionSeq };
     case 'transfer-offered':

@@ -62,6 +62,9 @@ export {
 export type { SealedField, SealedSet, SealedDisclosure } from './sealed.js';
 export {
   HEADER_KEYS,
+  VERSION_2_KINDS,
+  VERSION_3_KINDS,
+  kindSince,
   NEVER_REDACTED,
   REASON_CODES,
   buildEntry,
@@ -76,6 +79,7 @@ export {
   TRANSITION_RULES,
   VOID_WINDOW_MS,
   checkTransition,
+  requestFor,
   isReservedActor,
   opinionsDisagree,
   reduceEntry,
@@ -86,6 +90,7 @@ export type {
   RollHead,
   OpinionRecord,
   OpenOffer,
+  OpenRequest,
   ChildLink,
   RollState,
   TransitionDraft,

@@ -69,7 +69,7 @@ export function verifyInheritedRoll(r: InheritedRollInput): {
       const stored = decodeStoredBody(e.body, h.body);
       if ('reason' in stored) return fail(h.seq, stored.reason, stored.message);
       const body = stored.body;
-      const issues = bodyIssues(h.kind, body);
+      const issues = bodyIssues(h.kind, body, h.v);
       if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
       if (h.facts && canonicalise(factsOf(h.kind, body as AnyBody)) !== canonicalise(h.facts))
         return fail(h.seq, 'bad-facts', 'the header facts differ from the body');

@@ -1,5 +1,5 @@
 import type { ActorRule, LotStatus, RollState } from './rules.js';
-import { checkTransition, isReservedActor, TRANSITION_RULES } from './rules.js';
+import { checkTransition, isReservedActor, requestFor, TRANSITION_RULES } from './rules.js';
 import type { EntryKind, RuleFacts } from './types.js';
 
 /**
@@ -19,7 +19,8 @@ export interface PermissionContext {
 
 /**
  * The target a kind's entry would name when the roll already says which it is: the open offer,
- * the current sale, the account's own newest standing opinion. Kinds not listed here are decided
+ * the current sale, the account's own newest standing opinion, the open request that asks the
+ * account (an opinion or evidence on an unlisted lot). Kinds not listed here are decided
  * by their row of {@link TRANSITION_RULES} alone.
  */
 const IMPLIED_FACTS: Partial<Record<EntryKind, (s: RollState, account: string) => RuleFacts>> = {
@@ -28,6 +29,15 @@ const IMPLIED_FACTS: Partial<Record<EntryKind, (s: RollState, account: string) =
   'transfer-withdrawn': (s) => ({ offerSeq: s.openOffer!.seq }),
   'transfer-lapsed': (s) => ({ offerSeq: s.openOffer!.seq }),
   'sale-voided': (s) => ({ saleSeq: s.soldSeq ?? -1 }),
+  // Version 3: an asked assessor's opinion or evidence names the open request that asks them.
+  opinion: (s, account) => {
+    const request = requestFor(s, account);
+    return request === undefined ? { exhibits: [] } : { exhibits: [], request };
+  },
+  'exhibit-added': (s, account) => {
+    const request = requestFor(s, account);
+    return request === undefined ? {} : { request };
+  },
   'opinion-withdrawn': (s, account) => ({
     opinionSeq: [...s.opinions].reverse().find((o) => o.author === account)?.seq ?? -1,
   }),

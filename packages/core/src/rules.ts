@@ -44,6 +44,16 @@ export interface OpenOffer {
   time: string;
 }
 
+/**
+ * An opinion request still open (format version 3): the `opinion-requested` entry at `seq` asks
+ * `assessor`, or any account but the holder when `assessor` is null.
+ */
+export interface OpenRequest {
+  seq: number;
+  assessor: string | null;
+  time: string;
+}
+
 /** A lot made from this one by a `split` or `combined` entry at `seq`. */
 export interface ChildLink {
   lot: string;
@@ -85,6 +95,8 @@ export interface RollState {
   /** The highest format version on the roll so far; a later entry never has a lower one. */
   version?: FormatVersion;
   openOffer: OpenOffer | null;
+  /** Open opinion requests, oldest first (format version 3; absent in states stored before it). */
+  openRequests?: OpenRequest[];
   /** Standing opinions, oldest first. */
   opinions: OpinionRecord[];
   /** The holder's newest standing opinion with a body, or null ("no attribution by the holder yet"). */
@@ -174,12 +186,14 @@ export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
   'exhibit-added': {
     actor: 'holder-or-anyone-if-listed',
     statuses: ALL,
-    summary: 'the holder while held or offered; anyone else (evidence for an opinion) only on a listed lot',
+    summary:
+      'the holder; anyone else (evidence for an opinion) on a listed lot, or (version 3) on an unlisted lot by naming an open request that asks them',
   },
   opinion: {
     actor: 'holder-or-anyone-if-listed',
     statuses: ALL,
-    summary: 'the holder, or anyone on a listed lot',
+    summary:
+      'the holder, or anyone on a listed lot, or (version 3) anyone an open request asks, naming it; that opinion closes the request',
   },
   'opinion-withdrawn': {
     actor: 'opinion-author',
@@ -219,6 +233,17 @@ export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
       'the server admits only the registrar; target is an earlier entry that is not seq 0, a link, a redaction, already redacted, or the open offer',
   },
   note: { actor: 'holder-or-anyone-if-listed', statuses: ALL, summary: 'optional ref to an earlier entry' },
+  'opinion-requested': {
+    actor: 'holder',
+    statuses: ACTIVE,
+    summary:
+      'asks a named assessor (not the holder, not a reserved id), or with null any assessor; the server admits only verified assessors',
+  },
+  'opinion-request-closed': {
+    actor: 'holder',
+    statuses: ACTIVE,
+    summary: 'names an open opinion request and closes it',
+  },
 };
 
 function bad(code: 'bad-actor' | 'bad-transition', message: string): TransitionResult {
@@ -289,7 +314,9 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       if (!isHolder) return bad('bad-actor', `only the holder may write ${kind}`);
       break;
     case 'holder-or-anyone-if-listed':
-      if (!isHolder && !state.listed) {
+      // Version 3: on an unlisted lot, an opinion or its evidence may name the open request
+      // that asks its author; the further rules below check that request.
+      if (!isHolder && !state.listed && !(kind !== 'note' && requestOf(draft) !== undefined)) {
         if (state.listedKnown)
           return bad('bad-actor', `only the holder may write ${kind} on an unlisted lot`);
         unchecked.push('whether the lot was listed (its description was removed)');
@@ -352,12 +379,31 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       break;
     }
     case 'opinion': {
-      if (version < 2) break;
-      const known = new Set((state.exhibits ?? []).map((e) => e.sha256));
-      const missing = facts.exhibits!.find((x) => !known.has(x));
-      if (missing) return bad('bad-transition', `exhibit ${missing} is not on this roll`);
+      if (version >= 2) {
+        const known = new Set((state.exhibits ?? []).map((e) => e.sha256));
+        const missing = facts.exhibits!.find((x) => !known.has(x));
+        if (missing) return bad('bad-transition', `exhibit ${missing} is not on this roll`);
+      }
+      const r = checkRequest(state, actor, facts.request);
+      if (r) return r;
       break;
     }
+    case 'exhibit-added': {
+      const r = checkRequest(state, actor, facts.request);
+      if (r) return r;
+      break;
+    }
+    case 'opinion-requested': {
+      const a = facts.assessor!;
+      if (a === state.holder) return bad('bad-transition', 'the holder does not ask themselves');
+      if (a !== null && isReservedActor(a))
+        return bad('bad-transition', 'a reserved account gives no opinions');
+      break;
+    }
+    case 'opinion-request-closed':
+      if (!(state.openRequests ?? []).some((q) => q.seq === facts.request))
+        return bad('bad-transition', `seq ${facts.request} is not an open opinion request`);
+      break;
     case 'opinion-withdrawn': {
       const seq = facts.opinionSeq!;
       const op = state.opinions.find((o) => o.seq === seq);
@@ -417,6 +463,38 @@ export function checkTransition(state: RollState | null, draft: TransitionDraft)
       break;
   }
   return done(unchecked);
+}
+
+/**
+ * The open request an opinion or evidence by `actor` would answer (format version 3): the oldest
+ * open request naming `actor`, else the oldest open to any assessor; undefined when none asks
+ * them, or `actor` is the holder. Pure. Whether `actor` really is an assessor (which a request
+ * open to any requires) is the caller's to check.
+ */
+export function requestFor(state: RollState, actor: string): number | undefined {
+  if (actor === state.holder) return undefined;
+  const open = state.openRequests ?? [];
+  return (open.find((q) => q.assessor === actor) ?? open.find((q) => q.assessor === null))?.seq;
+}
+
+/** The `request` rule fact of a draft, from its facts or its body; undefined when it has none. */
+function requestOf(draft: TransitionDraft): number | undefined {
+  if (draft.facts) return draft.facts.request;
+  const b = draft.body as { request?: unknown } | null;
+  return typeof b?.request === 'number' ? b.request : undefined;
+}
+
+/**
+ * Version 3: a `request` fact names an open request (else `bad-transition`) that asks `actor`:
+ * the named assessor, or any account but the holder when it names none (else `bad-actor`).
+ */
+function checkRequest(state: RollState, actor: string, request: number | undefined): TransitionResult | null {
+  if (request === undefined) return null;
+  const q = (state.openRequests ?? []).find((x) => x.seq === request);
+  if (!q) return bad('bad-transition', `seq ${request} is not an open opinion request`);
+  if (q.assessor === null ? actor === state.holder : actor !== q.assessor)
+    return bad('bad-actor', `the opinion request at seq ${request} asks another account`);
+  return null;
 }
 
 function done(unchecked: string[]): TransitionResult {
@@ -499,6 +577,7 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       exhibits: [],
       version: h.v,
       openOffer: null,
+      openRequests: [],
       opinions: [],
       attribution: null,
       dissents: [],
@@ -536,6 +615,16 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
         ...s.opinions,
         { seq: h.seq, author: h.actor, time: h.time, body: body as OpinionBody | null },
       ];
+      if (facts?.request !== undefined) s.openRequests = closeRequest(s, facts.request);
+      break;
+    case 'opinion-requested':
+      s.openRequests = [
+        ...(s.openRequests ?? []),
+        { seq: h.seq, assessor: facts ? facts.assessor! : null, time: h.time },
+      ];
+      break;
+    case 'opinion-request-closed':
+      if (facts) s.openRequests = closeRequest(s, facts.request!);
       break;
     case 'opinion-withdrawn':
       if (facts) s.opinions = s.opinions.filter((o) => o.seq !== facts.opinionSeq);
@@ -553,6 +642,8 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       s.status = 'held';
       s.holder = h.actor;
       s.openOffer = null;
+      // A new holder does not inherit the requests of the one before.
+      if (s.openRequests?.length) s.openRequests = [];
       break;
     case 'transfer-declined':
     case 'transfer-withdrawn':
@@ -608,7 +699,13 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
     default:
       break;
   }
+  // A lot that reaches a final status closes every open request.
+  if (s.openRequests?.length && FINAL_STATUSES.includes(s.status)) s.openRequests = [];
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
+}
+
+function closeRequest(s: RollState, seq: number): OpenRequest[] {
+  return (s.openRequests ?? []).filter((q) => q.seq !== seq);
 }
 
 /**

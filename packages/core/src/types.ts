@@ -1,8 +1,8 @@
 /** Format version written in every new entry header. */
-export const FORMAT_VERSION = 2;
+export const FORMAT_VERSION = 3;
 
 /** Every entry format version a verifier reads; each keeps its own rules. */
-export const FORMAT_VERSIONS = [1, 2] as const;
+export const FORMAT_VERSIONS = [1, 2, 3] as const;
 
 /** An entry format version. */
 export type FormatVersion = (typeof FORMAT_VERSIONS)[number];
@@ -27,6 +27,8 @@ export const ENTRY_KINDS = [
   'retired',
   'redacted',
   'note',
+  'opinion-requested',
+  'opinion-request-closed',
 ] as const;
 
 /** The kind of an entry. */
@@ -97,6 +99,15 @@ export interface RuleFacts {
   corrects?: number;
   /** sale-voided: seq of the sale it voids. */
   saleSeq?: number;
+  /**
+   * opinion-requested (version 3): the assessor asked, or null for any assessor.
+   */
+  assessor?: string | null;
+  /**
+   * opinion, exhibit-added (version 3): the open request the entry answers;
+   * opinion-request-closed: the request it closes.
+   */
+  request?: number;
 }
 
 /** A count of beads: exact, or an estimate marked as such. */
@@ -247,7 +258,10 @@ export interface ObservedBody extends BodyBase {
   observations: Observations;
   corrects?: Correction;
 }
-export type ExhibitAddedBody = (BodyBase & { exhibit: ExhibitRef }) | (BodyBase & { sealedOnly: true });
+/** `request` (format version 3): seq of the open opinion request this evidence answers. */
+export type ExhibitAddedBody =
+  | (BodyBase & { exhibit: ExhibitRef; request?: number })
+  | (BodyBase & { sealedOnly: true; request?: number });
 export interface OpinionBody extends BodyBase {
   origin: Origin;
   originNote?: string;
@@ -261,6 +275,8 @@ export interface OpinionBody extends BodyBase {
   exhibits: string[];
   /** The earlier opinion (on this lot or an ancestor) whose attribution this one adopts. */
   adopts?: ParentRef;
+  /** Format version 3: seq of the open opinion request this opinion answers (and closes). */
+  request?: number;
 }
 export interface OpinionWithdrawnBody extends BodyBase {
   opinionSeq: number;
@@ -314,6 +330,17 @@ export interface NoteBody extends BodyBase {
   ref?: number;
 }
 
+/** Format version 3: the holder asks an assessor (or, with null, any assessor) for an opinion. */
+export interface OpinionRequestedBody extends BodyBase {
+  /** Account id of the assessor asked, or null: open to any assessor. */
+  assessor: string | null;
+}
+/** Format version 3: the holder closes an open opinion request. */
+export interface OpinionRequestClosedBody extends BodyBase {
+  /** seq of the `opinion-requested` entry it closes. */
+  request: number;
+}
+
 /** Body type of each kind. */
 export interface BodyByKind {
   registered: RegisteredBody;
@@ -334,6 +361,8 @@ export interface BodyByKind {
   retired: RetiredBody;
   redacted: RedactedBody;
   note: NoteBody;
+  'opinion-requested': OpinionRequestedBody;
+  'opinion-request-closed': OpinionRequestClosedBody;
 }
 
 /** A body without its nonce: what callers hand to `buildEntry`. */

@@ -307,22 +307,26 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     c.str(ob, 'note', p, LIMITS.longText, true);
   },
   'exhibit-added': (c, b) => {
+    const request = c.version >= 3 ? ['request'] : [];
     if (b !== null && typeof b === 'object' && 'sealedOnly' in b) {
-      const o = c.obj(b, '', ['nonce', 'sealedOnly']);
+      const o = c.obj(b, '', ['nonce', 'sealedOnly'], request);
       if (o && o.sealedOnly !== true) c.fail('sealedOnly', 'must be true');
+      if (o) c.int(o, 'request', '', 0, SEQ_MAX, true);
       return;
     }
-    const o = c.obj(b, '', ['nonce', 'exhibit']);
+    const o = c.obj(b, '', ['nonce', 'exhibit'], request);
     if (o && 'exhibit' in o) checkExhibit(c, o.exhibit, 'exhibit');
+    if (o) c.int(o, 'request', '', 0, SEQ_MAX, true);
   },
   opinion: (c, b) => {
     const o = c.obj(
       b,
       '',
       ['nonce', 'origin', 'period', 'technique', 'qualifier', 'confidence', 'rationale', 'exhibits'],
-      ['originNote', 'decoration', 'adopts'],
+      ['originNote', 'decoration', 'adopts', ...(c.version >= 3 ? ['request'] : [])],
     );
     if (!o) return;
+    c.int(o, 'request', '', 0, SEQ_MAX, true);
     if ('adopts' in o) {
       const a = c.obj(o.adopts, 'adopts', ['lot', 'seq', 'hash']);
       if (a) {
@@ -428,6 +432,14 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     c.str(o, 'text', '', LIMITS.longText);
     c.int(o, 'ref', '', 0, SEQ_MAX, true);
   },
+  'opinion-requested': (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'assessor']);
+    if (o) c.pattern(o, 'assessor', '', (v) => v === null || isActorId(v), 'an account id or null');
+  },
+  'opinion-request-closed': (c, b) => {
+    const o = c.obj(b, '', ['nonce', 'request']);
+    if (o) c.int(o, 'request', '', 0, SEQ_MAX);
+  },
 };
 
 function checkCorrection(c: Checker, v: unknown): void {
@@ -521,12 +533,17 @@ export function sealedValueIssues(name: string, value: unknown): FieldIssue[] {
 }
 
 /**
- * Checks the `facts` member of a version-2 header against the shape its kind requires (see
- * the format's rule-fact table). Returns every problem (empty when valid); never throws.
+ * Checks the `facts` member of a header of format `version` (2 or later; default
+ * {@link FORMAT_VERSION}) against the shape its kind requires (see the format's rule-fact table). Returns every problem (empty when valid); never throws.
  * Precondition: `kind` is an {@link EntryKind}.
  */
-export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
-  const c = new Checker();
+export function factsIssues(
+  kind: EntryKind,
+  facts: unknown,
+  version: FormatVersion = FORMAT_VERSION,
+): FieldIssue[] {
+  const c = new Checker(version);
+  const request = version >= 3 ? ['request'] : [];
   const p = 'facts';
   const exact = (required: string[], optional: string[] = []) => c.obj(facts, p, required, optional);
   switch (kind) {
@@ -540,15 +557,17 @@ export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
       break;
     }
     case 'exhibit-added': {
-      const o = c.obj(facts, p, [], ['original', 'sealedOnly']);
+      const o = c.obj(facts, p, [], ['original', 'sealedOnly', ...request]);
       if (!o) break;
+      c.int(o, 'request', p, 0, SEQ_MAX, true);
       if ('original' in o === 'sealedOnly' in o) c.fail(p, 'must hold exactly one of original, sealedOnly');
       c.pattern(o, 'original', p, isHex64, '64 lower-case hex digits', true);
       if ('sealedOnly' in o && o.sealedOnly !== true) c.fail(join(p, 'sealedOnly'), 'must be true');
       break;
     }
     case 'opinion': {
-      const o = exact(['exhibits']);
+      const o = exact(['exhibits'], request);
+      if (o) c.int(o, 'request', p, 0, SEQ_MAX, true);
       if (o)
         c.list(
           o,
@@ -621,6 +640,16 @@ export function factsIssues(kind: EntryKind, facts: unknown): FieldIssue[] {
     case 'sale-voided': {
       const o = exact(['saleSeq']);
       if (o) c.int(o, 'saleSeq', p, 0, SEQ_MAX);
+      break;
+    }
+    case 'opinion-requested': {
+      const o = exact(['assessor']);
+      if (o) c.pattern(o, 'assessor', p, (v) => v === null || isActorId(v), 'an account id or null');
+      break;
+    }
+    case 'opinion-request-closed': {
+      const o = exact(['request']);
+      if (o) c.int(o, 'request', p, 0, SEQ_MAX);
       break;
     }
     case 'sold':

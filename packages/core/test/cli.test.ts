@@ -29,15 +29,15 @@ describe('npm run verify', () => {
   it('exits 0 on an intact bundle', () => {
     const r = run(file('ok.json', example));
     expect(r.code).toBe(0);
-    expect(r.out).toContain('6 lots, 17 entries');
+    expect(r.out).toContain('6 lots, 18 entries');
     expect(r.out).toContain('verified');
   });
   it('exits 1 on a broken roll and names the lot and seq', () => {
     const b = JSON.parse(example);
-    b.rolls[1].entries[3].body = b.rolls[1].entries[3].body.replace('high', 'low');
+    b.rolls[1].entries[4].body = b.rolls[1].entries[4].body.replace('high', 'low');
     const r = run(file('broken.json', JSON.stringify(b)));
     expect(r.code).toBe(1);
-    expect(r.out).toMatch(/broken: lot [0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z] seq 3 \(bad-body-digest\)/);
+    expect(r.out).toMatch(/broken: lot [0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z] seq 4 \(bad-body-digest\)/);
     expect(r.out).not.toMatch(/^verified/m);
   });
   const unreadable: Array<[string, string]> = [

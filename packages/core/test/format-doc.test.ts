@@ -78,6 +78,30 @@ describe('worked example in docs/ledger-format.md', () => {
     expect(v1).toBe(header!.replace(`"facts":${block('facts')[0]},`, '').replace('"v":2', '"v":1'));
     expect(verifyRoll([{ hash: v1hash!, header: v1!, body: body! }]).ok).toBe(true);
   });
+  it('a version-3 opinion request after the version-2 entry', () => {
+    const [v3body, v3digest] = block('v3-body');
+    const [v3header, v3hash] = block('v3-header');
+    expect(tagged('beadroll/v1/body', v3body!)).toBe(v3digest);
+    expect(tagged('beadroll/v1/entry', v3header!)).toBe(v3hash);
+    expect(v3header).toContain(`"prev":"${hash}"`);
+    expect(v3header).toContain(
+      `"facts":${canonicalise(factsOf('opinion-requested', parseCanonical(v3body!) as never))}`,
+    );
+    const r = verifyRoll([
+      { hash: hash!, header: header!, body: body! },
+      { hash: v3hash!, header: v3header!, body: v3body! },
+    ]);
+    expect(r.ok && r.state.openRequests).toEqual([
+      { seq: 1, assessor: 'acct-a51d09', time: '2025-03-01T10:15:00.000Z' },
+    ]);
+    const v2 = v3header!.replace('"v":3', '"v":2');
+    expect(
+      verifyRoll([
+        { hash: hash!, header: header!, body: body! },
+        { hash: entryHash(v2), header: v2, body: v3body! },
+      ]),
+    ).toMatchObject({ ok: false, seq: 1, reason: 'bad-header' });
+  });
   it('tag reference and Merkle leaf', () => {
     expect(tagReference(hash!)).toBe(block('tag-reference')[0]);
     const leaf = createHash('sha256')

@@ -1,4 +1,5 @@
 import {
+  FORMAT_VERSION,
   buildEntry,
   checkTransition,
   headOf,
@@ -133,7 +134,9 @@ export function generatedRoll(choices: number[], seed = 'gen', version?: FormatV
     const s = r.state!;
     const actor = actors[c % 3]!;
     const holder = s.holder;
-    const step = Math.floor(c / 3) % 10;
+    // Version 3 adds opinion requests: asked, answered by the one asked, closed by the holder.
+    const step = Math.floor(c / 3) % ((version ?? FORMAT_VERSION) >= 3 ? 13 : 10);
+    const open = s.openRequests ?? [];
     const attempts: Array<() => BuiltEntry | { refused: string }> = [
       () => r.tryAdd('observed', holder, { observations: { hole: 'clean', note: `n${c}` } }),
       () =>
@@ -163,6 +166,18 @@ export function generatedRoll(choices: number[], seed = 'gen', version?: FormatV
       () =>
         s.opinions[0]
           ? r.tryAdd('opinion-withdrawn', s.opinions[0].author, { opinionSeq: s.opinions[0].seq })
+          : { refused: 'none' },
+      () => r.tryAdd('opinion-requested', holder, { assessor: actor === holder ? null : actor }),
+      () =>
+        open[0]
+          ? r.tryAdd('opinion', open[0].assessor ?? actors.find((a) => a !== holder)!, {
+              ...opinion('india', 1700 + (c % 50), 1800),
+              request: open[0].seq,
+            })
+          : { refused: 'none' },
+      () =>
+        open.at(-1)
+          ? r.tryAdd('opinion-request-closed', holder, { request: open.at(-1)!.seq })
           : { refused: 'none' },
     ];
     attempts[step]!();

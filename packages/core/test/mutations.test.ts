@@ -14,7 +14,7 @@ import {
   type ReasonCode,
 } from '../src/index.js';
 
-// A mutation corpus over the example bundle of the format document (format version 2): each
+// A mutation corpus over the example bundle of the format document (format version 3): each
 // case changes one thing, re-signing what a forger would re-sign (the entry hash after a header
 // change), and names the reason a verifier must give. Together they produce every reason code.
 const example = (): Bundle =>
@@ -36,6 +36,26 @@ const append = (b: Bundle, roll: number, draft: Omit<Parameters<typeof buildEntr
   b.rolls[roll]!.entries.push({ ...e.stored, logIndex: null });
 };
 const holder = (b: Bundle): string => verifyBundle(b).rolls[0]!.state!.holder;
+// The example's second roll: its holder asks an assessor, whose evidence and dissent name the request.
+const requestSeq = (b: Bundle): number =>
+  b.rolls[1]!.entries.findIndex((e) => e.header.includes('"kind":"opinion-requested"'));
+const unlist = (b: Bundle): void => {
+  const s = verifyBundle(b).rolls[1]!.state!;
+  append(b, 1, {
+    kind: 'described',
+    actor: s.holder,
+    body: { description: { ...s.description!, listed: false } },
+  });
+};
+const anOpinion = () => ({
+  origin: 'india' as const,
+  period: { from: 1900, to: 1950, approximate: false },
+  technique: 'drawn' as const,
+  qualifier: 'attributed-to' as const,
+  confidence: 'low' as const,
+  rationale: '',
+  exhibits: [],
+});
 
 const corpus: Array<{ desc: string; want: ReasonCode; mutate: (b: Bundle) => void }> = [
   {
@@ -80,6 +100,102 @@ const corpus: Array<{ desc: string; want: ReasonCode; mutate: (b: Bundle) => voi
     want: 'bad-transition',
     mutate: (b) =>
       append(b, 0, { kind: 'transfer-offered', actor: holder(b), body: { recipient: 'beadroll:x' } }),
+  },
+  {
+    desc: 'a version-2 header of a version-3 kind (opinion-requested)',
+    want: 'bad-header',
+    mutate: (b) => {
+      // Re-sign the whole roll in version 2 up to the request, so only the kind is wrong.
+      const entries = b.rolls[1]!.entries;
+      const at = requestSeq(b);
+      let prev = '0'.repeat(64);
+      entries.splice(at + 1);
+      for (const e of entries) {
+        resign(e, (h) => {
+          h.v = 2;
+          h.prev = prev;
+        });
+        prev = e.hash;
+      }
+    },
+  },
+  {
+    desc: 'a request in a version-2 opinion body',
+    want: 'bad-body',
+    mutate: (b) => {
+      const entries = b.rolls[0]!.entries;
+      let prev = '0'.repeat(64);
+      for (const e of entries) {
+        resign(e, (h) => {
+          h.v = 2;
+          h.prev = prev;
+          const body = parseCanonical(e.body!) as Record<string, unknown>;
+          if (h.kind === 'opinion') {
+            e.body = canonicalise({ ...body, request: 0 });
+            h.body = bodyDigest(e.body);
+          }
+        });
+        prev = e.hash;
+      }
+    },
+  },
+  {
+    desc: 'an outsider’s opinion on an unlisted lot naming no request',
+    want: 'bad-actor',
+    mutate: (b) => {
+      unlist(b);
+      append(b, 1, { kind: 'opinion', actor: 'acct-zz', body: anOpinion() });
+    },
+  },
+  {
+    desc: 'an opinion naming the request an earlier opinion answered',
+    want: 'bad-transition',
+    mutate: (b) =>
+      append(b, 1, {
+        kind: 'opinion',
+        actor: 'acct-a51d09',
+        body: { ...anOpinion(), request: requestSeq(b) },
+      }),
+  },
+  {
+    desc: 'an outsider’s evidence on an unlisted lot naming a request that asks another assessor',
+    want: 'bad-actor',
+    mutate: (b) => {
+      unlist(b);
+      append(b, 1, { kind: 'opinion-requested', actor: 'acct-7b20e4', body: { assessor: 'acct-a51d09' } });
+      const seq = b.rolls[1]!.entries.length - 1;
+      append(b, 1, {
+        kind: 'exhibit-added',
+        actor: 'acct-zz',
+        body: {
+          exhibit: {
+            kind: 'other',
+            original: { sha256: 'ab'.repeat(32), size: 1, mediaType: 'image/png' },
+            derivatives: [],
+          },
+          request: seq,
+        },
+      });
+    },
+  },
+  {
+    desc: 'the holder closing a request that is not open',
+    want: 'bad-transition',
+    mutate: (b) =>
+      append(b, 1, {
+        kind: 'opinion-request-closed',
+        actor: 'acct-7b20e4',
+        body: { request: requestSeq(b) },
+      }),
+  },
+  {
+    desc: 'request facts that name another assessor than the body',
+    want: 'bad-facts',
+    mutate: (b) =>
+      resign(
+        b.rolls[1]!.entries[requestSeq(b)]!,
+        (h) => ((h.facts as { assessor: string }).assessor = 'acct-zz'),
+      ),
   },
   {
     desc: 'a link to another previous entry',

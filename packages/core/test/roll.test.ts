@@ -615,7 +615,7 @@ describe('verification', () => {
       const header = e.header.replace(from, to);
       return { ...e, header, hash: entryHash(header) };
     };
-    expect(verifyRoll([swap('"v":2', '"v":3')])).toMatchObject({ ok: false, reason: 'unknown-version' });
+    expect(verifyRoll([swap('"v":3', '"v":4')])).toMatchObject({ ok: false, reason: 'unknown-version' });
     expect(verifyRoll([swap('"seq":0', '"seq":"0"')])).toMatchObject({ ok: false, reason: 'bad-seq' });
     expect(verifyRoll([{ ...e, header: e.header.replace('{', '{ ') }])).toMatchObject({
       ok: false,

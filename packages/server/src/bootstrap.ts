@@ -1,8 +1,8 @@
 import { existsSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
-import { RequestMethod } from '@nestjs/common';
+import type { ServerResponse } from 'node:http';
+import { basename, join } from 'node:path';
 import type { NestExpressApplication } from '@nestjs/platform-express';
-import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import { SwaggerModule } from '@nestjs/swagger';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import type { NextFunction, Request, Response } from 'express';
@@ -15,13 +15,7 @@ import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { publicLotFastPath } from './lots/public-lot-fast-path';
 import { CheckpointsService } from './log/checkpoints.service';
-
-/** Paths served outside the /api prefix (development pages, the offline verifier page). */
-const UNPREFIXED = [
-  { path: 'dev/{*rest}', method: RequestMethod.ALL },
-  { path: 'verify', method: RequestMethod.GET },
-  { path: 'verify/download', method: RequestMethod.GET },
-];
+import { createOpenApiDocument, UNPREFIXED } from './openapi/openapi-document';
 
 /**
  * Applies everything a running server needs on top of the module graph: the public lot data's
@@ -66,12 +60,7 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   app.setGlobalPrefix('api', { exclude: UNPREFIXED });
   app.useGlobalPipes(new InputSafetyPipe(limits.maxDepth), createValidationPipe());
 
-  const openApi = new DocumentBuilder()
-    .setTitle('Beadroll API')
-    .setDescription('Provenance rolls for antique and vintage glass beads')
-    .setVersion('1')
-    .build();
-  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, openApi), {
+  SwaggerModule.setup('api/docs', app, () => createOpenApiDocument(app), {
     jsonDocumentUrl: 'api/docs-json',
   });
 
@@ -85,15 +74,46 @@ export function configureApp(app: NestExpressApplication): AppConfig {
  * one the page itself asks for (the canonical code), fetched the same way (CORS mode, cookies
  * of this site only), so the browser hands the preloaded answer to the page.
  */
-function preloadPublicLot(path: string, res: Response): void {
-  const segment = /^\/[lL]\/([^/]+)(?:\/[^/]+)?\/?$/.exec(path)?.[1];
-  let code: string | null;
-  try {
-    code = segment === undefined ? null : RollReaderService.canonicalCode(decodeURIComponent(segment));
-  } catch {
-    code = null; // a malformed %-escape: no preload; the page says the lot was not found
-  }
+function preloadPublicLot(code: string | null, res: Response): void {
   if (code) res.setHeader('Link', `</api/public/lots/${code}>; rel=preload; as=fetch; crossorigin=anonymous`);
+}
+
+/** The canonical lot code a public page's address names, or null when it names none. */
+function publicLotCode(path: string): string | null {
+  const segment = /^\/[lL]\/([^/]+)(?:\/[^/]+)?\/?$/.exec(path)?.[1];
+  try {
+    return segment === undefined ? null : RollReaderService.canonicalCode(decodeURIComponent(segment));
+  } catch {
+    return null; // a malformed %-escape: the page says the lot was not found
+  }
+}
+
+/**
+ * A lot page installed as an app opens that lot: its manifest link names the lot (and whether
+ * the page was opened from a tag, `/L/`, whose worker covers `/L/`), and the manifest is
+ * answered with that start address and scope. Browsers install only a manifest that names its
+ * start address.
+ */
+function withLotManifest(html: string, code: string | null, fromTag: boolean): string {
+  if (!code) return html;
+  const query = `lot=${code}${fromTag ? '&amp;tag=1' : ''}`;
+  return html.replace(/(<link rel="manifest" href="\/lot\.webmanifest)(")/, `$1?${query}$2`);
+}
+
+function serveLotManifest(webDist: string) {
+  return (req: Request, res: Response, next: NextFunction) => {
+    const file = join(webDist, 'lot.webmanifest');
+    if (req.method !== 'GET' && req.method !== 'HEAD') return next();
+    const code = typeof req.query.lot === 'string' ? publicLotCode(`/l/${req.query.lot}`) : null;
+    if (!code || !existsSync(file)) return next();
+    const under = req.query.tag === '1' ? '/L/' : '/l/';
+    const manifest = JSON.parse(readFileSync(file, 'utf8')) as Record<string, unknown>;
+    res.setHeader('Cache-Control', 'no-cache');
+    res.type('application/manifest+json');
+    res.send(
+      JSON.stringify({ ...manifest, id: `${under}${code}`, start_url: `${under}${code}`, scope: under }),
+    );
+  };
 }
 
 /** Paths the server answers itself (the API, the development pages, the verifier page), never the web app. */
@@ -105,6 +125,20 @@ function isServerPath(path: string): boolean {
     path === '/verify' ||
     path === '/verify/download'
   );
+}
+
+/**
+ * The service workers and web app manifests keep their names from one release to the next:
+ * the browser must ask again each time (never immutable, never an hour old), or a phone would
+ * keep an old worker and its old files.
+ */
+function offlineAppHeaders(res: ServerResponse, path: string): void {
+  const name = basename(path).replace(/\.(br|gz)$/, '');
+  if (/^(app|lot)-sw\.js$/.test(name)) res.setHeader('Cache-Control', 'no-cache');
+  else if (name.endsWith('.webmanifest')) {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.setHeader('Content-Type', 'application/manifest+json; charset=utf-8');
+  }
 }
 
 /** The public page with the log's verifier key written into its `beadroll-log-key` meta element. */
@@ -135,8 +169,9 @@ function serveWeb(app: NestExpressApplication, webDist: string, logKey: string):
   // API and development paths never name a file: skip the file lookup for them.
   const files = expressStaticGzip(webDist, {
     ...precompressed,
-    serveStatic: { index: false, maxAge: '1h' },
+    serveStatic: { index: false, maxAge: '1h', setHeaders: offlineAppHeaders },
   });
+  app.use('/lot.webmanifest', serveLotManifest(webDist));
   app.use((req: Request, res: Response, next: NextFunction) =>
     isServerPath(req.path) ? next() : files(req, res, next),
   );
@@ -146,7 +181,9 @@ function serveWeb(app: NestExpressApplication, webDist: string, logKey: string):
     const isPublic = /^\/[lL]\//.test(req.path) && existsSync(publicHtml);
     res.setHeader('Cache-Control', 'no-cache');
     if (!isPublic) return res.sendFile(appHtml); // under 1 KB: compression gains nothing
-    preloadPublicLot(req.path, res);
-    res.type('html').send(withLogKey(readFileSync(publicHtml, 'utf8'), logKey));
+    const code = publicLotCode(req.path);
+    preloadPublicLot(code, res);
+    const html = withLogKey(readFileSync(publicHtml, 'utf8'), logKey);
+    res.type('html').send(withLotManifest(html, code, req.path.startsWith('/L/')));
   });
 }

@@ -1,6 +1,8 @@
+import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
 import { createAccount, signIn } from './support/accounts';
+import { binary } from './support/exhibit-http';
 import { lastMailTo, linkIn } from './support/mail';
 import { useTestApp } from './support/test-app';
 
@@ -96,6 +98,72 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
       ].sort(),
     );
     expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Zanfirico Cross' });
+  });
+
+  it('takes an optional document with the application, shown to the registrar alone; refuses other types and sizes by name', async () => {
+    const registrar = await createAccount(t, { role: 'registrar' });
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const form = (a: Record<string, string>) => {
+      let req = http().post('/api/auth/sign-up').set(W);
+      for (const [k, v] of Object.entries(a)) req = req.field(k, v);
+      return req;
+    };
+    const a = applicant('doc');
+    // Refused first, and nothing kept: a text file, an empty one, one over 10 MB.
+    for (const [bytes, name, type] of [
+      [Buffer.from('just some words'), 'letter.txt', 'text/plain'],
+      [Buffer.alloc(0), 'empty.pdf', 'application/pdf'],
+      [
+        Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.alloc(10 * 1024 * 1024)]),
+        'big.pdf',
+        'application/pdf',
+      ],
+    ] as const) {
+      const bad = await form(a).attach('document', bytes, { filename: name, contentType: type }).expect(400);
+      expect(bad.body.error.fields).toEqual([
+        expect.objectContaining({ field: 'document', reason: expect.stringMatching(/PDF, JPEG or PNG/) }),
+      ]);
+    }
+    const twoFiles = await form(a)
+      .attach('document', Buffer.from('%PDF-1.4\n'), 'a.pdf')
+      .attach('document', Buffer.from('%PDF-1.4\n'), 'b.pdf')
+      .expect(400);
+    expect(twoFiles.body.error.fields[0].field).toBe('document');
+    // A PDF (its first bytes say so, per ISO 32000-1 §7.5.2 "%PDF-"), as a form with the other fields.
+    const pdf = Buffer.from('%PDF-1.4\n% an invented trade licence\n%%EOF\n');
+    await form(a)
+      .attach('document', pdf, { filename: 'Trade licence 2026.pdf', contentType: 'application/pdf' })
+      .expect(202);
+    const confirm = async (email: string) => {
+      const token = linkIn(lastMailTo(t, email), `${BASE}/verify-email`).searchParams.get('token')!;
+      await http().post('/api/auth/verify-email').set(W).send({ token }).expect(200);
+    };
+    await confirm(a.email);
+    const queue = await registrar.agent.get('/api/registry/accounts?status=pending').expect(200);
+    const row = queue.body.items.find((x: { handle: string }) => x.handle === a.handle);
+    expect(row.document).toEqual({
+      sha256: createHash('sha256').update(pdf).digest('hex'),
+      mediaType: 'application/pdf',
+      size: pdf.length,
+      name: 'Trade licence 2026.pdf',
+    });
+    const got = await registrar.agent
+      .get(`/api/registry/accounts/${row.id}/document`)
+      .buffer(true)
+      .parse(binary)
+      .expect(200);
+    expect(got.headers['content-type']).toMatch(/^application\/pdf/);
+    expect(got.headers['content-disposition']).toMatch(/^attachment/);
+    expect(Buffer.compare(got.body as Buffer, pdf)).toBe(0);
+    await dealer.agent.get(`/api/registry/accounts/${row.id}/document`).expect(403);
+    // An application without a document still reads as JSON, and has none.
+    const b = applicant('nodoc');
+    await http().post('/api/auth/sign-up').set(W).send(b).expect(202);
+    await confirm(b.email);
+    const later = await registrar.agent.get('/api/registry/accounts?status=pending').expect(200);
+    const none = later.body.items.find((x: { handle: string }) => x.handle === b.handle);
+    expect(none.document).toBeNull();
+    await registrar.agent.get(`/api/registry/accounts/${none.id}/document`).expect(404);
   });
 
   it('asks for the business address and trade references, and a website only as a web address', async () => {

@@ -1,4 +1,8 @@
+import { verifyRoll } from '@beadroll/core';
+import { FakeSmtpService } from '../src/mail/fake-smtp.service';
 import { useAccount } from './support/accounts';
+import { imageOf } from './support/exhibit-fixtures';
+import { upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
@@ -38,9 +42,20 @@ describe('opinions on request', () => {
   const ravi = useAccount(t, { role: 'assessor', displayName: 'Ravi Ostrander' });
   const pending = useAccount(t, { role: 'assessor', status: 'pending' });
 
-  it('lets a named assessor read an unlisted lot and answer with an opinion once it is listed, which closes the request', async () => {
+  /** The stored roll of a lot, as the holder reads it, checked by core's verifier. */
+  async function verified(code: string) {
+    const res = await holder.agent.get(`/api/lots/${code}/bundle`).expect(200);
+    const roll = (res.body.rolls as Array<{ lot: string; entries: [] }>).find((r) => r.lot === code)!;
+    const r = verifyRoll(roll.entries, { lot: code });
+    if (!r.ok) throw new Error(`${r.reason} at ${r.seq}`);
+    return r;
+  }
+
+  it('puts the request on the roll, mails the named assessor, who reads the unlisted lot and answers it with evidence and an opinion', async () => {
     const code = await newLot();
     await thea.agent.get(`/api/lots/${code}`).expect(404);
+    const fake = t.app.get(FakeSmtpService);
+    const before = fake.to(thea.email).length;
     const made = await ask(code, { assessor: thea.id, note: 'Look at the seams, please.' }).expect(201);
     expect(made.body).toMatchObject({
       status: 'open',
@@ -48,6 +63,15 @@ describe('opinions on request', () => {
       assessor: { id: thea.id, displayName: 'Thea Quill' },
       lot: { code, listed: false },
     });
+    // On the roll, in format version 3, naming the assessor (never the note, which stays private).
+    const asked = (await verified(code)).verified.at(-1)!;
+    expect(asked.header).toMatchObject({ v: 3, kind: 'opinion-requested', facts: { assessor: thea.id } });
+    expect(JSON.stringify(asked.body)).not.toContain('seams');
+    const mails = fake.to(thea.email);
+    expect(mails.length).toBe(before + 1);
+    expect(mails[0]!.subject).toMatch(/^A dealer asks your opinion on lot [0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z]$/);
+    expect(mails[0]!.text).toContain('Mirela Holt');
+    expect(mails[0]!.text).toContain('your queue');
 
     const queue = await thea.agent.get('/api/opinion-requests').query({ box: 'received' }).expect(200);
     expect(queue.body.items.map((r: { id: string }) => r.id)).toEqual([made.body.id]);
@@ -59,11 +83,36 @@ describe('opinions on request', () => {
     await thea.agent.get(`/api/lots/${code}`).expect(200);
     await thea.agent.get(`/api/lots/${code}/roll`).expect(200);
     await thea.agent.get(`/api/lots/${code}/opinions`).expect(200);
-    // The ledger's rules: only the holder writes an opinion on an unlisted lot's roll.
-    const early = await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(409);
-    expect(early.body.error.message).toMatch(/unlisted/);
-    await holder.agent.put(`/api/lots/${code}/listing`).set(W).send({ listed: true }).expect(200);
-    const opinion = await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(201);
+    // The lot stays unlisted: the assessor's evidence and opinion name the request.
+    const photo = await upload(
+      thea.agent,
+      code,
+      await imageOf('png'),
+      { kind: 'close-up' },
+      'seam.png',
+      'image/png',
+    ).expect(201);
+    const ex = (await verified(code)).verified.at(-1)!;
+    expect(ex.header).toMatchObject({
+      kind: 'exhibit-added',
+      actor: thea.id,
+      facts: { request: asked.header.seq },
+    });
+    expect(photo.status).toBe(201);
+    const sha = (ex.header.facts as { original: string }).original;
+    const opinion = await thea.agent
+      .post(`/api/lots/${code}/opinions`)
+      .set(W)
+      .send({ ...OPINION, exhibits: [sha] })
+      .expect(201);
+    const r = await verified(code);
+    expect(r.verified.at(-1)!.header).toMatchObject({
+      kind: 'opinion',
+      actor: thea.id,
+      facts: { exhibits: [sha], request: asked.header.seq },
+    });
+    expect(r.state.openRequests).toEqual([]);
+    expect(r.state.listed).toBe(false);
 
     const sent = await holder.agent.get('/api/opinion-requests').query({ box: 'sent' }).expect(200);
     expect(sent.body.items[0]).toMatchObject({
@@ -71,22 +120,47 @@ describe('opinions on request', () => {
       opinionSeq: opinion.body.seq,
       answeredBy: { id: thea.id },
     });
-    // Answered: the request no longer opens the lot (it stays readable while listed).
-    await holder.agent.put(`/api/lots/${code}/listing`).set(W).send({ listed: false }).expect(200);
-    await thea.agent.get(`/api/lots/${code}`).expect(404);
+    // The holder sees it among the lot's opinions.
+    const ops = await holder.agent.get(`/api/lots/${code}/opinions`).expect(200);
+    expect(JSON.stringify(ops.body)).toContain('Mould seams on every bead');
+    // Answered: the assessor reads the lot as it stood at their answer, no further, and can no
+    // longer write on it.
+    const kept = await thea.agent.get(`/api/lots/${code}`).expect(200);
+    expect(kept.body.historyUpTo).toBe(opinion.body.seq);
+    await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(404);
     const after = await thea.agent.get('/api/opinion-requests').query({ box: 'received' }).expect(200);
     expect(after.body.items[0]).toMatchObject({ status: 'answered', opinionSeq: opinion.body.seq });
   });
 
-  it('asks any verified assessor: each may read until one answers', async () => {
+  it('closes the request on the roll and in the queue when the lot changes hands', async () => {
     const code = await newLot();
+    const made = await ask(code, { assessor: thea.id }).expect(201);
+    const offer = await holder.agent
+      .post('/api/transfers/offers')
+      .set(W)
+      .send({ lot: code, recipient: other.id })
+      .expect(201);
+    await other.agent.post(`/api/transfers/offers/${offer.body.offer.id}/accept`).set(W).send({}).expect(200);
+    const sent = await holder.agent.get('/api/opinion-requests').query({ box: 'sent' }).expect(200);
+    expect(sent.body.items.find((x: { id: string }) => x.id === made.body.id)).toMatchObject({
+      status: 'cancelled',
+    });
+    await thea.agent.get(`/api/lots/${code}`).expect(404);
+  });
+
+  it('asks any verified assessor, mailing nobody: each may read until one answers, unlisted', async () => {
+    const code = await newLot();
+    const fake = t.app.get(FakeSmtpService);
+    const before = [fake.to(thea.email).length, fake.to(ravi.email).length];
     await ask(code).expect(201);
+    expect([fake.to(thea.email).length, fake.to(ravi.email).length]).toEqual(before);
+    expect((await verified(code)).state.openRequests).toEqual([expect.objectContaining({ assessor: null })]);
     await thea.agent.get(`/api/lots/${code}`).expect(200);
     await ravi.agent.get(`/api/lots/${code}`).expect(200);
     await pending.agent.get(`/api/lots/${code}`).expect(404);
-    await holder.agent.put(`/api/lots/${code}/listing`).set(W).send({ listed: true }).expect(200);
-    await ravi.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(201);
-    await holder.agent.put(`/api/lots/${code}/listing`).set(W).send({ listed: false }).expect(200);
+    const answered = await ravi.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION);
+    expect(answered.body).toMatchObject({ seq: 2 });
+    expect((await verified(code)).state.openRequests).toEqual([]);
     await thea.agent.get(`/api/lots/${code}`).expect(404);
     await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(404);
   });
@@ -102,6 +176,13 @@ describe('opinions on request', () => {
       .set(W)
       .expect(200);
     expect(cancelled.body.status).toBe('cancelled');
+    const r = await verified(code);
+    expect(r.verified.at(-1)!.header).toMatchObject({
+      kind: 'opinion-request-closed',
+      actor: holder.id,
+      facts: { request: r.verified.at(-2)!.header.seq },
+    });
+    expect(r.state.openRequests).toEqual([]);
     await holder.agent.post(`/api/opinion-requests/${made.body.id}/cancel`).set(W).expect(409);
     await thea.agent.get(`/api/lots/${code}`).expect(404);
     await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(404);

@@ -17,10 +17,16 @@ describe('web delivery', () => {
     const dir = join(process.env.TMPDIR ?? '/tmp', `beadroll-web-${process.pid}`);
     mkdirSync(join(dir, 'assets'), { recursive: true });
     writeFileSync(join(dir, 'index.html'), '<!doctype html><title>app</title>');
-    writeFileSync(join(dir, 'public.html'), '<!doctype html><title>public</title>');
+    writeFileSync(
+      join(dir, 'public.html'),
+      '<!doctype html><title>public</title><link rel="manifest" href="/lot.webmanifest">',
+    );
     writeFileSync(join(dir, 'assets', 'public-AbC123.js'), script);
     writeFileSync(join(dir, 'assets', 'public-AbC123.js.br'), brotliCompressSync(script));
     writeFileSync(join(dir, 'assets', 'public-AbC123.js.gz'), gzipSync(script));
+    writeFileSync(join(dir, 'lot-sw.js'), 'self.addEventListener("fetch", () => {});\n');
+    writeFileSync(join(dir, 'app-sw.js'), 'self.addEventListener("fetch", () => {});\n');
+    writeFileSync(join(dir, 'lot.webmanifest'), '{"name":"Lot history"}');
     t = await createTestApp({ WEB_DIST: dir });
   });
   afterAll(async () => {
@@ -79,5 +85,49 @@ describe('web delivery', () => {
     expect((await get('/l/7K2QM9XAA')).headers['link']).toBeUndefined();
     expect((await get('/l/%E0%A4%A')).headers['link']).toBeUndefined();
     expect((await get('/lots')).headers['link']).toBeUndefined();
+  });
+
+  // A service worker's script keeps its address across releases, so it must be checked with the
+  // server every time (no-cache, RFC 9111 §5.2.2.4), never kept as immutable; the W3C Service
+  // Workers spec's update check looks at the script only when the HTTP cache lets it through.
+  // The web app manifest is served as application/manifest+json (W3C Web Application Manifest §1.1).
+  it('sends the service workers and the web app manifest to be checked again every time', async () => {
+    for (const path of ['/lot-sw.js', '/app-sw.js']) {
+      const sw = await get(path, 'gzip, deflate, br');
+      expect(sw.status).toBe(200);
+      expect(sw.headers['content-type']).toMatch(/javascript/);
+      expect(sw.headers['cache-control']).toBe('no-cache');
+    }
+    const manifest = await get('/lot.webmanifest');
+    expect(manifest.status).toBe(200);
+    expect(manifest.headers['content-type']).toMatch(/^application\/manifest\+json/);
+    expect(manifest.headers['cache-control']).toBe('no-cache');
+  });
+
+  // W3C Web Application Manifest: a manifest names its start_url and scope; browsers install
+  // only one that names its start address. A lot page's manifest starts at that lot.
+  it('links a lot page to a manifest that starts at that lot, under the address family it was opened with', async () => {
+    const page = await get('/L/7K2QM9XAT/ABCDEFGHJK');
+    expect(page.text ?? (page.body as Buffer).toString()).toContain(
+      '<link rel="manifest" href="/lot.webmanifest?lot=7K2QM9XAT&amp;tag=1">',
+    );
+    const typed = (await get('/l/7k2q-m9xa-t')).body as Buffer;
+    expect(typed.toString()).toContain('<link rel="manifest" href="/lot.webmanifest?lot=7K2QM9XAT">');
+    const fromTag = await get('/lot.webmanifest?lot=7K2QM9XAT&tag=1');
+    expect(fromTag.headers['content-type']).toMatch(/^application\/manifest\+json/);
+    expect(fromTag.headers['cache-control']).toBe('no-cache');
+    expect(JSON.parse((fromTag.body as Buffer).toString())).toEqual({
+      name: 'Lot history',
+      id: '/L/7K2QM9XAT',
+      start_url: '/L/7K2QM9XAT',
+      scope: '/L/',
+    });
+    const typedManifest = JSON.parse(
+      ((await get('/lot.webmanifest?lot=7k2q-m9xa-t')).body as Buffer).toString(),
+    );
+    expect(typedManifest).toMatchObject({ start_url: '/l/7K2QM9XAT', scope: '/l/' });
+    // Not a lot code: the manifest as built, naming no lot.
+    const other = JSON.parse(((await get('/lot.webmanifest?lot=7K2QM9XAA')).body as Buffer).toString());
+    expect(other).toEqual({ name: 'Lot history' });
   });
 });

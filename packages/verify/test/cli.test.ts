@@ -43,7 +43,7 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
       const r = run(join(dir, 'intact.json'));
       expect(r.err).toBe('');
       expect(r.code).toBe(0);
-      expect(r.out).toContain('6 lots, 17 entries, 3 cross-lot links');
+      expect(r.out).toContain('6 lots, 18 entries, 3 cross-lot links');
       expect(r.out.match(/ intact /g)).toHaveLength(6);
       expect(r.out).toMatch(/^verified: /m);
     });
@@ -59,7 +59,7 @@ function suite(name: string, setup: () => void, run: (...args: string[]) => Run)
     it('with --log-key, checks the bundle’s checkpoint of the public log too (format §14.5)', () => {
       const good = run(join(dir, 'logged.json'), '--log-key', logged.logKey);
       expect(good.code).toBe(0);
-      expect(good.out).toMatch(/^ {2}checkpoint of 17 entries {2}signature checks with the log's key$/m);
+      expect(good.out).toMatch(/^ {2}checkpoint of 18 entries {2}signature checks with the log's key$/m);
       expect(good.out).not.toContain('NOT SHOWN');
       const without = run(join(dir, 'logged.json'));
       expect(without.code).toBe(0);

@@ -35,10 +35,10 @@ interface ExampleRoll {
  */
 export function tamperedExample(): { text: string; lot: string; seq: number } {
   const b = JSON.parse(EXAMPLE) as { rolls: ExampleRoll[] };
-  const e = b.rolls[1]!.entries[3]!;
+  const e = b.rolls[1]!.entries[4]!;
   if (!e.body?.includes('high')) throw new Error('the example bundle changed: pick another entry');
   e.body = e.body.replace('high', 'low');
-  return { text: JSON.stringify(b), lot: b.rolls[1]!.lot, seq: 3 };
+  return { text: JSON.stringify(b), lot: b.rolls[1]!.lot, seq: 4 };
 }
 
 /** Files that are not bundles at all, each with what makes it so (exit 2). */

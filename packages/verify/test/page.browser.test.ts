@@ -136,7 +136,7 @@ describe('the offline verifier page', () => {
     expect(await resultExit()).toBe('0');
     const cp = page.locator('.v-checkpoint');
     expect(await cp.getAttribute('data-ok')).toBe('true');
-    expect(await cp.textContent()).toContain('Checkpoint of 17 entries');
+    expect(await cp.textContent()).toContain('Checkpoint of 18 entries');
     expect(await cp.textContent()).toContain('in the log');
     await page.screenshot({ path: join(ARTIFACTS, 'verify-page-checkpoint-390.png'), fullPage: true });
     // A checkpoint signed by another key is broken.

@@ -1,3 +1,5 @@
+import { readFileSync } from 'node:fs';
+import sharp from 'sharp';
 import { describe, expect, inject, it } from 'vitest';
 import { openBrowser, screenshot } from './support/browser';
 import { demoAccount, pageErrors, signIn, signOut, useBrowser } from './support/journey';
@@ -30,6 +32,25 @@ describe('accounts in Chromium', () => {
     await page.getByText('must be 12 to 128 characters long').waitFor();
     await screenshot(page, 'accounts-sign-up-error-1280');
     await page.getByLabel('Password').fill(password);
+    // The optional document: a text file is refused at once, naming the field; a PNG is taken.
+    const documentInput = page.locator('input[type="file"][name="document"]');
+    await documentInput.setInputFiles({
+      name: 'notes.txt',
+      mimeType: 'text/plain',
+      buffer: Buffer.from('hello'),
+    });
+    await page.getByText('must be a PDF, JPEG or PNG file').waitFor();
+    const licence = await sharp({
+      create: { width: 400, height: 300, channels: 3, background: { r: 240, g: 236, b: 220 } },
+    })
+      .png()
+      .toBuffer();
+    await documentInput.setInputFiles({ name: 'trade-licence.png', mimeType: 'image/png', buffer: licence });
+    const wide = page.viewportSize()!;
+    await page.setViewportSize({ width: 390, height: 844 });
+    await documentInput.scrollIntoViewIfNeeded();
+    await screenshot(page, 'accounts-sign-up-document-390');
+    await page.setViewportSize(wide);
     await page.getByRole('button', { name: 'Apply' }).click();
     await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
 
@@ -61,6 +82,13 @@ describe('accounts in Chromium', () => {
     await application.getByText('3 Lantern Yard, Smalti Hollow').waitFor();
     await application.getByText(/Table 22 at the Smalti Hollow spring bead fair/).waitFor();
     await application.getByText('None given').waitFor();
+    // The document sent with the application, for the registrar to download: the same bytes.
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      application.getByRole('link', { name: /^Download trade-licence\.png/ }).click(),
+    ]);
+    const saved = await download.path();
+    expect(Buffer.compare(readFileSync(saved!), licence)).toBe(0);
     await screenshot(page, 'accounts-application-1280');
     await application.getByRole('button', { name: 'Close' }).click();
     // Approving asks first.

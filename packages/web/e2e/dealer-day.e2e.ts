@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { formatLotCode, tagPayload, tagReference } from '@beadroll/core';
+import sharp from 'sharp';
+import { formatLotCode, parseBundle, tagPayload, tagReference, verifyBundle } from '@beadroll/core';
 import { openBrowser, screenshot, type Browser } from './support/browser';
 import { apiClient, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
 
@@ -147,27 +148,15 @@ describe('an opinion on request', () => {
   let lot: { code: string; title: string };
 
   beforeAll(async () => {
+    // Unlisted: the request on the roll is what lets the assessor's evidence and opinion on it.
     lot = await registerLot(baseUrl, 'Chevron beads from a trunk in the attic');
-    // Listed, so the assessor's opinion may go on its roll.
-    const call = await apiClient(baseUrl, dealer.email);
-    await call(`/api/lots/${lot.code}/descriptions`, {
-      description: {
-        title: lot.title,
-        form: 'strand',
-        count: { value: 24, estimated: false },
-        colours: ['red', 'white', 'blue'],
-        baseGlass: ['opaque'],
-        decoration: [],
-        listed: true,
-      },
-    });
     browser = await openBrowser();
   });
   afterAll(async () => {
     await browser?.close();
   });
 
-  it('is asked by the holder on the lot page and answered by the assessor from their queue', async () => {
+  it('is asked by the holder on an unlisted lot and answered by the assessor from their queue, with evidence; the bundle verifies', async () => {
     const { page } = browser;
     await signIn(page, baseUrl, dealer.email);
     await page.goto(`${baseUrl}/lots/${lot.code}`);
@@ -193,6 +182,21 @@ describe('an opinion on request', () => {
     await request.getByRole('link', { name: lot.title }).click();
     await page.waitForURL(`${baseUrl}/lots/${lot.code}`);
 
+    // Evidence first: a close-up, added to the roll of the unlisted lot.
+    const closeUp = await sharp({
+      create: { width: 640, height: 480, channels: 3, background: { r: 170, g: 40, b: 40 } },
+    })
+      .jpeg()
+      .toBuffer();
+    const uploader = page.getByRole('region', { name: 'Add exhibits' });
+    await uploader
+      .getByTestId('exhibit-files')
+      .setInputFiles([{ name: 'chevron-end.jpg', mimeType: 'image/jpeg', buffer: closeUp }]);
+    const item = uploader.getByRole('listitem', { name: 'chevron-end.jpg' });
+    await item.getByLabel('Caption').fill('Ground end showing seven layers');
+    await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
+    await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
+
     await page
       .getByRole('group', { name: 'Actions' })
       .getByRole('button', { name: 'Record an opinion' })
@@ -204,8 +208,10 @@ describe('an opinion on request', () => {
     await dialog
       .getByRole('textbox', { name: /^Rationale/ })
       .fill('Seven layers, ground ends showing each colour; wear on the edges of every bead.');
+    await dialog.getByRole('checkbox', { name: /Ground end showing seven layers/ }).check();
     await dialog.getByRole('button', { name: 'Record opinion' }).click();
     await dialog.waitFor({ state: 'detached' });
+    await screenshot(page, 'opinion-request-answered-1280');
 
     // The queue now shows it answered; the holder's request reads answered too.
     await page.goto(`${baseUrl}/`);
@@ -220,6 +226,35 @@ describe('an opinion on request', () => {
       '/api/opinion-requests?box=sent',
     );
     expect(sent.items.find((r) => r.lot.code === lot.code)?.status).toBe('answered');
+
+    // The holder sees the opinion on the lot page, and the history says it was asked for.
+    await signIn(page, baseUrl, dealer.email);
+    await page.goto(`${baseUrl}/lots/${lot.code}`);
+    await page
+      .getByText(/Seven layers, ground ends showing each colour/)
+      .first()
+      .waitFor();
+    await page
+      .getByText(/asked Halvard Nimmo.* for an opinion/)
+      .first()
+      .waitFor();
+    await screenshot(page, 'opinion-request-holder-1280');
+
+    // The lot's bundle verifies with core's verifier: the request, the evidence and the opinion
+    // naming it, in format version 3, on a lot that stayed unlisted.
+    const bundle = parseBundle(await call<unknown>(`/api/lots/${lot.code}/bundle`));
+    const checked = verifyBundle(bundle);
+    expect(checked.ok).toBe(true);
+    const roll = checked.rolls.find((r) => r.lot === lot.code)!;
+    expect(roll.state!.listed).toBe(false);
+    expect(roll.state!.openRequests).toEqual([]);
+    const kinds = bundle.rolls
+      .find((r) => r.lot === lot.code)!
+      .entries.map((e) => JSON.parse(e.header) as { kind: string; v: number; facts: { request?: number } });
+    const asked = kinds.find((h) => h.kind === 'opinion-requested')!;
+    expect(asked.v).toBe(3);
+    const answers = kinds.filter((h) => h.kind === 'exhibit-added' || h.kind === 'opinion');
+    expect(answers.map((h) => h.facts.request)).toEqual([1, 1]);
   });
 });
 

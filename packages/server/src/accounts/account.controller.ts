@@ -1,9 +1,9 @@
 import { Body, Controller, Get, HttpCode, Post } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal } from '../auth/auth.decorators';
 import { AuthService } from '../auth/auth.service';
-import { type MeResponse, toMeResponse } from '../auth/dto/session.response';
-import { ChangePasswordDto, type MessageResponse } from '../auth/dto/tokens.dto';
+import { MeResponse, toMeResponse } from '../auth/dto/session.response';
+import { ChangePasswordDto, MessageResponse } from '../auth/dto/tokens.dto';
 
 type SessionPrincipal = Principal & { sessionId?: string };
 
@@ -14,6 +14,7 @@ export class AccountController {
 
   @Get()
   @ApiOperation({ summary: 'The signed-in account' })
+  @ApiOkResponse({ type: MeResponse })
   async me(@CurrentAccount() p: SessionPrincipal): Promise<MeResponse> {
     return toMeResponse(await this.auth.me(p.id));
   }
@@ -21,6 +22,7 @@ export class AccountController {
   @Post('password')
   @HttpCode(200)
   @ApiOperation({ summary: 'Change the password (every other session ends)' })
+  @ApiOkResponse({ type: MessageResponse })
   changePassword(
     @CurrentAccount() p: SessionPrincipal,
     @Body() dto: ChangePasswordDto,

@@ -2,24 +2,10 @@ import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Not, Repository, type EntityManager } from 'typeorm';
 import { AppError } from '../common/app-error';
+import { DealerCard } from './dto/dealer-card.dto';
 import { Account } from './entities/account.entity';
 
-/**
- * What the registry reports about an account that was ever verified, for public pages.
- * `former` means the account was verified once and is now closed.
- */
-export interface DealerCard {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
-  town: string;
-  country: string;
-  verifiedSince: string;
-  status: 'verified' | 'suspended' | 'former';
-  /** What the account does: a dealer, an independent assessor, or the registrar. */
-  role: 'dealer' | 'assessor' | 'registrar';
-}
+export { DealerCard };
 
 function toCard(a: Account): DealerCard | null {
   if (!a.verifiedAt) return null;

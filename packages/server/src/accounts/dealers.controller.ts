@@ -1,7 +1,8 @@
 import { Controller, Get, Param, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/auth.decorators';
-import { type DealerCard, DealerCardsService } from './dealer-cards.service';
+import { DealerCardsService } from './dealer-cards.service';
+import { DealerCard, DealerCardsResponse } from './dto/dealer-card.dto';
 import { DealerCardsQueryDto } from './dto/dealer-cards.dto';
 
 @ApiTags('public')
@@ -14,12 +15,14 @@ export class DealersController {
   @ApiOperation({
     summary: 'Public cards for account ids seen on rolls; ids never verified are left out',
   })
-  async cardsByIds(@Query() q: DealerCardsQueryDto): Promise<{ cards: Record<string, DealerCard> }> {
+  @ApiOkResponse({ type: DealerCardsResponse })
+  async cardsByIds(@Query() q: DealerCardsQueryDto): Promise<DealerCardsResponse> {
     return { cards: Object.fromEntries(await this.cards.cardsFor(q.ids)) };
   }
 
   @Get(':handle')
   @ApiOperation({ summary: 'The public card of a verified dealer or assessor, as reported by the registry' })
+  @ApiOkResponse({ type: DealerCard })
   card(@Param('handle') handle: string): Promise<DealerCard> {
     return this.cards.byHandle(handle);
   }

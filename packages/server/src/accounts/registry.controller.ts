@@ -1,7 +1,19 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  ParseUUIDPipe,
+  Post,
+  Query,
+  Res,
+  StreamableFile,
+} from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
-import { type ApplicantResponse, ReasonDto, RegistryQueryDto, type RegistryPage } from './dto/registry.dto';
+import { ApplicantResponse, ReasonDto, RegistryQueryDto, RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
 
 @ApiTags('registry')
@@ -14,13 +26,33 @@ export class RegistryController {
   @ApiOperation({
     summary: 'Dealer and assessor accounts by status (the pending ones are the verification queue)',
   })
+  @ApiOkResponse({ type: RegistryPage })
   list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
     return this.registry.list(q);
+  }
+
+  @Get(':id/document')
+  @ApiOperation({ summary: 'Download the document an applicant sent with their application' })
+  @ApiProduces('application/pdf', 'image/jpeg', 'image/png')
+  async document(
+    @Param('id', ParseUUIDPipe) id: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    const file = await this.registry.document(id);
+    res.setHeader('Content-Type', file.type);
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader(
+      'Content-Disposition',
+      `attachment; filename="applicant-document.${file.type.split('/')[1]}"; filename*=UTF-8''${encodeURIComponent(file.name)}`,
+    );
+    return new StreamableFile(file.body, { length: file.size || undefined });
   }
 
   @Post(':id/approve')
   @HttpCode(200)
   @ApiOperation({ summary: 'Verify an applicant' })
+  @ApiOkResponse({ type: ApplicantResponse })
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -31,6 +63,7 @@ export class RegistryController {
   @Post(':id/reject')
   @HttpCode(200)
   @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reject(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -42,6 +75,7 @@ export class RegistryController {
   @Post(':id/suspend')
   @HttpCode(200)
   @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
+  @ApiOkResponse({ type: ApplicantResponse })
   suspend(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -53,6 +87,7 @@ export class RegistryController {
   @Post(':id/reinstate')
   @HttpCode(200)
   @ApiOperation({ summary: 'Lift a suspension' })
+  @ApiOkResponse({ type: ApplicantResponse })
   reinstate(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

@@ -1,3 +1,5 @@
+import type { Readable } from 'node:stream';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Not, Repository } from 'typeorm';
@@ -72,7 +74,21 @@ export class RegistryService {
     @InjectRepository(Account) private readonly accounts: Repository<Account>,
     private readonly sessions: SessionsService,
     private readonly mail: MailService,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
+
+  /** An applicant's document, for the registrar only: its bytes, type and the name it was sent with. */
+  async document(id: string): Promise<{ body: Readable; type: string; name: string; size: number }> {
+    const a = await this.target(id);
+    if (!a.documentSha256 || !a.documentType)
+      throw new AppError('not_found', 'This applicant sent no document.');
+    return {
+      body: await this.blobs.get(a.documentSha256),
+      type: a.documentType,
+      name: a.documentName ?? 'document',
+      size: a.documentSize ?? 0,
+    };
+  }
 
   /**
    * Adds work to run after an account is verified (for example offers waiting for it). A

@@ -1,5 +1,19 @@
-import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Inject,
+  Post,
+  Req,
+  Res,
+  UploadedFile,
+  UseGuards,
+  UseInterceptors,
+} from '@nestjs/common';
+import { FileInterceptor } from '@nestjs/platform-express';
+import { ApiAcceptedResponse, ApiConsumes, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { SIGN_UP_UPLOAD, SignUpUploadInterceptor, type UploadedDocument } from './applicant-document';
 import type { Request, Response } from 'express';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -8,9 +22,9 @@ import { AuthService } from './auth.service';
 import { clearSessionCookies, REFRESH_COOKIE, setSessionCookies } from './cookies';
 import { SignInDto } from './dto/sign-in.dto';
 import { SignUpDto } from './dto/sign-up.dto';
-import { ForgotPasswordDto, type MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
+import { ForgotPasswordDto, MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
 import { RateLimitGuard } from './rate-limit.guard';
-import { type SessionResponse, toMeResponse } from './dto/session.response';
+import { SessionResponse, SignedInResponse, toMeResponse } from './dto/session.response';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
 
@@ -26,6 +40,7 @@ export class AuthController {
   @Public()
   @Get('session')
   @ApiOperation({ summary: 'The signed-in account, or null' })
+  @ApiOkResponse({ type: SessionResponse })
   async session(@CurrentAccount() principal?: Principal): Promise<SessionResponse> {
     return { account: principal ? toMeResponse(await this.auth.me(principal.id)) : null };
   }
@@ -34,9 +49,15 @@ export class AuthController {
   @UseGuards(RateLimitGuard)
   @Post('sign-up')
   @HttpCode(202)
-  @ApiOperation({ summary: 'Apply for a dealer or assessor account (always answers "check your e-mail")' })
-  signUp(@Body() dto: SignUpDto): Promise<MessageResponse> {
-    return this.auth.signUp(dto);
+  @UseInterceptors(SignUpUploadInterceptor, FileInterceptor('document', SIGN_UP_UPLOAD))
+  @ApiConsumes('application/json', 'multipart/form-data')
+  @ApiOperation({
+    summary:
+      'Apply for a dealer or assessor account (always answers "check your e-mail"); as a form, with an optional document (PDF, JPEG or PNG, at most 10 MB) for the registrar',
+  })
+  @ApiAcceptedResponse({ type: MessageResponse })
+  signUp(@Body() dto: SignUpDto, @UploadedFile() document?: UploadedDocument): Promise<MessageResponse> {
+    return this.auth.signUp(dto, document);
   }
 
   @Public()
@@ -44,6 +65,7 @@ export class AuthController {
   @Post('verify-email')
   @HttpCode(200)
   @ApiOperation({ summary: 'Confirm an e-mail address with the token from the e-mailed link' })
+  @ApiOkResponse({ type: MessageResponse })
   verifyEmail(@Body() dto: TokenDto): Promise<MessageResponse> {
     return this.auth.verifyEmail(dto.token);
   }
@@ -53,6 +75,7 @@ export class AuthController {
   @Post('forgot-password')
   @HttpCode(202)
   @ApiOperation({ summary: 'E-mail a link to choose a new password (always answers "check your e-mail")' })
+  @ApiAcceptedResponse({ type: MessageResponse })
   forgotPassword(@Body() dto: ForgotPasswordDto): Promise<MessageResponse> {
     return this.auth.forgotPassword(dto.email);
   }
@@ -62,6 +85,7 @@ export class AuthController {
   @Post('reset-password')
   @HttpCode(200)
   @ApiOperation({ summary: 'Set a new password with the token from the e-mailed link (ends every session)' })
+  @ApiOkResponse({ type: MessageResponse })
   resetPassword(@Body() dto: ResetPasswordDto): Promise<MessageResponse> {
     return this.auth.resetPassword(dto.token, dto.password);
   }
@@ -72,7 +96,8 @@ export class AuthController {
   @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
-  async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
+  @ApiOkResponse({ type: SignedInResponse })
+  async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SignedInResponse> {
     const { account, session } = await this.auth.signIn(dto.email, dto.password);
     setSessionCookies(res, this.config, session.access, session.refresh);
     return { account: toMeResponse(account) };
@@ -83,6 +108,7 @@ export class AuthController {
   @NoReplay()
   @HttpCode(200)
   @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
+  @ApiOkResponse({ type: SessionResponse })
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
     const token: unknown = req.cookies?.[REFRESH_COOKIE];
     // No refresh cookie at all: nobody is signed in, which is an answer, not an error.

@@ -8,6 +8,8 @@ import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { MailService } from '../mail/mail.service';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
+import { storeApplicantDocument, type UploadedDocument } from './applicant-document';
 import type { SignUpDto } from './dto/sign-up.dto';
 import type { MessageResponse } from './dto/tokens.dto';
 import { EmailTokensService } from './email-tokens.service';
@@ -32,6 +34,7 @@ export class AuthService {
     private readonly sessions: SessionsService,
     private readonly tokens: EmailTokensService,
     private readonly mail: MailService,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
 
   private link(path: string, token?: string): string {
@@ -42,7 +45,7 @@ export class AuthService {
    * Applies for a dealer or assessor account. The answer is the same whether or not the address
    * is known: a known address gets a notice instead of a second account.
    */
-  async signUp(dto: SignUpDto): Promise<MessageResponse> {
+  async signUp(dto: SignUpDto, document?: UploadedDocument): Promise<MessageResponse> {
     const existing = await this.findByEmail(dto.email);
     if (existing) {
       await this.mail.send(
@@ -53,6 +56,9 @@ export class AuthService {
     }
     const handleTaken = () => AppError.validation([{ field: 'handle', reason: 'is already taken' }]);
     if (await this.accounts.exists({ where: { handle: dto.handle } })) throw handleTaken();
+    // Checked and stored before the account: a refused file loses nothing else, and a stored one
+    // is only named by the account (the bytes are content-addressed, so a retry stores nothing new).
+    const doc = document ? await storeApplicantDocument(this.blobs, document) : null;
     let account: Account;
     try {
       account = await this.accounts.save(
@@ -68,6 +74,10 @@ export class AuthService {
           address: dto.address,
           website: dto.website ?? null,
           tradeReferences: dto.tradeReferences,
+          documentSha256: doc?.sha256 ?? null,
+          documentType: doc?.type ?? null,
+          documentSize: doc?.size ?? null,
+          documentName: doc?.name ?? null,
           passwordHash: await this.passwords.hash(dto.password),
           emailVerifiedAt: null,
           verifiedAt: null,

@@ -14,6 +14,8 @@ import { OpinionRequests1796490400000 } from '../migrations/1796490400000-Opinio
 import { ApplicantDetails1796490500000 } from '../migrations/1796490500000-ApplicantDetails';
 import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddSaleVoidedKind';
 import { InheritedAttributionInSearch1796490800000 } from '../migrations/1796490800000-InheritedAttributionInSearch';
+import { OpinionRequestsOnTheRoll1796490900000 } from '../migrations/1796490900000-OpinionRequestsOnTheRoll';
+import { ApplicantDocument1796491000000 } from '../migrations/1796491000000-ApplicantDocument';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -32,4 +34,6 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   ApplicantDetails1796490500000,
   AddSaleVoidedKind1796490600000,
   InheritedAttributionInSearch1796490800000,
+  OpinionRequestsOnTheRoll1796490900000,
+  ApplicantDocument1796491000000,
 ];

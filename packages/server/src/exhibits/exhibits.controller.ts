@@ -1,10 +1,17 @@
 import { Body, Controller, Get, Param, Post, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBody,
+  ApiConsumes,
+  ApiOperation,
+  ApiTags,
+  ApiOkResponse,
+  ApiCreatedResponse,
+} from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
 import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
-import type { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
+import { AddExhibitResponse, ExhibitListResponse } from './dto/exhibit-response.dto';
 import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
@@ -23,6 +30,7 @@ export class ExhibitsController {
   @ApiConsumes('multipart/form-data')
   @ApiBody({ type: AddExhibitBodyDoc })
   @UseInterceptors(UploadGuardInterceptor, FileInterceptor('file'), IdempotencyInterceptor)
+  @ApiCreatedResponse({ type: AddExhibitResponse })
   add(
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
@@ -34,6 +42,7 @@ export class ExhibitsController {
 
   @Get()
   @ApiOperation({ summary: 'The exhibits of a lot the viewer may read (own sealed ones included)' })
+  @ApiOkResponse({ type: ExhibitListResponse })
   list(@CurrentAccount() account: Principal, @Param('code') code: string): Promise<ExhibitListResponse> {
     return this.exhibits.list(account, code);
   }

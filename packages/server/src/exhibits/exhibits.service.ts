@@ -1,6 +1,6 @@
 import { stat } from 'node:fs/promises';
 import type { Readable } from 'node:stream';
-import type { ExhibitDerivative, ExhibitFile, ExhibitRef } from '@beadroll/core';
+import { requestFor, type ExhibitDerivative, type ExhibitFile, type ExhibitRef } from '@beadroll/core';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import pLimit from 'p-limit';
@@ -134,16 +134,22 @@ export class ExhibitsService {
             'shared',
           );
           await this.blocked.assertAllowed(digests, m);
+          // An assessor asked about an unlisted lot (the read grant let them this far) names the
+          // open request on the roll; core's rules admit their evidence by it.
+          const state = tx.state(code);
+          const request =
+            actor.role === 'assessor' && !state.listed ? requestFor(state, actor.id) : undefined;
+          const asked = request === undefined ? {} : { request };
           const entry = await tx.append(
             code,
             sealed
               ? {
                   kind: 'exhibit-added',
                   actor: actor.id,
-                  body: { sealedOnly: true },
+                  body: { sealedOnly: true, ...asked },
                   sealed: { 'sealed-exhibit': ref },
                 }
-              : { kind: 'exhibit-added', actor: actor.id, body: { exhibit: ref } },
+              : { kind: 'exhibit-added', actor: actor.id, body: { exhibit: ref, ...asked } },
             { fields: { 'body.exhibit.caption': 'caption', 'body.exhibit.kind': 'kind' } },
           );
           const lot = await tx.lock(code);

@@ -1,8 +1,8 @@
 import { Body, Controller, Get, Post } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse, ApiCreatedResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { RegisterWitnessDto } from './dto/log.dto';
-import { type WitnessResponse, WitnessesService } from './witnesses.service';
+import { WitnessListResponse, WitnessResponse, WitnessesService } from './witnesses.service';
 import { CheckpointsService } from './checkpoints.service';
 
 /** The registrar's list of the log's witnesses. */
@@ -17,12 +17,14 @@ export class WitnessesController {
 
   @Get()
   @ApiOperation({ summary: 'Witnesses of the log and when each last cosigned' })
-  async list(): Promise<{ logKey: string; items: WitnessResponse[] }> {
+  @ApiOkResponse({ type: WitnessListResponse })
+  async list(): Promise<WitnessListResponse> {
     return { logKey: this.checkpoints.verifierKey(), items: await this.witnesses.list() };
   }
 
   @Post()
   @ApiOperation({ summary: 'Register a witness by its cosignature key' })
+  @ApiCreatedResponse({ type: WitnessResponse })
   register(@CurrentAccount() me: Principal, @Body() dto: RegisterWitnessDto): Promise<WitnessResponse> {
     return this.witnesses.register(me.id, dto.key);
   }

@@ -1,3 +1,4 @@
+import { ApiProperty } from '@nestjs/swagger';
 import { Injectable } from '@nestjs/common';
 import {
   NOTE_SIG_COSIGNATURE,
@@ -13,13 +14,19 @@ import { AppError } from '../common/app-error';
 import { CheckpointsService } from './checkpoints.service';
 
 /** A registered witness as the registrar's screen shows it. */
-export interface WitnessResponse {
-  id: string;
-  name: string;
-  key: string;
-  registeredAt: string;
-  lastCosignedAt: string | null;
-  lastCosignedSize: number | null;
+export class WitnessResponse {
+  @ApiProperty() id: string;
+  @ApiProperty() name: string;
+  @ApiProperty() key: string;
+  @ApiProperty() registeredAt: string;
+  @ApiProperty({ type: String, nullable: true }) lastCosignedAt: string | null;
+  @ApiProperty({ type: Number, nullable: true }) lastCosignedSize: number | null;
+}
+
+/** The registered witnesses, with the key of the log they watch. */
+export class WitnessListResponse {
+  @ApiProperty() logKey: string;
+  @ApiProperty({ type: [WitnessResponse] }) items: WitnessResponse[];
 }
 
 interface WitnessRow {

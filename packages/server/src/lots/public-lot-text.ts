@@ -1,5 +1,5 @@
 import { BUNDLE_VERSION } from '@beadroll/core';
-import type { PublicDealerCard } from './dto/public-lot.dto';
+import type { DealerCard } from '../accounts/dto/dealer-card.dto';
 
 /**
  * One statement for the public answer of a listed lot (parameter: its canonical code): no row
@@ -8,7 +8,7 @@ import type { PublicDealerCard } from './dto/public-lot.dto';
  * stored strings go out without being decoded and encoded again; `to_json(text)` escapes exactly
  * the characters JSON.stringify escapes. `checkpoints` is the bundle's checkpoint list as JSON
  * text. `cards` are the verified accounts among the roll's actors and the recipients of its
- * transfer offers, in the order they first appear on it, shaped as {@link PublicDealerCard} with
+ * transfer offers, in the order they first appear on it, shaped as {@link DealerCard} with
  * the same status rule as DealerCardsService.
  * `has_parents` says the first entry names parent lots: those need the bundle walk over ancestors.
  * Framework-free so the public-data benchmark's bare server can run the very same text.
@@ -60,7 +60,7 @@ export interface PublicLotRow {
   /** seq and log index (bigint as text, or null) of the roll's head, for its checkpoint proof. */
   head_seq: number;
   head_log_index: string | null;
-  cards: PublicDealerCard[] | null;
+  cards: DealerCard[] | null;
 }
 
 /**
@@ -68,7 +68,7 @@ export interface PublicLotRow {
  * the members in the order the DTO has them; the entries text is inserted as PostgreSQL wrote it.
  */
 export function publicLotText(code: string, row: PublicLotRow, checkpoints = '[]'): string {
-  const cards: Record<string, PublicDealerCard> = {};
+  const cards: Record<string, DealerCard> = {};
   for (const card of row.cards ?? []) cards[card.id] = card;
   const lot = JSON.stringify(code);
   return (

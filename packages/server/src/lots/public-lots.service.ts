@@ -14,7 +14,7 @@ import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LogService } from '../log/log.service';
-import type { PublicBundle, PublicDealerCard, PublicLotResponse } from './dto/public-lot.dto';
+import type { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
 import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
 
 export { READ_FROM_HEADER } from '../standby/read-from';
@@ -46,20 +46,6 @@ export function toPublicBundle(b: Bundle): PublicBundle {
         proof: [...i.proof],
       })),
     })),
-  };
-}
-
-function toPublicCard(c: DealerCard): PublicDealerCard {
-  return {
-    id: c.id,
-    handle: c.handle,
-    displayName: c.displayName,
-    business: c.business,
-    town: c.town,
-    country: c.country,
-    verifiedSince: c.verifiedSince,
-    status: c.status,
-    role: c.role,
   };
 }
 
@@ -131,8 +117,8 @@ export class PublicLotsService {
           ids.add((JSON.parse(e.body) as TransferOfferedBody).recipient);
       }
     const found = await this.cards.cardsFor([...ids], manager);
-    const cards: Record<string, PublicDealerCard> = {};
-    for (const [id, card] of found) cards[id] = toPublicCard(card);
+    const cards: Record<string, DealerCard> = {};
+    for (const [id, card] of found) cards[id] = card;
     return { code, bundle, cards };
   }
 

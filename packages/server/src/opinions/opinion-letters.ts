@@ -31,4 +31,21 @@ export const opinionLetters = {
       action: { label: 'Open the lot', url },
       why: 'You got this because you hold this lot on Beadroll.',
     }),
+  opinionAsked: (
+    assessorName: string,
+    lot: { code: string; title: string },
+    dealer: string,
+    note: string | null,
+    url: string,
+  ): Letter =>
+    letter({
+      subject: `A dealer asks your opinion on lot ${formatLotCode(lot.code)}`,
+      greeting: `Hello ${assessorName},`,
+      paragraphs: [
+        `${dealer} asks for your opinion on “${lot.title}” (${formatLotCode(lot.code)}).${note ? ` Their note: “${note}”` : ''}`,
+        'The request waits in your queue on your start page. While it is open you can read the lot, even when it has no public page, and record your opinion and its evidence there.',
+      ],
+      action: { label: 'Open your queue', url },
+      why: 'You got this because a dealer named you as the assessor to ask on Beadroll.',
+    }),
 };

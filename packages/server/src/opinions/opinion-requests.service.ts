@@ -1,11 +1,17 @@
-import { Injectable, type OnModuleInit } from '@nestjs/common';
-import { formatLotCode } from '@beadroll/core';
+import { Inject, Injectable, type OnModuleInit } from '@nestjs/common';
+import { formatLotCode, type OpinionBody } from '@beadroll/core';
+import type { PartyName } from '../accounts/dto/dealer-card.dto';
 import { DataSource, type EntityManager } from 'typeorm';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
+import { APP_CONFIG } from '../config/config.module';
+import type { AppConfig } from '../config/app-config';
 import { LedgerService } from '../ledger/ledger.service';
+import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
+import { MailService } from '../mail/mail.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LotsService, type Viewer } from '../lots/lots.service';
+import { opinionLetters } from './opinion-letters';
 import type {
   AssessorListResponse,
   CreateOpinionRequestDto,
@@ -31,31 +37,70 @@ interface RequestRow {
   created_at: Date;
   closed_at: Date | null;
   opinion_seq: number | null;
-}
-
-interface Party {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
+  request_seq: number | null;
 }
 
 /**
- * Requests for an opinion on a lot. An open request lets its assessor (or, when none is named,
- * every verified assessor) read the lot and record an opinion on it, while the requester still
- * holds it; the first opinion recorded by such an assessor answers it, in the same transaction.
+ * Requests for an opinion on a lot. Asking writes `opinion-requested` on the roll in the same
+ * transaction as the request row, cancelling writes `opinion-request-closed`; the roll decides
+ * when a request is open (core's rules), and every append brings the rows in step with it. An
+ * open request lets its assessor (or, when none is named, every verified assessor) read the lot
+ * and record evidence and an opinion on it, listed or not, while the requester still holds it;
+ * the opinion names the request and answers it. Requests made before they went on the roll
+ * (no `request_seq`) keep their old rule: answered by the assessor's next opinion.
  */
 @Injectable()
-export class OpinionRequestsService implements OnModuleInit {
+export class OpinionRequestsService implements OnModuleInit, RollProjector {
   constructor(
     private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
+    private readonly mail: MailService,
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
 
   onModuleInit(): void {
     this.lots.addFullReadGrant({ mayRead: (viewer, lotId) => this.isAsked(viewer, lotId) });
+    // An assessor who answered still reads the lot as it stood at their answer, and no further.
+    this.lots.addReadGrant({ upTo: (viewer, lotId) => this.answeredAt(viewer, lotId) });
+    this.ledger.addProjector(this);
+  }
+
+  /** The seq of this assessor's newest opinion that answered a request on the lot, or null. */
+  async answeredAt(viewer: Viewer, lotId: string): Promise<number | null> {
+    if (viewer.role !== 'assessor') return null;
+    const [row] = (await this.dataSource.query(
+      `SELECT max("opinion_seq") AS "seq" FROM "opinion_requests"
+        WHERE "lot_id" = $1 AND "answered_by" = $2 AND "status" = 'answered'`,
+      [lotId, viewer.id],
+    )) as Array<{ seq: number | null }>;
+    return row?.seq ?? null;
+  }
+
+  /**
+   * Keeps the rows in step with the roll, inside every append: an opinion naming a request
+   * answers it; a request the roll no longer holds open (withdrawn, the lot changed hands, sold,
+   * split, combined or retired) is closed as cancelled.
+   */
+  async project(m: EntityManager, lotId: string, entry: AppendedEntry): Promise<void> {
+    if (entry.kind === 'opinion') {
+      const { request } = JSON.parse(entry.body) as OpinionBody;
+      if (request !== undefined)
+        await m.query(
+          `UPDATE "opinion_requests" SET "status" = 'answered', "closed_at" = now(), "answered_by" = $3,
+                  "opinion_seq" = $4
+            WHERE "lot_id" = $1 AND "request_seq" = $2 AND "status" = 'open'`,
+          [lotId, request, entry.actor, entry.seq],
+        );
+    }
+    const open = (entry.state.openRequests ?? []).map((q) => q.seq);
+    await m.query(
+      `UPDATE "opinion_requests" SET "status" = 'cancelled', "closed_at" = now()
+        WHERE "lot_id" = $1 AND "status" = 'open' AND "request_seq" IS NOT NULL
+          AND NOT ("request_seq" = ANY($2::int[]))`,
+      [lotId, open],
+    );
   }
 
   /** True when an open request of the lot's current holder asks this verified assessor. */
@@ -72,12 +117,16 @@ export class OpinionRequestsService implements OnModuleInit {
     return rows.length > 0;
   }
 
-  /** Closes the open requests this opinion answers (inside the opinion's own transaction). */
+  /**
+   * Closes the open requests made before requests went on the roll that this opinion answers
+   * (inside the opinion's own transaction); requests on the roll close through {@link project}.
+   */
   async answer(m: EntityManager, lotId: string, assessor: string, seq: number): Promise<void> {
     await m.query(
       `UPDATE "opinion_requests" SET "status" = 'answered', "closed_at" = now(), "answered_by" = $2,
               "opinion_seq" = $3
-        WHERE "lot_id" = $1 AND "status" = 'open' AND ("assessor" IS NULL OR "assessor" = $2)`,
+        WHERE "lot_id" = $1 AND "status" = 'open' AND "request_seq" IS NULL
+          AND ("assessor" IS NULL OR "assessor" = $2)`,
       [lotId, assessor, seq],
     );
   }
@@ -106,10 +155,23 @@ export class OpinionRequestsService implements OnModuleInit {
       const lot = (await tx.manager.query('SELECT "id" FROM "lots" WHERE "code" = $1', [code])) as Array<{
         id: string;
       }>;
+      const open: unknown[] = await tx.manager.query(
+        `SELECT 1 FROM "opinion_requests" WHERE "lot_id" = $1 AND "status" = 'open'
+            AND coalesce("assessor", '') = $2`,
+        [lot[0]!.id, dto.assessor ?? ''],
+      );
+      // The request goes on the roll with the row, in this one transaction.
+      const entry = open.length
+        ? null
+        : await tx.append(
+            code,
+            { kind: 'opinion-requested', actor: me.id, body: { assessor: dto.assessor ?? null } },
+            { fields: { 'body.assessor': 'assessor' } },
+          );
       const rows = (await tx.manager.query(
-        `INSERT INTO "opinion_requests" ("lot_id", "code", "requester", "assessor", "note", "status")
-         VALUES ($1, $2, $3, $4, $5, 'open') ON CONFLICT DO NOTHING RETURNING "id"`,
-        [lot[0]!.id, code, me.id, dto.assessor ?? null, dto.note ?? null],
+        `INSERT INTO "opinion_requests" ("lot_id", "code", "requester", "assessor", "note", "status", "request_seq")
+         VALUES ($1, $2, $3, $4, $5, 'open', $6) ON CONFLICT DO NOTHING RETURNING "id"`,
+        [lot[0]!.id, code, me.id, dto.assessor ?? null, dto.note ?? null, entry?.seq ?? null],
       )) as Array<{ id: string }>;
       if (!rows.length)
         throw new AppError(
@@ -120,7 +182,31 @@ export class OpinionRequestsService implements OnModuleInit {
         );
       return rows[0]!.id;
     });
-    return (await this.rows('r."id" = $1', [id]))[0]!;
+    const made = (await this.rows('r."id" = $1', [id]))[0]!;
+    if (made.assessor) await this.tellAssessor(made);
+    return made;
+  }
+
+  /**
+   * Tells the named assessor by e-mail, with a link to their queue. A request open to any
+   * assessor mails nobody: there is no opt-in for such mail, and it waits in every queue.
+   */
+  private async tellAssessor(r: OpinionRequestResponse): Promise<void> {
+    const [to] = (await this.dataSource.query(
+      `SELECT "email", "display_name" FROM "accounts" WHERE "id"::text = $1`,
+      [r.assessor!.id],
+    )) as Array<{ email: string; display_name: string }>;
+    if (!to) return;
+    await this.mail.send(
+      to.email,
+      opinionLetters.opinionAsked(
+        to.display_name,
+        { code: r.lot.code, title: r.lot.title },
+        r.requester.displayName + (r.requester.business ? ` (${r.requester.business})` : ''),
+        r.note,
+        `${this.config.publicBaseUrl}/`,
+      ),
+    );
   }
 
   async list(me: Viewer, q: ListOpinionRequestsQueryDto): Promise<OpinionRequestListResponse> {
@@ -149,16 +235,31 @@ export class OpinionRequestsService implements OnModuleInit {
   }
 
   async cancel(me: Principal, id: string): Promise<OpinionRequestResponse> {
-    const rows = (await this.dataSource.query(
-      `UPDATE "opinion_requests" SET "status" = 'cancelled', "closed_at" = now()
-        WHERE "id"::text = $1 AND "requester" = $2 AND "status" = 'open' RETURNING "id"`,
-      [id, me.id],
-    )) as [Array<{ id: string }>, number];
-    if (!rows[0].length) {
-      const mine = await this.rows('r."id"::text = $1 AND r."requester" = $2', [id, me.id]);
-      if (!mine.length) throw new AppError('not_found', 'Not found.');
-      throw new AppError('conflict', `This request was already ${mine[0]!.status}.`);
-    }
+    const mine = await this.rows('r."id"::text = $1 AND r."requester" = $2', [id, me.id]);
+    if (!mine.length) throw new AppError('not_found', 'Not found.');
+    const code = mine[0]!.lot.code;
+    const closed = await this.ledger.withLots([code], async (tx) => {
+      const [row] = (await tx.manager.query(
+        `SELECT "request_seq" FROM "opinion_requests" WHERE "id"::text = $1 AND "status" = 'open' FOR UPDATE`,
+        [id],
+      )) as Array<{ request_seq: number | null }>;
+      if (!row) return false;
+      const seq = row.request_seq;
+      // Withdrawn on the roll too, while the roll holds it open; the projector closes the row.
+      if (seq !== null && (tx.state(code).openRequests ?? []).some((q) => q.seq === seq))
+        await tx.append(code, { kind: 'opinion-request-closed', actor: me.id, body: { request: seq } });
+      await tx.manager.query(
+        `UPDATE "opinion_requests" SET "status" = 'cancelled', "closed_at" = now()
+          WHERE "id"::text = $1 AND "status" = 'open'`,
+        [id],
+      );
+      return true;
+    });
+    if (!closed)
+      throw new AppError(
+        'conflict',
+        `This request was already ${(await this.rows('r."id"::text = $1', [id]))[0]!.status}.`,
+      );
     return (await this.rows('r."id"::text = $1', [id]))[0]!;
   }
 
@@ -198,7 +299,7 @@ export class OpinionRequestsService implements OnModuleInit {
       return v ? [{ ...r, title: v.title, listed: v.listed }] : [];
     });
     const ids = [...new Set(rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter(Boolean))];
-    const parties = new Map<string, Party>();
+    const parties = new Map<string, PartyName>();
     if (ids.length) {
       const people: Array<{ id: string; handle: string; display_name: string; business: string }> =
         await this.dataSource.query(

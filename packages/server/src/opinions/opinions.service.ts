@@ -1,3 +1,4 @@
+import { partyCard, PartyCard } from '../accounts/dto/dealer-card.dto';
 import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import {
@@ -13,6 +14,7 @@ import {
   type OpinionBody,
   type RollState,
   mayAppend,
+  requestFor,
 } from '@beadroll/core';
 import { Repository } from 'typeorm';
 import { Account } from '../accounts/entities/account.entity';
@@ -31,7 +33,6 @@ import { OpinionRequestsService } from './opinion-requests.service';
 import type { AttributionAidDto } from './dto/aid-request.dto';
 import type { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
 import type {
-  AuthorCard,
   LotOpinionsResponse,
   OpinionRole,
   OpinionView,
@@ -97,18 +98,20 @@ export class OpinionsService {
       const state = tx.state(code);
       const lotId = (await this.reader.findLot(code, tx.manager))!.id;
       const asked = await this.requests.isAsked(me, lotId, tx.manager);
-      // The ledger's rules admit an opinion from anyone but the holder on a listed lot only: an
-      // assessor asked about an unlisted lot reads it, and the holder lists it for the answer.
-      if (asked && !mayAppend(state, 'opinion', me.id).allowed)
+      // An asked assessor's opinion names the open request on the roll that asks them (core's
+      // rules then admit it on an unlisted lot too) and answers it.
+      const request = asked ? requestFor(state, me.id) : undefined;
+      if (request !== undefined) body.request = request;
+      if (asked && request === undefined && !mayAppend(state, 'opinion', me.id).allowed)
         throw new AppError(
           'roll_rule',
-          'This lot is unlisted: an opinion from anyone but its holder goes only on the roll of a listed lot. Ask the holder to list it, then record your opinion.',
+          'This lot is unlisted and its holder asked you before requests went on the roll: ask the holder to list it, or to ask you again, then record your opinion.',
         );
       requireMayAppend(state, 'opinion', me.id);
       await this.checkExhibits(tx, code, body.exhibits);
       await this.checkDailyLimit(tx, code, me.id, now);
       const entry = await tx.append(code, { kind: 'opinion', actor: me.id, body }, { fields: { body: '' } });
-      if (asked) await this.requests.answer(tx.manager, lotId, me.id, entry.seq);
+      if (asked && request === undefined) await this.requests.answer(tx.manager, lotId, me.id, entry.seq);
       return {
         entry,
         dissent: entry.state.dissents.some((d) => d.seq === entry.seq),
@@ -201,18 +204,8 @@ export class OpinionsService {
       ...opinions.map((o) => o.author),
       ...opinions.flatMap((o) => o.replies.map((x) => x.author)),
     ];
-    const cards: Record<string, AuthorCard> = {};
-    for (const [id, c] of await this.cards.cardsFor(ids)) {
-      cards[id] = {
-        id: c.id,
-        handle: c.handle,
-        displayName: c.displayName,
-        business: c.business,
-        town: c.town,
-        country: c.country,
-        status: c.status,
-      };
-    }
+    const cards: Record<string, PartyCard> = {};
+    for (const [id, c] of await this.cards.cardsFor(ids)) cards[id] = partyCard(c);
     return {
       lot: code,
       holder: state.holder,

@@ -1,10 +1,11 @@
 import { Body, Controller, Get, HttpCode, Inject, Post, Res } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { clearSessionCookies } from '../auth/cookies';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { MessageResponse } from '../auth/dto/tokens.dto';
 import { CloseAccountDto } from './dto/registry-tools.dto';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { type PersonalDataExport, PersonalDataService } from './personal-data.service';
@@ -35,11 +36,12 @@ export class PersonalDataController {
   @ApiOperation({
     summary: 'Close the account: anonymised, sealed details deleted, entries kept under its id',
   })
+  @ApiOkResponse({ type: MessageResponse })
   async close(
     @CurrentAccount() me: Principal,
     @Body() dto: CloseAccountDto,
     @Res({ passthrough: true }) res: Response,
-  ): Promise<{ message: string }> {
+  ): Promise<MessageResponse> {
     const out = await this.data.close(me.id, dto.password);
     clearSessionCookies(res, this.config);
     return out;

@@ -30,6 +30,8 @@ export interface PersonalDataExport {
     address: string;
     website: string | null;
     tradeReferences: string;
+    /** The document sent with the application (its bytes are downloaded by the registrar only). */
+    document: { sha256: string; mediaType: string; size: number; name: string } | null;
     emailConfirmedAt: string | null;
     verifiedSince: string | null;
     statusReason: string | null;
@@ -124,6 +126,15 @@ export class PersonalDataService {
         address: a.address,
         website: a.website,
         tradeReferences: a.tradeReferences,
+        document:
+          a.documentSha256 && a.documentType
+            ? {
+                sha256: a.documentSha256,
+                mediaType: a.documentType,
+                size: a.documentSize ?? 0,
+                name: a.documentName ?? 'document',
+              }
+            : null,
         emailConfirmedAt: a.emailVerifiedAt?.toISOString() ?? null,
         verifiedSince: a.verifiedAt?.toISOString() ?? null,
         statusReason: a.statusReason,
@@ -181,6 +192,10 @@ export class PersonalDataService {
           address: '',
           website: null,
           tradeReferences: '',
+          documentSha256: null,
+          documentType: null,
+          documentSize: null,
+          documentName: null,
           passwordHash: null,
           statusReason: null,
         },

@@ -1,5 +1,6 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse, ApiCreatedResponse } from '@nestjs/swagger';
+import { RedactionRequestResponse, RedactionResponse } from './dto/registry-responses.dto';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import {
   DecisionNoteDto,
@@ -8,11 +9,7 @@ import {
   RedactionRequestDto,
   RequestQueryDto,
 } from './dto/registry-tools.dto';
-import {
-  type RedactionRequestResponse,
-  type RedactionResponse,
-  RedactionsService,
-} from './redactions.service';
+import { RedactionsService } from './redactions.service';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -25,12 +22,14 @@ export class RedactionsController {
   @ApiOperation({
     summary: 'Remove the body of an entry (a redacted entry goes on the roll; the digest stays)',
   })
+  @ApiOkResponse({ type: RedactionResponse })
   redact(@CurrentAccount() me: Principal, @Body() dto: RedactDto): Promise<RedactionResponse> {
     return this.redactions.redact(me.id, dto.lot, dto.seq, dto.reason, dto.note ?? null);
   }
 
   @Get('redaction-requests')
   @ApiOperation({ summary: 'Holders’ requests to remove their own entries' })
+  @ApiOkResponse({ type: [RedactionRequestResponse] })
   requests(@Query() q: RequestQueryDto): Promise<RedactionRequestResponse[]> {
     return this.redactions.listRequests(q.status);
   }
@@ -38,6 +37,7 @@ export class RedactionsController {
   @Post('redaction-requests/:id/approve')
   @HttpCode(200)
   @ApiOperation({ summary: 'Grant a holder’s request: the entry is redacted at the holder’s request' })
+  @ApiOkResponse({ type: RedactionResponse })
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -49,6 +49,7 @@ export class RedactionsController {
   @Post('redaction-requests/:id/decline')
   @HttpCode(200)
   @ApiOperation({ summary: 'Decline a holder’s request, saying why' })
+  @ApiOkResponse({ type: RedactionRequestResponse })
   decline(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -66,6 +67,7 @@ export class RedactionRequestsController {
   @Post(':code/redaction-requests')
   @Roles('dealer')
   @ApiOperation({ summary: 'The holder asks the registrar to remove one of their own entries' })
+  @ApiCreatedResponse({ type: RedactionRequestResponse })
   request(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,

@@ -1,3 +1,4 @@
+import type { RedactionRequestResponse, RedactionResponse } from './dto/registry-responses.dto';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { ExhibitAddedBody, ExhibitRef, RedactionReason } from '@beadroll/core';
@@ -11,33 +12,6 @@ import { BlockedDigestsService } from './blocked-digests.service';
 import { RedactionRequest, type RedactionRequestStatus } from './entities/redaction-request.entity';
 import { RegistrarRecordService } from './registrar-record.service';
 import { LotViewsService } from '../lots/lot-views.service';
-
-/** What a redaction did. */
-export interface RedactionResponse {
-  lot: string;
-  /** The entry whose body was removed. */
-  seq: number;
-  /** The `redacted` entry now on the roll. */
-  redactionSeq: number;
-  reason: RedactionReason;
-  time: string;
-  /** SHA-256 of the files removed with an exhibit (now on the blocked list). */
-  blockedDigests: string[];
-}
-
-export interface RedactionRequestResponse {
-  id: string;
-  lot: string;
-  seq: number;
-  kind: string;
-  requester: string;
-  note: string;
-  status: RedactionRequestStatus;
-  decidedBy: string | null;
-  decidedAt: string | null;
-  decisionNote: string | null;
-  createdAt: string;
-}
 
 function toRequestResponse(r: RedactionRequest, kind: string): RedactionRequestResponse {
   return {

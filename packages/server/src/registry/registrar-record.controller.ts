@@ -1,9 +1,10 @@
 import { Controller, Get, Query, Res } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiProduces, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { Roles } from '../auth/auth.decorators';
 import { ActionsQueryDto, ExportQueryDto } from './dto/registry-tools.dto';
-import { type RegistrarActionResponse, RegistrarRecordService } from './registrar-record.service';
+import { RegistrarActionPage } from './dto/registry-responses.dto';
+import { RegistrarRecordService } from './registrar-record.service';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -13,9 +14,8 @@ export class RegistrarRecordController {
 
   @Get()
   @ApiOperation({ summary: 'The registrar’s record of decisions, newest first' })
-  list(
-    @Query() q: ActionsQueryDto,
-  ): Promise<{ items: RegistrarActionResponse[]; total: number; page: number; pageSize: number }> {
+  @ApiOkResponse({ type: RegistrarActionPage })
+  list(@Query() q: ActionsQueryDto): Promise<RegistrarActionPage> {
     return this.record.list(q);
   }
 

@@ -1,3 +1,4 @@
+import type { RegistrarActionResponse } from './dto/registry-responses.dto';
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { EntityManager, Repository } from 'typeorm';
@@ -11,17 +12,6 @@ export interface RecordedAction {
   subject: string;
   reason: string | null;
   details?: Record<string, unknown>;
-}
-
-/** An action as the registrar's record shows and exports it. */
-export interface RegistrarActionResponse {
-  id: string;
-  at: string;
-  actor: string;
-  action: RegistrarActionKind;
-  subject: string;
-  reason: string | null;
-  details: Record<string, unknown>;
 }
 
 export function toRegistrarActionResponse(a: RegistrarAction): RegistrarActionResponse {

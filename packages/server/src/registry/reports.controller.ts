@@ -9,11 +9,12 @@ import {
   Query,
   UseGuards,
 } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse, ApiAcceptedResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal, Public, Roles } from '../auth/auth.decorators';
 import { RateLimitGuard } from '../auth/rate-limit.guard';
 import { CloseReportDto, ReportDto, ReportQueryDto } from './dto/registry-tools.dto';
-import { type ReportResponse, ReportsService } from './reports.service';
+import { FiledReportResponse, ReportPage, ReportResponse } from './dto/registry-responses.dto';
+import { ReportsService } from './reports.service';
 
 @ApiTags('public')
 @Controller('public/lots')
@@ -25,7 +26,8 @@ export class PublicReportsController {
   @Post(':code/reports')
   @HttpCode(202)
   @ApiOperation({ summary: 'Report a problem with a listed lot’s public page' })
-  file(@Param('code') code: string, @Body() dto: ReportDto): Promise<{ id: string; message: string }> {
+  @ApiAcceptedResponse({ type: FiledReportResponse })
+  file(@Param('code') code: string, @Body() dto: ReportDto): Promise<FiledReportResponse> {
     return this.reports.file(code, dto);
   }
 }
@@ -38,9 +40,8 @@ export class ReportsController {
 
   @Get()
   @ApiOperation({ summary: 'Reports from public pages, by status' })
-  list(
-    @Query() q: ReportQueryDto,
-  ): Promise<{ items: ReportResponse[]; total: number; page: number; pageSize: number }> {
+  @ApiOkResponse({ type: ReportPage })
+  list(@Query() q: ReportQueryDto): Promise<ReportPage> {
     return this.reports.list(q);
   }
 
@@ -49,6 +50,7 @@ export class ReportsController {
   @ApiOperation({
     summary: 'Close a report with an answer (e-mailed to the reporter if they left an address)',
   })
+  @ApiOkResponse({ type: ReportResponse })
   close(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

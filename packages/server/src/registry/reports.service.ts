@@ -1,3 +1,4 @@
+import type { ReportResponse } from './dto/registry-responses.dto';
 import { Inject, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { Repository } from 'typeorm';
@@ -11,22 +12,6 @@ import { RegistrarRecordService } from './registrar-record.service';
 import { registryLetters } from './registry-letters';
 import { LotViewsService } from '../lots/lot-views.service';
 import { AccountContactsService } from '../accounts/account-contacts.service';
-
-/** A report as the registrar's queue shows it. */
-export interface ReportResponse {
-  id: string;
-  lot: string;
-  category: ReportCategory;
-  text: string;
-  /** Whether the reporter left an address for the answer (the address itself stays with the report). */
-  answerWanted: boolean;
-  reporterEmail: string | null;
-  status: ReportStatus;
-  resolution: string | null;
-  closedBy: string | null;
-  closedAt: string | null;
-  createdAt: string;
-}
 
 export function toReportResponse(r: Report): ReportResponse {
   return {

@@ -1,10 +1,10 @@
 import { Body, Controller, Get, Header, HttpCode, Param, Post, Res, StreamableFile } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiProduces, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import { ListLotsDto, PrintTagsDto } from './dto/print-tags.dto';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
-import { TagsService, type TagLayoutsResponse, type TagLotResponse } from './tags.service';
+import { TagListResponse, TagsService, type TagLayoutsResponse, TagLotResponse } from './tags.service';
 
 @ApiTags('tags')
 @Controller('tags')
@@ -23,6 +23,7 @@ export class TagsController {
   @Get('lots/:code')
   @Roles('dealer')
   @ApiOperation({ summary: 'A scanned lot: held by the signed-in dealer or not, and its head' })
+  @ApiOkResponse({ type: TagLotResponse })
   lot(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<TagLotResponse> {
     return this.tags.lot(me, code);
   }
@@ -51,7 +52,8 @@ export class TagsController {
   @Roles('dealer')
   @RollWriter()
   @ApiOperation({ summary: 'List unlisted lots before printing their tags (writes described entries)' })
-  list(@CurrentAccount() me: Principal, @Body() dto: ListLotsDto): Promise<{ listed: string[] }> {
+  @ApiOkResponse({ type: TagListResponse })
+  list(@CurrentAccount() me: Principal, @Body() dto: ListLotsDto): Promise<TagListResponse> {
     return this.tags.list(me, dto.lots);
   }
 }

@@ -1,3 +1,4 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Inject, Injectable } from '@nestjs/common';
 import { formatLotCode, parseLotCode, tagReference } from '@beadroll/core';
 import { DataSource } from 'typeorm';
@@ -14,15 +15,20 @@ import { LotViewsService } from '../lots/lot-views.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 
 /** A lot as the tag maker sees it: what goes on the tag, read from the roll's head. */
-export interface TagLotResponse {
-  code: string;
+export class TagLotResponse {
+  @ApiProperty() code: string;
   /** True when the signed-in dealer holds the lot; every other field is then present. */
-  held: boolean;
-  title?: string;
-  listed?: boolean;
-  status?: string;
-  seq?: number;
-  ref?: string;
+  @ApiProperty() held: boolean;
+  @ApiPropertyOptional() title?: string;
+  @ApiPropertyOptional() listed?: boolean;
+  @ApiPropertyOptional() status?: string;
+  @ApiPropertyOptional() seq?: number;
+  @ApiPropertyOptional() ref?: string;
+}
+
+/** The codes of the lots the dealer may tag, of those asked for. */
+export class TagListResponse {
+  @ApiProperty({ type: [String] }) listed: string[];
 }
 
 export interface TagLayoutsResponse {

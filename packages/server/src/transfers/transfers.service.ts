@@ -3,6 +3,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { formatLotCode, type Money } from '@beadroll/core';
 import { DataSource, In, Repository } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
+import { partyCard, type PartyCard } from '../accounts/dto/dealer-card.dto';
 import { Account } from '../accounts/entities/account.entity';
 import { RegistryService } from '../accounts/registry.service';
 import type { Principal } from '../auth/auth.decorators';
@@ -21,7 +22,6 @@ import type {
   InvitationResponse,
   OfferListResponse,
   OfferResponse,
-  PartyResponse,
 } from './dto/transfer-responses.dto';
 import { TransferInvitationEntity } from './entities/transfer-invitation.entity';
 import { TransferOfferEntity, type OfferStatus } from './entities/transfer-offer.entity';
@@ -49,10 +49,8 @@ const ANSWER_KIND = {
 } as const;
 const ANSWER_OUTCOME = { accept: 'accepted', decline: 'declined', withdraw: 'withdrawn' } as const;
 
-function party(card: DealerCard | undefined): PartyResponse | null {
-  if (!card) return null;
-  const { id, handle, displayName, business, town, country, status } = card;
-  return { id, handle, displayName, business, town, country, status };
+function party(card: DealerCard | undefined): PartyCard | null {
+  return card ? partyCard(card) : null;
 }
 
 /**
@@ -97,7 +95,7 @@ export class TransfersService implements OnModuleInit {
   }
 
   /** Verified dealers other than the viewer whose name, handle or business contains `q`. */
-  async searchDealers(me: Viewer, q: string): Promise<PartyResponse[]> {
+  async searchDealers(me: Viewer, q: string): Promise<PartyCard[]> {
     const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     const rows = await this.accounts
       .createQueryBuilder('a')
@@ -107,7 +105,7 @@ export class TransfersService implements OnModuleInit {
       .limit(10)
       .getMany();
     const cards = await this.cards.cardsFor(rows.map((r) => r.id));
-    return rows.map((r) => party(cards.get(r.id))).filter((p): p is PartyResponse => p !== null);
+    return rows.map((r) => party(cards.get(r.id))).filter((p): p is PartyCard => p !== null);
   }
 
   /** Offers a lot to a verified dealer, or records an invitation for an address without one. */

@@ -34,6 +34,7 @@ export const AUTHZ_TABLE: Record<string, Access> = {
   'GET /api/account': 'signed-in',
   'POST /api/account/password': 'signed-in',
   'GET /api/registry/accounts': { roles: ['registrar'] },
+  'GET /api/registry/accounts/:id/document': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/approve': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/reject': { roles: ['registrar'] },
   'POST /api/registry/accounts/:id/suspend': { roles: ['registrar'] },

@@ -1,18 +1,6 @@
-import { render, screen } from '@testing-library/react';
-import { QueryClient } from '@tanstack/react-query';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { Providers, routes } from './App';
-
-function renderAt(path: string) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const router = createMemoryRouter(routes, { initialEntries: [path] });
-  return render(
-    <Providers client={client}>
-      <RouterProvider router={router} />
-    </Providers>,
-  );
-}
+import { renderAt } from '../shared/testing/render';
 
 describe('app shell', () => {
   it('shows the product name and says what Beadroll is for', () => {

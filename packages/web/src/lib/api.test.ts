@@ -1,8 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { api, ApiError, CSRF_HEADER, IDEMPOTENCY_HEADER, RETRY_DELAYS_MS, sendPendingWrites } from './api';
+import { actionKey, answer, client } from '../api/client';
 import { pendingWrites } from './pending-writes';
-
-afterEach(() => vi.unstubAllGlobals());
 
 function stubFetch(status: number, body: unknown) {
   const fetchMock = vi.fn(
@@ -123,5 +122,59 @@ describe('writes with idempotency keys', () => {
     ).rejects.toBeDefined();
     await expect(api('/api/account/password', { body: { password: 'secret words' } })).rejects.toBeDefined();
     expect(localStorage.getItem('beadroll.pending-writes')).toBeNull();
+  });
+});
+
+describe('the typed client', () => {
+  beforeEach(() => localStorage.clear());
+
+  it('goes through the same transport: request header and idempotency key on writes, none on reads', async () => {
+    const fetchMock = stubFetch(200, { listed: ['7K2QM9XAT'] });
+    await client.GET('/api/tags/lots/{code}', { params: { path: { code: '7K2QM9XAT' } } });
+    const out = await answer(client.POST('/api/tags/list', { body: { lots: ['7K2QM9XAT'] } }));
+    expect(out).toEqual({ listed: ['7K2QM9XAT'] });
+    const [readPath, read] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
+    const [writePath, write] = fetchMock.mock.calls[1] as unknown as [string, RequestInit];
+    expect(readPath).toBe('/api/tags/lots/7K2QM9XAT');
+    expect((read.headers as Record<string, string>)[CSRF_HEADER]).toBeUndefined();
+    expect(writePath).toBe('/api/tags/list');
+    expect((write.headers as Record<string, string>)[CSRF_HEADER]).toBe('1');
+    expect((write.headers as Record<string, string>)[IDEMPOTENCY_HEADER]).toMatch(/^[0-9a-f-]{36}$/);
+    expect(JSON.parse(write.body as string)).toEqual({ lots: ['7K2QM9XAT'] });
+  });
+
+  it('throws the server refusal as an ApiError with its field messages', async () => {
+    stubFetch(400, {
+      error: {
+        code: 'validation',
+        message: 'Some fields need attention',
+        fields: [{ field: 'lots', reason: 'must name at least one lot' }],
+      },
+    });
+    const err = await answer(client.POST('/api/tags/list', { body: { lots: [] } })).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ApiError);
+    expect((err as ApiError).fieldMessage('lots')).toBe('must name at least one lot');
+  });
+
+  it('keeps the key a caller gives for every retry of one write', async () => {
+    const saved = [...RETRY_DELAYS_MS];
+    RETRY_DELAYS_MS.splice(0, RETRY_DELAYS_MS.length, 0, 0, 0);
+    try {
+      const answers = [
+        async () => new Response('{}', { status: 503 }),
+        async () =>
+          new Response('{"listed":[]}', { status: 200, headers: { 'Content-Type': 'application/json' } }),
+      ];
+      const fetchMock = vi.fn(() => answers.shift()!());
+      vi.stubGlobal('fetch', fetchMock);
+      await answer(client.POST('/api/tags/list', { body: { lots: ['A'] }, headers: actionKey('key-1') }));
+      const keys = fetchMock.mock.calls.map(
+        (c) =>
+          ((c as unknown as [string, RequestInit])[1].headers as Record<string, string>)[IDEMPOTENCY_HEADER],
+      );
+      expect(keys).toEqual(['key-1', 'key-1']);
+    } finally {
+      RETRY_DELAYS_MS.splice(0, RETRY_DELAYS_MS.length, ...saved);
+    }
   });
 });

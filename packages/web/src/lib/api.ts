@@ -125,18 +125,20 @@ function refreshSession(): Promise<boolean> {
 }
 
 /**
- * The one typed API client: JSON in and out, cookies included, errors as ApiError. A lapsed
- * access cookie is renewed once through the refresh route and the request repeated.
+ * The transport under every API call: JSON in and out, cookies included, errors as ApiError. A
+ * lapsed access cookie is renewed once through the refresh route and the request repeated. A
+ * write carries one idempotency key for all its attempts, is repeated after no answer or a 5xx,
+ * and is kept across a reload until it is answered. Resolves with the answered (2xx) response.
  */
-export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+export async function deliver(path: string, opts: RequestOptions = {}): Promise<Response> {
   const method = opts.method ?? (opts.body ? 'POST' : 'GET');
-  if (method === 'GET') return once<T>(path, opts);
+  if (method === 'GET') return once(path, opts);
   // One user action: one key for every attempt, kept across a reload until it is answered.
   const key = opts.idempotencyKey ?? newIdempotencyKey();
   const keep = mayKeep(path) && !(opts.body instanceof FormData);
   if (keep) keepPending({ key, path, method, body: opts.body, at: Date.now() });
   try {
-    const out = await withRetries(() => once<T>(path, { ...opts, method, idempotencyKey: key }), opts.signal);
+    const out = await withRetries(() => once(path, { ...opts, method, idempotencyKey: key }), opts.signal);
     if (keep) forgetPending(key);
     return out;
   } catch (err) {
@@ -144,6 +146,43 @@ export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T
     if (keep && !isRetryable(err)) forgetPending(key);
     throw err;
   }
+}
+
+/** A call through {@link deliver} whose answer is read as JSON (or text, or nothing for a 204). */
+export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+  return readAnswer<T>(await deliver(path, opts));
+}
+
+/** An answered response's body: JSON, or text, or nothing for a 204. */
+async function readAnswer<T>(res: Response): Promise<T> {
+  if (res.status === 204) return undefined as T;
+  const type = res.headers.get('content-type') ?? '';
+  return (type.includes('application/json') ? await res.json() : await res.text()) as T;
+}
+
+/**
+ * {@link deliver} for a request built by the typed client (`src/api/client.ts`): the same
+ * headers, retries, kept writes and errors. An idempotency key the caller put in the request's
+ * headers is used for all attempts.
+ */
+export async function transport(request: Request): Promise<Response> {
+  const url = new URL(request.url);
+  const method = request.method as NonNullable<RequestOptions['method']>;
+  let body: Json | FormData | undefined;
+  if (method !== 'GET') {
+    const type = request.headers.get('content-type') ?? '';
+    if (type.includes('multipart/form-data')) body = await request.formData();
+    else {
+      const text = await request.text();
+      body = text ? (JSON.parse(text) as Json) : undefined;
+    }
+  }
+  return deliver(url.pathname + url.search, {
+    method,
+    body,
+    signal: request.signal,
+    idempotencyKey: request.headers.get(IDEMPOTENCY_HEADER) ?? undefined,
+  });
 }
 
 /**
@@ -165,22 +204,27 @@ export async function sendPendingWrites(): Promise<void> {
   }
 }
 
+/** One attempt with the caller's idempotency key, renewing a lapsed session once (for queued writes). */
+export async function sendOnce<T>(path: string, opts: RequestOptions): Promise<T> {
+  return readAnswer<T>(await once(path, opts));
+}
+
 /** One attempt, renewing a lapsed session once. */
-async function once<T>(path: string, opts: RequestOptions): Promise<T> {
+async function once(path: string, opts: RequestOptions): Promise<Response> {
   try {
-    return await request<T>(path, opts);
+    return await request(path, opts);
   } catch (err) {
     const renewable =
       err instanceof ApiError &&
       err.status === 401 &&
       err.code === 'unauthenticated' &&
       !path.startsWith('/api/auth/');
-    if (renewable && (await refreshSession())) return request<T>(path, opts);
+    if (renewable && (await refreshSession())) return request(path, opts);
     throw err;
   }
 }
 
-async function request<T>(path: string, opts: RequestOptions): Promise<T> {
+async function request(path: string, opts: RequestOptions): Promise<Response> {
   const method = opts.method ?? (opts.body ? 'POST' : 'GET');
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (method !== 'GET') headers[CSRF_HEADER] = '1';
@@ -199,7 +243,5 @@ async function request<T>(path: string, opts: RequestOptions): Promise<T> {
     throw new ApiError(0, 'network', 'Beadroll could not be reached. Check the connection and try again.');
   }
   if (!res.ok) throw await toApiError(res);
-  if (res.status === 204) return undefined as T;
-  const type = res.headers.get('content-type') ?? '';
-  return (type.includes('application/json') ? await res.json() : await res.text()) as T;
+  return res;
 }

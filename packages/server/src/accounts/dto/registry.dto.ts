@@ -28,29 +28,41 @@ export class ReasonDto {
   reason: string;
 }
 
-export interface ApplicantResponse {
-  id: string;
-  role: Account['role'];
-  status: Account['status'];
-  handle: string;
-  displayName: string;
-  email: string;
-  business: string;
-  town: string;
-  country: string;
-  address: string;
-  website: string | null;
-  tradeReferences: string;
-  appliedAt: string;
-  verifiedSince: string | null;
-  statusReason: string | null;
+/** The document an applicant sent with the application. */
+export class ApplicantDocumentResponse {
+  @ApiProperty({ description: 'SHA-256 of the file, hex' }) sha256: string;
+  @ApiProperty({ enum: ['application/pdf', 'image/jpeg', 'image/png'] }) mediaType: string;
+  @ApiProperty({ description: 'bytes' }) size: number;
+  @ApiProperty() name: string;
 }
 
-export interface RegistryPage {
-  items: ApplicantResponse[];
-  total: number;
-  page: number;
-  pageSize: number;
+export class ApplicantResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: Account['role'];
+  @ApiProperty({ enum: ['pending', 'verified', 'rejected', 'suspended', 'closed'] })
+  status: Account['status'];
+  @ApiProperty() handle: string;
+  @ApiProperty() displayName: string;
+  @ApiProperty() email: string;
+  @ApiProperty() business: string;
+  @ApiProperty() town: string;
+  @ApiProperty() country: string;
+  @ApiProperty() address: string;
+  @ApiProperty({ type: String, nullable: true }) website: string | null;
+  @ApiProperty() tradeReferences: string;
+  /** The applicant's optional document (download it from `…/document`), or null. */
+  @ApiProperty({ type: () => ApplicantDocumentResponse, nullable: true })
+  document: ApplicantDocumentResponse | null;
+  @ApiProperty() appliedAt: string;
+  @ApiProperty({ type: String, nullable: true }) verifiedSince: string | null;
+  @ApiProperty({ type: String, nullable: true }) statusReason: string | null;
+}
+
+export class RegistryPage {
+  @ApiProperty({ type: [ApplicantResponse] }) items: ApplicantResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
 }
 
 export function toApplicantResponse(a: Account): ApplicantResponse {
@@ -67,6 +79,15 @@ export function toApplicantResponse(a: Account): ApplicantResponse {
     address: a.address,
     website: a.website,
     tradeReferences: a.tradeReferences,
+    document:
+      a.documentSha256 && a.documentType
+        ? {
+            sha256: a.documentSha256,
+            mediaType: a.documentType,
+            size: a.documentSize ?? 0,
+            name: a.documentName ?? 'document',
+          }
+        : null,
     appliedAt: a.createdAt.toISOString(),
     verifiedSince: a.verifiedAt?.toISOString() ?? null,
     statusReason: a.statusReason,

@@ -45,6 +45,20 @@ export class Account {
   @Col.Text({ default: '' })
   tradeReferences: string;
 
+  /** The applicant's optional document, in blob storage under this SHA-256 (for the registrar). */
+  @Col.Sha256({ nullable: true })
+  documentSha256: string | null;
+
+  @Col.Varchar(40, { nullable: true })
+  documentType: string | null;
+
+  @Col.Integer({ nullable: true })
+  documentSize: number | null;
+
+  /** The file name as the applicant sent it (shown, never used as a path). */
+  @Col.Varchar(200, { nullable: true })
+  documentName: string | null;
+
   /** `scrypt$N$r$p$salt$key`; null until a password is set (a new registrar). */
   @Col.Varchar(255, { nullable: true })
   passwordHash: string | null;

@@ -1,25 +1,26 @@
+import { ApiProperty } from '@nestjs/swagger';
 import type { Account } from '../../accounts/entities/account.entity';
 import type { AccountStatus, Role } from '../auth.decorators';
 
 /** The signed-in account as the web app sees it (its own details, e-mail included). */
-export interface MeResponse {
-  id: string;
-  role: Role;
-  status: AccountStatus;
-  handle: string;
-  displayName: string;
-  email: string;
-  business: string;
-  town: string;
-  country: string;
-  emailVerified: boolean;
-  verifiedSince: string | null;
-  statusReason: string | null;
-  createdAt: string;
+export class MeResponse {
+  @ApiProperty() id: string;
+  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: Role;
+  @ApiProperty({ enum: ['pending', 'verified', 'rejected', 'suspended', 'closed'] }) status: AccountStatus;
+  @ApiProperty() handle: string;
+  @ApiProperty() displayName: string;
+  @ApiProperty() email: string;
+  @ApiProperty() business: string;
+  @ApiProperty() town: string;
+  @ApiProperty() country: string;
+  @ApiProperty() emailVerified: boolean;
+  @ApiProperty({ type: String, nullable: true }) verifiedSince: string | null;
+  @ApiProperty({ type: String, nullable: true }) statusReason: string | null;
+  @ApiProperty() createdAt: string;
 }
 
-export interface SessionResponse {
-  account: MeResponse | null;
+export class SessionResponse {
+  @ApiProperty({ type: MeResponse, nullable: true }) account: MeResponse | null;
 }
 
 export function toMeResponse(a: Account): MeResponse {
@@ -38,4 +39,9 @@ export function toMeResponse(a: Account): MeResponse {
     statusReason: a.statusReason,
     createdAt: a.createdAt.toISOString(),
   };
+}
+
+/** The account a sign-in or a renewal has just opened a session for. */
+export class SignedInResponse {
+  @ApiProperty({ type: MeResponse }) account: MeResponse;
 }

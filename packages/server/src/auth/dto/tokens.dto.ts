@@ -42,6 +42,6 @@ export class ChangePasswordDto {
   newPassword: string;
 }
 
-export interface MessageResponse {
-  message: string;
+export class MessageResponse {
+  @ApiProperty() message: string;
 }

@@ -1,29 +1,43 @@
-import type { ExhibitDerivative, ExhibitFile, ExhibitKind } from '@beadroll/core';
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { EXHIBIT_KINDS, type ExhibitDerivative, type ExhibitFile, type ExhibitKind } from '@beadroll/core';
 import type { ExhibitEntity } from '../entities/exhibit.entity';
 
 export type ExhibitVariant = 'original' | 'web' | 'thumb';
 export const EXHIBIT_VARIANTS: readonly ExhibitVariant[] = ['original', 'web', 'thumb'];
 
+/** Where each kept variant of an exhibit is served, for this viewer. */
+export class ExhibitUrls implements Partial<Record<ExhibitVariant, string>> {
+  @ApiPropertyOptional() original?: string;
+  @ApiPropertyOptional() web?: string;
+  @ApiPropertyOptional() thumb?: string;
+}
+
 /** One exhibit as a signed-in viewer sees it. */
-export interface ExhibitResponse {
-  seq: number;
-  kind: ExhibitKind;
-  caption?: string;
+export class ExhibitResponse {
+  @ApiProperty() seq: number;
+  @ApiProperty({ enum: EXHIBIT_KINDS }) kind: ExhibitKind;
+  @ApiPropertyOptional() caption?: string;
+  @ApiProperty({ description: 'on the roll only as a commitment; shown to the dealer who added it' })
   sealed: boolean;
-  addedBy: string;
-  time: string;
+  @ApiProperty() addedBy: string;
+  @ApiProperty() time: string;
+  @ApiProperty({ type: Object, description: "the stored file as the roll names it (core's ExhibitFile)" })
   original: ExhibitFile;
+  @ApiProperty({ type: [Object], description: "the files derived from it (core's ExhibitDerivative)" })
   derivatives: ExhibitDerivative[];
-  urls: Partial<Record<ExhibitVariant, string>>;
+  @ApiProperty({ type: ExhibitUrls }) urls: ExhibitUrls;
 }
 
-export interface ExhibitListResponse {
-  exhibits: ExhibitResponse[];
+export class ExhibitListResponse {
+  @ApiProperty({ type: [ExhibitResponse] }) exhibits: ExhibitResponse[];
 }
 
-export interface AddExhibitResponse {
-  exhibit: ExhibitResponse;
-  /** How the file was kept, for the uploader (for example a PDF stored as sent). */
+export class AddExhibitResponse {
+  @ApiProperty({ type: ExhibitResponse }) exhibit: ExhibitResponse;
+  @ApiProperty({
+    type: [String],
+    description: 'how the file was kept, for the uploader (for example a PDF stored as sent)',
+  })
   notes: string[];
 }
 

@@ -1,3 +1,4 @@
+import { BeadCountResponse, LOT_STATUSES } from '../../lots/dto/lot-responses.dto';
 import { ApiProperty } from '@nestjs/swagger';
 import type { BeadCount, LotStatus } from '@beadroll/core';
 
@@ -5,15 +6,19 @@ import type { BeadCount, LotStatus } from '@beadroll/core';
 export class LinkedLotResponse {
   @ApiProperty() code: string;
   @ApiProperty() displayCode: string;
-  @ApiProperty() count: BeadCount;
+  @ApiProperty({ type: BeadCountResponse }) count: BeadCount;
 }
 
 /** What a split wrote: the parent's remaining count, and the new lots. */
 export class SplitResponse {
   @ApiProperty() parent: string;
   @ApiProperty({ description: 'seq of the parent’s split entry' }) seq: number;
-  @ApiProperty({ description: 'beads still in the parent (0: the parent is used up)' }) remaining: BeadCount;
-  @ApiProperty() status: LotStatus;
+  @ApiProperty({
+    type: BeadCountResponse,
+    description: 'beads still in the parent (0: the parent is used up)',
+  })
+  remaining: BeadCount;
+  @ApiProperty({ enum: LOT_STATUSES }) status: LotStatus;
   @ApiProperty({ type: [LinkedLotResponse] }) children: LinkedLotResponse[];
 }
 
@@ -21,9 +26,9 @@ export class SplitResponse {
 export class CombinedParentResponse {
   @ApiProperty() code: string;
   @ApiProperty({ description: 'seq of its combined entry' }) seq: number;
-  @ApiProperty({ description: 'beads taken' }) count: BeadCount;
-  @ApiProperty() remaining: BeadCount;
-  @ApiProperty() status: LotStatus;
+  @ApiProperty({ type: BeadCountResponse, description: 'beads taken' }) count: BeadCount;
+  @ApiProperty({ type: BeadCountResponse }) remaining: BeadCount;
+  @ApiProperty({ enum: LOT_STATUSES }) status: LotStatus;
 }
 
 /** What a combination wrote. */
@@ -40,9 +45,9 @@ export class AncestryNodeResponse {
   @ApiProperty({ description: 'false: a lot the viewer may not open (only its code is known)' })
   readable: boolean;
   @ApiProperty({ nullable: true, type: String }) title: string | null;
-  @ApiProperty({ nullable: true, type: String }) status: LotStatus | null;
+  @ApiProperty({ nullable: true, enum: LOT_STATUSES }) status: LotStatus | null;
   @ApiProperty({ nullable: true, type: Boolean }) listed: boolean | null;
-  @ApiProperty({ nullable: true }) count: BeadCount | null;
+  @ApiProperty({ nullable: true, type: BeadCountResponse }) count: BeadCount | null;
 }
 
 /** A link: beads went from `from` to `to` by the entry `seq` of `from`. */
@@ -51,7 +56,7 @@ export class AncestryEdgeResponse {
   @ApiProperty() to: string;
   @ApiProperty({ enum: ['split', 'combined'] }) kind: 'split' | 'combined';
   @ApiProperty() seq: number;
-  @ApiProperty() count: BeadCount;
+  @ApiProperty({ type: BeadCountResponse }) count: BeadCount;
 }
 
 /** The ancestors and descendants of a lot as far as the viewer may follow them. */

@@ -36,17 +36,24 @@ export class SheetResponse {
   })
   preview: string[][];
   @ApiProperty() total: number;
-  @ApiProperty({ description: 'field key → column index suggested by the header row' })
+  @ApiProperty({
+    type: 'object',
+    additionalProperties: { type: 'integer' },
+    description: 'field key → column index suggested by the header row',
+  })
   suggested: Record<string, number>;
   @ApiProperty({ type: [ImportFieldResponse] }) fields: ImportFieldResponse[];
 }
 
+/** One problem of a row: the column and what is wrong with its value. */
+export class CellProblemResponse {
+  @ApiProperty() column: string;
+  @ApiProperty() message: string;
+}
+
 export class RowProblemResponse {
   @ApiProperty({ description: 'row number as a spreadsheet shows it (the header is row 1)' }) row: number;
-  @ApiProperty({ type: 'array', items: { type: 'object' } }) problems: Array<{
-    column: string;
-    message: string;
-  }>;
+  @ApiProperty({ type: [CellProblemResponse] }) problems: CellProblemResponse[];
 }
 
 export class CheckResponse {

@@ -1,30 +1,70 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import type { BeadCount, LotDescription, LotStatus, Money, Observations } from '@beadroll/core';
+import {
+  LOT_FORMS,
+  ORIGINS,
+  TECHNIQUES,
+  type BeadCount,
+  type LotDescription,
+  type LotStatus,
+  type Observations,
+} from '@beadroll/core';
+import { MoneyDto } from './sealed-details.dto';
+
+/** Every status a lot can be in (core's `LotStatus`). */
+export const LOT_STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
+
+/** A count of beads, exact or estimated (core's `BeadCount`). */
+export class BeadCountResponse implements BeadCount {
+  @ApiProperty() value: number;
+  @ApiProperty() estimated: boolean;
+}
+
+/** A range of years. */
+export class PeriodResponse {
+  @ApiProperty() from: number;
+  @ApiProperty() to: number;
+}
+
+/** The holder's attribution on the roll. */
+export class LotAttributionResponse {
+  @ApiProperty() seq: number;
+  @ApiProperty() author: string;
+  @ApiProperty({ enum: ORIGINS }) origin: string;
+}
+
+/** The lot's open transfer offer. */
+export class OpenOfferResponse {
+  @ApiProperty() seq: number;
+  @ApiProperty() offerer: string;
+  @ApiProperty({ type: String, nullable: true }) recipient: string | null;
+}
 
 /** One row of the lot list. */
 export class LotSummaryResponse {
   @ApiProperty({ description: 'canonical lot code' }) code: string;
   @ApiProperty({ description: 'grouped for people, XXXX-XXXX-X' }) displayCode: string;
   @ApiProperty() title: string;
-  @ApiProperty({ nullable: true }) form: string | null;
-  @ApiProperty() status: LotStatus;
+  @ApiProperty({ nullable: true, enum: LOT_FORMS }) form: string | null;
+  @ApiProperty({ enum: LOT_STATUSES }) status: LotStatus;
   @ApiProperty() listed: boolean;
   @ApiProperty({ description: 'account id of the holder' }) holder: string;
   @ApiProperty({
     nullable: true,
+    enum: ORIGINS,
     description:
       'origin of the attribution on record: the holder’s, else an earlier holder’s or an ancestor’s',
   })
   origin: string | null;
   @ApiProperty({ nullable: true, enum: ['holder', 'earlier-holder', 'ancestor'] })
   originSource: 'holder' | 'earlier-holder' | 'ancestor' | null;
-  @ApiProperty({ nullable: true, description: 'technique of the attribution on record' }) technique:
-    string | null;
-  @ApiProperty({ nullable: true, description: 'period of the attribution on record' }) period: {
+  @ApiProperty({ nullable: true, enum: TECHNIQUES, description: 'technique of the attribution on record' })
+  technique: string | null;
+  @ApiProperty({ nullable: true, type: PeriodResponse, description: 'period of the attribution on record' })
+  period: {
     from: number;
     to: number;
   } | null;
-  @ApiProperty() count: BeadCount;
+  @ApiProperty({ type: BeadCountResponse }) count: BeadCount;
   @ApiProperty() dissents: number;
   @ApiProperty() headSeq: number;
   @ApiProperty() registeredAt: string;
@@ -44,18 +84,22 @@ export class OwnSealedDetails {
   @ApiPropertyOptional() storageLocation?: string;
   @ApiPropertyOptional() acquisitionDate?: string;
   @ApiPropertyOptional() acquisitionSource?: string;
-  @ApiPropertyOptional() acquisitionCost?: Money;
+  @ApiPropertyOptional({ type: MoneyDto }) acquisitionCost?: MoneyDto;
   @ApiPropertyOptional() privateNote?: string;
 }
 
 /** A lot as the signed-in viewer may see it (derived from its roll; the roll itself is at /roll). */
 export class LotDetailResponse extends LotSummaryResponse {
-  @ApiProperty({ nullable: true, description: 'null while the newest description is redacted' })
+  @ApiProperty({ nullable: true, type: Object, description: 'null while the newest description is redacted' })
   description: LotDescription | null;
   @ApiProperty({ nullable: true }) observations: Observations | null;
-  @ApiProperty() remaining: BeadCount;
-  @ApiProperty({ nullable: true }) attribution: { seq: number; author: string; origin: string } | null;
-  @ApiProperty({ nullable: true }) openOffer: {
+  @ApiProperty({ type: BeadCountResponse }) remaining: BeadCount;
+  @ApiProperty({ nullable: true, type: LotAttributionResponse }) attribution: {
+    seq: number;
+    author: string;
+    origin: string;
+  } | null;
+  @ApiProperty({ nullable: true, type: OpenOfferResponse }) openOffer: {
     seq: number;
     offerer: string;
     recipient: string | null;

@@ -1,4 +1,5 @@
-import { ApiProperty } from '@nestjs/swagger';
+import { ApiExtraModels, ApiProperty, getSchemaPath } from '@nestjs/swagger';
+import { DealerCard } from '../../accounts/dto/dealer-card.dto';
 
 /** One entry of a public bundle: exactly the four members of the ledger format, nothing else. */
 export class PublicBundleEntry {
@@ -36,25 +37,15 @@ export class PublicBundle {
   @ApiProperty({ type: [PublicBundleCheckpoint] }) checkpoints: PublicBundleCheckpoint[];
 }
 
-/** A public dealer card, keyed by account id in {@link PublicLotResponse.cards}. */
-export class PublicDealerCard {
-  @ApiProperty() id: string;
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() business: string;
-  @ApiProperty() town: string;
-  @ApiProperty() country: string;
-  @ApiProperty() verifiedSince: string;
-  @ApiProperty({ enum: ['verified', 'suspended', 'former'] }) status: 'verified' | 'suspended' | 'former';
-  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: 'dealer' | 'assessor' | 'registrar';
-}
-
 /** What the public page of a listed lot is rendered from: the raw rolls and the dealers named on them. */
+@ApiExtraModels(DealerCard)
 export class PublicLotResponse {
   @ApiProperty() code: string;
   @ApiProperty({ type: PublicBundle }) bundle: PublicBundle;
   @ApiProperty({
+    type: 'object',
+    additionalProperties: { $ref: getSchemaPath(DealerCard) },
     description: 'cards by account id: every actor on the rolls, and the recipient of each transfer offer',
   })
-  cards: Record<string, PublicDealerCard>;
+  cards: Record<string, DealerCard>;
 }

@@ -1,11 +1,11 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { amountProblem, currencyProblem, dateProblem, LIMITS } from '@beadroll/core';
+import { amountProblem, currencyProblem, dateProblem, LIMITS, type Money } from '@beadroll/core';
 import { IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
 import { NestedObject } from '../../common/validation';
 import { nowIso, Plausible } from '../../common/plausible';
 
-/** Money in integer minor units of an ISO 4217 currency. */
-export class MoneyDto {
+/** Money in integer minor units of an ISO 4217 currency: core's `Money`, in requests and answers alike. */
+export class MoneyDto implements Money {
   @ApiProperty({
     description: 'integer minor units of the currency (cents, pence…)',
     minimum: 1,

@@ -1,3 +1,4 @@
+import { PartyName } from '../../accounts/dto/dealer-card.dto';
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
@@ -51,27 +52,20 @@ class RequestLot {
   @ApiProperty() listed: boolean;
 }
 
-class RequestParty {
-  @ApiProperty() id: string;
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() business: string;
-}
-
 /** One opinion request. */
 export class OpinionRequestResponse {
   @ApiProperty() id: string;
   @ApiProperty({ type: RequestLot }) lot: RequestLot;
-  @ApiProperty({ type: RequestParty }) requester: RequestParty;
-  @ApiProperty({ type: RequestParty, nullable: true, description: 'null: any verified assessor' })
-  assessor: RequestParty | null;
+  @ApiProperty({ type: PartyName }) requester: PartyName;
+  @ApiProperty({ type: PartyName, nullable: true, description: 'null: any verified assessor' })
+  assessor: PartyName | null;
   @ApiProperty({ nullable: true }) note: string | null;
   @ApiProperty({ enum: ['open', 'answered', 'cancelled'] }) status: 'open' | 'answered' | 'cancelled';
   @ApiProperty() createdAt: string;
   @ApiProperty({ nullable: true }) closedAt: string | null;
   @ApiProperty({ nullable: true, description: 'the seq of the opinion that answered it' })
   opinionSeq: number | null;
-  @ApiProperty({ nullable: true, type: RequestParty }) answeredBy: RequestParty | null;
+  @ApiProperty({ nullable: true, type: PartyName }) answeredBy: PartyName | null;
 }
 
 export class OpinionRequestListResponse {
@@ -82,5 +76,5 @@ export class OpinionRequestListResponse {
 }
 
 export class AssessorListResponse {
-  @ApiProperty({ type: [RequestParty] }) items: RequestParty[];
+  @ApiProperty({ type: [PartyName] }) items: PartyName[];
 }

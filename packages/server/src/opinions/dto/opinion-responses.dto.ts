@@ -1,4 +1,5 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiExtraModels, ApiProperty, ApiPropertyOptional, getSchemaPath } from '@nestjs/swagger';
+import { PartyCard } from '../../accounts/dto/dealer-card.dto';
 import type { OpinionBody } from '@beadroll/core';
 
 /** How an opinion stands against the holder's attribution, as core's reducer derives it now. */
@@ -22,18 +23,8 @@ export class OpinionView {
   @ApiProperty({ type: [OpinionReply] }) replies: OpinionReply[];
 }
 
-/** Public card of an author named on the opinions. */
-export class AuthorCard {
-  @ApiProperty() id: string;
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() business: string;
-  @ApiProperty() town: string;
-  @ApiProperty() country: string;
-  @ApiProperty() status: string;
-}
-
 /** The opinions on a lot, derived from its verified roll. */
+@ApiExtraModels(PartyCard)
 export class LotOpinionsResponse {
   @ApiProperty() lot: string;
   @ApiProperty() holder: string;
@@ -46,8 +37,12 @@ export class LotOpinionsResponse {
   attribution: number | null;
   @ApiProperty({ type: [Number], description: 'seqs of the dissents' }) dissents: number[];
   @ApiProperty({ type: [OpinionView] }) opinions: OpinionView[];
-  @ApiProperty({ type: Object, description: 'public cards of the authors, by account id' })
-  cards: Record<string, AuthorCard>;
+  @ApiProperty({
+    type: 'object',
+    additionalProperties: { $ref: getSchemaPath(PartyCard) },
+    description: 'public cards of the authors, by account id',
+  })
+  cards: Record<string, PartyCard>;
 }
 
 /** What a write answers: the entry it put on the roll and the opinions after it. */

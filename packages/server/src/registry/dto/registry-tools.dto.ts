@@ -135,7 +135,7 @@ export class ActionsQueryDto {
   @IsIn(REGISTRAR_ACTIONS, { message: `must be one of ${REGISTRAR_ACTIONS.join(', ')}` })
   action?: RegistrarActionKind;
 
-  @ApiPropertyOptional({ default: 1 })
+  @ApiPropertyOptional({ type: Number, default: 1 })
   @IsOptional()
   @Type(() => Number)
   @IsInt({ message: 'must be a whole number' })
@@ -143,7 +143,7 @@ export class ActionsQueryDto {
   @Max(100000)
   page = 1;
 
-  @ApiPropertyOptional({ default: 50 })
+  @ApiPropertyOptional({ type: Number, default: 50 })
   @IsOptional()
   @Type(() => Number)
   @IsInt({ message: 'must be a whole number' })

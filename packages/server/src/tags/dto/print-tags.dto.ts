@@ -37,31 +37,37 @@ export class SheetDto {
   @Max(GRID_LIMITS.maxCells)
   rows?: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxMarginMm)
   marginTopMm: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxMarginMm)
   marginRightMm: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxMarginMm)
   marginBottomMm: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxMarginMm)
   marginLeftMm: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxGapMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxGapMm)
   gapXMm: number;
 
+  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxGapMm })
   @IsNumber()
   @Min(0)
   @Max(GRID_LIMITS.maxGapMm)

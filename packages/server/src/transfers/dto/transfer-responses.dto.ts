@@ -1,18 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import type { Money } from '@beadroll/core';
+import { PartyCard } from '../../accounts/dto/dealer-card.dto';
+import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import type { InvitationStatus } from '../entities/transfer-invitation.entity';
 import type { OfferStatus } from '../entities/transfer-offer.entity';
-
-/** A dealer as the transfer screens show them (from their dealer card). */
-export class PartyResponse {
-  @ApiProperty() id: string;
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() business: string;
-  @ApiProperty() town: string;
-  @ApiProperty() country: string;
-  @ApiProperty({ enum: ['verified', 'suspended', 'former'] }) status: string;
-}
 
 /** The lot an offer or sale is about. */
 export class TransferLotResponse {
@@ -27,8 +17,8 @@ export class OfferResponse {
   @ApiProperty({ type: TransferLotResponse }) lot: TransferLotResponse;
   @ApiProperty({ description: 'seq of the transfer-offered entry' }) offerSeq: number;
   @ApiProperty({ enum: ['open', 'accepted', 'declined', 'withdrawn', 'lapsed'] }) status: OfferStatus;
-  @ApiProperty({ type: PartyResponse, nullable: true }) offerer: PartyResponse | null;
-  @ApiProperty({ type: PartyResponse, nullable: true }) recipient: PartyResponse | null;
+  @ApiProperty({ type: PartyCard, nullable: true }) offerer: PartyCard | null;
+  @ApiProperty({ type: PartyCard, nullable: true }) recipient: PartyCard | null;
   @ApiProperty({ enum: ['offerer', 'recipient'] }) viewerIs: 'offerer' | 'recipient';
   @ApiPropertyOptional() note?: string;
   @ApiProperty() offeredAt: string;
@@ -36,8 +26,11 @@ export class OfferResponse {
   @ApiPropertyOptional() answeredAt?: string;
   @ApiPropertyOptional() answerSeq?: number;
   @ApiPropertyOptional() answerNote?: string;
-  @ApiPropertyOptional({ description: 'sealed transfer price, shown to the two dealers only' })
-  price?: Money;
+  @ApiPropertyOptional({
+    type: MoneyDto,
+    description: 'sealed transfer price, shown to the two dealers only',
+  })
+  price?: MoneyDto;
 }
 
 export class OfferListResponse {
@@ -55,7 +48,7 @@ export class InvitationResponse {
   @ApiProperty({ enum: ['waiting', 'offered', 'stalled', 'cancelled'] }) status: InvitationStatus;
   @ApiPropertyOptional() statusReason?: string;
   @ApiPropertyOptional() note?: string;
-  @ApiPropertyOptional() price?: Money;
+  @ApiPropertyOptional({ type: MoneyDto }) price?: MoneyDto;
   @ApiPropertyOptional({ description: 'the offer made from it' }) offerId?: string;
   @ApiProperty() createdAt: string;
 }
@@ -73,7 +66,7 @@ export class SaleResponse {
   @ApiProperty({ type: TransferLotResponse }) lot: TransferLotResponse;
   @ApiProperty({ description: 'seq of the sold entry' }) seq: number;
   @ApiProperty({ description: 'YYYY-MM-DD' }) date: string;
-  @ApiPropertyOptional({ description: 'sealed sale price' }) price?: Money;
+  @ApiPropertyOptional({ type: MoneyDto, description: 'sealed sale price' }) price?: MoneyDto;
   @ApiPropertyOptional({ description: 'sealed buyer note' }) buyerNote?: string;
   @ApiProperty() recordedAt: string;
   @ApiProperty() receiptSent: boolean;
@@ -92,5 +85,5 @@ export class InvitationListResponse {
 }
 
 export class DealerSearchResponse {
-  @ApiProperty({ type: [PartyResponse] }) items: PartyResponse[];
+  @ApiProperty({ type: [PartyCard] }) items: PartyCard[];
 }

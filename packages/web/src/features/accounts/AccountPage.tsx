@@ -2,13 +2,10 @@ import {
   Badge,
   Button,
   Card,
-  Field,
-  Input,
   makeStyles,
   MessageBar,
   MessageBarBody,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
@@ -16,12 +13,12 @@ import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { accountsApi, useSession } from './accounts.api';
-import { fieldError, FormError, FormSuccess } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError, FormSuccess, PasswordField } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
 import { ROLE_LABEL, STATUS_LABEL } from './labels';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '720px' },
   card: { padding: tokens.spacingHorizontalXL, display: 'grid', gap: tokens.spacingVerticalM },
   facts: {
     display: 'grid',
@@ -47,45 +44,28 @@ function ChangePassword() {
     },
   });
   return (
-    <form
-      className={styles.form}
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        change.mutate();
-      }}
-    >
-      <Field
+    <Form className={styles.form} onSubmit={() => change.mutate()}>
+      <PasswordField
         label="Current password"
-        required
+        autoComplete="current-password"
+        value={current}
+        onChange={setCurrent}
         validationMessage={fieldError(change.error, 'currentPassword')}
-      >
-        <Input
-          type="password"
-          autoComplete="current-password"
-          value={current}
-          onChange={(_, d) => setCurrent(d.value)}
-        />
-      </Field>
-      <Field
+      />
+      <PasswordField
         label="New password"
-        required
         hint="At least 12 characters. Every other sign-in ends."
+        autoComplete="new-password"
+        value={next}
+        onChange={setNext}
         validationMessage={fieldError(change.error, 'newPassword')}
-      >
-        <Input
-          type="password"
-          autoComplete="new-password"
-          value={next}
-          onChange={(_, d) => setNext(d.value)}
-        />
-      </Field>
+      />
       <FormError error={change.error} />
       {change.isSuccess ? <FormSuccess>{change.data.message}</FormSuccess> : null}
       <Button appearance="primary" type="submit" disabled={change.isPending}>
         Change password
       </Button>
-    </form>
+    </Form>
   );
 }
 
@@ -104,10 +84,7 @@ export function AccountPage() {
     ['Verified since', formatDate(account.verifiedSince)],
   ];
   return (
-    <section className={styles.page} aria-labelledby="account-title">
-      <Title2 as="h1" id="account-title">
-        {account.displayName}
-      </Title2>
+    <Page title={account.displayName} width="narrow" headingId="account-title">
       <div>
         <Badge appearance="tint" color={account.status === 'verified' ? 'success' : 'warning'}>
           {STATUS_LABEL[account.status]}
@@ -141,6 +118,6 @@ export function AccountPage() {
         <Title3 as="h2">Password</Title3>
         <ChangePassword />
       </Card>
-    </section>
+    </Page>
   );
 }

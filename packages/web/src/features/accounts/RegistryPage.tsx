@@ -1,41 +1,19 @@
-import {
-  Button,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
-  Field,
-  makeStyles,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
-  Text,
-  Textarea,
-  Title2,
-  tokens,
-} from '@fluentui/react-components';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
+import { Button, Field, makeStyles, Text, Textarea, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
-import { Navigate, useSearchParams } from 'react-router-dom';
-import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
+import { Navigate } from 'react-router-dom';
+import { ActionDialog, PanelDialog } from '../../shared/ui/ActionDialog';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { fieldError, FormError } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
+import type { ListColumn } from '../../shared/ui/list/DataTable';
+import { useListParams } from '../../shared/ui/list/list-params';
+import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
 import { ROLE_LABEL } from './labels';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL },
-  scroller: { overflowX: 'auto' },
-  table: { minWidth: '760px' },
-  actions: { display: 'flex', gap: tokens.spacingHorizontalS, flexWrap: 'wrap' },
-  pager: { display: 'flex', gap: tokens.spacingHorizontalM, alignItems: 'center' },
-  sub: { color: tokens.colorNeutralForeground3 },
   facts: {
     display: 'grid',
     gridTemplateColumns: 'max-content minmax(0, 1fr)',
@@ -53,20 +31,9 @@ const STATUSES: Array<{ value: RegistryParams['status']; label: string }> = [
   { value: 'suspended', label: 'Suspended' },
   { value: 'rejected', label: 'Not accepted' },
 ];
-const PAGE_SIZE = 20;
-const SORTABLE: Record<string, string> = { business: 'business', town: 'town', appliedAt: 'applied' };
+const SORTS = ['business', 'town', 'applied'];
 
 type Action = 'approve' | 'reject' | 'suspend' | 'reinstate';
-const features = tableFeatures({});
-const helper = createColumnHelper<typeof features, Applicant>();
-const columns = helper.columns([
-  helper.accessor('displayName', { header: 'Applicant' }),
-  helper.accessor('business', { header: 'Business' }),
-  helper.accessor('town', { header: 'Town' }),
-  helper.accessor('country', { header: 'Country' }),
-  helper.accessor('appliedAt', { header: 'Applied' }),
-  helper.display({ id: 'actions', header: 'Decision' }),
-]);
 
 function ReasonDialog({
   target,
@@ -88,39 +55,23 @@ function ReasonDialog({
   });
   const verb = action === 'reject' ? 'Reject' : 'Suspend';
   return (
-    <Dialog open onOpenChange={(_, d) => !d.open && onClose()}>
-      <DialogSurface>
-        <form
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            decide.mutate();
-          }}
-        >
-          <DialogBody>
-            <DialogTitle>
-              {verb} {target.displayName}
-            </DialogTitle>
-            <DialogContent>
-              <Field
-                label="Reason (sent to them by e-mail)"
-                required
-                validationMessage={fieldError(decide.error, 'reason')}
-              >
-                <Textarea value={reason} onChange={(_, d) => setReason(d.value)} resize="vertical" />
-              </Field>
-              <FormError error={decide.error} />
-            </DialogContent>
-            <DialogActions>
-              <Button onClick={onClose}>Cancel</Button>
-              <Button appearance="primary" type="submit" disabled={decide.isPending}>
-                {verb}
-              </Button>
-            </DialogActions>
-          </DialogBody>
-        </form>
-      </DialogSurface>
-    </Dialog>
+    <ActionDialog
+      title={`${verb} ${target.displayName}`}
+      close={onClose}
+      onSubmit={() => decide.mutate()}
+      submitLabel={verb}
+      pending={decide.isPending}
+      narrow
+    >
+      <Field
+        label="Reason (sent to them by e-mail)"
+        required
+        validationMessage={fieldError(decide.error, 'reason')}
+      >
+        <Textarea value={reason} onChange={(_, d) => setReason(d.value)} resize="vertical" />
+      </Field>
+      <FormError error={decide.error} />
+    </ActionDialog>
   );
 }
 
@@ -144,28 +95,20 @@ function ConfirmDialog({
   });
   const verb = action === 'approve' ? 'Approve' : 'Lift the suspension of';
   return (
-    <Dialog open onOpenChange={(_, d) => !d.open && onClose()}>
-      <DialogSurface>
-        <DialogBody>
-          <DialogTitle>
-            {verb} {target.displayName}?
-          </DialogTitle>
-          <DialogContent>
-            <Text>
-              {target.displayName} ({target.business}) can then write to rolls as{' '}
-              {ROLE_LABEL[target.role].toLowerCase()}. They are told by e-mail.
-            </Text>
-            <FormError error={decide.error} />
-          </DialogContent>
-          <DialogActions>
-            <Button onClick={onClose}>Cancel</Button>
-            <Button appearance="primary" onClick={() => decide.mutate()} disabled={decide.isPending}>
-              {action === 'approve' ? 'Approve' : 'Lift the suspension'}
-            </Button>
-          </DialogActions>
-        </DialogBody>
-      </DialogSurface>
-    </Dialog>
+    <ActionDialog
+      title={`${verb} ${target.displayName}?`}
+      close={onClose}
+      onSubmit={() => decide.mutate()}
+      submitLabel={action === 'approve' ? 'Approve' : 'Lift the suspension'}
+      pending={decide.isPending}
+      narrow
+    >
+      <Text>
+        {target.displayName} ({target.business}) can then write to rolls as{' '}
+        {ROLE_LABEL[target.role].toLowerCase()}. They are told by e-mail.
+      </Text>
+      <FormError error={decide.error} />
+    </ActionDialog>
   );
 }
 
@@ -191,36 +134,34 @@ function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: ()
       ),
     ],
     ['Trade references', target.tradeReferences || 'Not given'],
+    [
+      'Document',
+      target.document ? (
+        <a href={`/api/registry/accounts/${target.id}/document`} download={target.document.name}>
+          Download {target.document.name} ({documentSize(target.document.size)})
+        </a>
+      ) : (
+        'None sent'
+      ),
+    ],
     ['Applied', formatDate(target.appliedAt)],
   ];
   return (
-    <Dialog open onOpenChange={(_, d) => !d.open && onClose()}>
-      <DialogSurface>
-        <DialogBody>
-          <DialogTitle>Application of {target.displayName}</DialogTitle>
-          <DialogContent>
-            <dl className={styles.facts}>
-              {facts.map(([term, detail]) => (
-                <Fragment key={term}>
-                  <dt className={styles.term}>{term}</dt>
-                  <dd className={styles.detail}>{detail}</dd>
-                </Fragment>
-              ))}
-            </dl>
-          </DialogContent>
-          <DialogActions>
-            <Button appearance="primary" onClick={onClose}>
-              Close
-            </Button>
-          </DialogActions>
-        </DialogBody>
-      </DialogSurface>
-    </Dialog>
+    <PanelDialog title={`Application of ${target.displayName}`} close={onClose}>
+      <dl className={styles.facts}>
+        {facts.map(([term, detail]) => (
+          <Fragment key={term}>
+            <dt className={styles.term}>{term}</dt>
+            <dd className={styles.detail}>{detail}</dd>
+          </Fragment>
+        ))}
+      </dl>
+    </PanelDialog>
   );
 }
 
 function Decisions({ row, onDialog }: { row: Applicant; onDialog: (a: Action | 'read') => void }) {
-  const styles = useStyles();
+  const styles = useListStyles();
   return (
     <div className={styles.actions}>
       <Button size="small" onClick={() => onDialog('read')}>
@@ -250,114 +191,82 @@ function Decisions({ row, onDialog }: { row: Applicant; onDialog: (a: Action | '
   );
 }
 
-const EMPTY: Applicant[] = [];
+function useColumns(
+  onDialog: (target: Applicant, action: Action | 'read') => void,
+): Array<ListColumn<Applicant>> {
+  const styles = useListStyles();
+  return [
+    {
+      id: 'applicant',
+      header: 'Applicant',
+      cell: (a) => (
+        <div>
+          <Text weight="semibold">{a.displayName}</Text>
+          <div className={styles.sub}>
+            {ROLE_LABEL[a.role]} · @{a.handle} · {a.email}
+          </div>
+        </div>
+      ),
+    },
+    {
+      id: 'business',
+      header: 'Business',
+      sort: 'business',
+      cell: (a) => (
+        <div>
+          {a.business}
+          {a.address ? <div className={styles.sub}>{a.address}</div> : null}
+        </div>
+      ),
+    },
+    { id: 'town', header: 'Town', sort: 'town', cell: (a) => a.town },
+    { id: 'country', header: 'Country', cell: (a) => a.country },
+    { id: 'applied', header: 'Applied', sort: 'applied', cell: (a) => formatDate(a.appliedAt) },
+    {
+      id: 'actions',
+      header: 'Decision',
+      cell: (a) => <Decisions row={a} onDialog={(action) => onDialog(a, action)} />,
+    },
+  ];
+}
 
 /** The registrar's verification queue, and the accounts by status, as a server-paged table. */
 export function RegistryPage() {
-  const styles = useStyles();
+  const styles = useListStyles();
   const { account, isLoading } = useSession();
-  const [search, setSearch] = useSearchParams();
+  const list = useListParams({ sort: { key: 'applied', desc: false }, sorts: SORTS });
   const [dialog, setDialog] = useState<{ target: Applicant; action: Action | 'read' } | null>(null);
-  const status = (STATUSES.find((s) => s.value === search.get('status'))?.value ??
+  const columns = useColumns((target, action) => setDialog({ target, action }));
+  const status = (STATUSES.find((s) => s.value === list.search.get('status'))?.value ??
     'pending') as RegistryParams['status'];
-  const sort = search.get('sort') ?? 'applied';
-  const page = Math.max(1, Number(search.get('page')) || 1);
+  const sort = list.sort ? `${list.sort.desc ? '-' : ''}${list.sort.key}` : 'applied';
   const query = useQuery({
-    ...registryQuery({ status, sort, page, pageSize: PAGE_SIZE }),
+    ...registryQuery({ status, sort, page: list.page, pageSize: list.pageSize }),
     enabled: account?.role === 'registrar',
   });
-  const table = useTable({ features, columns, data: query.data?.items ?? EMPTY });
 
   if (isLoading) return <Text>Loading…</Text>;
   if (!account) return <Navigate to="/sign-in?next=/registry" replace />;
   if (account.role !== 'registrar') return <Text>Only the registrar can see this page.</Text>;
 
-  const update = (changes: Record<string, string>) => {
-    const next = new URLSearchParams(search);
-    for (const [k, v] of Object.entries(changes)) next.set(k, v);
-    setSearch(next, { replace: true });
-  };
-  const total = query.data?.total ?? 0;
-  const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
-
   return (
-    <section className={styles.page} aria-labelledby="registry-title">
-      <Title2 as="h1" id="registry-title">
-        Account verification
-      </Title2>
-      <FilterButtons
-        label="Accounts by status"
-        value={status}
-        options={STATUSES}
-        onChange={(v) => update({ status: String(v), page: '1' })}
+    <Page title="Account verification">
+      <div className={styles.tabs}>
+        <FilterButtons
+          label="Accounts by status"
+          value={status}
+          options={STATUSES}
+          onChange={(v) => list.update({ status: String(v) })}
+        />
+      </div>
+      <ListView
+        label="Accounts"
+        columns={columns}
+        query={query}
+        list={list}
+        noun={['account', 'accounts']}
+        empty="No accounts here."
       />
-      <div className={styles.scroller}>
-        <Table className={styles.table} aria-label="Accounts">
-          <TableHeader>
-            {table.getHeaderGroups().map((group) => (
-              <TableRow key={group.id}>
-                {group.headers.map((header) => {
-                  const key = SORTABLE[header.column.id];
-                  const dir = sort === key ? 'ascending' : sort === `-${key}` ? 'descending' : undefined;
-                  return (
-                    <TableHeaderCell
-                      key={header.id}
-                      sortable={Boolean(key)}
-                      sortDirection={dir}
-                      onClick={
-                        key ? () => update({ sort: sort === key ? `-${key}` : key, page: '1' }) : undefined
-                      }
-                    >
-                      <table.FlexRender header={header} />
-                    </TableHeaderCell>
-                  );
-                })}
-              </TableRow>
-            ))}
-          </TableHeader>
-          <TableBody>
-            {table.getRowModel().rows.map((row) => {
-              const a = row.original;
-              return (
-                <TableRow key={row.id}>
-                  <TableCell>
-                    <div>
-                      <Text weight="semibold">{a.displayName}</Text>
-                      <div className={styles.sub}>
-                        {ROLE_LABEL[a.role]} · @{a.handle} · {a.email}
-                      </div>
-                    </div>
-                  </TableCell>
-                  <TableCell>
-                    <div>
-                      {a.business}
-                      {a.address ? <div className={styles.sub}>{a.address}</div> : null}
-                    </div>
-                  </TableCell>
-                  <TableCell>{a.town}</TableCell>
-                  <TableCell>{a.country}</TableCell>
-                  <TableCell>{formatDate(a.appliedAt)}</TableCell>
-                  <TableCell>
-                    <Decisions row={a} onDialog={(action) => setDialog({ target: a, action })} />
-                  </TableCell>
-                </TableRow>
-              );
-            })}
-          </TableBody>
-        </Table>
-      </div>
-      {query.data && total === 0 ? <Text>No accounts here.</Text> : null}
-      <div className={styles.pager}>
-        <Button disabled={page <= 1} onClick={() => update({ page: String(page - 1) })}>
-          Previous
-        </Button>
-        <Text>
-          Page {page} of {pages} · {total} accounts
-        </Text>
-        <Button disabled={page >= pages} onClick={() => update({ page: String(page + 1) })}>
-          Next
-        </Button>
-      </div>
       {dialog?.action === 'reject' || dialog?.action === 'suspend' ? (
         <ReasonDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
       ) : null}
@@ -367,6 +276,13 @@ export function RegistryPage() {
       {dialog?.action === 'read' ? (
         <ApplicationDialog target={dialog.target} onClose={() => setDialog(null)} />
       ) : null}
-    </section>
+    </Page>
   );
+}
+
+/** A file size in words: kB up to a megabyte, then MB with one decimal. */
+function documentSize(bytes: number): string {
+  return bytes < 1024 * 1024
+    ? `${Math.max(1, Math.round(bytes / 1024))} kB`
+    : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 }

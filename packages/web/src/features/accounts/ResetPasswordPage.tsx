@@ -1,9 +1,9 @@
-import { Button, Field, Input, Link } from '@fluentui/react-components';
+import { Button, Link } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
-import { fieldError, FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
+import { fieldError, FormError, FormPage, FormSuccess, PasswordField } from '../../shared/ui/FormPage';
 
 /** Opened from a reset or set-password link; the password changes on the POST from this page. */
 export function ResetPasswordPage() {
@@ -27,19 +27,14 @@ export function ResetPasswordPage() {
       lead="Choosing a new password signs you out everywhere."
       onSubmit={() => reset.mutate()}
     >
-      <Field
+      <PasswordField
         label="New password"
-        required
         hint="At least 12 characters."
+        autoComplete="new-password"
+        value={password}
+        onChange={setPassword}
         validationMessage={fieldError(reset.error, 'password')}
-      >
-        <Input
-          type="password"
-          autoComplete="new-password"
-          value={password}
-          onChange={(_, d) => setPassword(d.value)}
-        />
-      </Field>
+      />
       <FormError error={reset.error} />
       <Button appearance="primary" type="submit" disabled={!token || reset.isPending}>
         Set the password

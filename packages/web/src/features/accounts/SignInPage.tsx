@@ -3,7 +3,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
 import { accountsApi, type Me } from './accounts.api';
-import { fieldError, FormError, FormPage } from '../../shared/ui/FormPage';
+import { fieldError, FormError, FormPage, PasswordField } from '../../shared/ui/FormPage';
 
 /**
  * Where a sign-in lands: the page asked for (only paths inside the app), else the account's
@@ -35,14 +35,13 @@ export function SignInPage() {
       <Field label="E-mail address" required validationMessage={fieldError(signIn.error, 'email')}>
         <Input type="email" autoComplete="email" value={email} onChange={(_, d) => setEmail(d.value)} />
       </Field>
-      <Field label="Password" required validationMessage={fieldError(signIn.error, 'password')}>
-        <Input
-          type="password"
-          autoComplete="current-password"
-          value={password}
-          onChange={(_, d) => setPassword(d.value)}
-        />
-      </Field>
+      <PasswordField
+        label="Password"
+        autoComplete="current-password"
+        value={password}
+        onChange={setPassword}
+        validationMessage={fieldError(signIn.error, 'password')}
+      />
       <FormError error={signIn.error} />
       <Button appearance="primary" type="submit" disabled={signIn.isPending}>
         Sign in

@@ -40,6 +40,19 @@ const FIELDS = [
   },
 ];
 
+/** The largest document the service takes with an application (10 MB), and its types. */
+const DOCUMENT_MAX_BYTES = 10 * 1024 * 1024;
+const DOCUMENT_TYPES = ['application/pdf', 'image/jpeg', 'image/png'];
+
+/** Why a chosen document would be refused, in the service's words, or undefined. */
+function documentProblem(file: File | null): string | undefined {
+  if (!file) return undefined;
+  if (!DOCUMENT_TYPES.includes(file.type)) return 'must be a PDF, JPEG or PNG file';
+  if (file.size === 0) return 'is empty: choose another file';
+  if (file.size > DOCUMENT_MAX_BYTES) return 'is too large: at most 10 MB';
+  return undefined;
+}
+
 export function SignUpPage() {
   const [search] = useSearchParams();
   // An invitation link carries the invited address, so the offer finds this account later.
@@ -47,7 +60,10 @@ export function SignUpPage() {
     role: 'dealer',
     ...(search.get('email') ? { email: search.get('email')! } : {}),
   }));
-  const signUp = useMutation({ mutationFn: () => accountsApi.signUp(values) });
+  const [document, setDocument] = useState<File | null>(null);
+  const [documentTouched, setDocumentTouched] = useState(false);
+  const signUp = useMutation({ mutationFn: () => accountsApi.signUp(values, document) });
+  const docProblem = documentProblem(document);
   if (signUp.isSuccess) {
     return (
       <FormPage title="Check your e-mail">
@@ -59,7 +75,10 @@ export function SignUpPage() {
     <FormPage
       title="Apply for an account"
       lead="The registrar verifies every dealer and assessor before they can write to a roll. Until then you can sign in and read."
-      onSubmit={() => signUp.mutate()}
+      onSubmit={() => {
+        setDocumentTouched(true);
+        if (!docProblem) signUp.mutate();
+      }}
     >
       <Field label="I am" required validationMessage={fieldError(signUp.error, 'role')}>
         <RadioGroup
@@ -101,6 +120,21 @@ export function SignUpPage() {
           value={values.tradeReferences ?? ''}
           onChange={(_, d) => setValues((v) => ({ ...v, tradeReferences: d.value }))}
           resize="vertical"
+        />
+      </Field>
+      <Field
+        label="A document about your business (optional)"
+        hint="For example a trade licence or a fair stand invoice: a PDF, JPEG or PNG file of at most 10 MB. Only the registrar sees it."
+        validationMessage={(documentTouched && docProblem) || fieldError(signUp.error, 'document')}
+      >
+        <input
+          type="file"
+          name="document"
+          accept=".pdf,.jpg,.jpeg,.png,application/pdf,image/jpeg,image/png"
+          onChange={(e) => {
+            setDocument(e.target.files?.[0] ?? null);
+            setDocumentTouched(true);
+          }}
         />
       </Field>
       <FormError error={signUp.error} />

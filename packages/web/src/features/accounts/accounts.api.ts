@@ -1,54 +1,18 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { answer, client } from '../../api/client';
+import type { operations } from '../../api/schema';
+import type { Schemas } from '../../api/types';
 import { api, ApiError } from '../../lib/api';
 
-export type Role = 'dealer' | 'assessor' | 'registrar';
-export type AccountStatus = 'pending' | 'verified' | 'rejected' | 'suspended' | 'closed';
-
 /** The signed-in account, as the server reports it. */
-export interface Me {
-  id: string;
-  role: Role;
-  status: AccountStatus;
-  handle: string;
-  displayName: string;
-  email: string;
-  business: string;
-  town: string;
-  country: string;
-  emailVerified: boolean;
-  verifiedSince: string | null;
-  statusReason: string | null;
-  createdAt: string;
-}
+export type Me = Schemas['MeResponse'];
+export type Role = Me['role'];
+export type AccountStatus = Me['status'];
+export type Message = Schemas['MessageResponse'];
+export type Applicant = Schemas['ApplicantResponse'];
+export type RegistryPage = Schemas['RegistryPage'];
 
-export interface Message {
-  message: string;
-}
-
-export interface Applicant {
-  id: string;
-  role: Role;
-  status: AccountStatus;
-  handle: string;
-  displayName: string;
-  email: string;
-  business: string;
-  town: string;
-  country: string;
-  address: string;
-  website: string | null;
-  tradeReferences: string;
-  appliedAt: string;
-  verifiedSince: string | null;
-  statusReason: string | null;
-}
-
-export interface RegistryPage {
-  items: Applicant[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+type RegistryQuery = NonNullable<operations['RegistryController_list']['parameters']['query']>;
 
 export interface RegistryParams {
   status: 'pending' | 'verified' | 'suspended' | 'rejected';
@@ -58,11 +22,11 @@ export interface RegistryParams {
 }
 
 async function fetchSession(): Promise<Me | null> {
-  const first = await api<{ account: Me | null }>('/api/auth/session');
+  const first = await answer(client.GET('/api/auth/session'));
   if (first.account) return first.account;
   // The access cookie may have lapsed while the refresh cookie still holds.
   try {
-    return (await api<{ account: Me | null }>('/api/auth/session/refresh', { method: 'POST' })).account;
+    return (await answer(client.POST('/api/auth/session/refresh'))).account;
   } catch (err) {
     if (err instanceof ApiError && err.status === 401) return null;
     throw err;
@@ -76,13 +40,9 @@ export const registryQuery = (params: RegistryParams) =>
   queryOptions({
     queryKey: ['registry', 'accounts', params],
     queryFn: () =>
-      api<RegistryPage>(
-        `/api/registry/accounts?${new URLSearchParams({
-          status: params.status,
-          sort: params.sort,
-          page: String(params.page),
-          pageSize: String(params.pageSize),
-        })}`,
+      answer(
+        // The sort comes from the page's address; the server answers an unknown one with a 400.
+        client.GET('/api/registry/accounts', { params: { query: params as RegistryQuery } }),
       ),
     placeholderData: keepPreviousData,
   });
@@ -104,20 +64,30 @@ export function useSession() {
 }
 
 export const accountsApi = {
-  signIn: (body: { email: string; password: string }) =>
-    api<{ account: Me }>('/api/auth/sign-in', { method: 'POST', body }),
-  signOut: () => api<void>('/api/auth/session/sign-out', { method: 'POST' }),
-  signUp: (body: Record<string, string>) => api<Message>('/api/auth/sign-up', { method: 'POST', body }),
-  verifyEmail: (token: string) => api<Message>('/api/auth/verify-email', { method: 'POST', body: { token } }),
-  forgotPassword: (email: string) =>
-    api<Message>('/api/auth/forgot-password', { method: 'POST', body: { email } }),
+  signIn: (body: Schemas['SignInDto']) => answer(client.POST('/api/auth/sign-in', { body })),
+  signOut: () => answer(client.POST('/api/auth/session/sign-out')),
+  /**
+   * Sends the application; with a document, as a form carrying the file in `document`. The
+   * form sends the fields it has; the server names any that is missing or wrong.
+   */
+  signUp: (body: Record<string, string>, document?: File | null) => {
+    if (!document) return answer(client.POST('/api/auth/sign-up', { body: body as Schemas['SignUpDto'] }));
+    const form = new FormData();
+    for (const [k, v] of Object.entries(body)) form.append(k, v);
+    form.append('document', document);
+    return api<Message>('/api/auth/sign-up', { method: 'POST', body: form });
+  },
+  verifyEmail: (token: string) => answer(client.POST('/api/auth/verify-email', { body: { token } })),
+  forgotPassword: (email: string) => answer(client.POST('/api/auth/forgot-password', { body: { email } })),
   resetPassword: (token: string, password: string) =>
-    api<Message>('/api/auth/reset-password', { method: 'POST', body: { token, password } }),
+    answer(client.POST('/api/auth/reset-password', { body: { token, password } })),
   changePassword: (currentPassword: string, newPassword: string) =>
-    api<Message>('/api/account/password', { method: 'POST', body: { currentPassword, newPassword } }),
+    answer(client.POST('/api/account/password', { body: { currentPassword, newPassword } })),
   decide: (id: string, action: 'approve' | 'reject' | 'suspend' | 'reinstate', reason?: string) =>
-    api<Applicant>(`/api/registry/accounts/${id}/${action}`, {
-      method: 'POST',
-      body: reason === undefined ? {} : { reason },
-    }),
+    answer(
+      client.POST(`/api/registry/accounts/{id}/${action}`, {
+        params: { path: { id } },
+        body: reason === undefined ? undefined : { reason },
+      }),
+    ),
 };

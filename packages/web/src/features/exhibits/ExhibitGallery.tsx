@@ -1,19 +1,6 @@
-import {
-  Badge,
-  Button,
-  Caption1,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
-  Link,
-  makeStyles,
-  Text,
-  tokens,
-} from '@fluentui/react-components';
+import { Badge, Button, Caption1, Link, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useState } from 'react';
+import { PanelDialog } from '../../shared/ui/ActionDialog';
 import { EXHIBIT_KIND_LABELS, type ExhibitResponse } from './exhibits.api';
 import { VerifiedImage } from './VerifiedImage';
 
@@ -109,46 +96,25 @@ export function ExhibitGallery({ exhibits }: { exhibits: ExhibitResponse[] }) {
       </ul>
       {/* Mounted only while open: a closed dialog would still set up the focus trap's hidden stops. */}
       {open !== null && (
-        <Dialog open onOpenChange={(_ev, d) => !d.open && setOpen(null)}>
-          <DialogSurface aria-describedby={undefined}>
-            {open && (
-              <DialogBody>
-                <DialogTitle>{title(open)}</DialogTitle>
-                <DialogContent>
-                  {web && open.urls.web ? (
-                    <VerifiedImage
-                      src={open.urls.web}
-                      sha256={web.sha256}
-                      alt={title(open)}
-                      className={styles.big}
-                    />
-                  ) : (
-                    <Text>This exhibit has no picture to show; download the original below.</Text>
-                  )}
-                  <div className={styles.meta}>
-                    {open.caption && <Text>{open.caption}</Text>}
-                    <Caption1>
-                      Kind: {EXHIBIT_KIND_LABELS[open.kind]} · entry {open.seq}
-                    </Caption1>
-                    <Caption1 className={styles.hash}>
-                      SHA-256 of the original: {open.original.sha256}
-                    </Caption1>
-                    {open.urls.original && (
-                      <Link href={open.urls.original} download>
-                        Download the original ({open.original.mediaType})
-                      </Link>
-                    )}
-                  </div>
-                </DialogContent>
-                <DialogActions>
-                  <Button appearance="primary" onClick={() => setOpen(null)}>
-                    Close
-                  </Button>
-                </DialogActions>
-              </DialogBody>
+        <PanelDialog title={title(open)} close={() => setOpen(null)}>
+          {web && open.urls.web ? (
+            <VerifiedImage src={open.urls.web} sha256={web.sha256} alt={title(open)} className={styles.big} />
+          ) : (
+            <Text>This exhibit has no picture to show; download the original below.</Text>
+          )}
+          <div className={styles.meta}>
+            {open.caption && <Text>{open.caption}</Text>}
+            <Caption1>
+              Kind: {EXHIBIT_KIND_LABELS[open.kind]} · entry {open.seq}
+            </Caption1>
+            <Caption1 className={styles.hash}>SHA-256 of the original: {open.original.sha256}</Caption1>
+            {open.urls.original && (
+              <Link href={open.urls.original} download>
+                Download the original ({open.original.mediaType})
+              </Link>
             )}
-          </DialogSurface>
-        </Dialog>
+          </div>
+        </PanelDialog>
       )}
     </>
   );

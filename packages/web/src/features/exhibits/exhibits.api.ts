@@ -1,13 +1,8 @@
 import { EXHIBIT_KINDS, type ExhibitDerivative, type ExhibitFile, type ExhibitKind } from '@beadroll/core';
 import { queryOptions } from '@tanstack/react-query';
-import {
-  api,
-  ApiError,
-  CSRF_HEADER,
-  IDEMPOTENCY_HEADER,
-  newIdempotencyKey,
-  withRetries,
-} from '../../lib/api';
+import { answerWithCore, client } from '../../api/client';
+import type { Schemas, WithCore } from '../../api/types';
+import { ApiError, CSRF_HEADER, IDEMPOTENCY_HEADER, newIdempotencyKey, withRetries } from '../../lib/api';
 
 /** Screen labels of the exhibit kinds on a roll. */
 export const EXHIBIT_KIND_LABELS: Record<ExhibitKind, string> = {
@@ -24,30 +19,15 @@ export const EXHIBIT_KIND_OPTIONS: readonly ExhibitKind[] = EXHIBIT_KINDS;
 /** The variants a page can ask for. */
 export type ExhibitVariant = 'original' | 'web' | 'thumb';
 
-/** One exhibit of a lot as the signed-in viewer may see it. */
-export interface ExhibitResponse {
-  seq: number;
-  kind: ExhibitKind;
-  caption?: string;
-  /** Sealed: on the roll only as a commitment; shown to the dealer who added it. */
-  sealed: boolean;
-  addedBy: string;
-  time: string;
-  original: ExhibitFile;
-  derivatives: ExhibitDerivative[];
-  /** Where each variant is served, for this viewer. */
-  urls: Partial<Record<ExhibitVariant, string>>;
-}
+/** One exhibit of a lot as the signed-in viewer may see it (its files as core names them). */
+export type ExhibitResponse = WithCore<
+  Schemas['ExhibitResponse'],
+  { original: ExhibitFile; derivatives: ExhibitDerivative[] }
+>;
 
-export interface ExhibitListResponse {
-  exhibits: ExhibitResponse[];
-}
+export type ExhibitListResponse = WithCore<Schemas['ExhibitListResponse'], { exhibits: ExhibitResponse[] }>;
 
-export interface UploadResult {
-  exhibit: ExhibitResponse;
-  /** How the file was kept (for example a PDF stored as sent). */
-  notes: string[];
-}
+export type UploadResult = WithCore<Schemas['AddExhibitResponse'], { exhibit: ExhibitResponse }>;
 
 export const exhibitKeys = {
   list: (code: string) => ['lots', 'detail', code, 'exhibits'] as const,
@@ -58,7 +38,9 @@ export function exhibitsQuery(code: string) {
   return queryOptions({
     queryKey: exhibitKeys.list(code),
     queryFn: ({ signal }) =>
-      api<ExhibitListResponse>(`/api/lots/${encodeURIComponent(code)}/exhibits`, { signal }),
+      answerWithCore<ExhibitListResponse>(
+        client.GET('/api/lots/{code}/exhibits', { params: { path: { code } }, signal }),
+      ),
   });
 }
 

@@ -1,8 +1,7 @@
-import { fireEvent, render, screen, waitFor, within } from '@testing-library/react';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient } from '@tanstack/react-query';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { Providers } from '../../app/App';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { renderWithProviders } from '../../shared/testing/render';
 import { ExhibitGallery } from './ExhibitGallery';
 import { ExhibitUploader } from './ExhibitUploader';
 import type { ExhibitResponse } from './exhibits.api';
@@ -12,11 +11,6 @@ vi.setConfig({ testTimeout: 20_000 });
 
 // FIPS 180-2, appendix B.1: SHA-256("abc").
 const ABC_SHA256 = 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad';
-
-function renderWith(ui: React.ReactNode) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  return render(<Providers client={client}>{ui}</Providers>);
-}
 
 /** Stands in for the browser's XMLHttpRequest: records what is sent, reports progress on demand. */
 class FakeXhr {
@@ -81,11 +75,10 @@ describe('ExhibitUploader', () => {
     FakeXhr.sent = [];
     vi.stubGlobal('XMLHttpRequest', FakeXhr);
   });
-  afterEach(() => vi.unstubAllGlobals());
 
   it('sends each file on its own with the request header, showing its progress', async () => {
     const user = userEvent.setup();
-    renderWith(<ExhibitUploader code="7K2QM9XAT" />);
+    renderWithProviders(<ExhibitUploader code="7K2QM9XAT" />);
     const a = new File([new Uint8Array(2000)], 'strand.jpg', { type: 'image/jpeg' });
     const b = new File([new Uint8Array(3000)], 'hole.jpg', { type: 'image/jpeg' });
     await user.upload(screen.getByTestId('exhibit-files'), [a, b]);
@@ -118,7 +111,7 @@ describe('ExhibitUploader', () => {
 
   it('shows the UV-A caution when that kind is chosen, and seals receipts', async () => {
     const user = userEvent.setup();
-    renderWith(<ExhibitUploader code="7K2QM9XAT" />);
+    renderWithProviders(<ExhibitUploader code="7K2QM9XAT" />);
     await user.upload(screen.getByTestId('exhibit-files'), [
       new File(['x'], 'glow.jpg', { type: 'image/jpeg' }),
       new File(['y'], 'bill.pdf', { type: 'application/pdf' }),
@@ -142,7 +135,6 @@ describe('ExhibitGallery', () => {
   beforeEach(() => {
     vi.stubGlobal('URL', Object.assign(URL, { createObjectURL: () => 'blob:ok', revokeObjectURL: () => {} }));
   });
-  afterEach(() => vi.unstubAllGlobals());
 
   it('shows an image only when its bytes hash to the SHA-256 on the roll', async () => {
     vi.stubGlobal(
@@ -151,7 +143,9 @@ describe('ExhibitGallery', () => {
         url.startsWith('/x/1/') ? new Response('abc') : new Response('swapped bytes'),
       ),
     );
-    renderWith(<ExhibitGallery exhibits={[exhibit(1), exhibit(2, { caption: 'Under the torch' })]} />);
+    renderWithProviders(
+      <ExhibitGallery exhibits={[exhibit(1), exhibit(2, { caption: 'Under the torch' })]} />,
+    );
     const cards = await screen.findAllByTestId('exhibit-card');
     await waitFor(() => expect(within(cards[0]).getByRole('img')).toHaveAttribute('data-verified', 'true'));
     await waitFor(() => expect(within(cards[1]).getByRole('alert')).toHaveTextContent(/does not match/));
@@ -164,7 +158,7 @@ describe('ExhibitGallery', () => {
       'fetch',
       vi.fn(async () => new Response('abc')),
     );
-    renderWith(<ExhibitGallery exhibits={[exhibit(3)]} />);
+    renderWithProviders(<ExhibitGallery exhibits={[exhibit(3)]} />);
     fireEvent.click(screen.getByRole('button', { name: /Open exhibit 3/ }));
     const dialog = await screen.findByRole('dialog', {}, { timeout: 10_000 });
     expect(within(dialog).getByText('Kind: Hole · entry 3')).toBeInTheDocument();

@@ -6,54 +6,19 @@ import {
   type LotDescription,
   type LotStatus,
 } from '@beadroll/core';
-import { api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 
 /** A lot in the ancestry graph the server draws for a signed-in viewer. */
-export interface AncestryNode {
-  code: string;
-  displayCode: string;
-  depth: number;
-  readable: boolean;
-  title: string | null;
-  status: LotStatus | null;
-  listed: boolean | null;
-  count: BeadCount | null;
-}
+export type AncestryNode = Schemas['AncestryNodeResponse'];
 
 /** Beads went from `from` to `to` through `from`'s entry `seq`. */
-export interface AncestryEdge {
-  from: string;
-  to: string;
-  kind: 'split' | 'combined';
-  seq: number;
-  count: BeadCount;
-}
+export type AncestryEdge = Schemas['AncestryEdgeResponse'];
 
-export interface Ancestry {
-  code: string;
-  nodes: AncestryNode[];
-  edges: AncestryEdge[];
-  truncated: boolean;
-}
-
-export interface LinkedLot {
-  code: string;
-  displayCode: string;
-  count: BeadCount;
-}
-
-export interface SplitResult {
-  parent: string;
-  seq: number;
-  remaining: BeadCount;
-  status: LotStatus;
-  children: LinkedLot[];
-}
-
-export interface CombineResult {
-  lot: LinkedLot;
-  parents: Array<{ code: string; seq: number; count: BeadCount; remaining: BeadCount; status: LotStatus }>;
-}
+export type Ancestry = Schemas['AncestryResponse'];
+export type LinkedLot = Schemas['LinkedLotResponse'];
+export type SplitResult = Schemas['SplitResponse'];
+export type CombineResult = Schemas['CombineResponse'];
 
 /** What the split and combine dialogs need to know about a lot (from its roll state or its detail). */
 export interface LotBasics {
@@ -64,18 +29,17 @@ export interface LotBasics {
 }
 
 /** One row of the dealer's held lots, for choosing what goes into a combination. */
-export interface HeldLot {
-  code: string;
-  displayCode: string;
-  title: string;
-  count: BeadCount;
-  status: LotStatus;
-}
+export type HeldLot = Pick<
+  Schemas['LotSummaryResponse'],
+  'code' | 'displayCode' | 'title' | 'count' | 'status'
+>;
+
+const lot = (code: string) => ({ params: { path: { code } } });
 
 export const ancestryQuery = (code: string) =>
   queryOptions({
     queryKey: ['lots', 'ancestry', code],
-    queryFn: () => api<Ancestry>(`/api/lots/${encodeURIComponent(code)}/ancestry`),
+    queryFn: () => answer(client.GET('/api/lots/{code}/ancestry', lot(code))),
   });
 
 /** The viewer's export bundle of a lot (ancestors in full where the viewer may read them). */
@@ -83,23 +47,34 @@ export const lotBundleQuery = (code: string) =>
   queryOptions({
     queryKey: ['lots', 'bundle', code],
     queryFn: async (): Promise<Bundle> =>
-      parseBundle(await api<unknown>(`/api/lots/${encodeURIComponent(code)}/bundle`)),
+      parseBundle(await answer<unknown>(client.GET('/api/lots/{code}/bundle', lot(code)))),
   });
 
 export const heldLotsQuery = () =>
   queryOptions({
     queryKey: ['lots', 'list', { mine: true, status: 'held', pageSize: 100 }],
-    queryFn: async () =>
-      (await api<{ items: HeldLot[] }>('/api/lots?mine=true&status=held&pageSize=100&sort=title&order=asc'))
-        .items,
+    queryFn: async (): Promise<HeldLot[]> =>
+      (
+        await answer(
+          client.GET('/api/lots', {
+            params: { query: { mine: true, status: 'held', pageSize: 100, sort: 'title', order: 'asc' } },
+          }),
+        )
+      ).items,
   });
 
 export const lineageApi = {
   split: (code: string, children: Array<{ description: LotDescription }>) =>
-    api<SplitResult>(`/api/lots/${encodeURIComponent(code)}/splits`, { method: 'POST', body: { children } }),
+    answer(
+      client.POST('/api/lots/{code}/splits', {
+        ...lot(code),
+        body: { children },
+      }),
+    ),
   combine: (parts: Array<{ lot: string; count?: BeadCount }>, description: LotDescription) =>
-    api<CombineResult>('/api/combinations', {
-      method: 'POST',
-      body: { parts, description } as unknown as Record<string, unknown>,
-    }),
+    answer(
+      client.POST('/api/combinations', {
+        body: { parts, description },
+      }),
+    ),
 };

@@ -13,7 +13,7 @@ import {
 import { QueryClient } from '@tanstack/react-query';
 import { fireEvent, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { Providers } from '../../app/App';
 import { AncestryDiagram } from './AncestryDiagram';
 import { graphFromBundle, inheritedEvidence } from './graph';
@@ -173,18 +173,6 @@ describe('the ancestry diagram', () => {
 });
 
 describe('the split dialog', () => {
-  beforeEach(() =>
-    vi.stubGlobal(
-      'ResizeObserver',
-      class {
-        observe() {}
-        unobserve() {}
-        disconnect() {}
-      },
-    ),
-  );
-  afterEach(() => vi.unstubAllGlobals());
-
   it('shows the remainder, refuses counts over the lot and sends the children', async () => {
     const calls: Array<{ url: string; body: string }> = [];
     vi.stubGlobal(

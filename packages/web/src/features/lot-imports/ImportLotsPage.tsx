@@ -15,7 +15,6 @@ import {
   TableHeaderCell,
   TableRow,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
@@ -24,15 +23,17 @@ import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
 import { FormError } from '../../shared/ui/FormPage';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { lotImportsApi, type CheckResult, type Mapping, type SheetInfo } from './lot-imports.api';
+import { Page } from '../../shared/ui/Page';
+
+const PROBLEM_COLUMNS: Array<ListColumn<{ row: number; key: string; column: string; message: string }>> = [
+  { id: 'row', header: 'Row', cell: (p) => p.row },
+  { id: 'column', header: 'Column', cell: (p) => p.column },
+  { id: 'message', header: 'What to enter', cell: (p) => p.message },
+];
 
 const useStyles = makeStyles({
-  page: {
-    display: 'grid',
-    gridTemplateColumns: 'minmax(0, 1fr)',
-    gap: tokens.spacingVerticalL,
-    maxWidth: '960px',
-  },
   step: {
     display: 'grid',
     gap: tokens.spacingVerticalM,
@@ -97,10 +98,7 @@ export function ImportLotsPage() {
   const ready = checked !== null && checked.rows.length === 0 && checked.total > 0;
 
   return (
-    <section className={styles.page} aria-labelledby="import-title">
-      <Title2 as="h1" id="import-title">
-        Import lots from a spreadsheet
-      </Title2>
+    <Page title="Import lots from a spreadsheet" width="medium">
       <Text>
         For a large purchase: one row per lot, up to 500 lots at once. Nothing is written until every row is
         right, and then all of them are registered together.
@@ -219,28 +217,15 @@ export function ImportLotsPage() {
                   it again and check again; nothing has been imported.
                 </MessageBarBody>
               </MessageBar>
-              <div className={styles.scroll}>
-                <Table aria-label="Rows that need attention" size="small">
-                  <TableHeader>
-                    <TableRow>
-                      <TableHeaderCell>Row</TableHeaderCell>
-                      <TableHeaderCell>Column</TableHeaderCell>
-                      <TableHeaderCell>What to enter</TableHeaderCell>
-                    </TableRow>
-                  </TableHeader>
-                  <TableBody>
-                    {checked.rows.flatMap((r) =>
-                      r.problems.map((p, j) => (
-                        <TableRow key={`${r.row}-${j}`}>
-                          <TableCell>{r.row}</TableCell>
-                          <TableCell>{p.column}</TableCell>
-                          <TableCell>{p.message}</TableCell>
-                        </TableRow>
-                      )),
-                    )}
-                  </TableBody>
-                </Table>
-              </div>
+              <DataTable
+                label="Rows that need attention"
+                size="small"
+                columns={PROBLEM_COLUMNS}
+                rows={checked.rows.flatMap((r) =>
+                  r.problems.map((p, j) => ({ row: r.row, key: `${r.row}-${j}`, ...p })),
+                )}
+                rowKey={(p) => p.key}
+              />
             </>
           ) : (
             <MessageBar intent="success">
@@ -277,6 +262,6 @@ export function ImportLotsPage() {
           {run.isSuccess ? <Link to="/lots">See them in the inventory</Link> : null}
         </section>
       ) : null}
-    </section>
+    </Page>
   );
 }

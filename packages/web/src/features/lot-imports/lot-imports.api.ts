@@ -1,28 +1,14 @@
+import type { Schemas } from '../../api/types';
 import { ApiError, CSRF_HEADER, toApiError } from '../../lib/api';
 
 /** One column a lot may take from the sheet. */
-export interface ImportField {
-  key: string;
-  header: string;
-  required: boolean;
-  hint: string;
-}
+export type ImportField = Schemas['ImportFieldResponse'];
 
 /** A read sheet: its header row, the first rows, and the mapping its headers suggest. */
-export interface SheetInfo {
-  headers: string[];
-  preview: string[][];
-  total: number;
-  suggested: Record<string, number>;
-  fields: ImportField[];
-}
+export type SheetInfo = Schemas['SheetResponse'];
 
 /** The dry run's answer: rows with problems (sheet row numbers; the header is row 1). */
-export interface CheckResult {
-  total: number;
-  valid: number;
-  rows: Array<{ row: number; problems: Array<{ column: string; message: string }> }>;
-}
+export type CheckResult = Schemas['CheckResponse'];
 
 /** Field key → column index; null = not in the file. */
 export type Mapping = Record<string, number | null>;

@@ -18,27 +18,20 @@ import {
   Option,
   SearchBox,
   Spinner,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
-  Title2,
   tokens,
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
-import {
-  createColumnHelper,
-  rowPaginationFeature,
-  rowSortingFeature,
-  tableFeatures,
-  useTable,
-  type SortingState,
-} from '@tanstack/react-table';
 import { useEffect, useState } from 'react';
-import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate } from 'react-router-dom';
+import type { ListColumn } from '../../shared/ui/list/DataTable';
+import {
+  oneOf,
+  useListParams,
+  type ListParams,
+  type ListSort as UrlSort,
+} from '../../shared/ui/list/list-params';
+import { ListView } from '../../shared/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
@@ -50,21 +43,10 @@ import {
   type LotListParams,
   type LotSummary,
 } from './lots.api';
+import { Page } from '../../shared/ui/Page';
 
-const PAGE_SIZE = 20;
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
-/** Column id → the server's sort name. */
-const SORT_OF: Record<string, ListSort> = {
-  code: 'code',
-  title: 'title',
-  form: 'form',
-  count: 'count',
-  origin: 'origin',
-  period: 'period',
-  status: 'status',
-  listed: 'listed',
-  updatedAt: 'updated',
-};
+const DEFAULT_SORT: UrlSort = { key: 'updated', desc: true };
 
 /** How the inventory marks an attribution on record that is not the holder's own. */
 const SOURCE_NOTE: Record<NonNullable<LotSummary['originSource']>, string> = {
@@ -74,14 +56,6 @@ const SOURCE_NOTE: Record<NonNullable<LotSummary['originSource']>, string> = {
 };
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
-  top: {
-    display: 'flex',
-    flexWrap: 'wrap',
-    gap: tokens.spacingHorizontalM,
-    alignItems: 'center',
-    justifyContent: 'space-between',
-  },
   filters: {
     display: 'grid',
     gridTemplateColumns: 'repeat(auto-fit, minmax(10rem, 1fr))',
@@ -91,97 +65,111 @@ const useStyles = makeStyles({
   // Fluent's dropdown is at least 250 px wide; here each control fills its own cell instead.
   control: { minWidth: 0, width: '100%' },
   code: { fontFamily: tokens.fontFamilyMonospace, whiteSpace: 'nowrap' },
-  wide: { '@media (max-width: 700px)': { display: 'none' } },
-  cards: {
-    display: 'none',
-    '@media (max-width: 700px)': {
-      display: 'grid',
-      gap: tokens.spacingVerticalS,
-      listStyleType: 'none',
-      margin: 0,
-      padding: 0,
-    },
-  },
   card: { display: 'grid', gap: tokens.spacingVerticalXXS, padding: tokens.spacingHorizontalM },
   sub: { color: tokens.colorNeutralForeground3 },
-  pager: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'center' },
-  stale: { opacity: 0.6 },
+  buttons: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM, alignItems: 'center' },
   empty: { padding: tokens.spacingHorizontalL, display: 'grid', gap: tokens.spacingVerticalS },
 });
 
-const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
-const helper = createColumnHelper<typeof features, LotSummary>();
-const columns = helper.columns([
-  helper.accessor('displayCode', { id: 'code', header: 'Code' }),
-  helper.accessor('title', { header: 'Title' }),
-  helper.accessor('form', { header: 'Form' }),
-  helper.accessor('count', { header: 'Count' }),
-  helper.accessor('origin', { header: 'Origin' }),
-  helper.accessor('period', { header: 'Period' }),
-  helper.accessor('status', { header: 'Status' }),
-  helper.accessor('listed', { header: 'Listed' }),
-  helper.accessor('updatedAt', { header: 'Last entry' }),
-]);
-
-const EMPTY: LotSummary[] = [];
-
-function pick<T extends string>(v: string | null, allowed: readonly T[]): T | undefined {
-  return allowed.includes(v as T) ? (v as T) : undefined;
-}
-
-/** The list's parameters as the URL holds them. */
-export function paramsFromSearch(search: URLSearchParams): LotListParams {
+/** The list's parameters for the server, from the address. */
+function lotParams({ search, page, pageSize, sort }: ListParams): LotListParams {
   const listed = search.get('listed');
   return {
-    page: Math.max(1, Math.floor(Number(search.get('page'))) || 1),
-    pageSize: PAGE_SIZE,
-    sort: pick(search.get('sort'), LIST_SORTS) ?? 'updated',
-    order: search.get('order') === 'asc' ? 'asc' : 'desc',
+    page,
+    pageSize,
+    sort: (sort?.key ?? DEFAULT_SORT.key) as ListSort,
+    order: (sort ?? DEFAULT_SORT).desc ? 'desc' : 'asc',
     q: search.get('q')?.trim() || undefined,
-    status: pick(search.get('status'), STATUSES),
-    form: pick(search.get('form'), LOT_FORMS),
-    origin: pick(search.get('origin'), ORIGINS),
-    technique: pick(search.get('technique'), TECHNIQUES),
+    status: oneOf(search.get('status'), STATUSES),
+    form: oneOf(search.get('form'), LOT_FORMS),
+    origin: oneOf(search.get('origin'), ORIGINS),
+    technique: oneOf(search.get('technique'), TECHNIQUES),
     listed: listed === 'true' ? true : listed === 'false' ? false : undefined,
     mine: search.get('scope') === 'all' ? undefined : true,
   };
 }
 
-function Cell({ row, column }: { row: LotSummary; column: string }) {
+function originWords(row: LotSummary): string | undefined {
+  return row.origin ? `${ORIGIN_LABEL[row.origin]}${SOURCE_NOTE[row.originSource ?? 'holder']}` : undefined;
+}
+
+function useColumns(): Array<ListColumn<LotSummary>> {
   const styles = useStyles();
-  switch (column) {
-    case 'code':
-      return <span className={styles.code}>{row.displayCode}</span>;
-    case 'title':
-      return <Link to={`/lots/${row.code}`}>{row.title}</Link>;
-    case 'form':
-      return <>{row.form ? FORM_LABEL[row.form] : '—'}</>;
-    case 'count':
-      return <>{formatCount(row.count)}</>;
-    case 'origin':
-      return (
+  return [
+    {
+      id: 'code',
+      header: 'Code',
+      sort: 'code',
+      cell: (row) => <span className={styles.code}>{row.displayCode}</span>,
+    },
+    {
+      id: 'title',
+      header: 'Title',
+      sort: 'title',
+      cell: (row) => <Link to={`/lots/${row.code}`}>{row.title}</Link>,
+    },
+    { id: 'form', header: 'Form', sort: 'form', cell: (row) => (row.form ? FORM_LABEL[row.form] : '—') },
+    { id: 'count', header: 'Count', sort: 'count', descFirst: true, cell: (row) => formatCount(row.count) },
+    {
+      id: 'origin',
+      header: 'Origin',
+      sort: 'origin',
+      cell: (row) => (
         <>
-          {row.origin
-            ? `${ORIGIN_LABEL[row.origin]}${SOURCE_NOTE[row.originSource ?? 'holder']}`
-            : 'No attribution yet'}
+          {originWords(row) ?? 'No attribution yet'}
           {row.technique ? (
             <Text size={200} block className={styles.sub}>
               {TECHNIQUE_LABELS[row.technique]}
             </Text>
           ) : null}
         </>
-      );
-    case 'period':
-      return <>{row.period ? periodWords({ ...row.period, approximate: false }) : '—'}</>;
-    case 'status':
-      return <>{STATUS_LABEL[row.status]}</>;
-    case 'listed':
-      return row.listed ? <Badge appearance="tint">Listed</Badge> : <Text>Unlisted</Text>;
-    case 'updatedAt':
-      return <time dateTime={row.updatedAt}>{formatTime(row.updatedAt)}</time>;
-    default:
-      return null;
-  }
+      ),
+    },
+    {
+      id: 'period',
+      header: 'Period',
+      sort: 'period',
+      cell: (row) => (row.period ? periodWords({ ...row.period, approximate: false }) : '—'),
+    },
+    { id: 'status', header: 'Status', sort: 'status', cell: (row) => STATUS_LABEL[row.status] },
+    {
+      id: 'listed',
+      header: 'Listed',
+      sort: 'listed',
+      descFirst: true,
+      cell: (row) => (row.listed ? <Badge appearance="tint">Listed</Badge> : <Text>Unlisted</Text>),
+    },
+    {
+      id: 'updatedAt',
+      header: 'Last entry',
+      sort: 'updated',
+      descFirst: true,
+      cell: (row) => <time dateTime={row.updatedAt}>{formatTime(row.updatedAt)}</time>,
+    },
+  ];
+}
+
+/** A lot as a card, in place of the table's row on a phone. */
+function LotCard({ lot: r }: { lot: LotSummary }) {
+  const styles = useStyles();
+  return (
+    <Card className={styles.card}>
+      <Link to={`/lots/${r.code}`}>
+        <Text weight="semibold">{r.title}</Text>
+      </Link>
+      <Text size={200} className={styles.code}>
+        {r.displayCode}
+      </Text>
+      <Text size={200}>
+        {r.form ? FORM_LABEL[r.form] : '—'} · {formatCount(r.count)} beads ·{' '}
+        {originWords(r) ?? 'no attribution yet'}
+        {r.period ? `, ${periodWords({ ...r.period, approximate: false })}` : ''}
+      </Text>
+      <Text size={200} className={styles.sub}>
+        {STATUS_LABEL[r.status]} · {r.listed ? 'listed' : 'unlisted'} · last entry {formatTime(r.updatedAt)}
+      </Text>
+    </Card>
+  );
 }
 
 /** The dealer's inventory: the server pages, sorts and filters; the URL keeps the view. */
@@ -189,20 +177,12 @@ export function InventoryPage() {
   const styles = useStyles();
   const { account, isLoading } = useSession();
   const navigate = useNavigate();
-  const [search, setSearch] = useSearchParams();
-  const params = paramsFromSearch(search);
+  const list = useListParams({ sort: DEFAULT_SORT, sorts: LIST_SORTS });
+  const { update } = list;
+  const params = lotParams(list);
+  const columns = useColumns();
   const [text, setText] = useState(params.q ?? '');
   const query = useQuery({ ...lotsQueries.list(params), enabled: account !== null });
-
-  const update = (changes: Record<string, string | undefined>, resetPage = true) => {
-    const next = new URLSearchParams(search);
-    for (const [k, v] of Object.entries(changes)) {
-      if (v === undefined || v === '') next.delete(k);
-      else next.set(k, v);
-    }
-    if (resetPage) next.delete('page');
-    setSearch(next, { replace: true });
-  };
 
   // Searching as one types, a moment after the last key.
   useEffect(() => {
@@ -211,33 +191,7 @@ export function InventoryPage() {
     return () => clearTimeout(t);
   });
 
-  const sortColumn = Object.entries(SORT_OF).find(([, s]) => s === params.sort)?.[0];
-  const sorting: SortingState = sortColumn ? [{ id: sortColumn, desc: params.order === 'desc' }] : [];
   const total = query.data?.total ?? 0;
-  const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
-  const table = useTable({
-    features,
-    columns,
-    data: query.data?.items ?? EMPTY,
-    manualSorting: true,
-    manualPagination: true,
-    rowCount: total,
-    state: { sorting, pagination: { pageIndex: params.page - 1, pageSize: PAGE_SIZE } },
-    onSortingChange: (updater) => {
-      const next = typeof updater === 'function' ? updater(sorting) : updater;
-      const s = next[0];
-      update(
-        s ? { sort: SORT_OF[s.id], order: s.desc ? 'desc' : 'asc' } : { sort: undefined, order: undefined },
-      );
-    },
-    onPaginationChange: (updater) => {
-      const next =
-        typeof updater === 'function'
-          ? updater({ pageIndex: params.page - 1, pageSize: PAGE_SIZE })
-          : updater;
-      update({ page: String(next.pageIndex + 1) }, false);
-    },
-  });
 
   if (isLoading) return <Spinner label="Loading…" />;
   if (!account) return <Navigate to="/sign-in?next=/lots" replace />;
@@ -250,18 +204,14 @@ export function InventoryPage() {
     params.technique ||
     params.listed !== undefined,
   );
-  const rows = table.getRowModel().rows;
-  const stale = query.isPlaceholderData;
 
   const { page: _p, pageSize: _s, ...filters } = params;
 
   return (
-    <section className={styles.page} aria-labelledby="inventory-title">
-      <div className={styles.top}>
-        <Title2 as="h1" id="inventory-title">
-          Inventory
-        </Title2>
-        <div className={styles.pager}>
+    <Page
+      title="Inventory"
+      actions={
+        <div className={styles.buttons}>
           <Button as="a" href={lotsExportUrl(filters, 'csv')} download disabled={total === 0}>
             Export CSV
           </Button>
@@ -274,7 +224,8 @@ export function InventoryPage() {
             </Button>
           ) : null}
         </div>
-      </div>
+      }
+    >
       <div className={styles.filters} role="search" aria-label="Find lots">
         <Field label="Search">
           <SearchBox
@@ -337,111 +288,41 @@ export function InventoryPage() {
           <Text>The lots could not be loaded. Please try again.</Text>
           <Button onClick={() => query.refetch()}>Try again</Button>
         </Card>
-      ) : total === 0 ? (
-        <Card className={styles.empty}>
-          {filtered ? (
-            <>
-              <Text>No lot matches these filters.</Text>
-              <Button
-                onClick={() => {
-                  setText('');
-                  setSearch(new URLSearchParams(params.mine ? {} : { scope: 'all' }), { replace: true });
-                }}
-              >
-                Clear the filters
-              </Button>
-            </>
-          ) : (
-            <>
-              <Text>No lots yet.</Text>
-              {account.role === 'dealer' ? <Link to="/lots/new">Register your first lot</Link> : null}
-            </>
-          )}
-        </Card>
       ) : (
-        <div className={stale ? styles.stale : undefined} aria-busy={stale}>
-          <div className={styles.wide}>
-            <Table aria-label="Lots" size="small">
-              <TableHeader>
-                {table.getHeaderGroups().map((group) => (
-                  <TableRow key={group.id}>
-                    {group.headers.map((header) => {
-                      const sortable = header.column.getCanSort();
-                      const dir = header.column.getIsSorted();
-                      return (
-                        <TableHeaderCell
-                          key={header.id}
-                          sortable={sortable}
-                          sortDirection={
-                            dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined
-                          }
-                          onClick={sortable ? header.column.getToggleSortingHandler() : undefined}
-                        >
-                          <table.FlexRender header={header} />
-                        </TableHeaderCell>
-                      );
-                    })}
-                  </TableRow>
-                ))}
-              </TableHeader>
-              <TableBody>
-                {rows.map((row) => (
-                  <TableRow key={row.id}>
-                    {row.getAllCells().map((cell) => (
-                      <TableCell key={cell.id}>
-                        <Cell row={row.original} column={cell.column.id} />
-                      </TableCell>
-                    ))}
-                  </TableRow>
-                ))}
-              </TableBody>
-            </Table>
-          </div>
-          <ul className={styles.cards} aria-label="Lots">
-            {rows.map((row) => {
-              const r = row.original;
-              return (
-                <li key={row.id}>
-                  <Card className={styles.card}>
-                    <Link to={`/lots/${r.code}`}>
-                      <Text weight="semibold">{r.title}</Text>
-                    </Link>
-                    <Text size={200} className={styles.code}>
-                      {r.displayCode}
-                    </Text>
-                    <Text size={200}>
-                      {r.form ? FORM_LABEL[r.form] : '—'} · {formatCount(r.count)} beads ·{' '}
-                      {r.origin
-                        ? `${ORIGIN_LABEL[r.origin]}${SOURCE_NOTE[r.originSource ?? 'holder']}`
-                        : 'no attribution yet'}
-                      {r.period ? `, ${periodWords({ ...r.period, approximate: false })}` : ''}
-                    </Text>
-                    <Text size={200} className={styles.sub}>
-                      {STATUS_LABEL[r.status]} · {r.listed ? 'listed' : 'unlisted'} · last entry{' '}
-                      {formatTime(r.updatedAt)}
-                    </Text>
-                  </Card>
-                </li>
-              );
-            })}
-          </ul>
-        </div>
+        <ListView
+          label="Lots"
+          columns={columns}
+          query={query}
+          rowKey={(r) => r.code}
+          list={list}
+          noun={['lot', 'lots']}
+          size="small"
+          card={(r) => <LotCard lot={r} />}
+          empty={
+            <Card className={styles.empty}>
+              {filtered ? (
+                <>
+                  <Text>No lot matches these filters.</Text>
+                  <Button
+                    onClick={() => {
+                      setText('');
+                      list.clear(params.mine ? {} : { scope: 'all' });
+                    }}
+                  >
+                    Clear the filters
+                  </Button>
+                </>
+              ) : (
+                <>
+                  <Text>No lots yet.</Text>
+                  {account.role === 'dealer' ? <Link to="/lots/new">Register your first lot</Link> : null}
+                </>
+              )}
+            </Card>
+          }
+        />
       )}
-      {total > 0 ? (
-        <nav className={styles.pager} aria-label="Pages">
-          <Button disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
-            Previous
-          </Button>
-          <Text>
-            Page {params.page} of {pages} · {total} {total === 1 ? 'lot' : 'lots'}
-            {stale ? ' · loading…' : ''}
-          </Text>
-          <Button disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
-            Next
-          </Button>
-        </nav>
-      ) : null}
-    </section>
+    </Page>
   );
 }
 

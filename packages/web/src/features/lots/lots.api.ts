@@ -1,89 +1,35 @@
-import type {
-  BeadCount,
-  LotDescription,
-  LotForm,
-  LotStatus,
-  Money,
-  Observations,
-  Origin,
-  StoredEntry,
-  Technique,
-} from '@beadroll/core';
+import type { LotDescription, Money, Observations, StoredEntry } from '@beadroll/core';
 import { SYSTEM_ACTOR } from '@beadroll/core';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../lib/api';
+import { answer, answerWithCore, client } from '../../api/client';
+import type { operations } from '../../api/schema';
+import type { Schemas, WithCore } from '../../api/types';
 
 /** One row of the lot list, as the server pages it. */
-export interface LotSummary {
-  code: string;
-  displayCode: string;
-  title: string;
-  form: LotForm | null;
-  status: LotStatus;
-  listed: boolean;
-  holder: string;
-  /** Origin of the attribution on record: the holder's, else an earlier holder's or an ancestor's. */
-  origin: Origin | null;
-  /** Whose attribution `origin` is; absent from older servers (the holder's). */
-  originSource?: 'holder' | 'earlier-holder' | 'ancestor' | null;
-  technique: Technique | null;
-  period: { from: number; to: number } | null;
-  count: BeadCount;
-  dissents: number;
-  headSeq: number;
-  registeredAt: string;
-  updatedAt: string;
-}
+export type LotSummary = Schemas['LotSummaryResponse'];
 
-export interface LotListPage {
-  items: LotSummary[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+export type LotListPage = Schemas['LotListResponse'];
 
 /** The viewer's own sealed details (newest value of each). */
-export interface OwnSealedDetails {
-  storageLocation?: string;
-  acquisitionDate?: string;
-  acquisitionSource?: string;
-  acquisitionCost?: Money;
-  privateNote?: string;
-}
+export type OwnSealedDetails = Schemas['OwnSealedDetails'];
 
 /** The server's summary of a lot; the lot page uses it only for the viewer's sealed details. */
-export interface LotDetail extends LotSummary {
-  description: LotDescription | null;
-  observations: Observations | null;
-  remaining: BeadCount;
-  headHash: string;
-  viewerIsHolder: boolean;
-  sealed: OwnSealedDetails;
-}
+export type LotDetail = WithCore<
+  Schemas['LotDetailResponse'],
+  { description: LotDescription | null; observations: Observations | null }
+>;
 
 /** One sealed value the viewer recorded, with its salt. */
-export interface RollSealedField {
-  name: string;
-  salt: string;
-  value: unknown;
-  commitments: Record<string, string>;
-}
+export type RollSealedField = WithCore<
+  Schemas['SealedFieldResponse'],
+  { value: unknown; commitments: Record<string, string> }
+>;
 
 /** One stored entry, with the exact strings the verifier checks. */
-export interface RollEntry extends StoredEntry {
-  seq: number;
-  kind: string;
-  actor: string;
-  time: string;
-  logIndex: number | null;
-  sealed?: RollSealedField[];
-}
+export type RollEntry = WithCore<Schemas['RollEntryResponse'], { sealed?: RollSealedField[] }> & StoredEntry;
 
 /** A lot's whole roll as stored. */
-export interface RawRoll {
-  lot: string;
-  entries: RollEntry[];
-}
+export type RawRoll = WithCore<Schemas['RollResponse'], { entries: RollEntry[] }>;
 
 export const LIST_SORTS = [
   'registered',
@@ -100,19 +46,16 @@ export const LIST_SORTS = [
 ] as const;
 export type ListSort = (typeof LIST_SORTS)[number];
 
+type ListQuery = NonNullable<operations['LotsController_list']['parameters']['query']>;
+
 /** Paging, sorting, filters and search of the lot list (the server's query names). */
-export interface LotListParams {
-  page: number;
-  pageSize: number;
-  sort: ListSort;
-  order: 'asc' | 'desc';
-  q?: string;
-  status?: LotStatus;
-  form?: LotForm;
-  origin?: Origin;
-  technique?: Technique;
-  listed?: boolean;
-  mine?: boolean;
+export type LotListParams = ListQuery & Required<Pick<ListQuery, 'page' | 'pageSize' | 'sort' | 'order'>>;
+
+/** The list request's query: unset and empty filters are left out. */
+export function listQuery(params: Partial<LotListParams>): ListQuery {
+  return Object.fromEntries(
+    Object.entries(params).filter(([, v]) => v !== undefined && v !== ''),
+  ) as ListQuery;
 }
 
 /** Where the browser downloads the lot list from, with its filters (the session cookie goes with it). */
@@ -150,68 +93,62 @@ export interface CreateLotInput {
   sealed?: SealedInput;
 }
 
-const enc = encodeURIComponent;
+const lot = (code: string) => ({ params: { path: { code } } });
 
 export const lotsQueries = {
   list: (params: LotListParams) =>
     queryOptions({
       queryKey: ['lots', 'list', params],
-      queryFn: ({ signal }) => api<LotListPage>(`/api/lots?${listQueryString(params)}`, { signal }),
+      queryFn: ({ signal }) =>
+        answer(client.GET('/api/lots', { params: { query: listQuery(params) }, signal })),
       placeholderData: keepPreviousData,
     }),
   detail: (code: string) =>
     queryOptions({
       queryKey: ['lots', 'detail', code],
-      queryFn: ({ signal }) => api<LotDetail>(`/api/lots/${enc(code)}`, { signal }),
+      queryFn: ({ signal }) =>
+        answerWithCore<LotDetail>(client.GET('/api/lots/{code}', { ...lot(code), signal })),
     }),
   roll: (code: string) =>
     queryOptions({
       queryKey: ['lots', 'roll', code],
-      queryFn: ({ signal }) => api<RawRoll>(`/api/lots/${enc(code)}/roll`, { signal }),
+      queryFn: ({ signal }) =>
+        answerWithCore<RawRoll>(client.GET('/api/lots/{code}/roll', { ...lot(code), signal })),
     }),
 };
 
 export const lotsApi = {
-  register: (body: CreateLotInput) => api<LotDetail>('/api/lots', { method: 'POST', body: { ...body } }),
+  register: (body: CreateLotInput) => answerWithCore<LotDetail>(client.POST('/api/lots', { body })),
   describe: (
     code: string,
     body: { description: DescriptionInput; sealed?: SealedInput; corrects?: { seq: number; reason: string } },
-  ) => api<LotDetail>(`/api/lots/${enc(code)}/descriptions`, { method: 'POST', body: { ...body } }),
+  ) => answerWithCore<LotDetail>(client.POST('/api/lots/{code}/descriptions', { ...lot(code), body })),
   observe: (code: string, observations: Observations, corrects?: { seq: number; reason: string }) =>
-    api<LotDetail>(`/api/lots/${enc(code)}/observations`, {
-      method: 'POST',
-      body: { observations, ...(corrects ? { corrects } : {}) },
-    }),
+    answerWithCore<LotDetail>(
+      client.POST('/api/lots/{code}/observations', {
+        ...lot(code),
+        body: { observations, ...(corrects ? { corrects } : {}) },
+      }),
+    ),
   voidSale: (code: string, reason?: string) =>
-    api<void>(`/api/transfers/sales/${enc(code)}/void`, {
-      method: 'POST',
-      body: reason ? { reason } : {},
-    }),
+    answer(client.POST('/api/transfers/sales/{code}/void', { ...lot(code), body: reason ? { reason } : {} })),
   setListing: (code: string, listed: boolean) =>
-    api<LotDetail>(`/api/lots/${enc(code)}/listing`, { method: 'PUT', body: { listed } }),
-  /** Every page of the current filter, for the CSV export (the server pages at most 100). */
+    answerWithCore<LotDetail>(client.PUT('/api/lots/{code}/listing', { ...lot(code), body: { listed } })),
 };
 
 /** A public card of a verified dealer or assessor. */
-export interface DealerCard {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string | null;
-  town: string | null;
-  country: string | null;
-  verifiedSince: string | null;
-  status: 'verified' | 'suspended' | 'former';
-}
+export type DealerCard = Schemas['DealerCard'];
 
 export const dealerQueries = {
   cards: (ids: readonly string[]) =>
     queryOptions({
       queryKey: ['dealers', 'cards', [...ids].sort()],
       queryFn: ({ signal }) =>
-        api<{ cards: Record<string, DealerCard> }>(
-          `/api/public/dealers?${new URLSearchParams({ ids: [...ids].sort().join(',') })}`,
-          { signal },
+        answer(
+          client.GET('/api/public/dealers', {
+            params: { query: { ids: [...ids].sort().join(',') } },
+            signal,
+          }),
         ),
       staleTime: 5 * 60_000,
     }),

@@ -7,12 +7,11 @@ import {
   type LotDescription,
   type RollHead,
 } from '@beadroll/core';
-import { QueryClient } from '@tanstack/react-query';
-import { render, screen, within } from '@testing-library/react';
+import { screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { Providers, routes } from '../../app/App';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { json, renderAt, stubServer } from '../../shared/testing/render';
+import type { Me } from '../accounts/accounts.api';
 import { LOT_ACTIONS } from './lot-actions';
 import {
   clearDraft,
@@ -25,20 +24,7 @@ import {
 } from './lot-draft';
 import type { RawRoll } from './lots.api';
 
-// jsdom has no ResizeObserver; Fluent's message bar only needs it to exist.
-beforeEach(() =>
-  vi.stubGlobal(
-    'ResizeObserver',
-    class {
-      observe() {}
-      unobserve() {}
-      disconnect() {}
-    },
-  ),
-);
-afterEach(() => vi.unstubAllGlobals());
-
-const ME = {
+const ME: Me = {
   id: '5b0c3f7e-2a1d-4c3e-9f00-1a2b3c4d5e6f',
   role: 'dealer',
   status: 'verified',
@@ -148,21 +134,6 @@ function makeRedactedV1Roll(): { roll: RawRoll; code: string } {
   });
   entries[1] = { ...entries[1]!, body: null };
   return { code, roll: { lot: code, entries } };
-}
-
-function json(body: unknown, status = 200) {
-  return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
-}
-
-function renderAt(path: string) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const router = createMemoryRouter(routes, { initialEntries: [path] });
-  render(
-    <Providers client={client}>
-      <RouterProvider router={router} />
-    </Providers>,
-  );
-  return router;
 }
 
 describe('count helper', () => {
@@ -301,26 +272,18 @@ describe('register form', () => {
   beforeEach(() => {
     localStorage.clear();
     sessionStorage.clear();
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string, init?: RequestInit) => {
-        if (url === '/api/auth/session') return json({ account: ME });
-        if (url === '/api/lots' && init?.method === 'POST')
-          return json(
-            {
-              error: {
-                code: 'validation',
-                message: 'Invalid',
-                fields: [{ field: 'description.title', reason: 'title is already taken by the moon' }],
-              },
+    stubServer(ME, (url, init) =>
+      url === '/api/lots' && init?.method === 'POST'
+        ? json(400, {
+            error: {
+              code: 'validation',
+              message: 'Invalid',
+              fields: [{ field: 'description.title', reason: 'title is already taken by the moon' }],
             },
-            400,
-          );
-        return json({}, 404);
-      }),
+          })
+        : undefined,
     );
   });
-  afterEach(() => vi.unstubAllGlobals());
 
   it('shows field errors from the form and from the server, keeps what was typed, marks private details', async () => {
     const user = userEvent.setup({ delay: null });
@@ -349,13 +312,8 @@ describe('register form', () => {
 
   it('keeps typed private details out of local storage, and forgets the whole draft once registered', async () => {
     const { code } = makeRoll();
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string, init?: RequestInit) => {
-        if (url === '/api/auth/session') return json({ account: ME });
-        if (url === '/api/lots' && init?.method === 'POST') return json({ code }, 201);
-        return json({ error: { code: 'not_found', message: 'Not found.' } }, 404);
-      }),
+    stubServer(ME, (url, init) =>
+      url === '/api/lots' && init?.method === 'POST' ? json(201, { code }) : undefined,
     );
     const user = userEvent.setup({ delay: null });
     renderAt('/lots/new');
@@ -381,18 +339,9 @@ describe('register form', () => {
 });
 
 describe('lot page', () => {
-  afterEach(() => vi.unstubAllGlobals());
-
   it('verifies the raw roll in the browser and renders its timeline and the holder’s actions', async () => {
     const { roll, code } = makeRoll();
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string) => {
-        if (url === '/api/auth/session') return json({ account: ME });
-        if (url === `/api/lots/${code}/roll`) return json(roll);
-        return json({ error: { code: 'not_found', message: 'Not found.' } }, 404);
-      }),
-    );
+    stubServer(ME, (url) => (url === `/api/lots/${code}/roll` ? json(200, roll) : undefined));
     renderAt(`/lots/${code}`);
     expect(await screen.findByText('Verified in this browser')).toBeInTheDocument();
     expect(screen.getByRole('heading', { level: 1 })).toHaveTextContent('Pink rose wound beads');
@@ -415,14 +364,7 @@ describe('lot page', () => {
 
   it('marks an older roll whose removed entry leaves a rule unchecked', async () => {
     const { roll, code } = makeRedactedV1Roll();
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string) => {
-        if (url === '/api/auth/session') return json({ account: ME });
-        if (url === `/api/lots/${code}/roll`) return json(roll);
-        return json({}, 404);
-      }),
-    );
+    stubServer(ME, (url) => (url === `/api/lots/${code}/roll` ? json(200, roll) : undefined));
     renderAt(`/lots/${code}`);
     expect(await screen.findByText('Unbroken, but not fully checkable after a removal')).toBeInTheDocument();
     expect(screen.queryByText('Verified in this browser')).not.toBeInTheDocument();
@@ -435,14 +377,7 @@ describe('lot page', () => {
     const { roll, code } = makeRoll();
     const body = roll.entries[1]!.body!.replace('powder', 'clean');
     roll.entries[1] = { ...roll.entries[1]!, body };
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string) => {
-        if (url === '/api/auth/session') return json({ account: ME });
-        if (url === `/api/lots/${code}/roll`) return json(roll);
-        return json({}, 404);
-      }),
-    );
+    stubServer(ME, (url) => (url === `/api/lots/${code}/roll` ? json(200, roll) : undefined));
     renderAt(`/lots/${code}`);
     expect(await screen.findByText('This roll does not verify')).toBeInTheDocument();
     expect(screen.queryByText('Box 4, top shelf')).not.toBeInTheDocument();

@@ -92,7 +92,28 @@ export function timelineOf(entries: readonly VerifiedEntry[], name: (id: string)
         const detail = b
           ? `${ORIGIN_LABEL[b.origin]}, ${b.period.approximate ? 'about ' : ''}${b.period.from}–${b.period.to}, ${b.confidence} confidence`
           : undefined;
-        return line('recorded an opinion', detail);
+        return line(
+          b?.request !== undefined
+            ? `recorded an opinion asked for at entry ${b.request}`
+            : 'recorded an opinion',
+          detail,
+        );
+      }
+      case 'opinion-requested': {
+        const b = body(e.body, 'opinion-requested');
+        return line(
+          b?.assessor
+            ? `asked ${name(b.assessor)} for an opinion`
+            : 'asked any verified assessor for an opinion',
+        );
+      }
+      case 'opinion-request-closed': {
+        const b = body(e.body, 'opinion-request-closed');
+        return line(
+          b
+            ? `withdrew the request for an opinion of entry ${b.request}`
+            : 'withdrew a request for an opinion',
+        );
       }
       case 'opinion-withdrawn': {
         const b = body(e.body, 'opinion-withdrawn');

@@ -1,58 +1,34 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import { api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 
-export interface RequestParty {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
-}
+/** A requester or assessor: the names part of the dealer card. */
+export type RequestParty = Schemas['PartyName'];
 
-export interface OpinionRequest {
-  id: string;
-  lot: { code: string; displayCode: string; title: string; listed: boolean };
-  requester: RequestParty;
-  /** null: any verified assessor. */
-  assessor: RequestParty | null;
-  note: string | null;
-  status: 'open' | 'answered' | 'cancelled';
-  createdAt: string;
-  closedAt: string | null;
-  opinionSeq: number | null;
-  answeredBy: RequestParty | null;
-}
-
-interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+export type OpinionRequest = Schemas['OpinionRequestResponse'];
 
 export const opinionRequestQueries = {
   box: (box: 'sent' | 'received', page = 1) =>
     queryOptions({
       queryKey: ['opinion-requests', box, { page }],
-      queryFn: () => api<Page<OpinionRequest>>(`/api/opinion-requests?box=${box}&page=${page}&pageSize=50`),
+      queryFn: () =>
+        answer(client.GET('/api/opinion-requests', { params: { query: { box, page, pageSize: 50 } } })),
       placeholderData: keepPreviousData,
     }),
   assessors: (q: string) =>
     queryOptions({
       queryKey: ['opinion-requests', 'assessors', q],
       queryFn: () =>
-        api<{ items: RequestParty[] }>(`/api/opinion-requests/assessors?q=${encodeURIComponent(q.trim())}`),
+        answer(client.GET('/api/opinion-requests/assessors', { params: { query: { q: q.trim() } } })),
       staleTime: 30_000,
     }),
 };
 
 export const opinionRequestsApi = {
-  ask: (draft: { lot: string; assessor?: string; note?: string }) =>
-    api<OpinionRequest>('/api/opinion-requests', { method: 'POST', body: { ...draft } }),
+  ask: (draft: Schemas['CreateOpinionRequestDto']) =>
+    answer(client.POST('/api/opinion-requests', { body: draft })),
   cancel: (id: string) =>
-    api<OpinionRequest>(`/api/opinion-requests/${encodeURIComponent(id)}/cancel`, {
-      method: 'POST',
-      body: {},
-    }),
+    answer(client.POST('/api/opinion-requests/{id}/cancel', { params: { path: { id } } })),
 };
 
 export const REQUEST_STATUS: Record<OpinionRequest['status'], string> = {

@@ -13,7 +13,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
 import { brandVars } from '../public-lot/brand-vars';
 import { ConsensusChart } from '../public-lot/ConsensusChart';
 import '../public-lot/public-lot.css';
@@ -169,13 +169,7 @@ function OpinionCard({
         </div>
       ))}
       {replying && (
-        <form
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            reply.mutate();
-          }}
-        >
+        <Form onSubmit={() => reply.mutate()}>
           <Field label="Your answer" validationMessage={fieldError(reply.error, 'text')}>
             <Textarea value={text} maxLength={LIMITS.longText} onChange={(_, d) => setText(d.value)} />
           </Field>
@@ -186,7 +180,7 @@ function OpinionCard({
             </Button>
             <Button onClick={() => setReplying(false)}>Cancel</Button>
           </div>
-        </form>
+        </Form>
       )}
       {(mine || holderMayAnswer) && !replying && (
         <div className={styles.actions}>

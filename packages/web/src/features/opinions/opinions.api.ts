@@ -1,74 +1,49 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { OpinionBody } from '@beadroll/core';
-import { api } from '../../lib/api';
+import { answerWithCore, client } from '../../api/client';
+import type { Schemas, WithCore } from '../../api/types';
 
 export type OpinionRole = 'attribution' | 'dissent' | 'other';
 export type OpinionDraft = Omit<OpinionBody, 'nonce'>;
 
-export interface OpinionReply {
-  seq: number;
-  author: string;
-  time: string;
-  text: string;
-}
+export type OpinionReply = Schemas['OpinionReply'];
 
-export interface OpinionView {
-  seq: number;
-  author: string;
-  time: string;
-  role: OpinionRole;
-  body: OpinionBody | null;
-  replies: OpinionReply[];
-}
+export type OpinionView = WithCore<Schemas['OpinionView'], { role: OpinionRole; body: OpinionBody | null }>;
 
-export interface AuthorCard {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
-  town: string;
-  country: string;
-  status: string;
-}
+/** An author named on the opinions: the party part of the dealer card. */
+export type AuthorCard = Schemas['PartyCard'];
 
 /** The opinions on a lot as the server derives them (core's reducer over the verified roll). */
-export interface LotOpinions {
-  lot: string;
-  holder: string;
-  listed: boolean;
-  attribution: number | null;
-  dissents: number[];
-  opinions: OpinionView[];
-  cards: Record<string, AuthorCard>;
-}
+export type LotOpinions = WithCore<Schemas['LotOpinionsResponse'], { opinions: OpinionView[] }>;
 
-export interface OpinionWrite {
-  seq: number;
-  hash: string;
-  dissent?: boolean;
-  opinions: LotOpinions;
-}
+export type OpinionWrite = WithCore<Schemas['OpinionWriteResponse'], { opinions: LotOpinions }>;
+
+const opinion = (code: string, seq: number) => ({ params: { path: { code, seq: String(seq) } } });
 
 export const opinionsQuery = (code: string) =>
   queryOptions({
     queryKey: ['lots', 'detail', code, 'opinions'],
-    queryFn: () => api<LotOpinions>(`/api/lots/${encodeURIComponent(code)}/opinions`),
+    queryFn: () =>
+      answerWithCore<LotOpinions>(client.GET('/api/lots/{code}/opinions', { params: { path: { code } } })),
   });
 
 export const opinionsApi = {
   record: (code: string, body: OpinionDraft) =>
-    api<OpinionWrite>(`/api/lots/${encodeURIComponent(code)}/opinions`, {
-      method: 'POST',
-      body: { ...body },
-    }),
+    answerWithCore<OpinionWrite>(
+      client.POST('/api/lots/{code}/opinions', {
+        params: { path: { code } },
+        body,
+      }),
+    ),
   withdraw: (code: string, seq: number, note?: string) =>
-    api<OpinionWrite>(`/api/lots/${encodeURIComponent(code)}/opinions/${seq}/withdrawal`, {
-      method: 'POST',
-      body: note ? { note } : {},
-    }),
+    answerWithCore<OpinionWrite>(
+      client.POST('/api/lots/{code}/opinions/{seq}/withdrawal', {
+        ...opinion(code, seq),
+        body: note ? { note } : {},
+      }),
+    ),
   reply: (code: string, seq: number, text: string) =>
-    api<OpinionWrite>(`/api/lots/${encodeURIComponent(code)}/opinions/${seq}/replies`, {
-      method: 'POST',
-      body: { text },
-    }),
+    answerWithCore<OpinionWrite>(
+      client.POST('/api/lots/{code}/opinions/{seq}/replies', { ...opinion(code, seq), body: { text } }),
+    ),
 };

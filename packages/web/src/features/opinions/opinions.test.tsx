@@ -1,33 +1,11 @@
-import { render, screen, waitFor, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient } from '@tanstack/react-query';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { Providers } from '../../app/App';
+import { describe, expect, it, vi } from 'vitest';
+import { json, renderWithProviders } from '../../shared/testing/render';
 import { OpinionForm } from './OpinionForm';
 import { OpinionsPanel } from './OpinionsPanel';
 import type { OpinionBody } from '@beadroll/core';
 import type { LotOpinions } from './opinions.api';
-
-beforeEach(() =>
-  vi.stubGlobal(
-    'ResizeObserver',
-    class {
-      observe() {}
-      unobserve() {}
-      disconnect() {}
-    },
-  ),
-);
-afterEach(() => vi.unstubAllGlobals());
-
-function json(status: number, body: unknown) {
-  return new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
-}
-
-function wrap(ui: React.ReactNode) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  return render(<Providers client={client}>{ui}</Providers>);
-}
 
 const HOLDER = '11111111-1111-4111-8111-111111111111';
 const ASSESSOR = '22222222-2222-4222-8222-222222222222';
@@ -100,7 +78,9 @@ describe('the opinion form runs the attribution aid as the fields change', () =>
       'fetch',
       vi.fn(async () => json(200, { lot: 'X', entries: [] })),
     );
-    wrap(<OpinionForm code="7K2QM9XAT" observations={{ hole: 'powder' }} decoration={['aventurine']} />);
+    renderWithProviders(
+      <OpinionForm code="7K2QM9XAT" observations={{ hole: 'powder' }} decoration={['aventurine']} />,
+    );
     // Powder in the hole → release-coated mandrel (trade source: "Tornado Beads Redux and Musings on Cleaning Beads").
     const indications = screen.getByRole('list', { name: 'Indications' });
     expect(within(indications).getAllByText(/release/).length).toBeGreaterThan(0);
@@ -127,7 +107,9 @@ describe('the opinion form runs the attribution aid as the fields change', () =>
       'fetch',
       vi.fn(async () => json(200, { lot: 'X', entries: [] })),
     );
-    wrap(<OpinionForm code="7K2QM9XAT" observations={{ uvA: 'green-glow' }} decoration={[]} />);
+    renderWithProviders(
+      <OpinionForm code="7K2QM9XAT" observations={{ uvA: 'green-glow' }} decoration={[]} />,
+    );
     expect(screen.getByLabelText('Caution: ultraviolet light')).toHaveTextContent(/germicidal \(UV-C\) lamp/);
     expect(screen.getByText(/never grind, drill, sand or break it/)).toBeInTheDocument();
   }, 30_000);
@@ -148,7 +130,7 @@ describe('the opinion form runs the attribution aid as the fields change', () =>
         });
       }),
     );
-    wrap(<OpinionForm code="7K2QM9XAT" observations={null} decoration={[]} />);
+    renderWithProviders(<OpinionForm code="7K2QM9XAT" observations={null} decoration={[]} />);
     const user = userEvent.setup({ delay: null });
     await user.type(screen.getByRole('textbox', { name: /From year/ }), '1900');
     await user.type(screen.getByRole('textbox', { name: /To year/ }), '1850');
@@ -186,7 +168,7 @@ describe('the opinions panel', () => {
         return json(200, current);
       }),
     );
-    wrap(<OpinionsPanel code="7K2QM9XAT" viewer={{ id: HOLDER, canWrite: true }} />);
+    renderWithProviders(<OpinionsPanel code="7K2QM9XAT" viewer={{ id: HOLDER, canWrite: true }} />);
     const attribution = await screen.findByRole('article', { name: /Holder’s attribution by Mirela Holt/ });
     expect(attribution).toHaveTextContent('Venice / Murano, about 1880–1920');
     const dissent = screen.getByRole('article', { name: /Dissent by Thea Quill/ });
@@ -217,7 +199,7 @@ describe('the opinions panel', () => {
       'fetch',
       vi.fn(async () => json(200, none)),
     );
-    wrap(<OpinionsPanel code="7K2QM9XAT" viewer={{ id: ASSESSOR, canWrite: true }} />);
+    renderWithProviders(<OpinionsPanel code="7K2QM9XAT" viewer={{ id: ASSESSOR, canWrite: true }} />);
     expect(await screen.findByText('No attribution by the holder yet.')).toBeInTheDocument();
     const mine = screen.getByRole('article', { name: /Opinion by Thea Quill/ });
     expect(within(mine).getByRole('button', { name: 'Withdraw my opinion' })).toBeInTheDocument();

@@ -2,7 +2,7 @@ import * as core from '@beadroll/core';
 import { QueryClient } from '@tanstack/react-query';
 import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import {
   ABC_BYTES,
   ASSESSOR,
@@ -35,7 +35,6 @@ beforeEach(() => {
   URL.createObjectURL = vi.fn(() => `blob:test/${++n}`);
   URL.revokeObjectURL = vi.fn();
 });
-afterEach(() => vi.unstubAllGlobals());
 
 function serve(data: PublicLotResponse) {
   served.set(`/api/public/lots/${data.code}`, () => json(data));
@@ -189,7 +188,7 @@ describe('public lot page: opinions, dissent and a removed body', () => {
   it('shows the holder’s attribution, the dissent with its author, and the chart', async () => {
     serve(lot);
     open(`/l/${lot.code}`);
-    await screen.findByText(/Unbroken history as served: 6 entries/);
+    await screen.findByText(/Unbroken history as served: 7 entries/);
     // The first thing on the page: the attribution on record and the counts, each a link.
     const onRecord = screen.getByRole('region', { name: 'Attribution on record' });
     expect(within(onRecord).getByRole('link', { name: '1 dissent' })).toHaveAttribute(
@@ -217,6 +216,11 @@ describe('public lot page: opinions, dissent and a removed body', () => {
     );
     expect(chart.querySelectorAll('.pl-bar-dissent').length).toBe(1);
     expect(chart.querySelectorAll('.pl-bar-attribution').length).toBe(1);
+    // The holder asked the assessor on the roll; the evidence and opinion say they answer it.
+    expect(
+      screen.getByText(`Opinion asked of an assessor, ${nameOf(ASSESSOR)}, by ${nameOf(DEALER_B)}.`),
+    ).toBeInTheDocument();
+    expect(screen.getByText(/in answer to the request of entry 2\./)).toBeInTheDocument();
   });
 
   it('says when the registrar removed an entry and shows nothing of it', async () => {
@@ -398,5 +402,55 @@ describe('public lot page: an old (format version 1) roll whose removed body hel
     open(`/L/${data.code}`);
     await waitFor(() => expect(status()).toHaveTextContent('not fully checkable after a removal'));
     expect(status()).not.toHaveTextContent('History broken');
+  });
+});
+
+describe('public lot page: the copy kept for no signal', () => {
+  const rolls = exampleRolls();
+  const lot = responseFor(rolls, 0);
+  // What the page's service worker gives with no signal: the kept answer, with the server's
+  // Date (RFC 9110 §6.6.1) and the worker's mark.
+  const saved = (body: unknown) =>
+    new Response(JSON.stringify(body), {
+      status: 200,
+      headers: {
+        'content-type': 'application/json',
+        date: 'Sat, 05 Dec 2026 13:32:00 GMT',
+        'beadroll-saved-copy': 'true',
+      },
+    });
+
+  it('checks the kept copy again and marks it offline with the time it was verified', async () => {
+    served.set(`/api/public/lots/${lot.code}`, () => saved(lot));
+    open(`/l/${lot.code}`);
+    await waitFor(() => expect(status()).toHaveTextContent('Unbroken history as served: 6 entries'));
+    const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' }).format(
+      new Date('2026-12-05T13:32:00Z'),
+    );
+    expect(status()).toHaveTextContent(`offline: as verified at ${when}`);
+    expect(
+      screen.getByText('The registry’s public log is checked when there is a signal.'),
+    ).toBeInTheDocument();
+    // Only the lot's data (and the photo) were asked for: no log check with no signal.
+    expect(fetchMock.mock.calls.map(([url]) => String(url))).not.toContain('/api/log/key');
+  });
+
+  it('says when the kept copy no longer verifies', async () => {
+    const changed = structuredClone(lot);
+    const entry = changed.bundle.rolls[0]!.entries[1] as unknown as { hash: string };
+    entry.hash = `${entry.hash.slice(0, -1)}${entry.hash.endsWith('0') ? '1' : '0'}`;
+    served.set(`/api/public/lots/${lot.code}`, () => saved(changed));
+    open(`/l/${lot.code}`);
+    await waitFor(() =>
+      expect(status()).toHaveTextContent(/offline: the copy kept at .* no longer verifies/),
+    );
+    expect(status()).not.toHaveTextContent('Unbroken history');
+  });
+
+  it('shows no offline mark on an answer from the server itself', async () => {
+    serve(lot);
+    open(`/l/${lot.code}`);
+    await waitFor(() => expect(status()).toHaveTextContent('Unbroken history as served: 6 entries'));
+    expect(status()).not.toHaveTextContent('offline');
   });
 });

@@ -55,6 +55,7 @@ function Frame({ children }: { children: ReactNode }) {
 function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
   const q = useQuery(publicLotQuery(code));
   const data = q.data?.found ? q.data.data : null;
+  const savedCopy = q.data?.found ? q.data.savedCopy : undefined;
   const check = useMemo<LotCheck | null>(
     () => (data ? checkLot(code, data.code === code ? data.bundle : null) : null),
     [code, data],
@@ -76,8 +77,10 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
           {check?.ok && <OnRecord record={check.record} cards={cards} inherited={check.inherited} />}
         </div>
         <div className="pl-side">
-          <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} />
-          {check?.ok && data && <LogPanel code={code} bundle={data.bundle} />}
+          <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} savedCopy={savedCopy} />
+          {check?.ok &&
+            data &&
+            (savedCopy ? <LogWaitsForSignal /> : <LogPanel code={code} bundle={data.bundle} />)}
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
           {check?.ok && <LotFacts state={check.state} />}
           {check?.ok && <HandlingCautions entries={check.entries} />}
@@ -99,6 +102,22 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
       {check && <Body check={check} cards={cards} tagRef={tagRef} />}
       {data && <ReportProblem code={code} />}
     </>
+  );
+}
+
+/** With no signal the registry's public log cannot be asked: said plainly, not as a failure. */
+function LogWaitsForSignal() {
+  return (
+    <section className="pl-card pl-log" aria-labelledby="pl-log-h">
+      <h2 id="pl-log-h" className="pl-visually-hidden">
+        Public log
+      </h2>
+      <p className="pl-status-line">The registry’s public log is checked when there is a signal.</p>
+      <p className="pl-status-sub">
+        The history above was checked in this browser on its own; the log check needs the registry’s newest
+        checkpoint.
+      </p>
+    </section>
   );
 }
 

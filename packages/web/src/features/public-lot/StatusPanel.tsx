@@ -2,16 +2,20 @@ import { useId, useState, type FormEvent } from 'react';
 import { dateWords, BREAK_WORDS } from './words';
 import { checkTag, type LotCheck, type TagCheck } from './check-lot';
 import { formatLotCode } from '@beadroll/core';
+import type { SavedCopy } from './public-lot.api';
 
 /** The verification status, announced to screen readers whenever it changes. */
 export function StatusPanel({
   check,
   loading,
   tagRef,
+  savedCopy,
 }: {
   check: LotCheck | null;
   loading: boolean;
   tagRef: string | null;
+  /** Set when the data is the copy this browser kept, shown with no signal. */
+  savedCopy?: SavedCopy;
 }) {
   const [typed, setTyped] = useState<{ text: string; result: TagCheck } | null>(null);
   const fromAddress = check && tagRef ? checkTag(check.entries, tagRef) : null;
@@ -26,11 +30,35 @@ export function StatusPanel({
       </h2>
       <div role="status" aria-live="polite" aria-atomic="true" className="pl-status-live">
         {loading && <p className="pl-status-line">Fetching the history and checking it in this browser…</p>}
+        {check && savedCopy && <SavedCopyLine savedCopy={savedCopy} ok={check.ok} />}
         {check && <HistoryLine check={check} />}
         {check && tag && <TagLine tag={tag} broken={!check.ok} typed={!fromAddress} />}
       </div>
       {check && !tagRef && <TagBox onCheck={(text, result) => setTyped({ text, result })} check={check} />}
     </section>
+  );
+}
+
+/** When a phone last got this copy, in its own time zone: "5 Dec 2026, 14:32". */
+export function savedAtWords(at: Date | null, locale?: string): string {
+  if (!at) return 'an earlier visit';
+  return new Intl.DateTimeFormat(locale, { dateStyle: 'medium', timeStyle: 'short' }).format(at);
+}
+
+function SavedCopyLine({ savedCopy, ok }: { savedCopy: SavedCopy; ok: boolean }) {
+  const when = savedAtWords(savedCopy.at);
+  return (
+    <div className="pl-offline">
+      <p className="pl-offline-line">
+        {ok ? `offline: as verified at ${when}` : `offline: the copy kept at ${when} no longer verifies`}
+      </p>
+      <p className="pl-status-sub">
+        No signal: this is the copy this phone kept when the page was last opened
+        {ok
+          ? '. Its history was checked again just now, in this browser; newer entries show once the signal returns.'
+          : '. It was checked again just now, in this browser, and it does not check out; do not rely on it.'}
+      </p>
+    </div>
   );
 }
 

@@ -1,30 +1,33 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { Bundle } from '@beadroll/core';
-import { ApiError, api } from '../../lib/api';
+// Types only from the generated API: the public page carries no API client beyond lib/api.
+import type { Schemas, WithCore } from '../../api/types';
+import { ApiError, toApiError } from '../../lib/api';
 
 /** A dealer's card as the registry reports it (not part of the verified roll). */
-export interface DealerCard {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string | null;
-  town: string | null;
-  country: string | null;
-  verifiedSince: string | null;
-  status: 'verified' | 'suspended' | 'former';
-  /** What the account does; absent in data from older servers. */
-  role?: 'dealer' | 'assessor' | 'registrar';
-}
+export type DealerCard = Schemas['DealerCard'];
 
 /** The public data of a listed lot: its bundle (roll first, then ancestors) and the cards of its actors. */
-export interface PublicLotResponse {
-  code: string;
-  bundle: Bundle;
-  cards: Record<string, DealerCard>;
+export type PublicLotResponse = WithCore<Schemas['PublicLotResponse'], { bundle: Bundle }>;
+
+/**
+ * The copy of a lot's data this browser kept when it last opened the page, given by the page's
+ * service worker when there is no signal. `at` is when the server sent that copy (its `Date`),
+ * which is when the page then checked it.
+ */
+export interface SavedCopy {
+  at: Date | null;
 }
 
-/** What the page gets back: the data, or "not a listed lot" (the server says nothing more). */
-export type PublicLotResult = { found: true; data: PublicLotResponse } | { found: false };
+/** Response header the page's service worker adds to an answer from its saved copy. */
+export const SAVED_COPY_HEADER = 'Beadroll-Saved-Copy';
+
+/**
+ * What the page gets back: the data (marked when it is the saved copy), or "not a listed lot"
+ * (the server says nothing more).
+ */
+export type PublicLotResult =
+  { found: true; data: PublicLotResponse; savedCopy?: SavedCopy } | { found: false };
 
 export const publicLotPath = (code: string) => `/api/public/lots/${encodeURIComponent(code)}`;
 export const publicBundlePath = (code: string) => `${publicLotPath(code)}/bundle`;
@@ -58,12 +61,29 @@ export const publicLotQuery = (code: string) =>
   queryOptions({
     queryKey: ['public-lots', 'detail', code],
     queryFn: async ({ signal }): Promise<PublicLotResult> => {
+      // Fetched as the server's preload link names it (CORS mode, this site's cookies only), so
+      // the browser hands over the preloaded answer.
+      let res: Response;
       try {
-        return { found: true, data: await api<PublicLotResponse>(publicLotPath(code), { signal }) };
-      } catch (e) {
-        if (e instanceof ApiError && e.status === 404) return { found: false };
-        throw e;
+        res = await fetch(publicLotPath(code), {
+          headers: { Accept: 'application/json' },
+          credentials: 'same-origin',
+          signal,
+        });
+      } catch (cause) {
+        if ((cause as Error).name === 'AbortError') throw cause;
+        throw new ApiError(
+          0,
+          'network',
+          'Beadroll could not be reached. Check the connection and try again.',
+        );
       }
+      if (res.status === 404) return { found: false };
+      if (!res.ok) throw await toApiError(res);
+      const data = (await res.json()) as PublicLotResponse;
+      if (res.headers.get(SAVED_COPY_HEADER) !== 'true') return { found: true, data };
+      const sent = Date.parse(res.headers.get('Date') ?? '');
+      return { found: true, data, savedCopy: { at: Number.isNaN(sent) ? null : new Date(sent) } };
     },
     staleTime: 60_000,
   });

@@ -9,6 +9,8 @@ import {
   type NoteBody,
   type ObservedBody,
   type OpinionBody,
+  type OpinionRequestClosedBody,
+  type OpinionRequestedBody,
   type OpinionWithdrawnBody,
   type RedactedBody,
   type SaleVoidedBody,
@@ -133,6 +135,8 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
         } else if (b) {
           item.text = `A private exhibit sealed by ${who} (kept by its dealer, not shown).`;
         } else item.text = `An exhibit added by ${who}.`;
+        if (b?.request !== undefined)
+          item.text = item.text.replace(/\.$/, `, in answer to the request of entry ${b.request}.`);
         break;
       }
       case 'opinion': {
@@ -140,6 +144,22 @@ export function buildTimeline(entries: VerifiedEntry[], cards: Record<string, De
         item.text = o
           ? `Opinion by ${who}: ${ORIGIN_WORDS[o.origin]}, ${periodWords(o.period)}.`
           : `Opinion recorded by ${who}.`;
+        if (o?.request !== undefined)
+          item.text = item.text.replace(/\.$/, ` (asked for at entry ${o.request}).`);
+        break;
+      }
+      case 'opinion-requested': {
+        const b = body as OpinionRequestedBody | null;
+        item.text = b?.assessor
+          ? `Opinion asked of an assessor, ${nameOf(cards, b.assessor)}, by ${who}.`
+          : b
+            ? `Opinion asked of an assessor by ${who}: any verified assessor may answer.`
+            : `Opinion asked of an assessor by ${who}.`;
+        break;
+      }
+      case 'opinion-request-closed': {
+        const b = body as OpinionRequestClosedBody | null;
+        item.text = `Request withdrawn by ${who}${b ? ` (the request for an opinion at entry ${b.request})` : ''}.`;
         break;
       }
       case 'opinion-withdrawn': {

@@ -5,29 +5,29 @@ import {
   MessageBarBody,
   ProgressBar,
   Field,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
-  Title2,
   tokens,
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
 import { useRef, useState } from 'react';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { runAudit, type AuditEvent } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '960px' },
-  scroller: { overflowX: 'auto' },
   sub: { color: tokens.colorNeutralForeground3 },
 });
 
 type Broken = Extract<AuditEvent, { type: 'broken' }>;
 type Done = Extract<AuditEvent, { type: 'done' }>;
+
+const columns: Array<ListColumn<Broken>> = [
+  { id: 'lot', header: 'Lot', cell: (b) => formatLotCode(b.lot) },
+  { id: 'seq', header: 'First bad entry', cell: (b) => b.seq },
+  { id: 'reason', header: 'Reason', cell: (b) => b.reason },
+  { id: 'message', header: 'Detail', cell: (b) => b.message },
+];
 
 /** The full-ledger audit as a page: progress while every roll is verified, then the broken ones. */
 export function AuditPage() {
@@ -75,10 +75,7 @@ function Audit() {
   const share =
     progress && progress.lots > 0 ? progress.lotsChecked / progress.lots : running ? undefined : 0;
   return (
-    <section className={styles.page} aria-labelledby="audit-title">
-      <Title2 as="h1" id="audit-title">
-        Full-ledger audit
-      </Title2>
+    <Page title="Full-ledger audit" width="medium">
       <Text className={styles.sub}>
         Verifies every roll in the database from its first entry: hashes, links between entries, the rules of
         each entry, parent links of split and combined lots. Then it compares every copy the database keeps
@@ -123,29 +120,8 @@ function Audit() {
         </MessageBar>
       )}
       {broken.length > 0 && (
-        <div className={styles.scroller}>
-          <Table aria-label="Broken rolls">
-            <TableHeader>
-              <TableRow>
-                <TableHeaderCell>Lot</TableHeaderCell>
-                <TableHeaderCell>First bad entry</TableHeaderCell>
-                <TableHeaderCell>Reason</TableHeaderCell>
-                <TableHeaderCell>Detail</TableHeaderCell>
-              </TableRow>
-            </TableHeader>
-            <TableBody>
-              {broken.map((b) => (
-                <TableRow key={b.lot}>
-                  <TableCell>{formatLotCode(b.lot)}</TableCell>
-                  <TableCell>{b.seq}</TableCell>
-                  <TableCell>{b.reason}</TableCell>
-                  <TableCell>{b.message}</TableCell>
-                </TableRow>
-              ))}
-            </TableBody>
-          </Table>
-        </div>
+        <DataTable label="Broken rolls" columns={columns} rows={broken} rowKey={(b) => b.lot} />
       )}
-    </section>
+    </Page>
   );
 }

@@ -1,13 +1,10 @@
 import {
   Button,
-  Field,
-  Input,
   Link,
   makeStyles,
   MessageBar,
   MessageBarBody,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
@@ -15,11 +12,11 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError, PasswordField } from '../../shared/ui/FormPage';
 import { registryToolsApi } from './registry.api';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalXL, maxWidth: '40rem' },
   block: { display: 'grid', gap: tokens.spacingVerticalM },
 });
 
@@ -46,10 +43,7 @@ export function MyDataPage() {
   if (isLoading) return <Text>Loading…</Text>;
   if (!account) return <Navigate to="/sign-in?next=/account/data" replace />;
   return (
-    <section className={styles.page} aria-labelledby="data-title">
-      <Title2 as="h1" id="data-title">
-        Your data
-      </Title2>
+    <Page title="Your data" width="narrow">
       <div className={styles.block}>
         <Title3 as="h2">Download</Title3>
         <Text>
@@ -71,26 +65,14 @@ export function MyDataPage() {
             Open offers lapse. This cannot be undone.
           </Text>
           {confirming ? (
-            <form
-              className={styles.block}
-              noValidate
-              onSubmit={(e) => {
-                e.preventDefault();
-                close.mutate();
-              }}
-            >
-              <Field
+            <Form className={styles.block} onSubmit={() => close.mutate()}>
+              <PasswordField
                 label="Your password, to confirm"
-                required
+                autoComplete="current-password"
+                value={password}
+                onChange={setPassword}
                 validationMessage={fieldError(close.error, 'password')}
-              >
-                <Input
-                  type="password"
-                  autoComplete="current-password"
-                  value={password}
-                  onChange={(_, d) => setPassword(d.value)}
-                />
-              </Field>
+              />
               <FormError error={close.error} />
               <div>
                 <Button appearance="primary" type="submit" disabled={close.isPending}>
@@ -98,7 +80,7 @@ export function MyDataPage() {
                 </Button>{' '}
                 <Button onClick={() => setConfirming(false)}>Keep my account</Button>
               </div>
-            </form>
+            </Form>
           ) : (
             <div>
               <Button onClick={() => setConfirming(true)}>Close my account…</Button>
@@ -106,6 +88,6 @@ export function MyDataPage() {
           )}
         </div>
       )}
-    </section>
+    </Page>
   );
 }

@@ -7,23 +7,17 @@ import {
   MessageBar,
   MessageBarBody,
   Option,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
   Textarea,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import {
   REDACTION_REASON_LABEL,
   redactionRequestsQuery,
@@ -32,12 +26,11 @@ import {
   type RedactionRequest,
 } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalXL, maxWidth: '960px' },
   form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '32rem' },
   row: { display: 'flex', gap: tokens.spacingHorizontalS, flexWrap: 'wrap' },
-  scroller: { overflowX: 'auto' },
   sub: { color: tokens.colorNeutralForeground3 },
 });
 
@@ -70,14 +63,7 @@ function RedactForm() {
     onSuccess: () => client.invalidateQueries({ queryKey: ['registry'] }),
   });
   return (
-    <form
-      className={styles.form}
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        redact.mutate();
-      }}
-    >
+    <Form className={styles.form} onSubmit={() => redact.mutate()}>
       <Title3 as="h2">Remove an entry’s contents</Title3>
       <Text className={styles.sub}>
         A redacted entry goes on the lot’s roll naming the entry and the reason; the contents (and an
@@ -126,11 +112,11 @@ function RedactForm() {
           Remove the contents
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }
 
-function RequestRow({ r }: { r: RedactionRequest }) {
+function Decision({ r }: { r: RedactionRequest }) {
   const styles = useStyles();
   const client = useQueryClient();
   const [declining, setDeclining] = useState(false);
@@ -142,75 +128,55 @@ function RequestRow({ r }: { r: RedactionRequest }) {
     onSuccess: done,
   });
   return (
-    <TableRow>
-      <TableCell>{formatDate(r.createdAt)}</TableCell>
-      <TableCell>
-        {formatLotCode(r.lot)} · entry {r.seq} ({r.kind})
-      </TableCell>
-      <TableCell>{r.note}</TableCell>
-      <TableCell>
-        <div className={styles.row}>
-          <Button
-            size="small"
-            appearance="primary"
-            onClick={() => approve.mutate()}
-            disabled={approve.isPending}
-          >
-            Remove it
-          </Button>
-          {declining ? (
-            <>
-              <Field label="Why not" validationMessage={fieldError(decline.error, 'reason')}>
-                <Input value={why} onChange={(_, d) => setWhy(d.value)} />
-              </Field>
-              <Button size="small" onClick={() => decline.mutate()} disabled={decline.isPending}>
-                Decline
-              </Button>
-            </>
-          ) : (
-            <Button size="small" onClick={() => setDeclining(true)}>
-              Decline…
+    <>
+      <div className={styles.row}>
+        <Button
+          size="small"
+          appearance="primary"
+          onClick={() => approve.mutate()}
+          disabled={approve.isPending}
+        >
+          Remove it
+        </Button>
+        {declining ? (
+          <>
+            <Field label="Why not" validationMessage={fieldError(decline.error, 'reason')}>
+              <Input value={why} onChange={(_, d) => setWhy(d.value)} />
+            </Field>
+            <Button size="small" onClick={() => decline.mutate()} disabled={decline.isPending}>
+              Decline
             </Button>
-          )}
-        </div>
-        <FormError error={approve.error} />
-      </TableCell>
-    </TableRow>
+          </>
+        ) : (
+          <Button size="small" onClick={() => setDeclining(true)}>
+            Decline…
+          </Button>
+        )}
+      </div>
+      <FormError error={approve.error} />
+    </>
   );
 }
 
+const columns: Array<ListColumn<RedactionRequest>> = [
+  { id: 'asked', header: 'Asked', cell: (r) => formatDate(r.createdAt) },
+  { id: 'entry', header: 'Entry', cell: (r) => `${formatLotCode(r.lot)} · entry ${r.seq} (${r.kind})` },
+  { id: 'why', header: 'Why', cell: (r) => r.note },
+  { id: 'decision', header: 'Decision', cell: (r) => <Decision r={r} /> },
+];
+
 function Redactions() {
-  const styles = useStyles();
   const requests = useQuery(redactionRequestsQuery());
   return (
-    <section className={styles.page} aria-labelledby="redactions-title">
-      <Title2 as="h1" id="redactions-title">
-        Redaction
-      </Title2>
+    <Page title="Redaction" width="medium">
       <RedactForm />
       <div>
         <Title3 as="h2">Holders’ requests</Title3>
         {requests.data?.length === 0 && <Text>No requests are waiting.</Text>}
         {requests.data && requests.data.length > 0 && (
-          <div className={styles.scroller}>
-            <Table aria-label="Holders’ requests">
-              <TableHeader>
-                <TableRow>
-                  <TableHeaderCell>Asked</TableHeaderCell>
-                  <TableHeaderCell>Entry</TableHeaderCell>
-                  <TableHeaderCell>Why</TableHeaderCell>
-                  <TableHeaderCell>Decision</TableHeaderCell>
-                </TableRow>
-              </TableHeader>
-              <TableBody>
-                {requests.data.map((r) => (
-                  <RequestRow key={r.id} r={r} />
-                ))}
-              </TableBody>
-            </Table>
-          </div>
+          <DataTable label="Holders’ requests" columns={columns} rows={requests.data} rowKey={(r) => r.id} />
         )}
       </div>
-    </section>
+    </Page>
   );
 }

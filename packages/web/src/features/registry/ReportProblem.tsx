@@ -2,12 +2,7 @@ import { useMutation } from '@tanstack/react-query';
 import './report-problem.css';
 import { useId, useState } from 'react';
 import { ApiError } from '../../lib/api';
-import {
-  REPORT_CATEGORY_LABEL,
-  REPORT_TEXT_MAX,
-  registryToolsApi,
-  type ReportCategory,
-} from './registry.api';
+import { REPORT_CATEGORY_LABEL, REPORT_TEXT_MAX, fileReport, type ReportCategory } from './registry.api';
 
 const CATEGORIES = Object.keys(REPORT_CATEGORY_LABEL) as ReportCategory[];
 
@@ -39,7 +34,7 @@ export function ReportProblem({ code }: { code: string }) {
   };
   const send = useMutation({
     mutationFn: () =>
-      registryToolsApi.fileReport(code, {
+      fileReport(code, {
         category,
         text: text.trim(),
         ...(email.trim() ? { email: email.trim() } : {}),

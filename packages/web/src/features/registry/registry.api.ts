@@ -1,5 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import { ApiError, api, toApiError } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
+import { api, ApiError, toApiError } from '../../lib/api';
 
 export type RedactionReason = 'personal-data' | 'unlawful-content' | 'abuse' | 'holder-request';
 export const REDACTION_REASON_LABEL: Record<RedactionReason, string> = {
@@ -19,55 +21,10 @@ export const REPORT_CATEGORY_LABEL: Record<ReportCategory, string> = {
 /** The longest report the server takes. */
 export const REPORT_TEXT_MAX = 2000;
 
-export interface Report {
-  id: string;
-  lot: string;
-  category: ReportCategory;
-  text: string;
-  answerWanted: boolean;
-  reporterEmail: string | null;
-  status: 'open' | 'closed';
-  resolution: string | null;
-  closedAt: string | null;
-  createdAt: string;
-}
-
-export interface Paged<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
-
-export interface RegistrarAction {
-  id: string;
-  at: string;
-  actor: string;
-  action: string;
-  subject: string;
-  reason: string | null;
-  details: Record<string, unknown>;
-}
-
-export interface RedactionRequest {
-  id: string;
-  lot: string;
-  seq: number;
-  kind: string;
-  requester: string;
-  note: string;
-  status: 'open' | 'approved' | 'declined';
-  createdAt: string;
-}
-
-export interface Redaction {
-  lot: string;
-  seq: number;
-  redactionSeq: number;
-  reason: RedactionReason;
-  time: string;
-  blockedDigests: string[];
-}
+export type Report = Schemas['ReportResponse'];
+export type RegistrarAction = Schemas['RegistrarActionResponse'];
+export type RedactionRequest = Schemas['RedactionRequestResponse'];
+export type Redaction = Schemas['RedactionResponse'];
 
 /** One line of the full-ledger audit stream. */
 export type AuditEvent =
@@ -86,18 +43,14 @@ export type AuditEvent =
 export const reportsQuery = (p: { status: 'open' | 'closed'; page: number; pageSize: number }) =>
   queryOptions({
     queryKey: ['registry', 'reports', p],
-    queryFn: ({ signal }) =>
-      api<Paged<Report>>(`/api/registry/reports?status=${p.status}&page=${p.page}&pageSize=${p.pageSize}`, {
-        signal,
-      }),
+    queryFn: ({ signal }) => answer(client.GET('/api/registry/reports', { params: { query: p }, signal })),
     placeholderData: keepPreviousData,
   });
 
 export const actionsQuery = (p: { page: number; pageSize: number }) =>
   queryOptions({
     queryKey: ['registry', 'actions', p],
-    queryFn: ({ signal }) =>
-      api<Paged<RegistrarAction>>(`/api/registry/actions?page=${p.page}&pageSize=${p.pageSize}`, { signal }),
+    queryFn: ({ signal }) => answer(client.GET('/api/registry/actions', { params: { query: p }, signal })),
     placeholderData: keepPreviousData,
   });
 
@@ -105,23 +58,37 @@ export const redactionRequestsQuery = () =>
   queryOptions({
     queryKey: ['registry', 'redaction-requests', 'open'],
     queryFn: ({ signal }) =>
-      api<RedactionRequest[]>('/api/registry/redaction-requests?status=open', { signal }),
+      answer(
+        client.GET('/api/registry/redaction-requests', { params: { query: { status: 'open' } }, signal }),
+      ),
   });
 
+const byId = (id: string) => ({ params: { path: { id } } });
+
+/**
+ * Files a report from the public page. Through `lib/api` rather than the typed client: the public
+ * page's bundle stays without the client (the answer's type is still the generated one).
+ */
+export function fileReport(
+  code: string,
+  body: { category: string; text: string; email?: string },
+): Promise<Schemas['FiledReportResponse']> {
+  return api(`/api/public/lots/${encodeURIComponent(code)}/reports`, { body });
+}
+
 export const registryToolsApi = {
-  fileReport: (code: string, body: { category: string; text: string; email?: string }) =>
-    api<{ id: string; message: string }>(`/api/public/lots/${encodeURIComponent(code)}/reports`, { body }),
+  fileReport,
   closeReport: (id: string, resolution: string) =>
-    api<Report>(`/api/registry/reports/${id}/close`, { body: { resolution } }),
+    answer(client.POST('/api/registry/reports/{id}/close', { ...byId(id), body: { resolution } })),
   redact: (body: { lot: string; seq: number; reason: RedactionReason; note?: string }) =>
-    api<Redaction>('/api/registry/redactions', { body }),
+    answer(client.POST('/api/registry/redactions', { body })),
   approveRequest: (id: string) =>
-    api<Redaction>(`/api/registry/redaction-requests/${id}/approve`, { body: {} }),
+    answer(client.POST('/api/registry/redaction-requests/{id}/approve', { ...byId(id), body: {} })),
   declineRequest: (id: string, reason: string) =>
-    api<RedactionRequest>(`/api/registry/redaction-requests/${id}/decline`, { body: { reason } }),
+    answer(client.POST('/api/registry/redaction-requests/{id}/decline', { ...byId(id), body: { reason } })),
   requestRemoval: (code: string, body: { seq: number; note: string }) =>
-    api<RedactionRequest>(`/api/lots/${encodeURIComponent(code)}/redaction-requests`, { body }),
-  closeAccount: (password: string) => api<{ message: string }>('/api/account/close', { body: { password } }),
+    answer(client.POST('/api/lots/{code}/redaction-requests', { params: { path: { code } }, body })),
+  closeAccount: (password: string) => answer(client.POST('/api/account/close', { body: { password } })),
 };
 
 /** Runs the full-ledger audit, calling `onEvent` for each line of the stream as it arrives. */

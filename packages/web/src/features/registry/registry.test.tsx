@@ -1,48 +1,12 @@
 import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { Providers, routes } from '../../app/App';
-import type { Me } from '../accounts/accounts.api';
+import { QueryClientProvider } from '@tanstack/react-query';
+import { describe, expect, it, vi } from 'vitest';
+import { accounts, json, renderAt, stubServer, testClient } from '../../shared/testing/render';
 import { ownRemovableEntries, RemovalRequestAction } from './RemovalRequestAction';
 import { ReportProblem } from './ReportProblem';
 
-beforeEach(() =>
-  vi.stubGlobal(
-    'ResizeObserver',
-    class {
-      observe() {}
-      unobserve() {}
-      disconnect() {}
-    },
-  ),
-);
-afterEach(() => vi.unstubAllGlobals());
-
-const registrar: Me = {
-  id: '6f1c1f7e-8a55-4b43-9a43-000000000001',
-  role: 'registrar',
-  status: 'verified',
-  handle: 'registry-desk',
-  displayName: 'Juno Pellarin',
-  email: 'juno@example.invalid',
-  business: 'Registry',
-  town: 'Rocaille Ford',
-  country: 'Marver Isles',
-  emailVerified: true,
-  verifiedSince: '2025-03-01T09:00:00Z',
-  statusReason: null,
-  createdAt: '2025-03-01T09:00:00Z',
-};
-
-function json(status: number, body: unknown) {
-  return new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
-}
-
-function client() {
-  return new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
-}
+const registrar = accounts.registrar;
 
 describe('report a problem (public page)', () => {
   it('opens from the link, checks the form before sending, and sends category, text and address', async () => {
@@ -56,7 +20,7 @@ describe('report a problem (public page)', () => {
     );
     const user = userEvent.setup();
     render(
-      <QueryClientProvider client={client()}>
+      <QueryClientProvider client={testClient()}>
         <ReportProblem code="7K2QM9XAT" />
       </QueryClientProvider>,
     );
@@ -94,7 +58,7 @@ describe('report a problem (public page)', () => {
     );
     const user = userEvent.setup();
     render(
-      <QueryClientProvider client={client()}>
+      <QueryClientProvider client={testClient()}>
         <ReportProblem code="7K2QM9XAT" />
       </QueryClientProvider>,
     );
@@ -149,7 +113,7 @@ describe('asking the registrar to remove an entry (lot page)', () => {
     );
     const user = userEvent.setup();
     render(
-      <QueryClientProvider client={client()}>
+      <QueryClientProvider client={testClient()}>
         <RemovalRequestAction code="7K2QM9XAT" state={{} as never} viewer={holder} close={() => undefined} />
       </QueryClientProvider>,
     );
@@ -170,23 +134,7 @@ describe('asking the registrar to remove an entry (lot page)', () => {
 });
 
 describe('registrar pages', () => {
-  function serve(extra: (url: string) => Response | undefined) {
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async (url: string) => {
-        if (url === '/api/auth/session') return json(200, { account: registrar });
-        return extra(url) ?? json(404, { error: { code: 'not_found', message: 'Not found.' } });
-      }),
-    );
-  }
-  function open(path: string) {
-    const router = createMemoryRouter(routes, { initialEntries: [path] });
-    render(
-      <Providers client={client()}>
-        <RouterProvider router={router} />
-      </Providers>,
-    );
-  }
+  const serve = (extra: (url: string) => Response | undefined) => stubServer(registrar, extra);
 
   it('runs the audit with progress and lists the broken rolls', async () => {
     const lines = [
@@ -216,7 +164,7 @@ describe('registrar pages', () => {
         : undefined,
     );
     const user = userEvent.setup();
-    open('/registry/audit');
+    renderAt('/registry/audit');
     await user.click(await screen.findByRole('button', { name: 'Run the audit' }));
     expect(await screen.findByText('1 of 3 rolls are broken.')).toBeInTheDocument();
     expect(screen.getByText('3 of 3 lots checked, 11 entries')).toBeInTheDocument();
@@ -249,7 +197,7 @@ describe('registrar pages', () => {
           })
         : undefined,
     );
-    open('/registry/reports');
+    renderAt('/registry/reports');
     const table = await screen.findByRole('table', { name: 'Reports' });
     expect(await within(table).findByText('These are later copies.')).toBeInTheDocument();
     expect(within(table).getByText('Wrong attribution claim')).toBeInTheDocument();

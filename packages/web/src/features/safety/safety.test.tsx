@@ -1,19 +1,13 @@
 import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
 import type { Observations, VerifiedEntry } from '@beadroll/core';
-import { Providers } from '../../app/App';
+import { renderWithProviders } from '../../shared/testing/render';
 import { DescriptionSections } from '../lots/LotFormSections';
 import { EMPTY_DRAFT, type LotDraft } from '../lots/lot-draft';
 import { ObservationChecklist } from '../lots/ObservationChecklist';
 import { HandlingCautions } from '../public-lot/HandlingCautions';
-
-function wrap(ui: React.ReactNode) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  return render(<Providers client={client}>{ui}</Providers>);
-}
 
 function Checklist() {
   const [value, setValue] = useState<Observations>({});
@@ -35,7 +29,7 @@ describe('the observation checklist', () => {
   it('shows the UV caution before any UV result is chosen, with the 365 nm advice marked from memory', () => {
     // UV-C burns eyes and skin: "UV Radiation Safety" (University of Arizona); no source was found
     // for preferring 365 nm over 395 nm torches, so the screen says "from memory".
-    wrap(<Checklist />);
+    renderWithProviders(<Checklist />);
     const uv = screen.getByRole('group', { name: 'Under a UV-A torch' });
     const caution = within(uv).getByLabelText('Caution: ultraviolet light');
     expect(caution).toHaveTextContent(/germicidal \(UV-C\) lamp/);
@@ -44,7 +38,7 @@ describe('the observation checklist', () => {
   }, 30_000);
 
   it('marks every group of hints "common practice, no source" beside them, and asks about a mould seam', () => {
-    wrap(<Checklist />);
+    renderWithProviders(<Checklist />);
     const groups = screen.getAllByRole('group').filter((g) => g.tagName === 'FIELDSET');
     expect(groups.length).toBe(8);
     for (const g of groups)
@@ -55,7 +49,7 @@ describe('the observation checklist', () => {
   it('brings the uranium handling caution on a green glow, and the lead caution for crystal in the note', async () => {
     // Uranium glass: low doses (US NRC NUREG-1717), so "low risk", never "harmless"; a glow is a hint only.
     // Lead crystal roughly 20–30% lead: "Crystal" (tamararubin.com).
-    wrap(<Checklist />);
+    renderWithProviders(<Checklist />);
     const user = userEvent.setup({ delay: null });
     expect(screen.queryByLabelText('Caution: Handling possible uranium glass')).not.toBeInTheDocument();
     await user.click(screen.getByText('Green glow'));
@@ -75,7 +69,7 @@ describe('the observation checklist', () => {
 describe('the description form', () => {
   it('shows the count helper’s formula with its sources beside it', async () => {
     // Formula: "How Many Beads in a Strand" (WireJewelry.com) and "How many beads per inch?" (artbeads.com).
-    wrap(<Description />);
+    renderWithProviders(<Description />);
     const helper = screen.getByRole('status', { name: 'Count helper' });
     expect(within(helper).getByRole('link', { name: 'WireJewelry.com' })).toHaveAttribute(
       'href',
@@ -85,7 +79,7 @@ describe('the description form', () => {
   }, 30_000);
 
   it('brings the handling cautions when uranium or crystal is written in the description', async () => {
-    wrap(<Description />);
+    renderWithProviders(<Description />);
     const user = userEvent.setup({ delay: null });
     expect(screen.queryByRole('group', { name: 'Handling cautions' })).not.toBeInTheDocument();
     await user.type(screen.getByRole('textbox', { name: /Title/ }), 'Uranium glass beads');

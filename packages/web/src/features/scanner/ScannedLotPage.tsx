@@ -13,6 +13,9 @@ import { formatLotCode } from '@beadroll/core';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
+import { ApiError } from '../../lib/api';
+import type { QueuedWrite } from '../../lib/outbox';
+import { OutboxPanel } from '../outbox/OutboxPanel';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
@@ -51,7 +54,48 @@ export function ScannedLotPage() {
   const [action, setAction] = useState<'sell' | 'offer' | null>(null);
   const [sold, setSold] = useState<Sale | null>(null);
   const [offered, setOffered] = useState(false);
+  const [queued, setQueued] = useState<QueuedWrite | null>(null);
 
+  // No signal and the lot not opened before on this page: the code from the tag is all there is.
+  // A sale can still be recorded; it waits on this device and the server checks it when sent.
+  const noSignal =
+    (lot.isPending && (lot.fetchStatus === 'paused' || navigator.onLine === false)) ||
+    (lot.isError && lot.error instanceof ApiError && lot.error.status === 0);
+  if (noSignal)
+    return (
+      <section className={styles.page} aria-labelledby="lot-title">
+        <OutboxPanel />
+        <Title1 as="h1" id="lot-title">
+          Lot {formatLotCode(code)}
+        </Title1>
+        <MessageBar intent="warning" layout="multiline">
+          <MessageBarBody>
+            No signal: the lot’s details cannot be looked up now. You can still record a sale; it waits on
+            this device and is sent when the signal returns, and the server then checks that you hold the lot.
+          </MessageBarBody>
+        </MessageBar>
+        {queued ? (
+          <MessageBar intent="info">
+            <MessageBarBody>Sale recorded on this device: waiting to send.</MessageBarBody>
+          </MessageBar>
+        ) : (
+          <div className={styles.quick} role="group" aria-label="Quick actions">
+            <Button
+              appearance="primary"
+              size="large"
+              className={styles.big}
+              onClick={() => setAction('sell')}
+            >
+              Sell
+            </Button>
+          </div>
+        )}
+        <Button onClick={() => navigate('/scan')}>Scan the next tag</Button>
+        {action === 'sell' ? (
+          <RecordSaleDialog code={code} onClose={() => setAction(null)} onQueued={setQueued} />
+        ) : null}
+      </section>
+    );
   if (lot.isPending) return <Spinner label="Opening the lot…" />;
   if (lot.isError || !lot.data.held)
     return (
@@ -65,6 +109,7 @@ export function ScannedLotPage() {
   const l = lot.data;
   return (
     <section className={styles.page} aria-labelledby="lot-title">
+      <OutboxPanel />
       <Title1 as="h1" id="lot-title">
         {l.title}
       </Title1>
@@ -100,13 +145,18 @@ export function ScannedLotPage() {
           </MessageBarBody>
         </MessageBar>
       ) : null}
+      {queued && l.status === 'held' ? (
+        <MessageBar intent="info">
+          <MessageBarBody>Sale recorded on this device: waiting to send.</MessageBarBody>
+        </MessageBar>
+      ) : null}
       {offered ? (
         <MessageBar intent="success">
           <MessageBarBody>Offered. The lot changes hands when the other dealer accepts.</MessageBarBody>
         </MessageBar>
       ) : null}
       <div className={styles.quick} role="group" aria-label="Quick actions">
-        {l.status === 'held' && !sold ? (
+        {l.status === 'held' && !sold && !queued ? (
           <>
             <Button
               appearance="primary"
@@ -148,6 +198,7 @@ export function ScannedLotPage() {
             setSold(sale);
             void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
           }}
+          onQueued={setQueued}
         />
       ) : null}
       {action === 'offer' ? (

@@ -13,6 +13,7 @@ import { useEffect, useRef, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { createFrameDecoder, type FrameDecoder } from './frame-decoder';
 import { publicPath, readScan, type ScanTarget } from './scan-target';
+import { OutboxPanel } from '../outbox/OutboxPanel';
 import { lookupScannedLot } from './scanner.api';
 
 const useStyles = makeStyles({
@@ -61,7 +62,8 @@ export function ScannerPage() {
   const open = async (target: ScanTarget) => {
     setOpening(target.code);
     const lot = await lookupScannedLot(target.code);
-    if (lot.held) navigate(`/scan/lots/${target.code}${target.ref ? `?ref=${target.ref}` : ''}`);
+    if (lot.held || lot.offline)
+      navigate(`/scan/lots/${target.code}${target.ref ? `?ref=${target.ref}` : ''}`);
     else openPublic(target);
   };
 
@@ -124,6 +126,7 @@ export function ScannerPage() {
 
   return (
     <section className={styles.page} aria-labelledby="scan-title">
+      <OutboxPanel />
       <Title1 as="h1" id="scan-title">
         Scan a tag
       </Title1>

@@ -7,20 +7,14 @@ import {
   MessageBarBody,
   Spinner,
   Subtitle1,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
-  Title2,
   Title3,
   tokens,
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
-import { useMemo } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import { Navigate } from 'react-router-dom';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { useSession } from '../accounts/accounts.api';
 import { ORIGIN_LABEL } from '../lots/labels';
 import { formatMoney } from '../transfers/transfers.api';
@@ -32,16 +26,9 @@ import {
   type SalesPeriod,
   type StockGroup,
 } from './stock.api';
+import { Page } from '../../shared/ui/Page';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
-  top: {
-    display: 'flex',
-    flexWrap: 'wrap',
-    gap: tokens.spacingHorizontalM,
-    alignItems: 'center',
-    justifyContent: 'space-between',
-  },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
   currency: { display: 'grid', gap: tokens.spacingVerticalM, padding: tokens.spacingHorizontalL },
   grid: {
@@ -51,8 +38,6 @@ const useStyles = makeStyles({
   },
   figure: { display: 'grid', gap: tokens.spacingVerticalS, margin: 0, minWidth: 0 },
   big: { fontSize: tokens.fontSizeHero700, lineHeight: tokens.lineHeightHero700 },
-  scroll: { overflowX: 'auto' },
-  number: { textAlign: 'end', fontVariantNumeric: 'tabular-nums' },
 });
 
 function originWords(key: string): string {
@@ -83,11 +68,9 @@ export function StockPage() {
   const data = query.data;
 
   return (
-    <section className={styles.page} aria-labelledby="stock-title">
-      <div className={styles.top}>
-        <Title2 as="h1" id="stock-title">
-          Stock and sales
-        </Title2>
+    <Page
+      title="Stock and sales"
+      actions={
         <div className={styles.actions}>
           <Button as="a" href={stockExportUrl('csv')} download>
             Download stock as CSV
@@ -96,7 +79,8 @@ export function StockPage() {
             Download stock as XLSX
           </Button>
         </div>
-      </div>
+      }
+    >
       <Text>
         Figures from your own private details only: what you paid (your recorded cost, or the price of a
         transfer you accepted) and what you sold for. Nobody else sees them.
@@ -133,7 +117,7 @@ export function StockPage() {
           )}
         </>
       )}
-    </section>
+    </Page>
   );
 }
 
@@ -189,8 +173,7 @@ function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
         </div>
         {f.stock.lots ? (
           <div className={styles.grid}>
-            <figure className={styles.figure}>
-              <Subtitle1 as="h3">Stock by origin</Subtitle1>
+            <Figure heading="Stock by origin">
               <BarChart title={`Cost of stock by origin, ${f.currency}`} format={money} {...charts.origin} />
               <GroupTable
                 label="Stock by origin"
@@ -198,9 +181,8 @@ function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
                 words={originWords}
                 money={money}
               />
-            </figure>
-            <figure className={styles.figure}>
-              <Subtitle1 as="h3">Stock by period</Subtitle1>
+            </Figure>
+            <Figure heading="Stock by period">
               <BarChart
                 title={`Cost of stock by century, ${f.currency}`}
                 format={money}
@@ -212,13 +194,12 @@ function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
                 words={centuryWords}
                 money={money}
               />
-            </figure>
+            </Figure>
           </div>
         ) : (
           <Text>No lot you hold has a cost in {f.currency}.</Text>
         )}
-        <figure className={styles.figure}>
-          <Subtitle1 as="h3">Sales by month</Subtitle1>
+        <Figure heading="Sales by month">
           {f.salesByMonth.length ? (
             <>
               <BarChart
@@ -232,17 +213,29 @@ function CurrencySection({ figures: f }: { figures: CurrencyFigures }) {
           ) : (
             <Text>No sales in {f.currency} yet.</Text>
           )}
-        </figure>
+        </Figure>
         {f.salesByYear.length ? (
-          <figure className={styles.figure}>
-            <Subtitle1 as="h3">Sales by year</Subtitle1>
+          <Figure heading="Sales by year">
             <SalesTable label="Sales by year" periods={f.salesByYear} words={(p) => p} money={money} />
-          </figure>
+          </Figure>
         ) : null}
       </Card>
     </section>
   );
 }
+
+/** A chart or a table of figures under its own heading. */
+function Figure({ heading, children }: { heading: string; children: ReactNode }) {
+  const styles = useStyles();
+  return (
+    <figure className={styles.figure}>
+      <Subtitle1 as="h3">{heading}</Subtitle1>
+      {children}
+    </figure>
+  );
+}
+
+type Money = (n: number) => string;
 
 function GroupTable({
   label,
@@ -253,31 +246,14 @@ function GroupTable({
   label: string;
   groups: StockGroup[];
   words: (key: string) => string;
-  money: (n: number) => string;
+  money: Money;
 }) {
-  const styles = useStyles();
-  return (
-    <div className={styles.scroll}>
-      <Table size="small" aria-label={label}>
-        <TableHeader>
-          <TableRow>
-            <TableHeaderCell>Group</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Lots</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Cost</TableHeaderCell>
-          </TableRow>
-        </TableHeader>
-        <TableBody>
-          {groups.map((g) => (
-            <TableRow key={g.key}>
-              <TableCell>{words(g.key)}</TableCell>
-              <TableCell className={styles.number}>{g.lots}</TableCell>
-              <TableCell className={styles.number}>{money(g.cost)}</TableCell>
-            </TableRow>
-          ))}
-        </TableBody>
-      </Table>
-    </div>
-  );
+  const columns: Array<ListColumn<StockGroup>> = [
+    { id: 'group', header: 'Group', cell: (g) => words(g.key) },
+    { id: 'lots', header: 'Lots', numeric: true, cell: (g) => g.lots },
+    { id: 'cost', header: 'Cost', numeric: true, cell: (g) => money(g.cost) },
+  ];
+  return <DataTable label={label} size="small" columns={columns} rows={groups} rowKey={(g) => g.key} />;
 }
 
 function SalesTable({
@@ -289,36 +265,19 @@ function SalesTable({
   label: string;
   periods: SalesPeriod[];
   words: (period: string) => string;
-  money: (n: number) => string;
+  money: Money;
 }) {
-  const styles = useStyles();
-  return (
-    <div className={styles.scroll}>
-      <Table size="small" aria-label={label}>
-        <TableHeader>
-          <TableRow>
-            <TableHeaderCell>Period</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Sales</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Sold for</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Cost</TableHeaderCell>
-            <TableHeaderCell className={styles.number}>Margin</TableHeaderCell>
-          </TableRow>
-        </TableHeader>
-        <TableBody>
-          {periods.map((p) => (
-            <TableRow key={p.period}>
-              <TableCell>{words(p.period)}</TableCell>
-              <TableCell className={styles.number}>{p.sales}</TableCell>
-              <TableCell className={styles.number}>{money(p.revenue)}</TableCell>
-              <TableCell className={styles.number}>{money(p.cost)}</TableCell>
-              <TableCell className={styles.number}>
-                {money(p.margin)}
-                {p.withoutCost ? ` (${p.withoutCost} without cost)` : ''}
-              </TableCell>
-            </TableRow>
-          ))}
-        </TableBody>
-      </Table>
-    </div>
-  );
+  const columns: Array<ListColumn<SalesPeriod>> = [
+    { id: 'period', header: 'Period', cell: (p) => words(p.period) },
+    { id: 'sales', header: 'Sales', numeric: true, cell: (p) => p.sales },
+    { id: 'revenue', header: 'Sold for', numeric: true, cell: (p) => money(p.revenue) },
+    { id: 'cost', header: 'Cost', numeric: true, cell: (p) => money(p.cost) },
+    {
+      id: 'margin',
+      header: 'Margin',
+      numeric: true,
+      cell: (p) => `${money(p.margin)}${p.withoutCost ? ` (${p.withoutCost} without cost)` : ''}`,
+    },
+  ];
+  return <DataTable label={label} size="small" columns={columns} rows={periods} rowKey={(p) => p.period} />;
 }

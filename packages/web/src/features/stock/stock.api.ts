@@ -1,49 +1,18 @@
 import { queryOptions } from '@tanstack/react-query';
-import { api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 
-export interface CostTotal {
-  lots: number;
-  /** Integer minor units. */
-  cost: number;
-}
-
-export interface StockGroup extends CostTotal {
-  /** An origin code, a century's first year ("1800"), or "none". */
-  key: string;
-}
-
-export interface SalesPeriod {
-  /** "2026-03" or "2026". */
-  period: string;
-  sales: number;
-  revenue: number;
-  cost: number;
-  margin: number;
-  withoutCost: number;
-}
-
-export interface CurrencyFigures {
-  currency: string;
-  minorDigits: number;
-  stock: CostTotal;
-  stockByOrigin: StockGroup[];
-  stockByCentury: StockGroup[];
-  salesByMonth: SalesPeriod[];
-  salesByYear: SalesPeriod[];
-}
-
-export interface StockSummary {
-  currencies: CurrencyFigures[];
-  lotsHeld: number;
-  lotsWithoutCost: number;
-  salesWithoutPrice: number;
-}
+export type CostTotal = Schemas['CostTotal'];
+export type StockGroup = Schemas['StockGroup'];
+export type SalesPeriod = Schemas['SalesPeriod'];
+export type CurrencyFigures = Schemas['CurrencyFigures'];
+export type StockSummary = Schemas['StockSummaryResponse'];
 
 export const stockQueries = {
   summary: () =>
     queryOptions({
       queryKey: ['stock', 'summary'],
-      queryFn: ({ signal }) => api<StockSummary>('/api/stock/summary', { signal }),
+      queryFn: ({ signal }) => answer(client.GET('/api/stock/summary', { signal })),
     }),
 };
 

@@ -1,26 +1,14 @@
-import { render, screen } from '@testing-library/react';
+import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient } from '@tanstack/react-query';
-import { afterEach, describe, expect, it, vi } from 'vitest';
-import { Providers } from '../../app/App';
+import { describe, expect, it, vi } from 'vitest';
+import { json, renderWithProviders } from '../../shared/testing/render';
 import { PrintTagsDialog } from './PrintTagsDialog';
 
-afterEach(() => vi.unstubAllGlobals());
-
-// jsdom has no ResizeObserver; Fluent's MessageBar only needs it to exist.
-// (Fluent marks the surface aria-hidden while its opening motion runs in jsdom, hence `hidden: true`.)
-globalThis.ResizeObserver ??= class {
-  observe() {}
-  unobserve() {}
-  disconnect() {}
-} as unknown as typeof ResizeObserver;
-
-const json = (status: number, body: unknown) =>
-  new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+// Fluent marks the surface aria-hidden while its opening motion runs in jsdom, hence `hidden: true`.
 
 function layouts(barbellFits: boolean) {
   return {
-    host: barbellFits ? '127.0.0.1:3000' : 'TAGS.BEADSX.CO.UK',
+    host: barbellFits ? '127.0.0.1:3000' : 'TAGS.BEAD-REGISTER.EXAMPLE',
     version: barbellFits ? 2 : 3,
     designs: [
       { design: 'string', fits: true, moduleMm: 0.56 },
@@ -35,12 +23,7 @@ function layouts(barbellFits: boolean) {
 
 function renderDialog(fetchMock: ReturnType<typeof vi.fn>, lots = [{ code: '7K2QM9XAT', listed: true }]) {
   vi.stubGlobal('fetch', fetchMock);
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  return render(
-    <Providers client={client}>
-      <PrintTagsDialog lots={lots} />
-    </Providers>,
-  );
+  return renderWithProviders(<PrintTagsDialog lots={lots} />);
 }
 
 describe('print dialog', () => {

@@ -1,12 +1,6 @@
 import {
   Button,
   Checkbox,
-  Dialog,
-  DialogActions,
-  DialogBody,
-  DialogContent,
-  DialogSurface,
-  DialogTitle,
   Field,
   Input,
   MessageBar,
@@ -20,6 +14,7 @@ import {
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
+import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { SheetPicker, sheetGrid } from './SheetPicker';
 import {
   fetchTagPdf,
@@ -201,135 +196,115 @@ export function PrintTagsDialog({
   const barbell = layouts.data?.designs.find((d) => d.design === 'barbell');
   const stringFit = layouts.data?.designs.find((d) => d.design === 'string');
 
-  const surface = (
-    <DialogSurface>
-      <form
-        onSubmit={(e) => {
-          e.preventDefault();
-          print.mutate();
-        }}
-      >
-        <DialogBody>
-          <DialogTitle>{lots.length === 1 ? 'Print a tag' : `Print ${lots.length} tags`}</DialogTitle>
-          <DialogContent className={styles.form}>
-            {barbell && !barbell.fits && (
-              <MessageBar intent="warning">
-                <MessageBarBody>
-                  The public address {layouts.data?.host} is long, so its QR code is version{' '}
-                  {layouts.data?.version}: too small to read on a barbell flag ({barbell.reason}). Use the
-                  string tag, or a taller flag.
-                </MessageBarBody>
-              </MessageBar>
-            )}
-            {stringFit && !stringFit.fits && (
-              <MessageBar intent="error">
-                <MessageBarBody>No tag design fits this public address: {stringFit.reason}.</MessageBarBody>
-              </MessageBar>
-            )}
-            <Field label="Design" validationMessage={fieldMessage('design') ?? fieldMessage('labelHeightMm')}>
-              <RadioGroup value={design} onChange={(_, d) => setDesign(d.value as TagDesign)}>
-                <Radio value="string" label="String tag, about 22 × 35 mm" />
-                <Radio value="barbell" label="Barbell flag for jewellery, about 13 mm tall" />
-              </RadioGroup>
-            </Field>
-            <Field label="Print on" validationMessage={fieldMessage('sheet.paper')}>
-              <RadioGroup value={media} onChange={(_, d) => setMedia(d.value as Media)}>
-                <Radio value="roll" label="Label printer (one label per page)" />
-                <Radio value="a4" label="A4 label sheet" />
-                <Radio value="letter" label="US Letter label sheet" />
-              </RadioGroup>
-            </Field>
-            {media !== 'roll' && (
-              <>
-                <div className={styles.grid}>
-                  {(Object.keys(SHEET_LABELS) as (keyof SheetForm)[]).map((k) => (
-                    <Field key={k} label={SHEET_LABELS[k]} validationMessage={fieldMessage(`sheet.${k}`)}>
-                      <Input
-                        inputMode="decimal"
-                        value={sheet[k]}
-                        onChange={(_, d) => setSheet((s) => ({ ...s, [k]: d.value }))}
-                      />
-                    </Field>
-                  ))}
-                </div>
-                <Field label="First free label" validationMessage={fieldMessage('sheet.skip')}>
-                  {grid ? (
-                    <SheetPicker
-                      columns={grid.columns}
-                      rows={grid.rows}
-                      first={first}
-                      count={lots.length}
-                      onChange={(i) => setFirstBy((f) => ({ ...f, [sheetKey]: i }))}
-                    />
-                  ) : (
-                    <Text>Check the sheet’s columns, rows, margins and gaps.</Text>
-                  )}
-                </Field>
-                <Checkbox
-                  checked={outline}
-                  onChange={(_, d) => setOutline(Boolean(d.checked))}
-                  label="Draw cutting lines (plain paper)"
-                />
-              </>
-            )}
-            {unlisted.length > 0 && (
-              <Field
-                hint="A buyer who scans the tag of an unlisted lot finds no page. Listing writes a 'described' entry on
-                  its roll; printing alone writes nothing."
-              >
-                <Checkbox
-                  checked={confirmList}
-                  onChange={(_, d) => setConfirmList(Boolean(d.checked))}
-                  label={
-                    unlisted.length === 1
-                      ? 'List this lot, so its history is public'
-                      : `List the ${unlisted.length} unlisted lots, so their histories are public`
-                  }
+  const dialog = (
+    <ActionDialog
+      title={lots.length === 1 ? 'Print a tag' : `Print ${lots.length} tags`}
+      close={() => setOpen(false)}
+      onSubmit={() => print.mutate()}
+      submitLabel={print.isPending ? 'Preparing…' : 'Download PDF'}
+      pending={print.isPending}
+      narrow
+    >
+      {barbell && !barbell.fits && (
+        <MessageBar intent="warning">
+          <MessageBarBody>
+            The public address {layouts.data?.host} is long, so its QR code is version {layouts.data?.version}
+            : too small to read on a barbell flag ({barbell.reason}). Use the string tag, or a taller flag.
+          </MessageBarBody>
+        </MessageBar>
+      )}
+      {stringFit && !stringFit.fits && (
+        <MessageBar intent="error">
+          <MessageBarBody>No tag design fits this public address: {stringFit.reason}.</MessageBarBody>
+        </MessageBar>
+      )}
+      <Field label="Design" validationMessage={fieldMessage('design') ?? fieldMessage('labelHeightMm')}>
+        <RadioGroup value={design} onChange={(_, d) => setDesign(d.value as TagDesign)}>
+          <Radio value="string" label="String tag, about 22 × 35 mm" />
+          <Radio value="barbell" label="Barbell flag for jewellery, about 13 mm tall" />
+        </RadioGroup>
+      </Field>
+      <Field label="Print on" validationMessage={fieldMessage('sheet.paper')}>
+        <RadioGroup value={media} onChange={(_, d) => setMedia(d.value as Media)}>
+          <Radio value="roll" label="Label printer (one label per page)" />
+          <Radio value="a4" label="A4 label sheet" />
+          <Radio value="letter" label="US Letter label sheet" />
+        </RadioGroup>
+      </Field>
+      {media !== 'roll' && (
+        <>
+          <div className={styles.grid}>
+            {(Object.keys(SHEET_LABELS) as (keyof SheetForm)[]).map((k) => (
+              <Field key={k} label={SHEET_LABELS[k]} validationMessage={fieldMessage(`sheet.${k}`)}>
+                <Input
+                  inputMode="decimal"
+                  value={sheet[k]}
+                  onChange={(_, d) => setSheet((s) => ({ ...s, [k]: d.value }))}
                 />
               </Field>
+            ))}
+          </div>
+          <Field label="First free label" validationMessage={fieldMessage('sheet.skip')}>
+            {grid ? (
+              <SheetPicker
+                columns={grid.columns}
+                rows={grid.rows}
+                first={first}
+                count={lots.length}
+                onChange={(i) => setFirstBy((f) => ({ ...f, [sheetKey]: i }))}
+              />
+            ) : (
+              <Text>Check the sheet’s columns, rows, margins and gaps.</Text>
             )}
-            {error && !error.fields.length && (
-              <MessageBar intent="error">
-                <MessageBarBody>{error.message}</MessageBarBody>
-              </MessageBar>
-            )}
-            {error?.fields.some((f) => f.field === 'host' || f.field === 'lots') && (
-              <MessageBar intent="error">
-                <MessageBarBody>
-                  {[fieldMessage('host'), fieldMessage('lots')].filter(Boolean).join(' ')}
-                </MessageBarBody>
-              </MessageBar>
-            )}
-            <Text size={200}>
-              A lost tag is simply printed again; the new tag names the lot’s latest entry.
-            </Text>
-          </DialogContent>
-          <DialogActions>
-            <Button onClick={() => setOpen(false)}>Cancel</Button>
-            <Button appearance="primary" type="submit" disabled={print.isPending}>
-              {print.isPending ? 'Preparing…' : 'Download PDF'}
-            </Button>
-          </DialogActions>
-        </DialogBody>
-      </form>
-    </DialogSurface>
+          </Field>
+          <Checkbox
+            checked={outline}
+            onChange={(_, d) => setOutline(Boolean(d.checked))}
+            label="Draw cutting lines (plain paper)"
+          />
+        </>
+      )}
+      {unlisted.length > 0 && (
+        <Field
+          hint="A buyer who scans the tag of an unlisted lot finds no page. Listing writes a 'described' entry on
+                  its roll; printing alone writes nothing."
+        >
+          <Checkbox
+            checked={confirmList}
+            onChange={(_, d) => setConfirmList(Boolean(d.checked))}
+            label={
+              unlisted.length === 1
+                ? 'List this lot, so its history is public'
+                : `List the ${unlisted.length} unlisted lots, so their histories are public`
+            }
+          />
+        </Field>
+      )}
+      {error && !error.fields.length && (
+        <MessageBar intent="error">
+          <MessageBarBody>{error.message}</MessageBarBody>
+        </MessageBar>
+      )}
+      {error?.fields.some((f) => f.field === 'host' || f.field === 'lots') && (
+        <MessageBar intent="error">
+          <MessageBarBody>
+            {[fieldMessage('host'), fieldMessage('lots')].filter(Boolean).join(' ')}
+          </MessageBarBody>
+        </MessageBar>
+      )}
+      <Text size={200}>A lost tag is simply printed again; the new tag names the lot’s latest entry.</Text>
+    </ActionDialog>
   );
 
   return onClose ? (
-    <Dialog open onOpenChange={(_, d) => setOpen(d.open)}>
-      {surface}
-    </Dialog>
+    dialog
   ) : (
     <>
       <Button disabled={lots.length === 0} onClick={() => setOpen(true)}>
         {triggerLabel}
       </Button>
       {/* Mounted only while open: a closed dialog would still set up the focus trap's hidden stops. */}
-      {open && (
-        <Dialog open onOpenChange={(_, d) => setOpen(d.open)}>
-          {surface}
-        </Dialog>
-      )}
+      {open && dialog}
     </>
   );
 }

@@ -1,26 +1,20 @@
 import {
   Checkbox,
+  makeStyles,
   MessageBar,
   MessageBarBody,
   Spinner,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
   Text,
-  Title1,
-  makeStyles,
   tokens,
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { Page } from '../../shared/ui/Page';
 import { PrintTagsDialog } from './PrintTagsDialog';
-import { tagsQueries } from './tags.api';
+import { tagsQueries, type HeldLotRow } from './tags.api';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL },
   bar: { display: 'flex', gap: tokens.spacingHorizontalM, alignItems: 'center', flexWrap: 'wrap' },
 });
 
@@ -39,12 +33,31 @@ export function PrintTagsPage() {
     });
   const selection = items.filter((l) => chosen.has(l.code)).map((l) => ({ code: l.code, listed: l.listed }));
   const all = items.length > 0 && chosen.size === items.length;
+  const columns: Array<ListColumn<HeldLotRow>> = [
+    {
+      id: 'chosen',
+      header: (
+        <Checkbox
+          aria-label="Choose all"
+          checked={all ? true : chosen.size ? 'mixed' : false}
+          onChange={(_, d) => setChosen(d.checked ? new Set(items.map((l) => l.code)) : new Set())}
+        />
+      ),
+      cell: (l) => (
+        <Checkbox
+          aria-label={`Choose ${l.displayCode}`}
+          checked={chosen.has(l.code)}
+          onChange={(_, d) => toggle(l.code, Boolean(d.checked))}
+        />
+      ),
+    },
+    { id: 'code', header: 'Code', cell: (l) => l.displayCode },
+    { id: 'title', header: 'Title', cell: (l) => l.title },
+    { id: 'listed', header: 'Public page', cell: (l) => (l.listed ? 'listed' : 'unlisted') },
+  ];
 
   return (
-    <section className={styles.page} aria-labelledby="tags-title">
-      <Title1 as="h1" id="tags-title">
-        Print tags
-      </Title1>
+    <Page title="Print tags">
       <Text>
         Choose lots you hold. Each tag names the lot’s newest entry; printing writes nothing on the roll.
       </Text>
@@ -69,40 +82,7 @@ export function PrintTagsPage() {
           </Text>
         )}
       </div>
-      {lots.data && (
-        <Table aria-label="Your lots">
-          <TableHeader>
-            <TableRow>
-              <TableHeaderCell>
-                <Checkbox
-                  aria-label="Choose all"
-                  checked={all ? true : chosen.size ? 'mixed' : false}
-                  onChange={(_, d) => setChosen(d.checked ? new Set(items.map((l) => l.code)) : new Set())}
-                />
-              </TableHeaderCell>
-              <TableHeaderCell>Code</TableHeaderCell>
-              <TableHeaderCell>Title</TableHeaderCell>
-              <TableHeaderCell>Public page</TableHeaderCell>
-            </TableRow>
-          </TableHeader>
-          <TableBody>
-            {items.map((l) => (
-              <TableRow key={l.code}>
-                <TableCell>
-                  <Checkbox
-                    aria-label={`Choose ${l.displayCode}`}
-                    checked={chosen.has(l.code)}
-                    onChange={(_, d) => toggle(l.code, Boolean(d.checked))}
-                  />
-                </TableCell>
-                <TableCell>{l.displayCode}</TableCell>
-                <TableCell>{l.title}</TableCell>
-                <TableCell>{l.listed ? 'listed' : 'unlisted'}</TableCell>
-              </TableRow>
-            ))}
-          </TableBody>
-        </Table>
-      )}
-    </section>
+      {lots.data && <DataTable label="Your lots" columns={columns} rows={items} rowKey={(l) => l.code} />}
+    </Page>
   );
 }

@@ -1,4 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 import { api, CSRF_HEADER, toApiError } from '../../lib/api';
 
 export type TagDesign = 'string' | 'barbell';
@@ -13,36 +15,14 @@ export interface TagLayouts {
   papers: Record<Paper, { widthMm: number; heightMm: number }>;
 }
 
-export interface SheetRequest {
-  paper: Paper;
-  columns?: number;
-  rows?: number;
-  marginTopMm: number;
-  marginRightMm: number;
-  marginBottomMm: number;
-  marginLeftMm: number;
-  gapXMm: number;
-  gapYMm: number;
-  skip?: number;
-  outline?: boolean;
-}
-
-export interface TagPrintRequest {
-  lots: string[];
-  design: TagDesign;
-  labelWidthMm?: number;
-  labelHeightMm?: number;
-  sheet?: SheetRequest;
-}
+export type SheetRequest = Schemas['SheetDto'];
+export type TagPrintRequest = Schemas['PrintTagsDto'];
 
 /** A row of the dealer's own lots, as the lot list answers. */
-export interface HeldLotRow {
-  code: string;
-  displayCode: string;
-  title: string;
-  listed: boolean;
-  status: string;
-}
+export type HeldLotRow = Pick<
+  Schemas['LotSummaryResponse'],
+  'code' | 'displayCode' | 'title' | 'listed' | 'status'
+>;
 
 export const tagsQueries = {
   all: () => ['tags'] as const,
@@ -52,8 +32,10 @@ export const tagsQueries = {
     queryOptions({
       queryKey: ['lots', 'list', { mine: true, pageSize: 100 }],
       queryFn: () =>
-        api<{ items: HeldLotRow[]; total: number }>(
-          '/api/lots?mine=true&pageSize=100&sort=updated&order=desc',
+        answer(
+          client.GET('/api/lots', {
+            params: { query: { mine: true, pageSize: 100, sort: 'updated', order: 'desc' } },
+          }),
         ),
     }),
 };
@@ -71,6 +53,6 @@ export async function fetchTagPdf(request: TagPrintRequest): Promise<Blob> {
 }
 
 /** Lists unlisted lots (the holder's confirmation): each gets a `described` entry. */
-export function listLots(lots: string[]): Promise<{ listed: string[] }> {
-  return api<{ listed: string[] }>('/api/tags/list', { body: { lots } });
+export function listLots(lots: string[]): Promise<Schemas['TagListResponse']> {
+  return answer(client.POST('/api/tags/list', { body: { lots } }));
 }

@@ -1,30 +1,18 @@
-import {
-  Badge,
-  Button,
-  MessageBar,
-  MessageBarBody,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
-  Text,
-  Title2,
-  Title3,
-} from '@fluentui/react-components';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { createColumnHelper, tableFeatures, useTable } from '@tanstack/react-table';
+import { Badge, Button, MessageBar, MessageBarBody, Text, Title3 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
-import { useSession } from '../accounts/accounts.api';
+import { FilterButtons } from '../../shared/ui/FilterButtons';
 import { FormError } from '../../shared/ui/FormPage';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { useListParams } from '../../shared/ui/list/list-params';
+import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { useSession } from '../accounts/accounts.api';
 import { OfferDialog } from './OfferDialog';
-import { Pager, useListParams, useListStyles } from '../../shared/ui/ListParts';
 import {
   formatDateTime,
   formatMoney,
+  type Invitation,
   invitationsQuery,
   type Offer,
   type OfferBox,
@@ -33,8 +21,8 @@ import {
   type OfferStatus,
   transfersApi,
 } from './transfers.api';
+import { Page } from '../../shared/ui/Page';
 
-const PAGE_SIZE = 20;
 const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
   { value: 'all', label: 'All' },
   { value: 'open', label: 'Waiting' },
@@ -43,18 +31,66 @@ const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
   { value: 'withdrawn', label: 'Withdrawn' },
   { value: 'lapsed', label: 'Lapsed' },
 ];
+const INVITATION_STATUS: Record<Invitation['status'], string> = {
+  waiting: 'Waiting for them to join',
+  offered: 'Offer made',
+  stalled: 'Could not be offered',
+  cancelled: 'Cancelled',
+};
 
-const features = tableFeatures({});
-const helper = createColumnHelper<typeof features, Offer>();
-const columns = helper.columns([
-  helper.display({ id: 'lot', header: 'Lot' }),
-  helper.display({ id: 'other', header: 'Dealer' }),
-  helper.accessor('offeredAt', { header: 'Offered' }),
-  helper.accessor('status', { header: 'Status' }),
-  helper.display({ id: 'price', header: 'Agreed price' }),
-  helper.display({ id: 'actions', header: '' }),
-]);
-const EMPTY: Offer[] = [];
+function useColumns(box: OfferBox): Array<ListColumn<Offer>> {
+  const styles = useListStyles();
+  return [
+    {
+      id: 'lot',
+      header: 'Lot',
+      cell: (o) => (
+        <>
+          <Link to={`/transfers/offers/${o.id}`}>{o.lot.title || 'Untitled lot'}</Link>
+          <div className={styles.sub}>{o.lot.displayCode}</div>
+        </>
+      ),
+    },
+    {
+      id: 'other',
+      header: box === 'incoming' ? 'From' : 'To',
+      cell: (o) => {
+        const other = box === 'incoming' ? o.offerer : o.recipient;
+        return other ? (
+          <>
+            {other.displayName}
+            <div className={styles.sub}>{other.business}</div>
+          </>
+        ) : (
+          '—'
+        );
+      },
+    },
+    { id: 'offeredAt', header: 'Offered', cell: (o) => formatDateTime(o.offeredAt) },
+    {
+      id: 'status',
+      header: 'Status',
+      cell: (o) => (
+        <Badge appearance="tint" color={o.status === 'open' ? 'brand' : 'informative'}>
+          {OFFER_STATUS_LABEL[o.status]}
+        </Badge>
+      ),
+    },
+    { id: 'price', header: 'Agreed price', cell: (o) => formatMoney(o.price) },
+    {
+      id: 'actions',
+      header: '',
+      cell: (o) => (
+        <div className={styles.actions}>
+          {o.status === 'open' && box === 'incoming' ? (
+            <Link to={`/transfers/offers/${o.id}`}>Answer</Link>
+          ) : null}
+          {o.status === 'open' && box === 'outgoing' ? <Withdraw offer={o} /> : null}
+        </div>
+      ),
+    },
+  ];
+}
 
 function Withdraw({ offer }: { offer: Offer }) {
   const client = useQueryClient();
@@ -82,6 +118,48 @@ function Invitations() {
     onSettled: () => client.invalidateQueries({ queryKey: ['transfers'] }),
   });
   const items = q.data?.items ?? [];
+  const columns: Array<ListColumn<Invitation>> = [
+    { id: 'lot', header: 'Lot', cell: (i) => `${i.lot.title} (${i.lot.displayCode})` },
+    {
+      id: 'invited',
+      header: 'Invited',
+      cell: (i) => (
+        <>
+          {i.email}
+          <div className={styles.sub}>{formatDateTime(i.createdAt)}</div>
+        </>
+      ),
+    },
+    {
+      id: 'status',
+      header: 'Status',
+      cell: (i) => (
+        <>
+          {INVITATION_STATUS[i.status]}
+          {i.statusReason ? <div className={styles.sub}>{i.statusReason}</div> : null}
+        </>
+      ),
+    },
+    {
+      id: 'actions',
+      header: '',
+      cell: (i) => (
+        <div className={styles.actions}>
+          {i.status === 'stalled' ? (
+            <Button size="small" onClick={() => act.mutate({ id: i.id, action: 'offer' })}>
+              Try the offer again
+            </Button>
+          ) : null}
+          {i.status === 'waiting' || i.status === 'stalled' ? (
+            <Button size="small" onClick={() => act.mutate({ id: i.id, action: 'cancel' })}>
+              Cancel
+            </Button>
+          ) : null}
+          {i.offerId ? <Link to={`/transfers/offers/${i.offerId}`}>Open the offer</Link> : null}
+        </div>
+      ),
+    },
+  ];
   if (!items.length) return null;
   return (
     <section className={styles.page} aria-labelledby="invitations-title">
@@ -92,57 +170,7 @@ function Invitations() {
         Offers to e-mail addresses without a verified dealer account. Each becomes an offer when the registrar
         verifies that dealer; the address never goes on a lot’s history.
       </Text>
-      <div className={styles.scroller}>
-        <Table className={styles.table} aria-label="Invitations">
-          <TableHeader>
-            <TableRow>
-              <TableHeaderCell>Lot</TableHeaderCell>
-              <TableHeaderCell>Invited</TableHeaderCell>
-              <TableHeaderCell>Status</TableHeaderCell>
-              <TableHeaderCell />
-            </TableRow>
-          </TableHeader>
-          <TableBody>
-            {items.map((i) => (
-              <TableRow key={i.id}>
-                <TableCell>
-                  {i.lot.title} ({i.lot.displayCode})
-                </TableCell>
-                <TableCell>
-                  {i.email}
-                  <div className={styles.sub}>{formatDateTime(i.createdAt)}</div>
-                </TableCell>
-                <TableCell>
-                  {
-                    {
-                      waiting: 'Waiting for them to join',
-                      offered: 'Offer made',
-                      stalled: 'Could not be offered',
-                      cancelled: 'Cancelled',
-                    }[i.status]
-                  }
-                  {i.statusReason ? <div className={styles.sub}>{i.statusReason}</div> : null}
-                </TableCell>
-                <TableCell>
-                  <div className={styles.actions}>
-                    {i.status === 'stalled' ? (
-                      <Button size="small" onClick={() => act.mutate({ id: i.id, action: 'offer' })}>
-                        Try the offer again
-                      </Button>
-                    ) : null}
-                    {i.status === 'waiting' || i.status === 'stalled' ? (
-                      <Button size="small" onClick={() => act.mutate({ id: i.id, action: 'cancel' })}>
-                        Cancel
-                      </Button>
-                    ) : null}
-                    {i.offerId ? <Link to={`/transfers/offers/${i.offerId}`}>Open the offer</Link> : null}
-                  </div>
-                </TableCell>
-              </TableRow>
-            ))}
-          </TableBody>
-        </Table>
-      </div>
+      <DataTable label="Invitations" columns={columns} rows={items} rowKey={(i) => i.id} wide />
       <FormError error={act.error} />
     </section>
   );
@@ -152,13 +180,13 @@ function Invitations() {
 export function OffersPage({ box }: { box: OfferBox }) {
   const styles = useListStyles();
   const { account, isLoading, canWrite } = useSession();
-  const { search, page, update } = useListParams();
-  const status = FILTERS.find((f) => f.value === search.get('status'))?.value ?? 'all';
+  const list = useListParams();
+  const columns = useColumns(box);
+  const status = FILTERS.find((f) => f.value === list.search.get('status'))?.value ?? 'all';
   const query = useQuery({
-    ...offersQuery(box, status === 'all' ? undefined : status, page, PAGE_SIZE),
+    ...offersQuery(box, status === 'all' ? undefined : status, list.page, list.pageSize),
     enabled: account?.role === 'dealer',
   });
-  const table = useTable({ features, columns, data: query.data?.items ?? EMPTY });
   const [offering, setOffering] = useState(false);
   const [made, setMade] = useState<string | null>(null);
   const title = box === 'incoming' ? 'Incoming offers' : 'Outgoing offers';
@@ -168,17 +196,16 @@ export function OffersPage({ box }: { box: OfferBox }) {
   if (account.role !== 'dealer') return <Text>Only dealers take part in transfers.</Text>;
 
   return (
-    <section className={styles.page} aria-labelledby="offers-title">
-      <div className={styles.head}>
-        <Title2 as="h1" id="offers-title" className={styles.grow}>
-          {title}
-        </Title2>
-        {box === 'outgoing' && canWrite ? (
+    <Page
+      title={title}
+      actions={
+        box === 'outgoing' && canWrite ? (
           <Button appearance="primary" onClick={() => setOffering(true)}>
             Offer a lot
           </Button>
-        ) : null}
-      </div>
+        ) : null
+      }
+    >
       {made ? (
         <MessageBar intent="success">
           <MessageBarBody>{made}</MessageBarBody>
@@ -189,72 +216,16 @@ export function OffersPage({ box }: { box: OfferBox }) {
           label="Offers by status"
           value={status}
           options={FILTERS}
-          onChange={(v) => update({ status: v === 'all' ? undefined : String(v) })}
+          onChange={(v) => list.update({ status: v === 'all' ? undefined : String(v) })}
         />
       </div>
-      <div className={styles.scroller}>
-        <Table className={styles.table} aria-label={title}>
-          <TableHeader>
-            {table.getHeaderGroups().map((group) => (
-              <TableRow key={group.id}>
-                {group.headers.map((header) => (
-                  <TableHeaderCell key={header.id}>
-                    {header.column.id === 'other' ? (
-                      box === 'incoming' ? (
-                        'From'
-                      ) : (
-                        'To'
-                      )
-                    ) : (
-                      <table.FlexRender header={header} />
-                    )}
-                  </TableHeaderCell>
-                ))}
-              </TableRow>
-            ))}
-          </TableHeader>
-          <TableBody>
-            {table.getRowModel().rows.map((row) => {
-              const o = row.original;
-              const other = box === 'incoming' ? o.offerer : o.recipient;
-              return (
-                <TableRow key={row.id}>
-                  <TableCell>
-                    <Link to={`/transfers/offers/${o.id}`}>{o.lot.title || 'Untitled lot'}</Link>
-                    <div className={styles.sub}>{o.lot.displayCode}</div>
-                  </TableCell>
-                  <TableCell>
-                    {other ? other.displayName : '—'}
-                    {other ? <div className={styles.sub}>{other.business}</div> : null}
-                  </TableCell>
-                  <TableCell>{formatDateTime(o.offeredAt)}</TableCell>
-                  <TableCell>
-                    <Badge appearance="tint" color={o.status === 'open' ? 'brand' : 'informative'}>
-                      {OFFER_STATUS_LABEL[o.status]}
-                    </Badge>
-                  </TableCell>
-                  <TableCell>{formatMoney(o.price)}</TableCell>
-                  <TableCell>
-                    <div className={styles.actions}>
-                      {o.status === 'open' && box === 'incoming' ? (
-                        <Link to={`/transfers/offers/${o.id}`}>Answer</Link>
-                      ) : null}
-                      {o.status === 'open' && box === 'outgoing' ? <Withdraw offer={o} /> : null}
-                    </div>
-                  </TableCell>
-                </TableRow>
-              );
-            })}
-          </TableBody>
-        </Table>
-      </div>
-      {query.data && query.data.total === 0 ? <Text>No offers here.</Text> : null}
-      <Pager
-        page={page}
-        total={query.data?.total ?? 0}
-        pageSize={PAGE_SIZE}
-        noun="offers"
-        onPage={(p) => update({ page: String(p) })}
+      <ListView
+        label={title}
+        columns={columns}
+        query={query}
+        list={list}
+        noun={['offer', 'offers']}
+        empty="No offers here."
       />
       {box === 'outgoing' ? <Invitations /> : null}
       {offering ? (
@@ -269,6 +240,6 @@ export function OffersPage({ box }: { box: OfferBox }) {
           }
         />
       ) : null}
-    </section>
+    </Page>
   );
 }

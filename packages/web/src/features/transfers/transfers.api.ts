@@ -1,95 +1,20 @@
 import { currencyOf, parseAmount } from '@beadroll/core';
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import { api } from '../../lib/api';
+import type { Money } from '@beadroll/core';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 
-/** Money in integer minor units of an ISO 4217 currency. */
-export interface Money {
-  amount: number;
-  currency: string;
-}
+export type { Money } from '@beadroll/core';
 
-export interface Party {
-  id: string;
-  handle: string;
-  displayName: string;
-  business: string;
-  town: string;
-  country: string;
-  status: string;
-}
-
-export interface TransferLot {
-  code: string;
-  displayCode: string;
-  title: string;
-}
-
-export type OfferStatus = 'open' | 'accepted' | 'declined' | 'withdrawn' | 'lapsed';
+export type Party = Schemas['PartyCard'];
+export type TransferLot = Schemas['TransferLotResponse'];
+export type Offer = Schemas['OfferResponse'];
+export type OfferStatus = Offer['status'];
 export type OfferBox = 'incoming' | 'outgoing';
-
-export interface Offer {
-  id: string;
-  lot: TransferLot;
-  offerSeq: number;
-  status: OfferStatus;
-  offerer: Party | null;
-  recipient: Party | null;
-  viewerIs: 'offerer' | 'recipient';
-  note?: string;
-  offeredAt: string;
-  lapsesAt?: string;
-  answeredAt?: string;
-  answerSeq?: number;
-  answerNote?: string;
-  price?: Money;
-}
-
-export interface Invitation {
-  id: string;
-  lot: TransferLot;
-  email: string;
-  status: 'waiting' | 'offered' | 'stalled' | 'cancelled';
-  statusReason?: string;
-  note?: string;
-  price?: Money;
-  offerId?: string;
-  createdAt: string;
-}
-
-export interface Sale {
-  id: string;
-  lot: TransferLot;
-  seq: number;
-  date: string;
-  price?: Money;
-  buyerNote?: string;
-  recordedAt: string;
-  receiptSent: boolean;
-  listed: boolean;
-}
-
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
-
-export interface OfferDraft {
-  lot: string;
-  recipient?: string;
-  email?: string;
-  note?: string;
-  price?: Money;
-}
-
-export interface SaleDraft {
-  lot: string;
-  date: string;
-  price: Money;
-  buyerNote?: string;
-  buyerEmail?: string;
-}
+export type Invitation = Schemas['InvitationResponse'];
+export type Sale = Schemas['SaleResponse'];
+export type OfferDraft = Schemas['CreateOfferDto'];
+export type SaleDraft = Schemas['RecordSaleDto'];
 
 export type SaleReceiptFilter = 'sent' | 'none' | undefined;
 
@@ -101,17 +26,18 @@ export const OFFER_STATUS_LABEL: Record<OfferStatus, string> = {
   lapsed: 'Lapsed',
 };
 
-const qs = (params: Record<string, string | number | undefined>) =>
-  new URLSearchParams(
-    Object.entries(params)
-      .filter(([, v]) => v !== undefined && v !== '')
-      .map(([k, v]) => [k, String(v)]),
-  ).toString();
+/** A query without its unset and empty members. */
+const query = <T extends Record<string, unknown>>(params: T): T =>
+  Object.fromEntries(Object.entries(params).filter(([, v]) => v !== undefined && v !== '')) as T;
+const byId = (id: string) => ({ params: { path: { id } } });
 
 export const offersQuery = (box: OfferBox, status: OfferStatus | undefined, page: number, pageSize = 20) =>
   queryOptions({
     queryKey: ['transfers', 'offers', box, { status, page, pageSize }],
-    queryFn: () => api<Page<Offer>>(`/api/transfers/offers?${qs({ box, status, page, pageSize })}`),
+    queryFn: () =>
+      answer(
+        client.GET('/api/transfers/offers', { params: { query: query({ box, status, page, pageSize }) } }),
+      ),
     placeholderData: keepPreviousData,
   });
 
@@ -120,20 +46,25 @@ export const openOfferOfLotQuery = (code: string) =>
   queryOptions({
     queryKey: ['transfers', 'offers', 'outgoing', { status: 'open', lot: code }],
     queryFn: async () =>
-      (await api<Page<Offer>>(`/api/transfers/offers?${qs({ box: 'outgoing', status: 'open', lot: code })}`))
-        .items[0] ?? null,
+      (
+        await answer(
+          client.GET('/api/transfers/offers', {
+            params: { query: { box: 'outgoing', status: 'open', lot: code } },
+          }),
+        )
+      ).items[0] ?? null,
   });
 
 export const offerQuery = (id: string) =>
   queryOptions({
     queryKey: ['transfers', 'offer', id],
-    queryFn: () => api<Offer>(`/api/transfers/offers/${encodeURIComponent(id)}`),
+    queryFn: () => answer(client.GET('/api/transfers/offers/{id}', byId(id))),
   });
 
 export const invitationsQuery = () =>
   queryOptions({
     queryKey: ['transfers', 'invitations'],
-    queryFn: () => api<{ items: Invitation[] }>('/api/transfers/invitations'),
+    queryFn: () => answer(client.GET('/api/transfers/invitations')),
   });
 
 export const salesQuery = (
@@ -144,14 +75,17 @@ export const salesQuery = (
 ) =>
   queryOptions({
     queryKey: ['transfers', 'sales', { receipt, from, page, pageSize }],
-    queryFn: () => api<Page<Sale>>(`/api/transfers/sales?${qs({ receipt, from, page, pageSize })}`),
+    queryFn: () =>
+      answer(
+        client.GET('/api/transfers/sales', { params: { query: query({ receipt, from, page, pageSize }) } }),
+      ),
     placeholderData: keepPreviousData,
   });
 
 export const dealerSearchQuery = (q: string) =>
   queryOptions({
     queryKey: ['transfers', 'dealers', q],
-    queryFn: () => api<{ items: Party[] }>(`/api/transfers/dealers?${qs({ q })}`),
+    queryFn: () => answer(client.GET('/api/transfers/dealers', { params: { query: { q } } })),
     enabled: q.trim().length >= 2,
     staleTime: 30_000,
   });
@@ -161,33 +95,21 @@ export const heldLotsQuery = () =>
   queryOptions({
     queryKey: ['lots', 'list', { mine: true, status: 'held' }],
     queryFn: () =>
-      api<Page<{ code: string; displayCode: string; title: string }>>(
-        '/api/lots?mine=true&status=held&pageSize=100&sort=updated',
+      answer(
+        client.GET('/api/lots', {
+          params: { query: { mine: true, status: 'held', pageSize: 100, sort: 'updated' } },
+        }),
       ),
   });
 
 export const transfersApi = {
-  offer: (draft: OfferDraft) =>
-    api<{ made: 'offer' | 'invitation'; offer?: Offer; invitation?: Invitation }>('/api/transfers/offers', {
-      method: 'POST',
-      body: { ...draft },
-    }),
+  offer: (draft: OfferDraft) => answer(client.POST('/api/transfers/offers', { body: draft })),
   answer: (id: string, action: 'accept' | 'decline' | 'withdraw', note?: string) =>
-    api<Offer>(`/api/transfers/offers/${encodeURIComponent(id)}/${action}`, {
-      method: 'POST',
-      body: note ? { note } : {},
-    }),
-  recordSale: (draft: SaleDraft) => api<Sale>('/api/transfers/sales', { method: 'POST', body: { ...draft } }),
-  offerInvitation: (id: string) =>
-    api<Invitation>(`/api/transfers/invitations/${encodeURIComponent(id)}/offer`, {
-      method: 'POST',
-      body: {},
-    }),
-  cancelInvitation: (id: string) =>
-    api<Invitation>(`/api/transfers/invitations/${encodeURIComponent(id)}/cancel`, {
-      method: 'POST',
-      body: {},
-    }),
+    answer(client.POST(`/api/transfers/offers/{id}/${action}`, { ...byId(id), body: note ? { note } : {} })),
+  salesPath: '/api/transfers/sales',
+  recordSale: (draft: SaleDraft) => answer(client.POST('/api/transfers/sales', { body: draft })),
+  offerInvitation: (id: string) => answer(client.POST('/api/transfers/invitations/{id}/offer', byId(id))),
+  cancelInvitation: (id: string) => answer(client.POST('/api/transfers/invitations/{id}/cancel', byId(id))),
 };
 
 /** Digits after the decimal point of a currency (ISO 4217 minor units, from core's list). */

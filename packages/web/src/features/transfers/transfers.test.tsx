@@ -1,42 +1,13 @@
-import { render, screen, waitFor } from '@testing-library/react';
+import { screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { QueryClient } from '@tanstack/react-query';
-import { createMemoryRouter, RouterProvider } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { Providers, routes } from '../../app/App';
-import type { Me } from '../accounts/accounts.api';
+import { describe, expect, it, vi } from 'vitest';
+import { accounts, json, renderAt, renderWithProviders, stubServer } from '../../shared/testing/render';
 import { RecordSaleDialog } from './RecordSaleDialog';
-import { type Offer, toMinorUnits } from './transfers.api';
+import { type Offer, type Party, toMinorUnits } from './transfers.api';
 
-beforeEach(() =>
-  vi.stubGlobal(
-    'ResizeObserver',
-    class {
-      observe() {}
-      unobserve() {}
-      disconnect() {}
-    },
-  ),
-);
-afterEach(() => vi.unstubAllGlobals());
+const dealer = accounts.dealer;
 
-const dealer: Me = {
-  id: '6f1c1f7e-8a55-4b43-9a43-0000000000b2',
-  role: 'dealer',
-  status: 'verified',
-  handle: 'oskar-wendle',
-  displayName: 'Oskar Wendle',
-  email: 'oskar@example.invalid',
-  business: 'Wendle Bead Barrow',
-  town: 'Murrine Vale',
-  country: 'Marver Isles',
-  emailVerified: true,
-  verifiedSince: '2025-03-01T09:00:00Z',
-  statusReason: null,
-  createdAt: '2025-03-01T09:00:00Z',
-};
-
-const party = (id: string, displayName: string) => ({
+const party = (id: string, displayName: string): Party => ({
   id,
   handle: displayName.toLowerCase().replace(' ', '-'),
   displayName,
@@ -60,33 +31,8 @@ const offer: Offer = {
   price: { amount: 12550, currency: 'EUR' },
 };
 
-function json(status: number, body: unknown) {
-  return new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
-}
-
 function stub(handler: (url: string, init?: RequestInit) => Response | undefined) {
-  const calls: Array<{ url: string; method: string; body?: unknown }> = [];
-  vi.stubGlobal(
-    'fetch',
-    vi.fn(async (url: string, init?: RequestInit) => {
-      const method = init?.method ?? 'GET';
-      calls.push({ url, method, body: init?.body ? JSON.parse(init.body as string) : undefined });
-      if (url === '/api/auth/session') return json(200, { account: dealer });
-      return handler(url, init) ?? json(404, { error: { code: 'not_found', message: 'Not found.' } });
-    }),
-  );
-  return calls;
-}
-
-function renderAt(path: string) {
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const router = createMemoryRouter(routes, { initialEntries: [path] });
-  render(
-    <Providers client={client}>
-      <RouterProvider router={router} />
-    </Providers>,
-  );
-  return router;
+  return stubServer(dealer, handler);
 }
 
 describe('transfers in the web app', () => {
@@ -178,11 +124,8 @@ describe('transfers in the web app', () => {
       return undefined;
     });
     const done = vi.fn();
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-    render(
-      <Providers client={client}>
-        <RecordSaleDialog code={offer.lot.code} title={offer.lot.title} onClose={() => {}} onDone={done} />
-      </Providers>,
+    renderWithProviders(
+      <RecordSaleDialog code={offer.lot.code} title={offer.lot.title} onClose={() => {}} onDone={done} />,
     );
     await userEvent.type(screen.getByRole('textbox', { name: 'Price: amount' }), '40');
     await userEvent.click(screen.getByRole('button', { name: 'Record the sale' }));

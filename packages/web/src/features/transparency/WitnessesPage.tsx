@@ -1,28 +1,13 @@
-import {
-  Button,
-  Field,
-  Input,
-  makeStyles,
-  Table,
-  TableBody,
-  TableCell,
-  TableHeader,
-  TableHeaderCell,
-  TableRow,
-  Text,
-  Title2,
-  tokens,
-} from '@fluentui/react-components';
+import { Button, Field, Input, makeStyles, Text, Title2, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
+import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
 import { RegistrarOnly } from '../registry/RegistrarOnly';
-import { witnessesApi, witnessesQuery } from './witnesses.api';
+import { witnessesApi, witnessesQuery, type Witness } from './witnesses.api';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '60rem' },
-  scroller: { overflowX: 'auto' },
-  table: { minWidth: '640px' },
   key: { fontFamily: tokens.fontFamilyMonospace, wordBreak: 'break-all' },
   form: { display: 'grid', gap: tokens.spacingVerticalS, maxWidth: '44rem' },
 });
@@ -45,6 +30,21 @@ export function WitnessesPage() {
 
 function Witnesses() {
   const styles = useStyles();
+  const columns: Array<ListColumn<Witness>> = [
+    {
+      id: 'name',
+      header: 'Witness',
+      cell: (w) => (
+        <>
+          <div>{w.name}</div>
+          <div className={styles.key}>{w.key}</div>
+        </>
+      ),
+    },
+    { id: 'registered', header: 'Registered', cell: (w) => when(w.registeredAt) },
+    { id: 'cosigned', header: 'Last cosigned', cell: (w) => when(w.lastCosignedAt) },
+    { id: 'size', header: 'Checkpoint size', cell: (w) => w.lastCosignedSize ?? '—' },
+  ];
   const client = useQueryClient();
   const q = useQuery(witnessesQuery());
   const [key, setKey] = useState('');
@@ -67,44 +67,9 @@ function Witnesses() {
           The log’s key, to give a new witness: <span className={styles.key}>{q.data.logKey}</span>
         </Text>
       )}
-      <div className={styles.scroller}>
-        <Table className={styles.table} aria-label="Witnesses">
-          <TableHeader>
-            <TableRow>
-              <TableHeaderCell>Witness</TableHeaderCell>
-              <TableHeaderCell>Registered</TableHeaderCell>
-              <TableHeaderCell>Last cosigned</TableHeaderCell>
-              <TableHeaderCell>Checkpoint size</TableHeaderCell>
-            </TableRow>
-          </TableHeader>
-          <TableBody>
-            {q.data?.items.map((w) => (
-              <TableRow key={w.id}>
-                <TableCell>
-                  <div>{w.name}</div>
-                  <div className={styles.key}>{w.key}</div>
-                </TableCell>
-                <TableCell>{when(w.registeredAt)}</TableCell>
-                <TableCell>{when(w.lastCosignedAt)}</TableCell>
-                <TableCell>{w.lastCosignedSize ?? '—'}</TableCell>
-              </TableRow>
-            ))}
-            {q.data && q.data.items.length === 0 && (
-              <TableRow>
-                <TableCell colSpan={4}>No witness is registered yet.</TableCell>
-              </TableRow>
-            )}
-          </TableBody>
-        </Table>
-      </div>
-      <form
-        className={styles.form}
-        noValidate
-        onSubmit={(e) => {
-          e.preventDefault();
-          register.mutate();
-        }}
-      >
+      <DataTable label="Witnesses" columns={columns} rows={q.data?.items ?? []} rowKey={(w) => w.id} />
+      {q.data && q.data.items.length === 0 && <Text>No witness is registered yet.</Text>}
+      <Form className={styles.form} onSubmit={() => register.mutate()}>
         <Field
           label="Register a witness by its key"
           hint="The witness prints it with npm run witness -- --print-key: name+keyid+key"
@@ -118,7 +83,7 @@ function Witnesses() {
             Register the witness
           </Button>
         </div>
-      </form>
+      </Form>
     </div>
   );
 }

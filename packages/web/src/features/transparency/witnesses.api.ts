@@ -1,29 +1,19 @@
 import { queryOptions } from '@tanstack/react-query';
-import { api } from '../../lib/api';
+import { answer, client } from '../../api/client';
+import type { Schemas } from '../../api/types';
 
 /** A witness of the log as the registrar sees it. */
-export interface Witness {
-  id: string;
-  name: string;
-  key: string;
-  registeredAt: string;
-  lastCosignedAt: string | null;
-  lastCosignedSize: number | null;
-}
+export type Witness = Schemas['WitnessResponse'];
 
-export interface WitnessList {
-  /** The log's own verifier key, for witnesses to be given. */
-  logKey: string;
-  items: Witness[];
-}
+export type WitnessList = Schemas['WitnessListResponse'];
 
 export const witnessesQuery = () =>
   queryOptions({
     queryKey: ['registry', 'witnesses'],
-    queryFn: ({ signal }) => api<WitnessList>('/api/registry/witnesses', { signal }),
+    queryFn: ({ signal }) => answer(client.GET('/api/registry/witnesses', { signal })),
     refetchInterval: 30_000,
   });
 
 export const witnessesApi = {
-  register: (key: string) => api<Witness>('/api/registry/witnesses', { method: 'POST', body: { key } }),
+  register: (key: string) => answer(client.POST('/api/registry/witnesses', { body: { key } })),
 };

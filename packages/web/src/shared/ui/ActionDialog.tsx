@@ -7,13 +7,16 @@ import {
   DialogSurface,
   DialogTitle,
   makeStyles,
+  mergeClasses,
   tokens,
 } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
+import { Form } from './FormPage';
 
 const useStyles = makeStyles({
   surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
   narrow: { maxWidth: 'min(560px, 100vw - 16px)' },
+  wide: { maxWidth: 'min(1100px, 96vw)' },
   content: { display: 'grid', gap: tokens.spacingVerticalM, maxHeight: '70vh', overflowY: 'auto' },
 });
 
@@ -49,16 +52,10 @@ export function ActionDialog({
   return (
     <Dialog open onOpenChange={(_, d) => !d.open && close()}>
       <DialogSurface
-        className={narrow ? `${styles.surface} ${styles.narrow}` : styles.surface}
+        className={mergeClasses(styles.surface, narrow && styles.narrow)}
         aria-describedby={describedBy}
       >
-        <form
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            onSubmit();
-          }}
-        >
+        <Form onSubmit={onSubmit}>
           <DialogBody>
             <DialogTitle>{title}</DialogTitle>
             <DialogContent className={styles.content}>{children}</DialogContent>
@@ -73,7 +70,43 @@ export function ActionDialog({
               )}
             </DialogActions>
           </DialogBody>
-        </form>
+        </Form>
+      </DialogSurface>
+    </Dialog>
+  );
+}
+
+/**
+ * A modal that shows something (a photo, an application, a form with its own buttons) with one
+ * Close button. `wide` gives room to a long form or a large picture.
+ */
+export function PanelDialog({
+  title,
+  close,
+  wide = false,
+  children,
+}: {
+  title: string;
+  close: () => void;
+  wide?: boolean;
+  children: ReactNode;
+}) {
+  const styles = useStyles();
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
+      <DialogSurface
+        className={mergeClasses(styles.surface, wide ? styles.wide : styles.narrow)}
+        aria-describedby={undefined}
+      >
+        <DialogBody>
+          <DialogTitle>{title}</DialogTitle>
+          <DialogContent className={styles.content}>{children}</DialogContent>
+          <DialogActions>
+            <Button appearance="primary" onClick={close}>
+              Close
+            </Button>
+          </DialogActions>
+        </DialogBody>
       </DialogSurface>
     </Dialog>
   );

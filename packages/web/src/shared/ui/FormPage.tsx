@@ -1,5 +1,7 @@
 import {
   Card,
+  Field,
+  Input,
   makeStyles,
   MessageBar,
   MessageBarBody,
@@ -40,20 +42,68 @@ export function FormPage({
       <Title2 as="h1">{title}</Title2>
       {lead ? <Text>{lead}</Text> : null}
       {onSubmit ? (
-        <form
-          className={styles.form}
-          noValidate
-          onSubmit={(e) => {
-            e.preventDefault();
-            onSubmit();
-          }}
-        >
+        <Form className={styles.form} onSubmit={onSubmit}>
           {children}
-        </form>
+        </Form>
       ) : (
         children
       )}
     </Card>
+  );
+}
+
+/**
+ * A form checked by our own code and the server, not the browser's bubbles (`noValidate`); a
+ * submit calls `onSubmit` and never reloads the page.
+ */
+export function Form({
+  className,
+  onSubmit,
+  children,
+}: {
+  className?: string;
+  onSubmit: () => void;
+  children: ReactNode;
+}) {
+  return (
+    <form
+      className={className}
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        onSubmit();
+      }}
+    >
+      {children}
+    </form>
+  );
+}
+
+/** A password in its labelled field; `autoComplete` tells a password manager which one it is. */
+export function PasswordField({
+  label,
+  value,
+  onChange,
+  autoComplete,
+  validationMessage,
+  hint,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  autoComplete: 'current-password' | 'new-password';
+  validationMessage?: string;
+  hint?: string;
+}) {
+  return (
+    <Field label={label} required hint={hint} validationMessage={validationMessage}>
+      <Input
+        type="password"
+        autoComplete={autoComplete}
+        value={value}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
   );
 }
 
