@@ -1,8 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import sharp from 'sharp';
 import { formatLotCode, parseBundle, tagPayload, tagReference, verifyBundle } from '@beadroll/core';
 import { openBrowser, screenshot, type Browser } from './support/browser';
-import { apiClient, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
+import { addCloseUp, apiClient, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
 
 const dealer = demoAccount('dealer');
 
@@ -183,19 +182,7 @@ describe('an opinion on request', () => {
     await page.waitForURL(`${baseUrl}/lots/${lot.code}`);
 
     // Evidence first: a close-up, added to the roll of the unlisted lot.
-    const closeUp = await sharp({
-      create: { width: 640, height: 480, channels: 3, background: { r: 170, g: 40, b: 40 } },
-    })
-      .jpeg()
-      .toBuffer();
-    const uploader = page.getByRole('region', { name: 'Add exhibits' });
-    await uploader
-      .getByTestId('exhibit-files')
-      .setInputFiles([{ name: 'chevron-end.jpg', mimeType: 'image/jpeg', buffer: closeUp }]);
-    const item = uploader.getByRole('listitem', { name: 'chevron-end.jpg' });
-    await item.getByLabel('Caption').fill('Ground end showing seven layers');
-    await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
-    await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
+    await addCloseUp(page, 'chevron-end.jpg', 'Ground end showing seven layers', { r: 170, g: 40, b: 40 });
 
     await page
       .getByRole('group', { name: 'Actions' })

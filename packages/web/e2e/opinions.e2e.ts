@@ -1,8 +1,7 @@
 import { parseBundle, type OpinionBody } from '@beadroll/core';
-import sharp from 'sharp';
 import { describe, expect, inject, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
+import { addCloseUp, demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
 
 const holder = demoHandle('odile-varnas');
 const second = demoHandle('teodor-brasko');
@@ -53,19 +52,7 @@ describe('opinions in Chromium', () => {
     await signIn(page, baseUrl, second.email, { fresh: true });
     await page.goto(`${baseUrl}/lots/${code}`);
     await page.getByRole('article', { name: /Holder’s attribution by Odile Varnas/ }).waitFor();
-    const closeUp = await sharp({
-      create: { width: 640, height: 480, channels: 3, background: { r: 150, g: 150, b: 160 } },
-    })
-      .jpeg()
-      .toBuffer();
-    const uploader = page.getByRole('region', { name: 'Add exhibits' });
-    await uploader
-      .getByTestId('exhibit-files')
-      .setInputFiles([{ name: 'hole-powder.jpg', mimeType: 'image/jpeg', buffer: closeUp }]);
-    const item = uploader.getByRole('listitem', { name: 'hole-powder.jpg' });
-    await item.getByLabel('Caption').fill('Grey powder inside the hole');
-    await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
-    await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
+    await addCloseUp(page, 'hole-powder.jpg', 'Grey powder inside the hole', { r: 150, g: 150, b: 160 });
 
     // Then drafts a dissent citing it; the aid reacts as fields change.
     await page

@@ -2,6 +2,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import pg from 'pg';
+import sharp from 'sharp';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, inject } from 'vitest';
 import { openBrowser, type Browser } from './browser';
@@ -127,6 +128,29 @@ export async function scanHeldLot(
   await page.getByRole('button', { name: 'Start camera' }).click();
   await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
   await page.getByRole('heading', { level: 1, name: lot.title }).waitFor();
+}
+
+/**
+ * Adds an invented close-up photo (a plain JPEG of `background`) as one exhibit through the
+ * open lot page's uploader, with `caption`, and waits until it is on the roll.
+ */
+export async function addCloseUp(
+  page: Page,
+  file: string,
+  caption: string,
+  background: { r: number; g: number; b: number },
+): Promise<void> {
+  const closeUp = await sharp({ create: { width: 640, height: 480, channels: 3, background } })
+    .jpeg()
+    .toBuffer();
+  const uploader = page.getByRole('region', { name: 'Add exhibits' });
+  await uploader
+    .getByTestId('exhibit-files')
+    .setInputFiles([{ name: file, mimeType: 'image/jpeg', buffer: closeUp }]);
+  const item = uploader.getByRole('listitem', { name: file });
+  await item.getByLabel('Caption').fill(caption);
+  await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
+  await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
 }
 
 /** A superuser connection to the journeys' database, for changing what the service stored. */
