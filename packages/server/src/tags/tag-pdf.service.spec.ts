@@ -47,6 +47,15 @@ function items(n: number): TagItem[] {
   }));
 }
 
+/** An A4 sheet with 10 mm margins all round. */
+const A4_10MM_MARGINS = {
+  paper: 'a4' as const,
+  marginTopMm: 10,
+  marginRightMm: 10,
+  marginBottomMm: 10,
+  marginLeftMm: 10,
+};
+
 function decode(pdf: Buffer, host: string, layout: TagLayoutRequest, list: TagItem[]) {
   return decodeCells(rasterise(pdf), planTags(host, layout, list.length));
 }
@@ -56,11 +65,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
     const layout: TagLayoutRequest = {
       design: 'string',
       sheet: {
-        paper: 'a4',
-        marginTopMm: 10,
-        marginRightMm: 10,
-        marginBottomMm: 10,
-        marginLeftMm: 10,
+        ...A4_10MM_MARGINS,
         gapXMm: 3,
         gapYMm: 3,
         skip: 3,
@@ -139,13 +144,9 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
     const layout: TagLayoutRequest = {
       design: 'string',
       sheet: {
-        paper: 'a4',
+        ...A4_10MM_MARGINS,
         columns: 4,
         rows: 3,
-        marginTopMm: 10,
-        marginRightMm: 10,
-        marginBottomMm: 10,
-        marginLeftMm: 10,
         gapXMm: 2,
         gapYMm: 2,
       },
@@ -157,11 +158,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
 
 describe('tag layouts that cannot carry a readable tag are refused', () => {
   const sheet = {
-    paper: 'a4' as const,
-    marginTopMm: 10,
-    marginRightMm: 10,
-    marginBottomMm: 10,
-    marginLeftMm: 10,
+    ...A4_10MM_MARGINS,
     gapXMm: 3,
     gapYMm: 3,
   };
