@@ -5,17 +5,20 @@ import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG, AppConfigModule } from '../config/config.module';
 import { dataSourceOptions } from '../database/data-source';
 import { MailModule } from '../mail/mail.module';
+import { StorageModule } from '../storage/storage.module';
 import { AuditModule } from './audit.module';
 
 /**
- * Just the database and the audit, for the command-line audit (with the scheduler registry and mail
- * service the ledger's log services depend on; the CLI starts no job and sends nothing).
+ * Just the database and the audit, for the command-line audit (with the scheduler registry, mail
+ * service and exhibit store the modules it reaches depend on; the CLI starts no job and sends
+ * nothing).
  */
 @Module({
   imports: [
     AppConfigModule,
     ScheduleModule.forRoot(),
     MailModule,
+    StorageModule,
     TypeOrmModule.forRootAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => dataSourceOptions(config),

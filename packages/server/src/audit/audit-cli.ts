@@ -7,7 +7,11 @@ import { AuditCliModule } from './audit-cli.module';
 import { AuditService } from './audit.service';
 
 async function main(): Promise<number> {
-  const app = await NestFactory.createApplicationContext(AuditCliModule, { logger: ['error'] });
+  const app = await NestFactory.createApplicationContext(AuditCliModule, {
+    logger: ['error'],
+    // A module that cannot start is "could not run" (exit 2), not a broken roll (exit 1).
+    abortOnError: false,
+  });
   try {
     let ok = false;
     for await (const e of app.get(AuditService).run(100)) {
