@@ -1,9 +1,10 @@
-import { Body, Controller, Get, HttpCode, Post } from '@nestjs/common';
-import { ApiOperation, ApiTags, ApiOkResponse } from '@nestjs/swagger';
+import { Body, Controller } from '@nestjs/common';
+import { ApiTags } from '@nestjs/swagger';
 import { CurrentAccount, type Principal } from '../auth/auth.decorators';
 import { AuthService } from '../auth/auth.service';
 import { MeResponse, toMeResponse } from '../auth/dto/session.response';
 import { ChangePasswordDto, MessageResponse } from '../auth/dto/tokens.dto';
+import { Action, Read } from '../common/route.decorators';
 
 type SessionPrincipal = Principal & { sessionId?: string };
 
@@ -12,17 +13,12 @@ type SessionPrincipal = Principal & { sessionId?: string };
 export class AccountController {
   constructor(private readonly auth: AuthService) {}
 
-  @Get()
-  @ApiOperation({ summary: 'The signed-in account' })
-  @ApiOkResponse({ type: MeResponse })
+  @Read(undefined, 'The signed-in account', MeResponse)
   async me(@CurrentAccount() p: SessionPrincipal): Promise<MeResponse> {
     return toMeResponse(await this.auth.me(p.id));
   }
 
-  @Post('password')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Change the password (every other session ends)' })
-  @ApiOkResponse({ type: MessageResponse })
+  @Action('password', 'Change the password (every other session ends)', MessageResponse)
   changePassword(
     @CurrentAccount() p: SessionPrincipal,
     @Body() dto: ChangePasswordDto,

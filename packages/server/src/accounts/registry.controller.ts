@@ -1,20 +1,10 @@
-import {
-  Body,
-  Controller,
-  Get,
-  HttpCode,
-  Param,
-  ParseUUIDPipe,
-  Post,
-  Query,
-  Res,
-  StreamableFile,
-} from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Query, Res, StreamableFile } from '@nestjs/common';
+import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { ApplicantResponse, ReasonDto, RegistryQueryDto, RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
+import { Action, Read } from '../common/route.decorators';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -22,11 +12,11 @@ import { RegistryService } from './registry.service';
 export class RegistryController {
   constructor(private readonly registry: RegistryService) {}
 
-  @Get()
-  @ApiOperation({
-    summary: 'Dealer and assessor accounts by status (the pending ones are the verification queue)',
-  })
-  @ApiOkResponse({ type: RegistryPage })
+  @Read(
+    undefined,
+    'Dealer and assessor accounts by status (the pending ones are the verification queue)',
+    RegistryPage,
+  )
   list(@Query() q: RegistryQueryDto): Promise<RegistryPage> {
     return this.registry.list(q);
   }
@@ -49,10 +39,7 @@ export class RegistryController {
     return new StreamableFile(file.body, { length: file.size || undefined });
   }
 
-  @Post(':id/approve')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Verify an applicant' })
-  @ApiOkResponse({ type: ApplicantResponse })
+  @Action(':id/approve', 'Verify an applicant', ApplicantResponse)
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -60,10 +47,7 @@ export class RegistryController {
     return this.registry.approve(id, me.id);
   }
 
-  @Post(':id/reject')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Reject an applicant; the reason is e-mailed to them' })
-  @ApiOkResponse({ type: ApplicantResponse })
+  @Action(':id/reject', 'Reject an applicant; the reason is e-mailed to them', ApplicantResponse)
   reject(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -72,10 +56,7 @@ export class RegistryController {
     return this.registry.reject(id, dto.reason, me.id);
   }
 
-  @Post(':id/suspend')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Suspend a verified account; the reason is e-mailed to them' })
-  @ApiOkResponse({ type: ApplicantResponse })
+  @Action(':id/suspend', 'Suspend a verified account; the reason is e-mailed to them', ApplicantResponse)
   suspend(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -84,10 +65,7 @@ export class RegistryController {
     return this.registry.suspend(id, dto.reason, me.id);
   }
 
-  @Post(':id/reinstate')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Lift a suspension' })
-  @ApiOkResponse({ type: ApplicantResponse })
+  @Action(':id/reinstate', 'Lift a suspension', ApplicantResponse)
   reinstate(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

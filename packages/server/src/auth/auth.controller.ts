@@ -1,7 +1,6 @@
 import {
   Body,
   Controller,
-  Get,
   HttpCode,
   Inject,
   Post,
@@ -27,6 +26,7 @@ import { RateLimitGuard } from './rate-limit.guard';
 import { SessionResponse, SignedInResponse, toMeResponse } from './dto/session.response';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
+import { Action, Read } from '../common/route.decorators';
 
 @ApiTags('auth')
 @Controller('auth')
@@ -38,9 +38,7 @@ export class AuthController {
   ) {}
 
   @Public()
-  @Get('session')
-  @ApiOperation({ summary: 'The signed-in account, or null' })
-  @ApiOkResponse({ type: SessionResponse })
+  @Read('session', 'The signed-in account, or null', SessionResponse)
   async session(@CurrentAccount() principal?: Principal): Promise<SessionResponse> {
     return { account: principal ? toMeResponse(await this.auth.me(principal.id)) : null };
   }
@@ -62,10 +60,7 @@ export class AuthController {
 
   @Public()
   @UseGuards(RateLimitGuard)
-  @Post('verify-email')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Confirm an e-mail address with the token from the e-mailed link' })
-  @ApiOkResponse({ type: MessageResponse })
+  @Action('verify-email', 'Confirm an e-mail address with the token from the e-mailed link', MessageResponse)
   verifyEmail(@Body() dto: TokenDto): Promise<MessageResponse> {
     return this.auth.verifyEmail(dto.token);
   }
@@ -82,10 +77,11 @@ export class AuthController {
 
   @Public()
   @UseGuards(RateLimitGuard)
-  @Post('reset-password')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Set a new password with the token from the e-mailed link (ends every session)' })
-  @ApiOkResponse({ type: MessageResponse })
+  @Action(
+    'reset-password',
+    'Set a new password with the token from the e-mailed link (ends every session)',
+    MessageResponse,
+  )
   resetPassword(@Body() dto: ResetPasswordDto): Promise<MessageResponse> {
     return this.auth.resetPassword(dto.token, dto.password);
   }

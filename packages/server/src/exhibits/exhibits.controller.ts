@@ -1,13 +1,6 @@
 import { Body, Controller, Get, Param, Post, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import {
-  ApiBody,
-  ApiConsumes,
-  ApiOperation,
-  ApiTags,
-  ApiOkResponse,
-  ApiCreatedResponse,
-} from '@nestjs/swagger';
+import { ApiBody, ApiConsumes, ApiOperation, ApiTags, ApiCreatedResponse } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { CurrentAccount, Public, type Principal, Roles, RollWriter } from '../auth/auth.decorators';
 import { AddExhibitBodyDoc, AddExhibitDto } from './dto/add-exhibit.dto';
@@ -17,6 +10,7 @@ import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
 import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
 import { UploadGuardInterceptor } from './upload';
+import { Read } from '../common/route.decorators';
 
 @ApiTags('exhibits')
 @Controller('lots/:code/exhibits')
@@ -40,9 +34,11 @@ export class ExhibitsController {
     return this.exhibits.add(account, code, dto, file);
   }
 
-  @Get()
-  @ApiOperation({ summary: 'The exhibits of a lot the viewer may read (own sealed ones included)' })
-  @ApiOkResponse({ type: ExhibitListResponse })
+  @Read(
+    undefined,
+    'The exhibits of a lot the viewer may read (own sealed ones included)',
+    ExhibitListResponse,
+  )
   list(@CurrentAccount() account: Principal, @Param('code') code: string): Promise<ExhibitListResponse> {
     return this.exhibits.list(account, code);
   }

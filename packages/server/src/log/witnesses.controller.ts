@@ -1,9 +1,10 @@
-import { Body, Controller, Get, Post } from '@nestjs/common';
-import { ApiOperation, ApiTags, ApiOkResponse, ApiCreatedResponse } from '@nestjs/swagger';
+import { Body, Controller, Post } from '@nestjs/common';
+import { ApiOperation, ApiTags, ApiCreatedResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { RegisterWitnessDto } from './dto/log.dto';
 import { WitnessListResponse, WitnessResponse, WitnessesService } from './witnesses.service';
 import { CheckpointsService } from './checkpoints.service';
+import { Read } from '../common/route.decorators';
 
 /** The registrar's list of the log's witnesses. */
 @ApiTags('registry')
@@ -15,9 +16,7 @@ export class WitnessesController {
     private readonly checkpoints: CheckpointsService,
   ) {}
 
-  @Get()
-  @ApiOperation({ summary: 'Witnesses of the log and when each last cosigned' })
-  @ApiOkResponse({ type: WitnessListResponse })
+  @Read(undefined, 'Witnesses of the log and when each last cosigned', WitnessListResponse)
   async list(): Promise<WitnessListResponse> {
     return { logKey: this.checkpoints.verifierKey(), items: await this.witnesses.list() };
   }

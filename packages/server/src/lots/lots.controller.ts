@@ -1,19 +1,8 @@
-import {
-  Body,
-  Controller,
-  Get,
-  Header,
-  Param,
-  Post,
-  Put,
-  Query,
-  Res,
-  type StreamableFile,
-} from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { Body, Controller, Get, Header, Param, Query, Res, type StreamableFile } from '@nestjs/common';
+import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Bundle } from '@beadroll/core';
 import type { Response } from 'express';
-import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import { CurrentAccount, type Principal } from '../auth/auth.decorators';
 import {
   CreateLotDto,
   DescribeLotDto,
@@ -25,26 +14,28 @@ import {
 import { LotDetailResponse, LotListResponse, RollResponse, VerifyResponse } from './dto/lot-responses.dto';
 import { attachment } from '../export/sheet-export';
 import { LotsService } from './lots.service';
+import { DealerRollWrite, Read } from '../common/route.decorators';
 
 @ApiTags('lots')
 @Controller('lots')
 export class LotsController {
   constructor(private readonly lots: LotsService) {}
 
-  @Post()
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'Register a lot (writes registered, and observed when observations are given)' })
-  @ApiOkResponse({ type: LotDetailResponse })
+  @DealerRollWrite(
+    'POST',
+    undefined,
+    'Register a lot (writes registered, and observed when observations are given)',
+    LotDetailResponse,
+  )
   register(@CurrentAccount() me: Principal, @Body() dto: CreateLotDto): Promise<LotDetailResponse> {
     return this.lots.register(me, dto);
   }
 
-  @Get()
-  @ApiOperation({
-    summary: 'List the lots the signed-in account may read, with paging, sorting, filters and search',
-  })
-  @ApiOkResponse({ type: LotListResponse })
+  @Read(
+    undefined,
+    'List the lots the signed-in account may read, with paging, sorting, filters and search',
+    LotListResponse,
+  )
   list(@CurrentAccount() me: Principal, @Query() q: ListLotsQueryDto): Promise<LotListResponse> {
     return this.lots.list(me, q);
   }
@@ -61,18 +52,17 @@ export class LotsController {
     return attachment(res, await this.lots.exportList(me, q));
   }
 
-  @Get(':code')
-  @ApiOperation({ summary: 'A lot, derived from its roll, with the viewer’s own sealed details' })
-  @ApiOkResponse({ type: LotDetailResponse })
+  @Read(':code', 'A lot, derived from its roll, with the viewer’s own sealed details', LotDetailResponse)
   detail(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<LotDetailResponse> {
     return this.lots.detail(me, code);
   }
 
-  @Post(':code/descriptions')
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'Write a full new description (described)' })
-  @ApiOkResponse({ type: LotDetailResponse })
+  @DealerRollWrite(
+    'POST',
+    ':code/descriptions',
+    'Write a full new description (described)',
+    LotDetailResponse,
+  )
   describe(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,
@@ -81,11 +71,7 @@ export class LotsController {
     return this.lots.describe(me, code, dto);
   }
 
-  @Post(':code/observations')
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'Record observations (observed)' })
-  @ApiOkResponse({ type: LotDetailResponse })
+  @DealerRollWrite('POST', ':code/observations', 'Record observations (observed)', LotDetailResponse)
   observe(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,
@@ -94,11 +80,12 @@ export class LotsController {
     return this.lots.observe(me, code, dto);
   }
 
-  @Put(':code/listing')
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'List or unlist the lot (written on the roll as described)' })
-  @ApiOkResponse({ type: LotDetailResponse })
+  @DealerRollWrite(
+    'PUT',
+    ':code/listing',
+    'List or unlist the lot (written on the roll as described)',
+    LotDetailResponse,
+  )
   setListing(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,
@@ -107,18 +94,16 @@ export class LotsController {
     return this.lots.setListing(me, code, dto.listed);
   }
 
-  @Get(':code/roll')
-  @ApiOperation({
-    summary: 'The roll as stored: exact headers and bodies, and the viewer’s own sealed values',
-  })
-  @ApiOkResponse({ type: RollResponse })
+  @Read(
+    ':code/roll',
+    'The roll as stored: exact headers and bodies, and the viewer’s own sealed values',
+    RollResponse,
+  )
   roll(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<RollResponse> {
     return this.lots.roll(me, code);
   }
 
-  @Get(':code/verification')
-  @ApiOperation({ summary: 'Verify the stored roll with the ledger’s verifier' })
-  @ApiOkResponse({ type: VerifyResponse })
+  @Read(':code/verification', 'Verify the stored roll with the ledger’s verifier', VerifyResponse)
   verify(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<VerifyResponse> {
     return this.lots.verify(me, code);
   }

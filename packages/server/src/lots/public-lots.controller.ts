@@ -1,10 +1,11 @@
-import { Controller, Get, Header, Param, Req, Res } from '@nestjs/common';
-import { ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { Controller, Header, Param, Req, Res } from '@nestjs/common';
+import { ApiNotFoundResponse, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { Public } from '../auth/auth.decorators';
 import { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
 import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
 import { PublicLotsService } from './public-lots.service';
+import { Read } from '../common/route.decorators';
 
 @ApiTags('public')
 @Public()
@@ -12,11 +13,11 @@ import { PublicLotsService } from './public-lots.service';
 export class PublicLotsController {
   constructor(private readonly lots: PublicLotsService) {}
 
-  @Get(':code')
-  @ApiOperation({
-    summary: 'A listed lot: its roll and ancestors as a bundle, and the dealer cards named on them',
-  })
-  @ApiOkResponse({ type: PublicLotResponse })
+  @Read(
+    ':code',
+    'A listed lot: its roll and ancestors as a bundle, and the dealer cards named on them',
+    PublicLotResponse,
+  )
   @ApiNotFoundResponse({ description: 'any code that is not a listed lot' })
   @Header('Content-Type', 'application/json; charset=utf-8')
   async lot(
@@ -29,9 +30,7 @@ export class PublicLotsController {
     return text;
   }
 
-  @Get(':code/bundle')
-  @ApiOperation({ summary: 'The export bundle of a listed lot, as a file' })
-  @ApiOkResponse({ type: PublicBundle })
+  @Read(':code/bundle', 'The export bundle of a listed lot, as a file', PublicBundle)
   @ApiNotFoundResponse({ description: 'any code that is not a listed lot' })
   async bundle(
     @Param('code') text: string,

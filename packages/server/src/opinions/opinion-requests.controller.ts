@@ -1,6 +1,6 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Query } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
 import {
   AssessorListResponse,
   AssessorSearchQueryDto,
@@ -10,19 +10,19 @@ import {
   OpinionRequestResponse,
 } from './dto/opinion-request.dto';
 import { OpinionRequestsService } from './opinion-requests.service';
+import { DealerRollWrite } from '../common/route.decorators';
 
 @ApiTags('opinions')
 @Controller('opinion-requests')
 export class OpinionRequestsController {
   constructor(private readonly requests: OpinionRequestsService) {}
 
-  @Post()
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({
-    summary: 'Ask a named assessor, or any verified assessor, for an opinion on a lot you hold',
-  })
-  @ApiOkResponse({ type: OpinionRequestResponse })
+  @DealerRollWrite(
+    'POST',
+    undefined,
+    'Ask a named assessor, or any verified assessor, for an opinion on a lot you hold',
+    OpinionRequestResponse,
+  )
   create(
     @CurrentAccount() me: Principal,
     @Body() dto: CreateOpinionRequestDto,

@@ -1,10 +1,11 @@
-import { Body, Controller, Get, HttpCode, Param, Post } from '@nestjs/common';
+import { Body, Controller, HttpCode, Param, Post } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
 import { LotOpinionsResponse, OpinionWriteResponse } from './dto/opinion-responses.dto';
 import { OpinionsService } from './opinions.service';
+import { DealerRollWrite, Read } from '../common/route.decorators';
 
 function seqOf(text: string): number {
   if (!/^\d{1,9}$/.test(text))
@@ -17,11 +18,11 @@ function seqOf(text: string): number {
 export class OpinionsController {
   constructor(private readonly opinions: OpinionsService) {}
 
-  @Get()
-  @ApiOperation({
-    summary: 'Standing opinions with the holder’s attribution and the dissents, from the verified roll',
-  })
-  @ApiOkResponse({ type: LotOpinionsResponse })
+  @Read(
+    undefined,
+    'Standing opinions with the holder’s attribution and the dissents, from the verified roll',
+    LotOpinionsResponse,
+  )
   list(@CurrentAccount() me: Principal, @Param('code') code: string): Promise<LotOpinionsResponse> {
     return this.opinions.list(me, code);
   }
@@ -54,11 +55,12 @@ export class OpinionsController {
     return this.opinions.withdraw(me, code, seqOf(seq), dto);
   }
 
-  @Post(':seq/replies')
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'The holder answers an opinion (a note referring to it)' })
-  @ApiOkResponse({ type: OpinionWriteResponse })
+  @DealerRollWrite(
+    'POST',
+    ':seq/replies',
+    'The holder answers an opinion (a note referring to it)',
+    OpinionWriteResponse,
+  )
   reply(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,

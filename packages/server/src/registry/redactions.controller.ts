@@ -1,5 +1,5 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags, ApiOkResponse, ApiCreatedResponse } from '@nestjs/swagger';
+import { Body, Controller, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
+import { ApiOperation, ApiTags, ApiCreatedResponse } from '@nestjs/swagger';
 import { RedactionRequestResponse, RedactionResponse } from './dto/registry-responses.dto';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import {
@@ -10,6 +10,7 @@ import {
   RequestQueryDto,
 } from './dto/registry-tools.dto';
 import { RedactionsService } from './redactions.service';
+import { Action, Read } from '../common/route.decorators';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -17,27 +18,25 @@ import { RedactionsService } from './redactions.service';
 export class RedactionsController {
   constructor(private readonly redactions: RedactionsService) {}
 
-  @Post('redactions')
-  @HttpCode(200)
-  @ApiOperation({
-    summary: 'Remove the body of an entry (a redacted entry goes on the roll; the digest stays)',
-  })
-  @ApiOkResponse({ type: RedactionResponse })
+  @Action(
+    'redactions',
+    'Remove the body of an entry (a redacted entry goes on the roll; the digest stays)',
+    RedactionResponse,
+  )
   redact(@CurrentAccount() me: Principal, @Body() dto: RedactDto): Promise<RedactionResponse> {
     return this.redactions.redact(me.id, dto.lot, dto.seq, dto.reason, dto.note ?? null);
   }
 
-  @Get('redaction-requests')
-  @ApiOperation({ summary: 'Holders’ requests to remove their own entries' })
-  @ApiOkResponse({ type: [RedactionRequestResponse] })
+  @Read('redaction-requests', 'Holders’ requests to remove their own entries', [RedactionRequestResponse])
   requests(@Query() q: RequestQueryDto): Promise<RedactionRequestResponse[]> {
     return this.redactions.listRequests(q.status);
   }
 
-  @Post('redaction-requests/:id/approve')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Grant a holder’s request: the entry is redacted at the holder’s request' })
-  @ApiOkResponse({ type: RedactionResponse })
+  @Action(
+    'redaction-requests/:id/approve',
+    'Grant a holder’s request: the entry is redacted at the holder’s request',
+    RedactionResponse,
+  )
   approve(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,
@@ -46,10 +45,11 @@ export class RedactionsController {
     return this.redactions.approve(me.id, id, dto.note ?? null);
   }
 
-  @Post('redaction-requests/:id/decline')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Decline a holder’s request, saying why' })
-  @ApiOkResponse({ type: RedactionRequestResponse })
+  @Action(
+    'redaction-requests/:id/decline',
+    'Decline a holder’s request, saying why',
+    RedactionRequestResponse,
+  )
   decline(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

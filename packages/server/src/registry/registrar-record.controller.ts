@@ -1,10 +1,11 @@
 import { Controller, Get, Query, Res } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags, ApiOkResponse } from '@nestjs/swagger';
+import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { Roles } from '../auth/auth.decorators';
 import { ActionsQueryDto, ExportQueryDto } from './dto/registry-tools.dto';
 import { RegistrarActionPage } from './dto/registry-responses.dto';
 import { RegistrarRecordService } from './registrar-record.service';
+import { Read } from '../common/route.decorators';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -12,9 +13,7 @@ import { RegistrarRecordService } from './registrar-record.service';
 export class RegistrarRecordController {
   constructor(private readonly record: RegistrarRecordService) {}
 
-  @Get()
-  @ApiOperation({ summary: 'The registrar’s record of decisions, newest first' })
-  @ApiOkResponse({ type: RegistrarActionPage })
+  @Read(undefined, 'The registrar’s record of decisions, newest first', RegistrarActionPage)
   list(@Query() q: ActionsQueryDto): Promise<RegistrarActionPage> {
     return this.record.list(q);
   }

@@ -1,20 +1,11 @@
-import {
-  Body,
-  Controller,
-  Get,
-  HttpCode,
-  Param,
-  ParseUUIDPipe,
-  Post,
-  Query,
-  UseGuards,
-} from '@nestjs/common';
-import { ApiOperation, ApiTags, ApiOkResponse, ApiAcceptedResponse } from '@nestjs/swagger';
+import { Body, Controller, HttpCode, Param, ParseUUIDPipe, Post, Query, UseGuards } from '@nestjs/common';
+import { ApiOperation, ApiTags, ApiAcceptedResponse } from '@nestjs/swagger';
 import { CurrentAccount, type Principal, Public, Roles } from '../auth/auth.decorators';
 import { RateLimitGuard } from '../auth/rate-limit.guard';
 import { CloseReportDto, ReportDto, ReportQueryDto } from './dto/registry-tools.dto';
 import { FiledReportResponse, ReportPage, ReportResponse } from './dto/registry-responses.dto';
 import { ReportsService } from './reports.service';
+import { Action, Read } from '../common/route.decorators';
 
 @ApiTags('public')
 @Controller('public/lots')
@@ -38,19 +29,16 @@ export class PublicReportsController {
 export class ReportsController {
   constructor(private readonly reports: ReportsService) {}
 
-  @Get()
-  @ApiOperation({ summary: 'Reports from public pages, by status' })
-  @ApiOkResponse({ type: ReportPage })
+  @Read(undefined, 'Reports from public pages, by status', ReportPage)
   list(@Query() q: ReportQueryDto): Promise<ReportPage> {
     return this.reports.list(q);
   }
 
-  @Post(':id/close')
-  @HttpCode(200)
-  @ApiOperation({
-    summary: 'Close a report with an answer (e-mailed to the reporter if they left an address)',
-  })
-  @ApiOkResponse({ type: ReportResponse })
+  @Action(
+    ':id/close',
+    'Close a report with an answer (e-mailed to the reporter if they left an address)',
+    ReportResponse,
+  )
   close(
     @CurrentAccount() me: Principal,
     @Param('id', ParseUUIDPipe) id: string,

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, Post, Query } from '@nestjs/common';
+import { Body, Controller, HttpCode, Param, Post, Query } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import {
@@ -22,6 +22,7 @@ import {
 } from './dto/transfer-responses.dto';
 import { SalesService } from './sales.service';
 import { TransfersService } from './transfers.service';
+import { Action, Read } from '../common/route.decorators';
 
 @ApiTags('transfers')
 @Controller('transfers')
@@ -32,9 +33,11 @@ export class TransfersController {
     private readonly sales: SalesService,
   ) {}
 
-  @Get('dealers')
-  @ApiOperation({ summary: 'Find verified dealers to offer a lot to, by name, handle or business' })
-  @ApiOkResponse({ type: DealerSearchResponse })
+  @Read(
+    'dealers',
+    'Find verified dealers to offer a lot to, by name, handle or business',
+    DealerSearchResponse,
+  )
   async searchDealers(
     @CurrentAccount() me: Principal,
     @Query() q: DealerSearchQueryDto,
@@ -52,16 +55,16 @@ export class TransfersController {
     return this.transfers.offer(me, dto);
   }
 
-  @Get('offers')
-  @ApiOperation({ summary: 'Incoming or outgoing offers of the signed-in dealer, with a status filter' })
-  @ApiOkResponse({ type: OfferListResponse })
+  @Read(
+    'offers',
+    'Incoming or outgoing offers of the signed-in dealer, with a status filter',
+    OfferListResponse,
+  )
   list(@CurrentAccount() me: Principal, @Query() q: ListOffersQueryDto): Promise<OfferListResponse> {
     return this.transfers.list(me, q);
   }
 
-  @Get('offers/:id')
-  @ApiOperation({ summary: 'One offer, for either of its two dealers (with the sealed price)' })
-  @ApiOkResponse({ type: OfferResponse })
+  @Read('offers/:id', 'One offer, for either of its two dealers (with the sealed price)', OfferResponse)
   get(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<OfferResponse> {
     return this.transfers.get(me, id);
   }
@@ -105,9 +108,7 @@ export class TransfersController {
     return this.transfers.answer(me, id, 'withdraw', dto);
   }
 
-  @Get('invitations')
-  @ApiOperation({ summary: 'Offers waiting for an invited dealer to join and be verified' })
-  @ApiOkResponse({ type: InvitationListResponse })
+  @Read('invitations', 'Offers waiting for an invited dealer to join and be verified', InvitationListResponse)
   async invitations(@CurrentAccount() me: Principal): Promise<InvitationListResponse> {
     return { items: await this.transfers.listInvitations(me) };
   }
@@ -121,10 +122,11 @@ export class TransfersController {
     return this.transfers.offerInvitation(me, id);
   }
 
-  @Post('invitations/:id/cancel')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Cancel an invitation (nothing was written on the roll)' })
-  @ApiOkResponse({ type: InvitationResponse })
+  @Action(
+    'invitations/:id/cancel',
+    'Cancel an invitation (nothing was written on the roll)',
+    InvitationResponse,
+  )
   cancelInvitation(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<InvitationResponse> {
     return this.transfers.cancelInvitation(me, id);
   }
@@ -149,9 +151,7 @@ export class TransfersController {
     return this.sales.voidSale(me, code, dto);
   }
 
-  @Get('sales')
-  @ApiOperation({ summary: 'Sales of the signed-in dealer, with filters' })
-  @ApiOkResponse({ type: SaleListResponse })
+  @Read('sales', 'Sales of the signed-in dealer, with filters', SaleListResponse)
   listSales(@CurrentAccount() me: Principal, @Query() q: ListSalesQueryDto): Promise<SaleListResponse> {
     return this.sales.list(me, q);
   }

@@ -1,0 +1,38 @@
+import { applyDecorators, Get, HttpCode, Post, Put, type Type } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation } from '@nestjs/swagger';
+import { Roles, RollWriter } from '../auth/auth.decorators';
+
+/** The response body of a route: one DTO class, or a list of them. */
+export type RouteBody = Type<unknown> | [Type<unknown>];
+
+/** Summary and 200 body in the OpenAPI document. */
+export const Documented = (summary: string, type: RouteBody) =>
+  applyDecorators(ApiOperation({ summary }), ApiOkResponse({ type }));
+
+/** A read: GET answering 200 with `type`. */
+export const Read = (path: string | undefined, summary: string, type: RouteBody) =>
+  applyDecorators(Get(path), Documented(summary, type));
+
+/**
+ * A POST that acts on something that already exists (approve, close, accept...): it answers
+ * 200 with the changed thing, not 201.
+ */
+export const Action = (path: string, summary: string, type: RouteBody) =>
+  applyDecorators(Post(path), HttpCode(200), Documented(summary, type));
+
+/**
+ * A dealer's write on a lot's roll (POST or PUT), answering with `type`. POST keeps Nest's
+ * 201; the roll-writer mark puts it behind the standby check.
+ */
+export const DealerRollWrite = (
+  method: 'POST' | 'PUT',
+  path: string | undefined,
+  summary: string,
+  type: RouteBody,
+) =>
+  applyDecorators(
+    method === 'POST' ? Post(path) : Put(path as string),
+    Roles('dealer'),
+    RollWriter(),
+    Documented(summary, type),
+  );
