@@ -3,6 +3,7 @@ import { Transform } from 'class-transformer';
 import { IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
 import type { Account } from '../entities/account.entity';
+import { AccountIdentity, toAccountIdentity } from './account-identity.dto';
 
 export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
 export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
@@ -36,17 +37,7 @@ export class ApplicantDocumentResponse {
   @ApiProperty() name: string;
 }
 
-export class ApplicantResponse {
-  @ApiProperty() id: string;
-  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: Account['role'];
-  @ApiProperty({ enum: ['pending', 'verified', 'rejected', 'suspended', 'closed'] })
-  status: Account['status'];
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() email: string;
-  @ApiProperty() business: string;
-  @ApiProperty() town: string;
-  @ApiProperty() country: string;
+export class ApplicantResponse extends AccountIdentity {
   @ApiProperty() address: string;
   @ApiProperty({ type: String, nullable: true }) website: string | null;
   @ApiProperty() tradeReferences: string;
@@ -67,15 +58,7 @@ export class RegistryPage {
 
 export function toApplicantResponse(a: Account): ApplicantResponse {
   return {
-    id: a.id,
-    role: a.role,
-    status: a.status,
-    handle: a.handle,
-    displayName: a.displayName,
-    email: a.email,
-    business: a.business,
-    town: a.town,
-    country: a.country,
+    ...toAccountIdentity(a),
     address: a.address,
     website: a.website,
     tradeReferences: a.tradeReferences,

@@ -1,18 +1,9 @@
 import { ApiProperty } from '@nestjs/swagger';
 import type { Account } from '../../accounts/entities/account.entity';
-import type { AccountStatus, Role } from '../auth.decorators';
+import { AccountIdentity, toAccountIdentity } from '../../accounts/dto/account-identity.dto';
 
 /** The signed-in account as the web app sees it (its own details, e-mail included). */
-export class MeResponse {
-  @ApiProperty() id: string;
-  @ApiProperty({ enum: ['dealer', 'assessor', 'registrar'] }) role: Role;
-  @ApiProperty({ enum: ['pending', 'verified', 'rejected', 'suspended', 'closed'] }) status: AccountStatus;
-  @ApiProperty() handle: string;
-  @ApiProperty() displayName: string;
-  @ApiProperty() email: string;
-  @ApiProperty() business: string;
-  @ApiProperty() town: string;
-  @ApiProperty() country: string;
+export class MeResponse extends AccountIdentity {
   @ApiProperty() emailVerified: boolean;
   @ApiProperty({ type: String, nullable: true }) verifiedSince: string | null;
   @ApiProperty({ type: String, nullable: true }) statusReason: string | null;
@@ -25,15 +16,7 @@ export class SessionResponse {
 
 export function toMeResponse(a: Account): MeResponse {
   return {
-    id: a.id,
-    role: a.role,
-    status: a.status,
-    handle: a.handle,
-    displayName: a.displayName,
-    email: a.email,
-    business: a.business,
-    town: a.town,
-    country: a.country,
+    ...toAccountIdentity(a),
     emailVerified: a.emailVerifiedAt !== null,
     verifiedSince: a.verifiedAt?.toISOString() ?? null,
     statusReason: a.statusReason,
