@@ -4,6 +4,7 @@ import { IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validato
 import { PageQueryDto } from '../../common/page-query.dto';
 import type { Account } from '../entities/account.entity';
 import { AccountIdentity, toAccountIdentity } from './account-identity.dto';
+import { Page } from '../../common/page.dto';
 
 export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
 export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
@@ -49,12 +50,7 @@ export class ApplicantResponse extends AccountIdentity {
   @ApiProperty({ type: String, nullable: true }) statusReason: string | null;
 }
 
-export class RegistryPage {
-  @ApiProperty({ type: [ApplicantResponse] }) items: ApplicantResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class RegistryPage extends Page(ApplicantResponse) {}
 
 export function toApplicantResponse(a: Account): ApplicantResponse {
   return {

@@ -9,6 +9,7 @@ import {
   type Observations,
 } from '@beadroll/core';
 import { MoneyDto } from './sealed-details.dto';
+import { Page } from '../../common/page.dto';
 
 /** Every status a lot can be in (core's `LotStatus`). */
 export const LOT_STATUSES: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
@@ -72,12 +73,7 @@ export class LotSummaryResponse {
 }
 
 /** A page of the lot list. */
-export class LotListResponse {
-  @ApiProperty({ type: [LotSummaryResponse] }) items: LotSummaryResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class LotListResponse extends Page(LotSummaryResponse) {}
 
 /** The viewer's own sealed details, newest value of each. */
 export class OwnSealedDetails {

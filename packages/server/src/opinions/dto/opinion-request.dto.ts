@@ -3,6 +3,7 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
+import { Page } from '../../common/page.dto';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -68,12 +69,7 @@ export class OpinionRequestResponse {
   @ApiProperty({ nullable: true, type: PartyName }) answeredBy: PartyName | null;
 }
 
-export class OpinionRequestListResponse {
-  @ApiProperty({ type: [OpinionRequestResponse] }) items: OpinionRequestResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class OpinionRequestListResponse extends Page(OpinionRequestResponse) {}
 
 export class AssessorListResponse {
   @ApiProperty({ type: [PartyName] }) items: PartyName[];

@@ -8,6 +8,7 @@ import {
   type ReportCategory,
   type ReportStatus,
 } from '../entities/report.entity';
+import { Page } from '../../common/page.dto';
 
 /** A body removed from a roll by the registrar. */
 export class RedactionResponse {
@@ -50,12 +51,7 @@ export class RegistrarActionResponse {
 }
 
 /** A page of the registrar's record. */
-export class RegistrarActionPage {
-  @ApiProperty({ type: [RegistrarActionResponse] }) items: RegistrarActionResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class RegistrarActionPage extends Page(RegistrarActionResponse) {}
 
 /** A report filed from a public page. */
 export class ReportResponse {
@@ -77,12 +73,7 @@ export class ReportResponse {
 }
 
 /** A page of reports. */
-export class ReportPage {
-  @ApiProperty({ type: [ReportResponse] }) items: ReportResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class ReportPage extends Page(ReportResponse) {}
 
 /** The answer to a filed report. */
 export class FiledReportResponse {

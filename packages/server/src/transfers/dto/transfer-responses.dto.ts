@@ -3,6 +3,7 @@ import { PartyCard } from '../../accounts/dto/dealer-card.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import type { InvitationStatus } from '../entities/transfer-invitation.entity';
 import type { OfferStatus } from '../entities/transfer-offer.entity';
+import { Page } from '../../common/page.dto';
 
 /** The lot an offer or sale is about. */
 export class TransferLotResponse {
@@ -33,12 +34,7 @@ export class OfferResponse {
   price?: MoneyDto;
 }
 
-export class OfferListResponse {
-  @ApiProperty({ type: [OfferResponse] }) items: OfferResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class OfferListResponse extends Page(OfferResponse) {}
 
 /** An offer waiting for the invited dealer to join and be verified. */
 export class InvitationResponse {
@@ -73,12 +69,7 @@ export class SaleResponse {
   @ApiProperty() listed: boolean;
 }
 
-export class SaleListResponse {
-  @ApiProperty({ type: [SaleResponse] }) items: SaleResponse[];
-  @ApiProperty() total: number;
-  @ApiProperty() page: number;
-  @ApiProperty() pageSize: number;
-}
+export class SaleListResponse extends Page(SaleResponse) {}
 
 export class InvitationListResponse {
   @ApiProperty({ type: [InvitationResponse] }) items: InvitationResponse[];
