@@ -1,10 +1,10 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform } from 'class-transformer';
-import { IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { IsIn, IsOptional } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
 import type { Account } from '../entities/account.entity';
 import { AccountIdentity, toAccountIdentity } from './account-identity.dto';
 import { Page } from '../../common/page.dto';
+import { Reason } from '../../common/text-fields';
 
 export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
 export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
@@ -23,10 +23,7 @@ export class RegistryQueryDto extends PageQueryDto {
 
 export class ReasonDto {
   @ApiProperty({ description: 'Sent to the account holder by e-mail' })
-  @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
-  @IsString()
-  @MinLength(3, { message: 'must say why, in at least 3 characters' })
-  @MaxLength(500, { message: 'must be at most 500 characters' })
+  @Reason(500)
   reason: string;
 }
 

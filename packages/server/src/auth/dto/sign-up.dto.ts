@@ -12,8 +12,7 @@ import {
   MinLength,
 } from 'class-validator';
 import { PASSWORD_MAX, PASSWORD_MIN, PASSWORD_RULE } from './password.rule';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+import { TrimmedText, trim } from '../../common/text-fields';
 
 export const HANDLE_PATTERN = /^[a-z0-9][a-z0-9-]{1,30}[a-z0-9]$/;
 
@@ -23,10 +22,7 @@ export class SignUpDto {
   role: 'dealer' | 'assessor';
 
   @ApiProperty({ example: 'Mira Perlova' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(1, { message: 'is required' })
-  @MaxLength(80, { message: 'must be at most 80 characters' })
+  @TrimmedText(80, { length: 1, message: 'is required' })
   displayName: string;
 
   @ApiProperty({ example: 'mira-beads', description: 'Lower-case, unique, never changed' })
@@ -38,24 +34,15 @@ export class SignUpDto {
   handle: string;
 
   @ApiProperty({ example: 'Perlova Trade Beads' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(1, { message: 'is required' })
-  @MaxLength(120, { message: 'must be at most 120 characters' })
+  @TrimmedText(120, { length: 1, message: 'is required' })
   business: string;
 
   @ApiProperty({ example: 'Pulegoso Brook' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(1, { message: 'is required' })
-  @MaxLength(80, { message: 'must be at most 80 characters' })
+  @TrimmedText(80, { length: 1, message: 'is required' })
   town: string;
 
   @ApiProperty({ example: 'Punty Reach' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(2, { message: 'is required' })
-  @MaxLength(80, { message: 'must be at most 80 characters' })
+  @TrimmedText(80, { length: 2, message: 'is required' })
   country: string;
 
   @ApiProperty({

@@ -4,8 +4,7 @@ import { Transform } from 'class-transformer';
 import { IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/page-query.dto';
 import { Page } from '../../common/page.dto';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+import { trim } from '../../common/text-fields';
 
 /** Asks a named assessor, or any verified assessor, for an opinion on a lot the dealer holds. */
 export class CreateOpinionRequestDto {

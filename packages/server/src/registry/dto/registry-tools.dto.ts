@@ -11,8 +11,8 @@ import {
   type ReportCategory,
   type ReportStatus,
 } from '../entities/report.entity';
+import { Reason, TrimmedText, trim } from '../../common/text-fields';
 
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 const emptyToUndefined = ({ value }: { value: unknown }) => {
   if (typeof value !== 'string') return value;
   const v = value.trim();
@@ -37,9 +37,7 @@ export class RedactDto {
 
   @ApiPropertyOptional({ description: 'Why, for the registrar’s record (never on the roll)' })
   @IsOptional()
-  @Transform(trim)
-  @IsString()
-  @MaxLength(2000, { message: 'must be at most 2000 characters' })
+  @TrimmedText(2000)
   note?: string;
 }
 
@@ -51,28 +49,20 @@ export class RedactionRequestDto {
   seq: number;
 
   @ApiProperty({ description: 'Why the entry should be removed' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(3, { message: 'must say why, in at least 3 characters' })
-  @MaxLength(1000, { message: 'must be at most 1000 characters' })
+  @Reason(1000)
   note: string;
 }
 
 export class DecisionNoteDto {
   @ApiPropertyOptional()
   @IsOptional()
-  @Transform(trim)
-  @IsString()
-  @MaxLength(1000, { message: 'must be at most 1000 characters' })
+  @TrimmedText(1000)
   note?: string;
 }
 
 export class DeclineDto {
   @ApiProperty()
-  @Transform(trim)
-  @IsString()
-  @MinLength(3, { message: 'must say why, in at least 3 characters' })
-  @MaxLength(1000, { message: 'must be at most 1000 characters' })
+  @Reason(1000)
   reason: string;
 }
 
@@ -122,10 +112,7 @@ export class ReportQueryDto extends PageQueryDto {
 
 export class CloseReportDto {
   @ApiProperty({ description: 'The registrar’s answer; e-mailed to the reporter when they left an address' })
-  @Transform(trim)
-  @IsString()
-  @MinLength(3, { message: 'must say what was done, in at least 3 characters' })
-  @MaxLength(2000, { message: 'must be at most 2000 characters' })
+  @TrimmedText(2000, { length: 3, message: 'must say what was done, in at least 3 characters' })
   resolution: string;
 }
 

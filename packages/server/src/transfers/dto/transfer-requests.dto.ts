@@ -16,8 +16,7 @@ import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
 import { NestedObject, OptionalText } from '../../common/validation';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+import { trim } from '../../common/text-fields';
 
 /**
  * Offers a lot to a verified dealer (by account id, from the dealer search) or to an e-mail
