@@ -1,6 +1,6 @@
 import { applyDecorators, Get, HttpCode, Post, Put, type Type } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation } from '@nestjs/swagger';
-import { Roles, RollWriter } from '../auth/auth.decorators';
+import { type Role, Roles, RollWriter } from '../auth/auth.decorators';
 
 /** The response body of a route: one DTO class, or a list of them. */
 export type RouteBody = Type<unknown> | [Type<unknown>];
@@ -36,3 +36,14 @@ export const DealerRollWrite = (
     RollWriter(),
     Documented(summary, type),
   );
+
+/** The roll-writer mark, after an optional role check on the route itself. */
+const writer = (roles: Role[]) => applyDecorators(...(roles.length ? [Roles(...roles)] : []), RollWriter());
+
+/** A POST that writes a new entry on a roll (Nest's 201), for `roles` when given. */
+export const RollWrite = (path: string | undefined, summary: string, type: RouteBody, ...roles: Role[]) =>
+  applyDecorators(Post(path), writer(roles), Documented(summary, type));
+
+/** An {@link Action} that writes on a roll (accept, withdraw...), for `roles` when given. */
+export const RollAction = (path: string, summary: string, type: RouteBody, ...roles: Role[]) =>
+  applyDecorators(Action(path, summary, type), writer(roles));

@@ -1,11 +1,11 @@
-import { Body, Controller, HttpCode, Param, Post } from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import { Body, Controller, Param } from '@nestjs/common';
+import { ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, type Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import { RecordOpinionDto, ReplyDto, WithdrawOpinionDto } from './dto/opinion-requests.dto';
 import { LotOpinionsResponse, OpinionWriteResponse } from './dto/opinion-responses.dto';
 import { OpinionsService } from './opinions.service';
-import { DealerRollWrite, Read } from '../common/route.decorators';
+import { DealerRollWrite, Read, RollAction, RollWrite } from '../common/route.decorators';
 
 function seqOf(text: string): number {
   if (!/^\d{1,9}$/.test(text))
@@ -27,11 +27,13 @@ export class OpinionsController {
     return this.opinions.list(me, code);
   }
 
-  @Post()
-  @Roles('dealer', 'assessor')
-  @RollWriter()
-  @ApiOperation({ summary: 'Record an attribution opinion (opinion): the holder, or anyone on a listed lot' })
-  @ApiOkResponse({ type: OpinionWriteResponse })
+  @RollWrite(
+    undefined,
+    'Record an attribution opinion (opinion): the holder, or anyone on a listed lot',
+    OpinionWriteResponse,
+    'dealer',
+    'assessor',
+  )
   record(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,
@@ -40,12 +42,13 @@ export class OpinionsController {
     return this.opinions.record(me, code, dto);
   }
 
-  @Post(':seq/withdrawal')
-  @HttpCode(200)
-  @Roles('dealer', 'assessor')
-  @RollWriter()
-  @ApiOperation({ summary: 'Withdraw one’s own opinion (opinion-withdrawn)' })
-  @ApiOkResponse({ type: OpinionWriteResponse })
+  @RollAction(
+    ':seq/withdrawal',
+    'Withdraw one’s own opinion (opinion-withdrawn)',
+    OpinionWriteResponse,
+    'dealer',
+    'assessor',
+  )
   withdraw(
     @CurrentAccount() me: Principal,
     @Param('code') code: string,

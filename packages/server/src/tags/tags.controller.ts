@@ -1,10 +1,11 @@
 import { Body, Controller, Get, Header, HttpCode, Param, Post, Res, StreamableFile } from '@nestjs/common';
 import { ApiOperation, ApiProduces, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import type { Response } from 'express';
-import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
+import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
 import { ListLotsDto, PrintTagsDto } from './dto/print-tags.dto';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { TagListResponse, TagsService, type TagLayoutsResponse, TagLotResponse } from './tags.service';
+import { RollAction } from '../common/route.decorators';
 
 @ApiTags('tags')
 @Controller('tags')
@@ -47,12 +48,12 @@ export class TagsController {
     return new StreamableFile(pdf, { type: 'application/pdf' });
   }
 
-  @Post('list')
-  @HttpCode(200)
-  @Roles('dealer')
-  @RollWriter()
-  @ApiOperation({ summary: 'List unlisted lots before printing their tags (writes described entries)' })
-  @ApiOkResponse({ type: TagListResponse })
+  @RollAction(
+    'list',
+    'List unlisted lots before printing their tags (writes described entries)',
+    TagListResponse,
+    'dealer',
+  )
   list(@CurrentAccount() me: Principal, @Body() dto: ListLotsDto): Promise<TagListResponse> {
     return this.tags.list(me, dto.lots);
   }

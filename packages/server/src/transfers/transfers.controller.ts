@@ -1,5 +1,5 @@
 import { Body, Controller, HttpCode, Param, Post, Query } from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import {
   AnswerOfferDto,
@@ -22,7 +22,7 @@ import {
 } from './dto/transfer-responses.dto';
 import { SalesService } from './sales.service';
 import { TransfersService } from './transfers.service';
-import { Action, Read } from '../common/route.decorators';
+import { Action, Read, RollAction, RollWrite } from '../common/route.decorators';
 
 @ApiTags('transfers')
 @Controller('transfers')
@@ -45,12 +45,11 @@ export class TransfersController {
     return { items: await this.transfers.searchDealers(me, q.q) };
   }
 
-  @Post('offers')
-  @RollWriter()
-  @ApiOperation({
-    summary: 'Offer a lot to a verified dealer (transfer-offered), or invite an e-mail address to take it',
-  })
-  @ApiOkResponse({ type: CreateOfferResponse })
+  @RollWrite(
+    'offers',
+    'Offer a lot to a verified dealer (transfer-offered), or invite an e-mail address to take it',
+    CreateOfferResponse,
+  )
   offer(@CurrentAccount() me: Principal, @Body() dto: CreateOfferDto): Promise<CreateOfferResponse> {
     return this.transfers.offer(me, dto);
   }
@@ -69,11 +68,11 @@ export class TransfersController {
     return this.transfers.get(me, id);
   }
 
-  @Post('offers/:id/accept')
-  @HttpCode(200)
-  @RollWriter()
-  @ApiOperation({ summary: 'Accept an open offer (transfer-accepted): the lot is yours' })
-  @ApiOkResponse({ type: OfferResponse })
+  @RollAction(
+    'offers/:id/accept',
+    'Accept an open offer (transfer-accepted): the lot is yours',
+    OfferResponse,
+  )
   accept(
     @CurrentAccount() me: Principal,
     @Param('id') id: string,
@@ -82,11 +81,7 @@ export class TransfersController {
     return this.transfers.answer(me, id, 'accept', dto);
   }
 
-  @Post('offers/:id/decline')
-  @HttpCode(200)
-  @RollWriter()
-  @ApiOperation({ summary: 'Decline an open offer (transfer-declined)' })
-  @ApiOkResponse({ type: OfferResponse })
+  @RollAction('offers/:id/decline', 'Decline an open offer (transfer-declined)', OfferResponse)
   decline(
     @CurrentAccount() me: Principal,
     @Param('id') id: string,
@@ -95,11 +90,7 @@ export class TransfersController {
     return this.transfers.answer(me, id, 'decline', dto);
   }
 
-  @Post('offers/:id/withdraw')
-  @HttpCode(200)
-  @RollWriter()
-  @ApiOperation({ summary: 'Withdraw your open offer (transfer-withdrawn)' })
-  @ApiOkResponse({ type: OfferResponse })
+  @RollAction('offers/:id/withdraw', 'Withdraw your open offer (transfer-withdrawn)', OfferResponse)
   withdraw(
     @CurrentAccount() me: Principal,
     @Param('id') id: string,
@@ -113,11 +104,11 @@ export class TransfersController {
     return { items: await this.transfers.listInvitations(me) };
   }
 
-  @Post('invitations/:id/offer')
-  @HttpCode(200)
-  @RollWriter()
-  @ApiOperation({ summary: 'Make the offer of an invitation now that the invitee is verified' })
-  @ApiOkResponse({ type: InvitationResponse })
+  @RollAction(
+    'invitations/:id/offer',
+    'Make the offer of an invitation now that the invitee is verified',
+    InvitationResponse,
+  )
   offerInvitation(@CurrentAccount() me: Principal, @Param('id') id: string): Promise<InvitationResponse> {
     return this.transfers.offerInvitation(me, id);
   }
@@ -131,10 +122,7 @@ export class TransfersController {
     return this.transfers.cancelInvitation(me, id);
   }
 
-  @Post('sales')
-  @RollWriter()
-  @ApiOperation({ summary: 'Record a sale to a private buyer (sold), with a sealed price' })
-  @ApiOkResponse({ type: SaleResponse })
+  @RollWrite('sales', 'Record a sale to a private buyer (sold), with a sealed price', SaleResponse)
   recordSale(@CurrentAccount() me: Principal, @Body() dto: RecordSaleDto): Promise<SaleResponse> {
     return this.sales.record(me, dto);
   }
