@@ -1,17 +1,9 @@
-import { applyDecorators } from '@nestjs/common';
 import { Transform } from 'class-transformer';
 import { IsString, MaxLength, MinLength } from 'class-validator';
+import { stacked } from './stacked';
 
 /** Strips the spaces a pasted value brings at either end; leaves non-strings for the validators. */
 export const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
-
-/**
- * Applies property decorators as if written one above the other in this order, so that the
- * validators report their reasons in the order a reader sees them.
- */
-function stacked(...decorators: PropertyDecorator[]): PropertyDecorator {
-  return applyDecorators(...[...decorators].reverse());
-}
 
 /** At least this many characters, with the words the dealer reads when there are fewer. */
 export interface Least {

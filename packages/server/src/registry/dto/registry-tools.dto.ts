@@ -1,8 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { REDACTION_REASONS, type RedactionReason } from '@beadroll/core';
-import { Transform, Type } from 'class-transformer';
+import { Transform } from 'class-transformer';
 import { IsEmail, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
-import { PageQueryDto } from '../../common/page-query.dto';
+import { PageParam, PageQueryDto } from '../../common/page-query.dto';
 import { REGISTRAR_ACTIONS, type RegistrarActionKind } from '../entities/registrar-action.entity';
 import { REQUEST_STATUSES, type RedactionRequestStatus } from '../entities/redaction-request.entity';
 import {
@@ -123,19 +123,11 @@ export class ActionsQueryDto {
   action?: RegistrarActionKind;
 
   @ApiPropertyOptional({ type: Number, default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(100000)
+  @PageParam(100000)
   page = 1;
 
   @ApiPropertyOptional({ type: Number, default: 50 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt({ message: 'must be a whole number' })
-  @Min(1)
-  @Max(200)
+  @PageParam(200)
   pageSize = 50;
 }
 
