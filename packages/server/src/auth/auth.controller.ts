@@ -7,11 +7,10 @@ import {
   Req,
   Res,
   UploadedFile,
-  UseGuards,
   UseInterceptors,
 } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiAcceptedResponse, ApiConsumes, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { SIGN_UP_UPLOAD, SignUpUploadInterceptor, type UploadedDocument } from './applicant-document';
 import type { Request, Response } from 'express';
 import type { AppConfig } from '../config/app-config';
@@ -22,11 +21,10 @@ import { clearSessionCookies, REFRESH_COOKIE, setSessionCookies } from './cookie
 import { SignInDto } from './dto/sign-in.dto';
 import { SignUpDto } from './dto/sign-up.dto';
 import { ForgotPasswordDto, MessageResponse, ResetPasswordDto, TokenDto } from './dto/tokens.dto';
-import { RateLimitGuard } from './rate-limit.guard';
 import { SessionResponse, SignedInResponse, toMeResponse } from './dto/session.response';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
 import { SessionsService } from './sessions.service';
-import { Action, Read } from '../common/route.decorators';
+import { Accepted, Action, RateLimitedPublic, Read } from '../common/route.decorators';
 
 @ApiTags('auth')
 @Controller('auth')
@@ -43,40 +41,35 @@ export class AuthController {
     return { account: principal ? toMeResponse(await this.auth.me(principal.id)) : null };
   }
 
-  @Public()
-  @UseGuards(RateLimitGuard)
-  @Post('sign-up')
-  @HttpCode(202)
+  @RateLimitedPublic()
   @UseInterceptors(SignUpUploadInterceptor, FileInterceptor('document', SIGN_UP_UPLOAD))
   @ApiConsumes('application/json', 'multipart/form-data')
-  @ApiOperation({
-    summary:
-      'Apply for a dealer or assessor account (always answers "check your e-mail"); as a form, with an optional document (PDF, JPEG or PNG, at most 10 MB) for the registrar',
-  })
-  @ApiAcceptedResponse({ type: MessageResponse })
+  @Accepted(
+    'sign-up',
+    'Apply for a dealer or assessor account (always answers "check your e-mail"); as a form, with an optional document (PDF, JPEG or PNG, at most 10 MB) for the registrar',
+    MessageResponse,
+  )
   signUp(@Body() dto: SignUpDto, @UploadedFile() document?: UploadedDocument): Promise<MessageResponse> {
     return this.auth.signUp(dto, document);
   }
 
-  @Public()
-  @UseGuards(RateLimitGuard)
+  @RateLimitedPublic()
   @Action('verify-email', 'Confirm an e-mail address with the token from the e-mailed link', MessageResponse)
   verifyEmail(@Body() dto: TokenDto): Promise<MessageResponse> {
     return this.auth.verifyEmail(dto.token);
   }
 
-  @Public()
-  @UseGuards(RateLimitGuard)
-  @Post('forgot-password')
-  @HttpCode(202)
-  @ApiOperation({ summary: 'E-mail a link to choose a new password (always answers "check your e-mail")' })
-  @ApiAcceptedResponse({ type: MessageResponse })
+  @RateLimitedPublic()
+  @Accepted(
+    'forgot-password',
+    'E-mail a link to choose a new password (always answers "check your e-mail")',
+    MessageResponse,
+  )
   forgotPassword(@Body() dto: ForgotPasswordDto): Promise<MessageResponse> {
     return this.auth.forgotPassword(dto.email);
   }
 
-  @Public()
-  @UseGuards(RateLimitGuard)
+  @RateLimitedPublic()
   @Action(
     'reset-password',
     'Set a new password with the token from the e-mailed link (ends every session)',
@@ -86,13 +79,9 @@ export class AuthController {
     return this.auth.resetPassword(dto.token, dto.password);
   }
 
-  @Public()
-  @UseGuards(RateLimitGuard)
-  @Post('sign-in')
+  @RateLimitedPublic()
   @NoReplay()
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Sign in with e-mail and password (sets the session cookies)' })
-  @ApiOkResponse({ type: SignedInResponse })
+  @Action('sign-in', 'Sign in with e-mail and password (sets the session cookies)', SignedInResponse)
   async signIn(@Body() dto: SignInDto, @Res({ passthrough: true }) res: Response): Promise<SignedInResponse> {
     const { account, session } = await this.auth.signIn(dto.email, dto.password);
     setSessionCookies(res, this.config, session.access, session.refresh);
@@ -100,11 +89,8 @@ export class AuthController {
   }
 
   @Public()
-  @Post('session/refresh')
   @NoReplay()
-  @HttpCode(200)
-  @ApiOperation({ summary: 'Exchange the refresh cookie for new session cookies' })
-  @ApiOkResponse({ type: SessionResponse })
+  @Action('session/refresh', 'Exchange the refresh cookie for new session cookies', SessionResponse)
   async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<SessionResponse> {
     const token: unknown = req.cookies?.[REFRESH_COOKIE];
     // No refresh cookie at all: nobody is signed in, which is an answer, not an error.

@@ -1,6 +1,7 @@
-import { applyDecorators, Get, HttpCode, Post, Put, type Type } from '@nestjs/common';
-import { ApiOkResponse, ApiOperation } from '@nestjs/swagger';
-import { type Role, Roles, RollWriter } from '../auth/auth.decorators';
+import { applyDecorators, Get, HttpCode, Post, Put, type Type, UseGuards } from '@nestjs/common';
+import { ApiAcceptedResponse, ApiOkResponse, ApiOperation } from '@nestjs/swagger';
+import { Public, type Role, Roles, RollWriter } from '../auth/auth.decorators';
+import { RateLimitGuard } from '../auth/rate-limit.guard';
 
 /** The response body of a route: one DTO class, or a list of them. */
 export type RouteBody = Type<unknown> | [Type<unknown>];
@@ -47,3 +48,10 @@ export const RollWrite = (path: string | undefined, summary: string, type: Route
 /** An {@link Action} that writes on a roll (accept, withdraw...), for `roles` when given. */
 export const RollAction = (path: string, summary: string, type: RouteBody, ...roles: Role[]) =>
   applyDecorators(Action(path, summary, type), writer(roles));
+
+/** A POST whose work goes on after the answer (a mail, a review): 202 with `type`. */
+export const Accepted = (path: string, summary: string, type: RouteBody) =>
+  applyDecorators(Post(path), HttpCode(202), ApiOperation({ summary }), ApiAcceptedResponse({ type }));
+
+/** Open without a sign-in, and limited per address against guessing and flooding. */
+export const RateLimitedPublic = () => applyDecorators(Public(), UseGuards(RateLimitGuard));

@@ -1,23 +1,18 @@
-import { Body, Controller, HttpCode, Param, ParseUUIDPipe, Post, Query, UseGuards } from '@nestjs/common';
-import { ApiOperation, ApiTags, ApiAcceptedResponse } from '@nestjs/swagger';
-import { CurrentAccount, type Principal, Public, Roles } from '../auth/auth.decorators';
-import { RateLimitGuard } from '../auth/rate-limit.guard';
+import { Body, Controller, Param, ParseUUIDPipe, Query } from '@nestjs/common';
+import { ApiTags } from '@nestjs/swagger';
+import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { CloseReportDto, ReportDto, ReportQueryDto } from './dto/registry-tools.dto';
 import { FiledReportResponse, ReportPage, ReportResponse } from './dto/registry-responses.dto';
 import { ReportsService } from './reports.service';
-import { Action, Read } from '../common/route.decorators';
+import { Accepted, Action, RateLimitedPublic, Read } from '../common/route.decorators';
 
 @ApiTags('public')
 @Controller('public/lots')
 export class PublicReportsController {
   constructor(private readonly reports: ReportsService) {}
 
-  @Public()
-  @UseGuards(RateLimitGuard)
-  @Post(':code/reports')
-  @HttpCode(202)
-  @ApiOperation({ summary: 'Report a problem with a listed lot’s public page' })
-  @ApiAcceptedResponse({ type: FiledReportResponse })
+  @RateLimitedPublic()
+  @Accepted(':code/reports', 'Report a problem with a listed lot’s public page', FiledReportResponse)
   file(@Param('code') code: string, @Body() dto: ReportDto): Promise<FiledReportResponse> {
     return this.reports.file(code, dto);
   }
