@@ -1,17 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import {
-  IsEmail,
-  IsIn,
-  IsOptional,
-  IsString,
-  IsUrl,
-  Length,
-  Matches,
-  MaxLength,
-  MinLength,
-} from 'class-validator';
-import { PASSWORD_MAX, PASSWORD_MIN, PASSWORD_RULE } from './password.rule';
+import { IsIn, IsOptional, IsString, IsUrl, Length, Matches, MaxLength } from 'class-validator';
+import { AccountEmail, NewPassword } from './password.rule';
 import { TrimmedText, trim } from '../../common/text-fields';
 
 export const HANDLE_PATTERN = /^[a-z0-9][a-z0-9-]{1,30}[a-z0-9]$/;
@@ -79,14 +69,9 @@ export class SignUpDto {
   tradeReferences: string;
 
   @ApiProperty({ example: 'mira@example.invalid' })
-  @Transform(trim)
-  @IsEmail({}, { message: 'must be an e-mail address' })
-  @MaxLength(254, { message: 'must be at most 254 characters' })
+  @AccountEmail()
   email: string;
 
-  @ApiProperty({ description: PASSWORD_RULE })
-  @IsString()
-  @MinLength(PASSWORD_MIN, { message: PASSWORD_RULE })
-  @MaxLength(PASSWORD_MAX, { message: PASSWORD_RULE })
+  @NewPassword()
   password: string;
 }

@@ -1,7 +1,6 @@
 import { ApiProperty } from '@nestjs/swagger';
-import { Transform } from 'class-transformer';
-import { IsEmail, IsString, Matches, MaxLength, MinLength } from 'class-validator';
-import { PASSWORD_MAX, PASSWORD_MIN, PASSWORD_RULE } from './password.rule';
+import { IsString, Matches, MaxLength, MinLength } from 'class-validator';
+import { AccountEmail, NewPassword } from './password.rule';
 
 const TOKEN = /^[A-Za-z0-9_-]{20,100}$/;
 
@@ -14,17 +13,12 @@ export class TokenDto {
 
 export class ForgotPasswordDto {
   @ApiProperty()
-  @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
-  @IsEmail({}, { message: 'must be an e-mail address' })
-  @MaxLength(254, { message: 'must be at most 254 characters' })
+  @AccountEmail()
   email: string;
 }
 
 export class ResetPasswordDto extends TokenDto {
-  @ApiProperty({ description: PASSWORD_RULE })
-  @IsString()
-  @MinLength(PASSWORD_MIN, { message: PASSWORD_RULE })
-  @MaxLength(PASSWORD_MAX, { message: PASSWORD_RULE })
+  @NewPassword()
   password: string;
 }
 
@@ -35,10 +29,7 @@ export class ChangePasswordDto {
   @MaxLength(200)
   currentPassword: string;
 
-  @ApiProperty({ description: PASSWORD_RULE })
-  @IsString()
-  @MinLength(PASSWORD_MIN, { message: PASSWORD_RULE })
-  @MaxLength(PASSWORD_MAX, { message: PASSWORD_RULE })
+  @NewPassword()
   newPassword: string;
 }
 
