@@ -1,5 +1,5 @@
-import { applyDecorators, Get, HttpCode, Post, Put, type Type, UseGuards } from '@nestjs/common';
-import { ApiAcceptedResponse, ApiOkResponse, ApiOperation } from '@nestjs/swagger';
+import { applyDecorators, Get, Header, HttpCode, Post, Put, type Type, UseGuards } from '@nestjs/common';
+import { ApiAcceptedResponse, ApiOkResponse, ApiOperation, ApiProduces } from '@nestjs/swagger';
 import { Public, type Role, Roles, RollWriter } from '../auth/auth.decorators';
 import { RateLimitGuard } from '../auth/rate-limit.guard';
 
@@ -55,3 +55,12 @@ export const Accepted = (path: string, summary: string, type: RouteBody) =>
 
 /** Open without a sign-in, and limited per address against guessing and flooding. */
 export const RateLimitedPublic = () => applyDecorators(Public(), UseGuards(RateLimitGuard));
+
+/** GET `export`: a list as a spreadsheet file (CSV or XLSX), never kept in a cache. */
+export const SheetDownload = (summary: string) =>
+  applyDecorators(
+    Get('export'),
+    Header('Cache-Control', 'no-store'),
+    ApiOperation({ summary }),
+    ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'),
+  );

@@ -14,7 +14,7 @@ import {
 import { LotDetailResponse, LotListResponse, RollResponse, VerifyResponse } from './dto/lot-responses.dto';
 import { attachment } from '../export/sheet-export';
 import { LotsService } from './lots.service';
-import { DealerRollWrite, Read } from '../common/route.decorators';
+import { DealerRollWrite, Read, SheetDownload } from '../common/route.decorators';
 
 @ApiTags('lots')
 @Controller('lots')
@@ -40,10 +40,7 @@ export class LotsController {
     return this.lots.list(me, q);
   }
 
-  @Get('export')
-  @Header('Cache-Control', 'no-store')
-  @ApiOperation({ summary: 'The lot list as CSV or XLSX, with the list’s filters, search and sort' })
-  @ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  @SheetDownload('The lot list as CSV or XLSX, with the list’s filters, search and sort')
   async export(
     @CurrentAccount() me: Principal,
     @Query() q: ExportLotsQueryDto,

@@ -1,11 +1,12 @@
 import { Controller, Get, Header, Query, Res, type StreamableFile } from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
 import { attachment } from '../export/sheet-export';
 import { StockExportQueryDto } from './dto/stock-requests.dto';
 import { StockSummaryResponse } from './dto/stock-responses.dto';
 import { StockService } from './stock.service';
+import { SheetDownload } from '../common/route.decorators';
 
 @ApiTags('stock')
 @Controller('stock')
@@ -23,12 +24,7 @@ export class StockController {
     return this.stock.summary(me);
   }
 
-  @Get('export')
-  @Header('Cache-Control', 'no-store')
-  @ApiOperation({
-    summary: 'The stock held as CSV or XLSX, with cost, storage place and attribution on record',
-  })
-  @ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  @SheetDownload('The stock held as CSV or XLSX, with cost, storage place and attribution on record')
   async export(
     @CurrentAccount() me: Principal,
     @Query() q: StockExportQueryDto,
