@@ -10,6 +10,9 @@ export type RouteBody = Type<unknown> | [Type<unknown>];
 export const Documented = (summary: string, type: RouteBody) =>
   applyDecorators(ApiOperation({ summary }), ApiOkResponse({ type }));
 
+/** The roll-writer mark, after an optional role check on the route itself. */
+const writer = (roles: Role[]) => applyDecorators(...(roles.length ? [Roles(...roles)] : []), RollWriter());
+
 /** A read: GET answering 200 with `type`. */
 export const Read = (path: string | undefined, summary: string, type: RouteBody) =>
   applyDecorators(Get(path), Documented(summary, type));
@@ -23,7 +26,7 @@ export const Action = (path: string, summary: string, type: RouteBody) =>
 
 /**
  * A dealer's write on a lot's roll (POST or PUT), answering with `type`. POST keeps Nest's
- * 201; the roll-writer mark puts it behind the standby check.
+ * 201; the roll-writer mark has the account's standing checked on every request.
  */
 export const DealerRollWrite = (
   method: 'POST' | 'PUT',
@@ -31,15 +34,7 @@ export const DealerRollWrite = (
   summary: string,
   type: RouteBody,
 ) =>
-  applyDecorators(
-    method === 'POST' ? Post(path) : Put(path as string),
-    Roles('dealer'),
-    RollWriter(),
-    Documented(summary, type),
-  );
-
-/** The roll-writer mark, after an optional role check on the route itself. */
-const writer = (roles: Role[]) => applyDecorators(...(roles.length ? [Roles(...roles)] : []), RollWriter());
+  applyDecorators(method === 'POST' ? Post(path) : Put(path), writer(['dealer']), Documented(summary, type));
 
 /** A POST that writes a new entry on a roll (Nest's 201), for `roles` when given. */
 export const RollWrite = (path: string | undefined, summary: string, type: RouteBody, ...roles: Role[]) =>
