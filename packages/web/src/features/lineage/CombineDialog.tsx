@@ -5,20 +5,21 @@ import {
   Input,
   MessageBar,
   MessageBarBody,
-  Select,
   Spinner,
   Switch,
   Text,
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { LIMITS, LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
+import { LIMITS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { UnfieldedError } from '../../shared/ui/FormPage';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
+import { LotFormSelect } from './LotFormSelect';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
@@ -176,15 +177,7 @@ export function CombineDialog({
           >
             <Input value={title} maxLength={LIMITS.title} onChange={(_e, d) => setTitle(d.value)} />
           </Field>
-          <Field label="Form">
-            <Select value={form} onChange={(_e, d) => setForm(d.value as LotForm)}>
-              {LOT_FORMS.map((f) => (
-                <option key={f} value={f}>
-                  {f}
-                </option>
-              ))}
-            </Select>
-          </Field>
+          <LotFormSelect value={form} onChange={setForm} />
           <Switch
             label="Listed (has a public page)"
             checked={listed}
@@ -198,11 +191,7 @@ export function CombineDialog({
           >
             <Text role="status">The new lot holds {beadsText({ value: total, estimated })}.</Text>
           </Field>
-          {err && !err.fields.length && (
-            <MessageBar intent="error">
-              <MessageBarBody>{err.message}</MessageBarBody>
-            </MessageBar>
-          )}
+          <UnfieldedError error={err} />
         </>
       )}
     </ActionDialog>

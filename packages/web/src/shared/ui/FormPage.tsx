@@ -135,3 +135,13 @@ export function FormSuccess({ children }: { children: ReactNode }) {
 export function fieldError(error: unknown, field: string): string | undefined {
   return error instanceof ApiError ? error.fieldMessage(field) : undefined;
 }
+
+/** The server's message for a failed request that names no field (those show beside their field). */
+export function UnfieldedError({ error }: { error: ApiError | null | undefined }) {
+  if (!error || error.fields.length) return null;
+  return (
+    <MessageBar intent="error">
+      <MessageBarBody>{error.message}</MessageBarBody>
+    </MessageBar>
+  );
+}
