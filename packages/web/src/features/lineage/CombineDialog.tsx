@@ -12,14 +12,14 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { LIMITS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { UnfieldedError } from '../../shared/ui/FormPage';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { LotFormSelect } from './LotFormSelect';
+import { useLineageChange } from './use-lineage-change';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
@@ -50,7 +50,6 @@ export function CombineDialog({
   onDone?: (r: CombineResult) => void;
 }) {
   const styles = useStyles();
-  const client = useQueryClient();
   const held = useQuery(heldLotsQuery());
   const [choices, setChoices] = useState<Record<string, Choice>>({
     [lot.code]: { on: true, whole: true, count: String(lot.remaining.value) },
@@ -58,7 +57,6 @@ export function CombineDialog({
   const [title, setTitle] = useState('');
   const [form, setForm] = useState<LotForm>('necklace');
   const [listed, setListed] = useState(lot.description?.listed ?? false);
-  const [done, setDone] = useState<CombineResult | null>(null);
 
   const lots: HeldLot[] = [
     {
@@ -85,8 +83,8 @@ export function CombineDialog({
     );
   });
 
-  const mutation = useMutation({
-    mutationFn: () =>
+  const { mutation, done, err } = useLineageChange(
+    () =>
       lineageApi.combine(
         chosen.map((l) => (choices[l.code]!.whole ? { lot: l.code } : { lot: l.code, count: takes(l) })),
         {
@@ -97,13 +95,8 @@ export function CombineDialog({
           count: { value: total, estimated },
         },
       ),
-    onSuccess: async (r) => {
-      setDone(r);
-      onDone?.(r);
-      await client.invalidateQueries({ queryKey: ['lots'] });
-    },
-  });
-  const err = mutation.error instanceof ApiError ? mutation.error : null;
+    onDone,
+  );
   const set = (code: string, patch: Partial<Choice>, l: HeldLot) => {
     const was: Choice = choices[code] ?? { on: false, whole: true, count: String(l.count.value) };
     setChoices({ ...choices, [code]: { ...was, ...patch } });

@@ -11,14 +11,13 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { LIMITS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { UnfieldedError } from '../../shared/ui/FormPage';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
 import { LotFormSelect } from './LotFormSelect';
+import { useLineageChange } from './use-lineage-change';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
@@ -75,22 +74,15 @@ export function SplitDialog({
   onDone?: (r: SplitResult) => void;
 }) {
   const styles = useStyles();
-  const client = useQueryClient();
   const [rows, setRows] = useState<Row[]>(() => startRows(lot));
-  const [done, setDone] = useState<SplitResult | null>(null);
-  const mutation = useMutation({
-    mutationFn: () =>
+  const { mutation, done, err } = useLineageChange(
+    () =>
       lineageApi.split(
         lot.code,
         rows.map((r) => ({ description: childDescription(lot.description!, r) })),
       ),
-    onSuccess: async (r) => {
-      setDone(r);
-      onDone?.(r);
-      await client.invalidateQueries({ queryKey: ['lots'] });
-    },
-  });
-  const err = mutation.error instanceof ApiError ? mutation.error : null;
+    onDone,
+  );
   const total = rows.reduce((s, r) => s + (Number(r.count) || 0), 0);
   const left = lot.remaining.value - total;
   const over = !lot.remaining.estimated && left < 0;
