@@ -17,13 +17,13 @@ import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { UnfieldedError } from '../../shared/ui/FormPage';
+import { Stack } from '../../shared/ui/Stack';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { LotFormSelect } from './LotFormSelect';
 import { useLineageChange } from './use-lineage-change';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
-  grid: { display: 'grid', gap: tokens.spacingVerticalM },
   part: {
     display: 'grid',
     gap: tokens.spacingHorizontalS,
@@ -133,7 +133,7 @@ export function CombineDialog({
             that its beads went into the new lot; a lot that gives all its beads leaves your inventory.
           </Text>
           {held.isLoading && <Spinner size="tiny" label="Loading your lots…" />}
-          <div className={styles.grid} role="group" aria-label="Lots to take beads from">
+          <Stack role="group" aria-label="Lots to take beads from">
             {lots.map((l) => {
               const c = choices[l.code];
               return (
@@ -162,7 +162,7 @@ export function CombineDialog({
                 </CheckGroup>
               );
             })}
-          </div>
+          </Stack>
           <Field
             label="Title of the new lot"
             required
