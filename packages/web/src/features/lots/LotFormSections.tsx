@@ -10,12 +10,12 @@ import {
   RadioGroup,
   Switch,
   Text,
-  Textarea,
   Title3,
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
 import { CheckGroup } from '../../shared/ui/CheckGroup';
+import { NoteField } from '../../shared/ui/FormPage';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
@@ -95,27 +95,6 @@ export function Section({
 
 function toggle<T>(list: T[], item: T, on: boolean): T[] {
   return on ? [...list.filter((x) => x !== item), item] : list.filter((x) => x !== item);
-}
-
-/** A free text of the draft in a labelled box that grows downwards. */
-function NoteField({
-  label,
-  hint,
-  value,
-  onChange,
-  validationMessage,
-}: {
-  label: string;
-  hint?: string;
-  value: string;
-  onChange: (v: string) => void;
-  validationMessage?: string;
-}) {
-  return (
-    <Field label={label} hint={hint} validationMessage={validationMessage}>
-      <Textarea value={value} onChange={(_, d) => onChange(d.value)} resize="vertical" />
-    </Field>
-  );
 }
 
 /** Any number of values from a fixed list, one checkbox each, in the order ticked. */
