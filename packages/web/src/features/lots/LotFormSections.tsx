@@ -97,6 +97,34 @@ function toggle<T>(list: T[], item: T, on: boolean): T[] {
   return on ? [...list.filter((x) => x !== item), item] : list.filter((x) => x !== item);
 }
 
+/** A length typed as a decimal number, its unit shown after it. */
+function MeasureField({
+  label,
+  hint,
+  unit = 'mm',
+  value,
+  onChange,
+  validationMessage,
+}: {
+  label: string;
+  hint?: string;
+  unit?: 'mm' | 'in';
+  value: string;
+  onChange: (v: string) => void;
+  validationMessage?: string;
+}) {
+  return (
+    <Field label={label} hint={hint} validationMessage={validationMessage}>
+      <Input
+        inputMode="decimal"
+        value={value}
+        contentAfter={<Text size={200}>{unit}</Text>}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
+  );
+}
+
 /** Any number of values from a fixed list, one checkbox each, in the order ticked. */
 function ChecksField<T extends string>({
   label,
@@ -216,52 +244,39 @@ export function DescriptionSections({
         lead="Sizes in millimetres; inches are shown beside them."
       >
         <div className={styles.row}>
-          <Field
+          <MeasureField
             label="Bead size, smallest (mm)"
             hint={inchesHint(draft.diameterMin)}
+            value={draft.diameterMin}
+            onChange={(v) => change('diameterMin', v)}
             validationMessage={error('description.diameterMm.min') ?? error('description.diameterMm')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.diameterMin}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('diameterMin', d.value)}
-            />
-          </Field>
-          <Field
+          />
+          <MeasureField
             label="Bead size, largest (mm)"
             hint={inchesHint(draft.diameterMax)}
+            value={draft.diameterMax}
+            onChange={(v) => change('diameterMax', v)}
             validationMessage={error('description.diameterMm.max')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.diameterMax}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('diameterMax', d.value)}
-            />
-          </Field>
+          />
         </div>
         <div className={styles.row}>
-          <Field label="Strand length (mm)" validationMessage={error('description.strandLengthMm')}>
-            <Input
-              inputMode="decimal"
-              value={draft.strandLengthMm}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('strandLengthMm', d.value)}
-            />
-          </Field>
-          <Field label="or in inches" hint={`1 in = ${MM_PER_INCH} mm`}>
-            <Input
-              inputMode="decimal"
-              value={inches}
-              contentAfter={<Text size={200}>in</Text>}
-              onChange={(_, d) => {
-                setInchText(d.value);
-                const n = Number(d.value.replace(',', '.'));
-                change('strandLengthMm', d.value.trim() && n > 0 ? String(inchesToMm(n)) : '');
-              }}
-            />
-          </Field>
+          <MeasureField
+            label="Strand length (mm)"
+            value={draft.strandLengthMm}
+            onChange={(v) => change('strandLengthMm', v)}
+            validationMessage={error('description.strandLengthMm')}
+          />
+          <MeasureField
+            label="or in inches"
+            hint={`1 in = ${MM_PER_INCH} mm`}
+            unit="in"
+            value={inches}
+            onChange={(v) => {
+              setInchText(v);
+              const n = Number(v.replace(',', '.'));
+              change('strandLengthMm', v.trim() && n > 0 ? String(inchesToMm(n)) : '');
+            }}
+          />
         </div>
         <div className={styles.row}>
           <Field
