@@ -50,6 +50,12 @@ export function ScannedLotPage() {
   const client = useQueryClient();
   const lot = useQuery(scannerQueries.lot(code));
   const [action, setAction] = useState<'sell' | 'offer' | null>(null);
+  // The same big button whether or not the lot could be looked up.
+  const sellButton = (
+    <Button appearance="primary" size="large" className={styles.big} onClick={() => setAction('sell')}>
+      Sell
+    </Button>
+  );
   const [sold, setSold] = useState<Sale | null>(null);
   const [offered, setOffered] = useState(false);
   const [queued, setQueued] = useState<QueuedWrite | null>(null);
@@ -74,14 +80,7 @@ export function ScannedLotPage() {
           </MessageBar>
         ) : (
           <div className={styles.quick} role="group" aria-label="Quick actions">
-            <Button
-              appearance="primary"
-              size="large"
-              className={styles.big}
-              onClick={() => setAction('sell')}
-            >
-              Sell
-            </Button>
+            {sellButton}
           </div>
         )}
         <Button onClick={() => navigate('/scan')}>Scan the next tag</Button>
@@ -148,14 +147,7 @@ export function ScannedLotPage() {
       <div className={styles.quick} role="group" aria-label="Quick actions">
         {l.status === 'held' && !sold && !queued ? (
           <>
-            <Button
-              appearance="primary"
-              size="large"
-              className={styles.big}
-              onClick={() => setAction('sell')}
-            >
-              Sell
-            </Button>
+            {sellButton}
             <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
               Offer to a dealer
             </Button>
