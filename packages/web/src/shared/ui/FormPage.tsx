@@ -186,18 +186,20 @@ export function TextField({
 export function NoteField({
   label,
   hint,
+  required,
   value,
   onChange,
   validationMessage,
 }: {
   label: string;
   hint?: string;
+  required?: boolean;
   value: string;
   onChange: (v: string) => void;
   validationMessage?: string;
 }) {
   return (
-    <Field label={label} hint={hint} validationMessage={validationMessage}>
+    <Field label={label} hint={hint} required={required} validationMessage={validationMessage}>
       <Textarea value={value} onChange={(_, d) => onChange(d.value)} resize="vertical" />
     </Field>
   );
