@@ -1,10 +1,10 @@
-import { Button, Field, makeStyles, Text, Textarea, tokens } from '@fluentui/react-components';
+import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { ActionDialog, PanelDialog } from '../../shared/ui/ActionDialog';
 import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, FormError, NoteField } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
 import type { ListColumn } from '../../shared/ui/list/DataTable';
 import { useListParams } from '../../shared/ui/list/list-params';
@@ -63,13 +63,13 @@ function ReasonDialog({
       pending={decide.isPending}
       narrow
     >
-      <Field
+      <NoteField
         label="Reason (sent to them by e-mail)"
         required
+        value={reason}
+        onChange={setReason}
         validationMessage={fieldError(decide.error, 'reason')}
-      >
-        <Textarea value={reason} onChange={(_, d) => setReason(d.value)} resize="vertical" />
-      </Field>
+      />
       <FormError error={decide.error} />
     </ActionDialog>
   );

@@ -17,6 +17,7 @@ import { useId, useRef, useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { UvACaution } from '../safety/UvACaution';
 import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, uploadExhibit } from './exhibits.api';
+import { HiddenFileInput } from './HiddenFileInput';
 
 /** What the file picker offers; the server decides the real type from the bytes. */
 export const ACCEPTED_TYPES = 'image/jpeg,image/png,image/webp,image/avif,application/pdf';
@@ -51,7 +52,6 @@ const useStyles = makeStyles({
     backgroundColor: tokens.colorBrandBackground2,
   },
   pickers: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
-  hidden: { display: 'none' },
   list: { display: 'grid', gap: tokens.spacingVerticalL, listStyleType: 'none', margin: 0, padding: 0 },
   item: {
     display: 'grid',
@@ -154,29 +154,14 @@ export function ExhibitUploader({ code }: { code: string }) {
           </Button>
           <Button onClick={() => cameraRef.current?.click()}>Take a photo</Button>
         </div>
-        <input
-          ref={pickRef}
-          className={styles.hidden}
-          type="file"
+        <HiddenFileInput
+          inputRef={pickRef}
           multiple
           accept={ACCEPTED_TYPES}
-          data-testid="exhibit-files"
-          onChange={(e) => {
-            add(e.currentTarget.files);
-            e.currentTarget.value = '';
-          }}
+          testId="exhibit-files"
+          onFiles={add}
         />
-        <input
-          ref={cameraRef}
-          className={styles.hidden}
-          type="file"
-          accept="image/*"
-          capture="environment"
-          onChange={(e) => {
-            add(e.currentTarget.files);
-            e.currentTarget.value = '';
-          }}
-        />
+        <HiddenFileInput inputRef={cameraRef} accept="image/*" capture="environment" onFiles={add} />
       </div>
 
       {items.length > 0 && (

@@ -2,6 +2,7 @@ import type { ExhibitKind } from '@beadroll/core';
 import { Button, Field, makeStyles, ProgressBar, Select, Text, tokens } from '@fluentui/react-components';
 import { useEffect, useRef } from 'react';
 import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, uploadExhibit } from './exhibits.api';
+import { HiddenFileInput } from './HiddenFileInput';
 
 const useStyles = makeStyles({
   buttons: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM },
@@ -21,7 +22,6 @@ const useStyles = makeStyles({
   },
   fields: { display: 'grid', gap: tokens.spacingVerticalXS, minWidth: 0 },
   name: { overflowWrap: 'anywhere' },
-  hidden: { display: 'none' },
 });
 
 /** A photo chosen on the register form, uploaded once the lot exists. */
@@ -111,30 +111,20 @@ export function PhotoPicker({
         <Button disabled={disabled} onClick={() => camera.current?.click()}>
           Take a photo
         </Button>
-        <input
-          ref={choose}
-          className={styles.hidden}
-          type="file"
+        <HiddenFileInput
+          inputRef={choose}
           accept="image/jpeg,image/png,image/webp"
           multiple
-          aria-label="Choose photos"
-          data-testid="choose-photos"
-          onChange={(e) => {
-            add(e.currentTarget.files);
-            e.currentTarget.value = '';
-          }}
+          label="Choose photos"
+          testId="choose-photos"
+          onFiles={add}
         />
-        <input
-          ref={camera}
-          className={styles.hidden}
-          type="file"
+        <HiddenFileInput
+          inputRef={camera}
           accept="image/*"
           capture="environment"
-          aria-label="Take a photo"
-          onChange={(e) => {
-            add(e.currentTarget.files);
-            e.currentTarget.value = '';
-          }}
+          label="Take a photo"
+          onFiles={add}
         />
       </div>
       {photos.length ? (

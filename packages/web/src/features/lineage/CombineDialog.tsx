@@ -5,24 +5,25 @@ import {
   Input,
   MessageBar,
   MessageBarBody,
-  Select,
   Spinner,
   Switch,
   Text,
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { LIMITS, LOT_FORMS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { LIMITS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/core';
+import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { UnfieldedError } from '../../shared/ui/FormPage';
+import { Stack } from '../../shared/ui/Stack';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
+import { LotFormSelect } from './LotFormSelect';
+import { useLineageChange } from './use-lineage-change';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
-  grid: { display: 'grid', gap: tokens.spacingVerticalM },
   part: {
     display: 'grid',
     gap: tokens.spacingHorizontalS,
@@ -49,7 +50,6 @@ export function CombineDialog({
   onDone?: (r: CombineResult) => void;
 }) {
   const styles = useStyles();
-  const client = useQueryClient();
   const held = useQuery(heldLotsQuery());
   const [choices, setChoices] = useState<Record<string, Choice>>({
     [lot.code]: { on: true, whole: true, count: String(lot.remaining.value) },
@@ -57,7 +57,6 @@ export function CombineDialog({
   const [title, setTitle] = useState('');
   const [form, setForm] = useState<LotForm>('necklace');
   const [listed, setListed] = useState(lot.description?.listed ?? false);
-  const [done, setDone] = useState<CombineResult | null>(null);
 
   const lots: HeldLot[] = [
     {
@@ -84,8 +83,8 @@ export function CombineDialog({
     );
   });
 
-  const mutation = useMutation({
-    mutationFn: () =>
+  const { mutation, done, err } = useLineageChange(
+    () =>
       lineageApi.combine(
         chosen.map((l) => (choices[l.code]!.whole ? { lot: l.code } : { lot: l.code, count: takes(l) })),
         {
@@ -96,13 +95,8 @@ export function CombineDialog({
           count: { value: total, estimated },
         },
       ),
-    onSuccess: async (r) => {
-      setDone(r);
-      onDone?.(r);
-      await client.invalidateQueries({ queryKey: ['lots'] });
-    },
-  });
-  const err = mutation.error instanceof ApiError ? mutation.error : null;
+    onDone,
+  );
   const set = (code: string, patch: Partial<Choice>, l: HeldLot) => {
     const was: Choice = choices[code] ?? { on: false, whole: true, count: String(l.count.value) };
     setChoices({ ...choices, [code]: { ...was, ...patch } });
@@ -139,7 +133,7 @@ export function CombineDialog({
             that its beads went into the new lot; a lot that gives all its beads leaves your inventory.
           </Text>
           {held.isLoading && <Spinner size="tiny" label="Loading your lots…" />}
-          <div className={styles.grid} role="group" aria-label="Lots to take beads from">
+          <Stack role="group" aria-label="Lots to take beads from">
             {lots.map((l) => {
               const c = choices[l.code];
               return (
@@ -168,7 +162,7 @@ export function CombineDialog({
                 </CheckGroup>
               );
             })}
-          </div>
+          </Stack>
           <Field
             label="Title of the new lot"
             required
@@ -176,15 +170,7 @@ export function CombineDialog({
           >
             <Input value={title} maxLength={LIMITS.title} onChange={(_e, d) => setTitle(d.value)} />
           </Field>
-          <Field label="Form">
-            <Select value={form} onChange={(_e, d) => setForm(d.value as LotForm)}>
-              {LOT_FORMS.map((f) => (
-                <option key={f} value={f}>
-                  {f}
-                </option>
-              ))}
-            </Select>
-          </Field>
+          <LotFormSelect value={form} onChange={setForm} />
           <Switch
             label="Listed (has a public page)"
             checked={listed}
@@ -198,11 +184,7 @@ export function CombineDialog({
           >
             <Text role="status">The new lot holds {beadsText({ value: total, estimated })}.</Text>
           </Field>
-          {err && !err.fields.length && (
-            <MessageBar intent="error">
-              <MessageBarBody>{err.message}</MessageBarBody>
-            </MessageBar>
-          )}
+          <UnfieldedError error={err} />
         </>
       )}
     </ActionDialog>

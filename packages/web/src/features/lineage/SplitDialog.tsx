@@ -5,19 +5,19 @@ import {
   Input,
   MessageBar,
   MessageBarBody,
-  Select,
   Switch,
   Text,
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { LIMITS, LOT_FORMS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { LIMITS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { UnfieldedError } from '../../shared/ui/FormPage';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
+import { LotFormSelect } from './LotFormSelect';
+import { useLineageChange } from './use-lineage-change';
 import { beadsText } from './words';
 
 const useStyles = makeStyles({
@@ -74,22 +74,15 @@ export function SplitDialog({
   onDone?: (r: SplitResult) => void;
 }) {
   const styles = useStyles();
-  const client = useQueryClient();
   const [rows, setRows] = useState<Row[]>(() => startRows(lot));
-  const [done, setDone] = useState<SplitResult | null>(null);
-  const mutation = useMutation({
-    mutationFn: () =>
+  const { mutation, done, err } = useLineageChange(
+    () =>
       lineageApi.split(
         lot.code,
         rows.map((r) => ({ description: childDescription(lot.description!, r) })),
       ),
-    onSuccess: async (r) => {
-      setDone(r);
-      onDone?.(r);
-      await client.invalidateQueries({ queryKey: ['lots'] });
-    },
-  });
-  const err = mutation.error instanceof ApiError ? mutation.error : null;
+    onDone,
+  );
   const total = rows.reduce((s, r) => s + (Number(r.count) || 0), 0);
   const left = lot.remaining.value - total;
   const over = !lot.remaining.estimated && left < 0;
@@ -160,15 +153,7 @@ export function SplitDialog({
                     onChange={(_e, d) => set(i, { count: d.value })}
                   />
                 </Field>
-                <Field label="Form">
-                  <Select value={r.form} onChange={(_e, d) => set(i, { form: d.value as LotForm })}>
-                    {LOT_FORMS.map((f) => (
-                      <option key={f} value={f}>
-                        {f}
-                      </option>
-                    ))}
-                  </Select>
-                </Field>
+                <LotFormSelect value={r.form} onChange={(form) => set(i, { form })} />
               </div>
               <div className={styles.flags}>
                 <Checkbox
@@ -220,11 +205,7 @@ export function SplitDialog({
                   : 'Every bead goes into the new lots: this lot will be used up.'}
             </Text>
           </Field>
-          {err && !err.fields.length && (
-            <MessageBar intent="error">
-              <MessageBarBody>{err.message}</MessageBarBody>
-            </MessageBar>
-          )}
+          <UnfieldedError error={err} />
         </>
       )}
     </ActionDialog>

@@ -1,14 +1,11 @@
 import type { BeadCount, OpinionBody } from '@beadroll/core';
+import { ORIGIN_WORDS as PUBLIC_ORIGIN_WORDS } from '../public-lot/words';
 
+// The public page's words for origins, with "or" where it writes a slash: this line is prose.
 const ORIGIN_WORDS: Record<OpinionBody['origin'], string> = {
+  ...PUBLIC_ORIGIN_WORDS,
   'venice-murano': 'Venice or Murano',
   'bohemia-czech': 'Bohemia or Czech lands',
-  india: 'India',
-  china: 'China',
-  japan: 'Japan',
-  'other-european': 'elsewhere in Europe',
-  unknown: 'origin unknown',
-  other: 'another origin',
 };
 
 /** "about 40 beads" / "1 bead". */

@@ -10,12 +10,12 @@ import {
   RadioGroup,
   Switch,
   Text,
-  Textarea,
   Title3,
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
 import { CheckGroup } from '../../shared/ui/CheckGroup';
+import { NoteField } from '../../shared/ui/FormPage';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
@@ -97,6 +97,65 @@ function toggle<T>(list: T[], item: T, on: boolean): T[] {
   return on ? [...list.filter((x) => x !== item), item] : list.filter((x) => x !== item);
 }
 
+/** A length typed as a decimal number, its unit shown after it. */
+function MeasureField({
+  label,
+  hint,
+  unit = 'mm',
+  value,
+  onChange,
+  validationMessage,
+}: {
+  label: string;
+  hint?: string;
+  unit?: 'mm' | 'in';
+  value: string;
+  onChange: (v: string) => void;
+  validationMessage?: string;
+}) {
+  return (
+    <Field label={label} hint={hint} validationMessage={validationMessage}>
+      <Input
+        inputMode="decimal"
+        value={value}
+        contentAfter={<Text size={200}>{unit}</Text>}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
+  );
+}
+
+/** Any number of values from a fixed list, one checkbox each, in the order ticked. */
+function ChecksField<T extends string>({
+  label,
+  options,
+  labels,
+  value,
+  onChange,
+  validationMessage,
+}: {
+  label: string;
+  options: readonly T[];
+  labels: Record<T, string>;
+  value: T[];
+  onChange: (v: T[]) => void;
+  validationMessage?: string;
+}) {
+  const styles = useStyles();
+  return (
+    <CheckGroup label={label} className={styles.checks} validationMessage={validationMessage}>
+      {options.map((o) => (
+        <Checkbox
+          key={o}
+          label={labels[o]}
+          checked={value.includes(o)}
+          onChange={(_, d) => onChange(toggle(value, o, d.checked === true))}
+        />
+      ))}
+    </CheckGroup>
+  );
+}
+
 function inchesHint(mm: string): string | undefined {
   const n = Number(mm.replace(',', '.'));
   return mm.trim() && Number.isFinite(n) && n > 0 ? `= ${inchesOf(n)} in` : undefined;
@@ -170,13 +229,13 @@ export function DescriptionSections({
             ))}
           </RadioGroup>
         </Field>
-        <Field
+        <NoteField
           label="Description"
           hint="Anything a buyer should know: where the lot came from in general terms, how it is strung."
+          value={draft.summary}
+          onChange={(v) => change('summary', v)}
           validationMessage={error('description.summary')}
-        >
-          <Textarea value={draft.summary} onChange={(_, d) => change('summary', d.value)} resize="vertical" />
-        </Field>
+        />
       </Section>
 
       <Section
@@ -185,52 +244,39 @@ export function DescriptionSections({
         lead="Sizes in millimetres; inches are shown beside them."
       >
         <div className={styles.row}>
-          <Field
+          <MeasureField
             label="Bead size, smallest (mm)"
             hint={inchesHint(draft.diameterMin)}
+            value={draft.diameterMin}
+            onChange={(v) => change('diameterMin', v)}
             validationMessage={error('description.diameterMm.min') ?? error('description.diameterMm')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.diameterMin}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('diameterMin', d.value)}
-            />
-          </Field>
-          <Field
+          />
+          <MeasureField
             label="Bead size, largest (mm)"
             hint={inchesHint(draft.diameterMax)}
+            value={draft.diameterMax}
+            onChange={(v) => change('diameterMax', v)}
             validationMessage={error('description.diameterMm.max')}
-          >
-            <Input
-              inputMode="decimal"
-              value={draft.diameterMax}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('diameterMax', d.value)}
-            />
-          </Field>
+          />
         </div>
         <div className={styles.row}>
-          <Field label="Strand length (mm)" validationMessage={error('description.strandLengthMm')}>
-            <Input
-              inputMode="decimal"
-              value={draft.strandLengthMm}
-              contentAfter={<Text size={200}>mm</Text>}
-              onChange={(_, d) => change('strandLengthMm', d.value)}
-            />
-          </Field>
-          <Field label="or in inches" hint={`1 in = ${MM_PER_INCH} mm`}>
-            <Input
-              inputMode="decimal"
-              value={inches}
-              contentAfter={<Text size={200}>in</Text>}
-              onChange={(_, d) => {
-                setInchText(d.value);
-                const n = Number(d.value.replace(',', '.'));
-                change('strandLengthMm', d.value.trim() && n > 0 ? String(inchesToMm(n)) : '');
-              }}
-            />
-          </Field>
+          <MeasureField
+            label="Strand length (mm)"
+            value={draft.strandLengthMm}
+            onChange={(v) => change('strandLengthMm', v)}
+            validationMessage={error('description.strandLengthMm')}
+          />
+          <MeasureField
+            label="or in inches"
+            hint={`1 in = ${MM_PER_INCH} mm`}
+            unit="in"
+            value={inches}
+            onChange={(v) => {
+              setInchText(v);
+              const n = Number(v.replace(',', '.'));
+              change('strandLengthMm', v.trim() && n > 0 ? String(inchesToMm(n)) : '');
+            }}
+          />
         </div>
         <div className={styles.row}>
           <Field
@@ -288,55 +334,38 @@ export function DescriptionSections({
         >
           <Input value={draft.colours} onChange={(_, d) => change('colours', d.value)} />
         </Field>
-        <CheckGroup
+        <ChecksField
           label="Base glass"
-          className={styles.checks}
+          options={BASE_GLASS}
+          labels={BASE_GLASS_LABEL}
+          value={draft.baseGlass}
+          onChange={(v) => change('baseGlass', v)}
           validationMessage={error('description.baseGlass')}
-        >
-          {BASE_GLASS.map((g) => (
-            <Checkbox
-              key={g}
-              label={BASE_GLASS_LABEL[g]}
-              checked={draft.baseGlass.includes(g)}
-              onChange={(_, d) => change('baseGlass', toggle(draft.baseGlass, g, d.checked === true))}
-            />
-          ))}
-        </CheckGroup>
-        <CheckGroup
+        />
+        <ChecksField
           label="Decoration"
-          className={styles.checks}
+          options={DECORATIONS}
+          labels={DECORATION_LABEL}
+          value={draft.decoration}
+          onChange={(v) => change('decoration', v)}
           validationMessage={error('description.decoration')}
-        >
-          {DECORATIONS.map((x) => (
-            <Checkbox
-              key={x}
-              label={DECORATION_LABEL[x]}
-              checked={draft.decoration.includes(x)}
-              onChange={(_, d) => change('decoration', toggle(draft.decoration, x, d.checked === true))}
-            />
-          ))}
-        </CheckGroup>
-        <Field label="About the decoration" validationMessage={error('description.decorationNote')}>
-          <Textarea
-            value={draft.decorationNote}
-            onChange={(_, d) => change('decorationNote', d.value)}
-            resize="vertical"
-          />
-        </Field>
+        />
+        <NoteField
+          label="About the decoration"
+          value={draft.decorationNote}
+          onChange={(v) => change('decorationNote', v)}
+          validationMessage={error('description.decorationNote')}
+        />
       </Section>
 
       <Section id="lot-condition" title="Condition">
-        <Field
+        <NoteField
           label="Condition"
           hint="Chips, cracks, worn foil, missing decoration, restringing."
+          value={draft.condition}
+          onChange={(v) => change('condition', v)}
           validationMessage={error('description.condition')}
-        >
-          <Textarea
-            value={draft.condition}
-            onChange={(_, d) => change('condition', d.value)}
-            resize="vertical"
-          />
-        </Field>
+        />
       </Section>
       <SafetyCautions
         cautions={safetyCautions({
@@ -401,13 +430,12 @@ export function PrivateSections({
             }
           />
         </div>
-        <Field label="Private note" validationMessage={error('sealed.privateNote')}>
-          <Textarea
-            value={draft.privateNote}
-            onChange={(_, d) => change('privateNote', d.value)}
-            resize="vertical"
-          />
-        </Field>
+        <NoteField
+          label="Private note"
+          value={draft.privateNote}
+          onChange={(v) => change('privateNote', v)}
+          validationMessage={error('sealed.privateNote')}
+        />
       </Section>
     </>
   );

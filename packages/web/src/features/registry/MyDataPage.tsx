@@ -1,13 +1,4 @@
-import {
-  Button,
-  Link,
-  makeStyles,
-  MessageBar,
-  MessageBarBody,
-  Text,
-  Title3,
-  tokens,
-} from '@fluentui/react-components';
+import { Button, Link, MessageBar, MessageBarBody, Text, Title3 } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
@@ -15,14 +6,10 @@ import { useSession } from '../accounts/accounts.api';
 import { fieldError, Form, FormError, PasswordField } from '../../shared/ui/FormPage';
 import { registryToolsApi } from './registry.api';
 import { Page } from '../../shared/ui/Page';
-
-const useStyles = makeStyles({
-  block: { display: 'grid', gap: tokens.spacingVerticalM },
-});
+import { Stack } from '../../shared/ui/Stack';
 
 /** A dealer's own data: download everything Beadroll holds about them, or close the account. */
 export function MyDataPage() {
-  const styles = useStyles();
   const client = useQueryClient();
   const { account, isLoading } = useSession();
   const [password, setPassword] = useState('');
@@ -44,7 +31,7 @@ export function MyDataPage() {
   if (!account) return <Navigate to="/sign-in?next=/account/data" replace />;
   return (
     <Page title="Your data" width="narrow">
-      <div className={styles.block}>
+      <Stack>
         <Title3 as="h2">Download</Title3>
         <Text>
           One JSON file with everything Beadroll holds about your account: your details, sign-ins, every entry
@@ -54,9 +41,9 @@ export function MyDataPage() {
         <Link href="/api/account/personal-data" download>
           Download my data
         </Link>
-      </div>
+      </Stack>
       {account.role !== 'registrar' && (
-        <div className={styles.block}>
+        <Stack>
           <Title3 as="h2">Close your account</Title3>
           <Text>
             Your name, business and contact details are removed and the private details you recorded for
@@ -65,28 +52,30 @@ export function MyDataPage() {
             Open offers lapse. This cannot be undone.
           </Text>
           {confirming ? (
-            <Form className={styles.block} onSubmit={() => close.mutate()}>
-              <PasswordField
-                label="Your password, to confirm"
-                autoComplete="current-password"
-                value={password}
-                onChange={setPassword}
-                validationMessage={fieldError(close.error, 'password')}
-              />
-              <FormError error={close.error} />
-              <div>
-                <Button appearance="primary" type="submit" disabled={close.isPending}>
-                  Close my account for good
-                </Button>{' '}
-                <Button onClick={() => setConfirming(false)}>Keep my account</Button>
-              </div>
+            <Form onSubmit={() => close.mutate()}>
+              <Stack>
+                <PasswordField
+                  label="Your password, to confirm"
+                  autoComplete="current-password"
+                  value={password}
+                  onChange={setPassword}
+                  validationMessage={fieldError(close.error, 'password')}
+                />
+                <FormError error={close.error} />
+                <div>
+                  <Button appearance="primary" type="submit" disabled={close.isPending}>
+                    Close my account for good
+                  </Button>{' '}
+                  <Button onClick={() => setConfirming(false)}>Keep my account</Button>
+                </div>
+              </Stack>
             </Form>
           ) : (
             <div>
               <Button onClick={() => setConfirming(true)}>Close my account…</Button>
             </div>
           )}
-        </div>
+        </Stack>
       )}
     </Page>
   );

@@ -1,10 +1,10 @@
 import { formatLotCode } from '@beadroll/core';
-import { Button, Field, makeStyles, Text, Textarea } from '@fluentui/react-components';
+import { Button, makeStyles, Text } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
 import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, FormError, NoteField } from '../../shared/ui/FormPage';
 import { formatDate } from '../../shared/ui/format';
 import type { ListColumn } from '../../shared/ui/list/DataTable';
 import { useListParams } from '../../shared/ui/list/list-params';
@@ -36,13 +36,13 @@ function CloseDialog({ report, onClose }: { report: Report; onClose: () => void 
       pending={close.isPending}
       narrow
     >
-      <Field
+      <NoteField
         label={report.answerWanted ? 'What was done (e-mailed to the reporter)' : 'What was done'}
         required
+        value={resolution}
+        onChange={setResolution}
         validationMessage={fieldError(close.error, 'resolution')}
-      >
-        <Textarea value={resolution} onChange={(_, d) => setResolution(d.value)} resize="vertical" />
-      </Field>
+      />
       <FormError error={close.error} />
     </ActionDialog>
   );

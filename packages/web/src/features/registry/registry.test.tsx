@@ -8,6 +8,18 @@ import { ReportProblem } from './ReportProblem';
 
 const registrar = accounts.registrar;
 
+/** The public page's report form for one lot, opened from its link. */
+async function openReportForm() {
+  const user = userEvent.setup();
+  render(
+    <QueryClientProvider client={testClient()}>
+      <ReportProblem code="7K2QM9XAT" />
+    </QueryClientProvider>,
+  );
+  await user.click(screen.getByRole('button', { name: 'Report a problem with this page' }));
+  return user;
+}
+
 describe('report a problem (public page)', () => {
   it('opens from the link, checks the form before sending, and sends category, text and address', async () => {
     const calls: Array<{ url: string; body: string }> = [];
@@ -18,13 +30,7 @@ describe('report a problem (public page)', () => {
         return json(202, { id: 'r1', message: 'Thank you. The registrar will look at your report.' });
       }),
     );
-    const user = userEvent.setup();
-    render(
-      <QueryClientProvider client={testClient()}>
-        <ReportProblem code="7K2QM9XAT" />
-      </QueryClientProvider>,
-    );
-    await user.click(screen.getByRole('button', { name: 'Report a problem with this page' }));
+    const user = await openReportForm();
     await user.click(screen.getByRole('button', { name: 'Send the report' }));
     expect(screen.getByText('Choose what the problem is.')).toBeInTheDocument();
     expect(screen.getByText('Say what is wrong, in a few words.')).toBeInTheDocument();
@@ -56,13 +62,7 @@ describe('report a problem (public page)', () => {
         }),
       ),
     );
-    const user = userEvent.setup();
-    render(
-      <QueryClientProvider client={testClient()}>
-        <ReportProblem code="7K2QM9XAT" />
-      </QueryClientProvider>,
-    );
-    await user.click(screen.getByRole('button', { name: 'Report a problem with this page' }));
+    const user = await openReportForm();
     await user.click(screen.getByRole('radio', { name: 'Something else' }));
     await user.type(screen.getByLabelText('What is wrong'), 'Entry 3 names my street.');
     await user.type(screen.getByLabelText(/Your e-mail address/), 'nope');

@@ -1,17 +1,7 @@
-import {
-  MessageBar,
-  MessageBarBody,
-  MessageBarTitle,
-  makeStyles,
-  Text,
-  tokens,
-} from '@fluentui/react-components';
+import { MessageBar, MessageBarBody, MessageBarTitle, Text } from '@fluentui/react-components';
 import type { AidResult } from '@beadroll/core';
+import { Stack } from '../../shared/ui/Stack';
 import { Sources } from './Sources';
-
-const useStyles = makeStyles({
-  list: { display: 'grid', gap: tokens.spacingVerticalS },
-});
 
 /** A short title for each caution core may give. */
 export const CAUTION_TITLES: Record<string, string> = {
@@ -33,10 +23,9 @@ export function SafetyCautions({
   cautions: AidResult['cautions'];
   label?: string;
 }) {
-  const styles = useStyles();
   if (cautions.length === 0) return null;
   return (
-    <div className={styles.list} role="group" aria-label={label}>
+    <Stack gap="S" role="group" aria-label={label}>
       {cautions.map((c) => (
         <MessageBar
           key={c.rule}
@@ -51,6 +40,6 @@ export function SafetyCautions({
           </MessageBarBody>
         </MessageBar>
       ))}
-    </div>
+    </Stack>
   );
 }

@@ -5,7 +5,6 @@ import {
   MessageBarBody,
   Spinner,
   Text,
-  Title1,
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
@@ -15,15 +14,14 @@ import { useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import type { QueuedWrite } from '../../lib/outbox';
-import { OutboxPanel } from '../outbox/OutboxPanel';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
 import { formatMoney, type Sale } from '../transfers/transfers.api';
 import { scannerQueries } from './scanner.api';
+import { ScanScreen } from './ScanScreen';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '40rem' },
   card: { display: 'grid', gap: tokens.spacingVerticalS, padding: tokens.spacingHorizontalL },
   code: { fontFamily: tokens.fontFamilyMonospace, fontSize: tokens.fontSizeBase500 },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM },
@@ -52,6 +50,12 @@ export function ScannedLotPage() {
   const client = useQueryClient();
   const lot = useQuery(scannerQueries.lot(code));
   const [action, setAction] = useState<'sell' | 'offer' | null>(null);
+  // The same big button whether or not the lot could be looked up.
+  const sellButton = (
+    <Button appearance="primary" size="large" className={styles.big} onClick={() => setAction('sell')}>
+      Sell
+    </Button>
+  );
   const [sold, setSold] = useState<Sale | null>(null);
   const [offered, setOffered] = useState(false);
   const [queued, setQueued] = useState<QueuedWrite | null>(null);
@@ -63,11 +67,7 @@ export function ScannedLotPage() {
     (lot.isError && lot.error instanceof ApiError && lot.error.status === 0);
   if (noSignal)
     return (
-      <section className={styles.page} aria-labelledby="lot-title">
-        <OutboxPanel />
-        <Title1 as="h1" id="lot-title">
-          Lot {formatLotCode(code)}
-        </Title1>
+      <ScanScreen title={`Lot ${formatLotCode(code)}`} titleId="lot-title">
         <MessageBar intent="warning" layout="multiline">
           <MessageBarBody>
             No signal: the lot’s details cannot be looked up now. You can still record a sale; it waits on
@@ -80,39 +80,28 @@ export function ScannedLotPage() {
           </MessageBar>
         ) : (
           <div className={styles.quick} role="group" aria-label="Quick actions">
-            <Button
-              appearance="primary"
-              size="large"
-              className={styles.big}
-              onClick={() => setAction('sell')}
-            >
-              Sell
-            </Button>
+            {sellButton}
           </div>
         )}
         <Button onClick={() => navigate('/scan')}>Scan the next tag</Button>
         {action === 'sell' ? (
           <RecordSaleDialog code={code} onClose={() => setAction(null)} onQueued={setQueued} />
         ) : null}
-      </section>
+      </ScanScreen>
     );
   if (lot.isPending) return <Spinner label="Opening the lot…" />;
   if (lot.isError || !lot.data.held)
     return (
-      <section className={styles.page}>
+      <ScanScreen>
         <MessageBar intent="warning">
           <MessageBarBody>This is not a lot you hold.</MessageBarBody>
         </MessageBar>
         <Link to="/scan">Scan another tag</Link>
-      </section>
+      </ScanScreen>
     );
   const l = lot.data;
   return (
-    <section className={styles.page} aria-labelledby="lot-title">
-      <OutboxPanel />
-      <Title1 as="h1" id="lot-title">
-        {l.title}
-      </Title1>
+    <ScanScreen title={l.title} titleId="lot-title">
       <Card className={styles.card}>
         <Text className={styles.code} aria-label="Lot code">
           {formatLotCode(l.code)}
@@ -158,14 +147,7 @@ export function ScannedLotPage() {
       <div className={styles.quick} role="group" aria-label="Quick actions">
         {l.status === 'held' && !sold && !queued ? (
           <>
-            <Button
-              appearance="primary"
-              size="large"
-              className={styles.big}
-              onClick={() => setAction('sell')}
-            >
-              Sell
-            </Button>
+            {sellButton}
             <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
               Offer to a dealer
             </Button>
@@ -212,6 +194,6 @@ export function ScannedLotPage() {
           }}
         />
       ) : null}
-    </section>
+    </ScanScreen>
   );
 }

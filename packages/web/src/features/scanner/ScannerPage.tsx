@@ -5,7 +5,6 @@ import {
   MessageBar,
   MessageBarBody,
   Text,
-  Title1,
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
@@ -13,11 +12,10 @@ import { useEffect, useRef, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { createFrameDecoder, type FrameDecoder } from './frame-decoder';
 import { publicPath, readScan, type ScanTarget } from './scan-target';
-import { OutboxPanel } from '../outbox/OutboxPanel';
 import { lookupScannedLot } from './scanner.api';
+import { ScanScreen } from './ScanScreen';
 
 const useStyles = makeStyles({
-  page: { display: 'grid', gap: tokens.spacingVerticalL, maxWidth: '40rem' },
   video: {
     width: '100%',
     maxHeight: '60vh',
@@ -125,11 +123,7 @@ export function ScannerPage() {
   }, [scanning]);
 
   return (
-    <section className={styles.page} aria-labelledby="scan-title">
-      <OutboxPanel />
-      <Title1 as="h1" id="scan-title">
-        Scan a tag
-      </Title1>
+    <ScanScreen title="Scan a tag" titleId="scan-title">
       <Text>
         Hold a Beadroll tag in front of the camera. Your own lots open with their quick actions; any other lot
         opens its public history, checked against the tag.
@@ -184,6 +178,6 @@ export function ScannerPage() {
         </Field>
         <Button type="submit">Open</Button>
       </form>
-    </section>
+    </ScanScreen>
   );
 }

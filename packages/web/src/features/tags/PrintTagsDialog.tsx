@@ -15,6 +15,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { UnfieldedError } from '../../shared/ui/FormPage';
 import { SheetPicker, sheetGrid } from './SheetPicker';
 import {
   fetchTagPdf,
@@ -280,11 +281,7 @@ export function PrintTagsDialog({
           />
         </Field>
       )}
-      {error && !error.fields.length && (
-        <MessageBar intent="error">
-          <MessageBarBody>{error.message}</MessageBarBody>
-        </MessageBar>
-      )}
+      <UnfieldedError error={error} />
       {error?.fields.some((f) => f.field === 'host' || f.field === 'lots') && (
         <MessageBar intent="error">
           <MessageBarBody>

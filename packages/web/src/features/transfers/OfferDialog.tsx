@@ -1,17 +1,8 @@
-import {
-  Field,
-  Input,
-  makeStyles,
-  Radio,
-  RadioGroup,
-  Text,
-  Textarea,
-  tokens,
-} from '@fluentui/react-components';
+import { makeStyles, Radio, RadioGroup, Text, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, FormError, NoteField, TextField } from '../../shared/ui/FormPage';
 import { MoneyField } from '../../shared/ui/MoneyField';
 import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
 import { dealerSearchQuery, type Offer, type Invitation, transfersApi } from './transfers.api';
@@ -85,20 +76,22 @@ export function OfferDialog({
         <Radio value="email" label="An e-mail address" />
       </RadioGroup>
       {mode === 'dealer' ? (
-        <Field
+        <TextField
           label="Find the dealer by name, handle or business"
+          value={q}
+          onChange={setQ}
+          placeholder="at least 2 letters"
           validationMessage={fieldError(send.error, 'recipient')}
-        >
-          <Input value={q} onChange={(_, d) => setQ(d.value)} placeholder="at least 2 letters" />
-        </Field>
+        />
       ) : (
-        <Field
+        <TextField
           label="Their e-mail address"
           hint="If they have no verified account yet, they get an invitation; the offer is made once the registrar verifies them."
+          type="email"
+          value={email}
+          onChange={setEmail}
           validationMessage={fieldError(send.error, 'email')}
-        >
-          <Input type="email" value={email} onChange={(_, d) => setEmail(d.value)} />
-        </Field>
+        />
       )}
       {mode === 'dealer' && search.data ? (
         search.data.items.length ? (
@@ -120,13 +113,13 @@ export function OfferDialog({
           <Text className={styles.sub}>No verified dealer matches. Try an e-mail address instead.</Text>
         )
       ) : null}
-      <Field
+      <NoteField
         label="Note (optional)"
         hint="Written on the lot’s history: everyone who reads the history sees it."
+        value={note}
+        onChange={setNote}
         validationMessage={fieldError(send.error, 'note')}
-      >
-        <Textarea value={note} onChange={(_, d) => setNote(d.value)} resize="vertical" />
-      </Field>
+      />
       <MoneyField
         label="Agreed price (optional)"
         hint="Sealed: only you and the other dealer see it; never in e-mails or on the public page."

@@ -1,10 +1,10 @@
-import { Button, Field, Input, makeStyles, Text, Textarea, tokens } from '@fluentui/react-components';
+import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, FormError, NoteField, TextField } from '../../shared/ui/FormPage';
 import { MoneyField } from '../../shared/ui/MoneyField';
 import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
 import { type Sale, today, transfersApi } from './transfers.api';
@@ -98,25 +98,30 @@ export function RecordSaleDialog({
         validationMessage={fieldError(save.error, 'price')}
         autoFocus={Boolean(code)}
       />
-      <Field label="Date of the sale" validationMessage={fieldError(save.error, 'date')}>
-        <Input type="date" value={date} onChange={(_, d) => setDate(d.value)} />
-      </Field>
+      <TextField
+        label="Date of the sale"
+        type="date"
+        value={date}
+        onChange={setDate}
+        validationMessage={fieldError(save.error, 'date')}
+      />
       {more ? (
         <>
-          <Field
+          <NoteField
             label="Note about the buyer (optional)"
             hint="Sealed: only you see it."
+            value={buyerNote}
+            onChange={setBuyerNote}
             validationMessage={fieldError(save.error, 'buyerNote')}
-          >
-            <Textarea value={buyerNote} onChange={(_, d) => setBuyerNote(d.value)} resize="vertical" />
-          </Field>
-          <Field
+          />
+          <TextField
             label="Buyer’s e-mail for a receipt (optional)"
             hint="Used once to send the link to the lot’s public history; not kept."
+            type="email"
+            value={buyerEmail}
+            onChange={setBuyerEmail}
             validationMessage={fieldError(save.error, 'buyerEmail')}
-          >
-            <Input type="email" value={buyerEmail} onChange={(_, d) => setBuyerEmail(d.value)} />
-          </Field>
+          />
         </>
       ) : (
         <Button className={styles.more} appearance="subtle" onClick={() => setMore(true)}>

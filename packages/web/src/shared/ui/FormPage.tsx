@@ -6,6 +6,7 @@ import {
   MessageBar,
   MessageBarBody,
   Text,
+  Textarea,
   Title2,
   tokens,
 } from '@fluentui/react-components';
@@ -134,4 +135,72 @@ export function FormSuccess({ children }: { children: ReactNode }) {
 /** The server's reason for one field, from a 400 body. */
 export function fieldError(error: unknown, field: string): string | undefined {
   return error instanceof ApiError ? error.fieldMessage(field) : undefined;
+}
+
+/** The server's message for a failed request that names no field (those show beside their field). */
+export function UnfieldedError({ error }: { error: ApiError | null | undefined }) {
+  if (!error || error.fields.length) return null;
+  return (
+    <MessageBar intent="error">
+      <MessageBarBody>{error.message}</MessageBarBody>
+    </MessageBar>
+  );
+}
+
+/** A one-line text in its labelled field; `type` picks the keyboard (e-mail, date…). */
+export function TextField({
+  label,
+  hint,
+  required,
+  type,
+  value,
+  onChange,
+  validationMessage,
+  placeholder,
+  autoComplete,
+}: {
+  label: string;
+  hint?: string;
+  required?: boolean;
+  type?: 'text' | 'email' | 'date';
+  value: string;
+  onChange: (v: string) => void;
+  validationMessage?: string;
+  placeholder?: string;
+  autoComplete?: string;
+}) {
+  return (
+    <Field label={label} hint={hint} required={required} validationMessage={validationMessage}>
+      <Input
+        type={type}
+        autoComplete={autoComplete}
+        placeholder={placeholder}
+        value={value}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
+  );
+}
+
+/** A free text in a labelled box that grows downwards. */
+export function NoteField({
+  label,
+  hint,
+  required,
+  value,
+  onChange,
+  validationMessage,
+}: {
+  label: string;
+  hint?: string;
+  required?: boolean;
+  value: string;
+  onChange: (v: string) => void;
+  validationMessage?: string;
+}) {
+  return (
+    <Field label={label} hint={hint} required={required} validationMessage={validationMessage}>
+      <Textarea value={value} onChange={(_, d) => onChange(d.value)} resize="vertical" />
+    </Field>
+  );
 }
