@@ -1,6 +1,6 @@
 import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { renderAt } from '../shared/testing/render';
+import { renderAt } from '../common/testing/render';
 
 describe('app shell', () => {
   it('shows the product name and says what Beadroll is for', () => {

@@ -13,10 +13,10 @@ import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { accountsApi, useSession } from './accounts.api';
-import { fieldError, Form, FormError, FormSuccess, PasswordField } from '../../shared/ui/FormPage';
-import { formatDate } from '../../shared/ui/format';
+import { fieldError, Form, FormError, FormSuccess, PasswordField } from '../../common/ui/FormPage';
+import { formatDate } from '../../common/ui/format';
 import { ROLE_LABEL, STATUS_LABEL } from './labels';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   card: { padding: tokens.spacingHorizontalXL, display: 'grid', gap: tokens.spacingVerticalM },

@@ -2,7 +2,7 @@ import { Button, Link } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link as RouterLink, useSearchParams } from 'react-router-dom';
-import { FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
+import { FormError, FormPage, FormSuccess } from '../../common/ui/FormPage';
 
 /**
  * A page opened from an e-mailed link that carries `?token=`. Nothing changes until the button

@@ -2,7 +2,7 @@ import { Button, Field, Input } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { accountsApi } from './accounts.api';
-import { fieldError, FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
+import { fieldError, FormError, FormPage, FormSuccess } from '../../common/ui/FormPage';
 
 export function ForgotPasswordPage() {
   const [email, setEmail] = useState('');

@@ -2,16 +2,16 @@ import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
 import { Navigate } from 'react-router-dom';
-import { ActionDialog, PanelDialog } from '../../shared/ui/ActionDialog';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { fieldError, FormError, NoteField } from '../../shared/ui/FormPage';
-import { formatDate } from '../../shared/ui/format';
-import type { ListColumn } from '../../shared/ui/list/DataTable';
-import { useListParams } from '../../shared/ui/list/list-params';
-import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { ActionDialog, PanelDialog } from '../../common/ui/ActionDialog';
+import { FilterButtons } from '../../common/ui/FilterButtons';
+import { fieldError, FormError, NoteField } from '../../common/ui/FormPage';
+import { formatDate } from '../../common/ui/format';
+import type { ListColumn } from '../../common/ui/list/DataTable';
+import { useListParams } from '../../common/ui/list/list-params';
+import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
 import { ROLE_LABEL } from './labels';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   facts: {

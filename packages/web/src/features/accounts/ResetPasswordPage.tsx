@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { accountsApi } from './accounts.api';
 import { EmailedLinkPage } from './EmailedLinkPage';
-import { fieldError, PasswordField } from '../../shared/ui/FormPage';
+import { fieldError, PasswordField } from '../../common/ui/FormPage';
 
 /** Opened from a reset or set-password link; the password changes on the POST from this page. */
 export function ResetPasswordPage() {

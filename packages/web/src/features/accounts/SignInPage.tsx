@@ -3,7 +3,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
 import { accountsApi, type Me } from './accounts.api';
-import { fieldError, FormError, FormPage, PasswordField } from '../../shared/ui/FormPage';
+import { fieldError, FormError, FormPage, PasswordField } from '../../common/ui/FormPage';
 
 /**
  * Where a sign-in lands: the page asked for (only paths inside the app), else the account's

@@ -3,7 +3,7 @@ import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
-import { fieldError, FormError, FormPage, FormSuccess } from '../../shared/ui/FormPage';
+import { fieldError, FormError, FormPage, FormSuccess } from '../../common/ui/FormPage';
 
 const FIELDS = [
   { name: 'displayName', label: 'Your name', autoComplete: 'name', hint: 'Shown on your dealer card.' },

@@ -1,7 +1,7 @@
 import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
-import { accounts, json, renderAt, stubServer } from '../../shared/testing/render';
+import { accounts, json, renderAt, stubServer } from '../../common/testing/render';
 import type { Me } from './accounts.api';
 
 const registrar = accounts.registrar;

@@ -1,6 +1,6 @@
 import { Badge, Button, Caption1, Link, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useState } from 'react';
-import { PanelDialog } from '../../shared/ui/ActionDialog';
+import { PanelDialog } from '../../common/ui/ActionDialog';
 import { EXHIBIT_KIND_LABELS, type ExhibitResponse } from './exhibits.api';
 import { VerifiedImage } from './VerifiedImage';
 

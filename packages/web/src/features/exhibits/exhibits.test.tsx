@@ -1,7 +1,7 @@
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { renderWithProviders } from '../../shared/testing/render';
+import { renderWithProviders } from '../../common/testing/render';
 import { ExhibitGallery } from './ExhibitGallery';
 import { ExhibitUploader } from './ExhibitUploader';
 import type { ExhibitResponse } from './exhibits.api';

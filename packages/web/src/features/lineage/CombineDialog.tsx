@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../shared/ui/CheckGroup';
+import { CheckGroup } from '../../common/ui/CheckGroup';
 import {
   Checkbox,
   Field,
@@ -15,9 +15,9 @@ import { LIMITS, formatLotCode, type BeadCount, type LotForm } from '@beadroll/c
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { UnfieldedError } from '../../shared/ui/FormPage';
-import { Stack } from '../../shared/ui/Stack';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { UnfieldedError } from '../../common/ui/FormPage';
+import { Stack } from '../../common/ui/Stack';
 import { heldLotsQuery, lineageApi, type CombineResult, type HeldLot, type LotBasics } from './lineage.api';
 import { LotFormSelect } from './LotFormSelect';
 import { useLineageChange } from './use-lineage-change';

@@ -13,8 +13,8 @@ import {
 import { LIMITS, formatLotCode, type LotDescription, type LotForm } from '@beadroll/core';
 import { useState } from 'react';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { UnfieldedError } from '../../shared/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { UnfieldedError } from '../../common/ui/FormPage';
 import { lineageApi, type LotBasics, type SplitResult } from './lineage.api';
 import { LotFormSelect } from './LotFormSelect';
 import { useLineageChange } from './use-lineage-change';

@@ -22,10 +22,10 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { FormError } from '../../shared/ui/FormPage';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { FormError } from '../../common/ui/FormPage';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import { lotImportsApi, type CheckResult, type Mapping, type SheetInfo } from './lot-imports.api';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const PROBLEM_COLUMNS: Array<ListColumn<{ row: number; key: string; column: string; message: string }>> = [
   { id: 'row', header: 'Row', cell: (p) => p.row },

@@ -24,14 +24,14 @@ import {
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { Link, Navigate, useNavigate } from 'react-router-dom';
-import type { ListColumn } from '../../shared/ui/list/DataTable';
+import type { ListColumn } from '../../common/ui/list/DataTable';
 import {
   oneOf,
   useListParams,
   type ListParams,
   type ListSort as UrlSort,
-} from '../../shared/ui/list/list-params';
-import { ListView } from '../../shared/ui/list/ListView';
+} from '../../common/ui/list/list-params';
+import { ListView } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
@@ -43,7 +43,7 @@ import {
   type LotListParams,
   type LotSummary,
 } from './lots.api';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 const DEFAULT_SORT: UrlSort = { key: 'updated', desc: true };

@@ -14,12 +14,12 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
-import { CheckGroup } from '../../shared/ui/CheckGroup';
-import { NoteField } from '../../shared/ui/FormPage';
+import { CheckGroup } from '../../common/ui/CheckGroup';
+import { NoteField } from '../../common/ui/FormPage';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
-import { MoneyField } from '../../shared/ui/MoneyField';
+import { MoneyField } from '../../common/ui/MoneyField';
 import { PrivateMark } from './PrivateMark';
 
 const useStyles = makeStyles({

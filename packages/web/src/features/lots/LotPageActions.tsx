@@ -4,8 +4,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
-import { FormError } from '../../shared/ui/FormPage';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { FormError } from '../../common/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
 import { correctionOf, CorrectionFields, NO_CORRECTION, type CorrectionDraft } from './CorrectionFields';
 import type { LotActionContext } from './lot-actions';
 import {

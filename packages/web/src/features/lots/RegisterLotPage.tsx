@@ -13,9 +13,9 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { PhotoPicker, uploadPending, type PendingPhoto } from '../exhibits/PhotoPicker';
 import { ApiError } from '../../lib/api';
-import { focusFirstError } from '../../shared/ui/focus-first-error';
+import { focusFirstError } from '../../common/ui/focus-first-error';
 import { useSession } from '../accounts/accounts.api';
-import { FormError } from '../../shared/ui/FormPage';
+import { FormError } from '../../common/ui/FormPage';
 import {
   clearDraft,
   draftToRequest,

@@ -10,7 +10,7 @@ import {
 import { screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { json, renderAt, stubServer } from '../../shared/testing/render';
+import { json, renderAt, stubServer } from '../../common/testing/render';
 import type { Me } from '../accounts/accounts.api';
 import { LOT_ACTIONS } from './lot-actions';
 import {

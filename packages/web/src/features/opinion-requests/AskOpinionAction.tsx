@@ -12,8 +12,8 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { fieldError, FormError } from '../../common/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
 import type { LotActionContext } from '../lots/lot-actions';
 import { opinionRequestQueries, opinionRequestsApi, REQUEST_STATUS } from './opinion-requests.api';
 

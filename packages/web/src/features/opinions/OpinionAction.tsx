@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { PanelDialog } from '../../shared/ui/ActionDialog';
+import { PanelDialog } from '../../common/ui/ActionDialog';
 import type { LotActionContext } from '../lots/lot-actions';
 import { lotsQueries } from '../lots/lots.api';
 import { OpinionForm } from './OpinionForm';

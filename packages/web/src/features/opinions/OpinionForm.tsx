@@ -1,4 +1,4 @@
-import { CheckGroup } from '../../shared/ui/CheckGroup';
+import { CheckGroup } from '../../common/ui/CheckGroup';
 import {
   Button,
   Checkbox,
@@ -29,8 +29,8 @@ import {
   yearProblem,
 } from '@beadroll/core';
 import { useMemo, useRef, useState } from 'react';
-import { focusFirstError } from '../../shared/ui/focus-first-error';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { focusFirstError } from '../../common/ui/focus-first-error';
+import { fieldError, FormError } from '../../common/ui/FormPage';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';

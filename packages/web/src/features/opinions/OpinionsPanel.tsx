@@ -13,7 +13,7 @@ import {
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError } from '../../common/ui/FormPage';
 import { brandVars } from '../public-lot/brand-vars';
 import { ConsensusChart } from '../public-lot/ConsensusChart';
 import '../public-lot/public-lot.css';

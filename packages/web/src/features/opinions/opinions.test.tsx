@@ -1,7 +1,7 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
-import { json, renderWithProviders } from '../../shared/testing/render';
+import { json, renderWithProviders } from '../../common/testing/render';
 import { OpinionForm } from './OpinionForm';
 import { OpinionsPanel } from './OpinionsPanel';
 import type { OpinionBody } from '@beadroll/core';

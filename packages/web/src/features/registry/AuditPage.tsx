@@ -10,10 +10,10 @@ import {
 } from '@fluentui/react-components';
 import { formatLotCode } from '@beadroll/core';
 import { useRef, useState } from 'react';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import { runAudit, type AuditEvent } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   sub: { color: tokens.colorNeutralForeground3 },

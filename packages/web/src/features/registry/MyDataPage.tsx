@@ -3,10 +3,10 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, Form, FormError, PasswordField } from '../../shared/ui/FormPage';
+import { fieldError, Form, FormError, PasswordField } from '../../common/ui/FormPage';
 import { registryToolsApi } from './registry.api';
-import { Page } from '../../shared/ui/Page';
-import { Stack } from '../../shared/ui/Stack';
+import { Page } from '../../common/ui/Page';
+import { Stack } from '../../common/ui/Stack';
 
 /** A dealer's own data: download everything Beadroll holds about them, or close the account. */
 export function MyDataPage() {

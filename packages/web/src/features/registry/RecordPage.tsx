@@ -1,11 +1,11 @@
 import { Link, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
-import type { ListColumn } from '../../shared/ui/list/DataTable';
-import { useListParams } from '../../shared/ui/list/list-params';
-import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import type { ListColumn } from '../../common/ui/list/DataTable';
+import { useListParams } from '../../common/ui/list/list-params';
+import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { actionsQuery, type RegistrarAction } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   row: { display: 'flex', gap: tokens.spacingHorizontalL, alignItems: 'center', flexWrap: 'wrap' },

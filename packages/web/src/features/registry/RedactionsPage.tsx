@@ -15,9 +15,9 @@ import {
 import { formatLotCode } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
-import { formatDate } from '../../shared/ui/format';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { fieldError, Form, FormError } from '../../common/ui/FormPage';
+import { formatDate } from '../../common/ui/format';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import {
   REDACTION_REASON_LABEL,
   redactionRequestsQuery,
@@ -26,7 +26,7 @@ import {
   type RedactionRequest,
 } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '32rem' },

@@ -2,8 +2,8 @@ import { Field, MessageBar, MessageBarBody, Select, Text, Textarea } from '@flue
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
-import { FormError } from '../../shared/ui/FormPage';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { FormError } from '../../common/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
 import type { LotActionContext } from '../lots/lot-actions';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { registryToolsApi } from './registry.api';

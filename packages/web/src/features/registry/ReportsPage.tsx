@@ -2,16 +2,16 @@ import { formatLotCode } from '@beadroll/core';
 import { Button, makeStyles, Text } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { fieldError, FormError, NoteField } from '../../shared/ui/FormPage';
-import { formatDate } from '../../shared/ui/format';
-import type { ListColumn } from '../../shared/ui/list/DataTable';
-import { useListParams } from '../../shared/ui/list/list-params';
-import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { FilterButtons } from '../../common/ui/FilterButtons';
+import { fieldError, FormError, NoteField } from '../../common/ui/FormPage';
+import { formatDate } from '../../common/ui/format';
+import type { ListColumn } from '../../common/ui/list/DataTable';
+import { useListParams } from '../../common/ui/list/list-params';
+import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { REPORT_CATEGORY_LABEL, registryToolsApi, reportsQuery, type Report } from './registry.api';
 import { RegistrarOnly } from './RegistrarOnly';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   text: { whiteSpace: 'pre-wrap', maxWidth: '28rem' },

@@ -2,7 +2,7 @@ import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { describe, expect, it, vi } from 'vitest';
-import { accounts, json, renderAt, stubServer, testClient } from '../../shared/testing/render';
+import { accounts, json, renderAt, stubServer, testClient } from '../../common/testing/render';
 import { ownRemovableEntries, RemovalRequestAction } from './RemovalRequestAction';
 import { ReportProblem } from './ReportProblem';
 

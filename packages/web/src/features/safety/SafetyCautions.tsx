@@ -1,6 +1,6 @@
 import { MessageBar, MessageBarBody, MessageBarTitle, Text } from '@fluentui/react-components';
 import type { AidResult } from '@beadroll/core';
-import { Stack } from '../../shared/ui/Stack';
+import { Stack } from '../../common/ui/Stack';
 import { Sources } from './Sources';
 
 /** A short title for each caution core may give. */

@@ -3,7 +3,7 @@ import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
 import type { Observations, VerifiedEntry } from '@beadroll/core';
-import { renderWithProviders } from '../../shared/testing/render';
+import { renderWithProviders } from '../../common/testing/render';
 import { DescriptionSections } from '../lots/LotFormSections';
 import { EMPTY_DRAFT, type LotDraft } from '../lots/lot-draft';
 import { ObservationChecklist } from '../lots/ObservationChecklist';

@@ -1,6 +1,6 @@
 import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { renderWithProviders } from '../../shared/testing/render';
+import { renderWithProviders } from '../../common/testing/render';
 import { ScanScreen } from './ScanScreen';
 
 describe('ScanScreen', () => {

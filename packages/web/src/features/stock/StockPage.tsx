@@ -14,7 +14,7 @@ import {
 import { useQuery } from '@tanstack/react-query';
 import { useMemo, type ReactNode } from 'react';
 import { Navigate } from 'react-router-dom';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import { useSession } from '../accounts/accounts.api';
 import { ORIGIN_LABEL } from '../lots/labels';
 import { formatMoney } from '../transfers/transfers.api';
@@ -26,7 +26,7 @@ import {
   type SalesPeriod,
   type StockGroup,
 } from './stock.api';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },

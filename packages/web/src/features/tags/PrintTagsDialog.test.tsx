@@ -1,7 +1,7 @@
 import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
-import { json, renderWithProviders } from '../../shared/testing/render';
+import { json, renderWithProviders } from '../../common/testing/render';
 import { PrintTagsDialog } from './PrintTagsDialog';
 
 // Fluent marks the surface aria-hidden while its opening motion runs in jsdom, hence `hidden: true`.

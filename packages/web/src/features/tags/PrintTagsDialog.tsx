@@ -14,8 +14,8 @@ import {
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../lib/api';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { UnfieldedError } from '../../shared/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { UnfieldedError } from '../../common/ui/FormPage';
 import { SheetPicker, sheetGrid } from './SheetPicker';
 import {
   fetchTagPdf,

@@ -9,8 +9,8 @@ import {
 } from '@fluentui/react-components';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
-import { Page } from '../../shared/ui/Page';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
+import { Page } from '../../common/ui/Page';
 import { PrintTagsDialog } from './PrintTagsDialog';
 import { tagsQueries, type HeldLotRow } from './tags.api';
 

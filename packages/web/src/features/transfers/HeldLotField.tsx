@@ -1,7 +1,7 @@
 import { Field, Select } from '@fluentui/react-components';
 import { useQuery, type QueryClient } from '@tanstack/react-query';
 import { ApiError } from '../../lib/api';
-import { fieldError } from '../../shared/ui/FormPage';
+import { fieldError } from '../../common/ui/FormPage';
 import { heldLotsQuery, priceProblem, toMinorUnits } from './transfers.api';
 
 /** Picks one of the lots the dealer holds, for a dialog opened away from a lot's page. */

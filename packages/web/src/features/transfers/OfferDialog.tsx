@@ -1,9 +1,9 @@
 import { makeStyles, Radio, RadioGroup, Text, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { fieldError, FormError, NoteField, TextField } from '../../shared/ui/FormPage';
-import { MoneyField } from '../../shared/ui/MoneyField';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { fieldError, FormError, NoteField, TextField } from '../../common/ui/FormPage';
+import { MoneyField } from '../../common/ui/MoneyField';
 import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
 import { dealerSearchQuery, type Offer, type Invitation, transfersApi } from './transfers.api';
 

@@ -16,7 +16,7 @@ import { useState } from 'react';
 import { Link, Navigate, useParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
+import { fieldError, FormError } from '../../common/ui/FormPage';
 import {
   formatDateTime,
   formatMoney,

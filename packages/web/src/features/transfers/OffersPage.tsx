@@ -2,11 +2,11 @@ import { Badge, Button, MessageBar, MessageBarBody, Text, Title3 } from '@fluent
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import { FormError } from '../../shared/ui/FormPage';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
-import { useListParams } from '../../shared/ui/list/list-params';
-import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { FilterButtons } from '../../common/ui/FilterButtons';
+import { FormError } from '../../common/ui/FormPage';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
+import { useListParams } from '../../common/ui/list/list-params';
+import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { OfferDialog } from './OfferDialog';
 import {
@@ -21,7 +21,7 @@ import {
   type OfferStatus,
   transfersApi,
 } from './transfers.api';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
   { value: 'all', label: 'All' },

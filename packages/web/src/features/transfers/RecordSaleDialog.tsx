@@ -3,9 +3,9 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
-import { fieldError, FormError, NoteField, TextField } from '../../shared/ui/FormPage';
-import { MoneyField } from '../../shared/ui/MoneyField';
+import { ActionDialog } from '../../common/ui/ActionDialog';
+import { fieldError, FormError, NoteField, TextField } from '../../common/ui/FormPage';
+import { MoneyField } from '../../common/ui/MoneyField';
 import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
 import { type Sale, today, transfersApi } from './transfers.api';
 

@@ -2,14 +2,14 @@ import { Button, MessageBar, MessageBarBody, Text } from '@fluentui/react-compon
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
-import { FilterButtons } from '../../shared/ui/FilterButtons';
-import type { ListColumn } from '../../shared/ui/list/DataTable';
-import { useListParams } from '../../shared/ui/list/list-params';
-import { ListView, useListStyles } from '../../shared/ui/list/ListView';
+import { FilterButtons } from '../../common/ui/FilterButtons';
+import type { ListColumn } from '../../common/ui/list/DataTable';
+import { useListParams } from '../../common/ui/list/list-params';
+import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { formatMoney, type Sale, type SaleReceiptFilter, salesQuery } from './transfers.api';
-import { Page } from '../../shared/ui/Page';
+import { Page } from '../../common/ui/Page';
 
 const RECEIPTS: Array<{ value: 'all' | 'sent' | 'none'; label: string }> = [
   { value: 'all', label: 'All sales' },

@@ -1,8 +1,8 @@
 import { Field, Spinner, Text, Textarea } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../shared/ui/FormPage';
-import { ActionDialog } from '../../shared/ui/ActionDialog';
+import { fieldError, FormError } from '../../common/ui/FormPage';
+import { ActionDialog } from '../../common/ui/ActionDialog';
 import { openOfferOfLotQuery, transfersApi } from './transfers.api';
 
 /** Withdraws the holder's open offer of this lot, from the lot page (a `transfer-withdrawn` entry). */

@@ -1,7 +1,7 @@
 import { screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
-import { accounts, json, renderAt, renderWithProviders, stubServer } from '../../shared/testing/render';
+import { accounts, json, renderAt, renderWithProviders, stubServer } from '../../common/testing/render';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { type Offer, type Party, toMinorUnits } from './transfers.api';
 

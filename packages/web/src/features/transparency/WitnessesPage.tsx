@@ -1,8 +1,8 @@
 import { Button, Field, Input, makeStyles, Text, Title2, tokens } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, Form, FormError } from '../../shared/ui/FormPage';
-import { DataTable, type ListColumn } from '../../shared/ui/list/DataTable';
+import { fieldError, Form, FormError } from '../../common/ui/FormPage';
+import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import { RegistrarOnly } from '../registry/RegistrarOnly';
 import { witnessesApi, witnessesQuery, type Witness } from './witnesses.api';
 
