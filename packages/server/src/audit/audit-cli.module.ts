@@ -10,8 +10,8 @@ import { AuditModule } from './audit.module';
 
 /**
  * Just the database and the audit, for the command-line audit (with the scheduler registry, mail
- * service and exhibit store the modules it reaches depend on; the CLI starts no job and sends
- * nothing).
+ * service and exhibit store the modules it reaches depend on). It sends no mail, but the log's
+ * checkpoint service still makes its start-up signing pass while the CLI runs.
  */
 @Module({
   imports: [
