@@ -1,11 +1,22 @@
 import type { Decoration, Observations, Origin, Qualifier, Technique } from './types.js';
 
 /**
- * How much weight a source carries on screen: museums, standards bodies, government pages and
- * recognised scholars first; trade and hobby pages after; unsourced trade practice last.
+ * How much weight a source carries on screen, heaviest first: museums, standards bodies,
+ * government pages and recognised scholars first; trade and hobby pages after; unsourced trade
+ * practice last. Sources are listed in this order.
  */
-export type SourceStanding =
-  'museum' | 'standard' | 'scholar' | 'trade-page' | 'student-page' | 'common-practice' | 'from-memory';
+export const SOURCE_STANDINGS = [
+  'museum',
+  'standard',
+  'scholar',
+  'trade-page',
+  'student-page',
+  'common-practice',
+  'from-memory',
+] as const;
+
+/** One of {@link SOURCE_STANDINGS}. */
+export type SourceStanding = (typeof SOURCE_STANDINGS)[number];
 
 /** Where a rule's fact comes from: a page title and address, or the plain words "common practice, no source". */
 export interface AidSource {

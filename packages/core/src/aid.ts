@@ -3,6 +3,7 @@ import {
   CAUTION_RULES,
   INDICATION_RULES,
   PERIOD_RULES,
+  SOURCE_STANDINGS,
   UV_A_POINTS,
   type AidCondition,
   type AidSource,
@@ -53,18 +54,9 @@ export interface AidResult {
   disclaimer: string;
 }
 
-const STANDING_ORDER: SourceStanding[] = [
-  'museum',
-  'standard',
-  'scholar',
-  'trade-page',
-  'student-page',
-  'common-practice',
-  'from-memory',
-];
-
 function bySourceStanding(sources: readonly AidSource[]): AidSource[] {
-  return [...sources].sort((a, b) => STANDING_ORDER.indexOf(a.standing) - STANDING_ORDER.indexOf(b.standing));
+  const rank = (s: SourceStanding) => SOURCE_STANDINGS.indexOf(s);
+  return [...sources].sort((a, b) => rank(a.standing) - rank(b.standing));
 }
 
 /** Whether `text` holds `word` as a whole word or phrase, in any case. */

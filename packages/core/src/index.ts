@@ -239,6 +239,7 @@ export {
   INDICATION_RULES,
   LEAD_WORDS,
   PERIOD_RULES,
+  SOURCE_STANDINGS,
   URANIUM_WORDS,
   UV_A_POINTS,
 } from './aid-rules.js';

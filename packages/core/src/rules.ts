@@ -12,7 +12,7 @@ import type {
   RuleFacts,
   SoldBody,
 } from './types.js';
-import { FORMAT_VERSION, RESERVED_ACTOR_PREFIX, SYSTEM_ACTOR } from './types.js';
+import { FORMAT_VERSION, RESERVED_ACTOR_PREFIX, SYSTEM_ACTOR, TRANSFER_KINDS } from './types.js';
 
 /** Where a lot stands. `sold`, `split`, `combined` and `retired` are final. */
 export type LotStatus = 'held' | 'offered' | 'sold' | 'split' | 'combined' | 'retired';
@@ -262,11 +262,7 @@ export function isReservedActor(actor: string): boolean {
 const FACT_RULE_KINDS = new Set<EntryKind>([
   'described',
   'opinion-withdrawn',
-  'transfer-offered',
-  'transfer-accepted',
-  'transfer-declined',
-  'transfer-withdrawn',
-  'transfer-lapsed',
+  ...TRANSFER_KINDS,
   'note',
   'sale-voided',
 ]);

@@ -34,6 +34,15 @@ export const ENTRY_KINDS = [
 /** The kind of an entry. */
 export type EntryKind = (typeof ENTRY_KINDS)[number];
 
+/** The kinds of a transfer between dealers: the offer and each way it can end. */
+export const TRANSFER_KINDS = [
+  'transfer-offered',
+  'transfer-accepted',
+  'transfer-declined',
+  'transfer-withdrawn',
+  'transfer-lapsed',
+] as const satisfies readonly EntryKind[];
+
 /** Account id that writes `transfer-lapsed` entries; no person or business ever holds it. */
 export const SYSTEM_ACTOR = 'beadroll:system';
 

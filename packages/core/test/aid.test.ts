@@ -8,6 +8,7 @@ import {
   recordCautions,
   safetyCautions,
   safetyInputOf,
+  SOURCE_STANDINGS,
   uvCaution,
   type AidInput,
   type Indication,
@@ -75,15 +76,10 @@ describe('attribution aid against trade facts', () => {
     for (const rule of [...INDICATION_RULES, ...PERIOD_RULES, ...CAUTION_RULES]) {
       expect(rule.sources.length).toBeGreaterThan(0);
     }
-    const order = [
-      'museum',
-      'standard',
-      'scholar',
-      'trade-page',
-      'student-page',
-      'common-practice',
-      'from-memory',
-    ];
+    // Museums and standards bodies weigh most; an unsourced value recalled from memory least.
+    expect(SOURCE_STANDINGS.slice(0, 2)).toEqual(['museum', 'standard']);
+    expect(SOURCE_STANDINGS.at(-1)).toBe('from-memory');
+    const order: readonly string[] = SOURCE_STANDINGS;
     const r = attributionAid({
       observations: { uvA: 'green-glow', hole: 'clean' },
       decoration: ['aventurine'],

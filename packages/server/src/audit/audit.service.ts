@@ -17,6 +17,7 @@ import {
   type SplitBody,
   type TransferAnswerBody,
   type TransferOfferedBody,
+  TRANSFER_KINDS,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
 import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
@@ -43,15 +44,7 @@ export interface StoredCopyDifference {
 }
 
 /** Entries other features keep a row for, remembered while a roll is replayed (a few per lot). */
-const KEPT_KINDS = new Set([
-  'exhibit-added',
-  'transfer-offered',
-  'transfer-accepted',
-  'transfer-declined',
-  'transfer-withdrawn',
-  'transfer-lapsed',
-  'sold',
-]);
+const KEPT_KINDS = new Set<string>(['exhibit-added', ...TRANSFER_KINDS, 'sold']);
 
 interface KeptEntry {
   kind: string;
