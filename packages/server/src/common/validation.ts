@@ -1,8 +1,9 @@
 import { applyDecorators, ValidationPipe, type ValidationError } from '@nestjs/common';
-import { ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import {
   IsDefined,
+  IsIn,
   IsObject,
   IsOptional,
   IsString,
@@ -26,6 +27,38 @@ export function NestedObject(
     IsObject(),
     ValidateNested(),
     Type(type),
+  );
+}
+
+/**
+ * {@link NestedObject} and its entry in the OpenAPI document: a field holding one object of class
+ * `type` (declared before the field), with `description` when given.
+ */
+export function NestedField(
+  type: new () => object,
+  opts: { optional?: boolean; missing?: string; description?: string } = {},
+): PropertyDecorator {
+  const { description, ...rules } = opts;
+  const doc = { type, ...(description === undefined ? {} : { description }) };
+  return applyDecorators(
+    opts.optional ? ApiPropertyOptional(doc) : ApiProperty(doc),
+    NestedObject(() => type, rules),
+  );
+}
+
+/**
+ * An optional field that, when given, holds one of `values`. `description` and `default` go to
+ * the OpenAPI document; `message` replaces the validator's own reason.
+ */
+export function OptionalChoice(
+  values: readonly string[],
+  opts: { description?: string; default?: string; message?: string } = {},
+): PropertyDecorator {
+  const { message, ...doc } = opts;
+  return applyDecorators(
+    ApiPropertyOptional({ enum: [...values], ...doc }),
+    IsOptional(),
+    IsIn(values, message === undefined ? undefined : { message }),
   );
 }
 

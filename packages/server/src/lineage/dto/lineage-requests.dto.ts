@@ -1,4 +1,4 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
@@ -10,7 +10,7 @@ import {
   IsObject,
 } from 'class-validator';
 import { CountDto, LotDescriptionDto } from '../../lots/dto/lot-description.dto';
-import { NestedObject } from '../../common/validation';
+import { NestedField } from '../../common/validation';
 
 /** The largest number of lots one split makes (the ledger format allows 500 children). */
 export const MAX_SPLIT_CHILDREN = 500;
@@ -19,8 +19,7 @@ export const MAX_COMBINED_PARTS = 100;
 
 /** One new lot of a split: its full description, whose count is the beads it takes. */
 export class SplitChildDto {
-  @ApiProperty({ type: LotDescriptionDto, description: 'the count is the beads this child takes' })
-  @NestedObject(() => LotDescriptionDto)
+  @NestedField(LotDescriptionDto, { description: 'the count is the beads this child takes' })
   description: LotDescriptionDto;
 }
 
@@ -43,8 +42,7 @@ export class CombinedPartDto {
   @MaxLength(20)
   lot: string;
 
-  @ApiPropertyOptional({ type: CountDto, description: 'left out: every bead the lot still holds' })
-  @NestedObject(() => CountDto, { optional: true })
+  @NestedField(CountDto, { optional: true, description: 'left out: every bead the lot still holds' })
   count?: CountDto;
 }
 
@@ -61,10 +59,8 @@ export class CombineLotsDto {
   @Type(() => CombinedPartDto)
   parts: CombinedPartDto[];
 
-  @ApiProperty({
-    type: LotDescriptionDto,
+  @NestedField(LotDescriptionDto, {
     description: 'the new lot; its count is the sum of the beads taken (estimated if any part is)',
   })
-  @NestedObject(() => LotDescriptionDto)
   description: LotDescriptionDto;
 }

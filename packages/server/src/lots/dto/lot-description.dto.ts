@@ -25,7 +25,7 @@ import {
   registerDecorator,
   type ValidationArguments,
 } from 'class-validator';
-import { NestedObject, OptionalText } from '../../common/validation';
+import { NestedField, OptionalText } from '../../common/validation';
 import { Plausible } from '../../common/plausible';
 
 /** A count of beads, exact or estimated. */
@@ -86,12 +86,10 @@ export class LotDescriptionDto {
   @IsIn(LOT_FORMS)
   form: LotForm;
 
-  @ApiProperty({ type: CountDto })
-  @NestedObject(() => CountDto)
+  @NestedField(CountDto)
   count: CountDto;
 
-  @ApiPropertyOptional({ type: DiameterDto })
-  @NestedObject(() => DiameterDto, { optional: true })
+  @NestedField(DiameterDto, { optional: true })
   diameterMm?: DiameterDto;
 
   @ApiPropertyOptional({

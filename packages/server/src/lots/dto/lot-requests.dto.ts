@@ -24,21 +24,18 @@ import {
 import { LotDescriptionDto } from './lot-description.dto';
 import { ObservationsDto } from './observations.dto';
 import { SealedDetailsDto } from './sealed-details.dto';
-import { NestedObject } from '../../common/validation';
+import { NestedField } from '../../common/validation';
 import { ExportFormatQueryDto } from '../../export/export-query.dto';
 
 /** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
 export class CreateLotDto {
-  @ApiProperty({ type: LotDescriptionDto })
-  @NestedObject(() => LotDescriptionDto)
+  @NestedField(LotDescriptionDto)
   description: LotDescriptionDto;
 
-  @ApiPropertyOptional({ type: ObservationsDto })
-  @NestedObject(() => ObservationsDto, { optional: true })
+  @NestedField(ObservationsDto, { optional: true })
   observations?: ObservationsDto;
 
-  @ApiPropertyOptional({ type: SealedDetailsDto, description: 'visible only to the registering dealer' })
-  @NestedObject(() => SealedDetailsDto, { optional: true })
+  @NestedField(SealedDetailsDto, { optional: true, description: 'visible only to the registering dealer' })
   sealed?: SealedDetailsDto;
 }
 
@@ -58,27 +55,25 @@ export class CorrectionDto {
 
 /** A full new description (a `described` entry), optionally with new sealed details. */
 export class DescribeLotDto {
-  @ApiPropertyOptional({ type: CorrectionDto, description: 'when this description corrects an earlier one' })
-  @NestedObject(() => CorrectionDto, { optional: true })
+  @NestedField(CorrectionDto, {
+    optional: true,
+    description: 'when this description corrects an earlier one',
+  })
   corrects?: CorrectionDto;
 
-  @ApiProperty({ type: LotDescriptionDto })
-  @NestedObject(() => LotDescriptionDto)
+  @NestedField(LotDescriptionDto)
   description: LotDescriptionDto;
 
-  @ApiPropertyOptional({ type: SealedDetailsDto })
-  @NestedObject(() => SealedDetailsDto, { optional: true })
+  @NestedField(SealedDetailsDto, { optional: true })
   sealed?: SealedDetailsDto;
 }
 
 /** New observations (an `observed` entry). */
 export class ObserveLotDto {
-  @ApiPropertyOptional({ type: CorrectionDto, description: 'when these observations correct earlier ones' })
-  @NestedObject(() => CorrectionDto, { optional: true })
+  @NestedField(CorrectionDto, { optional: true, description: 'when these observations correct earlier ones' })
   corrects?: CorrectionDto;
 
-  @ApiProperty({ type: ObservationsDto })
-  @NestedObject(() => ObservationsDto)
+  @NestedField(ObservationsDto)
   observations: ObservationsDto;
 }
 

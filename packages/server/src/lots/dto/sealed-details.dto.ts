@@ -1,7 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { amountProblem, currencyProblem, dateProblem, LIMITS, type Money } from '@beadroll/core';
 import { IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
-import { NestedObject } from '../../common/validation';
+import { NestedField } from '../../common/validation';
 import { nowIso, Plausible } from '../../common/plausible';
 
 /** Money in integer minor units of an ISO 4217 currency: core's `Money`, in requests and answers alike. */
@@ -35,8 +35,7 @@ export class AcquisitionDto {
   @MaxLength(LIMITS.longText)
   source?: string;
 
-  @ApiPropertyOptional({ type: MoneyDto })
-  @NestedObject(() => MoneyDto, { optional: true })
+  @NestedField(MoneyDto, { optional: true })
   cost?: MoneyDto;
 }
 
@@ -49,8 +48,7 @@ export class SealedDetailsDto {
   @MaxLength(LIMITS.longText)
   storageLocation?: string;
 
-  @ApiPropertyOptional({ type: AcquisitionDto, description: 'sealed' })
-  @NestedObject(() => AcquisitionDto, { optional: true })
+  @NestedField(AcquisitionDto, { optional: true, description: 'sealed' })
   acquisition?: AcquisitionDto;
 
   @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'private note (sealed)' })

@@ -13,7 +13,7 @@ import { ArrayMaxSize, IsArray, IsIn, IsOptional, IsString, MaxLength } from 'cl
 import { ObservationsDto } from '../../lots/dto/observations.dto';
 import { thisYear, YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
 import { Plausible } from '../../common/plausible';
-import { NestedObject } from '../../common/validation';
+import { NestedField } from '../../common/validation';
 
 /** A drafted period for the plausibility checks (the approximate flag does not matter to them). */
 export class AidPeriodDto {
@@ -38,15 +38,13 @@ export class AidDraftDto {
   @IsIn(TECHNIQUES)
   technique?: Technique;
 
-  @ApiPropertyOptional({ type: AidPeriodDto })
-  @NestedObject(() => AidPeriodDto, { optional: true })
+  @NestedField(AidPeriodDto, { optional: true })
   period?: AidPeriodDto;
 }
 
 /** What the attribution aid reads: clues, decoration, words written on the lot and a draft; every part optional. */
 export class AttributionAidDto {
-  @ApiPropertyOptional({ type: ObservationsDto })
-  @NestedObject(() => ObservationsDto, { optional: true })
+  @NestedField(ObservationsDto, { optional: true })
   observations?: ObservationsDto;
 
   @ApiPropertyOptional({ enum: DECORATIONS, isArray: true })
@@ -81,7 +79,6 @@ export class AttributionAidDto {
   @IsIn(ORIGINS, { each: true })
   recordedOrigins?: Origin[];
 
-  @ApiPropertyOptional({ type: AidDraftDto })
-  @NestedObject(() => AidDraftDto, { optional: true })
+  @NestedField(AidDraftDto, { optional: true })
   draft?: AidDraftDto;
 }

@@ -26,7 +26,7 @@ import {
   Min,
   MinLength,
 } from 'class-validator';
-import { NestedObject, OptionalText } from '../../common/validation';
+import { NestedField, OptionalText } from '../../common/validation';
 import { nowIso, Plausible } from '../../common/plausible';
 
 /** Earliest year a period may name (core's bounds); the latest is this year. */
@@ -84,8 +84,7 @@ export class RecordOpinionDto {
   @MaxLength(LIMITS.shortText)
   originNote?: string;
 
-  @ApiProperty({ type: PeriodDto })
-  @NestedObject(() => PeriodDto)
+  @NestedField(PeriodDto)
   period: PeriodDto;
 
   @ApiProperty({ enum: TECHNIQUES })
@@ -121,11 +120,10 @@ export class RecordOpinionDto {
   @Matches(/^[0-9a-f]{64}$/, { each: true, message: 'each exhibit must be a SHA-256 in lower-case hex' })
   exhibits: string[];
 
-  @ApiPropertyOptional({
-    type: AdoptedOpinionDto,
+  @NestedField(AdoptedOpinionDto, {
+    optional: true,
     description: 'the earlier opinion, on this lot or an ancestor, whose attribution this one adopts',
   })
-  @NestedObject(() => AdoptedOpinionDto, { optional: true })
   adopts?: AdoptedOpinionDto;
 }
 

@@ -15,7 +15,16 @@ import {
 } from 'class-validator';
 import { GRID_LIMITS, LABEL_LIMITS, PAPERS, TAG_DESIGNS, type Paper, type TagDesign } from '../tag-layout';
 import { MAX_TAGS_PER_PDF } from '../tag-pdf.service';
-import { NestedObject } from '../../common/validation';
+import { NestedField } from '../../common/validation';
+import { stacked } from '../../common/stacked';
+
+/** A length on the sheet in millimetres, from 0 to `max`. */
+const Millimetres = (max: number) =>
+  stacked(ApiProperty({ minimum: 0, maximum: max }), IsNumber(), Min(0), Max(max));
+
+/** How many labels across or down; omitted: as many as fit. */
+const GridCells = (description: string) =>
+  stacked(ApiPropertyOptional({ description }), IsOptional(), IsInt(), Min(1), Max(GRID_LIMITS.maxCells));
 
 /** A label sheet: paper, grid and spacing in millimetres. */
 export class SheetDto {
@@ -23,55 +32,15 @@ export class SheetDto {
   @IsIn(Object.keys(PAPERS))
   paper: Paper;
 
-  @ApiPropertyOptional({ description: 'columns of labels; omitted: as many as fit' })
-  @IsOptional()
-  @IsInt()
-  @Min(1)
-  @Max(GRID_LIMITS.maxCells)
-  columns?: number;
+  @GridCells('columns of labels; omitted: as many as fit') columns?: number;
+  @GridCells('rows of labels; omitted: as many as fit') rows?: number;
 
-  @ApiPropertyOptional({ description: 'rows of labels; omitted: as many as fit' })
-  @IsOptional()
-  @IsInt()
-  @Min(1)
-  @Max(GRID_LIMITS.maxCells)
-  rows?: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxMarginMm)
-  marginTopMm: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxMarginMm)
-  marginRightMm: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxMarginMm)
-  marginBottomMm: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxMarginMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxMarginMm)
-  marginLeftMm: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxGapMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxGapMm)
-  gapXMm: number;
-
-  @ApiProperty({ minimum: 0, maximum: GRID_LIMITS.maxGapMm })
-  @IsNumber()
-  @Min(0)
-  @Max(GRID_LIMITS.maxGapMm)
-  gapYMm: number;
+  @Millimetres(GRID_LIMITS.maxMarginMm) marginTopMm: number;
+  @Millimetres(GRID_LIMITS.maxMarginMm) marginRightMm: number;
+  @Millimetres(GRID_LIMITS.maxMarginMm) marginBottomMm: number;
+  @Millimetres(GRID_LIMITS.maxMarginMm) marginLeftMm: number;
+  @Millimetres(GRID_LIMITS.maxGapMm) gapXMm: number;
+  @Millimetres(GRID_LIMITS.maxGapMm) gapYMm: number;
 
   @ApiPropertyOptional({ description: 'cells already used on the first sheet' })
   @IsOptional()
@@ -111,8 +80,7 @@ export class PrintTagsDto {
   @Max(LABEL_LIMITS.maxMm)
   labelHeightMm?: number;
 
-  @ApiPropertyOptional({ type: SheetDto, description: 'omitted: one label per page, for a label printer' })
-  @NestedObject(() => SheetDto, { optional: true })
+  @NestedField(SheetDto, { optional: true, description: 'omitted: one label per page, for a label printer' })
   sheet?: SheetDto;
 }
 

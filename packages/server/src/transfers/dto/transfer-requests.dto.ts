@@ -15,7 +15,7 @@ import {
 import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
-import { NestedObject, OptionalText } from '../../common/validation';
+import { NestedField, OptionalText } from '../../common/validation';
 import { trim } from '../../common/text-fields';
 
 /**
@@ -50,8 +50,7 @@ export class CreateOfferDto {
   @MaxLength(LIMITS.longText)
   note?: string;
 
-  @ApiPropertyOptional({ type: MoneyDto, description: 'sealed: visible to the two dealers only' })
-  @NestedObject(() => MoneyDto, { optional: true })
+  @NestedField(MoneyDto, { optional: true, description: 'sealed: visible to the two dealers only' })
   price?: MoneyDto;
 }
 
@@ -83,8 +82,10 @@ export class RecordSaleDto {
   @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'date must be a date YYYY-MM-DD' })
   date: string;
 
-  @ApiProperty({ type: MoneyDto, description: 'sealed: visible to the seller only' })
-  @NestedObject(() => MoneyDto, { missing: 'price is required: the amount and its currency' })
+  @NestedField(MoneyDto, {
+    missing: 'price is required: the amount and its currency',
+    description: 'sealed: visible to the seller only',
+  })
   price: MoneyDto;
 
   @ApiPropertyOptional({ maxLength: LIMITS.longText, description: 'sealed: visible to the seller only' })
