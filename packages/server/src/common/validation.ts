@@ -48,13 +48,15 @@ export function NestedField(
 
 /**
  * An optional field that, when given, holds one of `values`. `description` and `default` go to
- * the OpenAPI document; `message` replaces the validator's own reason.
+ * the OpenAPI document; `message` replaces the validator's own reason, and `listed` makes it the
+ * plain list of choices.
  */
 export function OptionalChoice(
   values: readonly string[],
-  opts: { description?: string; default?: string; message?: string } = {},
+  opts: { description?: string; default?: string; message?: string; listed?: boolean } = {},
 ): PropertyDecorator {
-  const { message, ...doc } = opts;
+  const { listed, ...rest } = opts;
+  const { message = listed ? `must be one of ${values.join(', ')}` : undefined, ...doc } = rest;
   return applyDecorators(
     ApiPropertyOptional({ enum: [...values], ...doc }),
     IsOptional(),

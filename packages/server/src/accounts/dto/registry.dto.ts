@@ -1,23 +1,19 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { IsIn, IsOptional } from 'class-validator';
+import { ApiProperty } from '@nestjs/swagger';
 import { PageQueryDto } from '../../common/page-query.dto';
 import type { Account } from '../entities/account.entity';
 import { AccountIdentity, toAccountIdentity } from './account-identity.dto';
 import { Page } from '../../common/page.dto';
 import { Reason } from '../../common/text-fields';
+import { OptionalChoice } from '../../common/validation';
 
 export const QUEUE_STATUSES = ['pending', 'verified', 'suspended', 'rejected'] as const;
 export const QUEUE_SORTS = ['applied', '-applied', 'business', '-business', 'town', '-town'] as const;
 
 export class RegistryQueryDto extends PageQueryDto {
-  @ApiPropertyOptional({ enum: QUEUE_STATUSES, default: 'pending' })
-  @IsOptional()
-  @IsIn(QUEUE_STATUSES, { message: `must be one of ${QUEUE_STATUSES.join(', ')}` })
+  @OptionalChoice(QUEUE_STATUSES, { default: 'pending', listed: true })
   status: (typeof QUEUE_STATUSES)[number] = 'pending';
 
-  @ApiPropertyOptional({ enum: QUEUE_SORTS, default: 'applied' })
-  @IsOptional()
-  @IsIn(QUEUE_SORTS, { message: `must be one of ${QUEUE_SORTS.join(', ')}` })
+  @OptionalChoice(QUEUE_SORTS, { default: 'applied', listed: true })
   sort: (typeof QUEUE_SORTS)[number] = 'applied';
 }
 

@@ -10,21 +10,11 @@ import {
   type Technique,
 } from '@beadroll/core';
 import { Transform, Type } from 'class-transformer';
-import {
-  IsBoolean,
-  IsIn,
-  IsInt,
-  IsOptional,
-  IsString,
-  Max,
-  MaxLength,
-  Min,
-  MinLength,
-} from 'class-validator';
+import { IsBoolean, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
 import { LotDescriptionDto } from './lot-description.dto';
 import { ObservationsDto } from './observations.dto';
 import { SealedDetailsDto } from './sealed-details.dto';
-import { NestedField } from '../../common/validation';
+import { NestedField, OptionalChoice } from '../../common/validation';
 import { ExportFormatQueryDto } from '../../export/export-query.dto';
 
 /** Registers a new lot: a `registered` entry (and an `observed` one when observations are given). */
@@ -120,30 +110,15 @@ export class ListLotsQueryDto {
   @Max(100)
   pageSize?: number;
 
-  @ApiPropertyOptional({ enum: LOT_SORTS, default: 'registered' })
-  @IsOptional()
-  @IsIn(LOT_SORTS)
-  sort?: (typeof LOT_SORTS)[number];
+  @OptionalChoice(LOT_SORTS, { default: 'registered' }) sort?: (typeof LOT_SORTS)[number];
 
-  @ApiPropertyOptional({ enum: ['asc', 'desc'], default: 'desc' })
-  @IsOptional()
-  @IsIn(['asc', 'desc'])
-  order?: 'asc' | 'desc';
+  @OptionalChoice(['asc', 'desc'], { default: 'desc' }) order?: 'asc' | 'desc';
 
-  @ApiPropertyOptional({ enum: STATUSES })
-  @IsOptional()
-  @IsIn(STATUSES)
-  status?: LotStatus;
+  @OptionalChoice(STATUSES) status?: LotStatus;
 
-  @ApiPropertyOptional({ enum: LOT_FORMS })
-  @IsOptional()
-  @IsIn(LOT_FORMS)
-  form?: LotForm;
+  @OptionalChoice(LOT_FORMS) form?: LotForm;
 
-  @ApiPropertyOptional({ enum: ORIGINS, description: 'origin of the attribution on record' })
-  @IsOptional()
-  @IsIn(ORIGINS)
-  origin?: Origin;
+  @OptionalChoice(ORIGINS, { description: 'origin of the attribution on record' }) origin?: Origin;
 
   @ApiPropertyOptional({ type: Boolean })
   @IsOptional()
@@ -157,9 +132,7 @@ export class ListLotsQueryDto {
   @IsBoolean()
   mine?: boolean;
 
-  @ApiPropertyOptional({ enum: TECHNIQUES, description: 'technique of the attribution on record' })
-  @IsOptional()
-  @IsIn(TECHNIQUES)
+  @OptionalChoice(TECHNIQUES, { description: 'technique of the attribution on record' })
   technique?: Technique;
 
   @ApiPropertyOptional({

@@ -13,7 +13,7 @@ import { ArrayMaxSize, IsArray, IsIn, IsOptional, IsString, MaxLength } from 'cl
 import { ObservationsDto } from '../../lots/dto/observations.dto';
 import { thisYear, YEAR_MAX, YEAR_MIN } from './opinion-requests.dto';
 import { Plausible } from '../../common/plausible';
-import { NestedField } from '../../common/validation';
+import { NestedField, OptionalChoice } from '../../common/validation';
 
 /** A drafted period for the plausibility checks (the approximate flag does not matter to them). */
 export class AidPeriodDto {
@@ -28,15 +28,9 @@ export class AidPeriodDto {
 
 /** The opinion being drafted, as far as it goes. */
 export class AidDraftDto {
-  @ApiPropertyOptional({ enum: ORIGINS })
-  @IsOptional()
-  @IsIn(ORIGINS)
-  origin?: Origin;
+  @OptionalChoice(ORIGINS) origin?: Origin;
 
-  @ApiPropertyOptional({ enum: TECHNIQUES })
-  @IsOptional()
-  @IsIn(TECHNIQUES)
-  technique?: Technique;
+  @OptionalChoice(TECHNIQUES) technique?: Technique;
 
   @NestedField(AidPeriodDto, { optional: true })
   period?: AidPeriodDto;

@@ -12,6 +12,7 @@ import {
   type ReportStatus,
 } from '../entities/report.entity';
 import { Reason, TrimmedText, trim } from '../../common/text-fields';
+import { OptionalChoice } from '../../common/validation';
 
 const emptyToUndefined = ({ value }: { value: unknown }) => {
   if (typeof value !== 'string') return value;
@@ -67,9 +68,7 @@ export class DeclineDto {
 }
 
 export class RequestQueryDto {
-  @ApiPropertyOptional({ enum: REQUEST_STATUSES, default: 'open' })
-  @IsOptional()
-  @IsIn(REQUEST_STATUSES, { message: `must be one of ${REQUEST_STATUSES.join(', ')}` })
+  @OptionalChoice(REQUEST_STATUSES, { default: 'open', listed: true })
   status: RedactionRequestStatus = 'open';
 }
 
@@ -99,14 +98,10 @@ export class ReportDto {
 export const REPORT_SORTS = ['created', '-created', 'lot', '-lot', 'category', '-category'] as const;
 
 export class ReportQueryDto extends PageQueryDto {
-  @ApiPropertyOptional({ enum: REPORT_STATUSES })
-  @IsOptional()
-  @IsIn(REPORT_STATUSES, { message: `must be one of ${REPORT_STATUSES.join(', ')}` })
+  @OptionalChoice(REPORT_STATUSES, { listed: true })
   status?: ReportStatus;
 
-  @ApiPropertyOptional({ enum: REPORT_SORTS, default: '-created' })
-  @IsOptional()
-  @IsIn(REPORT_SORTS, { message: `must be one of ${REPORT_SORTS.join(', ')}` })
+  @OptionalChoice(REPORT_SORTS, { default: '-created', listed: true })
   sort: (typeof REPORT_SORTS)[number] = '-created';
 }
 
@@ -117,9 +112,7 @@ export class CloseReportDto {
 }
 
 export class ActionsQueryDto {
-  @ApiPropertyOptional({ enum: REGISTRAR_ACTIONS })
-  @IsOptional()
-  @IsIn(REGISTRAR_ACTIONS, { message: `must be one of ${REGISTRAR_ACTIONS.join(', ')}` })
+  @OptionalChoice(REGISTRAR_ACTIONS, { listed: true })
   action?: RegistrarActionKind;
 
   @ApiPropertyOptional({ type: Number, default: 1 })

@@ -15,7 +15,7 @@ import {
 import { PageQueryDto } from '../../common/page-query.dto';
 import { MoneyDto } from '../../lots/dto/sealed-details.dto';
 import { OFFER_STATUSES, type OfferStatus } from '../entities/transfer-offer.entity';
-import { NestedField, OptionalText } from '../../common/validation';
+import { NestedField, OptionalChoice, OptionalText } from '../../common/validation';
 import { trim } from '../../common/text-fields';
 
 /**
@@ -113,9 +113,7 @@ export class ListOffersQueryDto extends PageQueryDto {
   @IsIn(OFFER_BOXES, { message: `box must be one of ${OFFER_BOXES.join(', ')}` })
   box: (typeof OFFER_BOXES)[number];
 
-  @ApiPropertyOptional({ enum: OFFER_STATUSES })
-  @IsOptional()
-  @IsIn(OFFER_STATUSES, { message: `status must be one of ${OFFER_STATUSES.join(', ')}` })
+  @OptionalChoice(OFFER_STATUSES, { message: `status must be one of ${OFFER_STATUSES.join(', ')}` })
   status?: OfferStatus;
 
   @ApiPropertyOptional({ description: 'only offers of this lot (code, with or without hyphens)' })
