@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
-import { createAccount, signIn } from './support/accounts';
+import { createAccount, PUBLIC_CARD_FIELDS, signIn } from './support/accounts';
 import { binary } from './support/exhibit-http';
 import { lastMailTo, linkIn } from './support/mail';
 import { useTestApp } from './support/test-app';
@@ -84,19 +84,7 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     const after = await dealer.get('/api/auth/session').expect(200);
     expect(after.body.account.status).toBe('verified');
     const card = await http().get(`/api/public/dealers/${a.handle}`).expect(200);
-    expect(Object.keys(card.body).sort()).toEqual(
-      [
-        'business',
-        'country',
-        'displayName',
-        'handle',
-        'id',
-        'role',
-        'status',
-        'town',
-        'verifiedSince',
-      ].sort(),
-    );
+    expect(Object.keys(card.body).sort()).toEqual(PUBLIC_CARD_FIELDS);
     expect(card.body).toMatchObject({ id: row.id, status: 'verified', town: 'Zanfirico Cross' });
   });
 

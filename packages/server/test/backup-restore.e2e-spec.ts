@@ -5,11 +5,10 @@ import { join, resolve } from 'node:path';
 import { createAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { sha256, upload } from './support/exhibit-http';
-import { description } from './support/lot-fixtures';
+import { handOver, registerLot } from './support/lot-fixtures';
 import { createEmptyDatabase, type TestDatabase, useTestApp } from './support/test-app';
 
 const REPO = resolve(__dirname, '..', '..', '..');
-const W = { 'X-Beadroll-Request': '1' };
 
 /** Runs `npm run backup` / `npm run restore` (their TypeScript, as the npm scripts do) against a test database. */
 function tool(name: 'backup' | 'restore', dir: string, env: Record<string, string>) {
@@ -40,21 +39,11 @@ describe('backup and restore', () => {
     const b = await createAccount(t, { role: 'dealer' });
     const codes: string[] = [];
     for (const title of ['Green hearts', 'Blue eyes']) {
-      const res = await a.agent
-        .post('/api/lots')
-        .set(W)
-        .send({ description: description({ title }) })
-        .expect(201);
-      codes.push(res.body.code as string);
+      codes.push((await registerLot(a, { title })).code);
     }
     const png = await imageOf('png');
     await upload(a.agent, codes[0]!, png, { kind: 'close-up' }, 'a.png', 'image/png').expect(201);
-    const offer = await a.agent
-      .post('/api/transfers/offers')
-      .set(W)
-      .send({ lot: codes[1], recipient: b.id })
-      .expect(201);
-    await b.agent.post(`/api/transfers/offers/${offer.body.offer.id}/accept`).set(W).send({}).expect(200);
+    await handOver(a, codes[1]!, b);
 
     const dir = join(work, 'backup');
     const made = tool('backup', dir, { PGDATABASE: t.db.name, DATA_DIR: t.dataDir });

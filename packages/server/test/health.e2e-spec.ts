@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { buildOpenApiDocument } from '../src/openapi/openapi-document';
+import { PUBLIC_CARD_FIELDS } from './support/accounts';
 import { useTestApp } from './support/test-app';
 
 describe('health and the API surface', () => {
@@ -26,19 +27,7 @@ describe('health and the API surface', () => {
       components: { schemas: Record<string, { properties?: Record<string, unknown> }> };
       paths: Record<string, Record<string, { responses: Record<string, unknown> }>>;
     };
-    expect(Object.keys(components.schemas.DealerCard!.properties!).sort()).toEqual(
-      [
-        'business',
-        'country',
-        'displayName',
-        'handle',
-        'id',
-        'role',
-        'status',
-        'town',
-        'verifiedSince',
-      ].sort(),
-    );
+    expect(Object.keys(components.schemas.DealerCard!.properties!).sort()).toEqual(PUBLIC_CARD_FIELDS);
     const names = Object.keys(components.schemas);
     expect(names.filter((n) => /Card|Party/.test(n)).sort()).toEqual([
       'DealerCard',

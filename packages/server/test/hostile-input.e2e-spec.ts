@@ -2,7 +2,7 @@ import request from 'supertest';
 import { createAccount, useAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { upload } from './support/exhibit-http';
-import { description } from './support/lot-fixtures';
+import { description, handOver, registerLot } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
@@ -135,13 +135,7 @@ describe('authorisation follows the roll', () => {
   const b = useAccount(t, { role: 'dealer' });
 
   it('refuses a listing change by a dealer who does not hold the lot, even when nothing would change', async () => {
-    const code = (
-      await a.agent
-        .post('/api/lots')
-        .set(W)
-        .send({ description: description({ listed: true }) })
-        .expect(201)
-    ).body.code as string;
+    const { code } = await registerLot(a, { listed: true });
     for (const listed of [true, false]) {
       const res = await b.agent.put(`/api/lots/${code}/listing`).set(W).send({ listed });
       expect({ listed, status: res.status }).toEqual({ listed, status: 403 });
@@ -150,20 +144,9 @@ describe('authorisation follows the roll', () => {
   });
 
   it('lets a former holder read the ancestry, opinions and exhibits of an unlisted lot up to the handover', async () => {
-    const code = (
-      await a.agent
-        .post('/api/lots')
-        .set(W)
-        .send({ description: description({ listed: false }) })
-        .expect(201)
-    ).body.code as string;
+    const { code } = await registerLot(a, { listed: false });
     await upload(a.agent, code, await imageOf('png'), { kind: 'close-up' }, 'a.png', 'image/png').expect(201);
-    const offer = await a.agent
-      .post('/api/transfers/offers')
-      .set(W)
-      .send({ lot: code, recipient: b.id })
-      .expect(201);
-    await b.agent.post(`/api/transfers/offers/${offer.body.offer.id}/accept`).set(W).send({}).expect(200);
+    await handOver(a, code, b);
     // After the handover the new holder adds an exhibit the former holder must not see.
     await upload(
       b.agent,

@@ -58,6 +58,13 @@ describe('the ledger-wide log', () => {
     return parseVerifierKey(res.text.trim());
   }
 
+  /** A witness of this log named `name`, keeping its state, key and evidence in a fresh folder. */
+  function witnessIn(name: string) {
+    const dir = mkdtempSync(join(tmpdir(), 'witness-'));
+    const evidenceDir = join(dir, 'evidence');
+    return { url: base, stateFile: join(dir, 'state.json'), keyFile: join(dir, 'w.key'), name, evidenceDir };
+  }
+
   async function checkpoint() {
     const res = await http().get('/api/log/checkpoint').expect(200);
     expect(res.headers['content-type']).toMatch(/^text\/plain/);
@@ -157,14 +164,7 @@ describe('the ledger-wide log', () => {
   });
 
   it('a registered witness cosigns; the checkpoint then carries its cosignature; others are refused', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'witness-'));
-    const opts = {
-      url: base,
-      stateFile: join(dir, 'state.json'),
-      keyFile: join(dir, 'w.key'),
-      name: 'witness.example/w1',
-      evidenceDir: join(dir, 'evidence'),
-    };
+    const opts = witnessIn('witness.example/w1');
     const wkey = witnessVerifierKey(loadWitnessSigner(opts.keyFile, opts.name));
     // Not registered yet: refused.
     expect(await runWitness(opts)).toMatchObject({
@@ -209,14 +209,7 @@ describe('the ledger-wide log', () => {
   });
 
   it('a past entry rewritten in the database: the log refuses to sign, and a log that signs anyway is caught by the witness with evidence', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'witness-'));
-    const opts = {
-      url: base,
-      stateFile: join(dir, 'state.json'),
-      keyFile: join(dir, 'w.key'),
-      name: 'witness.example/w2',
-      evidenceDir: join(dir, 'evidence'),
-    };
+    const opts = witnessIn('witness.example/w2');
     const { agent } = await createAccount(t, { role: 'registrar' });
     const wkey = witnessVerifierKey(loadWitnessSigner(opts.keyFile, opts.name));
     await agent

@@ -45,6 +45,14 @@ describe('importing lots from a spreadsheet', () => {
     db = t.app.get(DataSource);
   });
 
+  /** Sends a CSV with the column mapping to `path`: the dry run (`checks`) or the import itself. */
+  const sendCsv = (path: 'checks' | '', mapping: string, file: Buffer) =>
+    dealer.agent
+      .post(path ? `/api/lot-imports/${path}` : '/api/lot-imports')
+      .set(W)
+      .field('mapping', mapping)
+      .attach('file', file, 'lots.csv');
+
   it('offers the template as CSV and XLSX, with every column', async () => {
     const c = await dealer.agent.get('/api/lot-imports/template?format=csv');
     expect(c.status).toBe(200);
@@ -78,11 +86,7 @@ describe('importing lots from a spreadsheet', () => {
     const mapping = JSON.stringify(sheet.body.suggested);
 
     const before = await lotCount();
-    const check = await dealer.agent
-      .post('/api/lot-imports/checks')
-      .set(W)
-      .field('mapping', mapping)
-      .attach('file', file, 'lots.csv');
+    const check = await sendCsv('checks', mapping, file);
     expect(check.status).toBe(200);
     expect(check.body.valid).toBe(497);
     expect(check.body.rows).toEqual([
@@ -99,11 +103,7 @@ describe('importing lots from a spreadsheet', () => {
       { row: 451, problems: [{ column: 'Title', message: 'Enter the title' }] },
     ]);
 
-    const refused = await dealer.agent
-      .post('/api/lot-imports')
-      .set(W)
-      .field('mapping', mapping)
-      .attach('file', file, 'lots.csv');
+    const refused = await sendCsv('', mapping, file);
     expect(refused.status).toBe(400);
     expect(refused.body.error.fields.map((f: { field: string }) => f.field)).toEqual([
       'row 11, Bead size largest (mm)',
@@ -115,11 +115,7 @@ describe('importing lots from a spreadsheet', () => {
     rows[9]![col('Bead size largest (mm)')] = '9';
     rows[199]![col('Currency')] = 'GBP';
     rows[449]![col('Title')] = 'Estate strand 450';
-    const fixed = await dealer.agent
-      .post('/api/lot-imports')
-      .set(W)
-      .field('mapping', mapping)
-      .attach('file', csv(rows), 'lots.csv');
+    const fixed = await sendCsv('', mapping, csv(rows));
     expect(fixed.status).toBe(201);
     const lines = fixed.text
       .trim()

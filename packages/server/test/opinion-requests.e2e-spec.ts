@@ -3,7 +3,7 @@ import { FakeSmtpService } from '../src/mail/fake-smtp.service';
 import { useAccount } from './support/accounts';
 import { imageOf } from './support/exhibit-fixtures';
 import { upload } from './support/exhibit-http';
-import { description } from './support/lot-fixtures';
+import { handOver, registerLot } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
 const W = { 'X-Beadroll-Request': '1' };
@@ -20,12 +20,7 @@ const OPINION = {
 
 describe('opinions on request', () => {
   async function newLot(listed = false): Promise<string> {
-    const res = await holder.agent
-      .post('/api/lots')
-      .set(W)
-      .send({ description: description({ listed }) })
-      .expect(201);
-    return res.body.code as string;
+    return (await registerLot(holder, { listed })).code;
   }
 
   function ask(lot: string, body: object = {}) {
@@ -135,12 +130,7 @@ describe('opinions on request', () => {
   it('closes the request on the roll and in the queue when the lot changes hands', async () => {
     const code = await newLot();
     const made = await ask(code, { assessor: thea.id }).expect(201);
-    const offer = await holder.agent
-      .post('/api/transfers/offers')
-      .set(W)
-      .send({ lot: code, recipient: other.id })
-      .expect(201);
-    await other.agent.post(`/api/transfers/offers/${offer.body.offer.id}/accept`).set(W).send({}).expect(200);
+    await handOver(holder, code, other);
     const sent = await holder.agent.get('/api/opinion-requests').query({ box: 'sent' }).expect(200);
     expect(sent.body.items.find((x: { id: string }) => x.id === made.body.id)).toMatchObject({
       status: 'cancelled',

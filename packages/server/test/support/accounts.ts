@@ -6,6 +6,19 @@ import type { AccountStatus, Role } from '../../src/auth/auth.decorators';
 import { PasswordsService } from '../../src/auth/passwords.service';
 import type { TestApp } from './test-app';
 
+/** Every field of a dealer's public card, sorted: nothing the dealer keeps private (e-mail, address). */
+export const PUBLIC_CARD_FIELDS = [
+  'business',
+  'country',
+  'displayName',
+  'handle',
+  'id',
+  'role',
+  'status',
+  'town',
+  'verifiedSince',
+];
+
 export interface CreateAccountOptions {
   role: Role;
   status?: AccountStatus;

@@ -65,3 +65,17 @@ export async function recordOpinion(
     .send(opinionDraft(over))
     .expect(201);
 }
+
+/** Hands `code` from `from` to `to` over HTTP: an offer, then its acceptance; expects both to succeed. */
+export async function handOver(from: TestAccount, code: string, to: TestAccount): Promise<void> {
+  const offer = await from.agent
+    .post('/api/transfers/offers')
+    .set('X-Beadroll-Request', '1')
+    .send({ lot: code, recipient: to.id })
+    .expect(201);
+  await to.agent
+    .post(`/api/transfers/offers/${offer.body.offer.id}/accept`)
+    .set('X-Beadroll-Request', '1')
+    .send({})
+    .expect(200);
+}
