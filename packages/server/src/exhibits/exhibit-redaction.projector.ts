@@ -1,8 +1,8 @@
-import { Injectable, type OnModuleInit } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import type { RedactedBody } from '@beadroll/core';
 import type { EntityManager } from 'typeorm';
-import { LedgerService } from '../ledger/ledger.service';
-import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
+import { AppendProjector } from '../ledger/append-projector';
+import type { AppendedEntry } from '../ledger/ledger.types';
 
 /**
  * When an `exhibit-added` entry is redacted, its exhibit row goes in the same transaction, so
@@ -10,13 +10,7 @@ import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
  * names them (another entry may hold the same bytes).
  */
 @Injectable()
-export class ExhibitRedactionProjector implements RollProjector, OnModuleInit {
-  constructor(private readonly ledger: LedgerService) {}
-
-  onModuleInit(): void {
-    this.ledger.addProjector(this);
-  }
-
+export class ExhibitRedactionProjector extends AppendProjector {
   async project(m: EntityManager, lotId: string, entry: AppendedEntry): Promise<void> {
     if (entry.kind !== 'redacted') return;
     const { target } = JSON.parse(entry.body) as RedactedBody;

@@ -1,8 +1,8 @@
-import { Injectable, type OnModuleInit } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import type { SoldBody, TransferAnswerBody, TransferOfferedBody } from '@beadroll/core';
 import type { EntityManager } from 'typeorm';
-import { LedgerService } from '../ledger/ledger.service';
-import type { AppendedEntry, RollProjector } from '../ledger/ledger.types';
+import { AppendProjector } from '../ledger/append-projector';
+import type { AppendedEntry } from '../ledger/ledger.types';
 import type { OfferStatus } from './entities/transfer-offer.entity';
 
 /** The status an offer's row takes after each answering kind (the audit checks rows against it). */
@@ -15,13 +15,7 @@ export const OFFER_ENDINGS: Partial<Record<string, OfferStatus>> = {
 
 /** Keeps `transfer_offers` and `sales` in step with each roll, inside the append transaction. */
 @Injectable()
-export class TransferProjector implements RollProjector, OnModuleInit {
-  constructor(private readonly ledger: LedgerService) {}
-
-  onModuleInit(): void {
-    this.ledger.addProjector(this);
-  }
-
+export class TransferProjector extends AppendProjector {
   async project(m: EntityManager, lotId: string, entry: AppendedEntry): Promise<void> {
     const title = entry.state.description?.title ?? '';
     if (entry.kind === 'transfer-offered') {
