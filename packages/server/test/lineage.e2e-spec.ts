@@ -16,7 +16,7 @@ import { AppError } from '../src/common/app-error';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { type TestAccount, useAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
+import { description, registerLot } from './support/lot-fixtures';
 import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
@@ -36,12 +36,15 @@ describe('splits and combinations', () => {
   });
 
   async function register(who: TestAccount, over: Partial<LotDescription> = {}): Promise<string> {
-    const res = await who.agent
-      .post('/api/lots')
+    return (await registerLot(who, over)).code;
+  }
+
+  /** Odile asks to split `code` into `children`. */
+  function postSplit(code: string, children: object[]) {
+    return odile.agent
+      .post(`/api/lots/${code}/splits`)
       .set(...CSRF)
-      .send({ description: description(over) });
-    expect(res.status).toBe(201);
-    return res.body.code as string;
+      .send({ children });
   }
 
   function child(value: number, over: Partial<LotDescription> = {}, estimated = false) {
@@ -76,10 +79,7 @@ describe('splits and combinations', () => {
   describe('split', () => {
     it('divides 60 beads into three strands of 20: parent first, each child names it, the parent is used up', async () => {
       const parent = await register(odile, { count: { value: 60, estimated: false } });
-      const res = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(20), child(20), child(20)] });
+      const res = await postSplit(parent, [child(20), child(20), child(20)]);
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ parent, status: 'split', remaining: { value: 0 } });
       const codes = (res.body.children as Array<{ code: string }>).map((c) => c.code);
@@ -109,10 +109,7 @@ describe('splits and combinations', () => {
 
     it('keeps the remainder with the parent and shows it', async () => {
       const parent = await register(odile, { count: { value: 60, estimated: false } });
-      const res = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(25), child(15)] });
+      const res = await postSplit(parent, [child(25), child(15)]);
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ status: 'held', remaining: { value: 20, estimated: false } });
       expect(await status(parent)).toMatchObject({ status: 'held', remaining: { value: 20 } });
@@ -120,10 +117,7 @@ describe('splits and combinations', () => {
 
     it('marks estimated counts: an estimated child makes the remainder an estimate', async () => {
       const parent = await register(odile, { count: { value: 120, estimated: true } });
-      const res = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(40, {}, true), child(40)] });
+      const res = await postSplit(parent, [child(40, {}, true), child(40)]);
       expect(res.status).toBe(201);
       expect(res.body.remaining).toEqual({ value: 40, estimated: true });
       expect(res.body.children[0].count).toEqual({ value: 40, estimated: true });
@@ -132,24 +126,15 @@ describe('splits and combinations', () => {
     it('refuses counts that do not add up, a single child and an empty child, writing nothing', async () => {
       const parent = await register(odile, { count: { value: 60, estimated: false } });
       const before = await totals();
-      const over = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(30), child(31)] });
+      const over = await postSplit(parent, [child(30), child(31)]);
       expect(over.status).toBe(400);
       expect(over.body.error.fields).toEqual([
         { field: 'children', reason: 'the new lots hold 61 beads but the lot has 60' },
       ]);
-      const one = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(30)] });
+      const one = await postSplit(parent, [child(30)]);
       expect(one.status).toBe(400);
       expect(one.body.error.fields[0].field).toBe('children');
-      const empty = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(30), child(0)] });
+      const empty = await postSplit(parent, [child(30), child(0)]);
       expect(empty.status).toBe(400);
       expect(empty.body.error.fields).toEqual([
         {
@@ -157,10 +142,7 @@ describe('splits and combinations', () => {
           reason: 'Enter a whole number of beads between 1 and 1,000,000',
         },
       ]);
-      const badTitle = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(30), child(10, { title: '' })] });
+      const badTitle = await postSplit(parent, [child(30), child(10, { title: '' })]);
       expect(badTitle.status).toBe(400);
       expect(badTitle.body.error.fields[0].field).toBe('children.1.description.title');
       expect(await totals()).toEqual(before);
@@ -176,11 +158,7 @@ describe('splits and combinations', () => {
         body: { recipient: teodor.id },
       });
       const before = await totals();
-      const send = (code: string) =>
-        odile.agent
-          .post(`/api/lots/${code}/splits`)
-          .set(...CSRF)
-          .send({ children: [child(10), child(10)] });
+      const send = (code: string) => postSplit(code, [child(10), child(10)]);
       expect((await send(unlisted)).status).toBe(404);
       const notHeld = await send(listed);
       expect(notHeld.status).toBe(403);
@@ -241,15 +219,9 @@ describe('splits and combinations', () => {
         body: { recipient: teodor.id },
       });
       // A lot made from `a`: combining it with `a` would count the same beads twice.
-      const split = await odile.agent
-        .post(`/api/lots/${a}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(5), child(5)] });
+      const split = await postSplit(a, [child(5), child(5)]);
       const fromA = split.body.children[0].code as string;
-      const grand = await odile.agent
-        .post(`/api/lots/${fromA}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(2), child(2)] });
+      const grand = await postSplit(fromA, [child(2), child(2)]);
       const fromFromA = grand.body.children[0].code as string;
       const before = await totals();
       const send = (parts: unknown[], count: number, estimated = false) =>
@@ -412,10 +384,7 @@ describe('splits and combinations', () => {
   describe('ancestry in bundles and public data', () => {
     it('a tampered parent breaks the child’s verification', async () => {
       const parent = await register(odile, { count: { value: 40, estimated: false } });
-      const res = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(20), child(20)] });
+      const res = await postSplit(parent, [child(20), child(20)]);
       const kid = res.body.children[0].code as string;
       expect(verifyBundle(await bundleOf(odile, kid)).ok).toBe(true);
       // Change the count the split gave this child, in the stored body.
@@ -449,10 +418,7 @@ describe('splits and combinations', () => {
         .post(`/api/lots/${parent}/observations`)
         .set(...CSRF)
         .send({ observations: { note: SECRET_NOTE } });
-      const res = await odile.agent
-        .post(`/api/lots/${parent}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(10, { listed: true }), child(10, { listed: false })] });
+      const res = await postSplit(parent, [child(10, { listed: true }), child(10, { listed: false })]);
       const [listedKid, hiddenKid] = (res.body.children as Array<{ code: string }>).map((c) => c.code);
       const pub = await request(t.app.getHttpServer()).get(`/api/public/lots/${listedKid}`);
       expect(pub.status).toBe(200);
@@ -488,10 +454,7 @@ describe('splits and combinations', () => {
         count: { value: 40, estimated: false },
       });
       const other = await register(odile, { title: 'Other lot', count: { value: 10, estimated: false } });
-      const s = await odile.agent
-        .post(`/api/lots/${top}/splits`)
-        .set(...CSRF)
-        .send({ children: [child(20, { title: 'Left half' }), child(20, { title: 'Right half' })] });
+      const s = await postSplit(top, [child(20, { title: 'Left half' }), child(20, { title: 'Right half' })]);
       const [left, right] = (s.body.children as Array<{ code: string }>).map((c) => c.code);
       const c = await odile.agent
         .post('/api/combinations')

@@ -221,31 +221,18 @@ describe('opinions, dissent and the attribution aid over HTTP', () => {
   it('withdrawal: only by the author, only of a standing opinion', async () => {
     const code = await newLot();
     const seq = (await post(other, code, opinion()).expect(201)).body.seq as number;
-    await holder.agent
-      .post(`/api/lots/${code}/opinions/${seq}/withdrawal`)
-      .set(...CSRF)
-      .send({})
-      .expect(403);
-    await other.agent
-      .post(`/api/lots/${code}/opinions/0/withdrawal`)
-      .set(...CSRF)
-      .send({})
-      .expect(404);
-    await other.agent
-      .post(`/api/lots/${code}/opinions/x/withdrawal`)
-      .set(...CSRF)
-      .send({})
-      .expect(400);
-    await other.agent
-      .post(`/api/lots/${code}/opinions/${seq}/withdrawal`)
-      .set(...CSRF)
-      .send({})
-      .expect(200);
-    await other.agent
-      .post(`/api/lots/${code}/opinions/${seq}/withdrawal`)
-      .set(...CSRF)
-      .send({})
-      .expect(404);
+    const withdraw = (who: TestAccount, which: number | string, status: number) =>
+      who.agent
+        .post(`/api/lots/${code}/opinions/${which}/withdrawal`)
+        .set(...CSRF)
+        .send({})
+        .expect(status);
+    await withdraw(holder, seq, 403);
+    await withdraw(other, 0, 404);
+    await withdraw(other, 'x', 400);
+    await withdraw(other, seq, 200);
+    // Once withdrawn, it is no longer standing.
+    await withdraw(other, seq, 404);
     expect((await roles(code))[seq]).toBeUndefined();
   });
 

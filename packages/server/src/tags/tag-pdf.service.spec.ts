@@ -11,7 +11,7 @@ import {
   tagReference,
 } from '@beadroll/core';
 import { decodeCells, mediaBoxes, rasterise } from '../../test/support/tag-raster';
-import { planTags, type TagLayoutRequest } from './tag-layout';
+import { planTags, type SheetSpec, type TagLayoutRequest } from './tag-layout';
 import { TagPdfService, toWinAnsi, type TagItem } from './tag-pdf.service';
 
 // Outside references used here:
@@ -56,22 +56,18 @@ const A4_10MM_MARGINS = {
   marginLeftMm: 10,
 };
 
+/** String tags on an A4 sheet with 10 mm margins and the grid `grid`. */
+function a4StringTags(grid: Partial<SheetSpec>): TagLayoutRequest {
+  return { design: 'string', sheet: { ...A4_10MM_MARGINS, gapXMm: 3, gapYMm: 3, ...grid } };
+}
+
 function decode(pdf: Buffer, host: string, layout: TagLayoutRequest, list: TagItem[]) {
   return decodeCells(rasterise(pdf), planTags(host, layout, list.length));
 }
 
 describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
   it('fills an A4 sheet of string tags from a skipped cell on; every symbol reads as its payload', async () => {
-    const layout: TagLayoutRequest = {
-      design: 'string',
-      sheet: {
-        ...A4_10MM_MARGINS,
-        gapXMm: 3,
-        gapYMm: 3,
-        skip: 3,
-        outline: true,
-      },
-    };
+    const layout = a4StringTags({ skip: 3, outline: true });
     const list = items(10);
     const pdf = await svc.render(list, layout, HOST);
     const boxes = mediaBoxes(pdf);
@@ -141,16 +137,7 @@ describe('tag PDFs, rendered by pdftoppm and read back by jsQR', () => {
   });
 
   it('goes on to a second sheet when the first is full', async () => {
-    const layout: TagLayoutRequest = {
-      design: 'string',
-      sheet: {
-        ...A4_10MM_MARGINS,
-        columns: 4,
-        rows: 3,
-        gapXMm: 2,
-        gapYMm: 2,
-      },
-    };
+    const layout = a4StringTags({ columns: 4, rows: 3, gapXMm: 2, gapYMm: 2 });
     const pdf = await svc.render(items(13), layout, HOST);
     expect(mediaBoxes(pdf)).toHaveLength(2);
   });
