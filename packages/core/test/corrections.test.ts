@@ -139,27 +139,15 @@ describe('plausibility bounds', () => {
   });
 
   it('refuses an unknown currency and a non-positive amount in sealed money', () => {
-    const r = new RollBuilder();
-    expect(() =>
-      r.add(
+    const register = (cost: { amount: number; currency: string }) => () =>
+      new RollBuilder().add(
         'registered',
         HOLDER,
         { description: description() },
-        {
-          sealed: { 'acquisition-cost': { amount: 100, currency: 'ZZZ' } },
-        },
-      ),
-    ).toThrow(/ISO 4217/);
-    expect(() =>
-      r.add(
-        'registered',
-        HOLDER,
-        { description: description() },
-        {
-          sealed: { 'acquisition-cost': { amount: 0, currency: 'EUR' } },
-        },
-      ),
-    ).toThrow(/above 0/);
+        { sealed: { 'acquisition-cost': cost } },
+      );
+    expect(register({ amount: 100, currency: 'ZZZ' })).toThrow(/ISO 4217/);
+    expect(register({ amount: 0, currency: 'EUR' })).toThrow(/above 0/);
   });
 
   it('version 1 entries written with looser values keep verifying', () => {

@@ -13,6 +13,7 @@ import {
   parseCanonical,
   verifyBundle,
   verifyRoll,
+  type BeadCount,
   type BuiltEntry,
   type FormatVersion,
   type StoredEntry,
@@ -123,6 +124,18 @@ describe('the remaining count is cumulative', () => {
     );
   });
 });
+
+/** The `registered` entry of `kid`, a child of LOT's `split` entry, holding `count` beads. */
+function childOf(split: BuiltEntry, kid: string, count: BeadCount) {
+  return buildEntry(null, {
+    lot: kid,
+    kind: 'registered',
+    actor: HOLDER,
+    time: '2030-01-01T00:00:00.000Z',
+    body: { description: description({ count }) },
+    parents: [{ lot: LOT, seq: split.header.seq, hash: split.stored.hash }],
+  });
+}
 
 /** The n-th of a series of distinct canonical lot codes (data symbols, then the check symbol). */
 function childCode(n: number): string {
@@ -381,14 +394,7 @@ describe('link-scope rolls', () => {
     const extra = parent.add('split', HOLDER, {
       children: [{ lot: childCode(4), count: { value: 5, estimated: false } }],
     });
-    const c = buildEntry(null, {
-      lot: kid,
-      kind: 'registered',
-      actor: HOLDER,
-      time: '2030-01-01T00:00:00.000Z',
-      body: { description: description({ count: { value: 5, estimated: false } }) },
-      parents: [{ lot: LOT, seq: split.header.seq, hash: split.stored.hash }],
-    });
+    const c = childOf(split, kid, { value: 5, estimated: false });
     const good = createBundle([
       { lot: kid, entries: [c.stored] },
       { lot: LOT, scope: 'link', entries: [split.stored] },
@@ -408,14 +414,7 @@ describe('link-scope rolls', () => {
     const split = parent.add('split', HOLDER, {
       children: [{ lot: kid, count: { value: 5, estimated: false } }],
     });
-    const c = buildEntry(null, {
-      lot: kid,
-      kind: 'registered',
-      actor: HOLDER,
-      time: '2030-01-01T00:00:00.000Z',
-      body: { description: description({ count: { value: 5, estimated: true } }) },
-      parents: [{ lot: LOT, seq: split.header.seq, hash: split.stored.hash }],
-    });
+    const c = childOf(split, kid, { value: 5, estimated: true });
     const b = createBundle([
       { lot: LOT, entries: parent.stored },
       { lot: kid, entries: [c.stored] },
