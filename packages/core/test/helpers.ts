@@ -107,6 +107,13 @@ export class RollBuilder {
     this.add('registered', actor, { description: description(over) });
     return this;
   }
+
+  /** Registers this lot as the child `split` (an entry of `parentLot`) made, {@link description} changed by `over`. */
+  registerChild(actor: string, parentLot: string, split: BuiltEntry, over: Partial<LotDescription>): this {
+    const parents = [{ lot: parentLot, seq: split.header.seq, hash: split.stored.hash }];
+    this.add('registered', actor, { description: description(over) }, { parents });
+    return this;
+  }
 }
 
 export function opinion(

@@ -48,22 +48,10 @@ function family(parentListed: boolean) {
     children: [{ lot: CHILD, count: { value: 20, estimated: false } }],
   });
   const child = later(new RollBuilder(CHILD, seededRandom('child')));
-  child.add(
-    'registered',
-    HOLDER,
-    {
-      description: {
-        title: 'Child strand',
-        form: 'strand',
-        count: { value: 20, estimated: false },
-        colours: [],
-        baseGlass: [],
-        decoration: [],
-        listed: true,
-      },
-    },
-    { parents: [{ lot: PARENT, seq: split.header.seq, hash: split.stored.hash }] },
-  );
+  child.registerChild(HOLDER, PARENT, split, {
+    title: 'Child strand',
+    count: { value: 20, estimated: false },
+  });
   return { parent, child, ex, attribution, dissent, split };
 }
 
@@ -134,42 +122,22 @@ describe('the inherited record', () => {
       children: [{ lot: PARENT, count: { value: 60, estimated: false } }],
     });
     const parent = later(new RollBuilder(PARENT, seededRandom('p2')));
-    parent.add(
-      'registered',
-      THIRD,
-      {
-        description: {
-          title: 'Unlisted middle',
-          form: 'loose',
-          count: { value: 60, estimated: false },
-          colours: [],
-          baseGlass: [],
-          decoration: [],
-          listed: false,
-        },
-      },
-      { parents: [{ lot: GRAND, seq: gsplit.header.seq, hash: gsplit.stored.hash }] },
-    );
+    parent.registerChild(THIRD, GRAND, gsplit, {
+      title: 'Unlisted middle',
+      form: 'loose',
+      count: { value: 60, estimated: false },
+      listed: false,
+    });
     const psplit = parent.add('split', THIRD, {
       children: [{ lot: CHILD, count: { value: 10, estimated: false } }],
     });
     const child = later(later(new RollBuilder(CHILD, seededRandom('c2'))));
-    child.add(
-      'registered',
-      HOLDER,
-      {
-        description: {
-          title: 'Grandchild',
-          form: 'loose',
-          count: { value: 10, estimated: false },
-          colours: [],
-          baseGlass: [],
-          decoration: [],
-          listed: true,
-        },
-      },
-      { parents: [{ lot: PARENT, seq: psplit.header.seq, hash: psplit.stored.hash }] },
-    );
+    child.registerChild(HOLDER, PARENT, psplit, {
+      title: 'Grandchild',
+      form: 'loose',
+      count: { value: 10, estimated: false },
+      listed: true,
+    });
     const bundle = createBundle([
       { lot: CHILD, entries: child.stored },
       { lot: PARENT, scope: 'inherited', entries: only(parent.stored, [0, 1], [0]) },
