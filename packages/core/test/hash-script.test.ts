@@ -1,14 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { hexToBytes } from '@noble/hashes/utils.js';
 import vectors from './fixtures/sha256.json' with { type: 'json' };
-
-interface Sha256Case {
-  desc: string;
-  utf8?: string;
-  hex?: string;
-  repeat?: { char: string; count: number };
-  expected: string;
-}
+import type { Sha256Case } from './helpers.js';
 
 // In Node the hash module uses node:crypto; browsers have no such module and take the
 // @noble/hashes path. Here the module is loaded as a browser loads it (no process.getBuiltinModule)

@@ -2,15 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { hexToBytes } from '@noble/hashes/utils.js';
 import { sha256HexOfBytes, sha256HexOfText } from '../src/index.js';
 import vectors from './fixtures/sha256.json' with { type: 'json' };
-
-interface Sha256Case {
-  desc: string;
-  source: string;
-  utf8?: string;
-  hex?: string;
-  repeat?: { char: string; count: number };
-  expected: string;
-}
+import type { Sha256Case } from './helpers.js';
 
 // Each case names its source: FIPS 180-2 Appendix B examples and NIST CAVP SHA256ShortMsg.rsp.
 describe('SHA-256 against FIPS 180 / NIST CAVP known answers', () => {

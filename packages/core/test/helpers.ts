@@ -191,3 +191,13 @@ export function generatedRoll(choices: number[], seed = 'gen', version?: FormatV
   }
   return r;
 }
+
+/** One known answer of fixtures/sha256.json: the message (text, bytes, or a repeated character) and its digest. */
+export interface Sha256Case {
+  desc: string;
+  source: string;
+  utf8?: string;
+  hex?: string;
+  repeat?: { char: string; count: number };
+  expected: string;
+}
