@@ -46,6 +46,26 @@ export interface StoredCopyDifference {
 /** Entries other features keep a row for, remembered while a roll is replayed (a few per lot). */
 const KEPT_KINDS = new Set<string>(['exhibit-added', ...TRANSFER_KINDS, 'sold']);
 
+/**
+ * Feature tables whose rows each copy one kept entry: the entry's kind (and what a row is, for
+ * messages), and the columns that name the lot and the entry's actor.
+ */
+const ENTRY_ROWS = {
+  exhibits: { kind: 'exhibit-added', what: 'an exhibit', code: 'lot_code', actor: 'added_by' },
+  sales: { kind: 'sold', what: 'a sale', code: 'code', actor: 'seller' },
+} as const;
+
+/** Notes that `table.column` (at `seq`) holds `stored` where the roll says `roll`. */
+type Differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) => void;
+
+/** Notes, through `differs`, each column whose stored value is not the roll's: [column, stored, roll]. */
+function comparerOf(differs: Differs) {
+  return (table: string, seq: number | null, columns: [string, unknown, unknown][]): void => {
+    for (const [column, stored, roll] of columns)
+      if (stored !== roll) differs(table, column, seq, stored, roll);
+  };
+}
+
 interface KeptEntry {
   kind: string;
   actor: string;
@@ -152,8 +172,9 @@ export class AuditService {
 
   private async checkLot(lot: LotRow, counted: (n: number) => void): Promise<LotProblem | null> {
     const diffs: StoredCopyDifference[] = [];
-    const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
+    const differs: Differs = (table, column, seq, stored, roll) =>
       diffs.push({ table, column, seq, stored: shown(stored), roll: shown(roll) });
+    const compare = comparerOf(differs);
     let first: EntryHeader | null = null;
     let observations: Observations | null = null;
     const sealedRoots = new Map<number, string>();
@@ -164,12 +185,14 @@ export class AuditService {
       const h = e.header;
       if (h.seq === 0) first = h;
       // Every column kept beside the canonical header must say what the header says.
-      if (row.seq !== h.seq) differs('entries', 'seq', h.seq, row.seq, h.seq);
-      if (row.kind !== h.kind) differs('entries', 'kind', h.seq, row.kind, h.kind);
-      if (row.actor !== h.actor) differs('entries', 'actor', h.seq, row.actor, h.actor);
-      if (row.time !== h.time) differs('entries', 'time', h.seq, row.time, h.time);
       const target = h.kind === 'redacted' && e.body ? (e.body as RedactedBody).target : null;
-      if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
+      compare('entries', h.seq, [
+        ['seq', row.seq, h.seq],
+        ['kind', row.kind, h.kind],
+        ['actor', row.actor, h.actor],
+        ['time', row.time, h.time],
+        ['redacts_seq', row.redactsSeq, target],
+      ]);
       if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
       if (h.sealed) sealedRoots.set(h.seq, h.sealed);
       if (h.sealed) sealedActors.set(h.seq, h.actor);
@@ -185,9 +208,11 @@ export class AuditService {
     const state = JSON.parse(JSON.stringify(result.state)) as RollState;
     const head = result.head;
 
-    if (lot.head_seq !== head.seq) differs('lots', 'head_seq', null, lot.head_seq, head.seq);
-    if (lot.head_hash !== head.hash) differs('lots', 'head_hash', null, lot.head_hash, head.hash);
-    if (lot.head_time !== head.time) differs('lots', 'head_time', null, lot.head_time, head.time);
+    compare('lots', null, [
+      ['head_seq', lot.head_seq, head.seq],
+      ['head_hash', lot.head_hash, head.hash],
+      ['head_time', lot.head_time, head.time],
+    ]);
     for (const d of jsonDifferences(lot.state, state))
       differs('lots', `state.${d.path}`, null, d.stored, d.expected);
 
@@ -324,8 +349,9 @@ export class AuditService {
     lot: LotRow,
     kept: Map<number, KeptEntry>,
     sealed: Array<{ seq: number; name: string; value: string }>,
-    differs: (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) => void,
+    differs: Differs,
   ): Promise<void> {
+    const compare = comparerOf(differs);
     const same = (a: unknown, b: unknown) => jsonDifferences(a, b, 1).length === 0;
     const sameTime = (stored: unknown, time: string) =>
       stored instanceof Date && stored.getTime() === new Date(time).getTime();
@@ -335,42 +361,53 @@ export class AuditService {
       if (e?.kind !== kind) differs(table, '(row)', seq, row, e ? `a ${e.kind} entry` : 'no such entry');
       return e?.kind === kind ? e : undefined;
     };
-    const exhibits: Array<{
+    // Each row of `table` that `sql` reads for this lot, checked against the entry it stands for:
+    // the lot's code and the entry's actor here, the rest by `check`.
+    const eachRow = async <R extends { seq: number }>(
+      table: keyof typeof ENTRY_ROWS,
+      sql: string,
+      check: (row: R, e: KeptEntry) => void,
+    ): Promise<void> => {
+      const { kind, what, code, actor } = ENTRY_ROWS[table];
+      for (const row of (await this.dataSource.query(sql, [lot.id])) as (R & Record<string, unknown>)[]) {
+        const e = entryFor(table, row.seq, kind, what);
+        if (!e) continue;
+        compare(table, row.seq, [
+          [code, row[code], lot.code],
+          [actor, row[actor], e.actor],
+        ]);
+        check(row, e);
+      }
+    };
+    await eachRow<{
       seq: number;
       lot_code: string;
       added_by: string;
       sealed: boolean;
       original_sha256: string;
       ref: ExhibitRef;
-    }> = await this.dataSource.query(
+    }>(
+      'exhibits',
       `SELECT "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
         WHERE "lot_id" = $1 ORDER BY "seq"`,
-      [lot.id],
+      (x, e) => {
+        if (x.original_sha256 !== x.ref?.original?.sha256)
+          differs('exhibits', 'original_sha256', x.seq, x.original_sha256, x.ref?.original?.sha256);
+        const body = e.body as ExhibitAddedBody | null;
+        if (!body) return differs('exhibits', '(row)', x.seq, 'an exhibit', 'a removed exhibit');
+        const isSealed = !('exhibit' in body);
+        if (x.sealed !== isSealed) differs('exhibits', 'sealed', x.seq, x.sealed, isSealed);
+        const committed =
+          'exhibit' in body
+            ? body.exhibit
+            : (() => {
+                const f = sealed.find((s) => s.seq === x.seq && s.name === 'sealed-exhibit');
+                return f ? (JSON.parse(f.value) as unknown) : undefined;
+              })();
+        if (committed !== undefined && !same(x.ref, committed))
+          differs('exhibits', 'ref', x.seq, x.ref, committed);
+      },
     );
-    for (const x of exhibits) {
-      const e = entryFor('exhibits', x.seq, 'exhibit-added', 'an exhibit');
-      if (!e) continue;
-      if (x.lot_code !== lot.code) differs('exhibits', 'lot_code', x.seq, x.lot_code, lot.code);
-      if (x.added_by !== e.actor) differs('exhibits', 'added_by', x.seq, x.added_by, e.actor);
-      if (x.original_sha256 !== x.ref?.original?.sha256)
-        differs('exhibits', 'original_sha256', x.seq, x.original_sha256, x.ref?.original?.sha256);
-      const body = e.body as ExhibitAddedBody | null;
-      if (!body) {
-        differs('exhibits', '(row)', x.seq, 'an exhibit', 'a removed exhibit');
-        continue;
-      }
-      const isSealed = !('exhibit' in body);
-      if (x.sealed !== isSealed) differs('exhibits', 'sealed', x.seq, x.sealed, isSealed);
-      const committed =
-        'exhibit' in body
-          ? body.exhibit
-          : (() => {
-              const f = sealed.find((s) => s.seq === x.seq && s.name === 'sealed-exhibit');
-              return f ? (JSON.parse(f.value) as unknown) : undefined;
-            })();
-      if (committed !== undefined && !same(x.ref, committed))
-        differs('exhibits', 'ref', x.seq, x.ref, committed);
-    }
 
     const offers: Array<{
       code: string;
@@ -393,8 +430,10 @@ export class AuditService {
     for (const o of offers) {
       const e = entryFor('transfer_offers', o.offer_seq, 'transfer-offered', 'an offer');
       if (!e) continue;
-      if (o.code !== lot.code) differs('transfer_offers', 'code', o.offer_seq, o.code, lot.code);
-      if (o.offerer !== e.actor) differs('transfer_offers', 'offerer', o.offer_seq, o.offerer, e.actor);
+      compare('transfer_offers', o.offer_seq, [
+        ['code', o.code, lot.code],
+        ['offerer', o.offerer, e.actor],
+      ]);
       const recipient = (e.body as TransferOfferedBody | null)?.recipient;
       if (recipient !== undefined && o.recipient !== recipient)
         differs('transfer_offers', 'recipient', o.offer_seq, o.recipient, recipient);
@@ -416,21 +455,16 @@ export class AuditService {
         differs('transfer_offers', 'answered_at', o.offer_seq, o.answered_at, answer?.[1].time ?? null);
     }
 
-    const sales: Array<{ code: string; seq: number; seller: string; sold_on: string; recorded_at: Date }> =
-      await this.dataSource.query(
-        `SELECT "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
-          WHERE "lot_id" = $1 ORDER BY "seq"`,
-        [lot.id],
-      );
-    for (const x of sales) {
-      const e = entryFor('sales', x.seq, 'sold', 'a sale');
-      if (!e) continue;
-      if (x.code !== lot.code) differs('sales', 'code', x.seq, x.code, lot.code);
-      if (x.seller !== e.actor) differs('sales', 'seller', x.seq, x.seller, e.actor);
-      const date = (e.body as SoldBody | null)?.date;
-      if (date !== undefined && x.sold_on !== date) differs('sales', 'sold_on', x.seq, x.sold_on, date);
-      if (!sameTime(x.recorded_at, e.time)) differs('sales', 'recorded_at', x.seq, x.recorded_at, e.time);
-    }
+    await eachRow<{ code: string; seq: number; seller: string; sold_on: string; recorded_at: Date }>(
+      'sales',
+      `SELECT "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
+        WHERE "lot_id" = $1 ORDER BY "seq"`,
+      (x, e) => {
+        const date = (e.body as SoldBody | null)?.date;
+        if (date !== undefined && x.sold_on !== date) differs('sales', 'sold_on', x.seq, x.sold_on, date);
+        if (!sameTime(x.recorded_at, e.time)) differs('sales', 'recorded_at', x.seq, x.recorded_at, e.time);
+      },
+    );
   }
 }
 
