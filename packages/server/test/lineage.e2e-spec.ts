@@ -16,7 +16,7 @@ import { AppError } from '../src/common/app-error';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { type TestAccount, useAccount } from './support/accounts';
-import { description, registerLot } from './support/lot-fixtures';
+import { description, offerOnRoll, registerLot } from './support/lot-fixtures';
 import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
@@ -152,11 +152,7 @@ describe('splits and combinations', () => {
       const unlisted = await register(teodor, { listed: false });
       const listed = await register(teodor);
       const offered = await register(odile);
-      await ledger.append(offered, {
-        kind: 'transfer-offered',
-        actor: odile.id,
-        body: { recipient: teodor.id },
-      });
+      await offerOnRoll(ledger, offered, odile, teodor);
       const before = await totals();
       const send = (code: string) => postSplit(code, [child(10), child(10)]);
       expect((await send(unlisted)).status).toBe(404);
@@ -213,11 +209,7 @@ describe('splits and combinations', () => {
       const theirs = await register(teodor);
       const hidden = await register(teodor, { listed: false });
       const offered = await register(odile);
-      await ledger.append(offered, {
-        kind: 'transfer-offered',
-        actor: odile.id,
-        body: { recipient: teodor.id },
-      });
+      await offerOnRoll(ledger, offered, odile, teodor);
       // A lot made from `a`: combining it with `a` would count the same beads twice.
       const split = await postSplit(a, [child(5), child(5)]);
       const fromA = split.body.children[0].code as string;

@@ -4,7 +4,7 @@ import { DataSource } from 'typeorm';
 import { FakeSmtpService } from '../src/mail/fake-smtp.service';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount, useAccount } from './support/accounts';
-import { description, opinionDraft } from './support/lot-fixtures';
+import { description, handOver, opinionDraft } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
 type Draft = Omit<OpinionBody, 'nonce'>;
@@ -141,14 +141,7 @@ describe('opinions, dissent and the attribution aid over HTTP', () => {
   it('dissent rules: after a transfer the earlier holder’s opinion is an ordinary one and can dissent', async () => {
     const code = await newLot();
     const old = (await post(holder, code, opinion()).expect(201)).body.seq as number;
-    // No transfer routes yet: the transfer goes through the ledger's append path directly.
-    const ledger = t.app.get(LedgerService);
-    const offer = await ledger.append(code, {
-      kind: 'transfer-offered',
-      actor: holder.id,
-      body: { recipient: other.id },
-    });
-    await ledger.append(code, { kind: 'transfer-accepted', actor: other.id, body: { offerSeq: offer.seq } });
+    await handOver(holder, code, other);
     let list = (await other.agent.get(`/api/lots/${code}/opinions`).expect(200)).body;
     expect(list.holder).toBe(other.id);
     expect(list.attribution).toBeNull();

@@ -8,7 +8,7 @@ import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { BlockedDigestsService } from '../src/registry/blocked-digests.service';
 import { createAccount, type TestAccount, useAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
+import { description, offerOnRoll } from './support/lot-fixtures';
 import { lastMailTo } from './support/mail';
 import { expectRefusedToAll, useTestApp } from './support/test-app';
 
@@ -278,16 +278,8 @@ describe("the registrar's tools", () => {
       const seller = await createAccount(t, { role: 'dealer' });
       const code = await newLot(seller);
       const incoming = await newLot(other);
-      await ledger.append(code, {
-        kind: 'transfer-offered',
-        actor: seller.id,
-        body: { recipient: other.id },
-      });
-      await ledger.append(incoming, {
-        kind: 'transfer-offered',
-        actor: other.id,
-        body: { recipient: seller.id },
-      });
+      await offerOnRoll(ledger, code, seller, other);
+      await offerOnRoll(ledger, incoming, other, seller);
 
       await registrar.agent
         .post(`/api/registry/accounts/${seller.id}/suspend`)
@@ -360,11 +352,7 @@ describe("the registrar's tools", () => {
         business: 'Venn Beads',
       });
       const code = await newLot(leaving);
-      await ledger.append(code, {
-        kind: 'transfer-offered',
-        actor: leaving.id,
-        body: { recipient: other.id },
-      });
+      await offerOnRoll(ledger, code, leaving, other);
 
       const dl = await leaving.agent.get('/api/account/personal-data').expect(200);
       expect(dl.headers['content-disposition']).toContain('attachment');

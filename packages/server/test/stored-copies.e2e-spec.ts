@@ -5,7 +5,7 @@ import { refreshStoredCopies } from '../src/audit/refresh-stored-copies';
 import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
-import { description } from './support/lot-fixtures';
+import { description, offerOnRoll } from './support/lot-fixtures';
 import { superuserClient, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
@@ -234,11 +234,7 @@ describe('stored copies of a roll', () => {
 
   it('reports a changed exhibit row, transfer offer row or sale row', async () => {
     const offered = await newLot();
-    await ledger.append(offered, {
-      kind: 'transfer-offered',
-      actor: holder.id,
-      body: { recipient: other.id },
-    });
+    await offerOnRoll(ledger, offered, holder, other);
     const sold = await newLot();
     await ledger.append(sold, { kind: 'sold', actor: holder.id, body: { date: '2026-11-28' } });
     // An exhibit of the demo scenario (loaded by an earlier test).

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { LotDescription, OpinionBody } from '@beadroll/core';
+import type { LedgerService } from '../../src/ledger/ledger.service';
 import type { Viewer } from '../../src/lots/lots.service';
 import type { TestAccount } from './accounts';
 
@@ -78,4 +79,9 @@ export async function handOver(from: TestAccount, code: string, to: TestAccount)
     .set('X-Beadroll-Request', '1')
     .send({})
     .expect(200);
+}
+
+/** Writes a `transfer-offered` entry straight through the ledger: `from` offers `code` to `to`. */
+export function offerOnRoll(ledger: LedgerService, code: string, from: { id: string }, to: { id: string }) {
+  return ledger.append(code, { kind: 'transfer-offered', actor: from.id, body: { recipient: to.id } });
 }
