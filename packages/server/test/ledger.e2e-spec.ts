@@ -18,7 +18,7 @@ import { LogSequencer } from '../src/ledger/log-sequencer';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { LotsService } from '../src/lots/lots.service';
 import { dealer, description } from './support/lot-fixtures';
-import { expectRefusedToAll, superuserClient, useTestApp } from './support/test-app';
+import { expectRefusedToAll, tamper, useTestApp } from './support/test-app';
 
 describe('the ledger on PostgreSQL', () => {
   let ledger: LedgerService;
@@ -359,17 +359,6 @@ describe('the ledger on PostgreSQL', () => {
   });
 
   describe('tampering', () => {
-    async function tamper(sql: string, params: unknown[]): Promise<void> {
-      const su = await superuserClient(t.db.name);
-      try {
-        // A superuser can switch triggers off for its session: the one way to change a stored row.
-        await su.query('SET session_replication_role = replica');
-        await su.query(sql, params);
-      } finally {
-        await su.end();
-      }
-    }
-
     it('a changed body, header or hash is named by the verifier and by the audit', async () => {
       const me = dealer();
       const made: string[] = [];
@@ -388,16 +377,19 @@ describe('the ledger on PostgreSQL', () => {
         )[0]!.id;
       // 1: a body changed in place.
       await tamper(
+        t,
         `UPDATE entry_bodies SET body = replace(body, '"powder"', '"clean"') WHERE entry_id = $1`,
         [await entryId(made[0]!, 2)],
       );
       // 2: a header changed: its kind no longer fits its rule facts, which a verifier reads
       // before it recomputes the hash (the stored hash no longer matches either).
-      await tamper(`UPDATE entries SET header = replace(header, '"observed"', '"described"') WHERE id = $1`, [
-        await entryId(made[1]!, 1),
-      ]);
+      await tamper(
+        t,
+        `UPDATE entries SET header = replace(header, '"observed"', '"described"') WHERE id = $1`,
+        [await entryId(made[1]!, 1)],
+      );
       // 3: a body dropped without a redaction.
-      await tamper('DELETE FROM entry_bodies WHERE entry_id = $1', [await entryId(made[2]!, 1)]);
+      await tamper(t, 'DELETE FROM entry_bodies WHERE entry_id = $1', [await entryId(made[2]!, 1)]);
 
       const expected = [
         { lot: made[0], seq: 2, reason: 'bad-body-digest' },

@@ -17,7 +17,7 @@ import { LedgerService } from '../src/ledger/ledger.service';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { type TestAccount, useAccount } from './support/accounts';
 import { description, offerOnRoll, registerLot } from './support/lot-fixtures';
-import { superuserClient, useTestApp } from './support/test-app';
+import { tamper, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
@@ -380,17 +380,12 @@ describe('splits and combinations', () => {
       const kid = res.body.children[0].code as string;
       expect(verifyBundle(await bundleOf(odile, kid)).ok).toBe(true);
       // Change the count the split gave this child, in the stored body.
-      const su = await superuserClient(t.db.name);
-      try {
-        await su.query('SET session_replication_role = replica');
-        await su.query(
-          `UPDATE entry_bodies SET body = replace(body, '"value":20', '"value":21') WHERE entry_id =
+      await tamper(
+        t,
+        `UPDATE entry_bodies SET body = replace(body, '"value":20', '"value":21') WHERE entry_id =
              (SELECT e.id FROM entries e JOIN lots l ON l.id = e.lot_id WHERE l.code = $1 AND e.kind = 'split')`,
-          [parent],
-        );
-      } finally {
-        await su.end();
-      }
+        [parent],
+      );
       const v = verifyBundle(await bundleOf(odile, kid));
       expect(v.ok).toBe(false);
       expect(v.failures).toContainEqual(expect.objectContaining({ lot: parent, reason: 'bad-body-digest' }));

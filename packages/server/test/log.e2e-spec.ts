@@ -22,7 +22,7 @@ import { CheckpointsService } from '../src/log/checkpoints.service';
 import { LogSequencer } from '../src/ledger/log-sequencer';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { superuserClient, useTestApp } from './support/test-app';
+import { superuserClient, tamper, useTestApp } from './support/test-app';
 
 const CSRF: [string, string] = ['X-Beadroll-Request', '1'];
 
@@ -220,13 +220,7 @@ describe('the ledger-wide log', () => {
     expect(await runWitness(opts)).toMatchObject({ status: 'cosigned' });
     const seen = JSON.parse(readFileSync(opts.stateFile, 'utf8')).checkpoint as string;
 
-    const su = await superuserClient(t.db.name);
-    try {
-      await su.query('SET session_replication_role = replica');
-      await su.query(`UPDATE entries SET hash = repeat('ab', 32) WHERE log_index = 3`);
-    } finally {
-      await su.end();
-    }
+    await tamper(t, `UPDATE entries SET hash = repeat('ab', 32) WHERE log_index = 3`);
     await ledger.append(lots[2]!, { kind: 'note', actor, body: { text: 'after the rewrite' } });
     const refused = await sign();
     expect(refused).toMatchObject({ signed: false, refused: expect.stringContaining('not consistent') });

@@ -7,7 +7,7 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { createAccount, type TestAccount, useAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { superuserClient, useTestApp } from './support/test-app';
+import { tamper, useTestApp } from './support/test-app';
 
 const REPO = resolve(__dirname, '../../..');
 const W = { 'X-Beadroll-Request': '1' };
@@ -254,17 +254,12 @@ describe('lots over HTTP', () => {
     expect(events.some((e) => e.type === 'progress')).toBe(true);
     expect(events.at(-1)).toMatchObject({ type: 'done', ok: true, broken: 0 });
 
-    const su = await superuserClient(t.db.name);
-    try {
-      await su.query('SET session_replication_role = replica');
-      await su.query(
-        `UPDATE entry_bodies SET body = replace(body, '"glossy"', '"matte"')
+    await tamper(
+      t,
+      `UPDATE entry_bodies SET body = replace(body, '"glossy"', '"matte"')
          WHERE entry_id = (SELECT e.id FROM entries e JOIN lots l ON l.id = e.lot_id WHERE l.code = $1 AND e.seq = 1)`,
-        [lot.code],
-      );
-    } finally {
-      await su.end();
-    }
+      [lot.code],
+    );
     const broken = await registrar.agent
       .get('/api/audit/ledger')
       .buffer(true)

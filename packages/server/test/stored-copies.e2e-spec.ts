@@ -6,7 +6,7 @@ import { runSeed } from '../src/demo/seed';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { createAccount, type TestAccount } from './support/accounts';
 import { description, offerOnRoll } from './support/lot-fixtures';
-import { superuserClient, useTestApp } from './support/test-app';
+import { tamper, useTestApp } from './support/test-app';
 
 const CSRF = ['X-Beadroll-Request', '1'] as const;
 
@@ -32,17 +32,6 @@ describe('stored copies of a roll', () => {
       createAccount(t, { role: 'dealer' }),
     ]);
   });
-
-  /** A superuser with triggers off for its session: the one way to change a stored row. */
-  async function tamper(sql: string, params: unknown[]): Promise<void> {
-    const su = await superuserClient(t.db.name);
-    try {
-      await su.query('SET session_replication_role = replica');
-      await su.query(sql, params);
-    } finally {
-      await su.end();
-    }
-  }
 
   async function audit(): Promise<{ broken: Broken[]; done: AuditEvent }> {
     const events: AuditEvent[] = [];
@@ -119,6 +108,7 @@ describe('stored copies of a roll', () => {
       await observe(holder, code, 'Restrung on silk.').expect(201);
       codes.push(code);
       await tamper(
+        t,
         `UPDATE "entries" SET ${c.sql} WHERE "lot_id" = (SELECT "id" FROM "lots" WHERE "code" = $1) AND "seq" = 2`,
         c.param ? [code, c.param] : [code],
       );
@@ -158,6 +148,7 @@ describe('stored copies of a roll', () => {
   async function tamperBack(codes: string[]): Promise<void> {
     for (const code of codes) {
       await tamper(
+        t,
         `UPDATE "entries" e SET "seq" = (e."header"::jsonb ->> 'seq')::int, "time" = e."header"::jsonb ->> 'time',
             "actor" = e."header"::jsonb ->> 'actor'
           WHERE e."lot_id" = (SELECT "id" FROM "lots" WHERE "code" = $1)`,
@@ -171,10 +162,11 @@ describe('stored copies of a roll', () => {
     const code = await newLot();
     // Both cached copies of the holder now name another dealer; the roll still names the holder.
     await tamper(
+      t,
       `UPDATE "lots" SET "state" = jsonb_set("state", '{holder}', to_jsonb($2::text)) WHERE "code" = $1`,
       [code, other.id],
     );
-    await tamper(`UPDATE "lot_views" SET "holder" = $2 WHERE "code" = $1`, [code, other.id]);
+    await tamper(t, `UPDATE "lot_views" SET "holder" = $2 WHERE "code" = $1`, [code, other.id]);
 
     const { broken } = await audit();
     const b = broken.find((x) => x.lot === code);
@@ -199,6 +191,7 @@ describe('stored copies of a roll', () => {
   it('refuses every write to a lot whose stored roll no longer verifies', async () => {
     const code = await newLot();
     await tamper(
+      t,
       `UPDATE "entries" SET "header" = replace("header", '"registered"', '"described"')
         WHERE "lot_id" = (SELECT "id" FROM "lots" WHERE "code" = $1) AND "seq" = 0`,
       [code],
@@ -216,9 +209,14 @@ describe('stored copies of a roll', () => {
     const headLot = await newLot();
     const viewLot = await newLot();
     const sealedLot = await newLot();
-    await tamper(`UPDATE "lots" SET "head_time" = '2030-01-01T00:00:00.000Z' WHERE "code" = $1`, [headLot]);
-    await tamper(`UPDATE "lot_views" SET "listed" = false, "count_value" = 4 WHERE "code" = $1`, [viewLot]);
+    await tamper(t, `UPDATE "lots" SET "head_time" = '2030-01-01T00:00:00.000Z' WHERE "code" = $1`, [
+      headLot,
+    ]);
+    await tamper(t, `UPDATE "lot_views" SET "listed" = false, "count_value" = 4 WHERE "code" = $1`, [
+      viewLot,
+    ]);
     await tamper(
+      t,
       `UPDATE "sealed_fields" SET "value" = '{"amount":1,"currency":"EUR"}' WHERE "entry_id" =
          (SELECT e."id" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."seq" = 0)`,
       [sealedLot],
@@ -245,12 +243,15 @@ describe('stored copies of a roll', () => {
       seq: number;
     }>;
     expect(exhibit).toBeDefined();
-    await tamper(`UPDATE "transfer_offers" SET "recipient" = $2 WHERE "code" = $1`, [offered, registrar.id]);
-    await tamper(`UPDATE "sales" SET "seller" = $2, "sold_on" = '2026-01-01' WHERE "code" = $1`, [
+    await tamper(t, `UPDATE "transfer_offers" SET "recipient" = $2 WHERE "code" = $1`, [
+      offered,
+      registrar.id,
+    ]);
+    await tamper(t, `UPDATE "sales" SET "seller" = $2, "sold_on" = '2026-01-01' WHERE "code" = $1`, [
       sold,
       other.id,
     ]);
-    await tamper(`UPDATE "exhibits" SET "added_by" = $3 WHERE "lot_code" = $1 AND "seq" = $2`, [
+    await tamper(t, `UPDATE "exhibits" SET "added_by" = $3 WHERE "lot_code" = $1 AND "seq" = $2`, [
       exhibit!.lot_code,
       exhibit!.seq,
       other.id,
@@ -267,10 +268,11 @@ describe('stored copies of a roll', () => {
     const code = await newLot();
     // A state as the version-1 reducer cached it: none of the fields version 2 added.
     await tamper(
+      t,
       `UPDATE "lots" SET "state" = "state" - 'count' - 'taken' - 'exhibits' - 'version' WHERE "code" = $1`,
       [code],
     );
-    await tamper(`UPDATE "lot_views" SET "count_value" = 3 WHERE "code" = $1`, [code]);
+    await tamper(t, `UPDATE "lot_views" SET "count_value" = 3 WHERE "code" = $1`, [code]);
     expect((await audit()).broken.find((x) => x.lot === code)).toMatchObject({ reason: STORED_COPY });
     expect(await refreshStoredCopies(t.app.get(DataSource).manager)).toBeGreaterThan(0);
     expect((await audit()).broken.find((x) => x.lot === code)).toBeUndefined();

@@ -170,6 +170,20 @@ export function useTestApp(env: () => Record<string, string> = () => ({})): Test
   };
 }
 
+/**
+ * Runs `sql` on the test database as a superuser with triggers switched off for its session: the
+ * one way to change a stored row of the append-only tables, as an attacker with the database would.
+ */
+export async function tamper(t: TestApp, sql: string, params: unknown[] = []): Promise<void> {
+  const su = await superuserClient(t.db.name);
+  try {
+    await su.query('SET session_replication_role = replica');
+    await su.query(sql, params);
+  } finally {
+    await su.end();
+  }
+}
+
 /** Expects the database to refuse `sql` from the app's own role and from a superuser alike. */
 export async function expectRefusedToAll(t: TestApp, appRole: DataSource, sql: string): Promise<void> {
   await expect(appRole.query(sql)).rejects.toThrow(/refused/);
