@@ -2,6 +2,10 @@ import {
   Column,
   type ColumnOptions,
   CreateDateColumn,
+  JoinColumn,
+  ManyToOne,
+  type ObjectType,
+  OneToOne,
   PrimaryGeneratedColumn,
   UpdateDateColumn,
 } from 'typeorm';
@@ -108,4 +112,23 @@ export function Word(extras: ColumnExtras = {}): PropertyDecorator {
 /** `lot_id uuid`: the lot a row is about. */
 export function LotId(): PropertyDecorator {
   return typed({ type: 'uuid' });
+}
+
+/**
+ * The link from a row of `table` to the row of `target` it belongs to, through its column `column`
+ * (`lot_id`, `entry_id`), under the foreign key `fk_<table>_<lot|entry>` with the migration's
+ * `onDelete` rule; `one` when the row shares that row's key (one-to-one), else many-to-one.
+ */
+export function BelongsTo<T>(
+  target: () => ObjectType<T>,
+  table: string,
+  column: 'lot_id' | 'entry_id',
+  rule: { onDelete: 'RESTRICT' | 'CASCADE'; one?: boolean },
+): PropertyDecorator {
+  const relation = (rule.one ? OneToOne : ManyToOne)(target, { onDelete: rule.onDelete });
+  const join = JoinColumn({ name: column, foreignKeyConstraintName: `fk_${table}_${column.slice(0, -3)}` });
+  return (proto, property) => {
+    join(proto, property);
+    relation(proto, property);
+  };
 }

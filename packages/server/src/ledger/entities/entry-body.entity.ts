@@ -1,4 +1,4 @@
-import { Entity, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import { Entity, PrimaryColumn } from 'typeorm';
 import * as Col from '../../database/columns';
 import { EntryEntity } from './entry.entity';
 
@@ -12,8 +12,7 @@ export class EntryBodyEntity {
   @PrimaryColumn({ name: 'entry_id', type: 'bigint', primaryKeyConstraintName: 'pk_entry_bodies' })
   entryId: string;
 
-  @OneToOne(() => EntryEntity, { onDelete: 'RESTRICT' })
-  @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_entry_bodies_entry' })
+  @Col.BelongsTo(() => EntryEntity, 'entry_bodies', 'entry_id', { onDelete: 'RESTRICT', one: true })
   entry?: EntryEntity;
 
   @Col.Text()

@@ -1,4 +1,4 @@
-import { Check, Column, Entity, Index, JoinColumn, ManyToOne, Unique } from 'typeorm';
+import { Check, Column, Entity, Index, Unique } from 'typeorm';
 import * as Col from '../../database/columns';
 import { LotEntity } from './lot.entity';
 
@@ -23,8 +23,7 @@ export class EntryEntity {
   @Col.LotId()
   lotId: string;
 
-  @ManyToOne(() => LotEntity, { onDelete: 'RESTRICT' })
-  @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_entries_lot' })
+  @Col.BelongsTo(() => LotEntity, 'entries', 'lot_id', { onDelete: 'RESTRICT' })
   lot?: LotEntity;
 
   @Col.Integer()

@@ -1,4 +1,4 @@
-import { Check, Column, Entity, JoinColumn, ManyToOne, Unique } from 'typeorm';
+import { Check, Column, Entity, Unique } from 'typeorm';
 import * as Col from '../../database/columns';
 import { EntryEntity } from './entry.entity';
 
@@ -18,8 +18,7 @@ export class SealedFieldEntity {
   @Column({ name: 'entry_id', type: 'bigint' })
   entryId: string;
 
-  @ManyToOne(() => EntryEntity, { onDelete: 'RESTRICT' })
-  @JoinColumn({ name: 'entry_id', foreignKeyConstraintName: 'fk_sealed_fields_entry' })
+  @Col.BelongsTo(() => EntryEntity, 'sealed_fields', 'entry_id', { onDelete: 'RESTRICT' })
   entry?: EntryEntity;
 
   @Col.Varchar(40)

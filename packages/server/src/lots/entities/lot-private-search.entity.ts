@@ -1,4 +1,4 @@
-import { Entity, Index, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
+import { Entity, Index, PrimaryColumn } from 'typeorm';
 import * as Col from '../../database/columns';
 import { LotEntity } from '../../ledger/entities/lot.entity';
 
@@ -20,8 +20,7 @@ export class LotPrivateSearchEntity {
   })
   accountId: string;
 
-  @ManyToOne(() => LotEntity, { onDelete: 'CASCADE' })
-  @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_lot_private_search_lot' })
+  @Col.BelongsTo(() => LotEntity, 'lot_private_search', 'lot_id', { onDelete: 'CASCADE' })
   lot?: LotEntity;
 
   @Col.Text()

@@ -1,4 +1,4 @@
-import { Entity, Index, JoinColumn, OneToOne, PrimaryColumn } from 'typeorm';
+import { Entity, Index, PrimaryColumn } from 'typeorm';
 import * as Col from '../../database/columns';
 import type { Observations } from '@beadroll/core';
 import { LotEntity } from '../../ledger/entities/lot.entity';
@@ -17,8 +17,7 @@ export class LotViewEntity {
   @PrimaryColumn({ name: 'lot_id', type: 'uuid', primaryKeyConstraintName: 'pk_lot_views' })
   lotId: string;
 
-  @OneToOne(() => LotEntity, { onDelete: 'RESTRICT' })
-  @JoinColumn({ name: 'lot_id', foreignKeyConstraintName: 'fk_lot_views_lot' })
+  @Col.BelongsTo(() => LotEntity, 'lot_views', 'lot_id', { onDelete: 'RESTRICT', one: true })
   lot?: LotEntity;
 
   @Col.LotCode()
