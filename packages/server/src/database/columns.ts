@@ -6,6 +6,7 @@ import {
   ManyToOne,
   type ObjectType,
   OneToOne,
+  PrimaryColumn,
   PrimaryGeneratedColumn,
   UpdateDateColumn,
 } from 'typeorm';
@@ -29,6 +30,15 @@ function typed(options: ColumnOptions): PropertyDecorator {
 /** `id uuid`, generated, as the primary key `pk_<table>`. */
 export function UuidPrimary(table: string): PropertyDecorator {
   return PrimaryGeneratedColumn('uuid', { primaryKeyConstraintName: `pk_${table}` });
+}
+
+/**
+ * `lot_id uuid` or `entry_id bigint` as (part of) the primary key `pk_<table>`: a row that shares
+ * the key of the lot or entry it belongs to (see {@link BelongsTo}).
+ */
+export function SharedKey(table: string, column: 'lot_id' | 'entry_id'): PropertyDecorator {
+  const type = column === 'lot_id' ? 'uuid' : 'bigint';
+  return PrimaryColumn({ name: column, type, primaryKeyConstraintName: `pk_${table}` });
 }
 
 /** `id bigint GENERATED ALWAYS AS IDENTITY`, the primary key `pk_<table>` (read as a string). */

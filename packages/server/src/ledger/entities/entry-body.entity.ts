@@ -1,4 +1,4 @@
-import { Entity, PrimaryColumn } from 'typeorm';
+import { Entity } from 'typeorm';
 import * as Col from '../../database/columns';
 import { EntryEntity } from './entry.entity';
 
@@ -9,7 +9,7 @@ import { EntryEntity } from './entry.entity';
  */
 @Entity({ name: 'entry_bodies' })
 export class EntryBodyEntity {
-  @PrimaryColumn({ name: 'entry_id', type: 'bigint', primaryKeyConstraintName: 'pk_entry_bodies' })
+  @Col.SharedKey('entry_bodies', 'entry_id')
   entryId: string;
 
   @Col.BelongsTo(() => EntryEntity, 'entry_bodies', 'entry_id', { onDelete: 'RESTRICT', one: true })

@@ -9,7 +9,7 @@ import { LotEntity } from '../../ledger/entities/lot.entity';
 @Entity({ name: 'lot_private_search' })
 @Index('ix_lot_private_search_account', ['accountId'])
 export class LotPrivateSearchEntity {
-  @PrimaryColumn({ name: 'lot_id', type: 'uuid', primaryKeyConstraintName: 'pk_lot_private_search' })
+  @Col.SharedKey('lot_private_search', 'lot_id')
   lotId: string;
 
   @PrimaryColumn({

@@ -1,4 +1,4 @@
-import { Entity, Index, PrimaryColumn } from 'typeorm';
+import { Entity, Index } from 'typeorm';
 import * as Col from '../../database/columns';
 import type { Observations } from '@beadroll/core';
 import { LotEntity } from '../../ledger/entities/lot.entity';
@@ -14,7 +14,7 @@ import { LotEntity } from '../../ledger/entities/lot.entity';
 @Index('ix_lot_views_code', ['code'], { unique: true })
 @Index('ix_lot_views_holder_updated', ['holder', 'updatedAt'])
 export class LotViewEntity {
-  @PrimaryColumn({ name: 'lot_id', type: 'uuid', primaryKeyConstraintName: 'pk_lot_views' })
+  @Col.SharedKey('lot_views', 'lot_id')
   lotId: string;
 
   @Col.BelongsTo(() => LotEntity, 'lot_views', 'lot_id', { onDelete: 'RESTRICT', one: true })
