@@ -4,7 +4,7 @@ import { DataSource } from 'typeorm';
 import { Account } from '../../src/accounts/entities/account.entity';
 import type { AccountStatus, Role } from '../../src/auth/auth.decorators';
 import { PasswordsService } from '../../src/auth/passwords.service';
-import type { TestApp } from './test-app';
+import { readThrough, type TestApp } from './test-app';
 
 /** Every field of a dealer's public card, sorted: nothing the dealer keeps private (e-mail, address). */
 export const PUBLIC_CARD_FIELDS = [
@@ -91,21 +91,5 @@ export function useAccount(t: TestApp, opts: CreateAccountOptions): TestAccount 
   beforeAll(async () => {
     a = await createAccount(t, opts);
   });
-  return {
-    get id() {
-      return a!.id;
-    },
-    get handle() {
-      return a!.handle;
-    },
-    get email() {
-      return a!.email;
-    },
-    get password() {
-      return a!.password;
-    },
-    get agent() {
-      return a!.agent;
-    },
-  };
+  return readThrough(() => a, ['id', 'handle', 'email', 'password', 'agent']);
 }

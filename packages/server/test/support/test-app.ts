@@ -156,18 +156,17 @@ export function useTestApp(env: () => Record<string, string> = () => ({})): Test
   afterAll(async () => {
     await current?.close();
   });
-  return {
-    get app() {
-      return current!.app;
-    },
-    get db() {
-      return current!.db;
-    },
-    get dataDir() {
-      return current!.dataDir;
-    },
-    close: () => current!.close(),
-  };
+  return readThrough(() => current, ['app', 'db', 'dataDir', 'close']);
+}
+
+/**
+ * An object whose properties `keys` read through, at each use, to what `current()` returns then:
+ * for a value a `beforeAll` makes, handed out while its `describe` is being declared.
+ */
+export function readThrough<T extends object>(current: () => T | undefined, keys: (keyof T)[]): T {
+  const view = {} as T;
+  for (const key of keys) Object.defineProperty(view, key, { enumerable: true, get: () => current()![key] });
+  return view;
 }
 
 /**
