@@ -142,3 +142,22 @@ export function BelongsTo<T>(
     relation(proto, property);
   };
 }
+
+/**
+ * The columns a row kept about one lot starts with (an offer, a sale, an invitation, a request):
+ * its own `id uuid` under the primary key `pk_<table>`, then the lot's id and canonical code.
+ * Entities extend the class it returns.
+ */
+export function LotRowColumns(table: string) {
+  abstract class LotRow {
+    @UuidPrimary(table)
+    id: string;
+
+    @LotId()
+    lotId: string;
+
+    @LotCode()
+    code: string;
+  }
+  return LotRow;
+}

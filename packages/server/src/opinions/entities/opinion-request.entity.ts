@@ -9,16 +9,7 @@ export type OpinionRequestStatus = 'open' | 'answered' | 'cancelled';
 @Index('ix_opinion_requests_assessor', ['assessor', 'status'])
 @Index('ix_opinion_requests_requester', ['requester', 'createdAt'])
 @Check('ck_opinion_requests_status', `"status" IN ('open', 'answered', 'cancelled')`)
-export class OpinionRequestEntity {
-  @Col.UuidPrimary('opinion_requests')
-  id: string;
-
-  @Col.LotId()
-  lotId: string;
-
-  @Col.LotCode()
-  code: string;
-
+export class OpinionRequestEntity extends Col.LotRowColumns('opinion_requests') {
   /** The holder who asked. */
   @Col.Actor()
   requester: string;

@@ -5,16 +5,7 @@ import * as Col from '../../database/columns';
 @Entity({ name: 'sales' })
 @Unique('uq_sales_lot', ['lotId'])
 @Index('ix_sales_seller', ['seller', 'soldOn'])
-export class SaleEntity {
-  @Col.UuidPrimary('sales')
-  id: string;
-
-  @Col.LotId()
-  lotId: string;
-
-  @Col.LotCode()
-  code: string;
-
+export class SaleEntity extends Col.LotRowColumns('sales') {
   @Col.Varchar(200)
   title: string;
 

@@ -14,16 +14,7 @@ export type InvitationStatus = (typeof INVITATION_STATUSES)[number];
 @Entity({ name: 'transfer_invitations' })
 @Check('ck_transfer_invitations_status', `"status" IN ('waiting', 'offered', 'stalled', 'cancelled')`)
 @Index('ix_transfer_invitations_inviter', ['inviter', 'createdAt'])
-export class TransferInvitationEntity {
-  @Col.UuidPrimary('transfer_invitations')
-  id: string;
-
-  @Col.LotId()
-  lotId: string;
-
-  @Col.LotCode()
-  code: string;
-
+export class TransferInvitationEntity extends Col.LotRowColumns('transfer_invitations') {
   @Col.Uuid()
   inviter: string;
 

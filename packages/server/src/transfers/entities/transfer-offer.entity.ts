@@ -13,16 +13,7 @@ export type OfferStatus = (typeof OFFER_STATUSES)[number];
 @Check('ck_transfer_offers_status', `"status" IN ('open', 'accepted', 'declined', 'withdrawn', 'lapsed')`)
 @Index('ix_transfer_offers_offerer', ['offerer', 'offeredAt'])
 @Index('ix_transfer_offers_recipient', ['recipient', 'offeredAt'])
-export class TransferOfferEntity {
-  @Col.UuidPrimary('transfer_offers')
-  id: string;
-
-  @Col.LotId()
-  lotId: string;
-
-  @Col.LotCode()
-  code: string;
-
+export class TransferOfferEntity extends Col.LotRowColumns('transfer_offers') {
   /** The lot's title when it was offered (later descriptions are not shown to a former party). */
   @Col.Varchar(200)
   title: string;
