@@ -41,8 +41,7 @@ const hostSha256OfText: ((text: string) => string) | null = (() => {
   try {
     const proc = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
     const c = proc?.getBuiltinModule?.('node:crypto') as
-      | { hash?: (algorithm: string, data: string, encoding: 'hex') => string }
-      | undefined;
+      { hash?: (algorithm: string, data: string, encoding: 'hex') => string } | undefined;
     if (typeof c?.hash === 'function') {
       const hash = c.hash;
       return (text) => hash('sha256', text, 'hex');
