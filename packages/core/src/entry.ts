@@ -264,7 +264,7 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
       message: `format version ${JSON.stringify(o.v)} is not ${FORMAT_VERSIONS.join(', ')}`,
     };
   const keys = HEADER_KEYS[o.v as FormatVersion];
-  for (const k of Object.keys(o)) {
+  for (const k in o) {
     if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
