@@ -46,12 +46,20 @@ export const OWNERSHIP_EXCEPTIONS: ReadonlyArray<{ path: string; reason: string 
       'the audit compares every stored copy (lot views, cached states, sealed values, exhibits, ' +
       'offers, sales) with what the rolls say; it only reads, and must read the tables themselves',
   },
+  {
+    path: 'lots/public-lot-text.ts',
+    reason:
+      'the public answer of a listed lot (its view, its entries and bodies as stored text, the cards ' +
+      'of its verified actors) is one read-only statement, the busiest public read: split across the ' +
+      'ledger and accounts services it would cost several round trips, and the public-data benchmark ' +
+      'runs this very text on its bare server. public-lot-text.e2e-spec holds it to the answer built ' +
+      "from the ledger's reader and DealerCardsService, lot for lot",
+  },
 ];
 
 /**
  * Cross-module uses not yet moved behind the owner's service, by file and table. The test fails
- * when one of these is no longer needed, so this list only shrinks.
+ * when one of these is no longer needed, so this list only shrinks; it is empty, and a new
+ * cross-module use fails the test.
  */
-export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {
-  'lots/public-lot-text.ts': ['accounts', 'entries', 'entry_bodies'],
-};
+export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {};
