@@ -51,24 +51,28 @@ export function isActorId(v: unknown): v is string {
 /** True for a UTC time written exactly `YYYY-MM-DDTHH:MM:SS.sssZ` that names a real instant. */
 export function isEntryTime(v: unknown): v is string {
   if (typeof v !== 'string' || v.length !== 24 || !TIME.test(v)) return false;
-  return (
-    isCalendarDate(v.slice(0, 10)) &&
-    v.slice(11, 13) < '24' &&
-    v.slice(14, 16) < '60' &&
-    v.slice(17, 19) < '60'
-  );
+  // Digits are known from here on: hours below 24, minutes and seconds below 60.
+  const hour = (v.charCodeAt(11) - 48) * 10 + v.charCodeAt(12) - 48;
+  if (hour > 23 || v.charCodeAt(14) > 53 || v.charCodeAt(17) > 53) return false;
+  return isDayOfMonth(v, 0);
 }
 
 /** True for a real calendar date written `YYYY-MM-DD`. */
 export function isCalendarDate(v: unknown): v is string {
-  if (typeof v !== 'string' || !DATE.test(v)) return false;
-  const y = Number(v.slice(0, 4));
-  const m = Number(v.slice(5, 7));
-  const d = Number(v.slice(8, 10));
+  return typeof v === 'string' && DATE.test(v) && isDayOfMonth(v, 0);
+}
+
+const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31] as const;
+
+/** True when the `YYYY-MM-DD` digits at `at` in `v` (already known to be digits) name a real day. */
+function isDayOfMonth(v: string, at: number): boolean {
+  const digit = (i: number) => v.charCodeAt(at + i) - 48;
+  const y = digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3);
+  const m = digit(5) * 10 + digit(6);
+  const d = digit(8) * 10 + digit(9);
   if (m < 1 || m > 12 || d < 1) return false;
   const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
-  const days = [31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][m - 1]!;
-  return d <= days;
+  return d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1]!);
 }
 
 type Obj = Record<string, unknown>;
@@ -87,8 +91,9 @@ class Checker {
     }
     const o = v as Obj;
     for (const k of required) if (!(k in o)) this.fail(join(path, k), 'is required');
-    const allowed = new Set([...required, ...optional]);
-    for (const k of Object.keys(o)) if (!allowed.has(k)) this.fail(join(path, k), 'is not a known field');
+    for (const k in o)
+      if (Object.prototype.hasOwnProperty.call(o, k) && !required.includes(k) && !optional.includes(k))
+        this.fail(join(path, k), 'is not a known field');
     return o;
   }
   str(o: Obj, k: string, path: string, max: number, opt = false, min = 1): void {
@@ -101,12 +106,20 @@ class Checker {
     if (v.length < min) return this.fail(join(path, k), 'must not be empty');
     if (v.length > max) this.fail(join(path, k), `must be at most ${max} characters`);
   }
-  pattern(o: Obj, k: string, path: string, test: (v: unknown) => boolean, what: string, opt = false): void {
+  /** `what` names the expected value; a function is called only when the value fails. */
+  pattern(
+    o: Obj,
+    k: string,
+    path: string,
+    test: (v: unknown) => boolean,
+    what: string | (() => string),
+    opt = false,
+  ): void {
     if (!(k in o)) {
       if (!opt) this.fail(join(path, k), 'is required');
       return;
     }
-    if (!test(o[k])) this.fail(join(path, k), `must be ${what}`);
+    if (!test(o[k])) this.fail(join(path, k), `must be ${typeof what === 'function' ? what() : what}`);
   }
   oneOf(o: Obj, k: string, path: string, values: readonly string[], opt = false): void {
     this.pattern(
@@ -114,7 +127,7 @@ class Checker {
       k,
       path,
       (v) => typeof v === 'string' && values.includes(v),
-      `one of ${values.join(', ')}`,
+      () => `one of ${values.join(', ')}`,
       opt,
     );
   }
@@ -124,7 +137,7 @@ class Checker {
       k,
       path,
       (v) => Number.isSafeInteger(v) && (v as number) >= min && (v as number) <= max,
-      `an integer from ${min} to ${max}`,
+      () => `an integer from ${min} to ${max}`,
       opt,
     );
   }
@@ -162,7 +175,9 @@ class Checker {
     const v = o[k];
     if (!Array.isArray(v)) return this.fail(join(path, k), 'must be a list');
     if (v.length > max) return this.fail(join(path, k), `must have at most ${max} items`);
-    v.forEach((item, i) => each(item, `${join(path, k)}[${i}]`));
+    if (v.length === 0) return;
+    const at = join(path, k);
+    for (let i = 0; i < v.length; i++) each(v[i], `${at}[${i}]`);
   }
   uniqueList(o: Obj, k: string, path: string, values: readonly string[]): void {
     this.list(
