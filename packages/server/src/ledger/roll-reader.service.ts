@@ -197,9 +197,7 @@ export class RollReaderService {
    * Every entry `actor` wrote, on any lot, with its exact header and body (null once redacted),
    * ordered by lot code and seq (the account's own data download).
    */
-  entriesBy(
-    actor: string,
-  ): Promise<
+  entriesBy(actor: string): Promise<
     Array<{
       lot: string;
       seq: number;
