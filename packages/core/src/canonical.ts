@@ -180,12 +180,12 @@ export function parseCanonical(text: string): unknown {
   }
   // Fastest path: the text itself shows that it is written the canonical way.
   if (provedCanonical(text)) return parsed;
-  // Fast path: with keys already in order, JSON.stringify writes exactly what RFC 8785 writes
-  // (same number and string rules). Anything else, such as integer-like keys that JavaScript
-  // reorders, takes the full serialiser.
   // Every string and key of the parse is a piece of `text` between quotes, or is written with
   // escapes: when the text is well-formed and has no \u escape, so is each of them.
   const sorted = check(parsed, true, !(text.indexOf('\\u') === -1 && wellFormed(text)));
+  // Fast path: with keys already in order, JSON.stringify writes exactly what RFC 8785 writes
+  // (same number and string rules). Anything else, such as integer-like keys that JavaScript
+  // reorders, takes the full serialiser.
   if (sorted && fastStringify(parsed) === text) return parsed;
   const again = serialise(parsed);
   if (again !== text)

@@ -572,12 +572,7 @@ export function reduceEntryInPlace(state: RollState | null, entry: ReducibleEntr
 
 function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boolean): RollState {
   const { header: h, body } = entry;
-  /** `list` with `items` added at the end: a new array, or the same one when the state is owned. */
-  const add = <T>(list: T[] | undefined, ...items: T[]): T[] => {
-    if (!owned || list === undefined) return [...(list ?? []), ...items];
-    list.push(...items);
-    return list;
-  };
+  const add = <T>(list: T[] | undefined, ...items: T[]): T[] => addTo(owned, list, items);
   const facts: RuleFacts | null = h.facts ?? (body ? factsOf(h.kind, body) : null);
   const head: RollHead = { lot: h.lot, seq: h.seq, hash: entry.hash, time: h.time };
   if (state === null) {
@@ -727,6 +722,13 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
   // A lot that reaches a final status closes every open request.
   if (s.openRequests?.length && FINAL_STATUSES.includes(s.status)) s.openRequests = [];
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
+}
+
+/** `list` with `items` added at the end: a new array, or the same one when the state is owned. */
+function addTo<T>(owned: boolean, list: T[] | undefined, items: T[]): T[] {
+  if (!owned || list === undefined) return [...(list ?? []), ...items];
+  for (const item of items) list.push(item);
+  return list;
 }
 
 function closeRequest(s: RollState, seq: number): OpenRequest[] {

@@ -30,17 +30,31 @@ export const LIMITS = {
   exhibitBytes: Number.MAX_SAFE_INTEGER,
 } as const;
 
-const HEX64 = /^[0-9a-f]{64}$/;
-const HEX32 = /^[0-9a-f]{32}$/;
 const ACTOR = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
-const TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
+/** The shape of an entry time: `d` a digit, any other character itself. */
+const TIME_SHAPE = 'dddd-dd-ddTdd:dd:dd.dddZ';
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
 const CURRENCY = /^[A-Z]{3}$/;
 const MEDIA_TYPE = /^[a-z0-9][a-z0-9!#$&^_.+-]*\/[a-z0-9][a-z0-9!#$&^_.+-]*$/;
 
 /** True for 64 lower-case hex digits (a SHA-256 value). */
 export function isHex64(v: unknown): v is string {
-  return typeof v === 'string' && HEX64.test(v);
+  return isLowerHex(v, 64);
+}
+
+function isHex32(v: unknown): boolean {
+  return isLowerHex(v, 32);
+}
+
+/** 1 for the code units of 0–9 and a–f. */
+const LOWER_HEX = new Uint8Array(128);
+for (const c of '0123456789abcdef') LOWER_HEX[c.charCodeAt(0)] = 1;
+
+/** True for a string of exactly `length` lower-case hex digits (a table beats a pattern here). */
+function isLowerHex(v: unknown, length: number): v is string {
+  if (typeof v !== 'string' || v.length !== length) return false;
+  for (let i = 0; i < length; i++) if (LOWER_HEX[v.charCodeAt(i)] !== 1) return false;
+  return true;
 }
 
 /** True for an opaque account id: 1–64 of A–Z a–z 0–9 . _ : - starting with a letter or digit. */
@@ -50,7 +64,12 @@ export function isActorId(v: unknown): v is string {
 
 /** True for a UTC time written exactly `YYYY-MM-DDTHH:MM:SS.sssZ` that names a real instant. */
 export function isEntryTime(v: unknown): v is string {
-  if (typeof v !== 'string' || v.length !== 24 || !TIME.test(v)) return false;
+  if (typeof v !== 'string' || v.length !== 24) return false;
+  for (let i = 0; i < 24; i++) {
+    const c = v.charCodeAt(i);
+    if (TIME_SHAPE.charCodeAt(i) === 0x64 /* d */ ? c < 0x30 || c > 0x39 : c !== TIME_SHAPE.charCodeAt(i))
+      return false;
+  }
   // Digits are known from here on: hours below 24, minutes and seconds below 60.
   const hour = (v.charCodeAt(11) - 48) * 10 + v.charCodeAt(12) - 48;
   if (hour > 23 || v.charCodeAt(14) > 53 || v.charCodeAt(17) > 53) return false;
@@ -106,40 +125,30 @@ class Checker {
     if (v.length < min) return this.fail(join(path, k), 'must not be empty');
     if (v.length > max) this.fail(join(path, k), `must be at most ${max} characters`);
   }
-  /** `what` names the expected value; a function is called only when the value fails. */
-  pattern(
-    o: Obj,
-    k: string,
-    path: string,
-    test: (v: unknown) => boolean,
-    what: string | (() => string),
-    opt = false,
-  ): void {
+  pattern(o: Obj, k: string, path: string, test: (v: unknown) => boolean, what: string, opt = false): void {
     if (!(k in o)) {
       if (!opt) this.fail(join(path, k), 'is required');
       return;
     }
-    if (!test(o[k])) this.fail(join(path, k), `must be ${typeof what === 'function' ? what() : what}`);
+    if (!test(o[k])) this.fail(join(path, k), `must be ${what}`);
   }
   oneOf(o: Obj, k: string, path: string, values: readonly string[], opt = false): void {
-    this.pattern(
-      o,
-      k,
-      path,
-      (v) => typeof v === 'string' && values.includes(v),
-      () => `one of ${values.join(', ')}`,
-      opt,
-    );
+    if (!(k in o)) {
+      if (!opt) this.fail(join(path, k), 'is required');
+      return;
+    }
+    const v = o[k];
+    if (typeof v !== 'string' || !values.includes(v))
+      this.fail(join(path, k), `must be one of ${values.join(', ')}`);
   }
   int(o: Obj, k: string, path: string, min: number, max: number, opt = false): void {
-    this.pattern(
-      o,
-      k,
-      path,
-      (v) => Number.isSafeInteger(v) && (v as number) >= min && (v as number) <= max,
-      () => `an integer from ${min} to ${max}`,
-      opt,
-    );
+    if (!(k in o)) {
+      if (!opt) this.fail(join(path, k), 'is required');
+      return;
+    }
+    const v = o[k];
+    if (!Number.isSafeInteger(v) || (v as number) < min || (v as number) > max)
+      this.fail(join(path, k), `must be an integer from ${min} to ${max}`);
   }
   bool(o: Obj, k: string, path: string): void {
     this.pattern(o, k, path, (v) => typeof v === 'boolean', 'true or false');
@@ -484,12 +493,7 @@ export function bodyIssues(
   const c = new Checker(version);
   if (!ENTRY_KINDS.includes(kind)) return [{ path: 'kind', message: 'is not a known kind' }];
   bodyCheckers[kind](c, body);
-  if (
-    body !== null &&
-    typeof body === 'object' &&
-    'nonce' in body &&
-    !HEX32.test(String((body as Obj).nonce))
-  ) {
+  if (body !== null && typeof body === 'object' && 'nonce' in body && !isHex32((body as Obj).nonce)) {
     c.fail('nonce', 'must be 32 lower-case hex digits');
   }
   return c.issues;
