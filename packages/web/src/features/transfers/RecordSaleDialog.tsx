@@ -4,7 +4,8 @@ import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../common/ui/ActionDialog';
-import { fieldError, FormError, NoteField, TextField } from '../../common/ui/FormPage';
+import { fieldError, NoteField, TextField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { MoneyField } from '../../common/ui/MoneyField';
 import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
 import { type Sale, today, transfersApi } from './transfers.api';
@@ -39,12 +40,11 @@ export function RecordSaleDialog({
   const styles = useStyles();
   const client = useQueryClient();
   const [lot, setLot] = useState(code ?? '');
-  const [date, setDate] = useState(today);
   const [amount, setAmount] = useState('');
   const [currency, setCurrency] = useState(() => localStorage.getItem(LAST_CURRENCY) ?? 'EUR');
   const [more, setMore] = useState(false);
-  const [buyerNote, setBuyerNote] = useState('');
-  const [buyerEmail, setBuyerEmail] = useState('');
+  const form = useFormValues({ date: today(), buyerNote: '', buyerEmail: '' });
+  const { date, buyerNote, buyerEmail } = form.values;
   const save = useMutation({
     mutationFn: () => {
       const minor = sealedPrice(amount, currency);
@@ -76,6 +76,7 @@ export function RecordSaleDialog({
       onClose();
     },
   });
+  const field = form.bind(save.error);
   return (
     <ActionDialog
       title={`Record a sale${title ? `: ${title}` : ''}`}
@@ -83,6 +84,7 @@ export function RecordSaleDialog({
       onSubmit={() => save.mutate()}
       submitLabel="Record the sale"
       pending={save.isPending}
+      error={save.error}
       submitDisabled={!lot || !amount.trim()}
       narrow
     >
@@ -98,29 +100,19 @@ export function RecordSaleDialog({
         validationMessage={fieldError(save.error, 'price')}
         autoFocus={Boolean(code)}
       />
-      <TextField
-        label="Date of the sale"
-        type="date"
-        value={date}
-        onChange={setDate}
-        validationMessage={fieldError(save.error, 'date')}
-      />
+      <TextField label="Date of the sale" type="date" {...field('date')} />
       {more ? (
         <>
           <NoteField
             label="Note about the buyer (optional)"
             hint="Sealed: only you see it."
-            value={buyerNote}
-            onChange={setBuyerNote}
-            validationMessage={fieldError(save.error, 'buyerNote')}
+            {...field('buyerNote')}
           />
           <TextField
             label="Buyer’s e-mail for a receipt (optional)"
             hint="Used once to send the link to the lot’s public history; not kept."
             type="email"
-            value={buyerEmail}
-            onChange={setBuyerEmail}
-            validationMessage={fieldError(save.error, 'buyerEmail')}
+            {...field('buyerEmail')}
           />
         </>
       ) : (
@@ -131,7 +123,6 @@ export function RecordSaleDialog({
       <Text className={styles.sub} size={200}>
         The lot’s public page stays up and says it was sold to a private buyer on that date.
       </Text>
-      <FormError error={save.error} />
     </ActionDialog>
   );
 }
