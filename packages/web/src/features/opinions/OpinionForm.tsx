@@ -30,7 +30,7 @@ import {
 import { useMemo, useRef, useState } from 'react';
 import { focusFirstError } from '../../common/ui/focus-first-error';
 import { fieldError, FormError, TextField } from '../../common/ui/FormPage';
-import { useFormValues } from '../../common/ui/form-values';
+import { type BoundField, useFormValues } from '../../common/ui/form-values';
 import { SelectField } from '../../common/ui/SelectField';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
@@ -69,6 +69,21 @@ function exhibitsOnRoll(roll: RawRoll): ExhibitChoice[] {
     out.push({ sha256: b.exhibit.original.sha256, label: `Entry ${e.seq}, ${b.exhibit.kind}${caption}` });
   }
   return out;
+}
+
+/** A year of the period, in a narrow box with a number keyboard. */
+function YearField({ label, value, onChange, validationMessage }: BoundField & { label: string }) {
+  const styles = useStyles();
+  return (
+    <Field label={label} required className={styles.year} validationMessage={validationMessage}>
+      <Input
+        className={styles.yearInput}
+        inputMode="numeric"
+        value={value}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
+  );
 }
 
 function yearOrNull(text: string): number | null {
@@ -156,6 +171,12 @@ export function OpinionForm({
   const yearMessage = (field: 'period.from' | 'period.to', value: string) =>
     fieldError(err, field) ??
     (value !== '' ? (yearProblem(yearOrNull(value), thisYear) ?? undefined) : undefined);
+  const yearField = (end: 'from' | 'to'): BoundField => ({
+    value: form.values[end],
+    onChange: (v) => form.set(end, v),
+    validationMessage:
+      (end === 'to' ? periodProblem : undefined) ?? yearMessage(`period.${end}`, form.values[end]),
+  });
   const localProblem =
     periodProblem ??
     (from !== '' && yearProblem(fromYear, thisYear)) ??
@@ -190,32 +211,8 @@ export function OpinionForm({
           />
         </Field>
         <div className={styles.row}>
-          <Field
-            label="From year"
-            required
-            className={styles.year}
-            validationMessage={yearMessage('period.from', from)}
-          >
-            <Input
-              className={styles.yearInput}
-              inputMode="numeric"
-              value={from}
-              onChange={(_, d) => form.set('from', d.value)}
-            />
-          </Field>
-          <Field
-            label="To year"
-            required
-            className={styles.year}
-            validationMessage={periodProblem ?? yearMessage('period.to', to)}
-          >
-            <Input
-              className={styles.yearInput}
-              inputMode="numeric"
-              value={to}
-              onChange={(_, d) => form.set('to', d.value)}
-            />
-          </Field>
+          <YearField label="From year" {...yearField('from')} />
+          <YearField label="To year" {...yearField('to')} />
           <Checkbox
             label="Approximate years"
             checked={approximate}
