@@ -5,7 +5,7 @@ import { ActionDialog } from '../../common/ui/ActionDialog';
 import { fieldError, NoteField, TextField } from '../../common/ui/FormPage';
 import { useFormValues } from '../../common/ui/form-values';
 import { MoneyField } from '../../common/ui/MoneyField';
-import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
+import { HeldLotField, refreshAfterTransfer, usePriceField } from './HeldLotField';
 import { dealerSearchQuery, type Offer, type Invitation, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
@@ -37,17 +37,15 @@ export function OfferDialog({
   const [recipient, setRecipient] = useState('');
   const form = useFormValues({ email: '', note: '' });
   const { email, note } = form.values;
-  const [amount, setAmount] = useState('');
-  const [currency, setCurrency] = useState('EUR');
+  const price = usePriceField('EUR');
   const search = useQuery(dealerSearchQuery(q));
   const send = useMutation({
     mutationFn: () => {
-      const minor = amount.trim() ? sealedPrice(amount, currency) : undefined;
       return transfersApi.offer({
         lot,
         ...(mode === 'dealer' ? { recipient } : { email }),
         ...(note.trim() ? { note: note.trim() } : {}),
-        ...(minor !== undefined ? { price: { amount: minor, currency } } : {}),
+        ...(price.entered ? { price: price.value() } : {}),
       });
     },
     onSuccess: async (made) => {
@@ -122,11 +120,7 @@ export function OfferDialog({
       <MoneyField
         label="Agreed price (optional)"
         hint="Sealed: only you and the other dealer see it; never in e-mails or on the public page."
-        amount={amount}
-        currency={currency}
-        onAmount={setAmount}
-        onCurrency={setCurrency}
-        validationMessage={fieldError(send.error, 'price')}
+        {...price.field(send.error)}
       />
     </ActionDialog>
   );

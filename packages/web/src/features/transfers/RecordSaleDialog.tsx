@@ -4,10 +4,10 @@ import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../common/ui/ActionDialog';
-import { fieldError, NoteField, TextField } from '../../common/ui/FormPage';
+import { NoteField, TextField } from '../../common/ui/FormPage';
 import { useFormValues } from '../../common/ui/form-values';
 import { MoneyField } from '../../common/ui/MoneyField';
-import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
+import { HeldLotField, refreshAfterTransfer, usePriceField } from './HeldLotField';
 import { type Sale, today, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
@@ -40,15 +40,14 @@ export function RecordSaleDialog({
   const styles = useStyles();
   const client = useQueryClient();
   const [lot, setLot] = useState(code ?? '');
-  const [amount, setAmount] = useState('');
-  const [currency, setCurrency] = useState(() => localStorage.getItem(LAST_CURRENCY) ?? 'EUR');
+  const price = usePriceField(() => localStorage.getItem(LAST_CURRENCY) ?? 'EUR');
   const [more, setMore] = useState(false);
   const form = useFormValues({ date: today(), buyerNote: '', buyerEmail: '' });
   const { date, buyerNote, buyerEmail } = form.values;
   const save = useMutation({
     mutationFn: () => {
-      const minor = sealedPrice(amount, currency);
-      localStorage.setItem(LAST_CURRENCY, currency);
+      const sold = price.value();
+      localStorage.setItem(LAST_CURRENCY, sold.currency);
       // At a fair stand with no signal the sale waits on this device (same key when sent).
       return sendOrQueue<Sale>({
         path: transfersApi.salesPath,
@@ -56,7 +55,7 @@ export function RecordSaleDialog({
         body: {
           lot,
           date,
-          price: { amount: minor, currency },
+          price: sold,
           ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
           ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
         },
@@ -85,7 +84,7 @@ export function RecordSaleDialog({
       submitLabel="Record the sale"
       pending={save.isPending}
       error={save.error}
-      submitDisabled={!lot || !amount.trim()}
+      submitDisabled={!lot || !price.entered}
       narrow
     >
       {code ? null : <HeldLotField lot={lot} onLot={setLot} error={save.error} />}
@@ -93,11 +92,7 @@ export function RecordSaleDialog({
         label="Price"
         required
         hint="Sealed: only you see it."
-        amount={amount}
-        currency={currency}
-        onAmount={setAmount}
-        onCurrency={setCurrency}
-        validationMessage={fieldError(save.error, 'price')}
+        {...price.field(save.error)}
         autoFocus={Boolean(code)}
       />
       <TextField label="Date of the sale" type="date" {...field('date')} />
