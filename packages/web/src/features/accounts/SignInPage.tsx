@@ -1,7 +1,7 @@
 import { Button, Link, Text } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
-import { accountsApi, type Me } from './accounts.api';
+import { accountsApi, rememberSession, type Me } from './accounts.api';
 import { FormError, FormPage, PasswordField, TextField } from '../../common/ui/FormPage';
 import { useFormValues } from '../../common/ui/form-values';
 
@@ -25,6 +25,7 @@ export function SignInPage() {
   const signIn = useMutation({
     mutationFn: () => accountsApi.signIn(form.values),
     onSuccess: ({ account }) => {
+      rememberSession(account);
       client.setQueryData(['session'], account);
       navigate(landingFor(account, params.get('next')));
     },
