@@ -14,7 +14,12 @@ function isPadding(buf: Buffer): boolean {
   return true;
 }
 
+/**
+ * Positioned reads through one reused 64 KiB window. What `read` returns is valid only until
+ * the next call: every caller here looks at it and moves on.
+ */
 class Reader {
+  private readonly window = Buffer.allocUnsafe(64 * 1024);
   private buf = Buffer.alloc(0);
   private start = 0;
   constructor(
@@ -26,8 +31,8 @@ class Reader {
   async read(pos: number, n: number): Promise<Buffer> {
     if (pos >= this.start && pos + n <= this.start + this.buf.length)
       return this.buf.subarray(pos - this.start, pos - this.start + n);
-    const len = Math.max(n, 64 * 1024);
-    const out = Buffer.alloc(Math.min(len, Math.max(0, this.size - pos)));
+    const len = Math.min(Math.max(n, this.window.length), Math.max(0, this.size - pos));
+    const out = len <= this.window.length ? this.window.subarray(0, len) : Buffer.allocUnsafe(len);
     const { bytesRead } = await this.fh.read(out, 0, out.length, pos);
     this.buf = out.subarray(0, bytesRead);
     this.start = pos;
