@@ -9,7 +9,7 @@ import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
 import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
-import { UploadGuardInterceptor } from './upload';
+import { UploadGuardInterceptor, type UploadedExhibitFile } from './upload';
 import { Read } from '../common/route.decorators';
 
 @ApiTags('exhibits')
@@ -29,7 +29,7 @@ export class ExhibitsController {
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
     @Body() dto: AddExhibitDto,
-    @UploadedFile() file: { path: string } | undefined,
+    @UploadedFile() file: UploadedExhibitFile | undefined,
   ): Promise<AddExhibitResponse> {
     return this.exhibits.add(account, code, dto, file);
   }

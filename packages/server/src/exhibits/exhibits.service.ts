@@ -28,6 +28,7 @@ import {
 } from './dto/exhibit-response.dto';
 import { ExhibitEntity } from './entities/exhibit.entity';
 import { ExhibitProcessor, type ProcessedFile } from './exhibit-processor';
+import type { UploadedExhibitFile } from './upload';
 import { LotViewsService } from '../lots/lot-views.service';
 
 /** A stored file ready to send, with what the response headers need. */
@@ -86,7 +87,7 @@ export class ExhibitsService {
     actor: Principal,
     codeText: string,
     dto: AddExhibitDto,
-    upload: { path: string } | undefined,
+    upload: UploadedExhibitFile | undefined,
   ): Promise<AddExhibitResponse> {
     if (!upload)
       throw AppError.validation([{ field: 'file', reason: 'is missing: attach one file as "file"' }]);
@@ -94,9 +95,9 @@ export class ExhibitsService {
     const code = await this.lots.readableCode(actor, codeText);
     // Early refusals, before any decoding; the binding checks are repeated in the transaction.
     await this.checkQuota(this.dataSource.manager, actor.id, (await stat(upload.path)).size);
-    // The bytes as sent: a stored original downloaded and sent again is caught here, since
-    // re-encoding it would give other bytes.
-    const sent = await hashFile(upload.path);
+    // The bytes as sent (hashed as they were received): a stored original downloaded and sent
+    // again is caught here, since re-encoding it would give other bytes.
+    const sent = upload.sha256 ? { sha256: upload.sha256 } : await hashFile(upload.path);
     await this.blocked.assertAllowed([sent.sha256]);
 
     const checked = performance.now();
