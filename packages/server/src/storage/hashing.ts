@@ -6,13 +6,13 @@ import { Transform, type Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 
 /**
- * SHA-256 (hex) and size of a file, read in 1 MiB steps into one buffer: a photo is hashed
+ * SHA-256 (hex) and size of a file, read in 256 KiB steps into one buffer: a photo is hashed
  * several times on its way into the store, and a stream's fresh 64 KiB chunks each time are
  * garbage the collector must sweep while other uploads want the CPU.
  */
 export async function hashFile(path: string): Promise<{ sha256: string; size: number }> {
   const hash = createHash('sha256');
-  const buf = Buffer.allocUnsafe(1024 * 1024);
+  const buf = Buffer.allocUnsafe(256 * 1024);
   const fh = await open(path, 'r');
   let size = 0;
   try {
