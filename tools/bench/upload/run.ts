@@ -92,7 +92,7 @@ async function main(): Promise<void> {
     EXHIBIT_QUOTA_BYTES: String(10 * 1024 * 1024 * 1024),
     // glibc's allocator set as tools/start.ts sets it for the app (see there and mallopt(3)).
     MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2',
-    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '131072',
+    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '69632',
   };
   const { ensureJwtSecret } = await import('../../lib/app-env.ts');
   env.JWT_SECRET_FILE = ensureJwtSecret(join(base, 'data'));
