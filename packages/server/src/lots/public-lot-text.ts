@@ -52,6 +52,27 @@ SELECT
 FROM "lot_views" v
 WHERE v."code" = $1 AND v."listed"`;
 
+/**
+ * The name {@link PUBLIC_LOT_SQL} is prepared under: each pooled connection parses and plans it
+ * once and afterwards only binds a code and executes it (planning costs about as much as
+ * running it on a roll of a few dozen entries).
+ */
+export const PUBLIC_LOT_STATEMENT = 'beadroll_public_lot';
+
+/** What {@link readPublicLot} needs of a connection pool: pg's `Pool#query` with a named statement. */
+export interface NamedStatementPool {
+  query(config: { name: string; text: string; values: unknown[] }): Promise<{ rows: unknown[] }>;
+}
+
+/** The row of the listed lot `code` (canonical), or undefined when it is not a listed lot. */
+export async function readPublicLot(
+  pool: NamedStatementPool,
+  code: string,
+): Promise<PublicLotRow | undefined> {
+  const { rows } = await pool.query({ name: PUBLIC_LOT_STATEMENT, text: PUBLIC_LOT_SQL, values: [code] });
+  return rows[0] as PublicLotRow | undefined;
+}
+
 /** The row {@link PUBLIC_LOT_SQL} returns for a listed lot. */
 export interface PublicLotRow {
   has_parents: boolean;

@@ -15,9 +15,14 @@ import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
-import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
+import { publicLotText, readPublicLot, type NamedStatementPool } from './public-lot-text';
 
 export { READ_FROM_HEADER } from '../standby/read-from';
+
+/** The pg pool under a TypeORM manager (the primary's or the standby's), for a named statement. */
+function poolOf(manager: EntityManager): NamedStatementPool {
+  return (manager.connection.driver as unknown as { master: NamedStatementPool }).master;
+}
 
 /** The one answer to any code that is not a listed lot: no hint of why. */
 function notFound(): AppError {
@@ -81,8 +86,7 @@ export class PublicLotsService {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
     const { manager, from } = await this.standby.reader(signedIn);
-    const rows: PublicLotRow[] = await manager.query(PUBLIC_LOT_SQL, [code]);
-    const row = rows[0];
+    const row = await readPublicLot(poolOf(manager), code);
     if (!row) throw notFound();
     if (!row.has_parents) {
       // The proof is of the head as this read saw it (the standby may be a moment behind).
