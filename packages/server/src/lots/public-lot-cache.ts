@@ -19,6 +19,11 @@ export interface CachedPublicLot {
   named: readonly string[];
   /** The answer's checkpoint member text. */
   checkpoints: string;
+  /**
+   * What that member was last found to be made from: the latest checkpoint (the very object
+   * CheckpointsService keeps, replaced when it reads again) and the head it proves.
+   */
+  proved: { latest: object | null; seq: number; logIndex: string | null };
   answer: PublicLotAnswer;
 }
 

@@ -13,6 +13,7 @@ import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.se
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { CheckpointsService } from '../log/checkpoints.service';
 import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
 import {
@@ -82,6 +83,7 @@ export class PublicLotsService {
     private readonly cards: DealerCardsService,
     private readonly standby: StandbyService,
     private readonly log: LogService,
+    private readonly checkpoints: CheckpointsService,
   ) {}
 
   /**
@@ -113,14 +115,21 @@ export class PublicLotsService {
       this.cache.delete(code);
       throw notFound();
     }
+    const latest = await this.checkpoints.latest();
     if (
       cached &&
       key.head === cached.head &&
       key.accounts === cached.accounts &&
-      sameList(cached.digestOf, cached.named) &&
-      (await this.checkpointText(code, key)) === cached.checkpoints
-    )
-      return { answer: cached.answer, from };
+      sameList(cached.digestOf, cached.named)
+    ) {
+      const p = cached.proved;
+      if (p.latest === latest && p.seq === key.head_seq && p.logIndex === key.head_log_index)
+        return { answer: cached.answer, from };
+      if ((await this.checkpointText(code, key)) === cached.checkpoints) {
+        cached.proved = { latest, seq: key.head_seq, logIndex: key.head_log_index };
+        return { answer: cached.answer, from };
+      }
+    }
     const row = await readPublicLot(pool, code);
     if (!row) {
       this.cache.delete(code);
@@ -130,7 +139,16 @@ export class PublicLotsService {
     const checkpoints = await this.checkpointText(code, row);
     const answer = answerOf(publicLotText(code, row, checkpoints));
     const named = cardAccounts(row.entries);
-    this.cache.set(code, { head: key.head, accounts: key.accounts, digestOf, named, checkpoints, answer });
+    const proved = { latest, seq: row.head_seq, logIndex: row.head_log_index };
+    this.cache.set(code, {
+      head: key.head,
+      accounts: key.accounts,
+      digestOf,
+      named,
+      checkpoints,
+      proved,
+      answer,
+    });
     return { answer, from };
   }
 
