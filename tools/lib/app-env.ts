@@ -7,13 +7,6 @@ import { UserFacingError } from './proc.ts';
 export const REPO = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 export const DATA_DIR = join(REPO, '.data');
 
-/**
- * Node's options for the command-line audit: it reads and drops a batch of rolls after another
- * and keeps little, but V8 lets an unbounded heap grow far before collecting (1.5 GB over a
- * million entries); a bounded old space keeps its memory flat at no cost in speed.
- */
-export const AUDIT_NODE_OPTIONS = ['--max-old-space-size=128'];
-
 /** Reads a numeric port variable, or the fallback; a bad value is a user-facing error. */
 export function portFromEnv(name: string, fallback: number): number {
   const raw = process.env[name];
