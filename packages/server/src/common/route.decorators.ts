@@ -72,5 +72,20 @@ export const SheetDownload = (summary: string) =>
     Get('export'),
     Header('Cache-Control', 'no-store'),
     ApiOperation({ summary }),
-    ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'),
+    FileAnswer(
+      'the list as a file',
+      'text/csv',
+      'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    ),
+  );
+
+/** A 200 answer that is plain text (`text/plain`), described in the OpenAPI document. */
+export const TextAnswer = (description: string) =>
+  applyDecorators(ApiProduces('text/plain'), ApiOkResponse({ description, schema: { type: 'string' } }));
+
+/** A 200 answer that is a file of one of `types`, described in the OpenAPI document as bytes. */
+export const FileAnswer = (description: string, ...types: string[]) =>
+  applyDecorators(
+    ApiProduces(...types),
+    ApiOkResponse({ description, schema: { type: 'string', format: 'binary' } }),
   );

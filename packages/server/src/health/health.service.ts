@@ -2,18 +2,8 @@ import { Inject, Injectable } from '@nestjs/common';
 import { DataSource } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
-import { StandbyService, type StandbyStatus } from '../standby/standby.service';
-
-export interface HealthReport {
-  status: 'ok' | 'degraded';
-  /** This server process (INSTANCE_NAME). */
-  instance: string;
-  database: 'ok' | 'unreachable';
-  migrations: 'up to date' | 'pending' | 'unknown';
-  /** The hot standby public reads may use, and its replay lag. */
-  standby: StandbyStatus;
-  time: string;
-}
+import { StandbyService } from '../standby/standby.service';
+import type { HealthResponse } from './dto/health-response.dto';
 
 @Injectable()
 export class HealthService {
@@ -23,9 +13,9 @@ export class HealthService {
     @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
 
-  async report(): Promise<HealthReport> {
-    let database: HealthReport['database'] = 'ok';
-    let migrations: HealthReport['migrations'] = 'unknown';
+  async report(): Promise<HealthResponse> {
+    let database: HealthResponse['database'] = 'ok';
+    let migrations: HealthResponse['migrations'] = 'unknown';
     try {
       await this.dataSource.query('SELECT 1');
       migrations = (await this.dataSource.showMigrations()) ? 'pending' : 'up to date';

@@ -11,63 +11,7 @@ import { registryLetters } from './registry-letters';
 import { LotViewsService } from '../lots/lot-views.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
-
-/** Everything Beadroll holds about one account, as the account's own download. */
-export interface PersonalDataExport {
-  format: 'beadroll-personal-data';
-  version: 1;
-  exportedAt: string;
-  account: {
-    id: string;
-    role: string;
-    status: string;
-    handle: string;
-    email: string;
-    displayName: string;
-    business: string;
-    town: string;
-    country: string;
-    address: string;
-    website: string | null;
-    tradeReferences: string;
-    /** The document sent with the application (its bytes are downloaded by the registrar only). */
-    document: { sha256: string; mediaType: string; size: number; name: string } | null;
-    emailConfirmedAt: string | null;
-    verifiedSince: string | null;
-    statusReason: string | null;
-    createdAt: string;
-  };
-  sessions: Array<{ createdAt: string; revokedAt: string | null; revokedWhy: string | null }>;
-  /** Every roll entry the account wrote, with its exact header and body (null once redacted). */
-  entries: Array<{
-    lot: string;
-    seq: number;
-    kind: string;
-    time: string;
-    hash: string;
-    header: string;
-    body: string | null;
-  }>;
-  /** The sealed values the account may read: the ones it recorded, and transfer prices it was party to. */
-  sealedDetails: Array<{
-    lot: string;
-    seq: number;
-    name: string;
-    value: unknown;
-    salt: string;
-    commitment: string;
-  }>;
-  lotsHeld: string[];
-  /**
-   * The SHA-256 of each exhibit file exactly as the account sent it, before it was normalised.
-   * Beadroll keeps it on the server only (never on a roll or in any other response), so that a
-   * file the registrar removes is refused if sent again.
-   */
-  exhibitsAsSent: Array<{ lot: string; seq: number; sha256: string }>;
-  redactionRequests: Array<{ lot: string; seq: number; note: string; status: string; createdAt: string }>;
-  /** The registrar's recorded decisions about this account. */
-  registrarDecisions: Array<{ at: string; action: string; reason: string | null }>;
-}
+import type { PersonalDataResponse } from './dto/personal-data.dto';
 
 const FORMER_NAME = 'Former dealer';
 
@@ -86,20 +30,20 @@ export class PersonalDataService {
     private readonly mail: MailService,
   ) {}
 
-  async export(accountId: string): Promise<PersonalDataExport> {
+  async export(accountId: string): Promise<PersonalDataResponse> {
     const a = await this.accounts.findOneByOrFail({ id: accountId });
     const q = <T>(sql: string): Promise<T[]> => this.dataSource.query(sql, [accountId]);
     const sessions = await q<{ created_at: Date; revoked_at: Date | null; revoked_why: string | null }>(
       `SELECT "created_at", "revoked_at", "revoked_why" FROM "sessions" WHERE "account_id" = $1 ORDER BY "created_at"`,
     );
-    const entries = await q<PersonalDataExport['entries'][number]>(
+    const entries = await q<PersonalDataResponse['entries'][number]>(
       `SELECT l."code" AS "lot", e."seq", e."kind", e."time", e."hash", e."header", b."body"
          FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
         WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
     );
     const sealed = await this.reader.sealedVisibleTo(accountId);
     const held = await this.views.heldBy(accountId);
-    const asSent = await q<PersonalDataExport['exhibitsAsSent'][number]>(
+    const asSent = await q<PersonalDataResponse['exhibitsAsSent'][number]>(
       `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
         WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
     );

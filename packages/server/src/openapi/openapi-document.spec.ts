@@ -58,7 +58,7 @@ function routesOf(controller: Type<unknown>): Route[] {
   });
 }
 
-describe('the OpenAPI document’s statuses', () => {
+describe('the OpenAPI document', () => {
   let document: OpenAPIObject;
   let routes: Map<string, Route>;
 
@@ -99,6 +99,30 @@ describe('the OpenAPI document’s statuses', () => {
           ];
     });
     expect(wrong).toEqual([]);
+  });
+
+  it('describes the body of every answer but a 204', () => {
+    const bare = operations().flatMap(({ path, method, op }) =>
+      Object.entries(
+        (op.responses ?? {}) as Record<string, { content?: Record<string, { schema?: object }> }>,
+      )
+        .filter(([status]) => /^2\d\d$/.test(status) && status !== '204')
+        .filter(
+          ([, r]) =>
+            !r.content ||
+            Object.values(r.content).some((c) => !c.schema || Object.keys(c.schema).length === 0),
+        )
+        .map(([status]) => `${method.toUpperCase()} ${path} ${status}`),
+    );
+    expect(bare).toEqual([]);
+    const schemas = (document.components?.schemas ?? {}) as Record<
+      string,
+      { type?: string; properties?: object; additionalProperties?: unknown }
+    >;
+    const empty = Object.entries(schemas)
+      .filter(([, s]) => s.type === 'object' && !s.properties && !s.additionalProperties)
+      .map(([name]) => name);
+    expect(empty).toEqual([]);
   });
 
   it('checks POST routes in particular (new lots, offers, sales and opinions answer 201)', () => {
