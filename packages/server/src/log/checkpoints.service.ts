@@ -2,6 +2,7 @@ import {
   Inject,
   Injectable,
   Logger,
+  Optional,
   type OnApplicationBootstrap,
   type OnModuleDestroy,
   type OnModuleInit,
@@ -22,6 +23,7 @@ import { DataSource } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { loadLogSeed } from './log-key';
+import { NO_LOG_JOBS } from './log-jobs';
 import { LogGapError, LogTreeService } from './log-tree.service';
 
 /** Transaction advisory lock held by the one instance that signs a checkpoint ("BRLOGSG1"). */
@@ -68,6 +70,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     private readonly dataSource: DataSource,
     private readonly tree: LogTreeService,
     private readonly scheduler: SchedulerRegistry,
+    @Optional() @Inject(NO_LOG_JOBS) private readonly noJobs?: boolean,
   ) {}
 
   /** The log's signer, its key read (or made) on first use, which may come before module init. */
@@ -80,6 +83,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   }
 
   onModuleInit(): void {
+    if (this.noJobs) return;
     const timer = setInterval(() => {
       this.signIfDue().catch((err: unknown) =>
         this.logger.error(`checkpoint pass failed: ${(err as Error).message}`),
@@ -90,6 +94,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   }
 
   async onApplicationBootstrap(): Promise<void> {
+    if (this.noJobs) return;
     this.logger.log(`log verifier key: ${this.verifierKey()}`);
     // The first start signs at once, so the checkpoint route always has an answer.
     await this.signIfDue().catch((err: unknown) =>
