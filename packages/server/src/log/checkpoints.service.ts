@@ -42,6 +42,16 @@ export interface LatestCheckpoint {
   signedAt: Date;
 }
 
+/** Why the signer refuses to sign a grown log; it refuses every pass until the log is whole again. */
+export type SignRefusal = 'entry-missing' | 'log-shrank' | 'entry-changed';
+
+/** What a refusal means, in words fit for anyone who asks the service's health. */
+export const REFUSAL_WORDS: Record<SignRefusal, string> = {
+  'entry-missing': 'the log’s signer refuses to sign: an entry the log numbered is missing',
+  'log-shrank': 'the log’s signer refuses to sign: the log holds fewer entries than its last checkpoint',
+  'entry-changed': 'the log’s signer refuses to sign: a past entry no longer matches the last checkpoint',
+};
+
 /** Outcome of one signing pass. */
 export interface SignRun {
   signed: boolean;
@@ -64,6 +74,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   private latestCache?: { at: number; value: LatestCheckpoint | null };
   /** The last refusal logged, so a refusal that stands is logged once, not every pass. */
   private refusal?: string;
+  private refusalKind?: SignRefusal;
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -170,24 +181,31 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
         return this.refuse(
           size,
           `the log of ${size} entries has no entry at index ${err.index}: an entry was removed`,
+          'entry-missing',
         );
       }
       const root = tree.root(size);
       if (last) {
         const lastSize = Number(last.size);
-        const refused =
-          lastSize > size
-            ? `the log holds ${size} entries, fewer than its last checkpoint of ${lastSize}`
-            : !verifyConsistency(
-                  lastSize,
-                  size,
-                  tree.consistencyProof(lastSize, size),
-                  Uint8Array.from(Buffer.from(last.root, 'hex')),
-                  root,
-                )
-              ? `the log of ${size} entries is not consistent with its last checkpoint of ${lastSize}: a past entry changed`
-              : undefined;
-        if (refused) return this.refuse(size, refused);
+        if (lastSize > size)
+          return this.refuse(
+            size,
+            `the log holds ${size} entries, fewer than its last checkpoint of ${lastSize}`,
+            'log-shrank',
+          );
+        const consistent = verifyConsistency(
+          lastSize,
+          size,
+          tree.consistencyProof(lastSize, size),
+          Uint8Array.from(Buffer.from(last.root, 'hex')),
+          root,
+        );
+        if (!consistent)
+          return this.refuse(
+            size,
+            `the log of ${size} entries is not consistent with its last checkpoint of ${lastSize}: a past entry changed`,
+            'entry-changed',
+          );
       }
       const note = signNote(formatCheckpoint({ origin: this.signer.name, size, root }), this.signer);
       await runner.query('INSERT INTO "log_checkpoints" ("size", "root", "note") VALUES ($1, $2, $3)', [
@@ -198,6 +216,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       await runner.commitTransaction();
       this.latestCache = undefined;
       this.refusal = undefined;
+      this.refusalKind = undefined;
       return { signed: true, size };
     } finally {
       if (runner.isTransactionActive) await runner.rollbackTransaction();
@@ -205,10 +224,19 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     }
   }
 
-  private refuse(size: number, refused: string): SignRun {
+  private refuse(size: number, refused: string, kind: SignRefusal): SignRun {
     if (refused !== this.refusal) this.logger.error(`checkpoint refused: ${refused}`);
     this.refusal = refused;
+    this.refusalKind = kind;
     return { signed: false, size, refused };
+  }
+
+  /**
+   * The refusal standing since this instance's last signing pass, or null: the signer signed, or
+   * this instance has not found the log broken. Only the instance holding the signer's lock looks.
+   */
+  standingRefusal(): SignRefusal | null {
+    return this.refusalKind ?? null;
   }
 
   /** The latest signed checkpoint with its cosignatures, or null before the first. */

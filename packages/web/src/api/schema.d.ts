@@ -18,6 +18,143 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/log/key": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The log’s verifier key: name+keyid+base64key */
+        get: operations["LogController_key"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/witnesses": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Verifier keys of the registered witnesses, one a line */
+        get: operations["LogController_witnessKeys"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/checkpoint": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The latest signed checkpoint, with every witness cosignature */
+        get: operations["LogController_checkpoint"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/proof/inclusion": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Inclusion proof of leaf index in the tree of size leaves (RFC 9162 §2.1.3) */
+        get: operations["LogController_inclusion"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/proof/consistency": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Consistency proof between two tree sizes (RFC 9162 §2.1.4) */
+        get: operations["LogController_consistency"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/leaves": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Entry hashes of leaves start to end − 1 (at most 1000) */
+        get: operations["LogController_leaves"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/cosignatures": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** A registered witness sends its cosignature of a checkpoint */
+        post: operations["LogController_cosign"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/registry/witnesses": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Witnesses of the log and when each last cosigned */
+        get: operations["WitnessesController_list"];
+        put?: never;
+        /** Register a witness by its cosignature key */
+        post: operations["WitnessesController_register"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/auth/session": {
         parameters: {
             query?: never;
@@ -318,143 +455,6 @@ export interface paths {
         get: operations["DealersController_card"];
         put?: never;
         post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/key": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** The log’s verifier key: name+keyid+base64key */
-        get: operations["LogController_key"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/witnesses": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Verifier keys of the registered witnesses, one a line */
-        get: operations["LogController_witnessKeys"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/checkpoint": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** The latest signed checkpoint, with every witness cosignature */
-        get: operations["LogController_checkpoint"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/proof/inclusion": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Inclusion proof of leaf index in the tree of size leaves (RFC 9162 §2.1.3) */
-        get: operations["LogController_inclusion"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/proof/consistency": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Consistency proof between two tree sizes (RFC 9162 §2.1.4) */
-        get: operations["LogController_consistency"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/leaves": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Entry hashes of leaves start to end − 1 (at most 1000) */
-        get: operations["LogController_leaves"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/cosignatures": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        get?: never;
-        put?: never;
-        /** A registered witness sends its cosignature of a checkpoint */
-        post: operations["LogController_cosign"];
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/registry/witnesses": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Witnesses of the log and when each last cosigned */
-        get: operations["WitnessesController_list"];
-        put?: never;
-        /** Register a witness by its cosignature key */
-        post: operations["WitnessesController_register"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1525,9 +1525,64 @@ export interface components {
             database: "ok" | "unreachable";
             /** @enum {string} */
             migrations: "up to date" | "pending" | "unknown";
+            /**
+             * @description refusing: the log’s signer found the log broken and signs no checkpoint until it is whole
+             * @enum {string}
+             */
+            log: "ok" | "refusing";
             standby: components["schemas"]["StandbyStatusResponse"];
             /** @description when this report was made (RFC 3339, UTC) */
             time: string;
+            /** @description why the status is degraded, in words; empty when ok */
+            reasons: string[];
+        };
+        InclusionProofResponse: {
+            /** @description the leaf’s index, from 0 */
+            index: number;
+            /** @description the tree size the proof is for */
+            size: number;
+            /** @description base64 SHA-256 hashes (RFC 9162 §2.1), leaf side first */
+            proof: string[];
+        };
+        ConsistencyProofResponse: {
+            from: number;
+            to: number;
+            /** @description base64 SHA-256 hashes (RFC 9162 §2.1) */
+            proof: string[];
+        };
+        LeavesResponse: {
+            start: number;
+            end: number;
+            /** @description entry hashes (hex), one per leaf */
+            leaves: string[];
+        };
+        CosignatureDto: {
+            /** @description The checkpoint note the witness was served and cosigned */
+            checkpoint: string;
+            /** @description The witness’s signature line (C2SP tlog-cosignature) */
+            cosignature: string;
+        };
+        CosignatureResponse: {
+            /** @description the tree size of the cosigned checkpoint */
+            size: number;
+            /** @description the witness’s name */
+            witness: string;
+        };
+        WitnessResponse: {
+            id: string;
+            name: string;
+            key: string;
+            registeredAt: string;
+            lastCosignedAt: string | null;
+            lastCosignedSize: number | null;
+        };
+        WitnessListResponse: {
+            logKey: string;
+            items: components["schemas"]["WitnessResponse"][];
+        };
+        RegisterWitnessDto: {
+            /** @description The witness’s verifier key: name+keyid+base64(0x04 ‖ Ed25519 public key) */
+            key: string;
         };
         MeResponse: {
             id: string;
@@ -1675,54 +1730,6 @@ export interface components {
             cards: {
                 [key: string]: components["schemas"]["DealerCard"];
             };
-        };
-        InclusionProofResponse: {
-            /** @description the leaf’s index, from 0 */
-            index: number;
-            /** @description the tree size the proof is for */
-            size: number;
-            /** @description base64 SHA-256 hashes (RFC 9162 §2.1), leaf side first */
-            proof: string[];
-        };
-        ConsistencyProofResponse: {
-            from: number;
-            to: number;
-            /** @description base64 SHA-256 hashes (RFC 9162 §2.1) */
-            proof: string[];
-        };
-        LeavesResponse: {
-            start: number;
-            end: number;
-            /** @description entry hashes (hex), one per leaf */
-            leaves: string[];
-        };
-        CosignatureDto: {
-            /** @description The checkpoint note the witness was served and cosigned */
-            checkpoint: string;
-            /** @description The witness’s signature line (C2SP tlog-cosignature) */
-            cosignature: string;
-        };
-        CosignatureResponse: {
-            /** @description the tree size of the cosigned checkpoint */
-            size: number;
-            /** @description the witness’s name */
-            witness: string;
-        };
-        WitnessResponse: {
-            id: string;
-            name: string;
-            key: string;
-            registeredAt: string;
-            lastCosignedAt: string | null;
-            lastCosignedSize: number | null;
-        };
-        WitnessListResponse: {
-            logKey: string;
-            items: components["schemas"]["WitnessResponse"][];
-        };
-        RegisterWitnessDto: {
-            /** @description The witness’s verifier key: name+keyid+base64(0x04 ‖ Ed25519 public key) */
-            key: string;
         };
         CountDto: {
             /** @example 120 */
@@ -2919,6 +2926,197 @@ export interface operations {
             };
         };
     };
+    LogController_key: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description one line: the verifier key (C2SP signed-note) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_witnessKeys: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description one verifier key a line, each ending in a newline; empty when there is no witness */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_checkpoint: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description a signed note: the checkpoint’s lines, a blank line, then the signature lines */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_inclusion: {
+        parameters: {
+            query: {
+                index: string;
+                size: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["InclusionProofResponse"];
+                };
+            };
+        };
+    };
+    LogController_consistency: {
+        parameters: {
+            query: {
+                from: string;
+                to: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsistencyProofResponse"];
+                };
+            };
+        };
+    };
+    LogController_leaves: {
+        parameters: {
+            query: {
+                start: string;
+                end: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LeavesResponse"];
+                };
+            };
+        };
+    };
+    LogController_cosign: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CosignatureDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CosignatureResponse"];
+                };
+            };
+        };
+    };
+    WitnessesController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WitnessListResponse"];
+                };
+            };
+        };
+    };
+    WitnessesController_register: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["RegisterWitnessDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WitnessResponse"];
+                };
+            };
+        };
+    };
     AuthController_session: {
         parameters: {
             query?: never;
@@ -3311,197 +3509,6 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["DealerCard"];
-                };
-            };
-        };
-    };
-    LogController_key: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            /** @description one line: the verifier key (C2SP signed-note) */
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "text/plain": string;
-                };
-            };
-        };
-    };
-    LogController_witnessKeys: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            /** @description one verifier key a line, each ending in a newline; empty when there is no witness */
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "text/plain": string;
-                };
-            };
-        };
-    };
-    LogController_checkpoint: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            /** @description a signed note: the checkpoint’s lines, a blank line, then the signature lines */
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "text/plain": string;
-                };
-            };
-        };
-    };
-    LogController_inclusion: {
-        parameters: {
-            query: {
-                index: string;
-                size: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["InclusionProofResponse"];
-                };
-            };
-        };
-    };
-    LogController_consistency: {
-        parameters: {
-            query: {
-                from: string;
-                to: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["ConsistencyProofResponse"];
-                };
-            };
-        };
-    };
-    LogController_leaves: {
-        parameters: {
-            query: {
-                start: string;
-                end: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["LeavesResponse"];
-                };
-            };
-        };
-    };
-    LogController_cosign: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody: {
-            content: {
-                "application/json": components["schemas"]["CosignatureDto"];
-            };
-        };
-        responses: {
-            201: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["CosignatureResponse"];
-                };
-            };
-        };
-    };
-    WitnessesController_list: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["WitnessListResponse"];
-                };
-            };
-        };
-    };
-    WitnessesController_register: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody: {
-            content: {
-                "application/json": components["schemas"]["RegisterWitnessDto"];
-            };
-        };
-        responses: {
-            201: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["WitnessResponse"];
                 };
             };
         };

@@ -20,6 +20,13 @@ export class HealthResponse {
   @ApiProperty({ enum: ['ok', 'unreachable'] }) database: 'ok' | 'unreachable';
   @ApiProperty({ enum: ['up to date', 'pending', 'unknown'] }) migrations:
     'up to date' | 'pending' | 'unknown';
+  @ApiProperty({
+    enum: ['ok', 'refusing'],
+    description: 'refusing: the log’s signer found the log broken and signs no checkpoint until it is whole',
+  })
+  log: 'ok' | 'refusing';
   @ApiProperty({ type: StandbyStatusResponse }) standby: StandbyStatusResponse;
   @ApiProperty({ description: 'when this report was made (RFC 3339, UTC)' }) time: string;
+  @ApiProperty({ type: [String], description: 'why the status is degraded, in words; empty when ok' })
+  reasons: string[];
 }
