@@ -1,4 +1,4 @@
-import { Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { DataSource, type Repository } from 'typeorm';
 import { Account } from '../accounts/entities/account.entity';
@@ -12,12 +12,17 @@ import { LotViewsService } from '../lots/lot-views.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import type { PersonalDataResponse } from './dto/personal-data.dto';
+import { ExhibitsService } from '../exhibits/exhibits.service';
+import { lockBlobNames } from '../storage/blob-locks';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
 
 const FORMER_NAME = 'Former dealer';
 
 /** A dealer's own data: the download of everything held about them, and closing the account. */
 @Injectable()
 export class PersonalDataService {
+  private readonly log = new Logger('personal-data');
+
   constructor(
     private readonly ledger: LedgerService,
     private readonly reader: RollReaderService,
@@ -28,6 +33,8 @@ export class PersonalDataService {
     private readonly sessions: SessionsService,
     private readonly lapse: OfferLapseService,
     private readonly mail: MailService,
+    private readonly exhibits: ExhibitsService,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
 
   async export(accountId: string): Promise<PersonalDataResponse> {
@@ -148,9 +155,30 @@ export class PersonalDataService {
       await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [a.id]);
       await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
     });
+    // The document's bytes go after the commit, so a failed close keeps them.
+    if (a.documentSha256) await this.forgetDocument(a.documentSha256);
     await this.sessions.revokeAll(a.id, 'closed');
     await this.lapse.lapseOffersOf(a.id);
     await this.mail.send(oldEmail, registryLetters.accountClosed(oldName));
     return { message: 'Your account is closed.' };
+  }
+
+  /**
+   * Deletes a closed account's application document from the blob store unless the same bytes
+   * are still named: blobs are shared by content, so another applicant's document or an exhibit
+   * may be the same file. Checked and deleted under the name's exclusive lock, which exhibit
+   * uploads hold shared while they store a file.
+   */
+  private async forgetDocument(sha256: string): Promise<void> {
+    try {
+      await this.dataSource.transaction(async (m) => {
+        await lockBlobNames(m, [sha256], 'exclusive');
+        const applicant = await m.getRepository(Account).exists({ where: { documentSha256: sha256 } });
+        if (!applicant && !(await this.exhibits.namesBlob(sha256, m))) await this.blobs.delete(sha256);
+      });
+    } catch (err) {
+      // The account is closed either way; the bytes stay, and this says so in the log.
+      this.log.warn(`could not delete a closed account's document: ${(err as Error).message}`);
+    }
   }
 }

@@ -3,6 +3,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { AccountsModule } from '../accounts/accounts.module';
 import { RegistryService } from '../accounts/registry.service';
 import { AuthModule } from '../auth/auth.module';
+import { ExhibitsModule } from '../exhibits/exhibits.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { StorageModule } from '../storage/storage.module';
 import { TransfersModule } from '../transfers/transfers.module';
@@ -34,6 +35,7 @@ import { LotViewsModule } from '../lots/lot-views.module';
     AuthModule,
     AccountsModule,
     LedgerModule,
+    ExhibitsModule,
     StorageModule,
     TransfersModule,
     LotViewsModule,
