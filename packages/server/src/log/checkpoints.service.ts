@@ -158,9 +158,9 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       if (!locked) return { signed: false };
       const last = (
         (await runner.query(
-          `SELECT "size", "root", extract(epoch FROM now() - "signed_at") AS "age"
-             FROM "log_checkpoints" ORDER BY "size" DESC LIMIT 1`,
-        )) as Array<{ size: string; root: string; age: string }>
+          `SELECT "origin", "size", "root", extract(epoch FROM now() - "signed_at") AS "age"
+             FROM "log_checkpoints" ORDER BY "size" DESC, "signed_at" DESC LIMIT 1`,
+        )) as Array<{ origin: string; size: string; root: string; age: string }>
       )[0];
       const [{ size: sizeText }] = (await runner.query(
         'SELECT "size" FROM "log_head" WHERE "id" = 1',
@@ -168,8 +168,11 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
         size: string;
       }>;
       const size = Number(sizeText);
-      if (last && Number(last.size) === size) return { signed: false, size };
-      if (last && !force && Number(last.age) < this.config.log.checkpointSeconds)
+      // The public address moved (another host or port): the newest checkpoint names the old
+      // origin, which the new key does not verify. Sign the current size again under the new one.
+      const moved = last !== undefined && last.origin !== this.signer.name;
+      if (last && !moved && Number(last.size) === size) return { signed: false, size };
+      if (last && !moved && !force && Number(last.age) < this.config.log.checkpointSeconds)
         return { signed: false, size };
       let tree: MerkleTree;
       try {
@@ -208,11 +211,13 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
           );
       }
       const note = signNote(formatCheckpoint({ origin: this.signer.name, size, root }), this.signer);
-      await runner.query('INSERT INTO "log_checkpoints" ("size", "root", "note") VALUES ($1, $2, $3)', [
-        size,
-        hashHex(root),
-        note,
-      ]);
+      // Back to an origin signed before at this size: the same text and key give the same note,
+      // which becomes the newest again.
+      await runner.query(
+        `INSERT INTO "log_checkpoints" ("origin", "size", "root", "note") VALUES ($1, $2, $3, $4)
+         ON CONFLICT ON CONSTRAINT "pk_log_checkpoints" DO UPDATE SET "signed_at" = now()`,
+        [this.signer.name, size, hashHex(root), note],
+      );
       await runner.commitTransaction();
       this.latestCache = undefined;
       this.refusal = undefined;
@@ -247,8 +252,9 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       await this.dataSource.query(
         `SELECT c."size", c."root", c."note", c."signed_at",
                 (SELECT array_agg(s."line" ORDER BY s."received_at", s."witness_id")
-                   FROM "log_cosignatures" s WHERE s."checkpoint_size" = c."size") AS "lines"
-           FROM "log_checkpoints" c ORDER BY c."size" DESC LIMIT 1`,
+                   FROM "log_cosignatures" s
+                  WHERE s."checkpoint_origin" = c."origin" AND s."checkpoint_size" = c."size") AS "lines"
+           FROM "log_checkpoints" c ORDER BY c."size" DESC, c."signed_at" DESC LIMIT 1`,
       );
     const r = rows[0];
     const value = r
