@@ -22,6 +22,7 @@ import {
 import { DataSource } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { LogLeavesService } from '../ledger/log-leaves.service';
 import { loadLogSeed } from './log-key';
 import { NO_LOG_JOBS } from './log-jobs';
 import { LogGapError, LogTreeService } from './log-tree.service';
@@ -80,6 +81,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly dataSource: DataSource,
     private readonly tree: LogTreeService,
+    private readonly leaves: LogLeavesService,
     private readonly scheduler: SchedulerRegistry,
     @Optional() @Inject(NO_LOG_JOBS) private readonly noJobs?: boolean,
   ) {}
@@ -162,12 +164,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
              FROM "log_checkpoints" ORDER BY "size" DESC, "signed_at" DESC LIMIT 1`,
         )) as Array<{ origin: string; size: string; root: string; age: string }>
       )[0];
-      const [{ size: sizeText }] = (await runner.query(
-        'SELECT "size" FROM "log_head" WHERE "id" = 1',
-      )) as Array<{
-        size: string;
-      }>;
-      const size = Number(sizeText);
+      const size = await this.leaves.size(runner.manager);
       // The public address moved (another host or port): the newest checkpoint names the old
       // origin, which the new key does not verify. Sign the current size again under the new one.
       const moved = last !== undefined && last.origin !== this.signer.name;

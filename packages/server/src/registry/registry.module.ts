@@ -3,11 +3,11 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { AccountsModule } from '../accounts/accounts.module';
 import { RegistryService } from '../accounts/registry.service';
 import { AuthModule } from '../auth/auth.module';
-import { ExhibitsModule } from '../exhibits/exhibits.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { StorageModule } from '../storage/storage.module';
 import { TransfersModule } from '../transfers/transfers.module';
 import { BlockedDigestsModule } from './blocked-digests.module';
+import { ExhibitsModule } from '../exhibits/exhibits.module';
 import { RedactionRequest } from './entities/redaction-request.entity';
 import { RegistrarAction } from './entities/registrar-action.entity';
 import { Report } from './entities/report.entity';
@@ -35,10 +35,10 @@ import { LotViewsModule } from '../lots/lot-views.module';
     AuthModule,
     AccountsModule,
     LedgerModule,
-    ExhibitsModule,
     StorageModule,
     TransfersModule,
     LotViewsModule,
+    ExhibitsModule,
   ],
   controllers: [
     RedactionsController,
