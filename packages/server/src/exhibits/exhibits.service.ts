@@ -199,6 +199,21 @@ export class ExhibitsService {
   }
 
   /**
+   * Whether an exhibit names the blob `digest` (its original or a derivative). Call it holding the
+   * name's exclusive lock ({@link lockBlobNames}) to delete the blob when nothing names it.
+   */
+  async namesBlob(digest: string, m: EntityManager): Promise<boolean> {
+    const named: unknown[] = await m.query(
+      `SELECT 1 FROM "exhibits"
+        WHERE "original_sha256" = $1
+           OR "ref" -> 'derivatives' @> jsonb_build_array(jsonb_build_object('sha256', $1::text))
+        LIMIT 1`,
+      [digest],
+    );
+    return named.length > 0;
+  }
+
+  /**
    * Deletes blobs a failed upload wrote, unless an exhibit names them (the same bytes may have
    * been added elsewhere meanwhile: blobs are shared by content). Each name is checked and
    * deleted under an exclusive lock, so an upload storing the same bytes waits or re-writes.
@@ -208,14 +223,7 @@ export class ExhibitsService {
       try {
         await this.dataSource.transaction(async (m) => {
           await lockBlobNames(m, [digest], 'exclusive');
-          const named: unknown[] = await m.query(
-            `SELECT 1 FROM "exhibits"
-              WHERE "original_sha256" = $1
-                 OR "ref" -> 'derivatives' @> jsonb_build_array(jsonb_build_object('sha256', $1::text))
-              LIMIT 1`,
-            [digest],
-          );
-          if (named.length === 0) await this.store.delete(digest);
+          if (!(await this.namesBlob(digest, m))) await this.store.delete(digest);
         });
       } catch (err) {
         this.log.warn(`could not remove unnamed blob ${digest}: ${(err as Error).message}`);
