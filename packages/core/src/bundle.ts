@@ -1,5 +1,4 @@
-import { canonicalise } from './canonical.js';
-import { factsOf } from './facts.js';
+import { factsMatchBody } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode, type StoredEntry } from './entry.js';
 import { BundleError } from './errors.js';
 import { entryHash } from './hash.js';
@@ -206,7 +205,7 @@ function verifyLinkRoll(r: BundleRoll): { failure: VerifyFailure | null; entries
     if (issues.length === 0 && h.v >= 2)
       issues.push(...bodyBoundIssues(h.kind, body as SplitBody | CombinedBody, h.time));
     if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
-    if (h.facts && canonicalise(factsOf(h.kind, body as SplitBody)) !== canonicalise(h.facts))
+    if (h.facts && !factsMatchBody(h.kind, body as SplitBody, h.facts))
       return fail(h.seq, 'bad-facts', 'the header facts differ from the body');
     out.push({ header: h, hash: e.hash, body: body as SplitBody | CombinedBody });
   }

@@ -244,8 +244,10 @@ export interface HeaderProblem {
  * Decodes a stored header string: canonical form, then version, then field types. Never
  * throws; returns the header or the first problem (`non-canonical`, `unknown-version`,
  * `bad-header`, `bad-seq`, `bad-time`, `bad-actor`, `bad-prev`, `bad-body-digest`, `bad-parent`).
+ * `knownHash`, when given, is a value already known to be 64 lower-case hex digits (the previous
+ * entry's hash, which `prev` usually repeats), so that check is not made twice.
  */
-export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
+export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | HeaderProblem {
   let v: unknown;
   try {
     if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
@@ -262,7 +264,7 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
       message: `format version ${JSON.stringify(o.v)} is not ${FORMAT_VERSIONS.join(', ')}`,
     };
   const keys = HEADER_KEYS[o.v as FormatVersion];
-  for (const k of Object.keys(o)) {
+  for (const k in o) {
     if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
@@ -277,7 +279,8 @@ export function decodeHeader(text: unknown): EntryHeader | HeaderProblem {
   if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };
   if (!isActorId(o.actor)) return { reason: 'bad-actor', message: 'actor is not an account id' };
   lastLot = o.lot as string;
-  if (!isHex64(o.prev)) return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
+  if (o.prev !== knownHash && !isHex64(o.prev))
+    return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
   if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
   if ('sealed' in o && !isHex64(o.sealed))
     return { reason: 'bad-header', message: 'sealed is not 64 hex digits' };

@@ -88,3 +88,38 @@ export function factsOf(kind: EntryKind, body: AnyBody | Omit<AnyBody, 'nonce'>)
       return {};
   }
 }
+
+/**
+ * True when a header's rule facts are exactly those of its body: the same members and values,
+ * as their canonical texts would be equal (a member whose value is undefined is absent, as in
+ * JSON). Compares the values themselves, so nothing is written out for each entry.
+ */
+export function factsMatchBody(
+  kind: EntryKind,
+  body: AnyBody | Omit<AnyBody, 'nonce'>,
+  facts: RuleFacts,
+): boolean {
+  return sameJsonValue(factsOf(kind, body), facts);
+}
+
+function sameJsonValue(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  if (a === null || b === null || typeof a !== 'object' || typeof b !== 'object') return false;
+  if (Array.isArray(a) !== Array.isArray(b)) return false;
+  if (Array.isArray(a)) {
+    const list = b as unknown[];
+    if (a.length !== list.length) return false;
+    for (let i = 0; i < a.length; i++) if (!sameJsonValue(a[i], list[i])) return false;
+    return true;
+  }
+  const x = a as Record<string, unknown>;
+  const y = b as Record<string, unknown>;
+  let members = 0;
+  for (const k in x) {
+    if (!Object.prototype.hasOwnProperty.call(x, k) || x[k] === undefined) continue;
+    members++;
+    if (!Object.prototype.hasOwnProperty.call(y, k) || !sameJsonValue(x[k], y[k])) return false;
+  }
+  for (const k in y) if (Object.prototype.hasOwnProperty.call(y, k) && y[k] !== undefined) members--;
+  return members === 0;
+}

@@ -33,6 +33,25 @@ const hostSha256: HostSha256 | null = (() => {
   return null;
 })();
 
+/**
+ * The host's one-shot SHA-256 of a string's UTF-8 encoding (node:crypto `hash`, which encodes
+ * natively and, like TextEncoder, writes a lone surrogate as U+FFFD), or null where there is none.
+ */
+const hostSha256OfText: ((text: string) => string) | null = (() => {
+  try {
+    const proc = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
+    const c = proc?.getBuiltinModule?.('node:crypto') as
+      { hash?: (algorithm: string, data: string, encoding: 'hex') => string } | undefined;
+    if (typeof c?.hash === 'function') {
+      const hash = c.hash;
+      return (text) => hash('sha256', text, 'hex');
+    }
+  } catch {
+    // no host library
+  }
+  return null;
+})();
+
 function sha256Hex(bytes: Uint8Array): string {
   return hostSha256 ? hostSha256(bytes) : bytesToHex(sha256(bytes));
 }
@@ -74,6 +93,13 @@ const tagBytes: Record<Domain, Uint8Array> = {
   sealedRoot: tagged(DOMAIN.sealedRoot),
 };
 
+const tagText: Record<Domain, string> = {
+  entry: DOMAIN.entry + '\0',
+  body: DOMAIN.body + '\0',
+  sealedField: DOMAIN.sealedField + '\0',
+  sealedRoot: DOMAIN.sealedRoot + '\0',
+};
+
 function tagged(tag: string): Uint8Array {
   const t = utf8ToBytes(tag);
   const out = new Uint8Array(t.length + 1);
@@ -86,6 +112,7 @@ function tagged(tag: string): Uint8Array {
  * Precondition: `text` is the exact canonical string being committed to.
  */
 export function domainHash(domain: Domain, text: string): string {
+  if (hostSha256OfText) return hostSha256OfText(tagText[domain] + text);
   const tag = tagBytes[domain];
   // One reusable buffer: a UTF-8 string takes at most 3 bytes per UTF-16 code unit.
   const need = tag.length + text.length * 3;

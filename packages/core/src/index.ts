@@ -83,6 +83,7 @@ export {
   isReservedActor,
   opinionsDisagree,
   reduceEntry,
+  reduceEntryInPlace,
   reduceRoll,
 } from './rules.js';
 export type {

@@ -1,5 +1,4 @@
-import { canonicalise } from './canonical.js';
-import { factsOf } from './facts.js';
+import { factsMatchBody } from './facts.js';
 import { decodeHeader, isHeaderProblem, type ReasonCode } from './entry.js';
 import { entryHash } from './hash.js';
 import { decodeStoredBody } from './stored-body.js';
@@ -71,7 +70,7 @@ export function verifyInheritedRoll(r: InheritedRollInput): {
       const body = stored.body;
       const issues = bodyIssues(h.kind, body, h.v);
       if (issues.length > 0) return fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
-      if (h.facts && canonicalise(factsOf(h.kind, body as AnyBody)) !== canonicalise(h.facts))
+      if (h.facts && !factsMatchBody(h.kind, body as AnyBody, h.facts))
         return fail(h.seq, 'bad-facts', 'the header facts differ from the body');
       if (h.kind === 'exhibit-added' && !('exhibit' in (body as ExhibitAddedBody)))
         return fail(h.seq, 'bad-body', 'an inherited exhibit is a public one');

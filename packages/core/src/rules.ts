@@ -557,7 +557,22 @@ export interface ReducibleEntry {
  * opinion stops counting and a sale date becomes unknown.
  */
 export function reduceEntry(state: RollState | null, entry: ReducibleEntry): RollState {
+  return applyEntry(state, entry, false);
+}
+
+/**
+ * {@link reduceEntry} for a caller that owns `state` and every array in it (a verifier or a
+ * whole-roll reduction that built the state itself from seq 0): the state is updated in place
+ * and returned, so a long roll costs no copy of its growing lists per entry. The state passed
+ * in must not be used by anyone else afterwards.
+ */
+export function reduceEntryInPlace(state: RollState | null, entry: ReducibleEntry): RollState {
+  return applyEntry(state, entry, true);
+}
+
+function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boolean): RollState {
   const { header: h, body } = entry;
+  const add = <T>(list: T[] | undefined, ...items: T[]): T[] => addTo(owned, list, items);
   const facts: RuleFacts | null = h.facts ?? (body ? factsOf(h.kind, body) : null);
   const head: RollHead = { lot: h.lot, seq: h.seq, hash: entry.hash, time: h.time };
   if (state === null) {
@@ -593,12 +608,14 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       redactedSeqs: [],
     });
   }
-  const s: RollState = { ...state, head, version: Math.max(state.version ?? 1, h.v) as FormatVersion };
+  const s: RollState = owned ? state : { ...state };
+  s.head = head;
+  s.version = Math.max(state.version ?? 1, h.v) as FormatVersion;
   switch (h.kind) {
     case 'described': {
       s.description = body ? (body as RegisteredBody).description : null;
       s.descriptionSeq = h.seq;
-      s.descriptionSeqs = [...s.descriptionSeqs, h.seq];
+      s.descriptionSeqs = add(s.descriptionSeqs, h.seq);
       s.listed = facts ? facts.listed! : false;
       s.listedKnown = facts !== null;
       if (ACTIVE.includes(s.status)) {
@@ -608,20 +625,23 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       break;
     }
     case 'exhibit-added':
-      if (facts?.original) s.exhibits = [...(s.exhibits ?? []), { seq: h.seq, sha256: facts.original }];
+      if (facts?.original) s.exhibits = add(s.exhibits, { seq: h.seq, sha256: facts.original });
       break;
     case 'opinion':
-      s.opinions = [
-        ...s.opinions,
-        { seq: h.seq, author: h.actor, time: h.time, body: body as OpinionBody | null },
-      ];
+      s.opinions = add(s.opinions, {
+        seq: h.seq,
+        author: h.actor,
+        time: h.time,
+        body: body as OpinionBody | null,
+      });
       if (facts?.request !== undefined) s.openRequests = closeRequest(s, facts.request);
       break;
     case 'opinion-requested':
-      s.openRequests = [
-        ...(s.openRequests ?? []),
-        { seq: h.seq, assessor: facts ? facts.assessor! : null, time: h.time },
-      ];
+      s.openRequests = add(s.openRequests, {
+        seq: h.seq,
+        assessor: facts ? facts.assessor! : null,
+        time: h.time,
+      });
       break;
     case 'opinion-request-closed':
       if (facts) s.openRequests = closeRequest(s, facts.request!);
@@ -661,13 +681,13 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       const before = s.taken ?? { value: 0, estimated: false };
       s.taken = { value: before.value + took.value, estimated: before.estimated || took.estimated };
       s.remaining = remainingAfter(s, took);
-      s.children = [...s.children, ...kids.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count }))];
-      s.linkSeqs = [...s.linkSeqs, h.seq];
+      s.children = add(s.children, ...kids.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count })));
+      s.linkSeqs = add(s.linkSeqs, h.seq);
       if (s.remaining.value === 0) s.status = h.kind;
       break;
     }
     case 'observed':
-      s.observationSeqs = [...s.observationSeqs, h.seq];
+      s.observationSeqs = add(s.observationSeqs, h.seq);
       break;
     case 'sold':
       s.status = 'sold';
@@ -686,8 +706,8 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
       break;
     case 'redacted': {
       const t = facts!.target!;
-      s.redactionSeqs = [...s.redactionSeqs, h.seq];
-      s.redactedSeqs = [...s.redactedSeqs, t];
+      s.redactionSeqs = add(s.redactionSeqs, h.seq);
+      s.redactedSeqs = add(s.redactedSeqs, t);
       if (s.opinions.some((o) => o.seq === t))
         s.opinions = s.opinions.map((o) => (o.seq === t ? { ...o, body: null } : o));
       if (s.exhibits?.some((e) => e.seq === t)) s.exhibits = s.exhibits.filter((e) => e.seq !== t);
@@ -702,6 +722,13 @@ export function reduceEntry(state: RollState | null, entry: ReducibleEntry): Rol
   // A lot that reaches a final status closes every open request.
   if (s.openRequests?.length && FINAL_STATUSES.includes(s.status)) s.openRequests = [];
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
+}
+
+/** `list` with `items` added at the end: a new array, or the same one when the state is owned. */
+function addTo<T>(owned: boolean, list: T[] | undefined, items: T[]): T[] {
+  if (!owned || list === undefined) return [...(list ?? []), ...items];
+  for (const item of items) list.push(item);
+  return list;
 }
 
 function closeRequest(s: RollState, seq: number): OpenRequest[] {
@@ -733,7 +760,7 @@ function remainingAfter(s: RollState, took: BeadCount | null): BeadCount {
  */
 export function reduceRoll(entries: readonly ReducibleEntry[]): RollState {
   let s: RollState | null = null;
-  for (const e of entries) s = reduceEntry(s, e);
+  for (const e of entries) s = applyEntry(s, e, true);
   if (s === null) throw new RangeError('a roll has at least one entry');
   return s;
 }

@@ -30,17 +30,31 @@ export const LIMITS = {
   exhibitBytes: Number.MAX_SAFE_INTEGER,
 } as const;
 
-const HEX64 = /^[0-9a-f]{64}$/;
-const HEX32 = /^[0-9a-f]{32}$/;
 const ACTOR = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
-const TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
+/** The shape of an entry time: `d` a digit, any other character itself. */
+const TIME_SHAPE = 'dddd-dd-ddTdd:dd:dd.dddZ';
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
 const CURRENCY = /^[A-Z]{3}$/;
 const MEDIA_TYPE = /^[a-z0-9][a-z0-9!#$&^_.+-]*\/[a-z0-9][a-z0-9!#$&^_.+-]*$/;
 
 /** True for 64 lower-case hex digits (a SHA-256 value). */
 export function isHex64(v: unknown): v is string {
-  return typeof v === 'string' && HEX64.test(v);
+  return isLowerHex(v, 64);
+}
+
+function isHex32(v: unknown): boolean {
+  return isLowerHex(v, 32);
+}
+
+/** 1 for the code units of 0–9 and a–f. */
+const LOWER_HEX = new Uint8Array(128);
+for (const c of '0123456789abcdef') LOWER_HEX[c.charCodeAt(0)] = 1;
+
+/** True for a string of exactly `length` lower-case hex digits (a table beats a pattern here). */
+function isLowerHex(v: unknown, length: number): v is string {
+  if (typeof v !== 'string' || v.length !== length) return false;
+  for (let i = 0; i < length; i++) if (LOWER_HEX[v.charCodeAt(i)] !== 1) return false;
+  return true;
 }
 
 /** True for an opaque account id: 1–64 of A–Z a–z 0–9 . _ : - starting with a letter or digit. */
@@ -50,25 +64,34 @@ export function isActorId(v: unknown): v is string {
 
 /** True for a UTC time written exactly `YYYY-MM-DDTHH:MM:SS.sssZ` that names a real instant. */
 export function isEntryTime(v: unknown): v is string {
-  if (typeof v !== 'string' || v.length !== 24 || !TIME.test(v)) return false;
-  return (
-    isCalendarDate(v.slice(0, 10)) &&
-    v.slice(11, 13) < '24' &&
-    v.slice(14, 16) < '60' &&
-    v.slice(17, 19) < '60'
-  );
+  if (typeof v !== 'string' || v.length !== 24) return false;
+  for (let i = 0; i < 24; i++) {
+    const c = v.charCodeAt(i);
+    if (TIME_SHAPE.charCodeAt(i) === 0x64 /* d */ ? c < 0x30 || c > 0x39 : c !== TIME_SHAPE.charCodeAt(i))
+      return false;
+  }
+  // Digits are known from here on: hours below 24, minutes and seconds below 60.
+  const hour = (v.charCodeAt(11) - 48) * 10 + v.charCodeAt(12) - 48;
+  if (hour > 23 || v.charCodeAt(14) > 53 || v.charCodeAt(17) > 53) return false;
+  return isDayOfMonth(v, 0);
 }
 
 /** True for a real calendar date written `YYYY-MM-DD`. */
 export function isCalendarDate(v: unknown): v is string {
-  if (typeof v !== 'string' || !DATE.test(v)) return false;
-  const y = Number(v.slice(0, 4));
-  const m = Number(v.slice(5, 7));
-  const d = Number(v.slice(8, 10));
+  return typeof v === 'string' && DATE.test(v) && isDayOfMonth(v, 0);
+}
+
+const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31] as const;
+
+/** True when the `YYYY-MM-DD` digits at `at` in `v` (already known to be digits) name a real day. */
+function isDayOfMonth(v: string, at: number): boolean {
+  const digit = (i: number) => v.charCodeAt(at + i) - 48;
+  const y = digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3);
+  const m = digit(5) * 10 + digit(6);
+  const d = digit(8) * 10 + digit(9);
   if (m < 1 || m > 12 || d < 1) return false;
   const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
-  const days = [31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][m - 1]!;
-  return d <= days;
+  return d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1]!);
 }
 
 type Obj = Record<string, unknown>;
@@ -87,8 +110,9 @@ class Checker {
     }
     const o = v as Obj;
     for (const k of required) if (!(k in o)) this.fail(join(path, k), 'is required');
-    const allowed = new Set([...required, ...optional]);
-    for (const k of Object.keys(o)) if (!allowed.has(k)) this.fail(join(path, k), 'is not a known field');
+    for (const k in o)
+      if (Object.prototype.hasOwnProperty.call(o, k) && !required.includes(k) && !optional.includes(k))
+        this.fail(join(path, k), 'is not a known field');
     return o;
   }
   str(o: Obj, k: string, path: string, max: number, opt = false, min = 1): void {
@@ -109,24 +133,22 @@ class Checker {
     if (!test(o[k])) this.fail(join(path, k), `must be ${what}`);
   }
   oneOf(o: Obj, k: string, path: string, values: readonly string[], opt = false): void {
-    this.pattern(
-      o,
-      k,
-      path,
-      (v) => typeof v === 'string' && values.includes(v),
-      `one of ${values.join(', ')}`,
-      opt,
-    );
+    if (!(k in o)) {
+      if (!opt) this.fail(join(path, k), 'is required');
+      return;
+    }
+    const v = o[k];
+    if (typeof v !== 'string' || !values.includes(v))
+      this.fail(join(path, k), `must be one of ${values.join(', ')}`);
   }
   int(o: Obj, k: string, path: string, min: number, max: number, opt = false): void {
-    this.pattern(
-      o,
-      k,
-      path,
-      (v) => Number.isSafeInteger(v) && (v as number) >= min && (v as number) <= max,
-      `an integer from ${min} to ${max}`,
-      opt,
-    );
+    if (!(k in o)) {
+      if (!opt) this.fail(join(path, k), 'is required');
+      return;
+    }
+    const v = o[k];
+    if (!Number.isSafeInteger(v) || (v as number) < min || (v as number) > max)
+      this.fail(join(path, k), `must be an integer from ${min} to ${max}`);
   }
   bool(o: Obj, k: string, path: string): void {
     this.pattern(o, k, path, (v) => typeof v === 'boolean', 'true or false');
@@ -162,7 +184,9 @@ class Checker {
     const v = o[k];
     if (!Array.isArray(v)) return this.fail(join(path, k), 'must be a list');
     if (v.length > max) return this.fail(join(path, k), `must have at most ${max} items`);
-    v.forEach((item, i) => each(item, `${join(path, k)}[${i}]`));
+    if (v.length === 0) return;
+    const at = join(path, k);
+    for (let i = 0; i < v.length; i++) each(v[i], `${at}[${i}]`);
   }
   uniqueList(o: Obj, k: string, path: string, values: readonly string[]): void {
     this.list(
@@ -469,12 +493,7 @@ export function bodyIssues(
   const c = new Checker(version);
   if (!ENTRY_KINDS.includes(kind)) return [{ path: 'kind', message: 'is not a known kind' }];
   bodyCheckers[kind](c, body);
-  if (
-    body !== null &&
-    typeof body === 'object' &&
-    'nonce' in body &&
-    !HEX32.test(String((body as Obj).nonce))
-  ) {
+  if (body !== null && typeof body === 'object' && 'nonce' in body && !isHex32((body as Obj).nonce)) {
     c.fail('nonce', 'must be 32 lower-case hex digits');
   }
   return c.issues;

@@ -1,11 +1,11 @@
-import { canonicalise, parseCanonical } from './canonical.js';
-import { factsOf } from './facts.js';
+import { parseCanonical } from './canonical.js';
+import { factsMatchBody } from './facts.js';
 import { decodeHeader, isHeaderProblem, NEVER_REDACTED, type ReasonCode, type StoredEntry } from './entry.js';
 import { bodyDigest, entryHash } from './hash.js';
-import { checkTransition, reduceEntry, type RollHead, type RollState } from './rules.js';
+import { checkTransition, reduceEntryInPlace, type RollHead, type RollState } from './rules.js';
 import { GENESIS_PREV, type AnyBody, type EntryHeader } from './types.js';
 import { bodyBoundIssues } from './bounds.js';
-import { bodyIssues, isHex64 } from './validate.js';
+import { bodyIssues } from './validate.js';
 
 /** The first entry at which a roll breaks. */
 export interface VerifyFailure {
@@ -89,9 +89,10 @@ export class RollVerifier {
   private pushUnsafe(entry: StoredEntry, expectSeq: number): VerifyFailure | null {
     if (entry === null || typeof entry !== 'object')
       return this.fail(expectSeq, 'bad-header', 'an entry is an object');
-    const h = decodeHeader(entry.header);
+    const h = decodeHeader(entry.header, this.state?.head.hash);
     if (isHeaderProblem(h)) return this.fail(expectSeq, h.reason, h.message);
-    if (typeof entry.hash !== 'string' || !isHex64(entry.hash) || entryHash(entry.header) !== entry.hash) {
+    // A hash equal to the one computed here is 64 lower-case hex digits.
+    if (typeof entry.hash !== 'string' || entryHash(entry.header) !== entry.hash) {
       return this.fail(expectSeq, 'bad-hash', 'the entry hash does not match its header');
     }
     if (this.lot === null) this.lot = h.lot;
@@ -129,7 +130,7 @@ export class RollVerifier {
       // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
       if (issues.length === 0 && h.v >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
-      if (h.facts && canonicalise(factsOf(h.kind, body)) !== canonicalise(h.facts))
+      if (h.facts && !factsMatchBody(h.kind, body, h.facts))
         return this.fail(h.seq, 'bad-facts', 'the header facts differ from the body');
       if ('sealedOnly' in body && h.sealed === undefined)
         return this.fail(h.seq, 'bad-body', 'a sealed-only exhibit needs the header to commit sealed fields');
@@ -149,7 +150,8 @@ export class RollVerifier {
     for (const message of t.unchecked ?? []) this.unchecked.push({ seq: h.seq, message });
     if (h.kind === 'redacted')
       this.pending.delete(h.facts ? h.facts.target! : (body as { target: number }).target);
-    this.state = reduceEntry(this.state, { header: h, hash: entry.hash, body });
+    // The verifier built this state from seq 0 and lends it to no one, so it grows in place.
+    this.state = reduceEntryInPlace(this.state, { header: h, hash: entry.hash, body });
     this.last = { hash: entry.hash, header: h, body };
     this.count++;
     return null;
@@ -168,10 +170,18 @@ export class RollVerifier {
       lot: this.state.lot,
       entries: this.count,
       head: this.state.head,
-      state: this.state,
+      state: snapshot(this.state),
       unchecked: [...this.unchecked],
     };
   }
+}
+
+/** A copy of a state the verifier keeps growing, with its own lists, for the caller to keep. */
+function snapshot(state: RollState): RollState {
+  const copy = { ...state };
+  for (const [key, value] of Object.entries(copy))
+    if (Array.isArray(value)) (copy as Record<string, unknown>)[key] = [...(value as unknown[])];
+  return copy;
 }
 
 /** Starts an incremental verifier; see {@link RollVerifier}. */

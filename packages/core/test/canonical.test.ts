@@ -99,3 +99,130 @@ describe('canonical check agrees with the RFC 8785 serialiser on random values',
     expect(() => parseCanonical('{"9":2,"10":1}')).toThrow(CanonicalError);
   });
 });
+
+describe('reading a text as already canonical agrees with writing its parse out again', () => {
+  // The reference is the ledger serialiser (checked against the RFC 8785 vectors above): a
+  // text is canonical exactly when canonicalise(JSON.parse(text)) gives the text back.
+  const reference = (text: string): boolean => {
+    try {
+      return canonicalise(JSON.parse(text)) === text;
+    } catch {
+      return false;
+    }
+  };
+  const accepted = (text: string): boolean => {
+    try {
+      parseCanonical(text);
+      return true;
+    } catch (e) {
+      if (e instanceof CanonicalError) return false;
+      throw e;
+    }
+  };
+  // Small edits that make many near-canonical spellings: white space, escapes, number forms,
+  // repeated or reordered keys.
+  const pieces = [
+    ' ',
+    '\\',
+    '"',
+    'u',
+    '0',
+    '00',
+    '1',
+    'e',
+    'E',
+    '.',
+    '-',
+    '+',
+    ',',
+    ':',
+    '{',
+    '}',
+    '[',
+    ']',
+    '\\u0000',
+    '\\u001f',
+    '\\u001F',
+    '\\u0020',
+    '\\u0041',
+    '\\n',
+    '\\/',
+    '\\t',
+    '\\b',
+    '\\ud800',
+    '\ud83d\ude00',
+    '\u2028',
+    '\x7f',
+    'é',
+    '"a":1,',
+    '"a":1',
+    '"b":2,',
+    ',"a":1',
+    '9007199254740993',
+    '1.5',
+    '-0',
+    '123456789012345',
+    '1234567890123456',
+    '1e2',
+  ];
+
+  it('on random values and small edits of their canonical text', async () => {
+    const fc = (await import('fast-check')).default;
+    const edit = fc.record({
+      at: fc.nat(),
+      cut: fc.nat({ max: 2 }),
+      piece: fc.constantFrom(...pieces),
+    });
+    fc.assert(
+      fc.property(
+        fc.jsonValue({ maxDepth: 3, stringUnit: 'binary' }),
+        fc.array(edit, { maxLength: 2 }),
+        (value, edits) => {
+          let text: string;
+          try {
+            text = canonicalise(value);
+          } catch {
+            return; // e.g. an unsafe integer or a lone surrogate
+          }
+          expect(accepted(text)).toBe(true);
+          let changed = text;
+          for (const { at, cut, piece } of edits) {
+            const i = at % (changed.length + 1);
+            changed = changed.slice(0, i) + piece + changed.slice(i + cut);
+          }
+          expect(accepted(changed)).toBe(reference(changed));
+          const unsorted = JSON.stringify(value);
+          if (unsorted !== undefined) expect(accepted(unsorted)).toBe(reference(unsorted));
+        },
+      ),
+      { numRuns: 3000 },
+    );
+  });
+
+  it('on texts written to probe each rule of the quick reading', () => {
+    const texts = [
+      '{"a":"\\u001f","b":"\\n"}', // a control character as \u00xx, a short escape
+      '{"a":"\\u000a"}', // a line feed has a short escape
+      '{"a":"\\u001F"}', // upper-case hex digits
+      '{"a\\n":1,"a":2}', // a key with an escape, out of order once decoded
+      '{"a":1,"a\\u0000":2}',
+      '{"":1,"a":{}}',
+      '{"":1,"":2}', // a repeated empty key
+      '{"ab":1,"a":2}', // a shorter key after a longer one
+      '{"a":[],"b":[{}],"c":[[],{"d":[1,-2,0]}]}',
+      '[-0]',
+      '[0.5]',
+      '[100000000000000]', // 15 digits
+      '[1000000000000000]', // 16 digits
+      '[9007199254740991]',
+      '[9007199254740992]',
+      '"\\ud83d\\ude00"', // an escaped surrogate pair: canonical text writes the character
+      '"\ud83d\ude00"',
+      '"\\/"',
+      '[true,false,null]',
+      '{"10":1,"9":2}',
+      '{"9":2,"10":1}',
+    ];
+    for (const t of texts) expect([t, accepted(t)]).toEqual([t, reference(t)]);
+  });
+});
