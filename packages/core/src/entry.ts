@@ -269,16 +269,20 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
     return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
-  if (typeof o.kind !== 'string' || !(ENTRY_KINDS as readonly string[]).includes(o.kind)) {
-    return { reason: 'bad-header', message: 'kind is not a known kind' };
-  }
-  if ((o.v as FormatVersion) < kindSince(o.kind as EntryKind))
-    return { reason: 'bad-header', message: `${o.kind} is not a kind of format version ${o.v as number}` };
+  const since = typeof o.kind === 'string' ? KIND_SINCE.get(o.kind) : undefined;
+  if (since === undefined) return { reason: 'bad-header', message: 'kind is not a known kind' };
+  if ((o.v as FormatVersion) < since)
+    return {
+      reason: 'bad-header',
+      message: `${o.kind as string} is not a kind of format version ${o.v as number}`,
+    };
   if (!Number.isSafeInteger(o.seq) || (o.seq as number) < 0)
     return { reason: 'bad-seq', message: 'seq is not a non-negative integer' };
   if (!isEntryTime(o.time)) return { reason: 'bad-time', message: 'time is not YYYY-MM-DDTHH:MM:SS.sssZ' };
-  if (!isActorId(o.actor)) return { reason: 'bad-actor', message: 'actor is not an account id' };
+  if (o.actor !== lastActor && !isActorId(o.actor))
+    return { reason: 'bad-actor', message: 'actor is not an account id' };
   lastLot = o.lot as string;
+  lastActor = o.actor as string;
   if (o.prev !== knownHash && !isHex64(o.prev))
     return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
   if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
@@ -298,8 +302,13 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
   return o as unknown as EntryHeader;
 }
 
-// The lot code checked last: a roll repeats it in every header, so it is validated once.
+// The lot code and actor checked last: a roll repeats them from header to header, so each is
+// validated once.
 let lastLot: unknown = null;
+let lastActor: unknown = null;
+
+/** Each kind and the format version that added it. */
+const KIND_SINCE: ReadonlyMap<string, FormatVersion> = new Map(ENTRY_KINDS.map((k) => [k, kindSince(k)]));
 
 /** True when {@link decodeHeader} returned a problem rather than a header. */
 export function isHeaderProblem(x: EntryHeader | HeaderProblem): x is HeaderProblem {

@@ -126,9 +126,9 @@ export class RollVerifier {
       }
       if (bodyDigest(entry.body) !== h.body)
         return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
-      const issues = bodyIssues(h.kind, body, h.v);
+      let issues = bodyIssues(h.kind, body, h.v);
       // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
-      if (issues.length === 0 && h.v >= 2) issues.push(...bodyBoundIssues(h.kind, body, h.time));
+      if (issues.length === 0 && h.v >= 2) issues = bodyBoundIssues(h.kind, body, h.time);
       if (issues.length > 0) return this.fail(h.seq, 'bad-body', `${issues[0]!.path}: ${issues[0]!.message}`);
       if (h.facts && !factsMatchBody(h.kind, body, h.facts))
         return this.fail(h.seq, 'bad-facts', 'the header facts differ from the body');
@@ -147,7 +147,7 @@ export class RollVerifier {
       time: h.time,
     });
     if (!t.ok) return this.fail(h.seq, t.code, t.message);
-    for (const message of t.unchecked ?? []) this.unchecked.push({ seq: h.seq, message });
+    if (t.unchecked) for (const message of t.unchecked) this.unchecked.push({ seq: h.seq, message });
     if (h.kind === 'redacted')
       this.pending.delete(h.facts ? h.facts.target! : (body as { target: number }).target);
     // The verifier built this state from seq 0 and lends it to no one, so it grows in place.

@@ -180,6 +180,13 @@ describe('offline at a fair', () => {
       // Kept on the phone, not in the page: a reload with no signal still shows it waiting.
       await page.reload();
       await waiting.waitFor();
+      // The header still names the dealer, remembered on this phone, and says there is no signal.
+      await page.getByRole('button', { name: `Account menu of ${dealer.displayName}` }).waitFor();
+      await page.getByText('No signal', { exact: true }).waitFor();
+      // The sale waiting for this lot is remembered too: no second sale is offered.
+      await page.getByText('Sale recorded on this device: waiting to send.').waitFor();
+      expect(await page.getByRole('button', { name: 'Sell', exact: true }).count()).toBe(0);
+      await screenshot(page, 'offline-quick-sale-reloaded-390');
       const kept = await readQueue(page);
       expect(kept).toHaveLength(1);
       const { rows: before } = await db.query(

@@ -6,8 +6,10 @@ import {
   TOO_OLD_TO_RESEND,
   dismissQueuedWrite,
   flushOutbox,
+  outboxSnapshot,
   readOutbox,
   sendOrQueue,
+  setOutboxAccount,
 } from './outbox';
 
 const json = (body: unknown, status = 200) =>
@@ -19,6 +21,7 @@ let fetchMock: ReturnType<typeof vi.fn>;
 beforeEach(async () => {
   online = true;
   vi.spyOn(navigator, 'onLine', 'get').mockImplementation(() => online);
+  setOutboxAccount('acct-odile');
   for (const w of await readOutbox()) await dismissQueuedWrite(w.key);
 });
 afterEach(() => {
@@ -162,5 +165,30 @@ describe('writes kept with no signal', () => {
     await flushOutbox();
     expect(fetchMock).toHaveBeenCalledTimes(1);
     expect(await readOutbox()).toEqual([]);
+  });
+
+  it('sends a write only while the account that made it is signed in on this browser', async () => {
+    online = false;
+    const made = await sendOrQueue(sale('HHHHHHHHH'));
+    expect(!made.sent && made.queued.account).toBe('acct-odile');
+    online = true;
+    serve(() => json({ ok: true }, 201));
+
+    // Another dealer signs in on the same phone: the first one's sale is neither shown nor sent.
+    setOutboxAccount('acct-halvard');
+    await flushOutbox();
+    expect(fetchMock).not.toHaveBeenCalled();
+    expect(outboxSnapshot()).toEqual({ mine: [], others: 1 });
+    // Nobody signed in: nothing is sent either.
+    setOutboxAccount(null);
+    await flushOutbox();
+    expect(fetchMock).not.toHaveBeenCalled();
+
+    // The dealer who made it signs in again: it is sent, once.
+    setOutboxAccount('acct-odile');
+    await flushOutbox();
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+    expect(await readOutbox()).toEqual([]);
+    expect(outboxSnapshot()).toEqual({ mine: [], others: 0 });
   });
 });

@@ -25,6 +25,12 @@ export interface QueuedWrite {
   firstSent?: number;
   /** Set when the server answered with a refusal, or when it is too old to resend: the reason. */
   refused?: string;
+  /**
+   * The account that made it. It is sent only while that account is signed in on this
+   * browser, so a phone passed to another dealer never sends the first one's sale as theirs.
+   * (Absent on writes kept before accounts were recorded: they go with whoever signs in.)
+   */
+  account?: string;
 }
 
 /**
@@ -37,25 +43,56 @@ export const TOO_OLD_TO_RESEND =
   'Not sent again: it was first sent more than 23 hours ago and may already be recorded. Look at the lot’s history before making it again.';
 
 const LIST_KEY = 'writes';
+let started = false;
 let store: UseStore | undefined;
 function db(): UseStore {
   store ??= createStore('beadroll-outbox', 'queue');
   return store;
 }
 
+/** What a page shows of the list: the signed-in account's writes, and how many are another's. */
+export interface OutboxView {
+  mine: QueuedWrite[];
+  /** Writes another account made on this browser: kept until it signs in here again. */
+  others: number;
+}
+
 type Listener = (list: QueuedWrite[]) => void;
 const listeners = new Set<Listener>();
 const sentListeners = new Set<(w: QueuedWrite) => void>();
 let current: QueuedWrite[] = [];
+/** The account signed in on this browser (null: nobody, or not known yet). */
+let signedIn: string | null = null;
+let view: OutboxView = { mine: [], others: 0 };
 
-/** The list as last read or written (for a first render before IndexedDB answers). */
-export function outboxSnapshot(): QueuedWrite[] {
-  return current;
+const belongsToSignedIn = (w: QueuedWrite) => signedIn !== null && (w.account ?? signedIn) === signedIn;
+
+function changed(): void {
+  const mine = current.filter(belongsToSignedIn);
+  view = { mine, others: current.length - mine.length };
+  for (const l of listeners) l(current);
+}
+
+/** The signed-in account's part of the list as last read or written (stable between changes). */
+export function outboxSnapshot(): OutboxView {
+  return view;
 }
 
 export async function readOutbox(): Promise<QueuedWrite[]> {
   current = ((await get<QueuedWrite[]>(LIST_KEY, db())) ?? []).filter((w) => w && typeof w.key === 'string');
+  changed();
   return current;
+}
+
+/**
+ * Tells the list who is signed in on this browser (null when nobody is). Only that account's
+ * writes are shown and sent; when an account signs in, what it left waiting is sent.
+ */
+export function setOutboxAccount(account: string | null): void {
+  if (account === signedIn) return;
+  signedIn = account;
+  changed();
+  if (account !== null && started) void flushOutbox().catch(() => undefined);
 }
 
 /** Changes the list in one IndexedDB transaction, so two changes never lose one another. */
@@ -68,7 +105,7 @@ async function write(change: (list: QueuedWrite[]) => QueuedWrite[]): Promise<vo
     },
     db(),
   );
-  for (const l of listeners) l(current);
+  changed();
 }
 
 /** Calls `listener` with the list whenever it changes; returns the unsubscribe. */
@@ -83,8 +120,11 @@ export function onQueuedWriteSent(listener: (w: QueuedWrite) => void): () => voi
   return () => sentListeners.delete(listener);
 }
 
+/** Keeps a write, as made by the signed-in account unless it names its own. */
 export function queueWrite(w: Omit<QueuedWrite, 'at' | 'refused'>): Promise<void> {
-  return write((list) => [...list.filter((x) => x.key !== w.key), { ...w, at: Date.now() }]);
+  const kept: QueuedWrite = { ...w, at: Date.now() };
+  if (kept.account === undefined && signedIn !== null) kept.account = signedIn;
+  return write((list) => [...list.filter((x) => x.key !== w.key), kept]);
 }
 
 /** Removes one write from the list (a refused one the dealer has read). */
@@ -100,14 +140,17 @@ function refusal(err: ApiError): string {
 let flushing: Promise<void> | undefined;
 
 /**
- * Sends the waiting writes one after the other, oldest first. Stops at the first that gets no
- * answer (still no signal) and leaves it and the rest waiting; one the server refuses is marked
- * with its reason and the next one is sent. Concurrent calls share one pass.
+ * Sends the signed-in account's waiting writes one after the other, oldest first. Stops at the
+ * first that gets no answer (still no signal) and leaves it and the rest waiting; one the server
+ * refuses is marked with its reason and the next one is sent. With nobody signed in nothing is
+ * sent. Concurrent calls share one pass.
  */
 export function flushOutbox(): Promise<void> {
   flushing ??= (async () => {
     try {
-      const waiting = (await readOutbox()).filter((w) => !w.refused).sort((a, b) => a.at - b.at);
+      const waiting = (await readOutbox())
+        .filter((w) => !w.refused && belongsToSignedIn(w))
+        .sort((a, b) => a.at - b.at);
       for (const w of waiting) {
         const now = Date.now();
         if (w.firstSent !== undefined && now - w.firstSent > SAFE_RESEND_MS) {
@@ -150,8 +193,9 @@ export async function sendOrQueue<T>(
   w: Pick<QueuedWrite, 'path' | 'method' | 'body' | 'label'>,
 ): Promise<SendResult<T>> {
   const key = newIdempotencyKey();
+  const account = signedIn ?? undefined;
   const queue = async (firstSent?: number): Promise<SendResult<T>> => {
-    const kept = { ...w, key, ...(firstSent === undefined ? {} : { firstSent }) };
+    const kept = { ...w, key, account, ...(firstSent === undefined ? {} : { firstSent }) };
     await queueWrite(kept);
     return { sent: false, queued: { ...kept, at: Date.now() } };
   };
@@ -169,7 +213,6 @@ export async function sendOrQueue<T>(
   }
 }
 
-let started = false;
 const RETRY_EVERY_MS = 20_000;
 
 /**
@@ -182,10 +225,7 @@ export function startOutbox(): void {
   const flush = () => void flushOutbox().catch(() => undefined);
   window.addEventListener('online', flush);
   setInterval(() => {
-    if (navigator.onLine !== false && current.some((w) => !w.refused)) flush();
+    if (navigator.onLine !== false && view.mine.some((w) => !w.refused)) flush();
   }, RETRY_EVERY_MS);
-  void readOutbox().then((list) => {
-    for (const l of listeners) l(list);
-    flush();
-  });
+  void readOutbox().then(flush);
 }

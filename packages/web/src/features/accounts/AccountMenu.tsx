@@ -6,11 +6,12 @@ import {
   MenuList,
   MenuPopover,
   MenuTrigger,
+  Text,
   tokens,
 } from '@fluentui/react-components';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link as RouterLink, useNavigate } from 'react-router-dom';
-import { accountsApi, useSession } from './accounts.api';
+import { accountsApi, rememberSession, useSession } from './accounts.api';
 
 const useStyles = makeStyles({
   link: {
@@ -19,12 +20,13 @@ const useStyles = makeStyles({
     paddingInline: tokens.spacingHorizontalS,
     ':hover': { textDecorationLine: 'underline' },
   },
+  offline: { color: tokens.colorNeutralForegroundOnBrand, fontWeight: tokens.fontWeightSemibold },
 });
 
 /** The shell's account area: sign-in links, or the signed-in name with its menu. */
 export function AccountMenu() {
   const styles = useStyles();
-  const { account, isLoading } = useSession();
+  const { account, isLoading, offline } = useSession();
   const client = useQueryClient();
   const navigate = useNavigate();
   if (isLoading) return null;
@@ -44,24 +46,35 @@ export function AccountMenu() {
     try {
       await accountsApi.signOut();
     } finally {
+      rememberSession(null);
       client.setQueryData(['session'], null);
       await client.invalidateQueries();
       navigate('/');
     }
   };
   return (
-    <Menu>
-      <MenuTrigger disableButtonEnhancement>
-        <Button appearance="primary" aria-label={`Account menu of ${account.displayName}`}>
-          {account.displayName}
-        </Button>
-      </MenuTrigger>
-      <MenuPopover>
-        <MenuList>
-          <MenuItem onClick={() => navigate('/account')}>Your account</MenuItem>
-          <MenuItem onClick={() => void signOut()}>Sign out</MenuItem>
-        </MenuList>
-      </MenuPopover>
-    </Menu>
+    <>
+      {offline ? (
+        <Text
+          className={styles.offline}
+          title="The server cannot be reached: this is who was signed in here last"
+        >
+          No signal
+        </Text>
+      ) : null}
+      <Menu>
+        <MenuTrigger disableButtonEnhancement>
+          <Button appearance="primary" aria-label={`Account menu of ${account.displayName}`}>
+            {account.displayName}
+          </Button>
+        </MenuTrigger>
+        <MenuPopover>
+          <MenuList>
+            <MenuItem onClick={() => navigate('/account')}>Your account</MenuItem>
+            <MenuItem onClick={() => void signOut()}>Sign out</MenuItem>
+          </MenuList>
+        </MenuPopover>
+      </Menu>
+    </>
   );
 }

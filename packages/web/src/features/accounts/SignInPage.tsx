@@ -2,7 +2,7 @@ import { Button, Field, Input, Link, Text } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
-import { accountsApi, type Me } from './accounts.api';
+import { accountsApi, rememberSession, type Me } from './accounts.api';
 import { fieldError, FormError, FormPage, PasswordField } from '../../common/ui/FormPage';
 
 /**
@@ -26,6 +26,7 @@ export function SignInPage() {
   const signIn = useMutation({
     mutationFn: () => accountsApi.signIn({ email, password }),
     onSuccess: ({ account }) => {
+      rememberSession(account);
       client.setQueryData(['session'], account);
       navigate(landingFor(account, params.get('next')));
     },

@@ -3,6 +3,7 @@ import { answer, client } from '../../api/client';
 import type { operations } from '../../api/schema';
 import type { Schemas } from '../../api/types';
 import { api, ApiError } from '../../lib/api';
+import { setOutboxAccount } from '../../lib/outbox';
 
 /** The signed-in account, as the server reports it. */
 export type Me = Schemas['MeResponse'];
@@ -21,7 +22,37 @@ export interface RegistryParams {
   pageSize: number;
 }
 
-async function fetchSession(): Promise<Me | null> {
+/** The signed-in account, and whether it is only remembered because the server cannot be reached. */
+export type Session = Me & { offline?: boolean };
+
+const REMEMBERED = 'beadroll.session';
+
+/**
+ * Keeps the signed-in account on this browser (null forgets it) and tells the list of writes
+ * kept for a signal who is signed in. A page opened with no signal, at a fair stand, then still
+ * knows the dealer; signing out forgets it.
+ */
+export function rememberSession(account: Me | null): void {
+  setOutboxAccount(account?.id ?? null);
+  try {
+    if (account) localStorage.setItem(REMEMBERED, JSON.stringify(account));
+    else localStorage.removeItem(REMEMBERED);
+  } catch {
+    // storage refused (private window): nothing is remembered
+  }
+}
+
+function rememberedSession(): Me | null {
+  try {
+    const text = localStorage.getItem(REMEMBERED);
+    const account = text ? (JSON.parse(text) as Me) : null;
+    return account && typeof account.id === 'string' ? account : null;
+  } catch {
+    return null;
+  }
+}
+
+async function askSession(): Promise<Me | null> {
   const first = await answer(client.GET('/api/auth/session'));
   if (first.account) return first.account;
   // The access cookie may have lapsed while the refresh cookie still holds.
@@ -33,8 +64,29 @@ async function fetchSession(): Promise<Me | null> {
   }
 }
 
+async function fetchSession(): Promise<Session | null> {
+  try {
+    const account = await askSession();
+    rememberSession(account);
+    return account;
+  } catch (err) {
+    // No answer at all (no signal): the account last signed in here, marked as not checked.
+    const remembered = err instanceof ApiError && err.status === 0 ? rememberedSession() : null;
+    if (!remembered) throw err;
+    setOutboxAccount(remembered.id);
+    return { ...remembered, offline: true };
+  }
+}
+
 export const sessionQuery = () =>
-  queryOptions({ queryKey: ['session'], queryFn: fetchSession, staleTime: 60_000, retry: false });
+  queryOptions({
+    queryKey: ['session'],
+    queryFn: fetchSession,
+    staleTime: 60_000,
+    retry: false,
+    // Asked with no signal too: the answer is then the remembered account.
+    networkMode: 'always',
+  });
 
 export const registryQuery = (params: RegistryParams) =>
   queryOptions({
@@ -60,6 +112,8 @@ export function useSession() {
     signedIn: account !== null,
     /** Verified by the registrar: may write to rolls. */
     canWrite: account?.status === 'verified',
+    /** The account is remembered from an earlier visit: the server cannot be reached now. */
+    offline: account?.offline === true,
   };
 }
 

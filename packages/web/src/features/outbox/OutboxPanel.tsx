@@ -16,17 +16,17 @@ import {
   startOutbox,
   TOO_OLD_TO_RESEND,
   watchOutbox,
-  type QueuedWrite,
+  type OutboxView,
 } from '../../lib/outbox';
 
 /** The writes kept on this phone: waiting for a signal, or refused by the server. */
-export function useOutbox(): QueuedWrite[] {
-  const list = useSyncExternalStore(watchOutbox, outboxSnapshot, outboxSnapshot);
+export function useOutbox(): OutboxView {
+  const view = useSyncExternalStore(watchOutbox, outboxSnapshot, outboxSnapshot);
   useEffect(() => {
     startOutbox();
     void readOutbox().catch(() => undefined);
   }, []);
-  return list;
+  return view;
 }
 
 /**
@@ -35,14 +35,22 @@ export function useOutbox(): QueuedWrite[] {
  * for again, so a sold lot shows as sold.
  */
 export function OutboxPanel() {
-  const list = useOutbox();
+  const { mine: list, others } = useOutbox();
   const client = useQueryClient();
   useEffect(() => onQueuedWriteSent(() => void client.invalidateQueries()), [client]);
   const waiting = list.filter((w) => !w.refused);
   const refused = list.filter((w) => w.refused);
-  if (list.length === 0) return null;
+  if (list.length === 0 && others === 0) return null;
   return (
     <div aria-label="Writes kept on this device" role="region">
+      {others > 0 && (
+        <MessageBar intent="info" layout="multiline">
+          <MessageBarBody>
+            {others === 1 ? 'One write' : `${others} writes`} made on this device by another account{' '}
+            {others === 1 ? 'waits' : 'wait'} until that account signs in here again.
+          </MessageBarBody>
+        </MessageBar>
+      )}
       {waiting.length > 0 && (
         <MessageBar intent="info" layout="multiline">
           <MessageBarBody>

@@ -17,7 +17,8 @@ import type { QueuedWrite } from '../../lib/outbox';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
-import { formatMoney, type Sale } from '../transfers/transfers.api';
+import { formatMoney, transfersApi, type Sale } from '../transfers/transfers.api';
+import { useOutbox } from '../outbox/OutboxPanel';
 import { scannerQueries } from './scanner.api';
 import { ScanScreen } from './ScanScreen';
 
@@ -58,7 +59,13 @@ export function ScannedLotPage() {
   );
   const [sold, setSold] = useState<Sale | null>(null);
   const [offered, setOffered] = useState(false);
-  const [queued, setQueued] = useState<QueuedWrite | null>(null);
+  const [madeHere, setQueued] = useState<QueuedWrite | null>(null);
+  // A sale of this lot already waiting on this phone (made before a reload, too).
+  const { mine } = useOutbox();
+  const queued =
+    madeHere ??
+    mine.find((w) => !w.refused && w.path === transfersApi.salesPath && w.body?.lot === code) ??
+    null;
 
   // No signal and the lot not opened before on this page: the code from the tag is all there is.
   // A sale can still be recorded; it waits on this device and the server checks it when sent.
