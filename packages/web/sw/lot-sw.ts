@@ -51,7 +51,12 @@ const keepDataApart: WorkboxPlugin = {
     const html = await response.clone().text();
     const block = LOT_DATA_BLOCK.exec(html);
     if (!block) return response;
-    const code = (JSON.parse(block[1]!) as { code?: unknown }).code;
+    let code: unknown;
+    try {
+      code = (JSON.parse(block[1]!) as { code?: unknown } | null)?.code;
+    } catch {
+      code = undefined; // not data the page could use either: the page is kept without it
+    }
     if (typeof code === 'string') {
       const url = new URL(`/api/public/lots/${encodeURIComponent(code)}`, self.location.href).href;
       const headers = new Headers({ 'Content-Type': 'application/json; charset=utf-8' });
@@ -61,10 +66,14 @@ const keepDataApart: WorkboxPlugin = {
       await dataExpiration.updateTimestamp(url);
       await dataExpiration.expireEntries();
     }
+    // The text kept is decoded and shorter: the sizes and encoding sent with it no longer apply.
+    const headers = new Headers(response.headers);
+    headers.delete('Content-Length');
+    headers.delete('Content-Encoding');
     return new Response(html.replace(block[0], ''), {
       status: response.status,
       statusText: response.statusText,
-      headers: response.headers,
+      headers,
     });
   },
 };
