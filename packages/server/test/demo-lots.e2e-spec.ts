@@ -60,7 +60,7 @@ describe('the demo lots', () => {
       dealers[row.handle] = row.id;
     loaded = await loadDemoLots(
       t.app.get(LedgerService),
-      t.app.get(DataSource),
+      t.app.get(RollReaderService),
       readDemoLots(DEMO_LOTS_FILE),
       dealers,
     );
@@ -72,7 +72,7 @@ describe('the demo lots', () => {
     expect(loaded.some((l) => !l.listed)).toBe(true);
     const again = await loadDemoLots(
       t.app.get(LedgerService),
-      t.app.get(DataSource),
+      t.app.get(RollReaderService),
       readDemoLots(DEMO_LOTS_FILE),
       dealers,
     );

@@ -380,6 +380,26 @@ describe("the registrar's tools", () => {
         'private-note',
         'storage-location',
       ]);
+      // Each owning module answers for its part: the account's sessions are listed too.
+      expect(dl.body.sessions.length).toBeGreaterThan(0);
+      expect(dl.body.sessions[0]).toMatchObject({ revokedAt: null, revokedWhy: null });
+      // Closing must clear the private search words (kept for the sealed storage place) and any
+      // e-mailed link; there is one of each before.
+      await http()
+        .post('/api/auth/forgot-password')
+        .set(...CSRF)
+        .send({ email: leaving.email })
+        .expect(202);
+      const count = async (table: string) =>
+        (
+          (await db.query(`SELECT count(*)::int AS n FROM ${table} WHERE account_id = $1`, [
+            leaving.id,
+          ])) as Array<{
+            n: number;
+          }>
+        )[0]!.n;
+      expect(await count('lot_private_search')).toBeGreaterThan(0);
+      expect(await count('email_tokens')).toBeGreaterThan(0);
 
       const wrong = await leaving.agent
         .post('/api/account/close')
@@ -404,6 +424,8 @@ describe("the registrar's tools", () => {
         [leaving.id],
       )) as Array<{ n: number }>;
       expect(n).toBe(0);
+      expect(await count('lot_private_search')).toBe(0);
+      expect(await count('email_tokens')).toBe(0);
       // The rolls keep the entries under the opaque id; the open offer lapsed.
       const entries = await roll(code);
       expect(entries[0]!.actor).toBe(leaving.id);

@@ -1,18 +1,17 @@
 import { readFileSync } from 'node:fs';
 import sharp from 'sharp';
-import { describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot } from './support/browser';
-import { demoAccount, pageErrors, signIn, signOut, useBrowser } from './support/journey';
+import { describe, expect, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoAccount, expectNoSideScroll, onPhone, signIn, signOut, useJourneys } from './support/journey';
 
 const registrar = demoAccount('registrar');
 
 describe('accounts in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
 
   it('sign up → open the mail in the mailbox → confirm → the registrar approves → sign in as a verified dealer', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, errors } = journeys.start();
     const email = `sela.${Date.now()}@example.invalid`;
     const password = 'seven glass beads in a row';
 
@@ -111,9 +110,7 @@ describe('accounts in Chromium', () => {
   });
 
   it('fits a phone screen (390 px): sign-in, account page and the queue', async () => {
-    const phone = await openBrowser({ width: 390, height: 844 });
-    try {
-      const { page } = phone;
+    await onPhone(async (page) => {
       await page.goto(`${baseUrl}/sign-in`);
       await page.getByRole('button', { name: 'Sign in' }).waitFor();
       await screenshot(page, 'accounts-sign-in-390');
@@ -123,10 +120,7 @@ describe('accounts in Chromium', () => {
       await page.getByRole('heading', { name: 'Account verification' }).waitFor();
       await page.getByRole('row').filter({ hasText: 'Pim Oyelaran' }).waitFor();
       await screenshot(page, 'accounts-registry-390');
-      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-      expect(overflow).toBeLessThanOrEqual(0);
-    } finally {
-      await phone.close();
-    }
+      await expectNoSideScroll(page);
+    });
   });
 });

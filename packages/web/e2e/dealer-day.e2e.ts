@@ -1,59 +1,38 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { formatLotCode, parseBundle, tagPayload, tagReference, verifyBundle } from '@beadroll/core';
-import { openBrowser, screenshot, type Browser } from './support/browser';
-import { addCloseUp, apiClient, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
+import { describe, expect, inject, it } from 'vitest';
+import { formatLotCode, parseBundle, verifyBundle } from '@beadroll/core';
+import { screenshot } from './support/browser';
+import {
+  addCloseUp,
+  apiClient,
+  demoAccount,
+  expectNoSideScroll,
+  onPhone,
+  openAction,
+  PHONE,
+  useHeldLot,
+  signIn,
+  useHeldLotCamera,
+  useJourneys,
+} from './support/journey';
 
 const dealer = demoAccount('dealer');
 
-/** Registers an invented lot for the demo dealer; returns its code, title and tag reference. */
-async function registerLot(
-  baseUrl: string,
-  title: string,
-  opinion?: object,
-): Promise<{ code: string; title: string; ref: string }> {
-  const call = await apiClient(baseUrl, dealer.email);
-  let lot = await call<{ code: string; headHash: string }>('/api/lots', {
-    description: {
-      title,
-      form: 'strand',
-      count: { value: 24, estimated: false },
-      colours: ['green'],
-      baseGlass: ['transparent'],
-      decoration: [],
-      listed: false,
-    },
-    sealed: { storageLocation: 'Fair case 2', acquisition: { cost: { amount: 1500, currency: 'EUR' } } },
-  });
-  if (opinion) {
-    await call(`/api/lots/${lot.code}/opinions`, opinion);
-    lot = await call(`/api/lots/${lot.code}`);
-  }
-  return { code: lot.code, title, ref: tagReference(lot.headHash) };
-}
-
 describe('finding a lot in the inventory', () => {
-  const baseUrl = inject('baseUrl');
-  let browser: Browser;
-  let lot: { code: string; title: string };
-
-  beforeAll(async () => {
-    lot = await registerLot(baseUrl, 'Melon beads from the attic box', {
-      origin: 'bohemia-czech',
-      period: { from: 1890, to: 1910, approximate: true },
-      technique: 'furnace-wound',
-      qualifier: 'attributed-to',
-      confidence: 'medium',
-      rationale: 'Furnace-wound melons with the usual seam.',
-      exhibits: [],
-    });
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
+  const held = useHeldLot('Melon beads from the attic box', {
+    origin: 'bohemia-czech',
+    period: { from: 1890, to: 1910, approximate: true },
+    technique: 'furnace-wound',
+    qualifier: 'attributed-to',
+    confidence: 'medium',
+    rationale: 'Furnace-wound melons with the usual seam.',
+    exhibits: [],
   });
 
   it('finds it by its code with hyphens and by the attribution on record', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
+    const { lot } = held;
     await signIn(page, baseUrl, dealer.email);
     await page.goto(`${baseUrl}/lots`);
     const search = page.getByRole('searchbox');
@@ -79,20 +58,11 @@ describe('finding a lot in the inventory', () => {
 });
 
 describe('a sale at a fair from a scanned tag, on a phone', () => {
-  const baseUrl = inject('baseUrl');
-  let lot: { code: string; title: string; ref: string };
-  const browser = useCameraBrowser(
-    async () => {
-      lot = await registerLot(baseUrl, 'Striped drawn beads for the fair');
-      return tagPayload(new URL(baseUrl).host, lot.code, lot.ref);
-    },
-    { width: 390, height: 844 },
-  );
+  const camera = useHeldLotCamera('Striped drawn beads for the fair', PHONE);
+  const { baseUrl } = camera;
 
   it('sells the scanned lot in two taps after the scan', async () => {
-    const { page } = browser;
-    await signIn(page, baseUrl, dealer.email);
-    await scanHeldLot(page, baseUrl, lot);
+    const { page, lot } = await camera.scan();
     const quick = page.getByRole('group', { name: 'Quick actions' });
     for (const name of ['Sell', 'Offer to a dealer', 'Print a new tag', 'History'])
       await quick.getByRole(name === 'History' ? 'link' : 'button', { name }).waitFor();
@@ -119,8 +89,7 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
     expect(detail.status).toBe('sold');
     expect(soldFor(await call<Figures>('/api/stock/summary')) - before).toBe(4500);
     // Fits the phone: nothing wider than the screen.
-    const width = await page.evaluate(() => document.documentElement.scrollWidth);
-    expect(width).toBeLessThanOrEqual(390);
+    await expectNoSideScroll(page);
 
     // The sale shows in the dealer's own figures, with a chart drawn on first use of the page.
     await page.goto(`${baseUrl}/stock`);
@@ -132,7 +101,7 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
       .first()
       .waitFor();
     await eur.getByRole('table', { name: 'Stock by origin' }).waitFor();
-    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await expectNoSideScroll(page);
     await screenshot(page, 'stock-figures-390');
     await page.setViewportSize({ width: 1280, height: 900 });
     await screenshot(page, 'stock-figures-1280');
@@ -142,28 +111,17 @@ describe('a sale at a fair from a scanned tag, on a phone', () => {
 const assessor = demoAccount('assessor');
 
 describe('an opinion on request', () => {
-  const baseUrl = inject('baseUrl');
-  let browser: Browser;
-  let lot: { code: string; title: string };
-
-  beforeAll(async () => {
-    // Unlisted: the request on the roll is what lets the assessor's evidence and opinion on it.
-    lot = await registerLot(baseUrl, 'Chevron beads from a trunk in the attic');
-    browser = await openBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
+  // Unlisted: the request on the roll is what lets the assessor's evidence and opinion on it.
+  const held = useHeldLot('Chevron beads from a trunk in the attic');
 
   it('is asked by the holder on an unlisted lot and answered by the assessor from their queue, with evidence; the bundle verifies', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
+    const { lot } = held;
     await signIn(page, baseUrl, dealer.email);
     await page.goto(`${baseUrl}/lots/${lot.code}`);
-    await page
-      .getByRole('group', { name: 'Actions' })
-      .getByRole('button', { name: 'Ask for an opinion' })
-      .click();
-    const ask = page.getByRole('dialog');
+    const ask = await openAction(page, 'Ask for an opinion');
     await ask.getByRole('radio', { name: /Halvard Nimmo/ }).check();
     await ask.getByRole('textbox', { name: /What to look at/ }).fill('Are these seven-layer chevrons old?');
     await screenshot(page, 'opinion-request-ask-1280');
@@ -184,11 +142,7 @@ describe('an opinion on request', () => {
     // Evidence first: a close-up, added to the roll of the unlisted lot.
     await addCloseUp(page, 'chevron-end.jpg', 'Ground end showing seven layers', { r: 170, g: 40, b: 40 });
 
-    await page
-      .getByRole('group', { name: 'Actions' })
-      .getByRole('button', { name: 'Record an opinion' })
-      .click();
-    const dialog = page.getByRole('dialog');
+    const dialog = await openAction(page, 'Record an opinion');
     await dialog.getByRole('combobox', { name: /^Origin/ }).selectOption('venice-murano');
     await dialog.getByRole('textbox', { name: /^From year/ }).fill('1880');
     await dialog.getByRole('textbox', { name: /^To year/ }).fill('1920');
@@ -249,9 +203,7 @@ describe('the chart library stays out of the public page', () => {
   const baseUrl = inject('baseUrl');
 
   it('loads no uPlot code when a buyer opens a lot page', async () => {
-    const browser = await openBrowser({ width: 390, height: 844 });
-    try {
-      const { page } = browser;
+    await onPhone(async (page) => {
       const scripts: string[] = [];
       page.on('response', async (r) => {
         if (r.request().resourceType() === 'script') scripts.push(await r.text());
@@ -261,8 +213,6 @@ describe('the chart library stays out of the public page', () => {
       await page.waitForLoadState('networkidle');
       expect(scripts.length).toBeGreaterThan(0);
       expect(scripts.some((s) => s.includes('uPlot'))).toBe(false);
-    } finally {
-      await browser.close();
-    }
+    });
   });
 });

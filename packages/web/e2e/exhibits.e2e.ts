@@ -1,13 +1,9 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
-import { join, resolve } from 'node:path';
 import { parseBundle, type ExhibitAddedBody } from '@beadroll/core';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, type Browser } from './support/browser';
-import { pageErrors } from './support/journey';
-
-const REPO = resolve(__dirname, '..', '..', '..');
+import { beforeAll, describe, expect, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demo, demoAccount, postAsSignedIn, strand, useJourneys } from './support/journey';
 
 /**
  * A generated "photo" of about a megabyte (noise does not compress), with a GPS block in its
@@ -29,21 +25,15 @@ async function photo(hue: number): Promise<Buffer> {
 }
 
 describe('attaching evidence photos to a lot (1280 px)', () => {
-  const baseUrl = inject('baseUrl');
-  let browser: Browser;
+  const journeys = useJourneys({ width: 1280, height: 900 });
+  const { baseUrl, browser } = journeys;
   let code: string;
 
   beforeAll(async () => {
-    const scenario = JSON.parse(readFileSync(join(REPO, 'seed-demo/accounts.json'), 'utf8')) as {
-      password: string;
-      accounts: { role: string; status: string; email: string }[];
-    };
-    const dealer = scenario.accounts.find((a) => a.role === 'dealer' && a.status === 'verified')!;
-    browser = await openBrowser({ width: 1280, height: 900 });
     const api = browser.context.request;
     const signIn = await api.post(`${baseUrl}/api/auth/sign-in`, {
       headers: { 'x-beadroll-request': '1' },
-      data: { email: dealer.email, password: scenario.password },
+      data: { email: demoAccount('dealer').email, password: demo.password },
     });
     expect(signIn.status()).toBe(200);
     // One of the dealer's own listed lots, or a new one when the scenario gives them none.
@@ -52,31 +42,16 @@ describe('attaching evidence photos to a lot (1280 px)', () => {
     };
     code = mine.items[0]?.code ?? '';
     if (!code) {
-      const made = await api.post(`${baseUrl}/api/lots`, {
-        headers: { 'x-beadroll-request': '1' },
-        data: {
-          description: {
-            title: 'Strand of amber-coloured wound beads',
-            form: 'strand',
-            count: { value: 24, estimated: false },
-            colours: ['amber'],
-            baseGlass: ['transparent'],
-            decoration: [],
-            listed: true,
-          },
-        },
+      const made = await postAsSignedIn<{ code: string }>(browser.page, '/api/lots', {
+        description: strand('Strand of amber-coloured wound beads', { colours: ['amber'] }),
       });
-      expect(made.status()).toBe(201);
-      code = ((await made.json()) as { code: string }).code;
+      code = made.code;
     }
-  });
-  afterAll(async () => {
-    await browser?.close();
   });
 
   it('attaches two photos with progress shown, sees them in the gallery, and their entries verify', async () => {
-    const { page, context } = browser;
-    const errors = pageErrors(page);
+    const { page, errors } = journeys.start();
+    const { context } = browser;
     const files = [
       { name: 'strand-front.jpg', mimeType: 'image/jpeg', buffer: await photo(200) },
       { name: 'strand-clasp.jpg', mimeType: 'image/jpeg', buffer: await photo(60) },

@@ -2,9 +2,9 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Locator, Page } from 'playwright-core';
 import sharp from 'sharp';
-import { describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot } from './support/browser';
-import { demoAccount, signIn, useBrowser } from './support/journey';
+import { describe, expect, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoAccount, expectNoSideScroll, onPhone, signIn, useJourneys } from './support/journey';
 
 const dealer = demoAccount('dealer');
 const registrar = demoAccount('registrar');
@@ -113,12 +113,12 @@ async function photo(hue: number): Promise<Buffer> {
 }
 
 describe('forms a dealer fills in, in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
   let lotUrl = '';
 
   it('registers a lot with two photos chosen on the form; they upload with progress once the lot exists', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     await signIn(page, baseUrl, dealer.email, { fresh: true });
     // A dealer lands on the inventory.
     await page.getByRole('heading', { name: 'Inventory', level: 1 }).waitFor();
@@ -152,7 +152,7 @@ describe('forms a dealer fills in, in Chromium', () => {
   });
 
   it('every label toggles its own control on every dealer form', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     let total = 0;
     await page.goto(`${baseUrl}/lots/new`);
     total += await clickEveryLabel(page, page.locator('form'), 'register form');
@@ -185,7 +185,7 @@ describe('forms a dealer fills in, in Chromium', () => {
   });
 
   it('axe-core finds no serious or critical problem on dealer, assessor and registrar pages', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     const problems: string[] = [];
     const check = async (path: string, ready: () => Promise<unknown>) => {
       await page.goto(`${baseUrl}${path}`);
@@ -226,7 +226,7 @@ describe('forms a dealer fills in, in Chromium', () => {
   });
 
   it('imports lots from a spreadsheet: the dry run names a bad row, nothing is written until it is fixed', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     await signIn(page, baseUrl, dealer.email, { fresh: true });
     await page.goto(`${baseUrl}/lots/import`);
     const header = 'Title,Form,Number of beads,Bead size largest (mm),Currency,Cost\n';
@@ -260,15 +260,12 @@ describe('forms a dealer fills in, in Chromium', () => {
   });
 
   it('fits a 390 px phone: the register form with its photo buttons', async () => {
-    const phone = await openBrowser({ width: 390, height: 844 });
-    try {
-      await signIn(phone.page, baseUrl, dealer.email, { fresh: true });
-      await phone.page.goto(`${baseUrl}/lots/new`);
-      await phone.page.getByRole('button', { name: 'Take a photo' }).waitFor();
-      expect(await phone.page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-      await screenshot(phone.page, 'register-390');
-    } finally {
-      await phone.close();
-    }
+    await onPhone(async (page) => {
+      await signIn(page, baseUrl, dealer.email, { fresh: true });
+      await page.goto(`${baseUrl}/lots/new`);
+      await page.getByRole('button', { name: 'Take a photo' }).waitFor();
+      await expectNoSideScroll(page);
+      await screenshot(page, 'register-390');
+    });
   });
 });

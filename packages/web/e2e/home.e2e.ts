@@ -1,13 +1,12 @@
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { useBrowser } from './support/journey';
+import { useJourneys } from './support/journey';
 
 describe('the start page in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
 
   it('renders in the shipped Atkinson Hyperlegible font with no console errors', async () => {
-    const { page } = browser;
+    const { page, baseUrl } = journeys.start();
     const errors: string[] = [];
     page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
     page.on('pageerror', (e) => errors.push(e.message));
@@ -26,7 +25,8 @@ describe('the start page in Chromium', () => {
   });
 
   it('serves unknown paths with the app and its not-found page', async () => {
-    await browser.page.goto(baseUrl + '/nowhere/at/all');
-    await browser.page.getByRole('heading', { name: 'Page not found' }).waitFor();
+    const { page, baseUrl } = journeys.start();
+    await page.goto(baseUrl + '/nowhere/at/all');
+    await page.getByRole('heading', { name: 'Page not found' }).waitFor();
   });
 });

@@ -1,36 +1,24 @@
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
+import { demoHandle, PHONE, postAsSignedIn, signIn, strand, useJourneys } from './support/journey';
 
 const ines = demoHandle('ines-calloway-rue');
 
 describe('splitting a strand in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
 
   it('splits a strand into two and shows the ancestry on a new lot’s dealer and public pages', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, baseUrl, errors } = journeys.start();
     await signIn(page, baseUrl, ines.email);
 
     // A fresh strand to split, registered through the API as the signed-in dealer.
-    const code = await page.evaluate(async () => {
-      const res = await fetch('/api/lots', {
-        method: 'POST',
-        headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
-        body: JSON.stringify({
-          description: {
-            title: 'Green striped wound beads',
-            form: 'strand',
-            count: { value: 40, estimated: false },
-            colours: ['green', 'yellow'],
-            baseGlass: ['opaque'],
-            decoration: ['trailing'],
-            listed: true,
-          },
-        }),
-      });
-      return ((await res.json()) as { code: string }).code;
+    const { code } = await postAsSignedIn<{ code: string }>(page, '/api/lots', {
+      description: strand('Green striped wound beads', {
+        count: { value: 40, estimated: false },
+        colours: ['green', 'yellow'],
+        baseGlass: ['opaque'],
+        decoration: ['trailing'],
+      }),
     });
 
     await page.goto(`${baseUrl}/lots/${code}`);
@@ -58,7 +46,7 @@ describe('splitting a strand in Chromium', () => {
     const parentLink = diagram.getByRole('link', { name: /Green striped wound beads/ });
     expect(await parentLink.getAttribute('href')).toBe(`/lots/${code}`);
     await screenshot(page, 'lineage-child-1280');
-    await page.setViewportSize({ width: 390, height: 844 });
+    await page.setViewportSize(PHONE);
     await screenshot(page, 'lineage-child-390');
     await page.setViewportSize({ width: 1280, height: 900 });
 

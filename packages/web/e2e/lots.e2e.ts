@@ -1,24 +1,18 @@
-import type { Page } from 'playwright-core';
-import { describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot } from './support/browser';
-import { demoAccount, pageErrors, signIn, useBrowser } from './support/journey';
+import { describe, expect, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demoAccount, expectNoSideScroll, onPhone, signIn, useJourneys } from './support/journey';
 
 const dealer = demoAccount('dealer');
 const TITLE = 'Pink rose beads from Quillmere';
 
 /** Nothing on the page reaches past a 390 px phone screen, so it never scrolls sideways. */
-async function fitsPhone(page: Page) {
-  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-}
-
 describe('the dealer’s lots in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
   let lotUrl = '';
 
   it('register a lot with observations → find it in the inventory → its page shows registered and observed, verified', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, errors } = journeys.start();
     await signIn(page, baseUrl, dealer.email);
 
     await page.getByRole('link', { name: 'Register a lot' }).click();
@@ -86,14 +80,12 @@ describe('the dealer’s lots in Chromium', () => {
   });
 
   it('fits a phone screen (390 px): the form, the inventory as cards, the lot page', async () => {
-    const phone = await openBrowser({ width: 390, height: 844 });
-    try {
-      const { page } = phone;
+    await onPhone(async (page) => {
       await signIn(page, baseUrl, dealer.email);
       await page.goto(`${baseUrl}/lots/new`);
       await page.getByRole('heading', { name: 'Register a lot' }).waitFor();
       await screenshot(page, 'lots-register-390');
-      await fitsPhone(page);
+      await expectNoSideScroll(page);
 
       // The navigation folds into one menu on a phone.
       expect(await page.locator('nav[aria-label="Main"]').isVisible()).toBe(false);
@@ -106,14 +98,12 @@ describe('the dealer’s lots in Chromium', () => {
       await cards.getByText(TITLE).waitFor();
       expect(await page.getByRole('table', { name: 'Lots' }).isVisible()).toBe(false);
       await screenshot(page, 'lots-inventory-390');
-      await fitsPhone(page);
+      await expectNoSideScroll(page);
 
       await page.goto(lotUrl);
       await page.getByText('Verified in this browser').waitFor();
       await screenshot(page, 'lots-lot-page-390');
-      await fitsPhone(page);
-    } finally {
-      await phone.close();
-    }
+      await expectNoSideScroll(page);
+    });
   });
 });

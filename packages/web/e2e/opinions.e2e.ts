@@ -1,52 +1,50 @@
 import { parseBundle, type OpinionBody } from '@beadroll/core';
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { addCloseUp, demoHandle, pageErrors, signIn, useBrowser } from './support/journey';
+import {
+  addCloseUp,
+  demoHandle,
+  openAction,
+  PHONE,
+  postAsSignedIn,
+  signIn,
+  strand,
+  useJourneys,
+} from './support/journey';
 
 const holder = demoHandle('odile-varnas');
 const second = demoHandle('teodor-brasko');
 
 describe('opinions in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
 
   it('a second dealer adds an exhibit and records a dissent citing it, with the aid beside the form; the holder sees it on the lot and finds the e-mail', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, baseUrl, errors } = journeys.start();
 
     // The holder registers a listed lot and records an attribution (through the API, as a client would).
     await signIn(page, baseUrl, holder.email, { fresh: true });
-    const headers = { 'X-Beadroll-Request': '1' };
-    const lot = await page.request.post(`${baseUrl}/api/lots`, {
-      headers,
-      data: {
-        description: {
-          title: 'Rose beads from a house clearance',
-          form: 'strand',
+    const { code, displayCode } = await postAsSignedIn<{ code: string; displayCode: string }>(
+      page,
+      '/api/lots',
+      {
+        description: strand('Rose beads from a house clearance', {
           count: { value: 32, estimated: false },
           colours: ['white', 'pink'],
           baseGlass: ['opaque'],
           decoration: ['roses'],
-          listed: true,
-        },
+        }),
         observations: { hole: 'powder', windingMarks: 'seen' },
       },
+    );
+    await postAsSignedIn(page, `/api/lots/${code}/opinions`, {
+      origin: 'venice-murano',
+      period: { from: 1880, to: 1920, approximate: true },
+      technique: 'wound-lampwork',
+      qualifier: 'attributed-to',
+      confidence: 'medium',
+      rationale: 'Raised roses over white, soft shapes.',
+      exhibits: [],
     });
-    expect(lot.status()).toBe(201);
-    const { code, displayCode } = (await lot.json()) as { code: string; displayCode: string };
-    const mine = await page.request.post(`${baseUrl}/api/lots/${code}/opinions`, {
-      headers,
-      data: {
-        origin: 'venice-murano',
-        period: { from: 1880, to: 1920, approximate: true },
-        technique: 'wound-lampwork',
-        qualifier: 'attributed-to',
-        confidence: 'medium',
-        rationale: 'Raised roses over white, soft shapes.',
-        exhibits: [],
-      },
-    });
-    expect(mine.status()).toBe(201);
 
     // A second dealer opens the lot page and first adds evidence of their own: a close-up of a hole.
     await signIn(page, baseUrl, second.email, { fresh: true });
@@ -55,11 +53,7 @@ describe('opinions in Chromium', () => {
     await addCloseUp(page, 'hole-powder.jpg', 'Grey powder inside the hole', { r: 150, g: 150, b: 160 });
 
     // Then drafts a dissent citing it; the aid reacts as fields change.
-    await page
-      .getByRole('group', { name: 'Actions' })
-      .getByRole('button', { name: 'Record an opinion' })
-      .click();
-    const dialog = page.getByRole('dialog');
+    const dialog = await openAction(page, 'Record an opinion');
     await dialog
       .getByRole('list', { name: 'Indications' })
       .getByText(/release/)
@@ -105,7 +99,7 @@ describe('opinions in Chromium', () => {
     await seen.getByRole('button', { name: 'Add answer' }).click();
     await seen.getByText(/^Answer by Odile Varnas/).waitFor();
     expect(await seen.textContent()).toContain('The holes were reamed by a later owner.');
-    await page.setViewportSize({ width: 390, height: 844 });
+    await page.setViewportSize(PHONE);
     await screenshot(page, 'opinions-panel-390');
     await page.setViewportSize({ width: 1280, height: 900 });
 

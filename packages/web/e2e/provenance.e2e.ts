@@ -1,13 +1,10 @@
 import { printedTagCode, tagReference } from '@beadroll/core';
 import type { Page } from 'playwright-core';
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { demo, demoHandle, pageErrors, superuser, useBrowser } from './support/journey';
+import { demo, demoHandle, PHONE, superuser, useJourneys } from './support/journey';
 
 const email = (handle: string) => demoHandle(handle).email;
-
-/** A phone's first screen: 390 × 844 CSS pixels. */
-const PHONE = { width: 390, height: 844 };
 
 /** A signed-in API client for one demo account, through the same routes the dealer screens use. */
 async function client(baseUrl: string, handle: string) {
@@ -35,6 +32,8 @@ async function client(baseUrl: string, handle: string) {
   };
 }
 
+type Client = Awaited<ReturnType<typeof client>>;
+
 const description = (title: string, count: number, listed = true) => ({
   title,
   form: 'strand',
@@ -45,15 +44,22 @@ const description = (title: string, count: number, listed = true) => ({
   listed,
 });
 
-const opinion = (origin: string, from: number, to: number, rationale: string) => ({
-  origin,
-  period: { from, to, approximate: true },
-  technique: 'wound-lampwork',
-  qualifier: 'attributed-to',
-  confidence: 'medium',
-  rationale,
-  exhibits: [],
-});
+/** Records `by`'s attribution of `lot`: wound lampwork from `origin`, about `from` to `to`. */
+const recordOpinion = (
+  by: Client,
+  lot: string,
+  [origin, from, to]: [string, number, number],
+  rationale: string,
+) =>
+  by.post(`/api/lots/${lot}/opinions`, {
+    origin,
+    period: { from, to, approximate: true },
+    technique: 'wound-lampwork',
+    qualifier: 'attributed-to',
+    confidence: 'medium',
+    rationale,
+    exhibits: [],
+  });
 
 /** The attribution on record at the top of the public page, and how much of it a phone shows at once. */
 async function firstScreen(page: Page, url: string) {
@@ -73,24 +79,22 @@ async function inFirstScreen(page: Page, locator: ReturnType<Page['locator']>): 
 }
 
 describe('provenance travels with the beads, at 390 px in Chromium', () => {
-  const browser = useBrowser(PHONE);
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys(PHONE);
+  const { baseUrl } = journeys;
 
   it('an assessor’s dissent on a parent strand shows on the first screen of a strand split from it', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, errors } = journeys.start();
     const ines = await client(baseUrl, 'ines-calloway-rue');
     const halvard = await client(baseUrl, 'halvard-nimmo');
     const { code: parent } = await ines.post<{ code: string }>('/api/lots', {
       description: description('Blue eye beads for splitting', 30),
     });
-    await ines.post(
-      `/api/lots/${parent}/opinions`,
-      opinion('venice-murano', 1860, 1900, 'Soft shapes and winding marks.'),
-    );
-    await halvard.post(
-      `/api/lots/${parent}/opinions`,
-      opinion('bohemia-czech', 1920, 1938, 'Even eyes and bright glass: later work in the older style.'),
+    await recordOpinion(ines, parent, ['venice-murano', 1860, 1900], 'Soft shapes and winding marks.');
+    await recordOpinion(
+      halvard,
+      parent,
+      ['bohemia-czech', 1920, 1938],
+      'Even eyes and bright glass: later work in the older style.',
     );
     const split = await ines.post<{ children: Array<{ code: string }> }>(`/api/lots/${parent}/splits`, {
       children: [
@@ -118,7 +122,7 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
   });
 
   it('a piece combined from two lots shows the dissent of a part that was made private first', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     const wren = await client(baseUrl, 'wren-ashdown');
     const halvard = await client(baseUrl, 'halvard-nimmo');
     const { code: a } = await wren.post<{ code: string }>('/api/lots', {
@@ -127,14 +131,8 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
     const { code: b } = await wren.post<{ code: string }>('/api/lots', {
       description: description('Brown spacers for a necklace', 10),
     });
-    await wren.post(
-      `/api/lots/${a}/opinions`,
-      opinion('venice-murano', 1870, 1910, 'White cores, worn ends.'),
-    );
-    await halvard.post(
-      `/api/lots/${a}/opinions`,
-      opinion('india', 1950, 1990, 'The white core is too even for the older beads.'),
-    );
+    await recordOpinion(wren, a, ['venice-murano', 1870, 1910], 'White cores, worn ends.');
+    await recordOpinion(halvard, a, ['india', 1950, 1990], 'The white core is too even for the older beads.');
     // Keeping the part unlisted must not leave the dissent behind.
     await wren.put(`/api/lots/${a}/listing`, { listed: false });
     const made = await wren.post<{ lot: { code: string } }>('/api/combinations', {
@@ -156,15 +154,17 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
   });
 
   it('after a transfer the new holder sees the attribution on record and adopts it in one step', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     const odile = await client(baseUrl, 'odile-varnas');
     const teodor = await client(baseUrl, 'teodor-brasko');
     const { code } = await odile.post<{ code: string }>('/api/lots', {
       description: description('Black beads with forget-me-nots, for a transfer', 25),
     });
-    await odile.post(
-      `/api/lots/${code}/opinions`,
-      opinion('venice-murano', 1880, 1920, 'Raised forget-me-nots on black, soft shapes.'),
+    await recordOpinion(
+      odile,
+      code,
+      ['venice-murano', 1880, 1920],
+      'Raised forget-me-nots on black, soft shapes.',
     );
     const offer = await odile.post<{ offer: { id: string } }>('/api/transfers/offers', {
       lot: code,
@@ -199,7 +199,7 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
   });
 
   it('a tag code typed with one wrong symbol is a typing error, not a rewritten history', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     const ines = await client(baseUrl, 'ines-calloway-rue');
     const { code } = await ines.post<{ code: string }>('/api/lots', {
       description: description('Strand for a tag check', 12),
@@ -222,7 +222,7 @@ describe('provenance travels with the beads, at 390 px in Chromium', () => {
   });
 
   it('a roll changed in PostgreSQL no longer holds the tag’s entry: the page warns of a rewritten history', async () => {
-    const { page } = browser;
+    const { page } = journeys.start();
     const ines = await client(baseUrl, 'ines-calloway-rue');
     const { code } = await ines.post<{ code: string }>('/api/lots', {
       description: description('Strand whose history is cut', 12),

@@ -1,6 +1,15 @@
-import { beforeAll, describe, expect, inject, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { demoAccount, pageErrors, signIn, superuser, useBrowser } from './support/journey';
+import {
+  demoAccount,
+  openAction,
+  PHONE,
+  postAsSignedIn,
+  signIn,
+  strand,
+  superuser,
+  useJourneys,
+} from './support/journey';
 
 const registrar = demoAccount('registrar');
 const dealer = demoAccount('dealer');
@@ -21,18 +30,16 @@ async function listedLot(): Promise<string> {
 }
 
 describe("the registrar's tools in Chromium", () => {
-  const baseUrl = inject('baseUrl');
   let code: string;
   beforeAll(async () => {
     code = await listedLot();
   });
 
   describe('a buyer reports a problem on a phone', () => {
-    const browser = useBrowser({ width: 390, height: 844 });
+    const journeys = useJourneys(PHONE);
 
     it('opens the form from the public page, is told what is missing, and sends the report', async () => {
-      const { page } = browser;
-      const errors = pageErrors(page);
+      const { page, baseUrl, errors } = journeys.start();
       await page.goto(`${baseUrl}/l/${code}`);
       await page.getByRole('button', { name: 'Report a problem with this page' }).click();
       await page.getByRole('button', { name: 'Send the report' }).click();
@@ -52,11 +59,10 @@ describe("the registrar's tools in Chromium", () => {
   });
 
   describe('the registrar at a desk', () => {
-    const browser = useBrowser();
+    const journeys = useJourneys();
 
     it('finds the report in the queue and runs the full-ledger audit with progress', async () => {
-      const { page } = browser;
-      const errors = pageErrors(page);
+      const { page, baseUrl, errors } = journeys.start();
       await signIn(page, baseUrl, registrar.email);
 
       await page.goto(`${baseUrl}/registry/reports`);
@@ -81,44 +87,21 @@ describe("the registrar's tools in Chromium", () => {
     });
   });
   describe('a holder asks for the removal of an entry and the registrar removes it', () => {
-    const browser = useBrowser({ width: 1280, height: 900 });
+    const journeys = useJourneys({ width: 1280, height: 900 });
 
     it('asks from the lot page; the request waits in the registrar’s queue; removal keeps the roll verifying', async () => {
-      const { page } = browser;
-      const errors = pageErrors(page);
+      const { page, baseUrl, errors } = journeys.start();
       await signIn(page, baseUrl, dealer.email);
-      const headers = { 'X-Beadroll-Request': '1' };
-      const made = await page.request.post(`${baseUrl}/api/lots`, {
-        headers,
-        data: {
-          description: {
-            title: 'Strand of green drawn seed beads',
-            form: 'strand',
-            count: { value: 120, estimated: true },
-            colours: ['green'],
-            baseGlass: ['transparent'],
-            decoration: [],
-            listed: true,
-          },
-        },
+      const { code: mine } = await postAsSignedIn<{ code: string }>(page, '/api/lots', {
+        description: strand('Strand of green drawn seed beads', { count: { value: 120, estimated: true } }),
       });
-      expect(made.status()).toBe(201);
-      const mine = ((await made.json()) as { code: string }).code;
-      const observed = await page.request.post(`${baseUrl}/api/lots/${mine}/observations`, {
-        headers,
-        data: {
-          observations: { note: 'Bought from the stall beside the bakery on Ostrel Lane, number 14.' },
-        },
+      await postAsSignedIn(page, `/api/lots/${mine}/observations`, {
+        observations: { note: 'Bought from the stall beside the bakery on Ostrel Lane, number 14.' },
       });
-      expect(observed.status()).toBe(201);
 
       await page.goto(`${baseUrl}/lots/${mine}`);
       await page.getByText('Verified in this browser').waitFor();
-      await page
-        .getByRole('group', { name: 'Actions' })
-        .getByRole('button', { name: 'Ask for a removal' })
-        .click();
-      const dialog = page.getByRole('dialog');
+      const dialog = await openAction(page, 'Ask for a removal');
       await dialog.getByRole('combobox', { name: /^Entry/ }).selectOption('1');
       await dialog
         .getByRole('textbox', { name: /Why it should go/ })

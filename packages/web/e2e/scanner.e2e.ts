@@ -1,7 +1,7 @@
 import { describe, expect, inject, it } from 'vitest';
-import { tagPayload, tagReference } from '@beadroll/core';
+import { tagPayload } from '@beadroll/core';
 import { screenshot } from './support/browser';
-import { demo, demoAccount, scanHeldLot, signIn, useCameraBrowser } from './support/journey';
+import { useCameraBrowser, useHeldLotCamera } from './support/journey';
 
 // An invented lot on an invented host: nobody signed in holds it, so the scanner must send the
 // reader to its public page with the tag reference, where the tag is checked.
@@ -42,56 +42,11 @@ describe('the fair scanner with a fake camera in Chromium', () => {
   });
 });
 
-const dealer = demoAccount('dealer');
-
-/** Signs the demo dealer in over HTTP and registers an invented lot for them; returns it with its head. */
-async function heldLot(baseUrl: string): Promise<{ code: string; title: string; ref: string }> {
-  const signIn = await fetch(`${baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1' },
-    body: JSON.stringify({ email: dealer.email, password: demo.password }),
-  });
-  expect(signIn.ok).toBe(true);
-  const cookie = signIn.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-  const title = 'Green glass melon beads on the fair stand';
-  const res = await fetch(`${baseUrl}/api/lots`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', 'X-Beadroll-Request': '1', cookie },
-    body: JSON.stringify({
-      description: {
-        title,
-        form: 'strand',
-        count: { value: 24, estimated: false },
-        colours: ['green'],
-        baseGlass: ['transparent'],
-        decoration: [],
-        listed: false,
-      },
-    }),
-  });
-  const lot = (await res.json()) as { code: string; headHash: string };
-  expect(res.status, JSON.stringify(lot)).toBe(201);
-  return { code: lot.code, title, ref: tagReference(lot.headHash) };
-}
-
 describe('the fair scanner, signed in as the holder', () => {
-  const baseUrl = inject('baseUrl');
-  let lot: { code: string; title: string; ref: string };
-  const browser = useCameraBrowser(
-    async () => {
-      lot = await heldLot(baseUrl);
-      return tagPayload(new URL(baseUrl).host, lot.code, lot.ref);
-    },
-    { width: 420, height: 860 },
-  );
+  const camera = useHeldLotCamera('Green glass melon beads on the fair stand', { width: 420, height: 860 });
 
   it('reads the tag of a lot the dealer holds and opens that lot with its quick actions', async () => {
-    const { page } = browser;
-    await signIn(page, baseUrl, dealer.email);
-    await scanHeldLot(page, baseUrl, lot);
+    const { page } = await camera.scan();
     await page.getByText('This tag names the newest entry.').waitFor();
     await page.getByRole('button', { name: 'Print a new tag' }).waitFor();
     await screenshot(page, 'scanner-held-lot');

@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core';
-import { describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot } from './support/browser';
-import { demo, demoHandle, pageErrors, signOut, useBrowser } from './support/journey';
+import { describe, expect, it } from 'vitest';
+import { screenshot } from './support/browser';
+import { demo, demoHandle, expectNoSideScroll, onPhone, signOut, useJourneys } from './support/journey';
 
 const teodor = demoHandle('teodor-brasko');
 const ines = demoHandle('ines-calloway-rue');
@@ -23,12 +23,11 @@ async function choose(page: Page, name: string, text: string) {
 }
 
 describe('transfers in Chromium', () => {
-  const browser = useBrowser();
-  const baseUrl = inject('baseUrl');
+  const journeys = useJourneys();
+  const { baseUrl } = journeys;
 
   it('A offers, B follows the e-mailed link and accepts, the lot is B’s, B records a sale', async () => {
-    const { page } = browser;
-    const errors = pageErrors(page);
+    const { page, errors } = journeys.start();
 
     // Dealer A offers one of their lots, with a sealed price.
     await page.goto(`${baseUrl}/sign-in?next=/transfers/outgoing`);
@@ -88,9 +87,7 @@ describe('transfers in Chromium', () => {
   });
 
   it('fits a phone screen (390 px): incoming offers and the answer page', async () => {
-    const phone = await openBrowser({ width: 390, height: 844 });
-    try {
-      const { page } = phone;
+    await onPhone(async (page) => {
       // Odile has an open incoming offer in the demo scenario.
       await page.goto(`${baseUrl}/sign-in?next=/transfers/incoming`);
       await signIn(page, demoHandle('odile-varnas').email);
@@ -100,10 +97,7 @@ describe('transfers in Chromium', () => {
       await page.getByRole('link', { name: 'Opaque turquoise ring beads' }).click();
       await page.getByRole('button', { name: 'Accept the lot' }).waitFor();
       await screenshot(page, 'transfers-answer-390');
-      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-      expect(overflow).toBeLessThanOrEqual(0);
-    } finally {
-      await phone.close();
-    }
+      await expectNoSideScroll(page);
+    });
   });
 });

@@ -4,7 +4,7 @@ import { JwtModule } from '@nestjs/jwt';
 import { PassportModule } from '@nestjs/passport';
 import { ThrottlerModule } from '@nestjs/throttler';
 import { TypeOrmModule } from '@nestjs/typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountRecordsModule } from '../accounts/account-records.module';
 import { EmailToken } from '../accounts/entities/email-token.entity';
 import { RefreshToken, Session } from '../accounts/entities/session.entity';
 import type { AppConfig } from '../config/app-config';
@@ -23,7 +23,8 @@ import { DataSource } from 'typeorm';
 /** Sessions, passwords and the global guard every route passes through. */
 @Module({
   imports: [
-    TypeOrmModule.forFeature([Account, Session, RefreshToken, EmailToken]),
+    AccountRecordsModule,
+    TypeOrmModule.forFeature([Session, RefreshToken, EmailToken]),
     PassportModule,
     ThrottlerModule.forRootAsync({
       inject: [APP_CONFIG, DataSource],

@@ -1,9 +1,8 @@
 import { randomBytes } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
-import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
 import { accountLetters } from '../accounts/account-letters';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountsService } from '../accounts/accounts.service';
+import type { Account } from '../accounts/entities/account.entity';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
@@ -29,7 +28,7 @@ function isUniqueViolation(err: unknown): boolean {
 export class AuthService {
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
-    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly accounts: AccountsService,
     private readonly passwords: PasswordsService,
     private readonly sessions: SessionsService,
     private readonly tokens: EmailTokensService,
@@ -55,35 +54,33 @@ export class AuthService {
       return CHECK_MAIL;
     }
     const handleTaken = () => AppError.validation([{ field: 'handle', reason: 'is already taken' }]);
-    if (await this.accounts.exists({ where: { handle: dto.handle } })) throw handleTaken();
+    if (await this.accounts.handleTaken(dto.handle)) throw handleTaken();
     // Checked and stored before the account: a refused file loses nothing else, and a stored one
     // is only named by the account (the bytes are content-addressed, so a retry stores nothing new).
     const doc = document ? await storeApplicantDocument(this.blobs, document) : null;
     let account: Account;
     try {
-      account = await this.accounts.save(
-        this.accounts.create({
-          role: dto.role,
-          status: 'pending',
-          handle: dto.handle,
-          email: dto.email,
-          displayName: dto.displayName,
-          business: dto.business,
-          town: dto.town,
-          country: dto.country,
-          address: dto.address,
-          website: dto.website ?? null,
-          tradeReferences: dto.tradeReferences,
-          documentSha256: doc?.sha256 ?? null,
-          documentType: doc?.type ?? null,
-          documentSize: doc?.size ?? null,
-          documentName: doc?.name ?? null,
-          passwordHash: await this.passwords.hash(dto.password),
-          emailVerifiedAt: null,
-          verifiedAt: null,
-          statusReason: null,
-        }),
-      );
+      account = await this.accounts.create({
+        role: dto.role,
+        status: 'pending',
+        handle: dto.handle,
+        email: dto.email,
+        displayName: dto.displayName,
+        business: dto.business,
+        town: dto.town,
+        country: dto.country,
+        address: dto.address,
+        website: dto.website ?? null,
+        tradeReferences: dto.tradeReferences,
+        documentSha256: doc?.sha256 ?? null,
+        documentType: doc?.type ?? null,
+        documentSize: doc?.size ?? null,
+        documentName: doc?.name ?? null,
+        passwordHash: await this.passwords.hash(dto.password),
+        emailVerifiedAt: null,
+        verifiedAt: null,
+        statusReason: null,
+      });
     } catch (err) {
       // Two sign-ups racing for the same handle or address: the loser learns nothing new.
       if (!isUniqueViolation(err)) throw err;
@@ -101,12 +98,11 @@ export class AuthService {
   /** Confirms an e-mail address from the link's token; registrars hear of the new application. */
   async verifyEmail(token: string): Promise<MessageResponse> {
     const used = await this.tokens.consume(token, ['verify-email']);
-    const account = await this.accounts.findOneByOrFail({ id: used.accountId });
+    const account = await this.accountOf(used.accountId);
     if (!account.emailVerifiedAt) {
-      account.emailVerifiedAt = new Date();
-      await this.accounts.save(account);
+      await this.accounts.update(account.id, { emailVerifiedAt: new Date() });
       if (account.status === 'pending') {
-        const registrars = await this.accounts.find({ where: { role: 'registrar', status: 'verified' } });
+        const registrars = await this.accounts.registrars();
         for (const r of registrars) {
           await this.mail.send(
             r.email,
@@ -133,11 +129,12 @@ export class AuthService {
   /** Sets a new password from a reset or set-password link; every session of the account ends. */
   async resetPassword(token: string, password: string): Promise<MessageResponse> {
     const used = await this.tokens.consume(token, ['reset-password', 'set-password']);
-    const account = await this.accounts.findOneByOrFail({ id: used.accountId });
-    account.passwordHash = await this.passwords.hash(password);
+    const account = await this.accountOf(used.accountId);
     // Following the e-mailed link proves the address.
-    account.emailVerifiedAt ??= new Date();
-    await this.accounts.save(account);
+    await this.accounts.update(account.id, {
+      passwordHash: await this.passwords.hash(password),
+      emailVerifiedAt: account.emailVerifiedAt ?? new Date(),
+    });
     await this.sessions.revokeAll(account.id, 'password');
     return { message: 'Your new password is set. Please sign in with it.' };
   }
@@ -149,12 +146,11 @@ export class AuthService {
     current: string,
     next: string,
   ): Promise<MessageResponse> {
-    const account = await this.accounts.findOneByOrFail({ id: accountId });
+    const account = await this.accountOf(accountId);
     if (!(await this.passwords.verify(current, account.passwordHash))) {
       throw AppError.validation([{ field: 'currentPassword', reason: 'is not your current password' }]);
     }
-    account.passwordHash = await this.passwords.hash(next);
-    await this.accounts.save(account);
+    await this.accounts.update(account.id, { passwordHash: await this.passwords.hash(next) });
     await this.sessions.revokeAll(account.id, 'password', sessionId);
     return { message: 'Your password is changed. Every other sign-in has ended.' };
   }
@@ -175,16 +171,20 @@ export class AuthService {
   }
 
   async me(accountId: string): Promise<Account> {
-    const account = await this.accounts.findOne({ where: { id: accountId } });
+    const account = await this.accounts.find(accountId);
     if (!account) throw new AppError('unauthenticated', 'Please sign in.');
     return account;
   }
 
   findByEmail(email: string): Promise<Account | null> {
-    return this.accounts
-      .createQueryBuilder('a')
-      .where('lower(a.email) = lower(:email)', { email: email.trim() })
-      .getOne();
+    return this.accounts.findByEmail(email.trim());
+  }
+
+  /** The account a used token names (it exists: a token goes with its account). */
+  private async accountOf(id: string): Promise<Account> {
+    const account = await this.accounts.find(id);
+    if (!account) throw new Error(`no account ${id}`);
+    return account;
   }
 
   /** Creates (or finds) the registrar for an address and e-mails a set-password link; returns the link. */
@@ -194,22 +194,20 @@ export class AuthService {
     if (account && account.role !== 'registrar') {
       throw new AppError('conflict', `${email} already belongs to a ${account.role} account.`);
     }
-    account ??= await this.accounts.save(
-      this.accounts.create({
-        role: 'registrar',
-        status: 'verified',
-        handle: `registrar-${randomBytes(3).toString('hex')}`,
-        email: email.trim(),
-        displayName: 'Registrar',
-        business: 'Beadroll registry',
-        town: '-',
-        country: '-',
-        passwordHash: null,
-        emailVerifiedAt: null,
-        verifiedAt: new Date(),
-        statusReason: null,
-      }),
-    );
+    account ??= await this.accounts.create({
+      role: 'registrar',
+      status: 'verified',
+      handle: `registrar-${randomBytes(3).toString('hex')}`,
+      email: email.trim(),
+      displayName: 'Registrar',
+      business: 'Beadroll registry',
+      town: '-',
+      country: '-',
+      passwordHash: null,
+      emailVerifiedAt: null,
+      verifiedAt: new Date(),
+      statusReason: null,
+    });
     const token = await this.tokens.issue(account.id, 'set-password');
     const link = this.link('/reset-password', token);
     await this.mail.send(account.email, accountLetters.setPassword(link));

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { In, IsNull, Repository } from 'typeorm';
+import { In, IsNull, Repository, type EntityManager } from 'typeorm';
 import { EmailToken, type EmailTokenPurpose } from '../accounts/entities/email-token.entity';
 import { AppError } from '../common/app-error';
 import { sha256Hex } from './sessions.service';
@@ -17,6 +17,11 @@ export const TOKEN_TTL_SECONDS: Record<EmailTokenPurpose, number> = {
 @Injectable()
 export class EmailTokensService {
   constructor(@InjectRepository(EmailToken) private readonly tokens: Repository<EmailToken>) {}
+
+  /** Deletes every e-mailed token of an account, in the caller's transaction (the account is closing). */
+  async deleteAllOf(accountId: string, m: EntityManager): Promise<void> {
+    await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [accountId]);
+  }
 
   /** A new token for the account; earlier unused ones for the same purpose stop working. */
   async issue(accountId: string, purpose: EmailTokenPurpose): Promise<string> {

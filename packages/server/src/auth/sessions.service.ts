@@ -2,8 +2,8 @@ import { createHash, randomBytes } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import { InjectRepository } from '@nestjs/typeorm';
-import { IsNull, Not, Repository, DataSource } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { IsNull, Not, Repository } from 'typeorm';
+import { AccountsService } from '../accounts/accounts.service';
 import { RefreshToken, Session } from '../accounts/entities/session.entity';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
@@ -35,7 +35,7 @@ export class SessionsService {
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly jwt: JwtService,
-    private readonly dataSource: DataSource,
+    private readonly accounts: AccountsService,
     @InjectRepository(Session) private readonly sessions: Repository<Session>,
     @InjectRepository(RefreshToken) private readonly tokens: Repository<RefreshToken>,
   ) {}
@@ -68,10 +68,8 @@ export class SessionsService {
       throw invalid();
     }
     if (token.expiresAt.getTime() <= Date.now()) throw invalid();
-    const account = await this.dataSource
-      .getRepository(Account)
-      .findOne({ where: { id: session.accountId } });
-    if (!account || account.status === 'closed') throw invalid();
+    const account = await this.accounts.principal(session.accountId);
+    if (!account) throw invalid();
     return this.issue(session.id, session.accountId);
   }
 
@@ -100,25 +98,26 @@ export class SessionsService {
     );
   }
 
+  /** Every session of an account, oldest first (the account's own data download). */
+  async historyOf(
+    accountId: string,
+  ): Promise<Array<{ createdAt: Date; revokedAt: Date | null; revokedWhy: string | null }>> {
+    const rows: Array<{ created_at: Date; revoked_at: Date | null; revoked_why: string | null }> =
+      await this.sessions.query(
+        `SELECT "created_at", "revoked_at", "revoked_why" FROM "sessions" WHERE "account_id" = $1 ORDER BY "created_at"`,
+        [accountId],
+      );
+    return rows.map((r) => ({ createdAt: r.created_at, revokedAt: r.revoked_at, revokedWhy: r.revoked_why }));
+  }
+
   /** The principal for verified access claims, read from the database (role and status are never taken from the token). */
   async principalFor(claims: AccessClaims): Promise<(Principal & { sessionId: string }) | null> {
-    const rows: Array<Pick<Account, 'id' | 'role' | 'status' | 'handle'> & { display_name: string }> =
-      await this.dataSource.query(
-        `SELECT a.id, a.role, a.status, a.handle, a.display_name
-           FROM accounts a JOIN sessions s ON s.account_id = a.id
-          WHERE a.id = $1 AND s.id = $2 AND s.revoked_at IS NULL AND a.status <> 'closed'`,
-        [claims.sub, claims.sid],
-      );
-    const row = rows[0];
-    if (!row) return null;
-    return {
-      id: row.id,
-      role: row.role,
-      status: row.status,
-      handle: row.handle,
-      displayName: row.display_name,
-      sessionId: claims.sid,
-    };
+    // Both reads at once, on two connections: every signed-in request waits for them.
+    const [principal, open] = await Promise.all([
+      this.accounts.principal(claims.sub),
+      this.sessions.exists({ where: { id: claims.sid, accountId: claims.sub, revokedAt: IsNull() } }),
+    ]);
+    return principal && open ? { ...principal, sessionId: claims.sid } : null;
   }
 
   private async issue(sessionId: string, accountId: string): Promise<IssuedSession> {

@@ -12,9 +12,9 @@ import { createHash } from 'node:crypto';
 import { createWriteStream, existsSync, mkdirSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import type { ExhibitRef } from '@beadroll/core';
 import { loadConfig } from '../config/app-config';
 import { createDataSource } from '../database/data-source';
+import { storedExhibitDigests } from '../exhibits/stored-digests';
 import { createBlobStore } from '../storage/storage.module';
 import { BlobNotFoundError, type BlobStore } from '../storage/blob-store';
 
@@ -25,13 +25,7 @@ async function namedDigests(): Promise<string[]> {
   const ds = createDataSource(loadConfig());
   await ds.initialize();
   try {
-    const rows: Array<{ ref: ExhibitRef }> = await ds.query('SELECT "ref" FROM "exhibits" ORDER BY "id"');
-    const out = new Set<string>();
-    for (const { ref } of rows) {
-      out.add(ref.original.sha256);
-      for (const d of ref.derivatives) out.add(d.sha256);
-    }
-    return [...out].sort();
+    return await storedExhibitDigests(ds);
   } finally {
     await ds.destroy();
   }

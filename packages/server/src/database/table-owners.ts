@@ -15,7 +15,10 @@ export const TABLE_OWNERS: Readonly<Record<string, string>> = {
   entries: 'ledger',
   entry_bodies: 'ledger',
   sealed_fields: 'ledger',
-  log_head: 'log',
+  // The log's size is the count of entries the ledger's sequencer has numbered: one statement
+  // advances it and gives those entries their log indices, so it belongs with the entries. The
+  // log module reads both through the ledger's LogLeavesService.
+  log_head: 'ledger',
   log_checkpoints: 'log',
   log_cosignatures: 'log',
   log_witnesses: 'log',
@@ -43,45 +46,20 @@ export const OWNERSHIP_EXCEPTIONS: ReadonlyArray<{ path: string; reason: string 
       'the audit compares every stored copy (lot views, cached states, sealed values, exhibits, ' +
       'offers, sales) with what the rolls say; it only reads, and must read the tables themselves',
   },
+  {
+    path: 'lots/public-lot-text.ts',
+    reason:
+      'the public answer of a listed lot (its view, its entries and bodies as stored text, the cards ' +
+      'of its verified actors) is one read-only statement, the busiest public read: split across the ' +
+      'ledger and accounts services it would cost several round trips, and the public-data benchmark ' +
+      'runs this very text on its bare server. public-lot-text.e2e-spec holds it to the answer built ' +
+      "from the ledger's reader and DealerCardsService, lot for lot",
+  },
 ];
 
 /**
  * Cross-module uses not yet moved behind the owner's service, by file and table. The test fails
- * when one of these is no longer needed, so this list only shrinks.
+ * when one of these is no longer needed, so this list only shrinks; it is empty, and a new
+ * cross-module use fails the test.
  */
-export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {
-  'auth/auth.module.ts': ['accounts'],
-  'auth/auth.service.ts': ['accounts'],
-  'auth/sessions.service.ts': ['accounts'],
-  'cli/exhibit-store.ts': ['exhibits'],
-  'demo/demo-exhibits.ts': ['accounts', 'exhibits'],
-  'demo/demo-lots.ts': ['lots'],
-  'demo/seed.ts': ['accounts'],
-  'ledger/log-sequencer.ts': ['log_head'],
-  'lineage/lineage.seed.ts': ['lots'],
-  'lineage/lineage.service.ts': ['entries', 'lots'],
-  'log/log-tree.service.ts': ['entries'],
-  'log/log.service.ts': ['entries', 'lots'],
-  'lots/lot-view.projector.ts': ['entries', 'entry_bodies'],
-  'lots/lots.service.ts': ['lots'],
-  'lots/public-lot-text.ts': ['accounts', 'entries', 'entry_bodies'],
-  'opinions/demo-opinions.ts': ['entries', 'lots'],
-  'opinions/opinion-requests.service.ts': ['accounts', 'lots'],
-  'opinions/opinions.module.ts': ['accounts'],
-  'opinions/opinions.service.ts': ['accounts', 'entries', 'entry_bodies', 'lots'],
-  'registry/personal-data.service.ts': [
-    'accounts',
-    'email_tokens',
-    'entries',
-    'entry_bodies',
-    'exhibits',
-    'lot_private_search',
-    'lots',
-    'sessions',
-  ],
-  'registry/redactions.service.ts': ['exhibits'],
-  'transfers/demo-transfers.ts': ['entries', 'lots'],
-  'transfers/sales.service.ts': ['accounts'],
-  'transfers/transfers.module.ts': ['accounts'],
-  'transfers/transfers.service.ts': ['accounts'],
-};
+export const NOT_YET_MOVED: Readonly<Record<string, readonly string[]>> = {};

@@ -4,8 +4,7 @@ import { mkdir, rm } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import type { ExhibitKind } from '@beadroll/core';
 import sharp from 'sharp';
-import { DataSource } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountsService } from '../accounts/accounts.service';
 import type { Principal } from '../auth/auth.decorators';
 import { ExhibitsService } from '../exhibits/exhibits.service';
 import { drawDemoPicture, type DemoPicture } from './demo-pictures';
@@ -27,7 +26,7 @@ interface DemoLotExhibits {
  * way), added by the lot's holder. A lot that already has exhibits, or is not loaded, is skipped.
  */
 export const seedExhibits: SeedStep = async (app, ctx) => {
-  const data = app.get(DataSource);
+  const accounts = app.get(AccountsService);
   const exhibits = app.get(ExhibitsService);
   const views = app.get(LotViewsService);
   const work = join(ctx.config.dataDir, 'tmp', `demo-exhibits-${randomBytes(8).toString('hex')}`);
@@ -37,11 +36,9 @@ export const seedExhibits: SeedStep = async (app, ctx) => {
     for (const lot of lots) {
       const found = await views.firstTitled(lot.lot);
       if (!found) continue;
-      const has: unknown[] = await data.query('SELECT 1 FROM "exhibits" WHERE "lot_code" = $1 LIMIT 1', [
-        found.code,
-      ]);
-      if (has.length > 0) continue;
-      const a = await data.getRepository(Account).findOneByOrFail({ id: found.holder });
+      if (await exhibits.hasAny(found.code)) continue;
+      const a = await accounts.find(found.holder);
+      if (!a) throw new Error(`demo lot ${found.code} is held by ${found.holder}, who has no account`);
       const holder: Principal = {
         id: a.id,
         role: a.role,

@@ -1,8 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { generateLotCode, seededRandom, type LotDescription, type Observations } from '@beadroll/core';
-import { DataSource } from 'typeorm';
 import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
 import { sealedValuesOf } from '../lots/lots.service';
 import type { SeedStep } from './seed';
@@ -42,7 +42,7 @@ export function readDemoLots(file: string): DemoLot[] {
  */
 export async function loadDemoLots(
   ledger: LedgerService,
-  dataSource: DataSource,
+  reader: RollReaderService,
   lots: DemoLot[],
   accounts: Record<string, string>,
 ): Promise<LoadedDemoLot[]> {
@@ -54,8 +54,7 @@ export async function loadDemoLots(
     if (!actor)
       throw new Error(`demo lot "${lot.description.title}" names ${lot.holder}, who is not in the scenario`);
     out.push({ code, holder: lot.holder, title: lot.description.title, listed: lot.description.listed });
-    const exists: unknown[] = await dataSource.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
-    if (exists.length > 0) continue;
+    if (await reader.findLot(code)) continue;
     await ledger.withLots([], async (tx) => {
       await tx.register({ code, actor, description: lot.description, sealed: sealedValuesOf(lot.sealed) });
       if (lot.observations)
@@ -69,7 +68,7 @@ export async function loadDemoLots(
 export const seedLots: SeedStep = async (app, ctx) => {
   const loaded = await loadDemoLots(
     app.get(LedgerService),
-    app.get(DataSource),
+    app.get(RollReaderService),
     readDemoLots(DEMO_LOTS_FILE),
     ctx.accounts,
   );

@@ -7,8 +7,8 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { INestApplicationContext } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
-import { DataSource } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountsService } from '../accounts/accounts.service';
+import type { Account } from '../accounts/entities/account.entity';
 import { AppModule } from '../app.module';
 import { PasswordsService } from '../auth/passwords.service';
 import type { AppConfig } from '../config/app-config';
@@ -59,25 +59,22 @@ function demoId(handle: string): string {
 /** The demo accounts: a registrar, verified dealers, a verified assessor and one pending applicant. */
 export const seedAccounts: SeedStep = async (app, ctx) => {
   const file = readSeedFile<{ password: string; accounts: DemoAccount[] }>('accounts.json');
-  const repo = app.get(DataSource).getRepository(Account);
+  const accounts = app.get(AccountsService);
   const passwords = app.get(PasswordsService);
   const hash = await passwords.hash(file.password);
   // The scenario's dates are fixed so the cards read the same everywhere.
   const since = new Date('2025-03-01T09:00:00Z');
   for (const a of file.accounts) {
-    let row = await repo.findOne({ where: { handle: a.handle } });
-    if (!row) {
-      row = await repo.save(
-        repo.create({
-          ...a,
-          id: demoId(a.handle),
-          passwordHash: hash,
-          emailVerifiedAt: since,
-          verifiedAt: a.status === 'verified' ? since : null,
-          statusReason: null,
-        }),
-      );
-    }
+    const row =
+      (await accounts.findByHandle(a.handle)) ??
+      (await accounts.create({
+        ...a,
+        id: demoId(a.handle),
+        passwordHash: hash,
+        emailVerifiedAt: since,
+        verifiedAt: a.status === 'verified' ? since : null,
+        statusReason: null,
+      }));
     ctx.accounts[a.handle] = row.id;
     ctx.report.signIns.push({ role: a.role, name: a.displayName, email: a.email, password: file.password });
   }

@@ -305,6 +305,40 @@ export class ExhibitsService {
     return this.serve(row, variant);
   }
 
+  /** Whether any exhibit is stored for the lot (by canonical code). */
+  async hasAny(code: string): Promise<boolean> {
+    const has: unknown[] = await this.dataSource.query(
+      'SELECT 1 FROM "exhibits" WHERE "lot_code" = $1 LIMIT 1',
+      [code],
+    );
+    return has.length > 0;
+  }
+
+  /**
+   * What is stored for the exhibit of entry `seq` of a lot: the digest of the file as it was sent
+   * and the stored files (a sealed exhibit's too, which its public body does not name). Read in
+   * the caller's transaction.
+   */
+  async storedAt(
+    lotId: string,
+    seq: number,
+    m: EntityManager,
+  ): Promise<Array<{ sent_sha256: string | null; ref: ExhibitRef | null }>> {
+    return m.query('SELECT "sent_sha256", "ref" FROM "exhibits" WHERE "lot_id" = $1 AND "seq" = $2', [
+      lotId,
+      seq,
+    ]);
+  }
+
+  /** The SHA-256 of each file an account sent, as sent, by lot code and seq (its own data download). */
+  sentBy(accountId: string): Promise<Array<{ lot: string; seq: number; sha256: string }>> {
+    return this.dataSource.query(
+      `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
+        WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
+      [accountId],
+    );
+  }
+
   private async row(code: string, seqText: string, manager?: EntityManager): Promise<ExhibitEntity | null> {
     if (!/^[1-9]\d{0,8}$/.test(seqText)) return null;
     const exhibits = manager ? manager.getRepository(ExhibitEntity) : this.exhibits;

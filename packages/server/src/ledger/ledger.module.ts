@@ -6,19 +6,18 @@ import { LedgerService } from './ledger.service';
 import { LEDGER_RANDOM } from './ledger.tokens';
 import { RollReaderService } from './roll-reader.service';
 import { LogModule } from '../log/log.module';
-import { LogSequencer } from './log-sequencer';
+import { LogLeavesModule } from './log-leaves.module';
 
 /** The ledger: the one append path, roll reading and bundles. */
 @Module({
-  imports: [LogModule],
+  imports: [LogModule, LogLeavesModule],
   providers: [
     LedgerService,
     RollReaderService,
     BundleService,
     LedgerClock,
-    LogSequencer,
     { provide: LEDGER_RANDOM, useValue: secureRandom },
   ],
-  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogSequencer, LogModule],
+  exports: [LedgerService, RollReaderService, BundleService, LedgerClock, LogLeavesModule, LogModule],
 })
 export class LedgerModule {}

@@ -57,16 +57,52 @@ export class RollReaderService {
     return r ? { id: r.id, code: r.code, headSeq: r.head_seq, headHash: r.head_hash } : null;
   }
 
-  /** A lot's id and its cached state (as of its head), by canonical code; null when unknown. */
+  /** A lot's id, its cached state (as of its head) and its head's hash, by canonical code; null when unknown. */
   async cachedState(
     code: string,
     manager: EntityManager = this.dataSource.manager,
-  ): Promise<{ id: string; state: RollState } | null> {
-    const rows: Array<{ id: string; state: RollState }> = await manager.query(
-      'SELECT "id", "state" FROM "lots" WHERE "code" = $1',
+  ): Promise<{ id: string; state: RollState; headHash: string } | null> {
+    const rows: Array<{ id: string; state: RollState; head_hash: string }> = await manager.query(
+      'SELECT "id", "state", "head_hash" FROM "lots" WHERE "code" = $1',
       [code],
     );
-    return rows[0] ?? null;
+    const r = rows[0];
+    return r ? { id: r.id, state: r.state, headHash: r.head_hash } : null;
+  }
+
+  /** The cached states (as of their heads) of many lots at once, by canonical code (unknown codes left out). */
+  async cachedStates(codes: readonly string[]): Promise<Map<string, RollState>> {
+    const rows: Array<{ code: string; state: RollState }> = await this.dataSource.query(
+      'SELECT "code", "state" FROM "lots" WHERE "code" = ANY($1)',
+      [codes],
+    );
+    return new Map(rows.map((r) => [r.code, r.state]));
+  }
+
+  /** Every lot a lot was made from, through any number of splits and combinations (from the cached states). */
+  async ancestorsOf(code: string): Promise<Set<string>> {
+    const rows: Array<{ code: string }> = await this.dataSource.query(
+      `WITH RECURSIVE "up"("code") AS (
+         SELECT p->>'lot' FROM "lots" l, jsonb_array_elements(l."state"->'parents') p WHERE l."code" = $1
+         UNION
+         SELECT p->>'lot' FROM "up" u JOIN "lots" l ON l."code" = u."code", jsonb_array_elements(l."state"->'parents') p
+       ) SELECT "code" FROM "up"`,
+      [code],
+    );
+    return new Set(rows.map((r) => r.code));
+  }
+
+  /** The kinds of the entries at the given places (lot code and seq), keyed `code/seq`; unknown places left out. */
+  async kindsAt(at: ReadonlyArray<{ code: string; seq: number }>): Promise<Map<string, string>> {
+    const out = new Map<string, string>();
+    if (at.length === 0) return out;
+    const rows: Array<{ code: string; seq: number; kind: string }> = await this.dataSource.query(
+      `SELECT l."code", e."seq", e."kind" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       JOIN unnest($1::text[], $2::int[]) AS w("code", "seq") ON w."code" = l."code" AND w."seq" = e."seq"`,
+      [at.map((a) => a.code), at.map((a) => a.seq)],
+    );
+    for (const r of rows) out.set(`${r.code}/${r.seq}`, r.kind);
+    return out;
   }
 
   /** The stored heads of many lots at once, by canonical code (unknown codes left out). */
@@ -97,6 +133,87 @@ export class RollReaderService {
       body,
       logIndex,
     }));
+  }
+
+  /** The stored bodies of a lot's entries of one kind, by canonical code (redacted bodies left out). */
+  async bodiesOfKind(
+    code: string,
+    kind: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<string[]> {
+    const rows: Array<{ body: string }> = await manager.query(
+      `SELECT b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       JOIN "entry_bodies" b ON b."entry_id" = e."id"
+       WHERE l."code" = $1 AND e."kind" = $2`,
+      [code, kind],
+    );
+    return rows.map((r) => r.body);
+  }
+
+  /**
+   * The stored body of a lot's newest entry of one kind, leaving out the entry at `exceptSeq`
+   * and redacted bodies; null when there is none. Read in the caller's transaction.
+   */
+  async latestBody(
+    lotId: string,
+    kind: string,
+    exceptSeq: number,
+    manager: EntityManager,
+  ): Promise<string | null> {
+    const rows: Array<{ body: string }> = await manager.query(
+      `SELECT b."body" FROM "entries" e JOIN "entry_bodies" b ON b."entry_id" = e."id"
+       WHERE e."lot_id" = $1 AND e."kind" = $2 AND e."seq" <> $3 ORDER BY e."seq" DESC LIMIT 1`,
+      [lotId, kind, exceptSeq],
+    );
+    return rows[0]?.body ?? null;
+  }
+
+  /** Whether a lot (by canonical code) has any entry of this kind. */
+  async hasEntryOfKind(code: string, kind: string): Promise<boolean> {
+    const rows: unknown[] = await this.dataSource.query(
+      `SELECT 1 FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."kind" = $2 LIMIT 1`,
+      [code, kind],
+    );
+    return rows.length > 0;
+  }
+
+  /** How many entries of one kind `actor` appended to a lot (by canonical code) after `since`. */
+  async countSince(
+    code: string,
+    kind: string,
+    actor: string,
+    since: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<number> {
+    const [{ n }] = (await manager.query(
+      `SELECT count(*)::int AS "n" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+       WHERE l."code" = $1 AND e."kind" = $2 AND e."actor" = $3 AND e."time" > $4`,
+      [code, kind, actor, since],
+    )) as Array<{ n: number }>;
+    return n;
+  }
+
+  /**
+   * Every entry `actor` wrote, on any lot, with its exact header and body (null once redacted),
+   * ordered by lot code and seq (the account's own data download).
+   */
+  entriesBy(actor: string): Promise<
+    Array<{
+      lot: string;
+      seq: number;
+      kind: string;
+      time: string;
+      hash: string;
+      header: string;
+      body: string | null;
+    }>
+  > {
+    return this.dataSource.query(
+      `SELECT l."code" AS "lot", e."seq", e."kind", e."time", e."hash", e."header", b."body"
+         FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+        WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
+      [actor],
+    );
   }
 
   /** The sealed fields of a lot's entries that `viewer` may read (none for anyone else). */

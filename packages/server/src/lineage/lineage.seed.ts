@@ -1,8 +1,8 @@
 import { generateLotCode, seededRandom, type BodyFields, type LotDescription } from '@beadroll/core';
 import type { INestApplicationContext } from '@nestjs/common';
-import { DataSource } from 'typeorm';
 import type { CombineLotsDto, SplitLotDto } from './dto/lineage-requests.dto';
 import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 import { LineageService } from './lineage.service';
 
 /** An opinion recorded on a demo lot before it is split or combined (author by handle). */
@@ -42,9 +42,8 @@ export async function loadDemoLineage(
   const random = seededRandom(DEMO_LINEAGE_SEED);
   const ledger = app.get(LedgerService);
   const lineage = app.get(LineageService);
-  const db = app.get(DataSource);
-  const exists = async (code: string) =>
-    ((await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code])) as unknown[]).length > 0;
+  const reader = app.get(RollReaderService);
+  const exists = async (code: string) => (await reader.findLot(code)) !== null;
   const idOf = (handle: string) => {
     const id = accounts[handle];
     if (!id) throw new Error(`the demo lineage names ${handle}, who is not a demo account`);

@@ -7,7 +7,6 @@ import {
   type ParentRef,
   type RollState,
 } from '@beadroll/core';
-import { DataSource } from 'typeorm';
 import { AppError, type FieldProblem } from '../common/app-error';
 import { LedgerService, type RollTransaction } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -72,7 +71,7 @@ function beadsGone(fields: FieldProblem[]): AppError {
 export class LineageService {
   constructor(
     private readonly views: LotViewsService,
-    private readonly dataSource: DataSource,
+    private readonly reader: RollReaderService,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
   ) {}
@@ -95,7 +94,7 @@ export class LineageService {
         });
     });
     if (problems.length) throw AppError.validation(problems);
-    const seen = (await this.states([code])).get(code)!;
+    const seen = (await this.reader.cachedStates([code])).get(code)!;
     requireMayAppend(seen, 'split', actor.id, { lot: code });
     const total = sumOf(descriptions.map((d) => d.count));
     const had = seen.description?.count ?? seen.remaining;
@@ -166,7 +165,7 @@ export class LineageService {
       }
     }
     if (problems.length) throw AppError.validation(problems);
-    const seen = await this.states(codes);
+    const seen = await this.reader.cachedStates(codes);
     codes.forEach((code, i) => {
       if (seen.get(code)!.holder !== actor.id)
         problems.push({ field: `parts.${i}.lot`, reason: 'you do not hold this lot' });
@@ -335,16 +334,8 @@ export class LineageService {
   }
 
   /** Every lot a lot was made from, through any number of splits and combinations. */
-  async ancestorsOf(code: string): Promise<Set<string>> {
-    const rows: Array<{ code: string }> = await this.dataSource.query(
-      `WITH RECURSIVE "up"("code") AS (
-         SELECT p->>'lot' FROM "lots" l, jsonb_array_elements(l."state"->'parents') p WHERE l."code" = $1
-         UNION
-         SELECT p->>'lot' FROM "up" u JOIN "lots" l ON l."code" = u."code", jsonb_array_elements(l."state"->'parents') p
-       ) SELECT "code" FROM "up"`,
-      [code],
-    );
-    return new Set(rows.map((r) => r.code));
+  ancestorsOf(code: string): Promise<Set<string>> {
+    return this.reader.ancestorsOf(code);
   }
 
   private canRead(viewer: Viewer, r: GraphRow): boolean {
@@ -353,17 +344,12 @@ export class LineageService {
     );
   }
 
-  private async states(codes: string[]): Promise<Map<string, RollState>> {
-    const rows: Array<{ code: string; state: RollState }> = await this.dataSource.query(
-      'SELECT "code", "state" FROM "lots" WHERE "code" = ANY($1)',
-      [codes],
-    );
-    return new Map(rows.map((r) => [r.code, r.state]));
-  }
-
   private async graphRows(codes: string[]): Promise<GraphRow[]> {
     if (codes.length === 0) return [];
-    const [states, views] = await Promise.all([this.states(codes), this.views.findMany({ codes })]);
+    const [states, views] = await Promise.all([
+      this.reader.cachedStates(codes),
+      this.views.findMany({ codes }),
+    ]);
     return views
       .filter((v) => states.has(v.code))
       .map((v) => ({
@@ -378,16 +364,10 @@ export class LineageService {
   }
 
   private async linkKinds(edges: AncestryEdgeResponse[]): Promise<Map<string, 'split' | 'combined'>> {
-    const out = new Map<string, 'split' | 'combined'>();
-    if (edges.length === 0) return out;
-    const rows: Array<{ code: string; seq: number; kind: 'split' | 'combined' }> =
-      await this.dataSource.query(
-        `SELECT l."code", e."seq", e."kind" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
-       JOIN unnest($1::text[], $2::int[]) AS w("code", "seq") ON w."code" = l."code" AND w."seq" = e."seq"`,
-        [edges.map((e) => e.from), edges.map((e) => e.seq)],
-      );
-    for (const r of rows) out.set(`${r.code}/${r.seq}`, r.kind);
-    return out;
+    return (await this.reader.kindsAt(edges.map((e) => ({ code: e.from, seq: e.seq })))) as Map<
+      string,
+      'split' | 'combined'
+    >;
   }
 
   private async newCodes(tx: RollTransaction, n: number, preset: string[] = []): Promise<string[]> {

@@ -21,6 +21,7 @@ import {
 import { DataSource } from 'typeorm';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { LogLeavesService } from '../ledger/log-leaves.service';
 import { loadLogSeed } from './log-key';
 import { LogGapError, LogTreeService } from './log-tree.service';
 
@@ -67,6 +68,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly dataSource: DataSource,
     private readonly tree: LogTreeService,
+    private readonly leaves: LogLeavesService,
     private readonly scheduler: SchedulerRegistry,
   ) {}
 
@@ -146,12 +148,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
              FROM "log_checkpoints" ORDER BY "size" DESC LIMIT 1`,
         )) as Array<{ size: string; root: string; age: string }>
       )[0];
-      const [{ size: sizeText }] = (await runner.query(
-        'SELECT "size" FROM "log_head" WHERE "id" = 1',
-      )) as Array<{
-        size: string;
-      }>;
-      const size = Number(sizeText);
+      const size = await this.leaves.size(runner.manager);
       if (last && Number(last.size) === size) return { signed: false, size };
       if (last && !force && Number(last.age) < this.config.log.checkpointSeconds)
         return { signed: false, size };

@@ -1,10 +1,10 @@
 import { Injectable } from '@nestjs/common';
 import { entryLeafHash, MerkleTree } from '@beadroll/core';
-import { DataSource } from 'typeorm';
+import { LogLeavesService } from '../ledger/log-leaves.service';
 
 const PAGE = 10_000;
 
-/** The entries table has no entry at a log index below the log's size: an entry was removed. */
+/** No entry has a log index below the log's size: an entry was removed. */
 export class LogGapError extends Error {
   constructor(readonly index: number) {
     super(`the log has no leaf ${index}`);
@@ -22,7 +22,7 @@ export class LogTreeService {
   private hashes: string[] = [];
   private loading?: Promise<void>;
 
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly log: LogLeavesService) {}
 
   /** The tree, holding at least `size` leaves. Precondition: `size` ≤ the committed log size. */
   async atLeast(size: number): Promise<MerkleTree> {
@@ -63,13 +63,9 @@ export class LogTreeService {
     const out: string[] = [];
     for (let start = from; start < to; start += PAGE) {
       const end = Math.min(to, start + PAGE);
-      const rows: Array<{ hash: string; log_index: string }> = await this.dataSource.query(
-        `SELECT "hash", "log_index" FROM "entries" WHERE "log_index" >= $1 AND "log_index" < $2
-          ORDER BY "log_index"`,
-        [start, end],
-      );
+      const rows = await this.log.leaves(start, end);
       rows.forEach((r, i) => {
-        if (Number(r.log_index) !== start + i) throw new LogGapError(start + i);
+        if (r.logIndex !== start + i) throw new LogGapError(start + i);
         out.push(r.hash);
       });
       if (rows.length !== end - start) throw new LogGapError(start + rows.length);

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { AuthModule } from '../auth/auth.module';
+import { LogLeavesModule } from '../ledger/log-leaves.module';
 import { CheckpointsService } from './checkpoints.service';
 import { LogController } from './log.controller';
 import { LogTreeService } from './log-tree.service';
@@ -8,11 +9,11 @@ import { WitnessesController } from './witnesses.controller';
 import { WitnessesService } from './witnesses.service';
 
 /**
- * The ledger-wide log: signed checkpoints, proofs, and witnesses. Entries get their log indices
- * in the ledger's append transaction (ledger/log-sequencer); this module reads them.
+ * The ledger-wide log: signed checkpoints, proofs, and witnesses. The ledger gives entries their
+ * log indices (ledger/log-sequencer); this module reads them through LogLeavesService.
  */
 @Module({
-  imports: [AuthModule],
+  imports: [AuthModule, LogLeavesModule],
   controllers: [LogController, WitnessesController],
   providers: [LogTreeService, CheckpointsService, LogService, WitnessesService],
   exports: [LogService, CheckpointsService],

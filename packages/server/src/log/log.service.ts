@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { base64Encode, type BundleCheckpoint, type LogInclusion } from '@beadroll/core';
-import { DataSource } from 'typeorm';
 import { AppError } from '../common/app-error';
+import { LogLeavesService } from '../ledger/log-leaves.service';
 import { CheckpointsService } from './checkpoints.service';
 import { LogTreeService } from './log-tree.service';
 
@@ -28,7 +28,7 @@ function tooLarge(field: string, size: number): AppError {
 @Injectable()
 export class LogService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly numbered: LogLeavesService,
     private readonly checkpoints: CheckpointsService,
     private readonly tree: LogTreeService,
   ) {}
@@ -107,12 +107,7 @@ export class LogService {
     if (!latest) return null;
     if (head.logIndex !== null && head.logIndex < latest.size)
       return this.bundleCheckpoint([{ lot, entries: [head] }]);
-    const rows: Array<{ seq: number; log_index: string }> = await this.dataSource.query(
-      `SELECT e."seq", e."log_index" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
-        WHERE l."code" = $1 AND e."log_index" < $2 AND e."seq" <= $3 ORDER BY e."seq" DESC LIMIT 1`,
-      [lot, latest.size, head.seq],
-    );
-    const entries = rows.map((r) => ({ seq: r.seq, logIndex: Number(r.log_index) }));
-    return this.bundleCheckpoint([{ lot, entries }]);
+    const covered = await this.numbered.latestCovered(lot, latest.size, head.seq);
+    return this.bundleCheckpoint([{ lot, entries: covered ? [covered] : [] }]);
   }
 }

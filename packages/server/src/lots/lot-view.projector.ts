@@ -32,12 +32,8 @@ export class LotViewProjector implements RollProjector, OnModuleInit {
       observations = (JSON.parse(entry.body) as ObservedBody).observations;
     } else if (entry.kind === 'redacted' || entry.seq === 0) {
       const target = entry.kind === 'redacted' ? (JSON.parse(entry.body) as RedactedBody).target : -1;
-      const rows: Array<{ body: string }> = await m.query(
-        `SELECT b."body" FROM "entries" e JOIN "entry_bodies" b ON b."entry_id" = e."id"
-         WHERE e."lot_id" = $1 AND e."kind" = 'observed' AND e."seq" <> $2 ORDER BY e."seq" DESC LIMIT 1`,
-        [lotId, target],
-      );
-      observations = rows[0] ? (JSON.parse(rows[0].body) as ObservedBody).observations : null;
+      const body = await this.reader.latestBody(lotId, 'observed', target, m);
+      observations = body ? (JSON.parse(body) as ObservedBody).observations : null;
     } else {
       const rows: Array<{ observations: Observations | null }> = await m.query(
         'SELECT "observations" FROM "lot_views" WHERE "lot_id" = $1',

@@ -44,6 +44,11 @@ export class LotViewsService {
     return this.views.findOne({ where: { title }, order: { code: 'ASC' } });
   }
 
+  /** Deletes an account's private search words of every lot, in the caller's transaction (the account is closing). */
+  async forgetPrivateSearchOf(accountId: string, m: EntityManager): Promise<void> {
+    await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [accountId]);
+  }
+
   /**
    * A SQL condition, for another module's own query: true when the lot `lotIdSql` is held by
    * `accountSql` (both SQL expressions of that query). The table stays named here only.

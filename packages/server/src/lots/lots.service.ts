@@ -432,12 +432,9 @@ export class LotsService {
     const access = await this.readAccess(viewer, text);
     if (access.upTo !== null) return this.detailUpTo(viewer, access);
     const code = access.code;
-    const rows: Array<{ state: RollState; head_hash: string }> = await this.dataSource.query(
-      'SELECT "state", "head_hash" FROM "lots" WHERE "code" = $1',
-      [code],
-    );
+    const cached = (await this.reader.cachedState(code))!;
     const view = (await this.view(code))!;
-    const s = rows[0]!.state;
+    const s = cached.state;
     const sealed = await this.ownSealed(view.lot_id, viewer.id);
     return {
       ...toSummary(view),
@@ -450,7 +447,7 @@ export class LotsService {
       openOffer: s.openOffer
         ? { seq: s.openOffer.seq, offerer: s.openOffer.offerer, recipient: s.openOffer.recipient }
         : null,
-      headHash: rows[0]!.head_hash,
+      headHash: cached.headHash,
       viewerIsHolder: s.holder === viewer.id,
       sealed,
     };

@@ -1,8 +1,8 @@
 import { generateLotCode, seededRandom, type OpinionBody } from '@beadroll/core';
-import { DataSource } from 'typeorm';
 import { DEMO_LOT_SEED } from '../demo/demo-lots';
 import { readSeedFile, type SeedStep } from '../demo/seed';
 import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 
 /** One opinion of the demo scenario (seed-demo/opinions.json), on a demo lot named by its title. */
 interface DemoOpinion {
@@ -20,7 +20,7 @@ interface DemoOpinion {
  */
 export const seedOpinions: SeedStep = async (app, ctx) => {
   const ledger = app.get(LedgerService);
-  const db = app.get(DataSource);
+  const reader = app.get(RollReaderService);
   const random = seededRandom(DEMO_LOT_SEED);
   const codes = new Map<string, string>();
   for (const lot of readSeedFile<Array<{ description: { title: string } }>>('lots.json'))
@@ -31,13 +31,8 @@ export const seedOpinions: SeedStep = async (app, ctx) => {
   for (const [title, opinions] of byLot) {
     const code = codes.get(title);
     if (!code) throw new Error(`demo opinion names the lot "${title}", which is not in the scenario`);
-    const exists: unknown[] = await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
-    if (exists.length === 0) continue;
-    const given: unknown[] = await db.query(
-      `SELECT 1 FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."kind" = 'opinion'`,
-      [code],
-    );
-    if (given.length === 0) {
+    if (!(await reader.findLot(code))) continue;
+    if (!(await reader.hasEntryOfKind(code, 'opinion'))) {
       await ledger.withLots([code], async (tx) => {
         for (const o of opinions) {
           const actor = ctx.accounts[o.author];

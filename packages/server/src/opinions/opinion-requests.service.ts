@@ -1,5 +1,6 @@
 import { Inject, Injectable, type OnModuleInit } from '@nestjs/common';
 import { formatLotCode, type OpinionBody } from '@beadroll/core';
+import { AccountsService } from '../accounts/accounts.service';
 import type { PartyName } from '../accounts/dto/dealer-card.dto';
 import { DataSource, type EntityManager } from 'typeorm';
 import type { Principal } from '../auth/auth.decorators';
@@ -56,6 +57,8 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
     private readonly dataSource: DataSource,
     private readonly ledger: LedgerService,
     private readonly lots: LotsService,
+    private readonly accounts: AccountsService,
+    private readonly reader: RollReaderService,
     private readonly mail: MailService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
@@ -105,10 +108,9 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
 
   /** True when an open request of the lot's current holder asks this verified assessor. */
   async isAsked(viewer: Viewer, lotId: string, m: EntityManager = this.dataSource.manager): Promise<boolean> {
-    if (viewer.role !== 'assessor') return false;
+    if (viewer.role !== 'assessor' || !(await this.accounts.isVerifiedAssessor(viewer.id, m))) return false;
     const rows: unknown[] = await m.query(
       `SELECT 1 FROM "opinion_requests" r
-         JOIN "accounts" a ON a."id"::text = $2 AND a."role" = 'assessor' AND a."status" = 'verified'
         WHERE r."lot_id" = $1 AND r."status" = 'open' AND (r."assessor" IS NULL OR r."assessor" = $2)
           AND ${HELD_BY_REQUESTER}
         LIMIT 1`,
@@ -137,11 +139,7 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
       throw AppError.validation([{ field: 'lot', reason: 'lot must be a lot code such as 7K2Q-M9XA-T' }]);
     await this.lots.readableCode(me, code);
     if (dto.assessor) {
-      const found: unknown[] = await this.dataSource.query(
-        `SELECT 1 FROM "accounts" WHERE "id"::text = $1 AND "role" = 'assessor' AND "status" = 'verified'`,
-        [dto.assessor],
-      );
-      if (!found.length)
+      if (!(await this.accounts.isVerifiedAssessor(dto.assessor)))
         throw AppError.validation([
           { field: 'assessor', reason: 'assessor must be a verified assessor chosen from the list' },
         ]);
@@ -152,13 +150,11 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
         throw new AppError('forbidden', 'Only the dealer who holds this lot can ask for an opinion on it.');
       if (state.status !== 'held' && state.status !== 'offered')
         throw new AppError('roll_rule', `This lot is ${state.status}: it can no longer be asked about.`);
-      const lot = (await tx.manager.query('SELECT "id" FROM "lots" WHERE "code" = $1', [code])) as Array<{
-        id: string;
-      }>;
+      const lotId = (await this.reader.findLot(code, tx.manager))!.id;
       const open: unknown[] = await tx.manager.query(
         `SELECT 1 FROM "opinion_requests" WHERE "lot_id" = $1 AND "status" = 'open'
             AND coalesce("assessor", '') = $2`,
-        [lot[0]!.id, dto.assessor ?? ''],
+        [lotId, dto.assessor ?? ''],
       );
       // The request goes on the roll with the row, in this one transaction.
       const entry = open.length
@@ -171,7 +167,7 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
       const rows = (await tx.manager.query(
         `INSERT INTO "opinion_requests" ("lot_id", "code", "requester", "assessor", "note", "status", "request_seq")
          VALUES ($1, $2, $3, $4, $5, 'open', $6) ON CONFLICT DO NOTHING RETURNING "id"`,
-        [lot[0]!.id, code, me.id, dto.assessor ?? null, dto.note ?? null, entry?.seq ?? null],
+        [lotId, code, me.id, dto.assessor ?? null, dto.note ?? null, entry?.seq ?? null],
       )) as Array<{ id: string }>;
       if (!rows.length)
         throw new AppError(
@@ -192,15 +188,12 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
    * assessor mails nobody: there is no opt-in for such mail, and it waits in every queue.
    */
   private async tellAssessor(r: OpinionRequestResponse): Promise<void> {
-    const [to] = (await this.dataSource.query(
-      `SELECT "email", "display_name" FROM "accounts" WHERE "id"::text = $1`,
-      [r.assessor!.id],
-    )) as Array<{ email: string; display_name: string }>;
+    const to = await this.accounts.find(r.assessor!.id);
     if (!to) return;
     await this.mail.send(
       to.email,
       opinionLetters.opinionAsked(
-        to.display_name,
+        to.displayName,
         { code: r.lot.code, title: r.lot.title },
         r.requester.displayName + (r.requester.business ? ` (${r.requester.business})` : ''),
         r.note,
@@ -266,19 +259,12 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
   /** Verified assessors, by name, handle or business (all of them, up to 50, when q is empty). */
   async assessors(q: string | undefined): Promise<AssessorListResponse> {
     const text = q?.trim() ?? '';
-    const rows: Array<{ id: string; handle: string; display_name: string; business: string }> =
-      await this.dataSource.query(
-        `SELECT "id", "handle", "display_name", "business" FROM "accounts"
-          WHERE "role" = 'assessor' AND "status" = 'verified'
-            AND ($1 = '' OR "display_name" ILIKE $2 OR "handle" ILIKE $2 OR "business" ILIKE $2)
-          ORDER BY "display_name" LIMIT 50`,
-        [text, `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`],
-      );
+    const rows = await this.accounts.searchAssessors(text);
     return {
       items: rows.map((r) => ({
         id: r.id,
         handle: r.handle,
-        displayName: r.display_name,
+        displayName: r.displayName,
         business: r.business,
       })),
     };
@@ -298,16 +284,15 @@ export class OpinionRequestsService implements OnModuleInit, RollProjector {
       const v = views.find((x) => x.lotId === r.lot_id);
       return v ? [{ ...r, title: v.title, listed: v.listed }] : [];
     });
-    const ids = [...new Set(rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter(Boolean))];
+    const ids = [
+      ...new Set(
+        rows.flatMap((r) => [r.requester, r.assessor, r.answered_by]).filter((x): x is string => !!x),
+      ),
+    ];
     const parties = new Map<string, PartyName>();
     if (ids.length) {
-      const people: Array<{ id: string; handle: string; display_name: string; business: string }> =
-        await this.dataSource.query(
-          `SELECT "id", "handle", "display_name", "business" FROM "accounts" WHERE "id"::text = ANY($1)`,
-          [ids],
-        );
-      for (const p of people)
-        parties.set(p.id, { id: p.id, handle: p.handle, displayName: p.display_name, business: p.business });
+      for (const p of await this.accounts.findMany(ids))
+        parties.set(p.id, { id: p.id, handle: p.handle, displayName: p.displayName, business: p.business });
     }
     const party = (id: string | null) => (id ? (parties.get(id) ?? null) : null);
     return rows.map((r) => ({

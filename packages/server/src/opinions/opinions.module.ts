@@ -1,7 +1,5 @@
 import { Module } from '@nestjs/common';
-import { TypeOrmModule } from '@nestjs/typeorm';
 import { AccountsModule } from '../accounts/accounts.module';
-import { Account } from '../accounts/entities/account.entity';
 import { LedgerModule } from '../ledger/ledger.module';
 import { LotsModule } from '../lots/lots.module';
 import { AttributionAidController } from './attribution-aid.controller';
@@ -12,7 +10,7 @@ import { OpinionsService } from './opinions.service';
 
 /** Attribution opinions, their withdrawal, the holder's answers and requests; the attribution aid route. */
 @Module({
-  imports: [LedgerModule, LotsModule, AccountsModule, TypeOrmModule.forFeature([Account])],
+  imports: [LedgerModule, LotsModule, AccountsModule],
   controllers: [OpinionsController, OpinionRequestsController, AttributionAidController],
   providers: [OpinionsService, OpinionRequestsService],
 })

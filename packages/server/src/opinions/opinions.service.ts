@@ -1,6 +1,5 @@
 import { partyCard, PartyCard } from '../accounts/dto/dealer-card.dto';
 import { Inject, Injectable } from '@nestjs/common';
-import { InjectRepository } from '@nestjs/typeorm';
 import {
   attributionAid,
   inheritedRecord,
@@ -16,8 +15,7 @@ import {
   mayAppend,
   requestFor,
 } from '@beadroll/core';
-import { Repository } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountsService } from '../accounts/accounts.service';
 import { DealerCardsService } from '../accounts/dealer-cards.service';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError, type FieldProblem } from '../common/app-error';
@@ -70,7 +68,7 @@ export class OpinionsService {
     private readonly cards: DealerCardsService,
     private readonly mail: MailService,
     private readonly clock: LedgerClock,
-    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly accounts: AccountsService,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
   ) {}
 
@@ -248,15 +246,10 @@ export class OpinionsService {
   /** Every cited exhibit must be an `exhibit-added` entry on this lot's roll, named by its original's SHA-256. */
   private async checkExhibits(tx: RollTransaction, code: string, cited: string[]): Promise<void> {
     if (cited.length === 0) return;
-    const rows: Array<{ body: string }> = await tx.manager.query(
-      `SELECT b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
-       JOIN "entry_bodies" b ON b."entry_id" = e."id"
-       WHERE l."code" = $1 AND e."kind" = 'exhibit-added'`,
-      [code],
-    );
+    const bodies = await this.reader.bodiesOfKind(code, 'exhibit-added', tx.manager);
     const known = new Set<string>();
-    for (const r of rows) {
-      const b = JSON.parse(r.body) as ExhibitAddedBody;
+    for (const body of bodies) {
+      const b = JSON.parse(body) as ExhibitAddedBody;
       if ('exhibit' in b) known.add(b.exhibit.original.sha256);
     }
     const problems = cited
@@ -272,11 +265,7 @@ export class OpinionsService {
   /** At most `opinions.perDay` opinions by one author on one lot in any 24 hours. */
   private async checkDailyLimit(tx: RollTransaction, code: string, actor: string, now: Date): Promise<void> {
     const since = new Date(now.getTime() - DAY_MS).toISOString();
-    const [{ n }] = (await tx.manager.query(
-      `SELECT count(*)::int AS "n" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
-       WHERE l."code" = $1 AND e."kind" = 'opinion' AND e."actor" = $2 AND e."time" > $3`,
-      [code, actor, since],
-    )) as Array<{ n: number }>;
+    const n = await this.reader.countSince(code, 'opinion', actor, since, tx.manager);
     const limit = this.config.opinions.perDay;
     if (n >= limit)
       throw new AppError(
@@ -292,10 +281,7 @@ export class OpinionsService {
     authorId: string,
     opinion: OpinionBody,
   ) {
-    const [to, author] = await Promise.all([
-      this.accounts.findOne({ where: { id: holder } }),
-      this.accounts.findOne({ where: { id: authorId } }),
-    ]);
+    const [to, author] = await Promise.all([this.accounts.find(holder), this.accounts.find(authorId)]);
     if (!to) return;
     const url = `${this.config.publicBaseUrl}/lots/${code}`;
     await this.mail.send(

@@ -1,10 +1,12 @@
 import { Injectable } from '@nestjs/common';
-import { InjectRepository } from '@nestjs/typeorm';
-import { DataSource, type Repository } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { DataSource } from 'typeorm';
+import { AccountsService } from '../accounts/accounts.service';
+import type { Account } from '../accounts/entities/account.entity';
+import { EmailTokensService } from '../auth/email-tokens.service';
 import { PasswordsService } from '../auth/passwords.service';
 import { SessionsService } from '../auth/sessions.service';
 import { AppError } from '../common/app-error';
+import { ExhibitsService } from '../exhibits/exhibits.service';
 import { MailService } from '../mail/mail.service';
 import { OfferLapseService } from '../transfers/offer-lapse.service';
 import { registryLetters } from './registry-letters';
@@ -69,8 +71,6 @@ export interface PersonalDataExport {
   registrarDecisions: Array<{ at: string; action: string; reason: string | null }>;
 }
 
-const FORMER_NAME = 'Former dealer';
-
 /** A dealer's own data: the download of everything held about them, and closing the account. */
 @Injectable()
 export class PersonalDataService {
@@ -79,30 +79,23 @@ export class PersonalDataService {
     private readonly reader: RollReaderService,
     private readonly views: LotViewsService,
     private readonly dataSource: DataSource,
-    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly accounts: AccountsService,
     private readonly passwords: PasswordsService,
     private readonly sessions: SessionsService,
+    private readonly emailTokens: EmailTokensService,
+    private readonly exhibits: ExhibitsService,
     private readonly lapse: OfferLapseService,
     private readonly mail: MailService,
   ) {}
 
   async export(accountId: string): Promise<PersonalDataExport> {
-    const a = await this.accounts.findOneByOrFail({ id: accountId });
+    const a = await this.account(accountId);
     const q = <T>(sql: string): Promise<T[]> => this.dataSource.query(sql, [accountId]);
-    const sessions = await q<{ created_at: Date; revoked_at: Date | null; revoked_why: string | null }>(
-      `SELECT "created_at", "revoked_at", "revoked_why" FROM "sessions" WHERE "account_id" = $1 ORDER BY "created_at"`,
-    );
-    const entries = await q<PersonalDataExport['entries'][number]>(
-      `SELECT l."code" AS "lot", e."seq", e."kind", e."time", e."hash", e."header", b."body"
-         FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-        WHERE e."actor" = $1::text ORDER BY l."code", e."seq"`,
-    );
+    const sessions = await this.sessions.historyOf(accountId);
+    const entries = await this.reader.entriesBy(accountId);
     const sealed = await this.reader.sealedVisibleTo(accountId);
     const held = await this.views.heldBy(accountId);
-    const asSent = await q<PersonalDataExport['exhibitsAsSent'][number]>(
-      `SELECT "lot_code" AS "lot", "seq", "sent_sha256" AS "sha256" FROM "exhibits"
-        WHERE "added_by" = $1::text AND "sent_sha256" IS NOT NULL ORDER BY "lot_code", "seq"`,
-    );
+    const asSent = await this.exhibits.sentBy(accountId);
     const requests = await q<{ lot: string; seq: number; note: string; status: string; created_at: Date }>(
       `SELECT "lot", "seq", "note", "status", "created_at" FROM "redaction_requests" WHERE "requester" = $1 ORDER BY "created_at"`,
     );
@@ -141,9 +134,9 @@ export class PersonalDataService {
         createdAt: a.createdAt.toISOString(),
       },
       sessions: sessions.map((s) => ({
-        createdAt: s.created_at.toISOString(),
-        revokedAt: s.revoked_at?.toISOString() ?? null,
-        revokedWhy: s.revoked_why,
+        createdAt: s.createdAt.toISOString(),
+        revokedAt: s.revokedAt?.toISOString() ?? null,
+        revokedWhy: s.revokedWhy,
       })),
       entries,
       sealedDetails: sealed.map((s) => ({ ...s, value: JSON.parse(s.value) as unknown })),
@@ -171,42 +164,28 @@ export class PersonalDataService {
    * opaque account id.
    */
   async close(accountId: string, password: string): Promise<{ message: string }> {
-    const a = await this.accounts.findOneByOrFail({ id: accountId });
+    const a = await this.account(accountId);
     if (a.role === 'registrar') throw new AppError('forbidden', 'A registrar account cannot be closed here.');
     if (!(await this.passwords.verify(password, a.passwordHash)))
       throw AppError.validation([{ field: 'password', reason: 'is not your current password' }]);
     const oldEmail = a.email;
     const oldName = a.displayName;
-    const anon = a.id.replace(/-/g, '');
     await this.dataSource.transaction(async (m) => {
-      await m.getRepository(Account).update(
-        { id: a.id },
-        {
-          status: 'closed',
-          handle: `former-${anon.slice(0, 24)}`,
-          email: `${anon}@closed.beadroll.invalid`,
-          displayName: FORMER_NAME,
-          business: '',
-          town: '',
-          country: '',
-          address: '',
-          website: null,
-          tradeReferences: '',
-          documentSha256: null,
-          documentType: null,
-          documentSize: null,
-          documentName: null,
-          passwordHash: null,
-          statusReason: null,
-        },
-      );
+      await this.accounts.close(a.id, m);
       await this.ledger.forgetSealedValuesOf(a.id, m);
-      await m.query(`DELETE FROM "lot_private_search" WHERE "account_id" = $1`, [a.id]);
-      await m.query(`DELETE FROM "email_tokens" WHERE "account_id" = $1`, [a.id]);
+      await this.views.forgetPrivateSearchOf(a.id, m);
+      await this.emailTokens.deleteAllOf(a.id, m);
     });
     await this.sessions.revokeAll(a.id, 'closed');
     await this.lapse.lapseOffersOf(a.id);
     await this.mail.send(oldEmail, registryLetters.accountClosed(oldName));
     return { message: 'Your account is closed.' };
+  }
+
+  /** The signed-in account (it exists: the guard read it for this request). */
+  private async account(id: string): Promise<Account> {
+    const a = await this.accounts.find(id);
+    if (!a) throw new Error(`no account ${id}`);
+    return a;
   }
 }

@@ -1,9 +1,10 @@
 import type { RedactionRequestResponse, RedactionResponse } from './dto/registry-responses.dto';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import type { ExhibitAddedBody, ExhibitRef, RedactionReason } from '@beadroll/core';
+import type { ExhibitAddedBody, RedactionReason } from '@beadroll/core';
 import type { Repository } from 'typeorm';
 import { AppError } from '../common/app-error';
+import { ExhibitsService } from '../exhibits/exhibits.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
 import { lockBlobNames } from '../storage/blob-locks';
@@ -54,6 +55,7 @@ export class RedactionsService {
     private readonly reader: RollReaderService,
     private readonly blocked: BlockedDigestsService,
     private readonly record: RegistrarRecordService,
+    private readonly exhibits: ExhibitsService,
     @InjectRepository(RedactionRequest) private readonly requests: Repository<RedactionRequest>,
     @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
@@ -86,13 +88,8 @@ export class RedactionsService {
       // blocked too, so the same upload is refused even if normalising it would now give other
       // bytes. That digest stays on the server: it is not in the response or the record.
       // The row also names the stored files of a sealed exhibit, whose public body does not.
-      const rows: Array<{ sent_sha256: string | null; ref: ExhibitRef | null }> =
-        target.kind === 'exhibit-added'
-          ? await tx.manager.query(
-              'SELECT "sent_sha256", "ref" FROM "exhibits" WHERE "lot_id" = $1 AND "seq" = $2',
-              [lot!.id, seq],
-            )
-          : [];
+      const rows =
+        target.kind === 'exhibit-added' ? await this.exhibits.storedAt(lot!.id, seq, tx.manager) : [];
       let entry;
       try {
         entry = await tx.redact(code, registrar, seq, reason);

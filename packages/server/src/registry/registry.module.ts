@@ -7,6 +7,7 @@ import { LedgerModule } from '../ledger/ledger.module';
 import { StorageModule } from '../storage/storage.module';
 import { TransfersModule } from '../transfers/transfers.module';
 import { BlockedDigestsModule } from './blocked-digests.module';
+import { ExhibitsModule } from '../exhibits/exhibits.module';
 import { RedactionRequest } from './entities/redaction-request.entity';
 import { RegistrarAction } from './entities/registrar-action.entity';
 import { Report } from './entities/report.entity';
@@ -37,6 +38,7 @@ import { LotViewsModule } from '../lots/lot-views.module';
     StorageModule,
     TransfersModule,
     LotViewsModule,
+    ExhibitsModule,
   ],
   controllers: [
     RedactionsController,

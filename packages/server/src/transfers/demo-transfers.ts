@@ -3,6 +3,7 @@ import { generateLotCode, seededRandom, SYSTEM_ACTOR, type LotDescription, type 
 import { DataSource } from 'typeorm';
 import { readSeedFile, type SeedStep } from '../demo/seed';
 import { LedgerService } from '../ledger/ledger.service';
+import { RollReaderService } from '../ledger/roll-reader.service';
 import type { SealedDetailsDto } from '../lots/dto/sealed-details.dto';
 import { sealedValuesOf } from '../lots/lots.service';
 import { TransfersService } from './transfers.service';
@@ -39,6 +40,7 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
   const ledger = app.get(LedgerService);
   const transfers = app.get(TransfersService);
   const db = app.get(DataSource);
+  const reader = app.get(RollReaderService);
   const random = seededRandom(DEMO_TRANSFERS_SEED);
   const id = (handle: string) => {
     const found = ctx.accounts[handle];
@@ -52,11 +54,7 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
   // so one printed page shows a transfer (and the holder's attribution elsewhere stays theirs).
   let banner: { code: string; why: string } | undefined;
   for (const candidate of ctx.report.publicLots) {
-    const opinions: unknown[] = await db.query(
-      `SELECT 1 FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id" WHERE l."code" = $1 AND e."kind" = 'opinion' LIMIT 1`,
-      [candidate.code],
-    );
-    if (opinions.length === 0) {
+    if (!(await reader.hasEntryOfKind(candidate.code, 'opinion'))) {
       banner = candidate;
       break;
     }
@@ -101,8 +99,7 @@ export const seedTransfers: SeedStep = async (app, ctx) => {
     // Shown by the start banner only when no other step printed a lot (see below).
     if (lot.publicWhy && ctx.report.publicLots.length === 0)
       ctx.report.publicLots.push({ code, why: lot.publicWhy });
-    const exists: unknown[] = await db.query('SELECT 1 FROM "lots" WHERE "code" = $1', [code]);
-    if (exists.length > 0) continue;
+    if (await reader.findLot(code)) continue;
     let holder = id(lot.holder);
     await ledger.withLots([], async (tx) => {
       await tx.register({

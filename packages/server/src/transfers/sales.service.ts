@@ -1,8 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { InjectRepository } from '@nestjs/typeorm';
 import { formatLotCode, type Money } from '@beadroll/core';
-import { DataSource, Repository } from 'typeorm';
-import { Account } from '../accounts/entities/account.entity';
+import { DataSource } from 'typeorm';
+import { AccountsService } from '../accounts/accounts.service';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
@@ -50,7 +49,7 @@ export class SalesService {
     private readonly lots: LotsService,
     private readonly clock: LedgerClock,
     private readonly mail: MailService,
-    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly accounts: AccountsService,
   ) {}
 
   /** Writes `sold` (date; sealed price and buyer note) and, if asked, e-mails the buyer a receipt. */
@@ -87,7 +86,7 @@ export class SalesService {
       return state.listed;
     });
     if (dto.buyerEmail !== undefined && listed) {
-      const seller = (await this.accounts.findOne({ where: { id: me.id } }))!;
+      const seller = (await this.accounts.find(me.id))!;
       const [{ title }] = (await this.dataSource.query('SELECT "title" FROM "sales" WHERE "code" = $1', [
         code,
       ])) as Array<{ title: string }>;

@@ -1,7 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { AccountsModule } from '../accounts/accounts.module';
-import { Account } from '../accounts/entities/account.entity';
 import { LedgerModule } from '../ledger/ledger.module';
 import { LotsModule } from '../lots/lots.module';
 import { TransferInvitationEntity } from './entities/transfer-invitation.entity';
@@ -19,7 +18,7 @@ import { DealsReader } from './deals.reader';
     LedgerModule,
     LotsModule,
     AccountsModule,
-    TypeOrmModule.forFeature([Account, TransferOfferEntity, TransferInvitationEntity]),
+    TypeOrmModule.forFeature([TransferOfferEntity, TransferInvitationEntity]),
   ],
   controllers: [TransfersController],
   providers: [TransfersService, SalesService, OfferLapseService, TransferProjector, DealsReader],

@@ -1,10 +1,11 @@
 import { Inject, Injectable, Logger, type OnModuleInit } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { formatLotCode, type Money } from '@beadroll/core';
-import { DataSource, In, Repository } from 'typeorm';
+import { DataSource, Repository } from 'typeorm';
 import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.service';
 import { partyCard, type PartyCard } from '../accounts/dto/dealer-card.dto';
-import { Account } from '../accounts/entities/account.entity';
+import { AccountsService } from '../accounts/accounts.service';
+import type { Account } from '../accounts/entities/account.entity';
 import { RegistryService } from '../accounts/registry.service';
 import type { Principal } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
@@ -73,7 +74,7 @@ export class TransfersService implements OnModuleInit {
     private readonly cards: DealerCardsService,
     private readonly mail: MailService,
     private readonly registry: RegistryService,
-    @InjectRepository(Account) private readonly accounts: Repository<Account>,
+    private readonly accounts: AccountsService,
     @InjectRepository(TransferOfferEntity) private readonly offers: Repository<TransferOfferEntity>,
     @InjectRepository(TransferInvitationEntity)
     private readonly invitations: Repository<TransferInvitationEntity>,
@@ -96,14 +97,7 @@ export class TransfersService implements OnModuleInit {
 
   /** Verified dealers other than the viewer whose name, handle or business contains `q`. */
   async searchDealers(me: Viewer, q: string): Promise<PartyCard[]> {
-    const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-    const rows = await this.accounts
-      .createQueryBuilder('a')
-      .where(`a.role = 'dealer' AND a.status = 'verified' AND a.id <> :me`, { me: me.id })
-      .andWhere('(a.displayName ILIKE :like OR a.handle ILIKE :like OR a.business ILIKE :like)', { like })
-      .orderBy('a.displayName', 'ASC')
-      .limit(10)
-      .getMany();
+    const rows = await this.accounts.searchDealers(q, me.id, 10);
     const cards = await this.cards.cardsFor(rows.map((r) => r.id));
     return rows.map((r) => party(cards.get(r.id))).filter((p): p is PartyCard => p !== null);
   }
@@ -119,10 +113,7 @@ export class TransfersService implements OnModuleInit {
     const price = dto.price ? { amount: dto.price.amount, currency: dto.price.currency } : undefined;
     let recipient: Account | null = null;
     if (dto.email !== undefined) {
-      const found = await this.accounts
-        .createQueryBuilder('a')
-        .where('lower(a.email) = lower(:email)', { email: dto.email })
-        .getOne();
+      const found = await this.accounts.findByEmail(dto.email);
       if (found?.id === me.id)
         throw AppError.validation([{ field: 'email', reason: 'that is your own address' }]);
       if (!found || (found.role === 'dealer' && found.status === 'pending')) {
@@ -137,7 +128,7 @@ export class TransfersService implements OnModuleInit {
       const id = dto.recipient!;
       if (id === me.id)
         throw AppError.validation([{ field: 'recipient', reason: 'you cannot offer a lot to yourself' }]);
-      recipient = await this.accounts.findOne({ where: { id } });
+      recipient = await this.accounts.find(id);
       this.checkRecipient(recipient, 'recipient');
     }
     await this.lots.readableCode(me, code);
@@ -221,10 +212,7 @@ export class TransfersService implements OnModuleInit {
     const inv = await this.ownInvitation(me, id);
     if (inv.status === 'offered' || inv.status === 'cancelled')
       throw new AppError('conflict', `This invitation was already ${inv.status}.`);
-    const invitee = await this.accounts
-      .createQueryBuilder('a')
-      .where('lower(a.email) = lower(:email)', { email: inv.email })
-      .getOne();
+    const invitee = await this.accounts.findByEmail(inv.email);
     if (!invitee || invitee.role !== 'dealer' || invitee.status !== 'verified') {
       throw new AppError(
         'conflict',
@@ -365,7 +353,7 @@ export class TransfersService implements OnModuleInit {
         offerSeq: null,
       }),
     );
-    const inviter = (await this.accounts.findOne({ where: { id: me.id } }))!;
+    const inviter = (await this.accounts.find(me.id))!;
     const title = state.description?.title ?? '';
     await this.mail.send(
       email,
@@ -395,7 +383,7 @@ export class TransfersService implements OnModuleInit {
   private async convert(inv: TransferInvitationEntity, invitee: Account): Promise<boolean> {
     inv.invitee = invitee.id;
     try {
-      const inviter = await this.accounts.findOne({ where: { id: inv.inviter } });
+      const inviter = await this.accounts.find(inv.inviter);
       if (!inviter || inviter.status !== 'verified')
         throw new AppError('forbidden', 'your account may not write to rolls at the moment.');
       const row = await this.ledger.withLots([inv.code], async (tx) => {
@@ -421,7 +409,7 @@ export class TransfersService implements OnModuleInit {
       inv.status = 'stalled';
       inv.statusReason = reason.slice(0, 500);
       await this.invitations.save(inv);
-      const inviter = await this.accounts.findOne({ where: { id: inv.inviter } });
+      const inviter = await this.accounts.find(inv.inviter);
       if (inviter) {
         const title = (await this.views.find({ lotId: inv.lotId }))?.title ?? '';
         await this.mail.send(
@@ -489,7 +477,7 @@ export class TransfersService implements OnModuleInit {
 
   private async pair(row: TransferOfferEntity): Promise<[Account | undefined, Account | undefined]> {
     const ids = [row.offerer, row.recipient].filter((x): x is string => !!x && UUID.test(x));
-    const found = ids.length ? await this.accounts.find({ where: { id: In(ids) } }) : [];
+    const found = await this.accounts.findMany(ids);
     return [found.find((a) => a.id === row.offerer), found.find((a) => a.id === row.recipient)];
   }
 

@@ -1,9 +1,10 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { tagPayload, tagReference } from '@beadroll/core';
 import pg from 'pg';
 import sharp from 'sharp';
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, inject } from 'vitest';
 import { openBrowser, type Browser } from './browser';
 import { writeTagVideo } from './fake-camera';
@@ -55,6 +56,40 @@ export async function signOut(page: Page): Promise<void> {
   await page.getByRole('button', { name: /account menu of/i }).click();
   await page.getByRole('menuitem', { name: 'Sign out' }).click();
   await page.getByRole('link', { name: 'Sign in' }).waitFor();
+}
+
+/** A phone's screen: 390 × 844 CSS pixels. */
+export const PHONE = { width: 390, height: 844 };
+
+/**
+ * The journeys of the enclosing `describe` in one browser (see {@link useBrowser}): `baseUrl` is
+ * the service under test, and `start()`, called first in each journey, gives the page, the
+ * service's address and the page's uncaught errors from then on (a journey expects none).
+ */
+export function useJourneys(opts: Parameters<typeof openBrowser>[0] = {}) {
+  const browser = useBrowser(opts);
+  const baseUrl = inject('baseUrl');
+  return {
+    baseUrl,
+    browser,
+    start: () => ({ page: browser.page, baseUrl, errors: pageErrors(browser.page) }),
+  };
+}
+
+/** Runs `journey` in a browser of its own at phone width ({@link PHONE}), closed after it however it ends. */
+export async function onPhone(journey: (page: Page) => Promise<void>): Promise<void> {
+  const phone = await openBrowser(PHONE);
+  try {
+    await journey(phone.page);
+  } finally {
+    await phone.close();
+  }
+}
+
+/** Expects the page to fit its window's width: nothing to scroll sideways. */
+export async function expectNoSideScroll(page: Page): Promise<void> {
+  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+  expect(overflow).toBeLessThanOrEqual(0);
 }
 
 /**
@@ -115,15 +150,70 @@ export function useCameraBrowser(
   return proxy(() => open!);
 }
 
+/** A lot the demo dealer holds, with the reference its tag prints. */
+export interface HeldLot {
+  code: string;
+  title: string;
+  ref: string;
+}
+
 /**
- * Starts the scanner in a {@link useCameraBrowser} page whose tag names `lot`, held by the
- * signed-in reader, and waits for the lot's own page under the scanner with the tag's reference.
+ * Registers an invented unlisted strand for the demo dealer over HTTP, with a storage place and a
+ * cost sealed, and records `opinion` on it when given.
  */
-export async function scanHeldLot(
-  page: Page,
-  baseUrl: string,
-  lot: { code: string; title: string; ref: string },
-): Promise<void> {
+export async function registerHeldLot(title: string, opinion?: object): Promise<HeldLot> {
+  const call = await apiClient(inject('baseUrl'), demoAccount('dealer').email);
+  let lot = await call<{ code: string; headHash: string }>('/api/lots', {
+    description: strand(title, { listed: false }),
+    sealed: { storageLocation: 'Fair case 2', acquisition: { cost: { amount: 1500, currency: 'EUR' } } },
+  });
+  if (opinion) {
+    await call(`/api/lots/${lot.code}/opinions`, opinion);
+    lot = await call(`/api/lots/${lot.code}`);
+  }
+  return { code: lot.code, title, ref: tagReference(lot.headHash) };
+}
+
+/**
+ * For the enclosing `describe`: a lot the demo dealer holds, registered before its journeys as
+ * {@link registerHeldLot} does; `.lot` inside them.
+ */
+export function useHeldLot(title: string, opinion?: object): { readonly lot: HeldLot } {
+  let lot: HeldLot | undefined;
+  beforeAll(async () => {
+    lot = await registerHeldLot(title, opinion);
+  });
+  return {
+    get lot() {
+      return lot!;
+    },
+  };
+}
+
+/**
+ * For the enclosing `describe`: a browser whose camera shows the tag of a lot the demo dealer
+ * holds (registered as `title` before the journeys). `scan()` signs the dealer in, starts the
+ * scanner and waits for the lot's own page under it with the tag's reference.
+ */
+export function useHeldLotCamera(title: string, size: { width: number; height: number }) {
+  const baseUrl = inject('baseUrl');
+  let lot: HeldLot;
+  const browser = useCameraBrowser(async () => {
+    lot = await registerHeldLot(title);
+    return tagPayload(new URL(baseUrl).host, lot.code, lot.ref);
+  }, size);
+  return {
+    baseUrl,
+    async scan(): Promise<{ page: Page; lot: HeldLot }> {
+      const { page } = browser;
+      await signIn(page, baseUrl, demoAccount('dealer').email);
+      await scanHeldLot(page, baseUrl, lot);
+      return { page, lot };
+    },
+  };
+}
+
+async function scanHeldLot(page: Page, baseUrl: string, lot: HeldLot): Promise<void> {
   await page.goto(`${baseUrl}/scan`);
   await page.getByRole('button', { name: 'Start camera' }).click();
   await page.waitForURL(`${baseUrl}/scan/lots/${lot.code}?ref=${lot.ref}`, { timeout: 30_000 });
@@ -151,6 +241,39 @@ export async function addCloseUp(
   await item.getByLabel('Caption').fill(caption);
   await uploader.getByRole('button', { name: /^Add 1 exhibit/ }).click();
   await item.getByText('Added to the roll.').waitFor({ timeout: 30_000 });
+}
+
+/** Opens the open lot page's action `name` (a button of its Actions group) and gives its dialog. */
+export async function openAction(page: Page, name: string): Promise<Locator> {
+  await page.getByRole('group', { name: 'Actions' }).getByRole('button', { name }).click();
+  return page.getByRole('dialog');
+}
+
+/** An invented listed strand's description, as the API takes it; `changes` replace its parts. */
+export function strand(title: string, changes: Record<string, unknown> = {}) {
+  return {
+    title,
+    form: 'strand',
+    count: { value: 24, estimated: false },
+    colours: ['green'],
+    baseGlass: ['transparent'],
+    decoration: [],
+    listed: true,
+    ...changes,
+  };
+}
+
+/**
+ * Sends `data` to the API's `path` as the account signed in on `page` (its cookies), as a client
+ * would; expects `201 Created` and gives the answer.
+ */
+export async function postAsSignedIn<T>(page: Page, path: string, data: unknown): Promise<T> {
+  const res = await page.request.post(`${inject('baseUrl')}${path}`, {
+    headers: { 'X-Beadroll-Request': '1' },
+    data,
+  });
+  expect(res.status(), await res.text()).toBe(201);
+  return (await res.json()) as T;
 }
 
 /** A superuser connection to the journeys' database, for changing what the service stored. */

@@ -24,6 +24,7 @@ import { AuditPage } from '../features/registry/AuditPage';
 import { MyDataPage } from '../features/registry/MyDataPage';
 import { RecordPage } from '../features/registry/RecordPage';
 import { RedactionsPage } from '../features/registry/RedactionsPage';
+import { RegistrarOnly } from '../features/registry/RegistrarOnly';
 import { ReportsPage } from '../features/registry/ReportsPage';
 import { WitnessesPage } from '../features/transparency/WitnessesPage';
 import { createQueryClient } from '../lib/query-client';
@@ -61,7 +62,6 @@ export const routes: RouteObject[] = [
       { path: 'forgot-password', element: <ForgotPasswordPage /> },
       { path: 'reset-password', element: <ResetPasswordPage /> },
       { path: 'account', element: <AccountPage /> },
-      { path: 'registry', element: <RegistryPage /> },
       { path: 'lots', element: <InventoryPage /> },
       { path: 'lots/new', element: <RegisterLotPage /> },
       { path: 'lots/import', element: <ImportLotsPage /> },
@@ -70,11 +70,17 @@ export const routes: RouteObject[] = [
       { path: 'transfers/outgoing', element: <OffersPage box="outgoing" key="outgoing" /> },
       { path: 'transfers/offers/:id', element: <OfferPage /> },
       { path: 'transfers/sales', element: <SalesPage /> },
-      { path: 'registry/reports', element: <ReportsPage /> },
-      { path: 'registry/redactions', element: <RedactionsPage /> },
-      { path: 'registry/record', element: <RecordPage /> },
-      { path: 'registry/audit', element: <AuditPage /> },
-      { path: 'registry/witnesses', element: <WitnessesPage /> },
+      {
+        element: <RegistrarOnly />,
+        children: [
+          { path: 'registry', element: <RegistryPage /> },
+          { path: 'registry/reports', element: <ReportsPage /> },
+          { path: 'registry/redactions', element: <RedactionsPage /> },
+          { path: 'registry/record', element: <RecordPage /> },
+          { path: 'registry/audit', element: <AuditPage /> },
+          { path: 'registry/witnesses', element: <WitnessesPage /> },
+        ],
+      },
       { path: 'account/data', element: <MyDataPage /> },
       // The scanner and the tag pages load on first use: they carry the QR decoder.
       {

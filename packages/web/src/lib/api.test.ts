@@ -12,6 +12,16 @@ function stubFetch(status: number, body: unknown) {
   return fetchMock;
 }
 
+/** A browser with no signal: every request fails as fetch fails then. */
+function stubNoSignal() {
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async () => {
+      throw new TypeError('Failed to fetch');
+    }),
+  );
+}
+
 describe('api client', () => {
   it('turns the stable error body into an ApiError with field messages', async () => {
     stubFetch(400, {
@@ -85,12 +95,7 @@ describe('writes with idempotency keys', () => {
   });
 
   it('keeps an unanswered write across a reload and sends it again with its key', async () => {
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async () => {
-        throw new TypeError('Failed to fetch');
-      }),
-    );
+    stubNoSignal();
     await expect(
       api('/api/lots/X/observations', { body: { observations: { foil: 'none' } } }),
     ).rejects.toMatchObject({
@@ -111,12 +116,7 @@ describe('writes with idempotency keys', () => {
   });
 
   it('never keeps a body holding a password', async () => {
-    vi.stubGlobal(
-      'fetch',
-      vi.fn(async () => {
-        throw new TypeError('Failed to fetch');
-      }),
-    );
+    stubNoSignal();
     await expect(
       api('/api/auth/sign-in', { body: { email: 'a@example.invalid', password: 'secret words' } }),
     ).rejects.toBeDefined();

@@ -11,7 +11,7 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
-import { Form } from './FormPage';
+import { Form, FormError } from './FormPage';
 
 const useStyles = makeStyles({
   surface: { maxWidth: 'min(880px, 100vw - 16px)', width: '100%' },
@@ -20,9 +20,31 @@ const useStyles = makeStyles({
   content: { display: 'grid', gap: tokens.spacingVerticalM, maxHeight: '70vh', overflowY: 'auto' },
 });
 
+/** The modal both dialogs are: closing it (Escape, outside) calls `close`. */
+function Modal({
+  close,
+  className,
+  describedBy,
+  children,
+}: {
+  close: () => void;
+  className: string;
+  describedBy: string | undefined;
+  children: ReactNode;
+}) {
+  return (
+    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
+      <DialogSurface className={className} aria-describedby={describedBy}>
+        {children}
+      </DialogSurface>
+    </Dialog>
+  );
+}
+
 /**
  * The frame of a lot-page action: a modal form with a title, Cancel and one submit button.
- * Once `done`, only a Close button is left (the content then says what happened).
+ * Once `done`, only a Close button is left (the content then says what happened). `error`, the
+ * failed request, shows under the fields when it is not about one of them.
  */
 export function ActionDialog({
   title,
@@ -30,6 +52,7 @@ export function ActionDialog({
   onSubmit,
   submitLabel,
   pending,
+  error,
   done = false,
   narrow = false,
   submitDisabled = false,
@@ -41,6 +64,7 @@ export function ActionDialog({
   onSubmit: () => void;
   submitLabel: string;
   pending: boolean;
+  error?: unknown;
   done?: boolean;
   narrow?: boolean;
   submitDisabled?: boolean;
@@ -50,29 +74,31 @@ export function ActionDialog({
 }) {
   const styles = useStyles();
   return (
-    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
-      <DialogSurface
-        className={mergeClasses(styles.surface, narrow && styles.narrow)}
-        aria-describedby={describedBy}
-      >
-        <Form onSubmit={onSubmit}>
-          <DialogBody>
-            <DialogTitle>{title}</DialogTitle>
-            <DialogContent className={styles.content}>{children}</DialogContent>
-            <DialogActions>
-              <Button appearance={done ? 'primary' : 'secondary'} onClick={close}>
-                {done ? 'Close' : 'Cancel'}
+    <Modal
+      close={close}
+      className={mergeClasses(styles.surface, narrow && styles.narrow)}
+      describedBy={describedBy}
+    >
+      <Form onSubmit={onSubmit}>
+        <DialogBody>
+          <DialogTitle>{title}</DialogTitle>
+          <DialogContent className={styles.content}>
+            {children}
+            {error === undefined ? null : <FormError error={error} />}
+          </DialogContent>
+          <DialogActions>
+            <Button appearance={done ? 'primary' : 'secondary'} onClick={close}>
+              {done ? 'Close' : 'Cancel'}
+            </Button>
+            {!done && (
+              <Button appearance="primary" type="submit" disabled={pending || submitDisabled}>
+                {submitLabel}
               </Button>
-              {!done && (
-                <Button appearance="primary" type="submit" disabled={pending || submitDisabled}>
-                  {submitLabel}
-                </Button>
-              )}
-            </DialogActions>
-          </DialogBody>
-        </Form>
-      </DialogSurface>
-    </Dialog>
+            )}
+          </DialogActions>
+        </DialogBody>
+      </Form>
+    </Modal>
   );
 }
 
@@ -93,21 +119,20 @@ export function PanelDialog({
 }) {
   const styles = useStyles();
   return (
-    <Dialog open onOpenChange={(_, d) => !d.open && close()}>
-      <DialogSurface
-        className={mergeClasses(styles.surface, wide ? styles.wide : styles.narrow)}
-        aria-describedby={undefined}
-      >
-        <DialogBody>
-          <DialogTitle>{title}</DialogTitle>
-          <DialogContent className={styles.content}>{children}</DialogContent>
-          <DialogActions>
-            <Button appearance="primary" onClick={close}>
-              Close
-            </Button>
-          </DialogActions>
-        </DialogBody>
-      </DialogSurface>
-    </Dialog>
+    <Modal
+      close={close}
+      className={mergeClasses(styles.surface, wide ? styles.wide : styles.narrow)}
+      describedBy={undefined}
+    >
+      <DialogBody>
+        <DialogTitle>{title}</DialogTitle>
+        <DialogContent className={styles.content}>{children}</DialogContent>
+        <DialogActions>
+          <Button appearance="primary" onClick={close}>
+            Close
+          </Button>
+        </DialogActions>
+      </DialogBody>
+    </Modal>
   );
 }

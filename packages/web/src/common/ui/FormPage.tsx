@@ -1,4 +1,5 @@
 import {
+  Button,
   Card,
   Field,
   Input,
@@ -10,6 +11,7 @@ import {
   Title2,
   tokens,
 } from '@fluentui/react-components';
+import type { UseMutationResult } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { ApiError } from '../../lib/api';
 
@@ -50,6 +52,51 @@ export function FormPage({
         children
       )}
     </Card>
+  );
+}
+
+/**
+ * A {@link FormPage} whose form sends one request: the fields, the request's failure and the submit
+ * button; once the request succeeded, the page says so under `doneTitle` with the server's
+ * message and whatever `after` adds (a way on). `onSubmit` defaults to sending the request.
+ */
+export function RequestFormPage({
+  title,
+  lead,
+  request,
+  submitLabel,
+  submitDisabled = false,
+  onSubmit = () => request.mutate(),
+  doneTitle,
+  after,
+  children,
+}: {
+  title: string;
+  lead?: ReactNode;
+  request: UseMutationResult<{ message: string }, Error, void>;
+  submitLabel: string;
+  submitDisabled?: boolean;
+  onSubmit?: () => void;
+  doneTitle: string;
+  after?: ReactNode;
+  children?: ReactNode;
+}) {
+  if (request.isSuccess) {
+    return (
+      <FormPage title={doneTitle}>
+        <FormSuccess>{request.data.message}</FormSuccess>
+        {after}
+      </FormPage>
+    );
+  }
+  return (
+    <FormPage title={title} lead={lead} onSubmit={onSubmit}>
+      {children}
+      <FormError error={request.error} />
+      <Button appearance="primary" type="submit" disabled={submitDisabled || request.isPending}>
+        {submitLabel}
+      </Button>
+    </FormPage>
   );
 }
 

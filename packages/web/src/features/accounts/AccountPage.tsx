@@ -10,55 +10,36 @@ import {
   tokens,
 } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
-import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { accountsApi, useSession } from './accounts.api';
-import { fieldError, Form, FormError, FormSuccess, PasswordField } from '../../common/ui/FormPage';
+import { Form, FormError, FormSuccess, PasswordField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { formatDate } from '../../common/ui/format';
 import { ROLE_LABEL, STATUS_LABEL } from './labels';
 import { Page } from '../../common/ui/Page';
+import { type Fact, Facts } from '../../common/ui/Facts';
 
 const useStyles = makeStyles({
   card: { padding: tokens.spacingHorizontalXL, display: 'grid', gap: tokens.spacingVerticalM },
-  facts: {
-    display: 'grid',
-    gridTemplateColumns: 'max-content 1fr',
-    columnGap: tokens.spacingHorizontalL,
-    rowGap: tokens.spacingVerticalS,
-    margin: 0,
-  },
-  term: { color: tokens.colorNeutralForeground3 },
-  detail: { margin: 0, overflowWrap: 'anywhere' },
   form: { display: 'grid', gap: tokens.spacingVerticalM, maxWidth: '420px' },
 });
 
 function ChangePassword() {
   const styles = useStyles();
-  const [current, setCurrent] = useState('');
-  const [next, setNext] = useState('');
+  const form = useFormValues({ currentPassword: '', newPassword: '' });
   const change = useMutation({
-    mutationFn: () => accountsApi.changePassword(current, next),
-    onSuccess: () => {
-      setCurrent('');
-      setNext('');
-    },
+    mutationFn: () => accountsApi.changePassword(form.values.currentPassword, form.values.newPassword),
+    onSuccess: form.reset,
   });
+  const field = form.bind(change.error);
   return (
     <Form className={styles.form} onSubmit={() => change.mutate()}>
-      <PasswordField
-        label="Current password"
-        autoComplete="current-password"
-        value={current}
-        onChange={setCurrent}
-        validationMessage={fieldError(change.error, 'currentPassword')}
-      />
+      <PasswordField label="Current password" autoComplete="current-password" {...field('currentPassword')} />
       <PasswordField
         label="New password"
         hint="At least 12 characters. Every other sign-in ends."
         autoComplete="new-password"
-        value={next}
-        onChange={setNext}
-        validationMessage={fieldError(change.error, 'newPassword')}
+        {...field('newPassword')}
       />
       <FormError error={change.error} />
       {change.isSuccess ? <FormSuccess>{change.data.message}</FormSuccess> : null}
@@ -74,7 +55,7 @@ export function AccountPage() {
   const { account, isLoading } = useSession();
   if (isLoading) return <Text>Loading…</Text>;
   if (!account) return <Navigate to="/sign-in?next=/account" replace />;
-  const facts: Array<[string, string]> = [
+  const facts: Fact[] = [
     ['Handle', account.handle],
     ['Role', ROLE_LABEL[account.role]],
     ['Business', account.business],
@@ -105,14 +86,7 @@ export function AccountPage() {
       ) : null}
       <Card className={styles.card}>
         <Title3 as="h2">Your details</Title3>
-        <dl className={styles.facts}>
-          {facts.map(([k, v]) => (
-            <div key={k} style={{ display: 'contents' }}>
-              <dt className={styles.term}>{k}</dt>
-              <dd className={styles.detail}>{v}</dd>
-            </div>
-          ))}
-        </dl>
+        <Facts rows={facts} />
       </Card>
       <Card className={styles.card}>
         <Title3 as="h2">Password</Title3>

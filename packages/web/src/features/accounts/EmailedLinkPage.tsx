@@ -1,8 +1,8 @@
-import { Button, Link } from '@fluentui/react-components';
+import { Link } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link as RouterLink, useSearchParams } from 'react-router-dom';
-import { FormError, FormPage, FormSuccess } from '../../common/ui/FormPage';
+import { RequestFormPage } from '../../common/ui/FormPage';
 
 /**
  * A page opened from an e-mailed link that carries `?token=`. Nothing changes until the button
@@ -27,23 +27,21 @@ export function EmailedLinkPage({
   const [params] = useSearchParams();
   const token = params.get('token') ?? '';
   const mutation = useMutation({ mutationFn: () => send(token) });
-  if (mutation.isSuccess) {
-    return (
-      <FormPage title={doneTitle}>
-        <FormSuccess>{mutation.data.message}</FormSuccess>
+  return (
+    <RequestFormPage
+      title={title}
+      lead={lead}
+      request={mutation}
+      submitLabel={submitLabel}
+      submitDisabled={!token}
+      doneTitle={doneTitle}
+      after={
         <Link as="span">
           <RouterLink to="/sign-in">Sign in</RouterLink>
         </Link>
-      </FormPage>
-    );
-  }
-  return (
-    <FormPage title={title} lead={lead} onSubmit={() => mutation.mutate()}>
+      }
+    >
       {fields?.(mutation.error)}
-      <FormError error={mutation.error} />
-      <Button appearance="primary" type="submit" disabled={!token || mutation.isPending}>
-        {submitLabel}
-      </Button>
-    </FormPage>
+    </RequestFormPage>
   );
 }

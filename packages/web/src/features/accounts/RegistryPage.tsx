@@ -1,31 +1,19 @@
-import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
+import { Button, Text } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { Fragment, useState } from 'react';
-import { Navigate } from 'react-router-dom';
+import { useState } from 'react';
 import { ActionDialog, PanelDialog } from '../../common/ui/ActionDialog';
-import { FilterButtons } from '../../common/ui/FilterButtons';
-import { fieldError, FormError, NoteField } from '../../common/ui/FormPage';
+import { NoteField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { formatDate } from '../../common/ui/format';
 import type { ListColumn } from '../../common/ui/list/DataTable';
-import { useListParams } from '../../common/ui/list/list-params';
-import { ListView, useListStyles } from '../../common/ui/list/ListView';
-import { accountsApi, type Applicant, registryQuery, type RegistryParams, useSession } from './accounts.api';
+import { filterValue, type FilterOption, useListParams } from '../../common/ui/list/list-params';
+import { ListFilter, ListView, useListStyles } from '../../common/ui/list/ListView';
+import { accountsApi, type Applicant, registryQuery, type RegistryParams } from './accounts.api';
 import { ROLE_LABEL } from './labels';
 import { Page } from '../../common/ui/Page';
+import { type Fact, Facts } from '../../common/ui/Facts';
 
-const useStyles = makeStyles({
-  facts: {
-    display: 'grid',
-    gridTemplateColumns: 'max-content minmax(0, 1fr)',
-    columnGap: tokens.spacingHorizontalL,
-    rowGap: tokens.spacingVerticalS,
-    margin: 0,
-  },
-  term: { fontWeight: tokens.fontWeightSemibold },
-  detail: { margin: 0, whiteSpace: 'pre-wrap', overflowWrap: 'anywhere' },
-});
-
-const STATUSES: Array<{ value: RegistryParams['status']; label: string }> = [
+const STATUSES: Array<FilterOption<RegistryParams['status']>> = [
   { value: 'pending', label: 'Waiting' },
   { value: 'verified', label: 'Verified' },
   { value: 'suspended', label: 'Suspended' },
@@ -35,87 +23,62 @@ const SORTS = ['business', 'town', 'applied'];
 
 type Action = 'approve' | 'reject' | 'suspend' | 'reinstate';
 
-function ReasonDialog({
-  target,
-  action,
-  onClose,
-}: {
-  target: Applicant;
-  action: 'reject' | 'suspend';
-  onClose: () => void;
-}) {
-  const client = useQueryClient();
-  const [reason, setReason] = useState('');
-  const decide = useMutation({
-    mutationFn: () => accountsApi.decide(target.id, action, reason),
-    onSuccess: async () => {
-      await client.invalidateQueries({ queryKey: ['registry'] });
-      onClose();
-    },
-  });
-  const verb = action === 'reject' ? 'Reject' : 'Suspend';
-  return (
-    <ActionDialog
-      title={`${verb} ${target.displayName}`}
-      close={onClose}
-      onSubmit={() => decide.mutate()}
-      submitLabel={verb}
-      pending={decide.isPending}
-      narrow
-    >
-      <NoteField
-        label="Reason (sent to them by e-mail)"
-        required
-        value={reason}
-        onChange={setReason}
-        validationMessage={fieldError(decide.error, 'reason')}
-      />
-      <FormError error={decide.error} />
-    </ActionDialog>
-  );
-}
+/** What each decision asks: its title, its button, and whether it needs a reason (e-mailed to them). */
+const DECISIONS: Record<Action, { title: string; submit: string; reason: boolean }> = {
+  approve: { title: 'Approve', submit: 'Approve', reason: false },
+  reinstate: { title: 'Lift the suspension of', submit: 'Lift the suspension', reason: false },
+  reject: { title: 'Reject', submit: 'Reject', reason: true },
+  suspend: { title: 'Suspend', submit: 'Suspend', reason: true },
+};
 
-/** Asks before a decision that needs no reason: approving or lifting a suspension. */
-function ConfirmDialog({
+/**
+ * Asks before a decision: rejecting or suspending takes a reason, sent to them by e-mail;
+ * approving or lifting a suspension only asks to confirm.
+ */
+function DecisionDialog({
   target,
   action,
   onClose,
 }: {
   target: Applicant;
-  action: 'approve' | 'reinstate';
+  action: Action;
   onClose: () => void;
 }) {
   const client = useQueryClient();
+  const form = useFormValues({ reason: '' });
+  const words = DECISIONS[action];
   const decide = useMutation({
-    mutationFn: () => accountsApi.decide(target.id, action),
+    mutationFn: () => accountsApi.decide(target.id, action, words.reason ? form.values.reason : undefined),
     onSuccess: async () => {
       await client.invalidateQueries({ queryKey: ['registry'] });
       onClose();
     },
   });
-  const verb = action === 'approve' ? 'Approve' : 'Lift the suspension of';
   return (
     <ActionDialog
-      title={`${verb} ${target.displayName}?`}
+      title={`${words.title} ${target.displayName}${words.reason ? '' : '?'}`}
       close={onClose}
       onSubmit={() => decide.mutate()}
-      submitLabel={action === 'approve' ? 'Approve' : 'Lift the suspension'}
+      submitLabel={words.submit}
       pending={decide.isPending}
+      error={decide.error}
       narrow
     >
-      <Text>
-        {target.displayName} ({target.business}) can then write to rolls as{' '}
-        {ROLE_LABEL[target.role].toLowerCase()}. They are told by e-mail.
-      </Text>
-      <FormError error={decide.error} />
+      {words.reason ? (
+        <NoteField label="Reason (sent to them by e-mail)" required {...form.bind(decide.error)('reason')} />
+      ) : (
+        <Text>
+          {target.displayName} ({target.business}) can then write to rolls as{' '}
+          {ROLE_LABEL[target.role].toLowerCase()}. They are told by e-mail.
+        </Text>
+      )}
     </ActionDialog>
   );
 }
 
 /** Everything an applicant told the registrar, to read before deciding. */
 function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: () => void }) {
-  const styles = useStyles();
-  const facts: Array<[string, React.ReactNode]> = [
+  const facts: Fact[] = [
     ['Name', target.displayName],
     ['Applies as', ROLE_LABEL[target.role]],
     ['Handle', `@${target.handle}`],
@@ -148,14 +111,7 @@ function ApplicationDialog({ target, onClose }: { target: Applicant; onClose: ()
   ];
   return (
     <PanelDialog title={`Application of ${target.displayName}`} close={onClose}>
-      <dl className={styles.facts}>
-        {facts.map(([term, detail]) => (
-          <Fragment key={term}>
-            <dt className={styles.term}>{term}</dt>
-            <dd className={styles.detail}>{detail}</dd>
-          </Fragment>
-        ))}
-      </dl>
+      <Facts rows={facts} />
     </PanelDialog>
   );
 }
@@ -232,33 +188,15 @@ function useColumns(
 
 /** The registrar's verification queue, and the accounts by status, as a server-paged table. */
 export function RegistryPage() {
-  const styles = useListStyles();
-  const { account, isLoading } = useSession();
   const list = useListParams({ sort: { key: 'applied', desc: false }, sorts: SORTS });
   const [dialog, setDialog] = useState<{ target: Applicant; action: Action | 'read' } | null>(null);
   const columns = useColumns((target, action) => setDialog({ target, action }));
-  const status = (STATUSES.find((s) => s.value === list.search.get('status'))?.value ??
-    'pending') as RegistryParams['status'];
+  const status = filterValue(list, 'status', STATUSES);
   const sort = list.sort ? `${list.sort.desc ? '-' : ''}${list.sort.key}` : 'applied';
-  const query = useQuery({
-    ...registryQuery({ status, sort, page: list.page, pageSize: list.pageSize }),
-    enabled: account?.role === 'registrar',
-  });
-
-  if (isLoading) return <Text>Loading…</Text>;
-  if (!account) return <Navigate to="/sign-in?next=/registry" replace />;
-  if (account.role !== 'registrar') return <Text>Only the registrar can see this page.</Text>;
-
+  const query = useQuery(registryQuery({ status, sort, page: list.page, pageSize: list.pageSize }));
   return (
     <Page title="Account verification">
-      <div className={styles.tabs}>
-        <FilterButtons
-          label="Accounts by status"
-          value={status}
-          options={STATUSES}
-          onChange={(v) => list.update({ status: String(v) })}
-        />
-      </div>
+      <ListFilter list={list} name="status" label="Accounts by status" options={STATUSES} />
       <ListView
         label="Accounts"
         columns={columns}
@@ -267,14 +205,10 @@ export function RegistryPage() {
         noun={['account', 'accounts']}
         empty="No accounts here."
       />
-      {dialog?.action === 'reject' || dialog?.action === 'suspend' ? (
-        <ReasonDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
-      ) : null}
-      {dialog?.action === 'approve' || dialog?.action === 'reinstate' ? (
-        <ConfirmDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
-      ) : null}
       {dialog?.action === 'read' ? (
         <ApplicationDialog target={dialog.target} onClose={() => setDialog(null)} />
+      ) : dialog ? (
+        <DecisionDialog target={dialog.target} action={dialog.action} onClose={() => setDialog(null)} />
       ) : null}
     </Page>
   );

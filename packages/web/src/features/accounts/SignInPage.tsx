@@ -1,9 +1,9 @@
-import { Button, Field, Input, Link, Text } from '@fluentui/react-components';
+import { Button, Link, Text } from '@fluentui/react-components';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { Link as RouterLink, useNavigate, useSearchParams } from 'react-router-dom';
 import { accountsApi, rememberSession, type Me } from './accounts.api';
-import { fieldError, FormError, FormPage, PasswordField } from '../../common/ui/FormPage';
+import { FormError, FormPage, PasswordField, TextField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 
 /**
  * Where a sign-in lands: the page asked for (only paths inside the app), else the account's
@@ -18,31 +18,23 @@ export function landingFor(account: Me, next: string | null): string {
 }
 
 export function SignInPage() {
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
+  const form = useFormValues({ email: '', password: '' });
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const client = useQueryClient();
   const signIn = useMutation({
-    mutationFn: () => accountsApi.signIn({ email, password }),
+    mutationFn: () => accountsApi.signIn(form.values),
     onSuccess: ({ account }) => {
       rememberSession(account);
       client.setQueryData(['session'], account);
       navigate(landingFor(account, params.get('next')));
     },
   });
+  const field = form.bind(signIn.error);
   return (
     <FormPage title="Sign in" onSubmit={() => signIn.mutate()}>
-      <Field label="E-mail address" required validationMessage={fieldError(signIn.error, 'email')}>
-        <Input type="email" autoComplete="email" value={email} onChange={(_, d) => setEmail(d.value)} />
-      </Field>
-      <PasswordField
-        label="Password"
-        autoComplete="current-password"
-        value={password}
-        onChange={setPassword}
-        validationMessage={fieldError(signIn.error, 'password')}
-      />
+      <TextField label="E-mail address" required type="email" autoComplete="email" {...field('email')} />
+      <PasswordField label="Password" autoComplete="current-password" {...field('password')} />
       <FormError error={signIn.error} />
       <Button appearance="primary" type="submit" disabled={signIn.isPending}>
         Sign in

@@ -1,9 +1,9 @@
-import { Button, Field, Input, Radio, RadioGroup, Textarea } from '@fluentui/react-components';
+import { Field, Input, Radio, RadioGroup, Textarea } from '@fluentui/react-components';
 import { useMutation } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { accountsApi } from './accounts.api';
-import { fieldError, FormError, FormPage, FormSuccess } from '../../common/ui/FormPage';
+import { fieldError, RequestFormPage } from '../../common/ui/FormPage';
 
 const FIELDS = [
   { name: 'displayName', label: 'Your name', autoComplete: 'name', hint: 'Shown on your dealer card.' },
@@ -64,17 +64,13 @@ export function SignUpPage() {
   const [documentTouched, setDocumentTouched] = useState(false);
   const signUp = useMutation({ mutationFn: () => accountsApi.signUp(values, document) });
   const docProblem = documentProblem(document);
-  if (signUp.isSuccess) {
-    return (
-      <FormPage title="Check your e-mail">
-        <FormSuccess>{signUp.data.message}</FormSuccess>
-      </FormPage>
-    );
-  }
   return (
-    <FormPage
+    <RequestFormPage
       title="Apply for an account"
       lead="The registrar verifies every dealer and assessor before they can write to a roll. Until then you can sign in and read."
+      request={signUp}
+      submitLabel="Apply"
+      doneTitle="Check your e-mail"
       onSubmit={() => {
         setDocumentTouched(true);
         if (!docProblem) signUp.mutate();
@@ -137,10 +133,6 @@ export function SignUpPage() {
           }}
         />
       </Field>
-      <FormError error={signUp.error} />
-      <Button appearance="primary" type="submit" disabled={signUp.isPending}>
-        Apply
-      </Button>
-    </FormPage>
+    </RequestFormPage>
   );
 }

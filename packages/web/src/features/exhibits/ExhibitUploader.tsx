@@ -6,8 +6,6 @@ import {
   Input,
   makeStyles,
   mergeClasses,
-  ProgressBar,
-  Select,
   Text,
   tokens,
 } from '@fluentui/react-components';
@@ -17,7 +15,9 @@ import { useId, useRef, useState } from 'react';
 import { ApiError } from '../../lib/api';
 import { UvACaution } from '../safety/UvACaution';
 import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, uploadExhibit } from './exhibits.api';
+import { SelectField } from '../../common/ui/SelectField';
 import { HiddenFileInput } from './HiddenFileInput';
+import { UploadProgress } from './UploadProgress';
 
 /** What the file picker offers; the server decides the real type from the bytes. */
 export const ACCEPTED_TYPES = 'image/jpeg,image/png,image/webp,image/avif,application/pdf';
@@ -172,19 +172,14 @@ export function ExhibitUploader({ code }: { code: string }) {
                 {item.file.name} · {sizeLabel(item.file.size)}
               </Text>
               <div className={styles.row}>
-                <Field label="Kind">
-                  <Select
-                    value={item.kind}
-                    disabled={item.status === 'sending' || item.status === 'done'}
-                    onChange={(_e, d) => update(item.id, { kind: d.value as ExhibitKind })}
-                  >
-                    {EXHIBIT_KIND_OPTIONS.map((k) => (
-                      <option key={k} value={k}>
-                        {EXHIBIT_KIND_LABELS[k]}
-                      </option>
-                    ))}
-                  </Select>
-                </Field>
+                <SelectField
+                  label="Kind"
+                  value={item.kind}
+                  options={EXHIBIT_KIND_OPTIONS}
+                  labels={EXHIBIT_KIND_LABELS}
+                  disabled={item.status === 'sending' || item.status === 'done'}
+                  onChange={(kind) => update(item.id, { kind })}
+                />
                 <Field
                   label="Caption"
                   className={styles.grow}
@@ -205,26 +200,13 @@ export function ExhibitUploader({ code }: { code: string }) {
                 />
               </div>
               {item.kind === 'uv-a' && <UvACaution />}
-              <Field
-                label={`Upload of ${item.file.name}`}
-                validationState={
-                  item.status === 'failed' ? 'error' : item.status === 'done' ? 'success' : 'none'
-                }
-                validationMessage={
-                  item.status === 'failed'
-                    ? (item.error?.fieldMessage('file') ?? item.error?.message)
-                    : item.status === 'done'
-                      ? ['Added to the roll.', ...item.notes].join(' ')
-                      : undefined
-                }
-              >
-                <ProgressBar
-                  value={item.progress}
-                  max={1}
-                  thickness="large"
-                  color={item.status === 'failed' ? 'error' : item.status === 'done' ? 'success' : 'brand'}
-                />
-              </Field>
+              <UploadProgress
+                name={item.file.name}
+                status={item.status}
+                progress={item.progress}
+                failure={item.error?.fieldMessage('file') ?? item.error?.message}
+                done={['Added to the roll.', ...item.notes].join(' ')}
+              />
               {item.status !== 'sending' && item.status !== 'done' && (
                 <Button
                   appearance="subtle"

@@ -1,8 +1,13 @@
 import type { ExhibitKind } from '@beadroll/core';
-import { Button, Field, makeStyles, ProgressBar, Select, Text, tokens } from '@fluentui/react-components';
+import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
 import { useEffect, useRef } from 'react';
 import { EXHIBIT_KIND_LABELS, EXHIBIT_KIND_OPTIONS, uploadExhibit } from './exhibits.api';
+import { SelectField } from '../../common/ui/SelectField';
 import { HiddenFileInput } from './HiddenFileInput';
+import { UploadProgress } from './UploadProgress';
+
+/** What a photo chosen on the form can show: any kind of exhibit but a receipt (always sealed). */
+const PHOTO_KINDS = EXHIBIT_KIND_OPTIONS.filter((k) => k !== 'receipt');
 
 const useStyles = makeStyles({
   buttons: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalM },
@@ -134,23 +139,14 @@ export function PhotoPicker({
               <img className={styles.thumb} src={p.url} alt={`Chosen photo ${p.file.name}`} />
               <div className={styles.fields}>
                 <Text className={styles.name}>{p.file.name}</Text>
-                <Field label={`What ${p.file.name} shows`}>
-                  <Select
-                    value={p.kind}
-                    disabled={disabled || p.status !== 'waiting'}
-                    onChange={(_, d) =>
-                      onChange(
-                        photos.map((x) => (x.id === p.id ? { ...x, kind: d.value as ExhibitKind } : x)),
-                      )
-                    }
-                  >
-                    {EXHIBIT_KIND_OPTIONS.filter((k) => k !== 'receipt').map((k) => (
-                      <option key={k} value={k}>
-                        {EXHIBIT_KIND_LABELS[k]}
-                      </option>
-                    ))}
-                  </Select>
-                </Field>
+                <SelectField
+                  label={`What ${p.file.name} shows`}
+                  value={p.kind}
+                  options={PHOTO_KINDS}
+                  labels={EXHIBIT_KIND_LABELS}
+                  disabled={disabled || p.status !== 'waiting'}
+                  onChange={(kind) => onChange(photos.map((x) => (x.id === p.id ? { ...x, kind } : x)))}
+                />
                 {p.status === 'waiting' ? (
                   <Button
                     size="small"
@@ -160,22 +156,13 @@ export function PhotoPicker({
                     Remove {p.file.name}
                   </Button>
                 ) : (
-                  <Field
-                    label={`Upload of ${p.file.name}`}
-                    validationState={
-                      p.status === 'failed' ? 'error' : p.status === 'done' ? 'success' : 'none'
-                    }
-                    validationMessage={
-                      p.status === 'failed' ? p.error : p.status === 'done' ? 'Added to the roll.' : undefined
-                    }
-                  >
-                    <ProgressBar
-                      value={p.progress}
-                      max={1}
-                      thickness="large"
-                      color={p.status === 'failed' ? 'error' : p.status === 'done' ? 'success' : 'brand'}
-                    />
-                  </Field>
+                  <UploadProgress
+                    name={p.file.name}
+                    status={p.status}
+                    progress={p.progress}
+                    failure={p.error}
+                    done="Added to the roll."
+                  />
                 )}
               </div>
             </li>

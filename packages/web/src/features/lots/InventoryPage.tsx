@@ -35,14 +35,7 @@ import { ListView } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { TECHNIQUE_LABELS } from '../opinions/words';
 import { formatCount, formatTime, FORM_LABEL, ORIGIN_LABEL, STATUS_LABEL } from './labels';
-import {
-  LIST_SORTS,
-  lotsExportUrl,
-  lotsQueries,
-  type ListSort,
-  type LotListParams,
-  type LotSummary,
-} from './lots.api';
+import { lotsExportUrl, lotsQueries, type ListSort, type LotListParams, type LotSummary } from './lots.api';
 import { Page } from '../../common/ui/Page';
 
 const STATUSES: LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
@@ -93,7 +86,7 @@ function originWords(row: LotSummary): string | undefined {
   return row.origin ? `${ORIGIN_LABEL[row.origin]}${SOURCE_NOTE[row.originSource ?? 'holder']}` : undefined;
 }
 
-function useColumns(): Array<ListColumn<LotSummary>> {
+function useColumns(): Array<ListColumn<LotSummary> & { sort?: ListSort }> {
   const styles = useStyles();
   return [
     {
@@ -177,10 +170,11 @@ export function InventoryPage() {
   const styles = useStyles();
   const { account, isLoading } = useSession();
   const navigate = useNavigate();
-  const list = useListParams({ sort: DEFAULT_SORT, sorts: LIST_SORTS });
+  const columns = useColumns();
+  // The address may ask for any order a column heading gives.
+  const list = useListParams({ sort: DEFAULT_SORT, sorts: columns.flatMap((c) => c.sort ?? []) });
   const { update } = list;
   const params = lotParams(list);
-  const columns = useColumns();
   const [text, setText] = useState(params.q ?? '');
   const query = useQuery({ ...lotsQueries.list(params), enabled: account !== null });
 

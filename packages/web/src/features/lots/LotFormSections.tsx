@@ -15,7 +15,8 @@ import {
 } from '@fluentui/react-components';
 import { useState, type ReactNode } from 'react';
 import { CheckGroup } from '../../common/ui/CheckGroup';
-import { NoteField } from '../../common/ui/FormPage';
+import { NoteField, TextField } from '../../common/ui/FormPage';
+import type { BoundField } from '../../common/ui/form-values';
 import { SafetyCautions } from '../safety/SafetyCautions';
 import { BASE_GLASS_LABEL, DECORATION_LABEL, FORM_LABEL, inchesOf, MM_PER_INCH } from './labels';
 import { estimateBeads, inchesToMm, type LotDraft } from './lot-draft';
@@ -62,6 +63,28 @@ const useStyles = makeStyles({
 
 export type Change = <K extends keyof LotDraft>(key: K, value: LotDraft[K]) => void;
 export type ErrorOf = (field: string) => string | undefined;
+
+/** What each group of the form's sections edits: the draft, its setter and the reasons against it. */
+interface DraftProps {
+  draft: LotDraft;
+  change: Change;
+  error: ErrorOf;
+}
+
+/** The draft's parts that a text field edits. */
+type TextPart = { [K in keyof LotDraft]: LotDraft[K] extends string ? K : never }[keyof LotDraft];
+
+/**
+ * Binds text fields to the draft: `field(part, path)` gives a field its value from the draft, its
+ * setter, and the server's reason against the request field at `path`.
+ */
+function draftFields(draft: LotDraft, change: Change, error: ErrorOf) {
+  return (part: TextPart, path: string): BoundField => ({
+    value: draft[part],
+    onChange: (v) => change(part, v),
+    validationMessage: error(path),
+  });
+}
 
 /** One titled section of the form. */
 export function Section({
@@ -184,16 +207,9 @@ function CountSource() {
 }
 
 /** The public description: what it is, size and count, look, condition. */
-export function DescriptionSections({
-  draft,
-  change,
-  error,
-}: {
-  draft: LotDraft;
-  change: Change;
-  error: ErrorOf;
-}) {
+export function DescriptionSections({ draft, change, error }: DraftProps) {
   const styles = useStyles();
+  const field = draftFields(draft, change, error);
   const size = Number(draft.diameterMax || draft.diameterMin);
   const strand = Number(draft.strandLengthMm);
   const estimate = estimateBeads(strand, size);
@@ -232,9 +248,7 @@ export function DescriptionSections({
         <NoteField
           label="Description"
           hint="Anything a buyer should know: where the lot came from in general terms, how it is strung."
-          value={draft.summary}
-          onChange={(v) => change('summary', v)}
-          validationMessage={error('description.summary')}
+          {...field('summary', 'description.summary')}
         />
       </Section>
 
@@ -254,17 +268,13 @@ export function DescriptionSections({
           <MeasureField
             label="Bead size, largest (mm)"
             hint={inchesHint(draft.diameterMax)}
-            value={draft.diameterMax}
-            onChange={(v) => change('diameterMax', v)}
-            validationMessage={error('description.diameterMm.max')}
+            {...field('diameterMax', 'description.diameterMm.max')}
           />
         </div>
         <div className={styles.row}>
           <MeasureField
             label="Strand length (mm)"
-            value={draft.strandLengthMm}
-            onChange={(v) => change('strandLengthMm', v)}
-            validationMessage={error('description.strandLengthMm')}
+            {...field('strandLengthMm', 'description.strandLengthMm')}
           />
           <MeasureField
             label="or in inches"
@@ -327,13 +337,11 @@ export function DescriptionSections({
       </Section>
 
       <Section id="lot-look" title="Look">
-        <Field
+        <TextField
           label="Colours"
           hint="Separate with commas: white, rose pink, green"
-          validationMessage={error('description.colours')}
-        >
-          <Input value={draft.colours} onChange={(_, d) => change('colours', d.value)} />
-        </Field>
+          {...field('colours', 'description.colours')}
+        />
         <ChecksField
           label="Base glass"
           options={BASE_GLASS}
@@ -350,21 +358,14 @@ export function DescriptionSections({
           onChange={(v) => change('decoration', v)}
           validationMessage={error('description.decoration')}
         />
-        <NoteField
-          label="About the decoration"
-          value={draft.decorationNote}
-          onChange={(v) => change('decorationNote', v)}
-          validationMessage={error('description.decorationNote')}
-        />
+        <NoteField label="About the decoration" {...field('decorationNote', 'description.decorationNote')} />
       </Section>
 
       <Section id="lot-condition" title="Condition">
         <NoteField
           label="Condition"
           hint="Chips, cracks, worn foil, missing decoration, restringing."
-          value={draft.condition}
-          onChange={(v) => change('condition', v)}
-          validationMessage={error('description.condition')}
+          {...field('condition', 'description.condition')}
         />
       </Section>
       <SafetyCautions
@@ -378,43 +379,30 @@ export function DescriptionSections({
 }
 
 /** Where the lot is kept and how it was acquired: sealed, seen only by the recording dealer. */
-export function PrivateSections({
-  draft,
-  change,
-  error,
-}: {
-  draft: LotDraft;
-  change: Change;
-  error: ErrorOf;
-}) {
+export function PrivateSections({ draft, change, error }: DraftProps) {
   const styles = useStyles();
+  const field = draftFields(draft, change, error);
   return (
     <>
       <Section id="lot-kept" title="Where it is kept" privateSection>
-        <Field
+        <TextField
           label="Storage location"
           hint="Shelf, box or drawer."
-          validationMessage={error('sealed.storageLocation')}
-        >
-          <Input value={draft.storageLocation} onChange={(_, d) => change('storageLocation', d.value)} />
-        </Field>
+          {...field('storageLocation', 'sealed.storageLocation')}
+        />
       </Section>
       <Section id="lot-private" title="Private details" privateSection>
         <div className={styles.row}>
-          <Field label="Acquired on" validationMessage={error('sealed.acquisition.date')}>
-            <Input
-              type="date"
-              value={draft.acquisitionDate}
-              onChange={(_, d) => change('acquisitionDate', d.value)}
-            />
-          </Field>
-          <Field label="Acquired from" validationMessage={error('sealed.acquisition.source')}>
-            <Input
-              value={draft.acquisitionSource}
-              placeholder="estate sale, auction, another dealer"
-              onChange={(_, d) => change('acquisitionSource', d.value)}
-            />
-          </Field>
+          <TextField
+            label="Acquired on"
+            type="date"
+            {...field('acquisitionDate', 'sealed.acquisition.date')}
+          />
+          <TextField
+            label="Acquired from"
+            placeholder="estate sale, auction, another dealer"
+            {...field('acquisitionSource', 'sealed.acquisition.source')}
+          />
         </div>
         <div className={styles.row}>
           <MoneyField
@@ -430,27 +418,14 @@ export function PrivateSections({
             }
           />
         </div>
-        <NoteField
-          label="Private note"
-          value={draft.privateNote}
-          onChange={(v) => change('privateNote', v)}
-          validationMessage={error('sealed.privateNote')}
-        />
+        <NoteField label="Private note" {...field('privateNote', 'sealed.privateNote')} />
       </Section>
     </>
   );
 }
 
 /** Listed or not. */
-export function ListingSection({
-  draft,
-  change,
-  error,
-}: {
-  draft: LotDraft;
-  change: Change;
-  error: ErrorOf;
-}) {
+export function ListingSection({ draft, change, error }: DraftProps) {
   return (
     <Section
       id="lot-listing"

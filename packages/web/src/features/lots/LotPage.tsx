@@ -38,6 +38,7 @@ import { SafetyCautions } from '../safety/SafetyCautions';
 import { PrivateMark } from './PrivateMark';
 import { checkedSealedDetails } from './sealed-details';
 import { timelineOf, type TimelineLine } from './timeline';
+import { Facts } from '../../common/ui/Facts';
 
 const useStyles = makeStyles({
   page: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr)', gap: tokens.spacingVerticalL },
@@ -46,16 +47,6 @@ const useStyles = makeStyles({
   badges: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
   actions: { display: 'flex', flexWrap: 'wrap', gap: tokens.spacingHorizontalS },
   card: { display: 'grid', gap: tokens.spacingVerticalS, padding: tokens.spacingHorizontalL },
-  facts: {
-    display: 'grid',
-    gridTemplateColumns: 'minmax(8rem, max-content) 1fr',
-    columnGap: tokens.spacingHorizontalL,
-    rowGap: tokens.spacingVerticalXS,
-    margin: 0,
-    '@media (max-width: 480px)': { gridTemplateColumns: '1fr' },
-  },
-  term: { color: tokens.colorNeutralForeground3 },
-  def: { margin: 0, overflowWrap: 'anywhere' },
   fold: { display: 'grid', gap: tokens.spacingVerticalXS, color: tokens.colorNeutralForeground2 },
   timeline: { listStyleType: 'none', margin: 0, padding: 0, display: 'grid', gap: tokens.spacingVerticalM },
   item: {
@@ -67,20 +58,6 @@ const useStyles = makeStyles({
   meta: { color: tokens.colorNeutralForeground3, overflowWrap: 'anywhere' },
   hash: { fontFamily: tokens.fontFamilyMonospace },
 });
-
-function Facts({ rows }: { rows: Array<[string, React.ReactNode]> }) {
-  const styles = useStyles();
-  return (
-    <dl className={styles.facts}>
-      {rows.map(([k, v]) => (
-        <Fragment key={k}>
-          <dt className={styles.term}>{k}</dt>
-          <dd className={styles.def}>{v}</dd>
-        </Fragment>
-      ))}
-    </dl>
-  );
-}
 
 function Summary({ state }: { state: RollState }) {
   const styles = useStyles();

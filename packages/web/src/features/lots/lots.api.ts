@@ -31,22 +31,10 @@ export type RollEntry = WithCore<Schemas['RollEntryResponse'], { sealed?: RollSe
 /** A lot's whole roll as stored. */
 export type RawRoll = WithCore<Schemas['RollResponse'], { entries: RollEntry[] }>;
 
-export const LIST_SORTS = [
-  'registered',
-  'updated',
-  'title',
-  'code',
-  'form',
-  'count',
-  'origin',
-  'period',
-  'technique',
-  'status',
-  'listed',
-] as const;
-export type ListSort = (typeof LIST_SORTS)[number];
-
 type ListQuery = NonNullable<operations['LotsController_list']['parameters']['query']>;
+
+/** An order the server lists lots in. */
+export type ListSort = NonNullable<ListQuery['sort']>;
 
 /** Paging, sorting, filters and search of the lot list (the server's query names). */
 export type LotListParams = ListQuery & Required<Pick<ListQuery, 'page' | 'pageSize' | 'sort' | 'order'>>;

@@ -7,12 +7,12 @@ import {
   SearchBox,
   Spinner,
   Text,
-  Textarea,
   tokens,
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { fieldError, FormError } from '../../common/ui/FormPage';
+import { fieldError, FormError, NoteField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { ActionDialog } from '../../common/ui/ActionDialog';
 import type { LotActionContext } from '../lots/lot-actions';
 import { opinionRequestQueries, opinionRequestsApi, REQUEST_STATUS } from './opinion-requests.api';
@@ -38,7 +38,7 @@ export function AskOpinionAction({ code, state, close }: LotActionContext & { cl
   const client = useQueryClient();
   const [q, setQ] = useState('');
   const [who, setWho] = useState(ANY);
-  const [note, setNote] = useState('');
+  const form = useFormValues({ note: '' });
   const [done, setDone] = useState(false);
   const assessors = useQuery(opinionRequestQueries.assessors(q));
   const sent = useQuery(opinionRequestQueries.box('sent'));
@@ -48,7 +48,7 @@ export function AskOpinionAction({ code, state, close }: LotActionContext & { cl
       opinionRequestsApi.ask({
         lot: code,
         ...(who === ANY ? {} : { assessor: who }),
-        ...(note.trim() ? { note: note.trim() } : {}),
+        ...(form.values.note.trim() ? { note: form.values.note.trim() } : {}),
       }),
     onSuccess: async () => {
       await client.invalidateQueries({ queryKey: ['opinion-requests'] });
@@ -95,13 +95,11 @@ export function AskOpinionAction({ code, state, close }: LotActionContext & { cl
               ))}
             </RadioGroup>
           </Field>
-          <Field
+          <NoteField
             label="What to look at (optional)"
             hint="Only the assessor sees this."
-            validationMessage={fieldError(ask.error, 'note')}
-          >
-            <Textarea value={note} onChange={(_, d) => setNote(d.value)} resize="vertical" />
-          </Field>
+            {...form.bind(ask.error)('note')}
+          />
           <FormError error={ask.error} />
         </>
       )}

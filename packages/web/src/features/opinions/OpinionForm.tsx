@@ -5,7 +5,6 @@ import {
   Field,
   Input,
   makeStyles,
-  Select,
   Subtitle1,
   Text,
   Textarea,
@@ -30,7 +29,9 @@ import {
 } from '@beadroll/core';
 import { useMemo, useRef, useState } from 'react';
 import { focusFirstError } from '../../common/ui/focus-first-error';
-import { fieldError, FormError } from '../../common/ui/FormPage';
+import { fieldError, FormError, TextField } from '../../common/ui/FormPage';
+import { type BoundField, useFormValues } from '../../common/ui/form-values';
+import { SelectField } from '../../common/ui/SelectField';
 import { lotsQueries, type RawRoll } from '../lots/lots.api';
 import { AidPanel } from './AidPanel';
 import { opinionsApi, type OpinionWrite } from './opinions.api';
@@ -70,6 +71,21 @@ function exhibitsOnRoll(roll: RawRoll): ExhibitChoice[] {
   return out;
 }
 
+/** A year of the period, in a narrow box with a number keyboard. */
+function YearField({ label, value, onChange, validationMessage }: BoundField & { label: string }) {
+  const styles = useStyles();
+  return (
+    <Field label={label} required className={styles.year} validationMessage={validationMessage}>
+      <Input
+        className={styles.yearInput}
+        inputMode="numeric"
+        value={value}
+        onChange={(_, d) => onChange(d.value)}
+      />
+    </Field>
+  );
+}
+
 function yearOrNull(text: string): number | null {
   return /^-?\d{1,4}$/.test(text.trim()) ? Number(text.trim()) : null;
 }
@@ -92,16 +108,19 @@ export function OpinionForm({
 }) {
   const styles = useStyles();
   const client = useQueryClient();
-  const [origin, setOrigin] = useState<Origin>('unknown');
-  const [originNote, setOriginNote] = useState('');
-  const [from, setFrom] = useState('');
-  const [to, setTo] = useState('');
+  const form = useFormValues({
+    origin: 'unknown' as Origin,
+    originNote: '',
+    from: '',
+    to: '',
+    technique: 'wound-lampwork' as Technique,
+    decoration: '',
+    qualifier: 'attributed-to' as Qualifier,
+    confidence: 'medium' as Confidence,
+    rationale: '',
+  });
+  const { origin, originNote, from, to, technique, decoration: decorationText, rationale } = form.values;
   const [approximate, setApproximate] = useState(true);
-  const [technique, setTechnique] = useState<Technique>('wound-lampwork');
-  const [decorationText, setDecorationText] = useState('');
-  const [qualifier, setQualifier] = useState<Qualifier>('attributed-to');
-  const [confidence, setConfidence] = useState<Confidence>('medium');
-  const [rationale, setRationale] = useState('');
   const [cited, setCited] = useState<string[]>([]);
   const formRef = useRef<HTMLFormElement>(null);
   const exhibits = useQuery({ ...lotsQueries.roll(code), select: exhibitsOnRoll });
@@ -136,8 +155,8 @@ export function OpinionForm({
         period: { from: fromYear ?? Number.NaN, to: toYear ?? Number.NaN, approximate },
         technique,
         ...(decorationText.trim() ? { decoration: decorationText.trim() } : {}),
-        qualifier,
-        confidence,
+        qualifier: form.values.qualifier,
+        confidence: form.values.confidence,
         rationale,
         exhibits: cited,
       }),
@@ -148,9 +167,16 @@ export function OpinionForm({
     onError: () => focusFirstError(formRef.current),
   });
   const err = record.error;
+  const field = form.bind(err);
   const yearMessage = (field: 'period.from' | 'period.to', value: string) =>
     fieldError(err, field) ??
     (value !== '' ? (yearProblem(yearOrNull(value), thisYear) ?? undefined) : undefined);
+  const yearField = (end: 'from' | 'to'): BoundField => ({
+    value: form.values[end],
+    onChange: (v) => form.set(end, v),
+    validationMessage:
+      (end === 'to' ? periodProblem : undefined) ?? yearMessage(`period.${end}`, form.values[end]),
+  });
   const localProblem =
     periodProblem ??
     (from !== '' && yearProblem(fromYear, thisYear)) ??
@@ -172,15 +198,7 @@ export function OpinionForm({
         <Subtitle1 as="h2" id="opinion-form-title">
           Record an opinion
         </Subtitle1>
-        <Field label="Origin" required validationMessage={fieldError(err, 'origin')}>
-          <Select value={origin} onChange={(_, d) => setOrigin(d.value as Origin)}>
-            {ORIGINS.map((o) => (
-              <option key={o} value={o}>
-                {ORIGIN_LABELS[o]}
-              </option>
-            ))}
-          </Select>
-        </Field>
+        <SelectField label="Origin" required options={ORIGINS} labels={ORIGIN_LABELS} {...field('origin')} />
         <Field
           label="Origin in your own words"
           hint={origin === 'other' ? 'Say where.' : 'Optional: a town, a workshop, a region.'}
@@ -189,77 +207,41 @@ export function OpinionForm({
           <Input
             value={originNote}
             maxLength={LIMITS.shortText}
-            onChange={(_, d) => setOriginNote(d.value)}
+            onChange={(_, d) => form.set('originNote', d.value)}
           />
         </Field>
         <div className={styles.row}>
-          <Field
-            label="From year"
-            required
-            className={styles.year}
-            validationMessage={yearMessage('period.from', from)}
-          >
-            <Input
-              className={styles.yearInput}
-              inputMode="numeric"
-              value={from}
-              onChange={(_, d) => setFrom(d.value)}
-            />
-          </Field>
-          <Field
-            label="To year"
-            required
-            className={styles.year}
-            validationMessage={periodProblem ?? yearMessage('period.to', to)}
-          >
-            <Input
-              className={styles.yearInput}
-              inputMode="numeric"
-              value={to}
-              onChange={(_, d) => setTo(d.value)}
-            />
-          </Field>
+          <YearField label="From year" {...yearField('from')} />
+          <YearField label="To year" {...yearField('to')} />
           <Checkbox
             label="Approximate years"
             checked={approximate}
             onChange={(_, d) => setApproximate(d.checked === true)}
           />
         </div>
-        <Field label="Technique" required validationMessage={fieldError(err, 'technique')}>
-          <Select value={technique} onChange={(_, d) => setTechnique(d.value as Technique)}>
-            {TECHNIQUES.map((t) => (
-              <option key={t} value={t}>
-                {TECHNIQUE_LABELS[t]}
-              </option>
-            ))}
-          </Select>
-        </Field>
-        <Field label="Decoration" validationMessage={fieldError(err, 'decoration')}>
-          <Input value={decorationText} onChange={(_, d) => setDecorationText(d.value)} />
-        </Field>
-        <Field
+        <SelectField
+          label="Technique"
+          required
+          options={TECHNIQUES}
+          labels={TECHNIQUE_LABELS}
+          {...field('technique')}
+        />
+        <TextField label="Decoration" {...field('decoration')} />
+        <SelectField
           label="Certainty"
           required
           hint="As in a catalogue: by, attributed to, in the style of, or a later copy."
-          validationMessage={fieldError(err, 'qualifier')}
-        >
-          <Select value={qualifier} onChange={(_, d) => setQualifier(d.value as Qualifier)}>
-            {QUALIFIERS.map((q) => (
-              <option key={q} value={q}>
-                {QUALIFIER_LABELS[q]}
-              </option>
-            ))}
-          </Select>
-        </Field>
-        <Field label="Confidence" required validationMessage={fieldError(err, 'confidence')}>
-          <Select value={confidence} onChange={(_, d) => setConfidence(d.value as Confidence)}>
-            {CONFIDENCES.map((c) => (
-              <option key={c} value={c}>
-                {CONFIDENCE_LABELS[c]}
-              </option>
-            ))}
-          </Select>
-        </Field>
+          options={QUALIFIERS}
+          labels={QUALIFIER_LABELS}
+          {...field('qualifier')}
+        />
+        <SelectField
+          label="Confidence"
+          required
+          options={CONFIDENCES}
+          labels={CONFIDENCE_LABELS}
+          {...field('confidence')}
+        />
         <Field
           label="Rationale"
           hint={`${rationale.length} of ${RATIONALE_MAX} characters. Plain text: the clues, the references, the reasoning.`}
@@ -270,7 +252,7 @@ export function OpinionForm({
             resize="vertical"
             rows={5}
             maxLength={RATIONALE_MAX}
-            onChange={(_, d) => setRationale(d.value)}
+            onChange={(_, d) => form.set('rationale', d.value)}
           />
         </Field>
         <CheckGroup

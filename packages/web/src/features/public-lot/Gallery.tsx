@@ -56,15 +56,14 @@ export function displayFile(x: ExhibitRef): { variant: ExhibitVariant; file: Exh
   return null;
 }
 
-export function Gallery({
-  code,
-  exhibits,
-  cards,
-}: {
+/** The exhibits to show of lot `code`, and the cards of the accounts that added them. */
+interface ExhibitsProps {
   code: string;
   exhibits: ShownExhibit[];
   cards: Record<string, DealerCard>;
-}) {
+}
+
+export function Gallery({ code, exhibits, cards }: ExhibitsProps) {
   if (exhibits.length === 0) return null;
   return (
     <section className="pl-section pl-gallery" aria-labelledby="pl-gallery-h">
@@ -78,15 +77,7 @@ export function Gallery({
 }
 
 /** Exhibits as checked figures, without a section around them. */
-export function ExhibitList({
-  code,
-  exhibits,
-  cards,
-}: {
-  code: string;
-  exhibits: ShownExhibit[];
-  cards: Record<string, DealerCard>;
-}) {
+export function ExhibitList({ code, exhibits, cards }: ExhibitsProps) {
   return (
     <ul className="pl-gallery-list">
       {exhibits.map((x, i) => (

@@ -12,7 +12,6 @@ import { formatLotCode } from '@beadroll/core';
 import { useRef, useState } from 'react';
 import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
 import { runAudit, type AuditEvent } from './registry.api';
-import { RegistrarOnly } from './RegistrarOnly';
 import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
@@ -31,14 +30,6 @@ const columns: Array<ListColumn<Broken>> = [
 
 /** The full-ledger audit as a page: progress while every roll is verified, then the broken ones. */
 export function AuditPage() {
-  return (
-    <RegistrarOnly>
-      <Audit />
-    </RegistrarOnly>
-  );
-}
-
-function Audit() {
   const styles = useStyles();
   const [running, setRunning] = useState(false);
   const [progress, setProgress] = useState<{

@@ -3,7 +3,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, Form, FormError, PasswordField } from '../../common/ui/FormPage';
+import { Form, FormError, PasswordField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { registryToolsApi } from './registry.api';
 import { Page } from '../../common/ui/Page';
 import { Stack } from '../../common/ui/Stack';
@@ -12,10 +13,10 @@ import { Stack } from '../../common/ui/Stack';
 export function MyDataPage() {
   const client = useQueryClient();
   const { account, isLoading } = useSession();
-  const [password, setPassword] = useState('');
+  const form = useFormValues({ password: '' });
   const [confirming, setConfirming] = useState(false);
   const close = useMutation({
-    mutationFn: () => registryToolsApi.closeAccount(password),
+    mutationFn: () => registryToolsApi.closeAccount(form.values.password),
     onSuccess: () => client.invalidateQueries({ queryKey: ['session'] }),
   });
   if (close.isSuccess) {
@@ -57,9 +58,7 @@ export function MyDataPage() {
                 <PasswordField
                   label="Your password, to confirm"
                   autoComplete="current-password"
-                  value={password}
-                  onChange={setPassword}
-                  validationMessage={fieldError(close.error, 'password')}
+                  {...form.bind(close.error)('password')}
                 />
                 <FormError error={close.error} />
                 <div>

@@ -4,7 +4,6 @@ import type { ListColumn } from '../../common/ui/list/DataTable';
 import { useListParams } from '../../common/ui/list/list-params';
 import { ListView, useListStyles } from '../../common/ui/list/ListView';
 import { actionsQuery, type RegistrarAction } from './registry.api';
-import { RegistrarOnly } from './RegistrarOnly';
 import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
@@ -32,14 +31,6 @@ const columns: Array<ListColumn<RegistrarAction>> = [
 
 /** The registrar's record of decisions (append-only), with JSON and CSV export. */
 export function RecordPage() {
-  return (
-    <RegistrarOnly>
-      <Record />
-    </RegistrarOnly>
-  );
-}
-
-function Record() {
   const styles = useStyles();
   const listStyles = useListStyles();
   const list = useListParams({ pageSize: PAGE_SIZE });

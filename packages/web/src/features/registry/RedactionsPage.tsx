@@ -25,7 +25,6 @@ import {
   type RedactionReason,
   type RedactionRequest,
 } from './registry.api';
-import { RegistrarOnly } from './RegistrarOnly';
 import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
@@ -35,15 +34,6 @@ const useStyles = makeStyles({
 });
 
 const REASONS = Object.keys(REDACTION_REASON_LABEL) as RedactionReason[];
-
-/** Redaction by the registrar, and the holders' requests waiting for a decision. */
-export function RedactionsPage() {
-  return (
-    <RegistrarOnly>
-      <Redactions />
-    </RegistrarOnly>
-  );
-}
 
 function RedactForm() {
   const styles = useStyles();
@@ -165,7 +155,8 @@ const columns: Array<ListColumn<RedactionRequest>> = [
   { id: 'decision', header: 'Decision', cell: (r) => <Decision r={r} /> },
 ];
 
-function Redactions() {
+/** Redaction by the registrar, and the holders' requests waiting for a decision. */
+export function RedactionsPage() {
   const requests = useQuery(redactionRequestsQuery());
   return (
     <Page title="Redaction" width="medium">

@@ -3,25 +3,29 @@ import { Button, makeStyles, Text } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ActionDialog } from '../../common/ui/ActionDialog';
-import { FilterButtons } from '../../common/ui/FilterButtons';
-import { fieldError, FormError, NoteField } from '../../common/ui/FormPage';
+import { NoteField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { formatDate } from '../../common/ui/format';
 import type { ListColumn } from '../../common/ui/list/DataTable';
-import { useListParams } from '../../common/ui/list/list-params';
-import { ListView, useListStyles } from '../../common/ui/list/ListView';
+import { filterValue, type FilterOption, useListParams } from '../../common/ui/list/list-params';
+import { ListFilter, ListView } from '../../common/ui/list/ListView';
 import { REPORT_CATEGORY_LABEL, registryToolsApi, reportsQuery, type Report } from './registry.api';
-import { RegistrarOnly } from './RegistrarOnly';
 import { Page } from '../../common/ui/Page';
 
 const useStyles = makeStyles({
   text: { whiteSpace: 'pre-wrap', maxWidth: '28rem' },
 });
 
+const STATUSES: Array<FilterOption<'open' | 'closed'>> = [
+  { value: 'open', label: 'Open' },
+  { value: 'closed', label: 'Closed' },
+];
+
 function CloseDialog({ report, onClose }: { report: Report; onClose: () => void }) {
   const client = useQueryClient();
-  const [resolution, setResolution] = useState('');
+  const form = useFormValues({ resolution: '' });
   const close = useMutation({
-    mutationFn: () => registryToolsApi.closeReport(report.id, resolution),
+    mutationFn: () => registryToolsApi.closeReport(report.id, form.values.resolution),
     onSuccess: async () => {
       await client.invalidateQueries({ queryKey: ['registry', 'reports'] });
       onClose();
@@ -34,26 +38,15 @@ function CloseDialog({ report, onClose }: { report: Report; onClose: () => void 
       onSubmit={() => close.mutate()}
       submitLabel="Close the report"
       pending={close.isPending}
+      error={close.error}
       narrow
     >
       <NoteField
         label={report.answerWanted ? 'What was done (e-mailed to the reporter)' : 'What was done'}
         required
-        value={resolution}
-        onChange={setResolution}
-        validationMessage={fieldError(close.error, 'resolution')}
+        {...form.bind(close.error)('resolution')}
       />
-      <FormError error={close.error} />
     </ActionDialog>
-  );
-}
-
-/** The registrar's queue of reports from public pages, as a server-paged table. */
-export function ReportsPage() {
-  return (
-    <RegistrarOnly>
-      <Reports />
-    </RegistrarOnly>
   );
 }
 
@@ -90,26 +83,16 @@ function useColumns(onClose: (r: Report) => void): Array<ListColumn<Report>> {
   ];
 }
 
-function Reports() {
-  const styles = useListStyles();
+/** The registrar's queue of reports from public pages, as a server-paged table. */
+export function ReportsPage() {
   const list = useListParams();
   const [closing, setClosing] = useState<Report | null>(null);
   const columns = useColumns(setClosing);
-  const status = list.search.get('status') === 'closed' ? 'closed' : 'open';
+  const status = filterValue(list, 'status', STATUSES);
   const query = useQuery(reportsQuery({ status, page: list.page, pageSize: list.pageSize }));
   return (
     <Page title="Reports from public pages">
-      <div className={styles.tabs}>
-        <FilterButtons
-          label="Reports by status"
-          value={status}
-          options={[
-            { value: 'open', label: 'Open' },
-            { value: 'closed', label: 'Closed' },
-          ]}
-          onChange={(v) => list.update({ status: v === 'open' ? undefined : v })}
-        />
-      </div>
+      <ListFilter list={list} name="status" label="Reports by status" options={STATUSES} />
       <ListView
         label="Reports"
         columns={columns}

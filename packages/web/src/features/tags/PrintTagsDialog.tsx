@@ -155,19 +155,13 @@ export function PrintTagsDialog({
   const unlisted = lots.filter((l) => !l.listed).map((l) => l.code);
   const sheetKey = `${media}/${design}`;
   const [firstBy, setFirstBy] = useState<Record<string, number>>({});
-  const num = (v: string) => Number(v.replace(',', '.'));
   const grid =
     media !== 'roll' && layouts.data
-      ? sheetGrid(layouts.data.papers[media], layouts.data.defaults[design], {
-          ...(sheet.columns.trim() ? { columns: num(sheet.columns) } : {}),
-          ...(sheet.rows.trim() ? { rows: num(sheet.rows) } : {}),
-          marginTopMm: num(sheet.marginTopMm),
-          marginRightMm: num(sheet.marginRightMm),
-          marginBottomMm: num(sheet.marginBottomMm),
-          marginLeftMm: num(sheet.marginLeftMm),
-          gapXMm: num(sheet.gapXMm),
-          gapYMm: num(sheet.gapYMm),
-        })
+      ? sheetGrid(
+          layouts.data.papers[media],
+          layouts.data.defaults[design],
+          toSheet(media, sheet, outline, 0),
+        )
       : null;
   const perSheet = grid ? grid.columns * grid.rows : 0;
   const first = Math.min(firstBy[sheetKey] ?? rememberedFirst(sheetKey), Math.max(0, perSheet - 1));

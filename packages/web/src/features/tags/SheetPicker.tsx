@@ -1,4 +1,5 @@
 import { makeStyles, mergeClasses, shorthands, Text, tokens } from '@fluentui/react-components';
+import type { SheetRequest } from './tags.api';
 
 const useStyles = makeStyles({
   sheet: {
@@ -86,16 +87,7 @@ export function SheetPicker({
 export function sheetGrid(
   paper: { widthMm: number; heightMm: number },
   label: { widthMm: number; heightMm: number },
-  s: {
-    columns?: number;
-    rows?: number;
-    marginTopMm: number;
-    marginRightMm: number;
-    marginBottomMm: number;
-    marginLeftMm: number;
-    gapXMm: number;
-    gapYMm: number;
-  },
+  s: SheetRequest,
 ): { columns: number; rows: number } | null {
   const most = (inner: number, size: number, gap: number) => Math.floor((inner + gap + 1e-6) / (size + gap));
   const columns =

@@ -2,9 +2,10 @@ import { makeStyles, Radio, RadioGroup, Text, tokens } from '@fluentui/react-com
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ActionDialog } from '../../common/ui/ActionDialog';
-import { fieldError, FormError, NoteField, TextField } from '../../common/ui/FormPage';
+import { fieldError, NoteField, TextField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { MoneyField } from '../../common/ui/MoneyField';
-import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
+import { HeldLotField, refreshAfterTransfer, usePriceField } from './HeldLotField';
 import { dealerSearchQuery, type Offer, type Invitation, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
@@ -34,19 +35,17 @@ export function OfferDialog({
   const [mode, setMode] = useState<'dealer' | 'email'>('dealer');
   const [q, setQ] = useState('');
   const [recipient, setRecipient] = useState('');
-  const [email, setEmail] = useState('');
-  const [note, setNote] = useState('');
-  const [amount, setAmount] = useState('');
-  const [currency, setCurrency] = useState('EUR');
+  const form = useFormValues({ email: '', note: '' });
+  const { email, note } = form.values;
+  const price = usePriceField('EUR');
   const search = useQuery(dealerSearchQuery(q));
   const send = useMutation({
     mutationFn: () => {
-      const minor = amount.trim() ? sealedPrice(amount, currency) : undefined;
       return transfersApi.offer({
         lot,
         ...(mode === 'dealer' ? { recipient } : { email }),
         ...(note.trim() ? { note: note.trim() } : {}),
-        ...(minor !== undefined ? { price: { amount: minor, currency } } : {}),
+        ...(price.entered ? { price: price.value() } : {}),
       });
     },
     onSuccess: async (made) => {
@@ -55,6 +54,7 @@ export function OfferDialog({
       onClose();
     },
   });
+  const field = form.bind(send.error);
   return (
     <ActionDialog
       title={`Offer ${title ? `“${title}”` : 'this lot'} to another dealer`}
@@ -62,6 +62,7 @@ export function OfferDialog({
       onSubmit={() => send.mutate()}
       submitLabel="Send the offer"
       pending={send.isPending}
+      error={send.error}
       submitDisabled={!lot || (mode === 'dealer' ? !recipient : !email.trim())}
       narrow
     >
@@ -88,9 +89,7 @@ export function OfferDialog({
           label="Their e-mail address"
           hint="If they have no verified account yet, they get an invitation; the offer is made once the registrar verifies them."
           type="email"
-          value={email}
-          onChange={setEmail}
-          validationMessage={fieldError(send.error, 'email')}
+          {...field('email')}
         />
       )}
       {mode === 'dealer' && search.data ? (
@@ -116,20 +115,13 @@ export function OfferDialog({
       <NoteField
         label="Note (optional)"
         hint="Written on the lot’s history: everyone who reads the history sees it."
-        value={note}
-        onChange={setNote}
-        validationMessage={fieldError(send.error, 'note')}
+        {...field('note')}
       />
       <MoneyField
         label="Agreed price (optional)"
         hint="Sealed: only you and the other dealer see it; never in e-mails or on the public page."
-        amount={amount}
-        currency={currency}
-        onAmount={setAmount}
-        onCurrency={setCurrency}
-        validationMessage={fieldError(send.error, 'price')}
+        {...price.field(send.error)}
       />
-      <FormError error={send.error} />
     </ActionDialog>
   );
 }

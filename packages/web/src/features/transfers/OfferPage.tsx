@@ -2,21 +2,20 @@ import {
   Badge,
   Button,
   Card,
-  Field,
   makeStyles,
   MessageBar,
   MessageBarBody,
   Text,
-  Textarea,
   Title2,
   tokens,
 } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { Link, Navigate, useParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import { useSession } from '../accounts/accounts.api';
-import { fieldError, FormError } from '../../common/ui/FormPage';
+import { Facts } from '../../common/ui/Facts';
+import { FormError, NoteField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import {
   formatDateTime,
   formatMoney,
@@ -36,14 +35,6 @@ const useStyles = makeStyles({
     display: 'grid',
     gap: tokens.spacingVerticalM,
   },
-  facts: {
-    display: 'grid',
-    gridTemplateColumns: 'max-content 1fr',
-    columnGap: tokens.spacingHorizontalL,
-    rowGap: tokens.spacingVerticalS,
-    margin: 0,
-  },
-  term: { color: tokens.colorNeutralForeground3 },
   actions: { display: 'flex', gap: tokens.spacingHorizontalM, flexWrap: 'wrap' },
 });
 
@@ -57,16 +48,16 @@ export function OfferPage() {
   const { id = '' } = useParams();
   const { account, isLoading } = useSession();
   const client = useQueryClient();
-  const [note, setNote] = useState('');
+  const form = useFormValues({ note: '' });
   const offer = useQuery({ ...offerQuery(id), enabled: !!account });
   const act = useMutation({
     mutationFn: (action: 'accept' | 'decline' | 'withdraw') =>
-      transfersApi.answer(id, action, note.trim() || undefined),
+      transfersApi.answer(id, action, form.values.note.trim() || undefined),
     onSuccess: async (o: Offer) => {
       client.setQueryData(offerQuery(id).queryKey, o);
       await client.invalidateQueries({ queryKey: ['transfers', 'offers'] });
       await client.invalidateQueries({ queryKey: ['lots'] });
-      setNote('');
+      form.reset();
     },
     onError: () => client.invalidateQueries({ queryKey: offerQuery(id).queryKey }),
   });
@@ -99,41 +90,29 @@ export function OfferPage() {
           {OFFER_STATUS_LABEL[o.status]}
         </Badge>
       </div>
-      <dl className={styles.facts}>
-        <dt className={styles.term}>Lot</dt>
-        <dd>
-          <Link to={`/lots/${o.lot.code}`}>{o.lot.title || 'Untitled lot'}</Link> ({o.lot.displayCode})
-        </dd>
-        <dt className={styles.term}>From</dt>
-        <dd>{who(o.offerer)}</dd>
-        <dt className={styles.term}>To</dt>
-        <dd>{who(o.recipient)}</dd>
-        <dt className={styles.term}>Offered</dt>
-        <dd>{formatDateTime(o.offeredAt)}</dd>
-        {o.lapsesAt ? (
-          <>
-            <dt className={styles.term}>Lapses</dt>
-            <dd>{formatDateTime(o.lapsesAt)} if nobody answers</dd>
-          </>
-        ) : null}
-        <dt className={styles.term}>Agreed price</dt>
-        <dd>{o.price ? `${formatMoney(o.price)} (sealed: only the two of you see it)` : 'none recorded'}</dd>
-        {o.note ? (
-          <>
-            <dt className={styles.term}>Note</dt>
-            <dd>{o.note}</dd>
-          </>
-        ) : null}
-        {o.answeredAt ? (
-          <>
-            <dt className={styles.term}>{OFFER_STATUS_LABEL[o.status]}</dt>
-            <dd>
-              {formatDateTime(o.answeredAt)}
-              {o.answerNote ? ` — “${o.answerNote}”` : ''}
-            </dd>
-          </>
-        ) : null}
-      </dl>
+      <Facts
+        rows={[
+          [
+            'Lot',
+            <>
+              <Link to={`/lots/${o.lot.code}`}>{o.lot.title || 'Untitled lot'}</Link> ({o.lot.displayCode})
+            </>,
+          ],
+          ['From', who(o.offerer)],
+          ['To', who(o.recipient)],
+          ['Offered', formatDateTime(o.offeredAt)],
+          !!o.lapsesAt && ['Lapses', `${formatDateTime(o.lapsesAt)} if nobody answers`],
+          [
+            'Agreed price',
+            o.price ? `${formatMoney(o.price)} (sealed: only the two of you see it)` : 'none recorded',
+          ],
+          !!o.note && ['Note', o.note],
+          !!o.answeredAt && [
+            OFFER_STATUS_LABEL[o.status],
+            `${formatDateTime(o.answeredAt)}${o.answerNote ? ` — “${o.answerNote}”` : ''}`,
+          ],
+        ]}
+      />
       {open ? (
         <>
           <Text>
@@ -141,13 +120,11 @@ export function OfferPage() {
               ? 'Accepting makes you the holder; both sides are written on the lot’s history. You never see the earlier holder’s sealed details.'
               : 'The lot stays yours until they accept. You can withdraw the offer until it is answered.'}
           </Text>
-          <Field
+          <NoteField
             label="Note (optional)"
             hint="Written on the lot’s history."
-            validationMessage={fieldError(act.error, 'note')}
-          >
-            <Textarea value={note} onChange={(_, d) => setNote(d.value)} resize="vertical" />
-          </Field>
+            {...form.bind(act.error)('note')}
+          />
           <div className={styles.actions}>
             {mine ? (
               <>

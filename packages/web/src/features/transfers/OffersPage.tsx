@@ -2,11 +2,10 @@ import { Badge, Button, MessageBar, MessageBarBody, Text, Title3 } from '@fluent
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, Navigate } from 'react-router-dom';
-import { FilterButtons } from '../../common/ui/FilterButtons';
 import { FormError } from '../../common/ui/FormPage';
 import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
-import { useListParams } from '../../common/ui/list/list-params';
-import { ListView, useListStyles } from '../../common/ui/list/ListView';
+import { filterValue, type FilterOption, useListParams } from '../../common/ui/list/list-params';
+import { ListFilter, ListView, useListStyles } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { OfferDialog } from './OfferDialog';
 import {
@@ -23,7 +22,7 @@ import {
 } from './transfers.api';
 import { Page } from '../../common/ui/Page';
 
-const FILTERS: Array<{ value: OfferStatus | 'all'; label: string }> = [
+const FILTERS: Array<FilterOption<OfferStatus | 'all'>> = [
   { value: 'all', label: 'All' },
   { value: 'open', label: 'Waiting' },
   { value: 'accepted', label: 'Accepted' },
@@ -178,11 +177,10 @@ function Invitations() {
 
 /** Incoming or outgoing offers as a server-paged table with a status filter kept in the URL. */
 export function OffersPage({ box }: { box: OfferBox }) {
-  const styles = useListStyles();
   const { account, isLoading, canWrite } = useSession();
   const list = useListParams();
   const columns = useColumns(box);
-  const status = FILTERS.find((f) => f.value === list.search.get('status'))?.value ?? 'all';
+  const status = filterValue(list, 'status', FILTERS);
   const query = useQuery({
     ...offersQuery(box, status === 'all' ? undefined : status, list.page, list.pageSize),
     enabled: account?.role === 'dealer',
@@ -211,14 +209,7 @@ export function OffersPage({ box }: { box: OfferBox }) {
           <MessageBarBody>{made}</MessageBarBody>
         </MessageBar>
       ) : null}
-      <div className={styles.tabs}>
-        <FilterButtons
-          label="Offers by status"
-          value={status}
-          options={FILTERS}
-          onChange={(v) => list.update({ status: v === 'all' ? undefined : String(v) })}
-        />
-      </div>
+      <ListFilter list={list} name="status" label="Offers by status" options={FILTERS} />
       <ListView
         label={title}
         columns={columns}

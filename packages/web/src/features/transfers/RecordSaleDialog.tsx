@@ -4,9 +4,10 @@ import { useState } from 'react';
 import { formatLotCode } from '@beadroll/core';
 import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../common/ui/ActionDialog';
-import { fieldError, FormError, NoteField, TextField } from '../../common/ui/FormPage';
+import { NoteField, TextField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { MoneyField } from '../../common/ui/MoneyField';
-import { HeldLotField, refreshAfterTransfer, sealedPrice } from './HeldLotField';
+import { HeldLotField, refreshAfterTransfer, usePriceField } from './HeldLotField';
 import { type Sale, today, transfersApi } from './transfers.api';
 
 const useStyles = makeStyles({
@@ -39,16 +40,14 @@ export function RecordSaleDialog({
   const styles = useStyles();
   const client = useQueryClient();
   const [lot, setLot] = useState(code ?? '');
-  const [date, setDate] = useState(today);
-  const [amount, setAmount] = useState('');
-  const [currency, setCurrency] = useState(() => localStorage.getItem(LAST_CURRENCY) ?? 'EUR');
+  const price = usePriceField(() => localStorage.getItem(LAST_CURRENCY) ?? 'EUR');
   const [more, setMore] = useState(false);
-  const [buyerNote, setBuyerNote] = useState('');
-  const [buyerEmail, setBuyerEmail] = useState('');
+  const form = useFormValues({ date: today(), buyerNote: '', buyerEmail: '' });
+  const { date, buyerNote, buyerEmail } = form.values;
   const save = useMutation({
     mutationFn: () => {
-      const minor = sealedPrice(amount, currency);
-      localStorage.setItem(LAST_CURRENCY, currency);
+      const sold = price.value();
+      localStorage.setItem(LAST_CURRENCY, sold.currency);
       // At a fair stand with no signal the sale waits on this device (same key when sent).
       return sendOrQueue<Sale>({
         path: transfersApi.salesPath,
@@ -56,7 +55,7 @@ export function RecordSaleDialog({
         body: {
           lot,
           date,
-          price: { amount: minor, currency },
+          price: sold,
           ...(buyerNote.trim() ? { buyerNote: buyerNote.trim() } : {}),
           ...(buyerEmail.trim() ? { buyerEmail: buyerEmail.trim() } : {}),
         },
@@ -76,6 +75,7 @@ export function RecordSaleDialog({
       onClose();
     },
   });
+  const field = form.bind(save.error);
   return (
     <ActionDialog
       title={`Record a sale${title ? `: ${title}` : ''}`}
@@ -83,7 +83,8 @@ export function RecordSaleDialog({
       onSubmit={() => save.mutate()}
       submitLabel="Record the sale"
       pending={save.isPending}
-      submitDisabled={!lot || !amount.trim()}
+      error={save.error}
+      submitDisabled={!lot || !price.entered}
       narrow
     >
       {code ? null : <HeldLotField lot={lot} onLot={setLot} error={save.error} />}
@@ -91,36 +92,22 @@ export function RecordSaleDialog({
         label="Price"
         required
         hint="Sealed: only you see it."
-        amount={amount}
-        currency={currency}
-        onAmount={setAmount}
-        onCurrency={setCurrency}
-        validationMessage={fieldError(save.error, 'price')}
+        {...price.field(save.error)}
         autoFocus={Boolean(code)}
       />
-      <TextField
-        label="Date of the sale"
-        type="date"
-        value={date}
-        onChange={setDate}
-        validationMessage={fieldError(save.error, 'date')}
-      />
+      <TextField label="Date of the sale" type="date" {...field('date')} />
       {more ? (
         <>
           <NoteField
             label="Note about the buyer (optional)"
             hint="Sealed: only you see it."
-            value={buyerNote}
-            onChange={setBuyerNote}
-            validationMessage={fieldError(save.error, 'buyerNote')}
+            {...field('buyerNote')}
           />
           <TextField
             label="Buyer’s e-mail for a receipt (optional)"
             hint="Used once to send the link to the lot’s public history; not kept."
             type="email"
-            value={buyerEmail}
-            onChange={setBuyerEmail}
-            validationMessage={fieldError(save.error, 'buyerEmail')}
+            {...field('buyerEmail')}
           />
         </>
       ) : (
@@ -131,7 +118,6 @@ export function RecordSaleDialog({
       <Text className={styles.sub} size={200}>
         The lot’s public page stays up and says it was sold to a private buyer on that date.
       </Text>
-      <FormError error={save.error} />
     </ActionDialog>
   );
 }

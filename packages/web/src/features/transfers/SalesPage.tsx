@@ -2,16 +2,15 @@ import { Button, MessageBar, MessageBarBody, Text } from '@fluentui/react-compon
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Navigate } from 'react-router-dom';
-import { FilterButtons } from '../../common/ui/FilterButtons';
 import type { ListColumn } from '../../common/ui/list/DataTable';
-import { useListParams } from '../../common/ui/list/list-params';
-import { ListView, useListStyles } from '../../common/ui/list/ListView';
+import { filterValue, type FilterOption, useListParams } from '../../common/ui/list/list-params';
+import { ListFilter, ListView, useListStyles } from '../../common/ui/list/ListView';
 import { useSession } from '../accounts/accounts.api';
 import { RecordSaleDialog } from './RecordSaleDialog';
 import { formatMoney, type Sale, type SaleReceiptFilter, salesQuery } from './transfers.api';
 import { Page } from '../../common/ui/Page';
 
-const RECEIPTS: Array<{ value: 'all' | 'sent' | 'none'; label: string }> = [
+const RECEIPTS: Array<FilterOption<'all' | 'sent' | 'none'>> = [
   { value: 'all', label: 'All sales' },
   { value: 'sent', label: 'Receipt sent' },
   { value: 'none', label: 'No receipt' },
@@ -52,13 +51,12 @@ function useColumns(): Array<ListColumn<Sale>> {
 
 /** The dealer's sales to private buyers, with the sealed price and note only they can see. */
 export function SalesPage() {
-  const styles = useListStyles();
   const { account, isLoading, canWrite } = useSession();
   const list = useListParams();
   const columns = useColumns();
   const [recording, setRecording] = useState(false);
   const [done, setDone] = useState<Sale | null>(null);
-  const receipt = RECEIPTS.find((r) => r.value === list.search.get('receipt'))?.value ?? 'all';
+  const receipt = filterValue(list, 'receipt', RECEIPTS);
   const query = useQuery({
     ...salesQuery(
       receipt === 'all' ? undefined : (receipt as SaleReceiptFilter),
@@ -91,14 +89,7 @@ export function SalesPage() {
           </MessageBarBody>
         </MessageBar>
       ) : null}
-      <div className={styles.tabs}>
-        <FilterButtons
-          label="Sales by receipt"
-          value={receipt}
-          options={RECEIPTS}
-          onChange={(v) => list.update({ receipt: v === 'all' ? undefined : String(v) })}
-        />
-      </div>
+      <ListFilter list={list} name="receipt" label="Sales by receipt" options={RECEIPTS} />
       <ListView
         label="Sales"
         columns={columns}

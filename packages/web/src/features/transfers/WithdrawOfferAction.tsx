@@ -1,7 +1,7 @@
-import { Field, Spinner, Text, Textarea } from '@fluentui/react-components';
+import { Spinner, Text } from '@fluentui/react-components';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import { fieldError, FormError } from '../../common/ui/FormPage';
+import { NoteField } from '../../common/ui/FormPage';
+import { useFormValues } from '../../common/ui/form-values';
 import { ActionDialog } from '../../common/ui/ActionDialog';
 import { openOfferOfLotQuery, transfersApi } from './transfers.api';
 
@@ -9,9 +9,9 @@ import { openOfferOfLotQuery, transfersApi } from './transfers.api';
 export function WithdrawOfferAction({ code, close }: { code: string; close: () => void }) {
   const client = useQueryClient();
   const offer = useQuery(openOfferOfLotQuery(code));
-  const [note, setNote] = useState('');
+  const form = useFormValues({ note: '' });
   const withdraw = useMutation({
-    mutationFn: (id: string) => transfersApi.answer(id, 'withdraw', note.trim() || undefined),
+    mutationFn: (id: string) => transfersApi.answer(id, 'withdraw', form.values.note.trim() || undefined),
     onSuccess: async () => {
       await client.invalidateQueries({ queryKey: ['transfers'] });
       await client.invalidateQueries({ queryKey: ['lots'] });
@@ -25,6 +25,7 @@ export function WithdrawOfferAction({ code, close }: { code: string; close: () =
       close={close}
       submitLabel={withdraw.isPending ? 'Withdrawing…' : 'Withdraw the offer'}
       pending={withdraw.isPending || !offer.data}
+      error={withdraw.error ?? offer.error}
       onSubmit={() => offer.data && withdraw.mutate(offer.data.id)}
     >
       {offer.isPending ? (
@@ -37,18 +38,15 @@ export function WithdrawOfferAction({ code, close }: { code: string; close: () =
               : 'The other dealer can no longer accept this lot. '}
             The lot stays yours; the roll records the withdrawal, never the price.
           </Text>
-          <Field
+          <NoteField
             label="Note on the roll (optional)"
             hint="Everyone who reads the lot's history sees it."
-            validationMessage={fieldError(withdraw.error, 'note')}
-          >
-            <Textarea value={note} onChange={(_, d) => setNote(d.value)} resize="vertical" />
-          </Field>
+            {...form.bind(withdraw.error)('note')}
+          />
         </>
       ) : (
         <Text>This lot has no open offer of yours any more.</Text>
       )}
-      <FormError error={withdraw.error ?? offer.error} />
     </ActionDialog>
   );
 }

@@ -3,7 +3,6 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { fieldError, Form, FormError } from '../../common/ui/FormPage';
 import { DataTable, type ListColumn } from '../../common/ui/list/DataTable';
-import { RegistrarOnly } from '../registry/RegistrarOnly';
 import { witnessesApi, witnessesQuery, type Witness } from './witnesses.api';
 
 const useStyles = makeStyles({
@@ -21,14 +20,6 @@ function when(iso: string | null): string {
 
 /** The registrar's list of the public log's witnesses, and when each last cosigned. */
 export function WitnessesPage() {
-  return (
-    <RegistrarOnly>
-      <Witnesses />
-    </RegistrarOnly>
-  );
-}
-
-function Witnesses() {
   const styles = useStyles();
   const columns: Array<ListColumn<Witness>> = [
     {

@@ -1,8 +1,9 @@
 import { Button, makeStyles, Text, tokens } from '@fluentui/react-components';
 import type { RowData } from '@tanstack/react-table';
 import type { ReactNode } from 'react';
+import { FilterButtons } from '../FilterButtons';
 import { DataTable, type ListColumn } from './DataTable';
-import type { ListParams } from './list-params';
+import { filterValue, type FilterOption, type ListParams } from './list-params';
 
 /** The frame most list pages share: a heading row, filters, the table and the pager. */
 export const useListStyles = makeStyles({
@@ -33,6 +34,34 @@ const useStyles = makeStyles({
 /** A count with its noun: "1 lot", "3 lots". */
 export function countWords(n: number, noun: readonly [string, string]): string {
   return `${n} ${n === 1 ? noun[0] : noun[1]}`;
+}
+
+/**
+ * The buttons of one of the list's filters, kept in the address under `name` (see
+ * {@link filterValue}); choosing one goes back to the first page.
+ */
+export function ListFilter<T extends string>({
+  list,
+  name,
+  label,
+  options,
+}: {
+  list: ListParams;
+  name: string;
+  label: string;
+  options: ReadonlyArray<FilterOption<T>>;
+}) {
+  const styles = useListStyles();
+  return (
+    <div className={styles.tabs}>
+      <FilterButtons
+        label={label}
+        value={filterValue(list, name, options)}
+        options={options}
+        onChange={(v) => list.update({ [name]: v === options[0]!.value ? undefined : v })}
+      />
+    </div>
+  );
 }
 
 /** Previous and Next around "Page 2 of 5 · 84 lots". */

@@ -51,3 +51,26 @@ export function useListParams({
 }
 
 export type ListParams = ReturnType<typeof useListParams>;
+
+/** One choice of a list's filter: its value in the address and its button's words. */
+export interface FilterOption<T extends string> {
+  value: T;
+  label: string;
+}
+
+/**
+ * The list's filter `name` as the address gives it when it is one of `options`, else the first
+ * option (the default, which the address leaves out).
+ */
+export function filterValue<T extends string>(
+  list: ListParams,
+  name: string,
+  options: ReadonlyArray<FilterOption<T>>,
+): T {
+  return (
+    oneOf(
+      list.search.get(name),
+      options.map((o) => o.value),
+    ) ?? options[0]!.value
+  );
+}
