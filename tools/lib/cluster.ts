@@ -168,7 +168,7 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
         }
       : { FAKE_SMTP: 'false' }),
     MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2',
-    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '131072',
+    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '69632',
     ...opts.extraEnv,
   };
   delete env.PORT;

@@ -61,7 +61,7 @@ export class ServerProcess {
       OPINIONS_PER_DAY: '1000',
       OFFER_LAPSE_CHECK_SECONDS: '0',
       MALLOC_ARENA_MAX: '2',
-      MALLOC_MMAP_THRESHOLD_: '131072',
+      MALLOC_MMAP_THRESHOLD_: '69632',
       NODE_ENV: 'production',
       ...extra,
     };

@@ -13,14 +13,14 @@ import { APP_CONFIG } from './config/config.module';
 import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
-import { publicLotFastPath } from './lots/public-lot-fast-path';
+import { installPublicLotFastPath } from './lots/public-lot-fast-path';
 import { publicLotPage } from './lots/public-lot-page';
 import { CheckpointsService } from './log/checkpoints.service';
 import { createOpenApiDocument, UNPREFIXED } from './openapi/openapi-document';
 
 /**
  * Applies everything a running server needs on top of the module graph: the public lot data's
- * fast path, security headers, cookies, the /api prefix, validation, the OpenAPI document and the built web app.
+ * fast path (ahead of express), security headers, cookies, the /api prefix, validation, the OpenAPI document and the built web app.
  * Used by main.ts and by the e2e tests, so both run the same stack.
  */
 export function configureApp(app: NestExpressApplication): AppConfig {
@@ -53,8 +53,8 @@ export function configureApp(app: NestExpressApplication): AppConfig {
   // Dynamic answers over 1 KB (the roll JSON, bundles, lists) are compressed for clients that
   // ask; the built web files are compressed at build time and served as they are (serveWeb).
   app.use(compression({ threshold: 1024 }));
-  app.use(publicLotFastPath(app, securityHeaders));
   app.use(securityHeaders);
+  installPublicLotFastPath(app.getHttpServer(), app, config.instanceName, securityHeaders);
   app.use(cookieParser());
   const limits = { maxBytes: config.requests.maxJsonBytes, maxDepth: config.requests.maxDepth };
   for (const parser of bodyParsers(limits)) app.use(parser);

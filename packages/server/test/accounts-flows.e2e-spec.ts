@@ -2,7 +2,9 @@ import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
 import { createAccount, signIn } from './support/accounts';
-import { binary } from './support/exhibit-http';
+import { binary, upload } from './support/exhibit-http';
+import { description } from './support/lot-fixtures';
+import { BLOB_STORE, type BlobStore } from '../src/storage/blob-store';
 import { lastMailTo, linkIn } from './support/mail';
 import { useTestApp } from './support/test-app';
 
@@ -164,6 +166,50 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     const none = later.body.items.find((x: { handle: string }) => x.handle === b.handle);
     expect(none.document).toBeNull();
     await registrar.agent.get(`/api/registry/accounts/${none.id}/document`).expect(404);
+  });
+
+  it('deletes an applicant’s document when the account closes, unless another account or an exhibit names the same bytes', async () => {
+    const blobs = t.app.get<BlobStore>(BLOB_STORE);
+    const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+    // PDFs by their first bytes ("%PDF-", ISO 32000-1 §7.5.2), ending in "%%EOF" (§7.5.5); invented.
+    const own = Buffer.from('%PDF-1.4\n% a trade licence kept by one applicant\n%%EOF\n');
+    const shared = Buffer.from('%PDF-1.4\n% a market permit two applicants both sent\n%%EOF\n');
+    const join = async (n: string, doc: Buffer) => {
+      const a = applicant(n);
+      let req = http().post('/api/auth/sign-up').set(W);
+      for (const [k, v] of Object.entries(a)) req = req.field(k, v);
+      await req
+        .attach('document', doc, { filename: 'permit.pdf', contentType: 'application/pdf' })
+        .expect(202);
+      const token = linkIn(lastMailTo(t, a.email), `${BASE}/verify-email`).searchParams.get('token')!;
+      await http().post('/api/auth/verify-email').set(W).send({ token }).expect(200);
+      return { a, agent: await signIn(t, a.email, a.password) };
+    };
+    const close = async (who: { a: { password: string }; agent: Awaited<ReturnType<typeof signIn>> }) =>
+      who.agent.post('/api/account/close').set(W).send({ password: who.a.password }).expect(200);
+    const alone = await join('closes-alone', own);
+    const first = await join('closes-first', shared);
+    const second = await join('closes-second', shared);
+    expect(await blobs.exists(sha(own))).toBe(true);
+
+    await close(alone);
+    expect(await blobs.exists(sha(own))).toBe(false);
+    // Another applicant still names the shared file.
+    await close(first);
+    expect(await blobs.exists(sha(shared))).toBe(true);
+    // A dealer adds the same file as an exhibit: it stays when the last applicant leaves too.
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const lot = await dealer.agent.post('/api/lots').set(W).send({ description: description() }).expect(201);
+    await upload(
+      dealer.agent,
+      lot.body.code,
+      shared,
+      { kind: 'reference-page' },
+      'permit.pdf',
+      'application/pdf',
+    ).expect(201);
+    await close(second);
+    expect(await blobs.exists(sha(shared))).toBe(true);
   });
 
   it('asks for the business address and trade references, and a website only as a web address', async () => {

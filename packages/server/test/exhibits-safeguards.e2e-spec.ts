@@ -1,3 +1,4 @@
+import sharp from 'sharp';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { BLOB_LOCK } from '../src/storage/blob-locks';
@@ -117,6 +118,34 @@ describe('a sealed exhibit the registrar removes', () => {
 });
 
 describe('the file as the dealer sent it', () => {
+  it('is recorded by the SHA-256 of every byte received, for a photo that arrives in many chunks', async () => {
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const code = await newLot(dealer);
+    // A noisy 1200 × 900 photo (noise keeps it large): several hundred kB, far more than one
+    // network read, so the digest taken while the upload is written covers many chunks.
+    const photo = await sharp({
+      create: {
+        width: 1200,
+        height: 900,
+        channels: 3,
+        background: { r: 90, g: 60, b: 30 },
+        noise: { type: 'gaussian', mean: 120, sigma: 30 },
+      },
+    })
+      .jpeg({ quality: 90 })
+      .toBuffer();
+    expect(photo.length).toBeGreaterThan(300_000);
+    const added = await upload(dealer.agent, code, photo, { kind: 'hole' }).expect(201);
+    const rows: Array<{ sent_sha256: string }> = await t.app
+      .get(DataSource)
+      .query('SELECT "sent_sha256" FROM "exhibits" WHERE "lot_code" = $1 AND "seq" = $2', [
+        code,
+        added.body.exhibit.seq,
+      ]);
+    // Reference: node:crypto's SHA-256 of the bytes the test sent.
+    expect(rows).toEqual([{ sent_sha256: sha256(photo) }]);
+  });
+
   it('is blocked by a redaction on its own, apart from the digests of the stored files', async () => {
     const dealer = await createAccount(t, { role: 'dealer' });
     const code = await newLot(dealer);

@@ -7,7 +7,13 @@ describe('health and the API surface', () => {
 
   it('reports the database as ok', async () => {
     const res = await request(t.app.getHttpServer()).get('/api/health').expect(200);
-    expect(res.body).toMatchObject({ status: 'ok', database: 'ok', migrations: 'up to date' });
+    expect(res.body).toMatchObject({
+      status: 'ok',
+      database: 'ok',
+      migrations: 'up to date',
+      log: 'ok',
+      reasons: [],
+    });
   });
 
   it('serves the OpenAPI document', async () => {

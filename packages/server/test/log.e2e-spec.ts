@@ -295,6 +295,15 @@ describe('the ledger-wide log', () => {
       });
       checkpoints.invalidate();
       await http().get('/api/log/checkpoint').expect(503);
+      // The standing refusal shows in the service's health, in words that name no lot nor entry.
+      const health = await http().get('/api/health').expect(200);
+      expect(health.body).toMatchObject({
+        status: 'degraded',
+        database: 'ok',
+        log: 'refusing',
+        reasons: ['the log’s signer refuses to sign: an entry the log numbered is missing'],
+      });
+      expect(health.text).not.toContain(lot);
 
       // Restored from a backup, the log is whole again and the next pass signs it.
       await su.query('BEGIN');
@@ -313,6 +322,11 @@ describe('the ledger-wide log', () => {
       await su.end();
     }
     expect(await sign()).toMatchObject({ signed: true });
+    expect((await http().get('/api/health').expect(200)).body).toMatchObject({
+      status: 'ok',
+      log: 'ok',
+      reasons: [],
+    });
   });
 
   it('the proof routes are public', async () => {

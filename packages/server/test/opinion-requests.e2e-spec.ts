@@ -130,6 +130,39 @@ describe('opinions on request', () => {
     await thea.agent.post(`/api/lots/${code}/opinions`).set(W).send(OPINION).expect(404);
     const after = await thea.agent.get('/api/opinion-requests').query({ box: 'received' }).expect(200);
     expect(after.body.items[0]).toMatchObject({ status: 'answered', opinionSeq: opinion.body.seq });
+
+    // The holder writes on after the answer; the assessor still withdraws their own opinion, as
+    // core's rules let an opinion's author do in any state, and sees it gone, but nothing else new.
+    await holder.agent
+      .post(`/api/lots/${code}/observations`)
+      .set(W)
+      .send({ observations: { hole: 'powder' } })
+      .expect(201);
+    const mine = await thea.agent.get(`/api/lots/${code}/opinions`).expect(200);
+    expect(mine.body.opinions.map((o: { seq: number }) => o.seq)).toEqual([opinion.body.seq]);
+    const withdrawn = await thea.agent
+      .post(`/api/lots/${code}/opinions/${opinion.body.seq}/withdrawal`)
+      .set(W)
+      .send({ note: 'On a second look the seams are later work.' })
+      .expect(200);
+    expect(withdrawn.body.opinions.opinions).toEqual([]);
+    expect((await thea.agent.get(`/api/lots/${code}/opinions`).expect(200)).body.opinions).toEqual([]);
+    expect((await thea.agent.get(`/api/lots/${code}`).expect(200)).body.historyUpTo).toBe(opinion.body.seq);
+    const w = (await verified(code)).verified.at(-1)!;
+    expect(w.header).toMatchObject({ kind: 'opinion-withdrawn', actor: thea.id });
+    expect((await holder.agent.get(`/api/lots/${code}/opinions`).expect(200)).body.opinions).toEqual([]);
+    // Once withdrawn, it is not standing: the same request is refused.
+    await thea.agent
+      .post(`/api/lots/${code}/opinions/${opinion.body.seq}/withdrawal`)
+      .set(W)
+      .send({})
+      .expect(404);
+    // Another assessor with no access still gets the bare 404.
+    await ravi.agent
+      .post(`/api/lots/${code}/opinions/${opinion.body.seq}/withdrawal`)
+      .set(W)
+      .send({})
+      .expect(404);
   });
 
   it('closes the request on the roll and in the queue when the lot changes hands', async () => {

@@ -2,6 +2,11 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { runSeed } from '../src/demo/seed';
 import { PublicLotsService } from '../src/lots/public-lots.service';
+import type { PublicLotResponse } from '../src/lots/dto/public-lot.dto';
+import { chosenEncoding } from '../src/lots/public-lot-fast-path';
+import { CheckpointsService } from '../src/log/checkpoints.service';
+import { createAccount } from './support/accounts';
+import { description } from './support/lot-fixtures';
 import { useTestApp } from './support/test-app';
 
 /**
@@ -75,24 +80,89 @@ describe('public lot data as one statement', () => {
     expect(bare(a)).toEqual({ error: { code: 'not_found', message: 'Not found.' } });
   });
 
-  it('answers a plain anonymous GET ahead of the router exactly as the controller does', async () => {
-    // A cookie header sends the request through the controller; a plain GET takes the fast path.
+  it('answers a plain anonymous GET ahead of express exactly as the controller does', async () => {
+    // A cookie header sends the request through express and the controller; a plain GET takes
+    // the fast path. The fast path sends a compressed copy made once with its length, where the
+    // compression middleware streams it in chunks: the framing headers differ, nothing else.
     const server = t.app.getHttpServer();
+    const framing = ['content-length', 'transfer-encoding'];
     const comparable = (r: request.Response) => {
       const headers: Record<string, string> = { ...(r.headers as Record<string, string>) };
       expect(headers['x-request-id']).toMatch(/^[0-9a-f-]{36}$/);
-      delete headers['x-request-id'];
-      delete headers['date'];
+      for (const h of ['x-request-id', 'date', ...framing]) delete headers[h];
       return { status: r.status, headers, text: r.text };
     };
-    for (const { code } of lots.filter((l) => l.listed).slice(0, 5)) {
-      const fast = await request(server).get(`/api/public/lots/${code}`).expect(200);
-      const routed = await request(server)
-        .get(`/api/public/lots/${code}`)
-        .set('Cookie', 'unrelated=1')
-        .expect(200);
-      expect(comparable(fast)).toEqual(comparable(routed));
-      expect(Object.keys(fast.headers)).toEqual(Object.keys(routed.headers));
+    for (const encoding of ['identity', 'gzip', 'br']) {
+      for (const { code } of lots.filter((l) => l.listed).slice(0, 5)) {
+        const fast = await request(server)
+          .get(`/api/public/lots/${code}`)
+          .set('Accept-Encoding', encoding)
+          .expect(200);
+        const routed = await request(server)
+          .get(`/api/public/lots/${code}`)
+          .set('Accept-Encoding', encoding)
+          .set('Cookie', 'unrelated=1')
+          .expect(200);
+        expect(comparable(fast)).toEqual(comparable(routed));
+        const order = (r: request.Response) => Object.keys(r.headers).filter((h) => !framing.includes(h));
+        expect(order(fast)).toEqual(order(routed));
+        expect(fast.headers['content-encoding']).toBe(encoding === 'identity' ? undefined : encoding);
+        expect(Number(fast.headers['content-length'])).toBeGreaterThan(0);
+      }
     }
+  });
+
+  it('chooses the encoding a request accepts, brotli first', () => {
+    // RFC 9110 §12.5.3: a q-value of 0 refuses an encoding; "*" stands for any other.
+    expect(chosenEncoding(undefined)).toBe('identity');
+    expect(chosenEncoding('gzip, deflate, br, zstd')).toBe('br');
+    expect(chosenEncoding('gzip, deflate')).toBe('gzip');
+    expect(chosenEncoding('br;q=0, gzip;q=0.5')).toBe('gzip');
+    expect(chosenEncoding('*')).toBe('br');
+    expect(chosenEncoding('*;q=0, identity')).toBe('identity');
+    expect(chosenEncoding('deflate')).toBe('identity');
+  });
+
+  it('follows an append, a change to a dealer named on the roll and a new checkpoint at once', async () => {
+    const server = t.app.getHttpServer();
+    const data = t.app.get(DataSource);
+    const dealer = await createAccount(t, { role: 'dealer' });
+    const res = await dealer.agent
+      .post('/api/lots')
+      .set('X-Beadroll-Request', '1')
+      .send({ description: description({ title: 'Amber drawn beads', listed: true }) })
+      .expect(201);
+    const code = (res.body as { code: string }).code;
+    const read = async () => {
+      const r = await request(server).get(`/api/public/lots/${code}`).expect(200);
+      return JSON.parse(r.text) as PublicLotResponse;
+    };
+    // Read more than once, so the answer is composed, kept and served again.
+    for (let i = 0; i < 3; i++) expect((await read()).bundle.rolls[0]!.entries).toHaveLength(1);
+    expect((await read()).cards[dealer.id]?.displayName).toMatch(/^Test dealer/);
+
+    await dealer.agent
+      .post(`/api/lots/${code}/observations`)
+      .set('X-Beadroll-Request', '1')
+      .send({ observations: { hole: 'clean' } })
+      .expect(201);
+    expect((await read()).bundle.rolls[0]!.entries).toHaveLength(2);
+    expect(await read()).toEqual(JSON.parse(await service.lotText(code)));
+
+    // Another instance (or the registrar) changes the account: the card follows.
+    await data.query(`UPDATE "accounts" SET "display_name" = 'Renamed dealer' WHERE "id" = $1`, [dealer.id]);
+    expect((await read()).cards[dealer.id]?.displayName).toBe('Renamed dealer');
+    await data.query(`UPDATE "accounts" SET "status" = 'suspended' WHERE "id" = $1`, [dealer.id]);
+    expect((await read()).cards[dealer.id]?.status).toBe('suspended');
+
+    // A checkpoint covering the head brings its inclusion proof.
+    await t.app.get(CheckpointsService).signIfDue(true);
+    t.app.get(CheckpointsService).invalidate();
+    const proved = await read();
+    expect(proved.bundle.checkpoints[0]?.inclusions.map((i) => i.seq)).toEqual([1]);
+
+    // No longer listed (as another instance would leave it): the bare 404 at once.
+    await data.query(`UPDATE "lot_views" SET "listed" = false WHERE "code" = $1`, [code]);
+    await request(server).get(`/api/public/lots/${code}`).expect(404);
   });
 });

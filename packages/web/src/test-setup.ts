@@ -1,6 +1,12 @@
 import '@testing-library/jest-dom/vitest';
-import { cleanup } from '@testing-library/react';
+import { cleanup, configure } from '@testing-library/react';
 import { afterEach, vi } from 'vitest';
+
+// A find or waitFor waits for as long as the test itself may run (testTimeout, 30 s, in
+// vite.config.ts), not Testing Library's 1 s: on a busy machine the first render of a page and its
+// lazily loaded parts can take seconds. It gives up a little before the test's limit, so a failure
+// still shows the page as it was.
+configure({ asyncUtilTimeout: 25_000 });
 
 afterEach(() => {
   cleanup();

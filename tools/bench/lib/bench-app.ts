@@ -63,7 +63,7 @@ export async function startBenchApp(name: string, extraEnv: NodeJS.ProcessEnv = 
     SCRYPT_COST: '1024',
     THROTTLE_LIMIT: '1000000',
     MALLOC_ARENA_MAX: '2',
-    MALLOC_MMAP_THRESHOLD_: '131072',
+    MALLOC_MMAP_THRESHOLD_: '69632',
     ...extraEnv,
   };
   for (const script of ['migrate.js', 'demo/seed.js']) {

@@ -1,6 +1,6 @@
 // Benchmark at scale: a ledger of ENTRIES entries over LOTS lots (default 1,000,000 over
-// 100,000), held by one demo dealer, built in bulk through core's entry builder and reducer and
-// written with PostgreSQL's COPY, next to the demo scenario, on a throw-away cluster. At 1,000
+// 100,000), held by one demo dealer, built in bulk through core's entry builder and reducer (in
+// worker threads, build-worker.mjs) and written with PostgreSQL's COPY, next to the demo scenario, on a throw-away cluster. At 1,000
 // entries and again at the full size it prints: public lot data p50/p99 (autocannon), append
 // p50/p99 (an observation through the API, one at a time), inventory search p95 (the dealer's
 // lot list with a text query) and the full-ledger audit's entries/s and peak memory (the
@@ -9,21 +9,13 @@
 // Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M]
 //   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
 import { spawn } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
-import {
-  buildEntry,
-  generateLotCode,
-  headOf,
-  reduceEntry,
-  seededRandom,
-  type RollHead,
-  type RollState,
-} from '@beadroll/core';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { REPO } from '../../lib/app-env.ts';
@@ -47,8 +39,134 @@ const autocannon = createRequire(import.meta.url)('autocannon') as (
   o: Record<string, unknown>,
 ) => Promise<CannonResult>;
 
+async function copy(client: pg.PoolClient, sql: string, text: string): Promise<void> {
+  if (text) await pipeline(Readable.from([text]), client.query(copyFrom(sql)));
+}
+
+interface Built {
+  id: number;
+  lots: string;
+  entries: string;
+  bodies: string;
+  views: string;
+  written: number;
+}
+
+/** Lots per job a worker builds and the main thread writes in one transaction. */
+const BATCH = 2000;
+
+/**
+ * Writes `lots` lots with `entries` entries in all, as the ledger would: each roll built by
+ * core's buildEntry and reduced by core's reduceEntry, in worker threads (one per core, see
+ * build-worker.mjs), while the main thread writes what they built by COPY, a batch of lots per
+ * transaction: lots, entries, entry bodies (entry ids taken as one range beforehand, so no join)
+ * and the lot view.
+ */
+async function bulkLoad(pool: pg.Pool, actor: string, startLot: number, lots: number, entries: number) {
+  const perLot = Math.floor(entries / lots);
+  let extra = entries - perLot * lots;
+  // Entry ids (an identity column) taken from its sequence as one range; COPY writes given ids.
+  const seq = `pg_get_serial_sequence('entries', 'id')`;
+  const [{ start }] = (await pool.query(`SELECT nextval(${seq})::text AS "start"`)).rows as Array<{
+    start: string;
+  }>;
+  await pool.query(`SELECT setval(${seq}, $1::bigint + $2)`, [start, entries]);
+  let entryId = Number(start);
+  const jobs: Array<{ id: number; first: number; counts: number[]; actor: string; firstEntryId: number }> =
+    [];
+  for (let b = 0; b < lots; b += BATCH) {
+    const counts: number[] = [];
+    for (let l = b; l < Math.min(lots, b + BATCH); l++) counts.push(perLot + (extra-- > 0 ? 1 : 0));
+    jobs.push({ id: jobs.length, first: startLot + b, counts, actor, firstEntryId: entryId });
+    entryId += counts.reduce((a, c) => a + c, 0);
+  }
+  const threads = Math.max(1, Math.min(availableParallelism(), jobs.length));
+  const workers = Array.from(
+    { length: threads },
+    () => new Worker(new URL('./build-worker.mjs', import.meta.url)),
+  );
+  const done = new Map<number, Built>();
+  const waiting = new Map<number, { resolve: (b: Built) => void; reject: (e: Error) => void }>();
+  let failed: Error | undefined;
+  let queued = 0;
+  const builtBy = new Map<number, Worker>();
+  const feed = (w: Worker) => {
+    // Each worker holds at most two jobs, so built text waiting to be written stays bounded.
+    if (queued >= jobs.length) return;
+    builtBy.set(queued, w);
+    w.postMessage(jobs[queued++]);
+  };
+  for (const w of workers) {
+    w.on('message', (b: Built) => {
+      const wake = waiting.get(b.id);
+      if (wake) {
+        waiting.delete(b.id);
+        wake.resolve(b);
+      } else done.set(b.id, b);
+    });
+    w.on('error', (e) => {
+      failed = e;
+      for (const w of waiting.values()) w.reject(e);
+      waiting.clear();
+    });
+    feed(w);
+    feed(w);
+  }
+  const next = (id: number) =>
+    new Promise<Built>((resolve, reject) => {
+      if (failed) return reject(failed);
+      const b = done.get(id);
+      if (b) {
+        done.delete(id);
+        return resolve(b);
+      }
+      waiting.set(id, { resolve, reject });
+    });
+  let written = 0;
+  try {
+    for (const job of jobs) {
+      const b = await next(job.id);
+      // The worker that built it takes the next job.
+      feed(builtBy.get(job.id)!);
+      const client = await pool.connect();
+      try {
+        await client.query('BEGIN');
+        await copy(
+          client,
+          'COPY "lots" ("id", "code", "head_seq", "head_hash", "head_time", "state") FROM STDIN',
+          b.lots,
+        );
+        await copy(
+          client,
+          'COPY "entries" ("id", "lot_id", "seq", "kind", "actor", "time", "hash", "header") FROM STDIN',
+          b.entries,
+        );
+        await copy(client, 'COPY "entry_bodies" ("entry_id", "body") FROM STDIN', b.bodies);
+        await copy(
+          client,
+          `COPY "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
+             "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
+             "search_text", "registered_at", "updated_at") FROM STDIN`,
+          b.views,
+        );
+        await client.query('COMMIT');
+      } catch (e) {
+        await client.query('ROLLBACK');
+        throw e;
+      } finally {
+        client.release();
+      }
+      written += b.written;
+      if (lots > BATCH) process.stdout.write(`\r  ${written.toLocaleString('en')} entries written`);
+    }
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+  if (lots > BATCH) process.stdout.write('\n');
+  await pool.query('ANALYZE');
+}
+
 const COLOURS = ['amber', 'cobalt', 'white', 'green', 'red', 'black', 'yellow', 'turquoise', 'rose', 'grey'];
-const FORMS = ['loose', 'strand', 'necklace', 'piece', 'mixed'] as const;
 const WORDS = [
   'chevron',
   'rosetta',
@@ -61,145 +179,6 @@ const WORDS = [
   'drawn',
   'wound',
 ];
-
-/** COPY text format: backslash, tab, newline and carriage return escaped. */
-const esc = (v: string | number | boolean | null) =>
-  v === null
-    ? '\\N'
-    : String(v).replace(/\\/g, '\\\\').replace(/\t/g, '\\t').replace(/\n/g, '\\n').replace(/\r/g, '\\r');
-const row = (cols: Array<string | number | boolean | null>) => `${cols.map(esc).join('\t')}\n`;
-
-async function copy(client: pg.PoolClient, sql: string, rows: Iterable<string>): Promise<void> {
-  await pipeline(Readable.from(rows), client.query(copyFrom(sql)));
-}
-
-/**
- * Writes `lots` lots with `entries` entries in all, as the ledger would: each roll built by
- * core's buildEntry and reduced by core's reduceEntry; lots, entries, bodies and the lot view
- * written by COPY in batches of lots, one transaction per batch.
- */
-async function bulkLoad(pool: pg.Pool, actor: string, startLot: number, lots: number, entries: number) {
-  const random = seededRandom(`scale-${startLot}`);
-  const perLot = Math.floor(entries / lots);
-  let extra = entries - perLot * lots;
-  const t0 = Date.UTC(2024, 0, 1);
-  const BATCH = 2000;
-  let written = 0;
-  for (let b = 0; b < lots; b += BATCH) {
-    const lotRows: string[] = [];
-    const entryRows: string[] = [];
-    const bodyRows: string[] = [];
-    const viewRows: string[] = [];
-    for (let l = b; l < Math.min(lots, b + BATCH); l++) {
-      const n = startLot + l;
-      const code = generateLotCode(random);
-      const id = randomUUID();
-      const count = perLot + (extra-- > 0 ? 1 : 0);
-      let head: RollHead | null = null;
-      let state: RollState | null = null;
-      let observations: string | null = null;
-      const colour = COLOURS[n % COLOURS.length]!;
-      const word = WORDS[Math.floor(n / COLOURS.length) % WORDS.length]!;
-      for (let seq = 0; seq < count; seq++) {
-        const time = new Date(t0 + n * 60_000 + seq * 1000).toISOString();
-        const draft =
-          seq === 0
-            ? {
-                lot: code,
-                kind: 'registered' as const,
-                body: {
-                  description: {
-                    title: `Lot ${n}: ${colour} ${word} beads`,
-                    form: FORMS[n % FORMS.length]!,
-                    count: { value: 10 + (n % 500), estimated: n % 2 === 0 },
-                    colours: [colour],
-                    baseGlass: ['opaque' as const],
-                    decoration: [],
-                    listed: n % 3 !== 0,
-                  },
-                },
-              }
-            : seq % 2 === 1
-              ? {
-                  kind: 'observed' as const,
-                  body: {
-                    observations: { hole: 'clean' as const, surface: 'worn' as const, note: `Look ${seq}.` },
-                  },
-                }
-              : { kind: 'note' as const, body: { text: `Entry ${seq} of lot ${n}, written in bulk.` } };
-        const built = buildEntry(head, { ...draft, time, actor }, { random });
-        state = reduceEntry(state, { header: built.header, hash: built.stored.hash, body: built.body });
-        head = headOf(built);
-        entryRows.push(
-          row([id, seq, built.header.kind, actor, time, built.stored.hash, built.stored.header]),
-        );
-        bodyRows.push(row([built.stored.hash, built.stored.body!]));
-        if (draft.kind === 'observed') observations = JSON.stringify(draft.body.observations);
-      }
-      const s = state!;
-      const d = s.description!;
-      lotRows.push(row([id, code, s.head.seq, s.head.hash, s.head.time, JSON.stringify(s)]));
-      viewRows.push(
-        row([
-          id,
-          code,
-          d.title,
-          d.form,
-          s.status,
-          s.holder,
-          s.listed,
-          s.attribution?.body?.origin ?? null,
-          s.remaining.value,
-          s.remaining.estimated,
-          s.dissents.length,
-          null,
-          observations,
-          s.head.seq,
-          [d.title, d.summary, d.colours.join(' '), d.decorationNote, d.condition].filter(Boolean).join(' '),
-          new Date(t0 + n * 60_000).toISOString(),
-          s.head.time,
-        ]),
-      );
-      written += count;
-    }
-    const client = await pool.connect();
-    try {
-      await client.query('BEGIN');
-      await copy(
-        client,
-        'COPY "lots" ("id", "code", "head_seq", "head_hash", "head_time", "state") FROM STDIN',
-        lotRows,
-      );
-      await copy(
-        client,
-        'COPY "entries" ("lot_id", "seq", "kind", "actor", "time", "hash", "header") FROM STDIN',
-        entryRows,
-      );
-      await client.query('CREATE TEMP TABLE "bulk_bodies" ("hash" char(64), "body" text) ON COMMIT DROP');
-      await copy(client, 'COPY "bulk_bodies" ("hash", "body") FROM STDIN', bodyRows);
-      await client.query(
-        `INSERT INTO "entry_bodies" ("entry_id", "body")
-         SELECT e."id", b."body" FROM "bulk_bodies" b JOIN "entries" e ON e."hash" = b."hash"`,
-      );
-      await copy(
-        client,
-        `COPY "lot_views" ("lot_id", "code", "title", "form", "status", "holder", "listed", "origin",
-           "count_value", "count_estimated", "dissent_count", "offer_recipient", "observations", "head_seq",
-           "search_text", "registered_at", "updated_at") FROM STDIN`,
-        viewRows,
-      );
-      await client.query('COMMIT');
-    } catch (e) {
-      await client.query('ROLLBACK');
-      throw e;
-    } finally {
-      client.release();
-    }
-    if (lots > BATCH) process.stdout.write(`\r  ${written.toLocaleString('en')} entries written`);
-  }
-  if (lots > BATCH) process.stdout.write('\n');
-  await pool.query('ANALYZE');
-}
 
 const pct = (xs: number[], p: number) =>
   [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(xs.length * p))]!;
@@ -270,6 +249,26 @@ interface Figures {
   auditPeakMb: number;
 }
 
+/**
+ * A GET, asked again once when the connection was reset before an answer (a kept-alive
+ * connection the server closed just then); a server that has gone is named as such.
+ */
+async function getOnce(url: string, headers: Record<string, string>, app: BenchApp): Promise<Response> {
+  try {
+    return await fetch(url, { headers });
+  } catch (e) {
+    const code = ((e as Error).cause as { code?: string } | undefined)?.code;
+    try {
+      process.kill(app.pid, 0);
+    } catch {
+      throw new Error(`the app has ended (${code ?? String(e)})`);
+    }
+    if (code !== 'ECONNRESET') throw e;
+    console.log(`  (connection reset; asked again: ${url.replace(app.origin, '')})`);
+    return fetch(url, { headers });
+  }
+}
+
 async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, string>, actor: string) {
   const [{ n }] = (await pool.query('SELECT count(*)::int AS n FROM "entries"')).rows as Array<{ n: number }>;
   const codes = (
@@ -304,7 +303,7 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
   for (let i = 0; i < 60; i++) {
     const q = `${COLOURS[i % COLOURS.length]} ${WORDS[i % WORDS.length]}`;
     const t = performance.now();
-    const r = await fetch(`${app.origin}/api/lots?mine=true&q=${encodeURIComponent(q)}`, { headers });
+    const r = await getOnce(`${app.origin}/api/lots?mine=true&q=${encodeURIComponent(q)}`, headers, app);
     await r.arrayBuffer();
     if (!r.ok) throw new Error(`search answered ${r.status}`);
     searches.push(performance.now() - t);

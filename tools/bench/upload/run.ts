@@ -92,7 +92,7 @@ async function main(): Promise<void> {
     EXHIBIT_QUOTA_BYTES: String(10 * 1024 * 1024 * 1024),
     // glibc's allocator set as tools/start.ts sets it for the app (see there and mallopt(3)).
     MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2',
-    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '131072',
+    MALLOC_MMAP_THRESHOLD_: process.env.MALLOC_MMAP_THRESHOLD_ ?? '69632',
   };
   const { ensureJwtSecret } = await import('../../lib/app-env.ts');
   env.JWT_SECRET_FILE = ensureJwtSecret(join(base, 'data'));
@@ -151,6 +151,8 @@ async function main(): Promise<void> {
     sink.server.close();
     console.log(`exhibits: ${COUNT} photos to lot ${code}…`);
     const measured = await uploadAll(() => `${origin}/api/lots/${code}/exhibits`, files, headers);
+    const onePeakMb = vm(pid, 'VmHWM');
+    writeFileSync(`/proc/${pid}/clear_refs`, '5');
     // A slow machine can outlast the 15-minute access token: renew it (no password hashing, so
     // the memory peak stays the uploads' own).
     const renewed = await fetch(`${origin}/api/auth/session/refresh`, { method: 'POST', headers });
@@ -160,7 +162,8 @@ async function main(): Promise<void> {
     headers.Cookie = [...fresh.values()].join('; ');
     console.log(`exhibits: the same ${COUNT} photos again, 4 at a time, to lot ${code}…`);
     const together = await uploadAll(() => `${origin}/api/lots/${code}/exhibits`, files, headers, 4);
-    const peakMb = vm(pid, 'VmHWM');
+    const fourPeakMb = vm(pid, 'VmHWM');
+    const peakMb = Math.max(onePeakMb, fourPeakMb);
 
     console.log('');
     console.log(
@@ -181,6 +184,9 @@ async function main(): Promise<void> {
     );
     console.log(
       `server RSS idle ${idleMb.toFixed(0)} MB, peak through both runs ${peakMb.toFixed(0)} MB (target < ${RSS_TARGET_MB} MB): ${peakMb < RSS_TARGET_MB ? 'met' : 'NOT met'}`,
+    );
+    console.log(
+      `server RSS peak one at a time ${onePeakMb.toFixed(0)} MB, 4 at a time ${fourPeakMb.toFixed(0)} MB, after both ${vm(pid, 'VmRSS').toFixed(0)} MB`,
     );
     console.log(`server RSS peak from boot to the first upload (start, sign-in) ${bootPeakMb.toFixed(0)} MB`);
   } finally {

@@ -151,6 +151,11 @@ export class AccountsService {
     );
   }
 
+  /** Whether an account's application document is the file with this SHA-256. */
+  namesDocument(sha256: string, m: EntityManager): Promise<boolean> {
+    return m.getRepository(Account).exists({ where: { documentSha256: sha256 } });
+  }
+
   /** The principal of an account that is not closed, as the guard hands it to routes; or null. */
   async principal(id: string): Promise<Principal | null> {
     const a = ACCOUNT_ID.test(id) ? await this.accounts.findOne({ where: { id } }) : null;

@@ -1,10 +1,10 @@
 import { Body, Controller, Get, Param, ParseUUIDPipe, Query, Res, StreamableFile } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, type Principal, Roles } from '../auth/auth.decorators';
 import { ApplicantResponse, ReasonDto, RegistryQueryDto, RegistryPage } from './dto/registry.dto';
 import { RegistryService } from './registry.service';
-import { Action, Read } from '../common/route.decorators';
+import { Action, FileAnswer, Read } from '../common/route.decorators';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -23,7 +23,7 @@ export class RegistryController {
 
   @Get(':id/document')
   @ApiOperation({ summary: 'Download the document an applicant sent with their application' })
-  @ApiProduces('application/pdf', 'image/jpeg', 'image/png')
+  @FileAnswer('the document as the applicant sent it', 'application/pdf', 'image/jpeg', 'image/png')
   async document(
     @Param('id', ParseUUIDPipe) id: string,
     @Res({ passthrough: true }) res: Response,

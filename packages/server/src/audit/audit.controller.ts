@@ -1,8 +1,9 @@
 import { Controller, Get, Res } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiExtraModels, ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { Roles } from '../auth/auth.decorators';
 import { AuditService } from './audit.service';
+import { AUDIT_EVENT_SCHEMA, AUDIT_EVENTS } from './dto/audit-events.dto';
 
 @ApiTags('audit')
 @Controller('audit')
@@ -16,6 +17,8 @@ export class AuditController {
       'Full-ledger audit: streams one JSON object a line (start, progress, broken, done) while every roll is verified',
   })
   @ApiProduces('application/x-ndjson')
+  @ApiExtraModels(...AUDIT_EVENTS)
+  @ApiOkResponse({ description: 'one such event a line', schema: AUDIT_EVENT_SCHEMA })
   async run(@Res() res: Response): Promise<void> {
     res.setHeader('Content-Type', 'application/x-ndjson; charset=utf-8');
     res.setHeader('Cache-Control', 'no-store');

@@ -1,5 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import {
+  createRollVerifier,
   decodeHeader,
   entryHash,
   isHeaderProblem,
@@ -13,13 +14,15 @@ import {
   type Observations,
   type RedactedBody,
   type RollState,
+  type RollVerification,
   type SoldBody,
   type SplitBody,
   type TransferAnswerBody,
   type TransferOfferedBody,
+  type VerifiedEntry,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
-import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
+import { jsonDifferences, replayStoredRoll, type StoredEntryRow } from '../ledger/roll-replay';
 import { lotViewValues } from '../lots/lot-view.projector';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 import { attributionRecordOf } from '../lots/attribution-record';
@@ -98,11 +101,108 @@ export type AuditEvent =
       finishedAt: string;
     };
 
-const LOT_BATCH = 200;
+/** Lots checked per batch, and most entries a batch reads at once. */
+const LOT_BATCH = 500;
+const BATCH_ENTRIES = 20_000;
+
+type EntryRowOf = {
+  lot_id: string;
+  id: string;
+  seq: number;
+  kind: string;
+  actor: string;
+  time: string;
+  hash: string;
+  header: string;
+  body: string | null;
+  redacts_seq: number | null;
+  log_index: string | null;
+};
+
+interface SealedRow {
+  lot_id: string;
+  seq: number;
+  name: string;
+  salt: string;
+  value: string;
+  commitment: string;
+  visible_to: string[];
+}
+
+interface ExhibitRow {
+  lot_id: string;
+  seq: number;
+  lot_code: string;
+  added_by: string;
+  sealed: boolean;
+  original_sha256: string;
+  ref: ExhibitRef;
+}
+
+interface OfferRow {
+  lot_id: string;
+  code: string;
+  offer_seq: number;
+  offerer: string;
+  recipient: string | null;
+  status: string;
+  offered_at: Date;
+  answer_seq: number | null;
+  answered_at: Date | null;
+}
+
+interface SaleRow {
+  lot_id: string;
+  code: string;
+  seq: number;
+  seller: string;
+  sold_on: string;
+  recorded_at: Date;
+}
+
+/** A batch of lots and the rows of theirs the audit compares, by lot id. */
+interface LotBatch {
+  lots: LotRow[];
+  /** Each lot's entry rows in seq order; a lot missing here is replayed from the database. */
+  entries: Map<string, EntryRowOf[]>;
+  views: Map<string, Record<string, unknown>>;
+  sealed: Map<string, SealedRow[]>;
+  exhibits: Map<string, ExhibitRow[]>;
+  offers: Map<string, OfferRow[]>;
+  sales: Map<string, SaleRow[]>;
+}
+
+/** Replays rows already read (a whole roll in seq order) through core's incremental verifier. */
+function replayRows(
+  lot: { code: string },
+  rows: readonly EntryRowOf[],
+  visit: (row: StoredEntryRow, entry: VerifiedEntry) => void,
+): { result: RollVerification; entries: number } {
+  const v = createRollVerifier(lot.code);
+  for (const r of rows) {
+    const row = {
+      id: r.id,
+      seq: r.seq,
+      kind: r.kind,
+      actor: r.actor,
+      time: r.time,
+      hash: r.hash,
+      header: r.header,
+      body: r.body,
+      redactsSeq: r.redacts_seq,
+      logIndex: r.log_index === null ? null : Number(r.log_index),
+    };
+    const failure = v.push(row);
+    if (failure) return { result: failure, entries: rows.length };
+    visit(row, v.last!);
+  }
+  return { result: v.finish(), entries: rows.length };
+}
 
 /**
- * The registrar's full-ledger audit: every roll is streamed from the database in pages through
- * core's incremental verifier (memory stays flat however long a roll is), every parent link a
+ * The registrar's full-ledger audit: every roll is streamed from the database through core's
+ * incremental verifier, lots in batches read with one statement per table, a roll longer than a
+ * batch a page at a time (memory stays flat however long a roll is), every parent link a
  * child names is checked against the parent's stored entry, and every copy the database keeps
  * beside the canonical strings is compared with what the roll says: the `seq`, `kind`, `actor`,
  * `time` and `redacts_seq` columns of each entry with its header, the lot's cached head and
@@ -126,17 +226,15 @@ export class AuditService {
     let lotsChecked = 0;
     let entriesChecked = 0;
     let broken = 0;
-    let after = '';
+    // The next batch is read while this one is checked.
+    let next = this.readBatch('');
     for (;;) {
-      const lots: LotRow[] = await this.dataSource.query(
-        `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state" FROM "lots"
-          WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
-        [after, LOT_BATCH],
-      );
-      if (lots.length === 0) break;
-      for (const lot of lots) {
-        after = lot.code;
-        const problem = await this.checkLot(lot, (n) => (entriesChecked += n));
+      const batch = await next;
+      if (batch.lots.length === 0) break;
+      next = this.readBatch(batch.lots[batch.lots.length - 1]!.code);
+      next.catch(() => undefined); // awaited on the next turn; a failure is thrown there
+      for (const lot of batch.lots) {
+        const problem = await this.checkLot(lot, (n) => (entriesChecked += n), batch);
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -157,7 +255,91 @@ export class AuditService {
     };
   }
 
-  private async checkLot(lot: LotRow, counted: (n: number) => void): Promise<LotProblem | null> {
+  /**
+   * The lots after `after` in code order, up to LOT_BATCH lots or BATCH_ENTRIES entries, with
+   * every row the checks compare, read in one statement per table for the whole batch. A roll
+   * longer than BATCH_ENTRIES comes alone and is replayed a page at a time, so memory stays flat.
+   */
+  private async readBatch(after: string): Promise<LotBatch> {
+    const lots: Array<LotRow & { entries: number }> = await this.dataSource.query(
+      `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state", "head_seq" + 1 AS "entries" FROM "lots"
+        WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
+      [after, LOT_BATCH],
+    );
+    let total = 0;
+    let count = 0;
+    while (count < lots.length && (count === 0 || total + lots[count]!.entries <= BATCH_ENTRIES))
+      total += lots[count++]!.entries;
+    const chosen = lots.slice(0, count);
+    const batch: LotBatch = {
+      lots: chosen,
+      entries: new Map(),
+      views: new Map(),
+      sealed: new Map(),
+      exhibits: new Map(),
+      offers: new Map(),
+      sales: new Map(),
+    };
+    if (chosen.length === 0) return batch;
+    const ids = chosen.map((l) => l.id);
+    const byLot = <T extends { lot_id: string }>(rows: T[], into: Map<string, T[]>) => {
+      for (const r of rows) {
+        const list = into.get(r.lot_id);
+        if (list) list.push(r);
+        else into.set(r.lot_id, [r]);
+      }
+    };
+    const [entries, views, sealed, exhibits, offers, sales] = await Promise.all([
+      total <= BATCH_ENTRIES
+        ? (this.dataSource.query(
+            `SELECT e."lot_id", e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body",
+                    e."redacts_seq", e."log_index"
+               FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
+              WHERE e."lot_id" = ANY($1) ORDER BY e."lot_id", e."seq"`,
+            [ids],
+          ) as Promise<EntryRowOf[]>)
+        : Promise.resolve([] as EntryRowOf[]),
+      this.dataSource.query('SELECT * FROM "lot_views" WHERE "lot_id" = ANY($1)', [ids]) as Promise<
+        Array<Record<string, unknown> & { lot_id: string }>
+      >,
+      this.dataSource.query(
+        `SELECT e."lot_id", e."seq", s."name", s."salt", s."value", s."commitment", s."visible_to" FROM "sealed_fields" s
+           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = ANY($1) ORDER BY e."lot_id", e."seq", s."name"`,
+        [ids],
+      ) as Promise<SealedRow[]>,
+      this.dataSource.query(
+        `SELECT "lot_id", "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
+          WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "seq"`,
+        [ids],
+      ) as Promise<ExhibitRow[]>,
+      this.dataSource.query(
+        `SELECT "lot_id", "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
+           FROM "transfer_offers" WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "offer_seq"`,
+        [ids],
+      ) as Promise<OfferRow[]>,
+      this.dataSource.query(
+        `SELECT "lot_id", "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
+          WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "seq"`,
+        [ids],
+      ) as Promise<SaleRow[]>,
+    ]);
+    if (total <= BATCH_ENTRIES) {
+      batch.entries = new Map(ids.map((id) => [id, []]));
+      byLot(entries, batch.entries);
+    }
+    for (const v of views) batch.views.set(v.lot_id, v);
+    byLot(sealed, batch.sealed);
+    byLot(exhibits, batch.exhibits);
+    byLot(offers, batch.offers);
+    byLot(sales, batch.sales);
+    return batch;
+  }
+
+  private async checkLot(
+    lot: LotRow,
+    counted: (n: number) => void,
+    batch: LotBatch,
+  ): Promise<LotProblem | null> {
     const diffs: StoredCopyDifference[] = [];
     const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
       diffs.push({ table, column, seq, stored: shown(stored), roll: shown(roll) });
@@ -167,7 +349,8 @@ export class AuditService {
     const sealedActors = new Map<number, string>();
     const offerRecipients = new Map<number, string>();
     const kept = new Map<number, KeptEntry>();
-    const { result, entries } = await replayStoredRoll(this.dataSource.manager, lot, (row, e) => {
+    const read = batch.entries.get(lot.id);
+    const visit = (row: StoredEntryRow, e: VerifiedEntry) => {
       const h = e.header;
       if (h.seq === 0) first = h;
       // Every column kept beside the canonical header must say what the header says.
@@ -186,7 +369,10 @@ export class AuditService {
       }
       if (KEPT_KINDS.has(h.kind))
         kept.set(h.seq, { kind: h.kind, actor: h.actor, time: h.time, body: e.body });
-    });
+    };
+    const { result, entries } = read
+      ? replayRows(lot, read, visit)
+      : await replayStoredRoll(this.dataSource.manager, lot, visit);
     counted(entries);
     if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
     const state = JSON.parse(JSON.stringify(result.state)) as RollState;
@@ -198,11 +384,7 @@ export class AuditService {
     for (const d of jsonDifferences(lot.state, state))
       differs('lots', `state.${d.path}`, null, d.stored, d.expected);
 
-    const views: Array<Record<string, unknown>> = await this.dataSource.query(
-      'SELECT * FROM "lot_views" WHERE "lot_id" = $1',
-      [lot.id],
-    );
-    const view = views[0];
+    const view = batch.views.get(lot.id);
     if (!view) differs('lot_views', '(row)', null, 'missing', 'one row');
     else {
       const want = lotViewValues(state, observations, await attributionRecordOf(this.reader, state));
@@ -231,18 +413,7 @@ export class AuditService {
 
     // Sealed values: each commitment recomputed from its salt and value, the commitments of an
     // entry hashed to the root in its header. (A closed account's own values may be gone.)
-    const sealed: Array<{
-      seq: number;
-      name: string;
-      salt: string;
-      value: string;
-      commitment: string;
-      visible_to: string[];
-    }> = await this.dataSource.query(
-      `SELECT e."seq", s."name", s."salt", s."value", s."commitment", s."visible_to" FROM "sealed_fields" s
-           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = $1 ORDER BY e."seq", s."name"`,
-      [lot.id],
-    );
+    const sealed = batch.sealed.get(lot.id) ?? [];
     const bySeq = new Map<number, Record<string, string>>();
     for (const f of sealed) {
       let value: unknown;
@@ -265,12 +436,14 @@ export class AuditService {
     // The values of a closed account's own entries are deleted on purpose; every other entry
     // whose header commits sealed fields keeps them.
     const closed = new Set(
-      (
-        (await this.dataSource.query(
-          `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
-          [[...new Set(sealedActors.values())]],
-        )) as Array<{ id: string }>
-      ).map((r) => r.id),
+      sealedActors.size === 0
+        ? []
+        : (
+            (await this.dataSource.query(
+              `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
+              [[...new Set(sealedActors.values())]],
+            )) as Array<{ id: string }>
+          ).map((r) => r.id),
     );
     for (const [seq, root] of sealedRoots) {
       const commitments = bySeq.get(seq);
@@ -286,7 +459,7 @@ export class AuditService {
     for (const seq of bySeq.keys())
       if (!sealedRoots.has(seq)) differs('sealed_fields', 'commitment', seq, 'fields', 'no sealed root');
 
-    await this.checkFeatureRows(lot, kept, sealed, differs);
+    await this.checkFeatureRows(lot, kept, sealed, differs, batch);
 
     const parents = (first as EntryHeader | null)?.parents ?? [];
     for (const p of parents) {
@@ -332,6 +505,7 @@ export class AuditService {
     kept: Map<number, KeptEntry>,
     sealed: Array<{ seq: number; name: string; value: string }>,
     differs: (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) => void,
+    batch: LotBatch,
   ): Promise<void> {
     const same = (a: unknown, b: unknown) => jsonDifferences(a, b, 1).length === 0;
     const sameTime = (stored: unknown, time: string) =>
@@ -342,18 +516,7 @@ export class AuditService {
       if (e?.kind !== kind) differs(table, '(row)', seq, row, e ? `a ${e.kind} entry` : 'no such entry');
       return e?.kind === kind ? e : undefined;
     };
-    const exhibits: Array<{
-      seq: number;
-      lot_code: string;
-      added_by: string;
-      sealed: boolean;
-      original_sha256: string;
-      ref: ExhibitRef;
-    }> = await this.dataSource.query(
-      `SELECT "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
-        WHERE "lot_id" = $1 ORDER BY "seq"`,
-      [lot.id],
-    );
+    const exhibits = batch.exhibits.get(lot.id) ?? [];
     for (const x of exhibits) {
       const e = entryFor('exhibits', x.seq, 'exhibit-added', 'an exhibit');
       if (!e) continue;
@@ -379,20 +542,7 @@ export class AuditService {
         differs('exhibits', 'ref', x.seq, x.ref, committed);
     }
 
-    const offers: Array<{
-      code: string;
-      offer_seq: number;
-      offerer: string;
-      recipient: string | null;
-      status: string;
-      offered_at: Date;
-      answer_seq: number | null;
-      answered_at: Date | null;
-    }> = await this.dataSource.query(
-      `SELECT "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
-         FROM "transfer_offers" WHERE "lot_id" = $1 ORDER BY "offer_seq"`,
-      [lot.id],
-    );
+    const offers = batch.offers.get(lot.id) ?? [];
     const offerSeqs = [...kept].filter(([, e]) => e.kind === 'transfer-offered').map(([seq]) => seq);
     for (const seq of offerSeqs)
       if (!offers.some((o) => o.offer_seq === seq))
@@ -423,12 +573,7 @@ export class AuditService {
         differs('transfer_offers', 'answered_at', o.offer_seq, o.answered_at, answer?.[1].time ?? null);
     }
 
-    const sales: Array<{ code: string; seq: number; seller: string; sold_on: string; recorded_at: Date }> =
-      await this.dataSource.query(
-        `SELECT "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
-          WHERE "lot_id" = $1 ORDER BY "seq"`,
-        [lot.id],
-      );
+    const sales = batch.sales.get(lot.id) ?? [];
     for (const x of sales) {
       const e = entryFor('sales', x.seq, 'sold', 'a sale');
       if (!e) continue;

@@ -1,5 +1,11 @@
 import { applyDecorators, Get, Header, HttpCode, Post, Put, type Type, UseGuards } from '@nestjs/common';
-import { ApiAcceptedResponse, ApiOkResponse, ApiOperation, ApiProduces } from '@nestjs/swagger';
+import {
+  ApiAcceptedResponse,
+  ApiCreatedResponse,
+  ApiOkResponse,
+  ApiOperation,
+  ApiProduces,
+} from '@nestjs/swagger';
 import { Public, type Role, Roles, RollWriter } from '../auth/auth.decorators';
 import { RateLimitGuard } from '../auth/rate-limit.guard';
 
@@ -9,6 +15,10 @@ export type RouteBody = Type<unknown> | [Type<unknown>];
 /** Summary and 200 body in the OpenAPI document. */
 export const Documented = (summary: string, type: RouteBody) =>
   applyDecorators(ApiOperation({ summary }), ApiOkResponse({ type }));
+
+/** Summary and 201 body: a POST that keeps Nest's own status for a new thing. */
+const DocumentedCreated = (summary: string, type: RouteBody) =>
+  applyDecorators(ApiOperation({ summary }), ApiCreatedResponse({ type }));
 
 /** The roll-writer mark, after an optional role check on the route itself. */
 const writer = (roles: Role[]) => applyDecorators(...(roles.length ? [Roles(...roles)] : []), RollWriter());
@@ -34,11 +44,16 @@ export const DealerRollWrite = (
   summary: string,
   type: RouteBody,
 ) =>
-  applyDecorators(method === 'POST' ? Post(path) : Put(path), writer(['dealer']), Documented(summary, type));
+  applyDecorators(
+    ...(method === 'POST'
+      ? [Post(path), DocumentedCreated(summary, type)]
+      : [Put(path), Documented(summary, type)]),
+    writer(['dealer']),
+  );
 
 /** A POST that writes a new entry on a roll (Nest's 201), for `roles` when given. */
 export const RollWrite = (path: string | undefined, summary: string, type: RouteBody, ...roles: Role[]) =>
-  applyDecorators(Post(path), writer(roles), Documented(summary, type));
+  applyDecorators(Post(path), writer(roles), DocumentedCreated(summary, type));
 
 /** An {@link Action} that writes on a roll (accept, withdraw...), for `roles` when given. */
 export const RollAction = (path: string, summary: string, type: RouteBody, ...roles: Role[]) =>
@@ -57,5 +72,20 @@ export const SheetDownload = (summary: string) =>
     Get('export'),
     Header('Cache-Control', 'no-store'),
     ApiOperation({ summary }),
-    ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'),
+    FileAnswer(
+      'the list as a file',
+      'text/csv',
+      'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    ),
+  );
+
+/** A 200 answer that is plain text (`text/plain`), described in the OpenAPI document. */
+export const TextAnswer = (description: string) =>
+  applyDecorators(ApiProduces('text/plain'), ApiOkResponse({ description, schema: { type: 'string' } }));
+
+/** A 200 answer that is a file of one of `types`, described in the OpenAPI document as bytes. */
+export const FileAnswer = (description: string, ...types: string[]) =>
+  applyDecorators(
+    ApiProduces(...types),
+    ApiOkResponse({ description, schema: { type: 'string', format: 'binary' } }),
   );

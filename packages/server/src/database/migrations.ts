@@ -16,6 +16,7 @@ import { AddSaleVoidedKind1796490600000 } from '../migrations/1796490600000-AddS
 import { InheritedAttributionInSearch1796490800000 } from '../migrations/1796490800000-InheritedAttributionInSearch';
 import { OpinionRequestsOnTheRoll1796490900000 } from '../migrations/1796490900000-OpinionRequestsOnTheRoll';
 import { ApplicantDocument1796491000000 } from '../migrations/1796491000000-ApplicantDocument';
+import { CheckpointOrigins1796491100000 } from '../migrations/1796491100000-CheckpointOrigins';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -36,4 +37,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   InheritedAttributionInSearch1796490800000,
   OpinionRequestsOnTheRoll1796490900000,
   ApplicantDocument1796491000000,
+  CheckpointOrigins1796491100000,
 ];

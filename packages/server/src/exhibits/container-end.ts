@@ -14,7 +14,12 @@ function isPadding(buf: Buffer): boolean {
   return true;
 }
 
+/**
+ * Positioned reads through one reused 64 KiB window. What `read` returns is valid only until
+ * the next call: every caller here looks at it and moves on.
+ */
 class Reader {
+  private readonly window = Buffer.allocUnsafe(64 * 1024);
   private buf = Buffer.alloc(0);
   private start = 0;
   constructor(
@@ -26,8 +31,8 @@ class Reader {
   async read(pos: number, n: number): Promise<Buffer> {
     if (pos >= this.start && pos + n <= this.start + this.buf.length)
       return this.buf.subarray(pos - this.start, pos - this.start + n);
-    const len = Math.max(n, 64 * 1024);
-    const out = Buffer.alloc(Math.min(len, Math.max(0, this.size - pos)));
+    const len = Math.min(Math.max(n, this.window.length), Math.max(0, this.size - pos));
+    const out = len <= this.window.length ? this.window.subarray(0, len) : Buffer.allocUnsafe(len);
     const { bytesRead } = await this.fh.read(out, 0, out.length, pos);
     this.buf = out.subarray(0, bytesRead);
     this.start = pos;
@@ -73,34 +78,35 @@ async function jpegEnd(r: Reader): Promise<number | ContainerCheck> {
     pos += 2 + len;
     if (pos > r.size) return truncated('ends inside a segment');
     if (marker === 0xda) {
-      // Scan entropy-coded data for the next real marker.
-      for (;;) {
-        if (pos >= r.size) return truncated('ends inside the image data');
-        const chunk = await r.read(pos, Math.min(64 * 1024, r.size - pos));
-        const i = chunk.indexOf(0xff);
-        if (i < 0) {
-          pos += chunk.length;
-          continue;
-        }
-        if (i + 1 >= chunk.length) {
-          if (pos + i + 1 >= r.size) return truncated('ends inside the image data');
-          const next = (await r.read(pos + i + 1, 1))[0];
-          if (next === 0x00 || (next >= 0xd0 && next <= 0xd7)) {
-            pos += i + 2;
-            continue;
-          }
-          pos += i;
-          break;
-        }
-        const next = chunk[i + 1];
-        if (next === 0x00 || (next >= 0xd0 && next <= 0xd7) || next === 0xff) {
-          pos += i + (next === 0xff ? 1 : 2);
-          continue;
-        }
-        pos += i;
-        break;
-      }
+      const end = await scanEnd(r, pos);
+      if (typeof end !== 'number') return end;
+      pos = end;
     }
+  }
+}
+
+/**
+ * From `pos` inside entropy-coded data, where the next real marker starts: an FF byte followed
+ * by anything but 00 (stuffing), D0–D7 (RSTn) or another FF (fill). A noisy photo has an FF
+ * every few hundred bytes, so each 64 KiB chunk is scanned in memory from one FF to the next.
+ */
+async function scanEnd(r: Reader, pos: number): Promise<number | ContainerCheck> {
+  for (;;) {
+    if (pos >= r.size) return truncated('ends inside the image data');
+    const chunk = await r.read(pos, Math.min(64 * 1024, r.size - pos));
+    let i = chunk.indexOf(0xff);
+    while (i >= 0 && i + 1 < chunk.length) {
+      const next = chunk[i + 1];
+      if (next === 0xff) i += 1;
+      else if (next === 0x00 || (next >= 0xd0 && next <= 0xd7)) i += 2;
+      else return pos + i;
+      i = chunk.indexOf(0xff, i);
+    }
+    // No FF left in the chunk, or one in its last byte: read on from there (a chunk that
+    // starts with that FF holds the byte after it too, as the file goes on).
+    if (i < 0) pos += chunk.length;
+    else if (pos + i + 1 >= r.size) return truncated('ends inside the image data');
+    else pos += i;
   }
 }
 

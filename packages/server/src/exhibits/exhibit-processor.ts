@@ -3,6 +3,7 @@ import { mkdir, open, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { Inject, Injectable } from '@nestjs/common';
 import { fileTypeFromFile } from 'file-type';
+import pLimit from 'p-limit';
 import sharp from 'sharp';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
@@ -38,10 +39,15 @@ export interface ProcessedExhibit {
   cleanup(): Promise<void>;
 }
 
-/** Long side in pixels of each derivative, largest first; derivatives are JPEG, which every browser shows. */
+/**
+ * Long side in pixels of each derivative, largest first; derivatives are JPEG, which every
+ * browser shows. Optimised Huffman tables make a file a few per cent smaller but hold every
+ * coefficient of the picture in memory while it is written: worth it for the thumbnails a list
+ * shows by the dozen, not for the web copy (about 20 MB more per upload being processed).
+ */
 const DERIVATIVES = [
-  { role: 'web', size: 1600, quality: 82 },
-  { role: 'thumbnail', size: 400, quality: 72 },
+  { role: 'web', size: 1600, quality: 82, optimiseCoding: false },
+  { role: 'thumbnail', size: 400, quality: 72, optimiseCoding: true },
 ] as const;
 
 const HEIC_TYPES = new Set(['image/heic', 'image/heif', 'image/heic-sequence', 'image/heif-sequence']);
@@ -84,6 +90,12 @@ async function describeUnknown(path: string): Promise<string> {
 @Injectable()
 export class ExhibitProcessor {
   private readonly workRoot: string;
+  /**
+   * Image jobs (an original, or a file's chain of derivatives) running at once, each on one
+   * libvips thread: as many as uploads may be processed together. A lone upload runs its two
+   * jobs side by side; busy, the jobs queue in order, so memory stays that of this many jobs.
+   */
+  private readonly jobs: pLimit.Limit;
 
   constructor(@Inject(APP_CONFIG) private readonly config: AppConfig) {
     // A small machine: one libvips worker thread per image, and no operation cache (each upload
@@ -91,6 +103,7 @@ export class ExhibitProcessor {
     sharp.concurrency(1);
     sharp.cache(false);
     this.workRoot = join(config.dataDir, 'tmp', 'exhibit-work');
+    this.jobs = pLimit(config.exhibits.processingConcurrency);
   }
 
   async process(inputPath: string): Promise<ProcessedExhibit> {
@@ -162,31 +175,39 @@ export class ExhibitProcessor {
       animated: false,
     }).autoOrient();
     const originalPath = join(work, 'original');
-    let info: sharp.OutputInfo;
-    try {
-      // Re-encoding writes no metadata unless asked (no keepExif/keepMetadata), so EXIF, GPS,
-      // XMP, IPTC and maker notes are all gone; autoOrient bakes the EXIF orientation in first.
-      const pipeline = input.clone();
-      const encoded =
-        mediaType === 'image/jpeg'
-          ? // Optimised Huffman tables need every coefficient of the photo in memory at once
-            // (about 64 MB more for a 3600 × 2400 photo); the standard tables stream.
-            pipeline.jpeg({ quality: 92, optimiseCoding: false })
-          : mediaType === 'image/png'
-            ? pipeline.png({ compressionLevel: 6 })
-            : mediaType === 'image/webp'
-              ? pipeline.webp({ quality: 90 })
-              : pipeline.avif({ quality: 60, effort: 2 });
-      info = await encoded.toFile(originalPath);
-    } catch {
-      throw bad('could not be decoded: the image is damaged or cut short');
-    }
+    // Re-encoding writes no metadata unless asked (no keepExif/keepMetadata), so EXIF, GPS,
+    // XMP, IPTC and maker notes are all gone; autoOrient bakes the EXIF orientation in first.
+    const pipeline = input.clone();
+    const encoded =
+      mediaType === 'image/jpeg'
+        ? // Optimised Huffman tables need every coefficient of the photo in memory at once
+          // (about 64 MB more for a 3600 × 2400 photo); the standard tables stream.
+          pipeline.jpeg({ quality: 92, optimiseCoding: false })
+        : mediaType === 'image/png'
+          ? pipeline.png({ compressionLevel: 6 })
+          : mediaType === 'image/webp'
+            ? pipeline.webp({ quality: 90 })
+            : pipeline.avif({ quality: 60, effort: 2 });
+    // The original and the derivatives are two jobs, side by side when the pool has room.
+    const [made, derived] = await Promise.allSettled([
+      this.jobs(() => encoded.toFile(originalPath)),
+      this.jobs(() => this.derive(input, work)),
+    ]);
+    if (made.status === 'rejected') throw bad('could not be decoded: the image is damaged or cut short');
+    if (derived.status === 'rejected') throw derived.reason;
+    const info = made.value;
     const original: ProcessedFile = { path: originalPath, mediaType, width: info.width, height: info.height };
+    const derivatives = derived.value;
+    return { original, derivatives };
+  }
+
+  /**
+   * The derivatives, largest first, each made from the one before it (the largest from the
+   * upload, with the JPEG decoder shrinking on load, so the full-size picture is never decoded
+   * here); libjpeg's standard encoder, several times faster than mozjpeg's trellis search.
+   */
+  private async derive(input: sharp.Sharp, work: string): Promise<ProcessedFile[]> {
     const derivatives: ProcessedFile[] = [];
-    // One after another, so that only one decoded image is in memory at a time. Each derivative
-    // is made from the one before it (the largest from the upload, with the JPEG decoder
-    // shrinking on load), so the full-size picture is decoded once for the original and never
-    // again; libjpeg's standard encoder, several times faster than mozjpeg's trellis search.
     let source = input;
     for (const d of DERIVATIVES) {
       const path = join(work, d.role);
@@ -194,11 +215,11 @@ export class ExhibitProcessor {
         .clone()
         .resize({ width: d.size, height: d.size, fit: 'inside', withoutEnlargement: true })
         .flatten({ background: '#ffffff' })
-        .jpeg({ quality: d.quality, mozjpeg: false })
+        .jpeg({ quality: d.quality, mozjpeg: false, optimiseCoding: d.optimiseCoding })
         .toFile(path);
       derivatives.push({ path, mediaType: 'image/jpeg', width: out.width, height: out.height, role: d.role });
       source = sharp(path, { failOn: 'error', sequentialRead: true });
     }
-    return { original, derivatives };
+    return derivatives;
   }
 }

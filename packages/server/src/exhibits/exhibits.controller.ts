@@ -9,8 +9,11 @@ import { READ_FROM_HEADER, readsOwnWrites } from '../standby/read-from';
 import { sendExhibitFile } from './exhibit-response';
 import { ExhibitsService } from './exhibits.service';
 import { IdempotencyInterceptor } from '../idempotency/idempotency.interceptor';
-import { UploadGuardInterceptor } from './upload';
-import { Read } from '../common/route.decorators';
+import { UploadGuardInterceptor, type UploadedExhibitFile } from './upload';
+import { FileAnswer, Read } from '../common/route.decorators';
+import { EXHIBIT_MEDIA_TYPES } from './exhibit-processor';
+
+const EXHIBIT_FILE = 'the file’s bytes; its SHA-256 is the ETag (web and thumb are JPEG)';
 
 @ApiTags('exhibits')
 @Controller('lots/:code/exhibits')
@@ -29,7 +32,7 @@ export class ExhibitsController {
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
     @Body() dto: AddExhibitDto,
-    @UploadedFile() file: { path: string } | undefined,
+    @UploadedFile() file: UploadedExhibitFile | undefined,
   ): Promise<AddExhibitResponse> {
     return this.exhibits.add(account, code, dto, file);
   }
@@ -47,6 +50,7 @@ export class ExhibitsController {
   @ApiOperation({
     summary: 'A file of an exhibit, for a viewer who may read the lot; sealed ones for their adder',
   })
+  @FileAnswer(EXHIBIT_FILE, ...EXHIBIT_MEDIA_TYPES)
   async file(
     @CurrentAccount() account: Principal,
     @Param('code') code: string,
@@ -67,6 +71,7 @@ export class PublicExhibitsController {
   @Get(':seq/:variant')
   @Public()
   @ApiOperation({ summary: 'A file of a public exhibit of a listed lot (variant original, web or thumb)' })
+  @FileAnswer(EXHIBIT_FILE, ...EXHIBIT_MEDIA_TYPES)
   async file(
     @Param('code') code: string,
     @Param('seq') seq: string,
@@ -90,6 +95,7 @@ export class PublicInheritedExhibitsController {
   @ApiOperation({
     summary: 'A file of an exhibit recorded on an ancestor of a listed lot, as its public data carries it',
   })
+  @FileAnswer(EXHIBIT_FILE, ...EXHIBIT_MEDIA_TYPES)
   async file(
     @Param('code') code: string,
     @Param('lot') lot: string,

@@ -11,26 +11,61 @@ import {
 } from '@nestjs/common';
 import type { MulterModuleOptions } from '@nestjs/platform-express';
 import type { Request, Response } from 'express';
+import type { StorageEngine } from 'multer';
 import { catchError, finalize, type Observable, throwError } from 'rxjs';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
+import { freshFileIn, spoolToFile } from '../storage/hashing';
 
 /** Folder for uploads in flight; files there have random names and never outlive their request. */
 export function uploadDir(config: AppConfig): string {
   return join(config.dataDir, 'tmp', 'uploads');
 }
 
+/** The uploaded file as the storage below leaves it: `sha256` is of the bytes as sent. */
+export interface UploadedExhibitFile {
+  path: string;
+  size?: number;
+  sha256?: string;
+}
+
+/**
+ * Multer storage that writes the file to a random name in `dir` and takes its SHA-256 on the
+ * way, so the bytes as sent are never read back just to hash them. A write that fails or is cut
+ * off removes its partial file; multer removes finished ones when the request fails later.
+ */
+class HashingDiskStorage implements StorageEngine {
+  constructor(private readonly dir: string) {}
+
+  _handleFile(_req: Request, file: Express.Multer.File, cb: (error?: unknown, info?: object) => void): void {
+    const spool = async (): Promise<UploadedExhibitFile> => {
+      const path = await freshFileIn(this.dir);
+      try {
+        return { path, ...(await spoolToFile(file.stream, path)) };
+      } catch (err) {
+        await rm(path, { force: true });
+        throw err;
+      }
+    };
+    spool().then((info) => cb(null, info), cb);
+  }
+
+  _removeFile(_req: Request, file: Express.Multer.File, cb: (error: Error | null) => void): void {
+    rm(file.path, { force: true }).then(() => cb(null), cb);
+  }
+}
+
 /**
  * Multer settings: straight to a temporary file on disk (never held whole in memory) under a
- * random name (the client's file name is never used in a path), with limits on every part.
+ * random name (the client's file name is never used in a path), hashed as it is written, with
+ * limits on every part.
  */
 export function multerOptions(config: AppConfig): MulterModuleOptions {
   const dir = uploadDir(config);
   mkdirSync(dir, { recursive: true, mode: 0o700 });
   return {
-    // With `dest`, multer writes to disk under 32 random hex digits of its own.
-    dest: dir,
+    storage: new HashingDiskStorage(dir),
     limits: {
       fileSize: config.exhibits.maxFileBytes,
       files: 1,

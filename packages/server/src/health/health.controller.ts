@@ -1,7 +1,9 @@
-import { Controller, Get } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { Controller } from '@nestjs/common';
+import { ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/auth.decorators';
-import { HealthService, type HealthReport } from './health.service';
+import { Read } from '../common/route.decorators';
+import { HealthResponse } from './dto/health-response.dto';
+import { HealthService } from './health.service';
 
 @ApiTags('health')
 @Controller('health')
@@ -9,9 +11,8 @@ export class HealthController {
   constructor(private readonly health: HealthService) {}
 
   @Public()
-  @Get()
-  @ApiOperation({ summary: 'Service and database status' })
-  report(): Promise<HealthReport> {
+  @Read(undefined, 'Service and database status', HealthResponse)
+  report(): Promise<HealthResponse> {
     return this.health.report();
   }
 }

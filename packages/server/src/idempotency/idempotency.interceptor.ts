@@ -36,12 +36,13 @@ async function fileDigest(path: string): Promise<string> {
 
 /** SHA-256 of what makes two requests the same request: method, path and query, body, uploaded file. */
 async function requestDigest(req: Request): Promise<string> {
-  const file = (req as Request & { file?: { path?: string } }).file;
+  // An exhibit upload's storage has taken the file's SHA-256 as it was written: not read again.
+  const file = (req as Request & { file?: { path?: string; sha256?: string } }).file;
   const parts = [
     req.method,
     req.originalUrl,
     req.body ?? null,
-    file?.path ? await fileDigest(file.path) : null,
+    file?.sha256 ?? (file?.path ? await fileDigest(file.path) : null),
   ];
   return createHash('sha256').update(JSON.stringify(parts)).digest('hex');
 }

@@ -1,6 +1,14 @@
-import { Injectable, Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
+import {
+  Inject,
+  Injectable,
+  Logger,
+  Optional,
+  type OnModuleDestroy,
+  type OnModuleInit,
+} from '@nestjs/common';
 import { DataSource, type EntityManager } from 'typeorm';
 import { outsideRequestTransaction } from '../idempotency/request-transaction';
+import { NO_LOG_JOBS } from '../log/log-jobs';
 
 /** Transaction advisory lock held by the one pass of the log sequencer at a time ("BRLOGSQ1"). */
 export const SEQUENCER_LOCK_KEY = 0x42524c4f47535131n;
@@ -47,9 +55,13 @@ export class LogSequencer implements OnModuleInit, OnModuleDestroy {
   private again = false;
   private timer?: NodeJS.Timeout;
 
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(
+    private readonly dataSource: DataSource,
+    @Optional() @Inject(NO_LOG_JOBS) private readonly noJobs?: boolean,
+  ) {}
 
   onModuleInit(): void {
+    if (this.noJobs) return;
     this.timer = setInterval(() => this.kick(), SWEEP_MS);
     this.timer.unref();
   }

@@ -2,6 +2,7 @@ import {
   Inject,
   Injectable,
   Logger,
+  Optional,
   type OnApplicationBootstrap,
   type OnModuleDestroy,
   type OnModuleInit,
@@ -23,6 +24,7 @@ import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { LogLeavesService } from '../ledger/log-leaves.service';
 import { loadLogSeed } from './log-key';
+import { NO_LOG_JOBS } from './log-jobs';
 import { LogGapError, LogTreeService } from './log-tree.service';
 
 /** Transaction advisory lock held by the one instance that signs a checkpoint ("BRLOGSG1"). */
@@ -40,6 +42,16 @@ export interface LatestCheckpoint {
   note: string;
   signedAt: Date;
 }
+
+/** Why the signer refuses to sign a grown log; it refuses every pass until the log is whole again. */
+export type SignRefusal = 'entry-missing' | 'log-shrank' | 'entry-changed';
+
+/** What a refusal means, in words fit for anyone who asks the service's health. */
+export const REFUSAL_WORDS: Record<SignRefusal, string> = {
+  'entry-missing': 'the log’s signer refuses to sign: an entry the log numbered is missing',
+  'log-shrank': 'the log’s signer refuses to sign: the log holds fewer entries than its last checkpoint',
+  'entry-changed': 'the log’s signer refuses to sign: a past entry no longer matches the last checkpoint',
+};
 
 /** Outcome of one signing pass. */
 export interface SignRun {
@@ -63,6 +75,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   private latestCache?: { at: number; value: LatestCheckpoint | null };
   /** The last refusal logged, so a refusal that stands is logged once, not every pass. */
   private refusal?: string;
+  private refusalKind?: SignRefusal;
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -70,6 +83,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     private readonly tree: LogTreeService,
     private readonly leaves: LogLeavesService,
     private readonly scheduler: SchedulerRegistry,
+    @Optional() @Inject(NO_LOG_JOBS) private readonly noJobs?: boolean,
   ) {}
 
   /** The log's signer, its key read (or made) on first use, which may come before module init. */
@@ -82,6 +96,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   }
 
   onModuleInit(): void {
+    if (this.noJobs) return;
     const timer = setInterval(() => {
       this.signIfDue().catch((err: unknown) =>
         this.logger.error(`checkpoint pass failed: ${(err as Error).message}`),
@@ -92,6 +107,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
   }
 
   async onApplicationBootstrap(): Promise<void> {
+    if (this.noJobs) return;
     this.logger.log(`log verifier key: ${this.verifierKey()}`);
     // The first start signs at once, so the checkpoint route always has an answer.
     await this.signIfDue().catch((err: unknown) =>
@@ -144,13 +160,16 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       if (!locked) return { signed: false };
       const last = (
         (await runner.query(
-          `SELECT "size", "root", extract(epoch FROM now() - "signed_at") AS "age"
-             FROM "log_checkpoints" ORDER BY "size" DESC LIMIT 1`,
-        )) as Array<{ size: string; root: string; age: string }>
+          `SELECT "origin", "size", "root", extract(epoch FROM now() - "signed_at") AS "age"
+             FROM "log_checkpoints" ORDER BY "size" DESC, "signed_at" DESC LIMIT 1`,
+        )) as Array<{ origin: string; size: string; root: string; age: string }>
       )[0];
       const size = await this.leaves.size(runner.manager);
-      if (last && Number(last.size) === size) return { signed: false, size };
-      if (last && !force && Number(last.age) < this.config.log.checkpointSeconds)
+      // The public address moved (another host or port): the newest checkpoint names the old
+      // origin, which the new key does not verify. Sign the current size again under the new one.
+      const moved = last !== undefined && last.origin !== this.signer.name;
+      if (last && !moved && Number(last.size) === size) return { signed: false, size };
+      if (last && !moved && !force && Number(last.age) < this.config.log.checkpointSeconds)
         return { signed: false, size };
       let tree: MerkleTree;
       try {
@@ -162,34 +181,44 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
         return this.refuse(
           size,
           `the log of ${size} entries has no entry at index ${err.index}: an entry was removed`,
+          'entry-missing',
         );
       }
       const root = tree.root(size);
       if (last) {
         const lastSize = Number(last.size);
-        const refused =
-          lastSize > size
-            ? `the log holds ${size} entries, fewer than its last checkpoint of ${lastSize}`
-            : !verifyConsistency(
-                  lastSize,
-                  size,
-                  tree.consistencyProof(lastSize, size),
-                  Uint8Array.from(Buffer.from(last.root, 'hex')),
-                  root,
-                )
-              ? `the log of ${size} entries is not consistent with its last checkpoint of ${lastSize}: a past entry changed`
-              : undefined;
-        if (refused) return this.refuse(size, refused);
+        if (lastSize > size)
+          return this.refuse(
+            size,
+            `the log holds ${size} entries, fewer than its last checkpoint of ${lastSize}`,
+            'log-shrank',
+          );
+        const consistent = verifyConsistency(
+          lastSize,
+          size,
+          tree.consistencyProof(lastSize, size),
+          Uint8Array.from(Buffer.from(last.root, 'hex')),
+          root,
+        );
+        if (!consistent)
+          return this.refuse(
+            size,
+            `the log of ${size} entries is not consistent with its last checkpoint of ${lastSize}: a past entry changed`,
+            'entry-changed',
+          );
       }
       const note = signNote(formatCheckpoint({ origin: this.signer.name, size, root }), this.signer);
-      await runner.query('INSERT INTO "log_checkpoints" ("size", "root", "note") VALUES ($1, $2, $3)', [
-        size,
-        hashHex(root),
-        note,
-      ]);
+      // Back to an origin signed before at this size: the same text and key give the same note,
+      // which becomes the newest again.
+      await runner.query(
+        `INSERT INTO "log_checkpoints" ("origin", "size", "root", "note") VALUES ($1, $2, $3, $4)
+         ON CONFLICT ON CONSTRAINT "pk_log_checkpoints" DO UPDATE SET "signed_at" = now()`,
+        [this.signer.name, size, hashHex(root), note],
+      );
       await runner.commitTransaction();
       this.latestCache = undefined;
       this.refusal = undefined;
+      this.refusalKind = undefined;
       return { signed: true, size };
     } finally {
       if (runner.isTransactionActive) await runner.rollbackTransaction();
@@ -197,10 +226,19 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     }
   }
 
-  private refuse(size: number, refused: string): SignRun {
+  private refuse(size: number, refused: string, kind: SignRefusal): SignRun {
     if (refused !== this.refusal) this.logger.error(`checkpoint refused: ${refused}`);
     this.refusal = refused;
+    this.refusalKind = kind;
     return { signed: false, size, refused };
+  }
+
+  /**
+   * The refusal standing since this instance's last signing pass, or null: the signer signed, or
+   * this instance has not found the log broken. Only the instance holding the signer's lock looks.
+   */
+  standingRefusal(): SignRefusal | null {
+    return this.refusalKind ?? null;
   }
 
   /** The latest signed checkpoint with its cosignatures, or null before the first. */
@@ -211,8 +249,9 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
       await this.dataSource.query(
         `SELECT c."size", c."root", c."note", c."signed_at",
                 (SELECT array_agg(s."line" ORDER BY s."received_at", s."witness_id")
-                   FROM "log_cosignatures" s WHERE s."checkpoint_size" = c."size") AS "lines"
-           FROM "log_checkpoints" c ORDER BY c."size" DESC LIMIT 1`,
+                   FROM "log_cosignatures" s
+                  WHERE s."checkpoint_origin" = c."origin" AND s."checkpoint_size" = c."size") AS "lines"
+           FROM "log_checkpoints" c ORDER BY c."size" DESC, c."signed_at" DESC LIMIT 1`,
       );
     const r = rows[0];
     const value = r

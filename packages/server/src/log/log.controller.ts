@@ -1,10 +1,17 @@
 import { Body, Controller, Get, Header, HttpCode, Post, Query } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/auth.decorators';
 import { AppError } from '../common/app-error';
 import { CheckpointsService } from './checkpoints.service';
 import { ConsistencyQueryDto, CosignatureDto, InclusionQueryDto, LeavesQueryDto } from './dto/log.dto';
+import {
+  ConsistencyProofResponse,
+  CosignatureResponse,
+  InclusionProofResponse,
+  LeavesResponse,
+} from './dto/log-responses.dto';
 import { LogService } from './log.service';
+import { TextAnswer } from '../common/route.decorators';
 import { WitnessesService } from './witnesses.service';
 
 /** The public face of the ledger-wide log: key, checkpoint, proofs, leaves, cosignatures. */
@@ -21,6 +28,7 @@ export class LogController {
   @Get('key')
   @Header('Content-Type', 'text/plain; charset=utf-8')
   @ApiOperation({ summary: 'The log’s verifier key: name+keyid+base64key' })
+  @TextAnswer('one line: the verifier key (C2SP signed-note)')
   key(): string {
     return this.checkpoints.verifierKey();
   }
@@ -28,6 +36,7 @@ export class LogController {
   @Get('witnesses')
   @Header('Content-Type', 'text/plain; charset=utf-8')
   @ApiOperation({ summary: 'Verifier keys of the registered witnesses, one a line' })
+  @TextAnswer('one verifier key a line, each ending in a newline; empty when there is no witness')
   async witnessKeys(): Promise<string> {
     return (await this.witnesses.list()).map((w) => `${w.key}\n`).join('');
   }
@@ -36,6 +45,7 @@ export class LogController {
   @Header('Content-Type', 'text/plain; charset=utf-8')
   @Header('Cache-Control', 'no-cache')
   @ApiOperation({ summary: 'The latest signed checkpoint, with every witness cosignature' })
+  @TextAnswer('a signed note: the checkpoint’s lines, a blank line, then the signature lines')
   async checkpoint(): Promise<string> {
     const latest = await this.checkpoints.latest();
     if (!latest) throw new AppError('unavailable', 'The log has not signed its first checkpoint yet.');
@@ -44,26 +54,30 @@ export class LogController {
 
   @Get('proof/inclusion')
   @ApiOperation({ summary: 'Inclusion proof of leaf index in the tree of size leaves (RFC 9162 §2.1.3)' })
-  inclusion(@Query() q: InclusionQueryDto): Promise<{ index: number; size: number; proof: string[] }> {
+  @ApiOkResponse({ type: InclusionProofResponse })
+  inclusion(@Query() q: InclusionQueryDto): Promise<InclusionProofResponse> {
     return this.log.inclusion(Number(q.index), Number(q.size));
   }
 
   @Get('proof/consistency')
   @ApiOperation({ summary: 'Consistency proof between two tree sizes (RFC 9162 §2.1.4)' })
-  consistency(@Query() q: ConsistencyQueryDto): Promise<{ from: number; to: number; proof: string[] }> {
+  @ApiOkResponse({ type: ConsistencyProofResponse })
+  consistency(@Query() q: ConsistencyQueryDto): Promise<ConsistencyProofResponse> {
     return this.log.consistency(Number(q.from), Number(q.to));
   }
 
   @Get('leaves')
   @ApiOperation({ summary: 'Entry hashes of leaves start to end − 1 (at most 1000)' })
-  leaves(@Query() q: LeavesQueryDto): Promise<{ start: number; end: number; leaves: string[] }> {
+  @ApiOkResponse({ type: LeavesResponse })
+  leaves(@Query() q: LeavesQueryDto): Promise<LeavesResponse> {
     return this.log.leaves(Number(q.start), Number(q.end));
   }
 
   @Post('cosignatures')
   @HttpCode(201)
   @ApiOperation({ summary: 'A registered witness sends its cosignature of a checkpoint' })
-  cosign(@Body() dto: CosignatureDto): Promise<{ size: number; witness: string }> {
+  @ApiCreatedResponse({ type: CosignatureResponse })
+  cosign(@Body() dto: CosignatureDto): Promise<CosignatureResponse> {
     return this.witnesses.cosign(dto.checkpoint, dto.cosignature);
   }
 }

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { base64Encode, type BundleCheckpoint, type LogInclusion } from '@beadroll/core';
 import { AppError } from '../common/app-error';
 import { LogLeavesService } from '../ledger/log-leaves.service';
-import { CheckpointsService } from './checkpoints.service';
+import { CheckpointsService, type LatestCheckpoint } from './checkpoints.service';
 import { LogTreeService } from './log-tree.service';
 
 /** Most leaves one request may ask for. */
@@ -72,10 +72,14 @@ export class LogService {
   /**
    * The bundle's checkpoint member (format §14.5): the latest checkpoint and, for each roll,
    * an inclusion proof of its latest entry that checkpoint covers. Null before the first
-   * checkpoint. Rolls none of whose entries are covered yet get no inclusion.
+   * checkpoint. Rolls none of whose entries are covered yet get no inclusion. `signed`: the
+   * checkpoint to prove against, when the caller has already read it.
    */
-  async bundleCheckpoint(rolls: readonly RollLogEntries[]): Promise<BundleCheckpoint | null> {
-    const latest = await this.checkpoints.latest();
+  async bundleCheckpoint(
+    rolls: readonly RollLogEntries[],
+    signed?: LatestCheckpoint | null,
+  ): Promise<BundleCheckpoint | null> {
+    const latest = signed === undefined ? await this.checkpoints.latest() : signed;
     if (!latest) return null;
     const tree = await this.tree.atLeast(latest.size);
     const inclusions: LogInclusion[] = [];
@@ -105,9 +109,10 @@ export class LogService {
   ): Promise<BundleCheckpoint | null> {
     const latest = await this.checkpoints.latest();
     if (!latest) return null;
+    // The same checkpoint throughout: a newer one read halfway would leave the head unproved.
     if (head.logIndex !== null && head.logIndex < latest.size)
-      return this.bundleCheckpoint([{ lot, entries: [head] }]);
+      return this.bundleCheckpoint([{ lot, entries: [head] }], latest);
     const covered = await this.numbered.latestCovered(lot, latest.size, head.seq);
-    return this.bundleCheckpoint([{ lot, entries: covered ? [covered] : [] }]);
+    return this.bundleCheckpoint([{ lot, entries: covered ? [covered] : [] }], latest);
   }
 }

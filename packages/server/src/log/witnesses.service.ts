@@ -101,8 +101,8 @@ export class WitnessesService {
       throw AppError.validation([{ field: 'checkpoint', reason: (e as Error).message }]);
     }
     const stored: Array<{ note: string }> = await this.dataSource.query(
-      'SELECT "note" FROM "log_checkpoints" WHERE "size" = $1',
-      [size],
+      'SELECT "note" FROM "log_checkpoints" WHERE "origin" = $1 AND "size" = $2',
+      [this.checkpoints.origin, size],
     );
     if (!stored[0] || parseNote(stored[0].note).text !== text)
       throw AppError.validation([{ field: 'checkpoint', reason: 'is not a checkpoint this log signed' }]);
@@ -129,11 +129,11 @@ export class WitnessesService {
       ]);
     await this.dataSource.transaction(async (m) => {
       await m.query(
-        `INSERT INTO "log_cosignatures" ("checkpoint_size", "witness_id", "line", "cosigned_time")
-         VALUES ($1, $2, $3, $4)
+        `INSERT INTO "log_cosignatures" ("checkpoint_origin", "checkpoint_size", "witness_id", "line", "cosigned_time")
+         VALUES ($1, $2, $3, $4, $5)
          ON CONFLICT ON CONSTRAINT "pk_log_cosignatures"
          DO UPDATE SET "line" = EXCLUDED."line", "cosigned_time" = EXCLUDED."cosigned_time", "received_at" = now()`,
-        [size, witness.id, sig.line, time],
+        [this.checkpoints.origin, size, witness.id, sig.line, time],
       );
       await m.query(
         `UPDATE "log_witnesses" SET "last_cosigned_at" = now(),

@@ -10,13 +10,27 @@ import {
   UseInterceptors,
 } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiConsumes, ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import {
+  ApiConsumes,
+  ApiCreatedResponse,
+  ApiOkResponse,
+  ApiOperation,
+  ApiProduces,
+  ApiTags,
+} from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, RollWriter, type Principal } from '../auth/auth.decorators';
 import { UploadGuardInterceptor } from '../exhibits/upload';
-import { CheckResponse, ImportFormDto, SheetResponse, TemplateQueryDto } from './dto/lot-import.dto';
+import {
+  CheckResponse,
+  ImportFormDto,
+  ImportLineResponse,
+  SheetResponse,
+  TemplateQueryDto,
+} from './dto/lot-import.dto';
 import { LotImportsService, type SheetFile } from './lot-imports.service';
 import { MAX_SHEET_BYTES } from './sheet-reader';
+import { FileAnswer } from '../common/route.decorators';
 
 // No storage given and no module-wide multer settings here: multer keeps the sheet in memory.
 const SHEET_UPLOAD = FileInterceptor('file', {
@@ -31,7 +45,7 @@ export class LotImportsController {
 
   @Get('template')
   @ApiOperation({ summary: 'The spreadsheet template for importing lots (CSV or XLSX)' })
-  @ApiProduces('text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  @FileAnswer('the template', 'text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
   async template(@Query() q: TemplateQueryDto, @Res() res: Response): Promise<void> {
     const t = await this.imports.template(q.format);
     res.setHeader('Content-Type', t.type);
@@ -70,6 +84,7 @@ export class LotImportsController {
     summary:
       'Register every row in one transaction (all or none, up to 500). Answers NDJSON lines: {"total"}, {"done"} as lots are written, then {"codes"} or {"error"}',
   })
+  @ApiCreatedResponse({ type: ImportLineResponse, description: 'one such line at a time' })
   async run(
     @CurrentAccount() me: Principal,
     @UploadedFile() file: SheetFile | undefined,

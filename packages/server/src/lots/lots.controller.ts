@@ -1,5 +1,5 @@
 import { Body, Controller, Get, Header, Param, Query, Res, type StreamableFile } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Bundle } from '@beadroll/core';
 import type { Response } from 'express';
 import { CurrentAccount, type Principal } from '../auth/auth.decorators';
@@ -12,6 +12,7 @@ import {
   SetListingDto,
 } from './dto/lot-requests.dto';
 import { LotDetailResponse, LotListResponse, RollResponse, VerifyResponse } from './dto/lot-responses.dto';
+import { PublicBundle } from './dto/public-lot.dto';
 import { attachment } from '../export/sheet-export';
 import { LotsService } from './lots.service';
 import { DealerRollWrite, Read, SheetDownload } from '../common/route.decorators';
@@ -108,6 +109,11 @@ export class LotsController {
   @Get(':code/bundle')
   @ApiOperation({ summary: 'Export bundle (check it offline at /verify or with beadroll-verify)' })
   @ApiProduces('application/json')
+  @ApiOkResponse({
+    type: PublicBundle,
+    description:
+      'the bundle as a file: the rolls the viewer may read, as on the public page, no sealed value',
+  })
   @Header('Cache-Control', 'no-store')
   async bundle(
     @CurrentAccount() me: Principal,

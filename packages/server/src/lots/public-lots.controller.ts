@@ -25,9 +25,10 @@ export class PublicLotsController {
     @Req() req: Request,
     @Res({ passthrough: true }) res: Response,
   ): Promise<string> {
-    const { text, from } = await this.lots.lotRead(code, readsOwnWrites(req));
+    const { answer, from } = await this.lots.lotRead(code, readsOwnWrites(req));
     res.setHeader(READ_FROM_HEADER, from);
-    return text;
+    res.setHeader('ETag', answer.etag);
+    return answer.text;
   }
 
   @Read(':code/bundle', 'The export bundle of a listed lot, as a file', PublicBundle)

@@ -13,11 +13,32 @@ import { DealerCardsService, type DealerCard } from '../accounts/dealer-cards.se
 import { AppError } from '../common/app-error';
 import { BundleService } from '../ledger/bundle.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
+import { CheckpointsService } from '../log/checkpoints.service';
 import { LogService } from '../log/log.service';
 import type { PublicBundle, PublicLotResponse } from './dto/public-lot.dto';
-import { PUBLIC_LOT_SQL, publicLotText, type PublicLotRow } from './public-lot-text';
+import {
+  cardAccounts,
+  publicLotText,
+  readPublicLot,
+  readPublicLotKey,
+  weakEtag,
+  type NamedStatementPool,
+} from './public-lot-text';
+import { PublicLotCache, type PublicLotAnswer } from './public-lot-cache';
+
+export type { PublicLotAnswer } from './public-lot-cache';
 
 export { READ_FROM_HEADER } from '../standby/read-from';
+
+/** The pg pool under a TypeORM manager (the primary's or the standby's), for a named statement. */
+function poolOf(manager: EntityManager): NamedStatementPool {
+  return (manager.connection.driver as unknown as { master: NamedStatementPool }).master;
+}
+
+const answerOf = (text: string): PublicLotAnswer => ({ text, etag: weakEtag(text), copies: {} });
+
+const sameList = (a: readonly string[], b: readonly string[]) =>
+  a === b || (a.length === b.length && a.every((x, i) => x === b[i]));
 
 /** The one answer to any code that is not a listed lot: no hint of why. */
 function notFound(): AppError {
@@ -55,11 +76,14 @@ export function toPublicBundle(b: Bundle): PublicBundle {
  */
 @Injectable()
 export class PublicLotsService {
+  private readonly cache = new PublicLotCache();
+
   constructor(
     private readonly bundles: BundleService,
     private readonly cards: DealerCardsService,
     private readonly standby: StandbyService,
     private readonly log: LogService,
+    private readonly checkpoints: CheckpointsService,
   ) {}
 
   /**
@@ -68,7 +92,7 @@ export class PublicLotsService {
    * takes the bundle walk over its ancestors.
    */
   async lotText(text: string): Promise<string> {
-    return (await this.lotRead(text)).text;
+    return (await this.lotRead(text)).answer.text;
   }
 
   /**
@@ -76,24 +100,71 @@ export class PublicLotsService {
    * else the primary (see `StandbyService`). A lot without parents takes one statement; a split
    * child or combined piece walks its ancestors on the same connection. A signed-in reader
    * (`signedIn`) always reads the primary, so a dealer sees what they have just written.
+   * A lot without parents is answered again with the answer composed last time while a read of
+   * what it depends on (head, card columns, checkpoint member) finds them unchanged.
    */
-  async lotRead(text: string, signedIn = false): Promise<{ text: string; from: ReadSource }> {
+  async lotRead(text: string, signedIn = false): Promise<{ answer: PublicLotAnswer; from: ReadSource }> {
     const code = RollReaderService.canonicalCode(text);
     if (!code) throw notFound();
     const { manager, from } = await this.standby.reader(signedIn);
-    const rows: PublicLotRow[] = await manager.query(PUBLIC_LOT_SQL, [code]);
-    const row = rows[0];
-    if (!row) throw notFound();
-    if (!row.has_parents) {
-      // The proof is of the head as this read saw it (the standby may be a moment behind).
-      const head = {
-        seq: row.head_seq,
-        logIndex: row.head_log_index === null ? null : Number(row.head_log_index),
-      };
-      const checkpoint = await this.log.rollCheckpoint(code, head);
-      return { text: publicLotText(code, row, checkpoint ? JSON.stringify([checkpoint]) : '[]'), from };
+    const pool = poolOf(manager);
+    const cached = this.cache.get(code);
+    const digestOf = cached?.named ?? [];
+    const key = await readPublicLotKey(pool, code, digestOf);
+    if (!key) {
+      this.cache.delete(code);
+      throw notFound();
     }
-    return { text: JSON.stringify(await this.lotFrom(code, manager)), from };
+    const latest = await this.checkpoints.latest();
+    if (
+      cached &&
+      key.head === cached.head &&
+      key.accounts === cached.accounts &&
+      sameList(cached.digestOf, cached.named)
+    ) {
+      const p = cached.proved;
+      if (p.latest === latest && p.seq === key.head_seq && p.logIndex === key.head_log_index)
+        return { answer: cached.answer, from };
+      if ((await this.checkpointText(code, key)) === cached.checkpoints) {
+        cached.proved = { latest, seq: key.head_seq, logIndex: key.head_log_index };
+        return { answer: cached.answer, from };
+      }
+    }
+    const row = await readPublicLot(pool, code);
+    if (!row) {
+      this.cache.delete(code);
+      throw notFound();
+    }
+    if (row.has_parents) return { answer: answerOf(JSON.stringify(await this.lotFrom(code, manager))), from };
+    const checkpoints = await this.checkpointText(code, row);
+    const answer = answerOf(publicLotText(code, row, checkpoints));
+    const named = cardAccounts(row.entries);
+    const proved = { latest, seq: row.head_seq, logIndex: row.head_log_index };
+    this.cache.set(code, {
+      head: key.head,
+      accounts: key.accounts,
+      digestOf,
+      named,
+      checkpoints,
+      proved,
+      answer,
+    });
+    return { answer, from };
+  }
+
+  /**
+   * The checkpoint member of a lot without parents: the proof is of the head as this read saw
+   * it (the standby may be a moment behind).
+   */
+  private async checkpointText(
+    code: string,
+    head: { head_seq: number; head_log_index: string | null },
+  ): Promise<string> {
+    const checkpoint = await this.log.rollCheckpoint(code, {
+      seq: head.head_seq,
+      logIndex: head.head_log_index === null ? null : Number(head.head_log_index),
+    });
+    return checkpoint ? JSON.stringify([checkpoint]) : '[]';
   }
 
   /** The public data of a listed lot, built from its bundle (ancestors included). */

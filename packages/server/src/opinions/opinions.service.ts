@@ -10,6 +10,7 @@ import {
   type AidResult,
   type ExhibitAddedBody,
   type NoteBody,
+  type OpinionWithdrawnBody,
   type OpinionBody,
   type RollState,
   mayAppend,
@@ -134,9 +135,11 @@ export class OpinionsService {
     seq: number,
     dto: WithdrawOpinionDto,
   ): Promise<OpinionWriteResponse> {
-    const code = await this.lots.readableCode(me, text);
+    // Whoever may read the lot, even only up to a seq (an assessor who answered a request), may
+    // withdraw their own opinion on it; core's rules decide the rest.
+    const { code, upTo } = await this.lots.readAccess(me, text);
     const entry = await this.ledger.withLots([code], async (tx) => {
-      const op = tx.state(code).opinions.find((o) => o.seq === seq);
+      const op = tx.state(code).opinions.find((o) => o.seq === seq && (upTo === null || seq <= upTo));
       if (!op) throw new AppError('not_found', `There is no standing opinion at seq ${seq} on this lot.`);
       if (op.author !== me.id) throw new AppError('forbidden', 'Only its author may withdraw an opinion.');
       return tx.append(code, {
@@ -177,6 +180,7 @@ export class OpinionsService {
     if (!r.ok)
       throw new AppError('internal', `the roll of ${code} does not verify at seq ${r.seq}: ${r.reason}`);
     const state = r.state;
+    const withdrawn = upTo === null ? new Set<number>() : await this.withdrawnSince(lotId, upTo, viewer.id);
     const replies = new Map<number, OpinionView['replies']>();
     for (const e of r.verified) {
       if (e.header.kind !== 'note' || !e.body) continue;
@@ -187,16 +191,18 @@ export class OpinionsService {
         { seq: e.header.seq, author: e.header.actor, time: e.header.time, text: note.text },
       ]);
     }
-    const opinions: OpinionView[] = state.opinions.map((o) => {
-      return {
-        seq: o.seq,
-        author: o.author,
-        time: o.time,
-        role: roleOf(state, o.seq),
-        body: o.body,
-        replies: replies.get(o.seq) ?? [],
-      };
-    });
+    const opinions: OpinionView[] = state.opinions
+      .filter((o) => !withdrawn.has(o.seq))
+      .map((o) => {
+        return {
+          seq: o.seq,
+          author: o.author,
+          time: o.time,
+          role: roleOf(state, o.seq),
+          body: o.body,
+          replies: replies.get(o.seq) ?? [],
+        };
+      });
     const ids = [
       state.holder,
       ...opinions.map((o) => o.author),
@@ -213,6 +219,23 @@ export class OpinionsService {
       opinions,
       cards,
     };
+  }
+
+  /**
+   * The seqs of the viewer's own opinions they withdrew after `upTo`: a reader who sees the roll
+   * only up to there still sees that their own opinion no longer stands, and nothing else after it.
+   */
+  private async withdrawnSince(lotId: string, upTo: number, viewer: string): Promise<Set<number>> {
+    const later = await this.reader.entries(lotId, { fromSeq: upTo + 1, kinds: ['opinion-withdrawn'] });
+    const seqs = new Set<number>();
+    for (const e of later) {
+      if (e.actor !== viewer) continue;
+      const facts = (JSON.parse(e.header) as { facts?: { opinionSeq?: number } }).facts;
+      const seq =
+        facts?.opinionSeq ?? (e.body ? (JSON.parse(e.body) as OpinionWithdrawnBody).opinionSeq : null);
+      if (typeof seq === 'number') seqs.add(seq);
+    }
+    return seqs;
   }
 
   /**

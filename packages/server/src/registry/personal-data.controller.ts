@@ -8,7 +8,8 @@ import { APP_CONFIG } from '../config/config.module';
 import { MessageResponse } from '../auth/dto/tokens.dto';
 import { CloseAccountDto } from './dto/registry-tools.dto';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
-import { type PersonalDataExport, PersonalDataService } from './personal-data.service';
+import { PersonalDataResponse } from './dto/personal-data.dto';
+import { PersonalDataService } from './personal-data.service';
 
 @ApiTags('account')
 @Controller('account')
@@ -20,10 +21,11 @@ export class PersonalDataController {
 
   @Get('personal-data')
   @ApiOperation({ summary: 'Everything Beadroll holds about the signed-in account, as a JSON file' })
+  @ApiOkResponse({ type: PersonalDataResponse })
   async export(
     @CurrentAccount() me: Principal,
     @Res({ passthrough: true }) res: Response,
-  ): Promise<PersonalDataExport> {
+  ): Promise<PersonalDataResponse> {
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('Content-Disposition', `attachment; filename="beadroll-${me.handle}.json"`);
     return this.data.export(me.id);

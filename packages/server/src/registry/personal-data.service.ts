@@ -1,4 +1,4 @@
-import { Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { DataSource } from 'typeorm';
 import { AccountsService } from '../accounts/accounts.service';
 import type { Account } from '../accounts/entities/account.entity';
@@ -13,67 +13,15 @@ import { registryLetters } from './registry-letters';
 import { LotViewsService } from '../lots/lot-views.service';
 import { LedgerService } from '../ledger/ledger.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
-
-/** Everything Beadroll holds about one account, as the account's own download. */
-export interface PersonalDataExport {
-  format: 'beadroll-personal-data';
-  version: 1;
-  exportedAt: string;
-  account: {
-    id: string;
-    role: string;
-    status: string;
-    handle: string;
-    email: string;
-    displayName: string;
-    business: string;
-    town: string;
-    country: string;
-    address: string;
-    website: string | null;
-    tradeReferences: string;
-    /** The document sent with the application (its bytes are downloaded by the registrar only). */
-    document: { sha256: string; mediaType: string; size: number; name: string } | null;
-    emailConfirmedAt: string | null;
-    verifiedSince: string | null;
-    statusReason: string | null;
-    createdAt: string;
-  };
-  sessions: Array<{ createdAt: string; revokedAt: string | null; revokedWhy: string | null }>;
-  /** Every roll entry the account wrote, with its exact header and body (null once redacted). */
-  entries: Array<{
-    lot: string;
-    seq: number;
-    kind: string;
-    time: string;
-    hash: string;
-    header: string;
-    body: string | null;
-  }>;
-  /** The sealed values the account may read: the ones it recorded, and transfer prices it was party to. */
-  sealedDetails: Array<{
-    lot: string;
-    seq: number;
-    name: string;
-    value: unknown;
-    salt: string;
-    commitment: string;
-  }>;
-  lotsHeld: string[];
-  /**
-   * The SHA-256 of each exhibit file exactly as the account sent it, before it was normalised.
-   * Beadroll keeps it on the server only (never on a roll or in any other response), so that a
-   * file the registrar removes is refused if sent again.
-   */
-  exhibitsAsSent: Array<{ lot: string; seq: number; sha256: string }>;
-  redactionRequests: Array<{ lot: string; seq: number; note: string; status: string; createdAt: string }>;
-  /** The registrar's recorded decisions about this account. */
-  registrarDecisions: Array<{ at: string; action: string; reason: string | null }>;
-}
+import { lockBlobNames } from '../storage/blob-locks';
+import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
+import type { PersonalDataResponse } from './dto/personal-data.dto';
 
 /** A dealer's own data: the download of everything held about them, and closing the account. */
 @Injectable()
 export class PersonalDataService {
+  private readonly log = new Logger('personal-data');
+
   constructor(
     private readonly ledger: LedgerService,
     private readonly reader: RollReaderService,
@@ -86,9 +34,10 @@ export class PersonalDataService {
     private readonly exhibits: ExhibitsService,
     private readonly lapse: OfferLapseService,
     private readonly mail: MailService,
+    @Inject(BLOB_STORE) private readonly blobs: BlobStore,
   ) {}
 
-  async export(accountId: string): Promise<PersonalDataExport> {
+  async export(accountId: string): Promise<PersonalDataResponse> {
     const a = await this.account(accountId);
     const q = <T>(sql: string): Promise<T[]> => this.dataSource.query(sql, [accountId]);
     const sessions = await this.sessions.historyOf(accountId);
@@ -176,10 +125,32 @@ export class PersonalDataService {
       await this.views.forgetPrivateSearchOf(a.id, m);
       await this.emailTokens.deleteAllOf(a.id, m);
     });
+    // The document's bytes go after the commit, so a failed close keeps them.
+    if (a.documentSha256) await this.forgetDocument(a.documentSha256);
     await this.sessions.revokeAll(a.id, 'closed');
     await this.lapse.lapseOffersOf(a.id);
     await this.mail.send(oldEmail, registryLetters.accountClosed(oldName));
     return { message: 'Your account is closed.' };
+  }
+
+  /**
+   * Deletes a closed account's application document from the blob store unless the same bytes
+   * are still named: blobs are shared by content, so another applicant's document or an exhibit
+   * may be the same file. Checked and deleted under the name's exclusive lock, which exhibit
+   * uploads hold shared while they store a file.
+   */
+  private async forgetDocument(sha256: string): Promise<void> {
+    try {
+      await this.dataSource.transaction(async (m) => {
+        await lockBlobNames(m, [sha256], 'exclusive');
+        const named =
+          (await this.accounts.namesDocument(sha256, m)) || (await this.exhibits.namesBlob(sha256, m));
+        if (!named) await this.blobs.delete(sha256);
+      });
+    } catch (err) {
+      // The account is closed either way; the bytes stay, and this says so in the log.
+      this.log.warn(`could not delete a closed account's document: ${(err as Error).message}`);
+    }
   }
 
   /** The signed-in account (it exists: the guard read it for this request). */

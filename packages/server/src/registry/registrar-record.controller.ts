@@ -1,11 +1,11 @@
 import { Controller, Get, Query, Res } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { Roles } from '../auth/auth.decorators';
 import { ActionsQueryDto, ExportQueryDto } from './dto/registry-tools.dto';
 import { RegistrarActionPage } from './dto/registry-responses.dto';
 import { RegistrarRecordService } from './registrar-record.service';
-import { Read } from '../common/route.decorators';
+import { FileAnswer, Read } from '../common/route.decorators';
 
 @ApiTags('registry')
 @Roles('registrar')
@@ -20,7 +20,7 @@ export class RegistrarRecordController {
 
   @Get('export')
   @ApiOperation({ summary: 'The whole record as a file, oldest first (JSON or CSV)' })
-  @ApiProduces('application/json', 'text/csv')
+  @FileAnswer('the record as a file to keep', 'application/json', 'text/csv')
   async export(@Query() q: ExportQueryDto, @Res() res: Response): Promise<void> {
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('Content-Disposition', `attachment; filename="registrar-record.${q.format}"`);

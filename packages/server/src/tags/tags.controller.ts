@@ -1,11 +1,12 @@
 import { Body, Controller, Get, Header, HttpCode, Param, Post, Res, StreamableFile } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags, ApiOkResponse } from '@nestjs/swagger';
+import { ApiOperation, ApiTags, ApiOkResponse } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { CurrentAccount, Roles, type Principal } from '../auth/auth.decorators';
 import { ListLotsDto, PrintTagsDto } from './dto/print-tags.dto';
 import { NoReplay } from '../idempotency/idempotency.interceptor';
-import { TagListResponse, TagsService, type TagLayoutsResponse, TagLotResponse } from './tags.service';
-import { RollAction } from '../common/route.decorators';
+import { TagListResponse, TagsService, TagLotResponse } from './tags.service';
+import { TagLayoutsResponse } from './dto/tag-layouts.dto';
+import { FileAnswer, RollAction } from '../common/route.decorators';
 
 @ApiTags('tags')
 @Controller('tags')
@@ -17,6 +18,7 @@ export class TagsController {
   @ApiOperation({
     summary: 'Tag designs and sheets, and whether each design fits the public host’s QR symbol',
   })
+  @ApiOkResponse({ type: TagLayoutsResponse })
   layouts(): TagLayoutsResponse {
     return this.tags.layouts();
   }
@@ -36,7 +38,7 @@ export class TagsController {
   @ApiOperation({
     summary: 'Tag PDF for lots the dealer holds, printed at each lot’s newest entry (writes nothing)',
   })
-  @ApiProduces('application/pdf')
+  @FileAnswer('the tags on A4 or Letter sheets', 'application/pdf')
   @Header('Cache-Control', 'no-store')
   async pdf(
     @CurrentAccount() me: Principal,

@@ -9,7 +9,8 @@ import { APP_CONFIG } from '../config/config.module';
 import { LedgerClock } from '../ledger/ledger.clock';
 import { LotsService } from '../lots/lots.service';
 import type { PrintTagsDto } from './dto/print-tags.dto';
-import { DESIGN_DEFAULTS, PAPERS, tagFit, type DesignFit, type TagDesign } from './tag-layout';
+import { DESIGN_DEFAULTS, PAPERS, tagFit } from './tag-layout';
+import type { TagLayoutsResponse } from './dto/tag-layouts.dto';
 import { TagPdfService, type TagItem } from './tag-pdf.service';
 import { LotViewsService } from '../lots/lot-views.service';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -29,14 +30,6 @@ export class TagLotResponse {
 /** The codes of the lots the dealer may tag, of those asked for. */
 export class TagListResponse {
   @ApiProperty({ type: [String] }) listed: string[];
-}
-
-export interface TagLayoutsResponse {
-  host: string;
-  version: number;
-  designs: DesignFit[];
-  defaults: Record<TagDesign, { widthMm: number; heightMm: number }>;
-  papers: Record<keyof typeof PAPERS, { widthMm: number; heightMm: number }>;
 }
 
 interface HeadRow {

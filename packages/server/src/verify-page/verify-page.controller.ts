@@ -1,5 +1,6 @@
 import { Controller, Get, Res } from '@nestjs/common';
-import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { FileAnswer } from '../common/route.decorators';
 import type { Response } from 'express';
 import { Public } from '../auth/auth.decorators';
 import { VerifyPageService } from './verify-page.service';
@@ -17,7 +18,7 @@ export class VerifyPageController {
   @ApiOperation({
     summary: 'The offline verifier: one HTML page that checks a lot history file on the device',
   })
-  @ApiProduces('text/html')
+  @FileAnswer('the page', 'text/html')
   show(@Res() res: Response): void {
     this.send(res, false);
   }
@@ -25,7 +26,7 @@ export class VerifyPageController {
   @Public()
   @Get('download')
   @ApiOperation({ summary: 'The offline verifier page as a file to keep' })
-  @ApiProduces('text/html')
+  @FileAnswer('the page as a file to keep', 'text/html')
   download(@Res() res: Response): void {
     this.send(res, true);
   }

@@ -18,6 +18,143 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/log/key": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The log’s verifier key: name+keyid+base64key */
+        get: operations["LogController_key"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/witnesses": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Verifier keys of the registered witnesses, one a line */
+        get: operations["LogController_witnessKeys"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/checkpoint": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The latest signed checkpoint, with every witness cosignature */
+        get: operations["LogController_checkpoint"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/proof/inclusion": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Inclusion proof of leaf index in the tree of size leaves (RFC 9162 §2.1.3) */
+        get: operations["LogController_inclusion"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/proof/consistency": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Consistency proof between two tree sizes (RFC 9162 §2.1.4) */
+        get: operations["LogController_consistency"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/leaves": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Entry hashes of leaves start to end − 1 (at most 1000) */
+        get: operations["LogController_leaves"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/log/cosignatures": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** A registered witness sends its cosignature of a checkpoint */
+        post: operations["LogController_cosign"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/registry/witnesses": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Witnesses of the log and when each last cosigned */
+        get: operations["WitnessesController_list"];
+        put?: never;
+        /** Register a witness by its cosignature key */
+        post: operations["WitnessesController_register"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/auth/session": {
         parameters: {
             query?: never;
@@ -318,143 +455,6 @@ export interface paths {
         get: operations["DealersController_card"];
         put?: never;
         post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/key": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** The log’s verifier key: name+keyid+base64key */
-        get: operations["LogController_key"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/witnesses": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Verifier keys of the registered witnesses, one a line */
-        get: operations["LogController_witnessKeys"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/checkpoint": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** The latest signed checkpoint, with every witness cosignature */
-        get: operations["LogController_checkpoint"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/proof/inclusion": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Inclusion proof of leaf index in the tree of size leaves (RFC 9162 §2.1.3) */
-        get: operations["LogController_inclusion"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/proof/consistency": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Consistency proof between two tree sizes (RFC 9162 §2.1.4) */
-        get: operations["LogController_consistency"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/leaves": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Entry hashes of leaves start to end − 1 (at most 1000) */
-        get: operations["LogController_leaves"];
-        put?: never;
-        post?: never;
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/log/cosignatures": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        get?: never;
-        put?: never;
-        /** A registered witness sends its cosignature of a checkpoint */
-        post: operations["LogController_cosign"];
-        delete?: never;
-        options?: never;
-        head?: never;
-        patch?: never;
-        trace?: never;
-    };
-    "/api/registry/witnesses": {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        /** Witnesses of the log and when each last cosigned */
-        get: operations["WitnessesController_list"];
-        put?: never;
-        /** Register a witness by its cosignature key */
-        post: operations["WitnessesController_register"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1508,6 +1508,82 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
+        StandbyStatusResponse: {
+            /** @description whether a standby is configured */
+            configured: boolean;
+            /** @description replay lag in milliseconds (0 when it has replayed all it received); null when unknown */
+            lagMs: number | null;
+            /** @description true when public reads go to the standby now */
+            usable: boolean;
+        };
+        HealthResponse: {
+            /** @enum {string} */
+            status: "ok" | "degraded";
+            /** @description this server process (its instance name) */
+            instance: string;
+            /** @enum {string} */
+            database: "ok" | "unreachable";
+            /** @enum {string} */
+            migrations: "up to date" | "pending" | "unknown";
+            /**
+             * @description refusing: the log’s signer found the log broken and signs no checkpoint until it is whole
+             * @enum {string}
+             */
+            log: "ok" | "refusing";
+            standby: components["schemas"]["StandbyStatusResponse"];
+            /** @description when this report was made (RFC 3339, UTC) */
+            time: string;
+            /** @description why the status is degraded, in words; empty when ok */
+            reasons: string[];
+        };
+        InclusionProofResponse: {
+            /** @description the leaf’s index, from 0 */
+            index: number;
+            /** @description the tree size the proof is for */
+            size: number;
+            /** @description base64 SHA-256 hashes (RFC 9162 §2.1), leaf side first */
+            proof: string[];
+        };
+        ConsistencyProofResponse: {
+            from: number;
+            to: number;
+            /** @description base64 SHA-256 hashes (RFC 9162 §2.1) */
+            proof: string[];
+        };
+        LeavesResponse: {
+            start: number;
+            end: number;
+            /** @description entry hashes (hex), one per leaf */
+            leaves: string[];
+        };
+        CosignatureDto: {
+            /** @description The checkpoint note the witness was served and cosigned */
+            checkpoint: string;
+            /** @description The witness’s signature line (C2SP tlog-cosignature) */
+            cosignature: string;
+        };
+        CosignatureResponse: {
+            /** @description the tree size of the cosigned checkpoint */
+            size: number;
+            /** @description the witness’s name */
+            witness: string;
+        };
+        WitnessResponse: {
+            id: string;
+            name: string;
+            key: string;
+            registeredAt: string;
+            lastCosignedAt: string | null;
+            lastCosignedSize: number | null;
+        };
+        WitnessListResponse: {
+            logKey: string;
+            items: components["schemas"]["WitnessResponse"][];
+        };
+        RegisterWitnessDto: {
+            /** @description The witness’s verifier key: name+keyid+base64(0x04 ‖ Ed25519 public key) */
+            key: string;
+        };
         MeResponse: {
             id: string;
             /** @enum {string} */
@@ -1654,28 +1730,6 @@ export interface components {
             cards: {
                 [key: string]: components["schemas"]["DealerCard"];
             };
-        };
-        CosignatureDto: {
-            /** @description The checkpoint note the witness was served and cosigned */
-            checkpoint: string;
-            /** @description The witness’s signature line (C2SP tlog-cosignature) */
-            cosignature: string;
-        };
-        WitnessResponse: {
-            id: string;
-            name: string;
-            key: string;
-            registeredAt: string;
-            lastCosignedAt: string | null;
-            lastCosignedSize: number | null;
-        };
-        WitnessListResponse: {
-            logKey: string;
-            items: components["schemas"]["WitnessResponse"][];
-        };
-        RegisterWitnessDto: {
-            /** @description The witness’s verifier key: name+keyid+base64(0x04 ‖ Ed25519 public key) */
-            key: string;
         };
         CountDto: {
             /** @example 120 */
@@ -2027,6 +2081,24 @@ export interface components {
             valid: number;
             rows: components["schemas"]["RowProblemResponse"][];
         };
+        ImportFieldProblem: {
+            field: string;
+            reason: string;
+        };
+        ImportErrorResponse: {
+            code: string;
+            message: string;
+            fields?: components["schemas"]["ImportFieldProblem"][];
+        };
+        ImportLineResponse: {
+            /** @description rows to register */
+            total?: number;
+            /** @description rows registered so far */
+            done?: number;
+            /** @description the new lots’ codes: the import is complete */
+            codes?: string[];
+            error?: components["schemas"]["ImportErrorResponse"];
+        };
         PartyCard: {
             id: string;
             handle: string;
@@ -2187,6 +2259,52 @@ export interface components {
             recordedOrigins?: ("venice-murano" | "bohemia-czech" | "india" | "china" | "japan" | "other-european" | "unknown" | "other")[];
             draft?: components["schemas"]["AidDraftDto"];
         };
+        AidSourceResponse: {
+            title: string;
+            url?: string;
+            /**
+             * @description how much weight the source carries, strongest first
+             * @enum {string}
+             */
+            standing: "museum" | "standard" | "scholar" | "trade-page" | "student-page" | "common-practice" | "from-memory";
+        };
+        AidRuleTextResponse: {
+            /** @description the rule’s id */
+            rule: string;
+            text: string;
+            sources: components["schemas"]["AidSourceResponse"][];
+        };
+        AidIndicationResponse: {
+            /** @enum {string} */
+            origin?: "venice-murano" | "bohemia-czech" | "india" | "china" | "japan" | "other-european" | "unknown" | "other";
+            /** @enum {string} */
+            technique?: "wound-lampwork" | "drawn" | "pressed-moulded" | "furnace-wound" | "other";
+            /**
+             * @description set when the clues point to recent work in an older style rather than to a place
+             * @enum {string}
+             */
+            qualifier?: "by" | "attributed-to" | "in-the-style-of" | "later-copy";
+            /** @description rank: higher is stronger */
+            score: number;
+            reasons: components["schemas"]["AidRuleTextResponse"][];
+        };
+        AidWarningResponse: {
+            rule: string;
+            message: string;
+            /** @description the earliest plausible year */
+            notBefore: number;
+            /** @description true: the whole period is earlier; false: only its start is */
+            wholePeriod: boolean;
+            /** @description true when the clue behind it is only a hint: the period may be too early */
+            clueIsHint: boolean;
+            sources: components["schemas"]["AidSourceResponse"][];
+        };
+        AidResponse: {
+            indications: components["schemas"]["AidIndicationResponse"][];
+            warnings: components["schemas"]["AidWarningResponse"][];
+            cautions: components["schemas"]["AidRuleTextResponse"][];
+            disclaimer: string;
+        };
         SplitChildDto: {
             /** @description the count is the beads this child takes */
             description: components["schemas"]["LotDescriptionDto"];
@@ -2301,6 +2419,58 @@ export interface components {
         };
         ExhibitListResponse: {
             exhibits: components["schemas"]["ExhibitResponse"][];
+        };
+        AuditStartEvent: {
+            /**
+             * @description discriminator enum property added by openapi-typescript
+             * @enum {string}
+             */
+            type: "start";
+            lots: number;
+            startedAt: string;
+        };
+        AuditProgressEvent: {
+            /**
+             * @description discriminator enum property added by openapi-typescript
+             * @enum {string}
+             */
+            type: "progress";
+            lotsChecked: number;
+            lots: number;
+            entriesChecked: number;
+        };
+        StoredCopyDifferenceResponse: {
+            table: string;
+            column: string;
+            /** @description the entry; null for a value of the lot */
+            seq: number | null;
+            stored: string;
+            roll: string;
+        };
+        AuditBrokenEvent: {
+            /**
+             * @description discriminator enum property added by openapi-typescript
+             * @enum {string}
+             */
+            type: "broken";
+            lot: string;
+            seq: number;
+            reason: string;
+            message: string;
+            /** @description for the reason stored-copy: each stored value that differs from the roll */
+            differences?: components["schemas"]["StoredCopyDifferenceResponse"][];
+        };
+        AuditDoneEvent: {
+            /**
+             * @description discriminator enum property added by openapi-typescript
+             * @enum {string}
+             */
+            type: "done";
+            lotsChecked: number;
+            entriesChecked: number;
+            broken: number;
+            ok: boolean;
+            finishedAt: string;
         };
         DealerSearchResponse: {
             items: components["schemas"]["PartyCard"][];
@@ -2522,9 +2692,125 @@ export interface components {
             page: number;
             pageSize: number;
         };
+        PersonalDocument: {
+            sha256: string;
+            mediaType: string;
+            size: number;
+            name: string;
+        };
+        PersonalAccount: {
+            id: string;
+            role: string;
+            status: string;
+            handle: string;
+            email: string;
+            displayName: string;
+            business: string;
+            town: string;
+            country: string;
+            address: string;
+            website: string | null;
+            tradeReferences: string;
+            document: components["schemas"]["PersonalDocument"] | null;
+            emailConfirmedAt: string | null;
+            verifiedSince: string | null;
+            statusReason: string | null;
+            createdAt: string;
+        };
+        PersonalSession: {
+            createdAt: string;
+            revokedAt: string | null;
+            revokedWhy: string | null;
+        };
+        PersonalEntry: {
+            lot: string;
+            seq: number;
+            kind: string;
+            time: string;
+            hash: string;
+            /** @description canonical header string */
+            header: string;
+            /** @description canonical body string; null once redacted */
+            body: string | null;
+        };
+        PersonalSealedDetail: {
+            lot: string;
+            seq: number;
+            name: string;
+            /** @description the value as recorded (any JSON value) */
+            value: Record<string, unknown>;
+            salt: string;
+            commitment: string;
+        };
+        PersonalExhibitAsSent: {
+            lot: string;
+            seq: number;
+            sha256: string;
+        };
+        PersonalRedactionRequest: {
+            lot: string;
+            seq: number;
+            note: string;
+            status: string;
+            createdAt: string;
+        };
+        PersonalRegistrarDecision: {
+            at: string;
+            action: string;
+            reason: string | null;
+        };
+        PersonalDataResponse: {
+            /** @enum {string} */
+            format: "beadroll-personal-data";
+            /** @enum {number} */
+            version: 1;
+            exportedAt: string;
+            account: components["schemas"]["PersonalAccount"];
+            sessions: components["schemas"]["PersonalSession"][];
+            /** @description every roll entry the account wrote */
+            entries: components["schemas"]["PersonalEntry"][];
+            /** @description the sealed values the account may read: its own, and transfer prices it was party to */
+            sealedDetails: components["schemas"]["PersonalSealedDetail"][];
+            lotsHeld: string[];
+            /** @description kept on the server only (never on a roll), so a file the registrar removed is refused if sent again */
+            exhibitsAsSent: components["schemas"]["PersonalExhibitAsSent"][];
+            redactionRequests: components["schemas"]["PersonalRedactionRequest"][];
+            registrarDecisions: components["schemas"]["PersonalRegistrarDecision"][];
+        };
         CloseAccountDto: {
             /** @description Your current password, to confirm */
             password: string;
+        };
+        DesignFitResponse: {
+            /** @enum {string} */
+            design: "string" | "barbell";
+            /** @description whether a phone reads the QR symbol reliably at this size */
+            fits: boolean;
+            /** @description the printed size of one QR module */
+            moduleMm?: number;
+            /** @description why it does not fit, in words */
+            reason?: string;
+        };
+        SizeMm: {
+            widthMm: number;
+            heightMm: number;
+        };
+        DesignSizes: {
+            string: components["schemas"]["SizeMm"];
+            barbell: components["schemas"]["SizeMm"];
+        };
+        PaperSizes: {
+            a4: components["schemas"]["SizeMm"];
+            letter: components["schemas"]["SizeMm"];
+        };
+        TagLayoutsResponse: {
+            /** @description the public host the tags’ QR codes name */
+            host: string;
+            /** @description the QR version that host needs */
+            version: number;
+            designs: components["schemas"]["DesignFitResponse"][];
+            defaults: components["schemas"]["DesignSizes"];
+            papers: components["schemas"]["PaperSizes"];
         };
         TagLotResponse: {
             code: string;
@@ -2634,7 +2920,200 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["HealthResponse"];
+                };
+            };
+        };
+    };
+    LogController_key: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description one line: the verifier key (C2SP signed-note) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_witnessKeys: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description one verifier key a line, each ending in a newline; empty when there is no witness */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_checkpoint: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description a signed note: the checkpoint’s lines, a blank line, then the signature lines */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
+                };
+            };
+        };
+    };
+    LogController_inclusion: {
+        parameters: {
+            query: {
+                index: string;
+                size: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["InclusionProofResponse"];
+                };
+            };
+        };
+    };
+    LogController_consistency: {
+        parameters: {
+            query: {
+                from: string;
+                to: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsistencyProofResponse"];
+                };
+            };
+        };
+    };
+    LogController_leaves: {
+        parameters: {
+            query: {
+                start: string;
+                end: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LeavesResponse"];
+                };
+            };
+        };
+    };
+    LogController_cosign: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CosignatureDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CosignatureResponse"];
+                };
+            };
+        };
+    };
+    WitnessesController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WitnessListResponse"];
+                };
+            };
+        };
+    };
+    WitnessesController_register: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["RegisterWitnessDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WitnessResponse"];
+                };
             };
         };
     };
@@ -2886,11 +3365,16 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the document as the applicant sent it */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/pdf": string;
+                    "image/jpeg": string;
+                    "image/png": string;
+                };
             };
         };
     };
@@ -3029,180 +3513,6 @@ export interface operations {
             };
         };
     };
-    LogController_key: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_witnessKeys: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_checkpoint: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_inclusion: {
-        parameters: {
-            query: {
-                index: string;
-                size: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_consistency: {
-        parameters: {
-            query: {
-                from: string;
-                to: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_leaves: {
-        parameters: {
-            query: {
-                start: string;
-                end: string;
-            };
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    LogController_cosign: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody: {
-            content: {
-                "application/json": components["schemas"]["CosignatureDto"];
-            };
-        };
-        responses: {
-            201: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content?: never;
-            };
-        };
-    };
-    WitnessesController_list: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody?: never;
-        responses: {
-            200: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["WitnessListResponse"];
-                };
-            };
-        };
-    };
-    WitnessesController_register: {
-        parameters: {
-            query?: never;
-            header?: never;
-            path?: never;
-            cookie?: never;
-        };
-        requestBody: {
-            content: {
-                "application/json": components["schemas"]["RegisterWitnessDto"];
-            };
-        };
-        responses: {
-            201: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["WitnessResponse"];
-                };
-            };
-        };
-    };
     LotsController_list: {
         parameters: {
             query?: {
@@ -3251,7 +3561,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3285,11 +3595,15 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the list as a file */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "text/csv": string;
+                    "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet": string;
+                };
             };
         };
     };
@@ -3329,7 +3643,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3354,7 +3668,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3442,11 +3756,14 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the bundle as a file: the rolls the viewer may read, as on the public page, no sealed value */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["PublicBundle"];
+                };
             };
         };
     };
@@ -3517,11 +3834,15 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the template */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "text/csv": string;
+                    "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet": string;
+                };
             };
         };
     };
@@ -3580,11 +3901,14 @@ export interface operations {
             };
         };
         responses: {
+            /** @description one such line at a time */
             201: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/x-ndjson": components["schemas"]["ImportLineResponse"];
+                };
             };
         };
     };
@@ -3624,7 +3948,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3676,7 +4000,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3722,7 +4046,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3792,7 +4116,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["AidResponse"];
+                };
             };
         };
     };
@@ -3811,7 +4137,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3834,7 +4160,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -3924,11 +4250,18 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the file’s bytes; its SHA-256 is the ETag (web and thumb are JPEG) */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "image/jpeg": string;
+                    "image/png": string;
+                    "image/webp": string;
+                    "image/avif": string;
+                    "application/pdf": string;
+                };
             };
         };
     };
@@ -3945,11 +4278,18 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the file’s bytes; its SHA-256 is the ETag (web and thumb are JPEG) */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "image/jpeg": string;
+                    "image/png": string;
+                    "image/webp": string;
+                    "image/avif": string;
+                    "application/pdf": string;
+                };
             };
         };
     };
@@ -3967,11 +4307,18 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the file’s bytes; its SHA-256 is the ETag (web and thumb are JPEG) */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "image/jpeg": string;
+                    "image/png": string;
+                    "image/webp": string;
+                    "image/avif": string;
+                    "application/pdf": string;
+                };
             };
         };
     };
@@ -3984,11 +4331,14 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description one such event a line */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/x-ndjson": components["schemas"]["AuditStartEvent"] | components["schemas"]["AuditProgressEvent"] | components["schemas"]["AuditBrokenEvent"] | components["schemas"]["AuditDoneEvent"];
+                };
             };
         };
     };
@@ -4052,7 +4402,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -4260,7 +4610,7 @@ export interface operations {
             };
         };
         responses: {
-            200: {
+            201: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -4520,11 +4870,15 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the record as a file to keep */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": string;
+                    "text/csv": string;
+                };
             };
         };
     };
@@ -4541,7 +4895,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["PersonalDataResponse"];
+                };
             };
         };
     };
@@ -4581,7 +4937,9 @@ export interface operations {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/json": components["schemas"]["TagLayoutsResponse"];
+                };
             };
         };
     };
@@ -4619,11 +4977,14 @@ export interface operations {
             };
         };
         responses: {
+            /** @description the tags on A4 or Letter sheets */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "application/pdf": string;
+                };
             };
         };
     };
@@ -4659,11 +5020,14 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the page */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "text/html": string;
+                };
             };
         };
     };
@@ -4676,11 +5040,14 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the page as a file to keep */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "text/html": string;
+                };
             };
         };
     };
@@ -4714,11 +5081,15 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
+            /** @description the list as a file */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
-                content?: never;
+                content: {
+                    "text/csv": string;
+                    "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet": string;
+                };
             };
         };
     };

@@ -61,3 +61,28 @@ export class CheckResponse {
   @ApiProperty() valid: number;
   @ApiProperty({ type: [RowProblemResponse] }) rows: RowProblemResponse[];
 }
+
+/** A field a refused import names, and why. */
+export class ImportFieldProblem {
+  @ApiProperty() field: string;
+  @ApiProperty() reason: string;
+}
+
+/** A refused import's reason, as the stream's last line once lines have been sent. */
+export class ImportErrorResponse {
+  @ApiProperty() code: string;
+  @ApiProperty() message: string;
+  @ApiPropertyOptional({ type: [ImportFieldProblem] }) fields?: ImportFieldProblem[];
+}
+
+/**
+ * One line of the import's answer: first `total`, then `done` with `total` as lots are written,
+ * then either `codes` (every new lot, in sheet order) or `error` (nothing was imported).
+ */
+export class ImportLineResponse {
+  @ApiPropertyOptional({ description: 'rows to register' }) total?: number;
+  @ApiPropertyOptional({ description: 'rows registered so far' }) done?: number;
+  @ApiPropertyOptional({ type: [String], description: 'the new lots’ codes: the import is complete' })
+  codes?: string[];
+  @ApiPropertyOptional({ type: ImportErrorResponse }) error?: ImportErrorResponse;
+}

@@ -65,12 +65,7 @@ export const lotImportsApi = {
       const lines = buffered.split('\n');
       buffered = lines.pop() ?? '';
       for (const l of lines.filter(Boolean)) {
-        const msg = JSON.parse(l) as {
-          total?: number;
-          done?: number;
-          codes?: string[];
-          error?: { code: string; message: string };
-        };
+        const msg = JSON.parse(l) as Schemas['ImportLineResponse'];
         if (msg.total !== undefined && msg.done === undefined) {
           total = msg.total;
           onProgress(0, total);

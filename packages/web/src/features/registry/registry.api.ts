@@ -28,17 +28,10 @@ export type Redaction = Schemas['RedactionResponse'];
 
 /** One line of the full-ledger audit stream. */
 export type AuditEvent =
-  | { type: 'start'; lots: number; startedAt: string }
-  | { type: 'progress'; lotsChecked: number; lots: number; entriesChecked: number }
-  | { type: 'broken'; lot: string; seq: number; reason: string; message: string }
-  | {
-      type: 'done';
-      lotsChecked: number;
-      entriesChecked: number;
-      broken: number;
-      ok: boolean;
-      finishedAt: string;
-    };
+  | Schemas['AuditStartEvent']
+  | Schemas['AuditProgressEvent']
+  | Schemas['AuditBrokenEvent']
+  | Schemas['AuditDoneEvent'];
 
 export const reportsQuery = (p: { status: 'open' | 'closed'; page: number; pageSize: number }) =>
   queryOptions({

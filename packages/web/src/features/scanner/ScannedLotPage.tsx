@@ -8,12 +8,15 @@ import {
   makeStyles,
   tokens,
 } from '@fluentui/react-components';
-import { formatLotCode } from '@beadroll/core';
+import { formatLotCode, verifyRoll } from '@beadroll/core';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { ApiError } from '../../lib/api';
 import type { QueuedWrite } from '../../lib/outbox';
+import { useSession } from '../accounts/accounts.api';
+import { may, type LotActionContext } from '../lots/lot-actions';
+import { lotsQueries } from '../lots/lots.api';
 import { PrintTagsDialog } from '../tags/PrintTagsDialog';
 import { OfferDialog } from '../transfers/OfferDialog';
 import { RecordSaleDialog } from '../transfers/RecordSaleDialog';
@@ -50,6 +53,14 @@ export function ScannedLotPage() {
   const navigate = useNavigate();
   const client = useQueryClient();
   const lot = useQuery(scannerQueries.lot(code));
+  const { account } = useSession();
+  // What the dealer may do is decided as on the lot page: core's rules over the verified roll,
+  // never the list row the tag lookup answers with.
+  const held = lot.data?.held === true;
+  const roll = useQuery({ ...lotsQueries.roll(lot.data?.code ?? code), enabled: held });
+  const verified = useMemo(() => (roll.data ? verifyRoll(roll.data.entries) : null), [roll.data]);
+  const ctx: LotActionContext | null =
+    verified?.ok && account ? { code: verified.state.lot, state: verified.state, viewer: account } : null;
   const [action, setAction] = useState<'sell' | 'offer' | null>(null);
   // The same big button whether or not the lot could be looked up.
   const sellButton = (
@@ -107,6 +118,11 @@ export function ScannedLotPage() {
       </ScanScreen>
     );
   const l = lot.data;
+  // With no signal for the roll, a sale may still wait on this device; the server checks it when sent.
+  const rollOffline = roll.error instanceof ApiError && roll.error.status === 0;
+  const canSell = ctx !== null ? may(ctx, 'sold') : rollOffline;
+  const canOffer = ctx !== null && may(ctx, 'transfer-offered');
+  const status = ctx?.state.status ?? l.status;
   return (
     <ScanScreen title={l.title} titleId="lot-title">
       <Card className={styles.card}>
@@ -114,7 +130,7 @@ export function ScannedLotPage() {
           {formatLotCode(l.code)}
         </Text>
         <Text>
-          Status: {l.status} · {l.listed ? 'listed (public page)' : 'unlisted (no public page)'}
+          Status: {status} · {l.listed ? 'listed (public page)' : 'unlisted (no public page)'}
         </Text>
         <Text>
           Newest entry: entry {l.seq} · {groupRef(l.ref!)}
@@ -133,6 +149,13 @@ export function ScannedLotPage() {
             </MessageBar>
           ))}
       </Card>
+      {verified && !verified.ok ? (
+        <MessageBar intent="error">
+          <MessageBarBody>
+            This lot’s roll does not verify: open its history before you sell or offer it.
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
       {sold ? (
         <MessageBar intent="success">
           <MessageBarBody>
@@ -141,7 +164,7 @@ export function ScannedLotPage() {
           </MessageBarBody>
         </MessageBar>
       ) : null}
-      {queued && l.status === 'held' ? (
+      {queued ? (
         <MessageBar intent="info">
           <MessageBarBody>Sale recorded on this device: waiting to send.</MessageBarBody>
         </MessageBar>
@@ -152,14 +175,13 @@ export function ScannedLotPage() {
         </MessageBar>
       ) : null}
       <div className={styles.quick} role="group" aria-label="Quick actions">
-        {l.status === 'held' && !sold && !queued ? (
-          <>
-            {sellButton}
-            <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
-              Offer to a dealer
-            </Button>
-          </>
+        {!sold && !queued && canSell ? sellButton : null}
+        {!sold && !queued && canOffer ? (
+          <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
+            Offer to a dealer
+          </Button>
         ) : null}
+        {roll.isPending ? <Spinner size="small" label="Checking the roll…" /> : null}
         <PrintTagsDialog
           lots={[{ code: l.code, listed: Boolean(l.listed) }]}
           triggerLabel="Print a new tag"
@@ -186,6 +208,7 @@ export function ScannedLotPage() {
           onDone={(sale) => {
             setSold(sale);
             void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
+            void client.invalidateQueries({ queryKey: ['lots'] });
           }}
           onQueued={setQueued}
         />
@@ -198,6 +221,7 @@ export function ScannedLotPage() {
           onDone={() => {
             setOffered(true);
             void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
+            void client.invalidateQueries({ queryKey: ['lots'] });
           }}
         />
       ) : null}

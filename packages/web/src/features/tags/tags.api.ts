@@ -1,19 +1,13 @@
 import { queryOptions } from '@tanstack/react-query';
 import { answer, client } from '../../api/client';
 import type { Schemas } from '../../api/types';
-import { api, CSRF_HEADER, toApiError } from '../../lib/api';
+import { CSRF_HEADER, toApiError } from '../../lib/api';
 
-export type TagDesign = 'string' | 'barbell';
-export type Paper = 'a4' | 'letter';
+export type TagDesign = Schemas['DesignFitResponse']['design'];
+export type Paper = keyof Schemas['PaperSizes'];
 
 /** How each design fares with the service's public host (from the server's layout check). */
-export interface TagLayouts {
-  host: string;
-  version: number;
-  designs: { design: TagDesign; fits: boolean; moduleMm?: number; reason?: string }[];
-  defaults: Record<TagDesign, { widthMm: number; heightMm: number }>;
-  papers: Record<Paper, { widthMm: number; heightMm: number }>;
-}
+export type TagLayouts = Schemas['TagLayoutsResponse'];
 
 export type SheetRequest = Schemas['SheetDto'];
 export type TagPrintRequest = Schemas['PrintTagsDto'];
@@ -27,7 +21,10 @@ export type HeldLotRow = Pick<
 export const tagsQueries = {
   all: () => ['tags'] as const,
   layouts: () =>
-    queryOptions({ queryKey: ['tags', 'layouts'], queryFn: () => api<TagLayouts>('/api/tags/layouts') }),
+    queryOptions({
+      queryKey: ['tags', 'layouts'],
+      queryFn: ({ signal }) => answer(client.GET('/api/tags/layouts', { signal })),
+    }),
   heldLots: () =>
     queryOptions({
       queryKey: ['lots', 'list', { mine: true, pageSize: 100 }],

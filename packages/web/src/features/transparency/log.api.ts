@@ -1,5 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { Bundle } from '@beadroll/core';
+import type { Schemas } from '../../api/types';
 import { ApiError } from '../../lib/api';
 import { browserMemory, checkLog, type LogCheckDeps, type LogCheckResult } from './log-check';
 
@@ -22,9 +23,9 @@ export function browserLogDeps(signal?: AbortSignal): LogCheckDeps {
     fetchWitnessKeys: () => text('/api/log/witnesses', signal),
     fetchConsistency: async (from, to) =>
       (
-        JSON.parse(await text(`/api/log/proof/consistency?from=${from}&to=${to}`, signal)) as {
-          proof: unknown;
-        }
+        JSON.parse(
+          await text(`/api/log/proof/consistency?from=${from}&to=${to}`, signal),
+        ) as Schemas['ConsistencyProofResponse']
       ).proof,
     ...browserMemory,
   };
