@@ -80,7 +80,7 @@ export function publicLotPage(app: INestApplicationContext, webDist: string) {
   return async (html: string, pathname: string, code: string, signedIn: boolean): Promise<string | null> => {
     let text: string;
     try {
-      text = (await lots.lotRead(code, signedIn)).text;
+      text = (await lots.lotRead(code, signedIn)).answer.text;
     } catch {
       return null;
     }
