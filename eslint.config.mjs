@@ -5,6 +5,7 @@ export default tseslint.config(
   {
     ignores: [
       '**/dist/**',
+      '**/dist-ssr/**',
       '**/node_modules/**',
       '.data/**',
       'test-artifacts/**',

@@ -5,27 +5,33 @@ import { defineConfig } from 'vitest/config';
 import { PUBLIC_ASSETS_DIR, pwaPlugins } from './build/pwa';
 
 /**
- * The build runs twice (`npm run build`): the dealer app (index.html) with React, then, with
+ * The build runs three times (`npm run build`): the dealer app (index.html) with React, then, with
  * `BEADROLL_ENTRY=public`, the public lot page (public.html) into the same folder with Preact's
  * React-compatible layer in place of React: the page a buyer opens on a phone at a fair loads
- * about a third of the script. Development and tests use React for both pages.
+ * about a third of the script. Last, with `--ssr`, the same page's renderer for the server
+ * (`dist-ssr/public-ssr.js`, everything bundled, so Preact stands in for React there too).
+ * Development and tests use React for both pages.
  */
 const publicBuild = process.env.BEADROLL_ENTRY === 'public';
 
 const apiPort = process.env.PORT ?? '3000';
 
-export default defineConfig({
+export default defineConfig(({ isSsrBuild }) => ({
   plugins: [
     react(),
     // A brotli and a gzip copy beside each compressible file, made once at build time at the
     // highest levels; the server sends the copy the browser accepts.
-    compression({
-      algorithms: ['brotliCompress', 'gzip'],
-      include: /\.(js|css|html|svg|json|txt|webmanifest)$/,
-      threshold: 512,
-    }),
-    // The web app manifest and the service worker of each page (see build/pwa.ts).
-    ...pwaPlugins(publicBuild ? 'public' : 'app'),
+    ...(isSsrBuild
+      ? []
+      : [
+          compression({
+            algorithms: ['brotliCompress', 'gzip'],
+            include: /\.(js|css|html|svg|json|txt|webmanifest)$/,
+            threshold: 512,
+          }),
+          // The web app manifest and the service worker of each page (see build/pwa.ts).
+          ...pwaPlugins(publicBuild ? 'public' : 'app'),
+        ]),
   ],
   resolve: publicBuild
     ? {
@@ -38,15 +44,18 @@ export default defineConfig({
         ],
       }
     : undefined,
+  ssr: { noExternal: true },
   build: {
-    emptyOutDir: !publicBuild,
+    emptyOutDir: !publicBuild || isSsrBuild,
     // The public page's files in a folder of their own: its service worker precaches exactly those.
     ...(publicBuild ? { assetsDir: PUBLIC_ASSETS_DIR } : {}),
-    rollupOptions: {
-      input: publicBuild
-        ? { public: resolve(__dirname, 'public.html') }
-        : { app: resolve(__dirname, 'index.html') },
-    },
+    rollupOptions: isSsrBuild
+      ? undefined
+      : {
+          input: publicBuild
+            ? ({ public: resolve(__dirname, 'public.html') } as Record<string, string>)
+            : { app: resolve(__dirname, 'index.html') },
+        },
   },
   server: {
     host: '127.0.0.1',
@@ -63,4 +72,4 @@ export default defineConfig({
     // Form tests type into many fields; a busy 2-core machine needs more than the 5 s default.
     testTimeout: 30_000,
   },
-});
+}));

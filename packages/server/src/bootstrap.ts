@@ -14,6 +14,7 @@ import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { installPublicLotFastPath } from './lots/public-lot-fast-path';
+import { publicLotPage } from './lots/public-lot-page';
 import { CheckpointsService } from './log/checkpoints.service';
 import { createOpenApiDocument, UNPREFIXED } from './openapi/openapi-document';
 
@@ -64,15 +65,20 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     jsonDocumentUrl: 'api/docs-json',
   });
 
-  serveWeb(app, config.webDist, app.get(CheckpointsService, { strict: false }).verifierKey());
+  serveWeb(
+    app,
+    config.webDist,
+    app.get(CheckpointsService, { strict: false }).verifierKey(),
+    publicLotPage(app, config.webDist),
+  );
   return config;
 }
 
 /**
- * A public lot page needs the lot's data before it can show anything: name it in a preload
- * link, so the browser fetches it while it still loads the page's script. The address is the
- * one the page itself asks for (the canonical code), fetched the same way (CORS mode, cookies
- * of this site only), so the browser hands the preloaded answer to the page.
+ * A public lot page that does not carry its lot's data asks for it: name it in a preload link,
+ * so the browser fetches it while it still loads the page's script. The address is the one the
+ * page itself asks for (the canonical code), fetched the same way (CORS mode, cookies of this
+ * site only), so the browser hands the preloaded answer to the page.
  */
 function preloadPublicLot(code: string | null, res: Response): void {
   if (code) res.setHeader('Link', `</api/public/lots/${code}>; rel=preload; as=fetch; crossorigin=anonymous`);
@@ -152,9 +158,15 @@ function withLogKey(html: string, logKey: string): string {
  * writes a brotli (`.br`) and a gzip (`.gz`) copy beside each compressible file; the one the
  * browser accepts is sent with its Content-Encoding and `Vary: Accept-Encoding`. Files under
  * /assets have a content hash in their names, so they never change: cached as immutable. The
- * public lot page carries the log's verifier key built in, so it can check checkpoints with it.
+ * public lot page carries the log's verifier key built in, so it can check checkpoints with it,
+ * and a listed lot's page carries that lot's public data (`withLotData`).
  */
-function serveWeb(app: NestExpressApplication, webDist: string, logKey: string): void {
+function serveWeb(
+  app: NestExpressApplication,
+  webDist: string,
+  logKey: string,
+  withLotData: ReturnType<typeof publicLotPage>,
+): void {
   const appHtml = join(webDist, 'index.html');
   const publicHtml = join(webDist, 'public.html');
   if (!existsSync(appHtml)) return;
@@ -182,8 +194,16 @@ function serveWeb(app: NestExpressApplication, webDist: string, logKey: string):
     res.setHeader('Cache-Control', 'no-cache');
     if (!isPublic) return res.sendFile(appHtml); // under 1 KB: compression gains nothing
     const code = publicLotCode(req.path);
-    preloadPublicLot(code, res);
-    const html = withLogKey(readFileSync(publicHtml, 'utf8'), logKey);
-    res.type('html').send(withLotManifest(html, code, req.path.startsWith('/L/')));
+    const html = withLotManifest(
+      withLogKey(readFileSync(publicHtml, 'utf8'), logKey),
+      code,
+      req.path.startsWith('/L/'),
+    );
+    const send = (page: string | null) => {
+      if (page === null) preloadPublicLot(code, res);
+      res.type('html').send(page ?? html);
+    };
+    if (!code) return send(null);
+    withLotData(html, req.path, code, req.headers.cookie !== undefined).then(send, next);
   });
 }

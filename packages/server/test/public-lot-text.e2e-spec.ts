@@ -7,7 +7,7 @@ import { chosenEncoding } from '../src/lots/public-lot-fast-path';
 import { CheckpointsService } from '../src/log/checkpoints.service';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
-import { useTestApp } from './support/test-app';
+import { superuserClient, useTestApp } from './support/test-app';
 
 /**
  * The public lot answer written by PostgreSQL in one statement must be the very JSON text that
@@ -123,7 +123,7 @@ describe('public lot data as one statement', () => {
     expect(chosenEncoding('deflate')).toBe('identity');
   });
 
-  it('follows an append, a change to a dealer named on the roll and a new checkpoint at once', async () => {
+  it('follows an append, a changed stored body, a change to a dealer named on the roll and a new checkpoint at once', async () => {
     const server = t.app.getHttpServer();
     const data = t.app.get(DataSource);
     const dealer = await createAccount(t, { role: 'dealer' });
@@ -160,6 +160,24 @@ describe('public lot data as one statement', () => {
     t.app.get(CheckpointsService).invalidate();
     const proved = await read();
     expect(proved.bundle.checkpoints[0]?.inclusions.map((i) => i.seq)).toEqual([1]);
+
+    // A stored body changed behind the ledger's back (triggers lifted by a superuser): the next
+    // answer carries the changed text, so the buyer's browser shows where the history breaks.
+    const su = await superuserClient(t.db.name);
+    try {
+      await su.query('BEGIN');
+      await su.query(`SET LOCAL session_replication_role = 'replica'`);
+      await su.query(
+        `UPDATE "entry_bodies" b SET "body" = replace(b."body", 'clean', 'worn')
+           FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+          WHERE b."entry_id" = e."id" AND l."code" = $1 AND e."seq" = 1`,
+        [code],
+      );
+      await su.query('COMMIT');
+    } finally {
+      await su.end();
+    }
+    expect((await read()).bundle.rolls[0]!.entries[1]!.body).toContain('worn');
 
     // No longer listed (as another instance would leave it): the bare 404 at once.
     await data.query(`UPDATE "lot_views" SET "listed" = false WHERE "code" = $1`, [code]);

@@ -2,12 +2,12 @@
 // The public lot page's service worker (registered for `/l/` and `/L/`): the page's own files
 // precached, and the last copy of each lot page and its data kept, so a lot opened once opens
 // again with no signal. The page checks the saved data again and says it is a saved copy.
-import { ExpirationPlugin } from 'workbox-expiration';
+import { CacheExpiration, ExpirationPlugin } from 'workbox-expiration';
 import { cleanupOutdatedCaches, matchPrecache, precacheAndRoute } from 'workbox-precaching';
 import { registerRoute, setCatchHandler } from 'workbox-routing';
 import { CacheFirst, NetworkFirst } from 'workbox-strategies';
 import type { WorkboxPlugin } from 'workbox-core/types.js';
-import { LOT_DATA, LOT_EXHIBIT, SAVED_COPY_HEADER } from './paths';
+import { LOT_DATA, LOT_DATA_BLOCK, LOT_EXHIBIT, SAVED_COPY_HEADER } from './paths';
 
 declare const self: ServiceWorkerGlobalScope & {
   __WB_MANIFEST: Array<{ url: string; revision: string | null } | string>;
@@ -38,17 +38,57 @@ const onlyWhole: WorkboxPlugin = {
   cacheWillUpdate: async ({ response }) => (response.status === 200 ? response : null),
 };
 
+const DATA_CACHE = 'beadroll-lot-data';
+const dataExpiration = new CacheExpiration(DATA_CACHE, { maxEntries: MAX_LOTS * 2 });
+
+/**
+ * A listed lot's page comes with the lot's data in it. The data is kept where the page looks
+ * for it with no signal (as if it had been fetched, dated as the page was), and the page is kept
+ * without it: a saved page then always asks for its data, and is told it is the saved copy.
+ */
+const keepDataApart: WorkboxPlugin = {
+  cacheWillUpdate: async ({ response }) => {
+    const html = await response.clone().text();
+    const block = LOT_DATA_BLOCK.exec(html);
+    if (!block) return response;
+    let code: unknown;
+    try {
+      code = (JSON.parse(block[1]!) as { code?: unknown } | null)?.code;
+    } catch {
+      code = undefined; // not data the page could use either: the page is kept without it
+    }
+    if (typeof code === 'string') {
+      const url = new URL(`/api/public/lots/${encodeURIComponent(code)}`, self.location.href).href;
+      const headers = new Headers({ 'Content-Type': 'application/json; charset=utf-8' });
+      const date = response.headers.get('Date');
+      if (date) headers.set('Date', date);
+      await (await caches.open(DATA_CACHE)).put(url, new Response(block[1], { status: 200, headers }));
+      await dataExpiration.updateTimestamp(url);
+      await dataExpiration.expireEntries();
+    }
+    // The text kept is decoded and shorter: the sizes and encoding sent with it no longer apply.
+    const headers = new Headers(response.headers);
+    headers.delete('Content-Length');
+    headers.delete('Content-Encoding');
+    return new Response(html.replace(block[0], ''), {
+      status: response.status,
+      statusText: response.statusText,
+      headers,
+    });
+  },
+};
+
 // The page itself: fresh from the server when it answers (it carries the log's current key).
 const pages = new NetworkFirst({
   cacheName: 'beadroll-lot-pages',
   networkTimeoutSeconds: NETWORK_TIMEOUT_S,
-  plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS }), onlyWhole],
+  plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS }), onlyWhole, keepDataApart],
 });
 registerRoute(({ request }) => request.mode === 'navigate', pages);
 
 // The lot's data and bundle: only answers that were given in full (200) are kept.
 const lotData = new NetworkFirst({
-  cacheName: 'beadroll-lot-data',
+  cacheName: DATA_CACHE,
   networkTimeoutSeconds: NETWORK_TIMEOUT_S,
   plugins: [new ExpirationPlugin({ maxEntries: MAX_LOTS * 2 }), onlyWhole, markSavedCopy],
 });

@@ -9,3 +9,6 @@ export const LOT_EXHIBIT = /^\/api\/public\/lots\/[^/]+\/(inherited\/[^/]+\/)?ex
 
 /** Response header the lot worker adds to an answer it gives from its saved copy. */
 export const SAVED_COPY_HEADER = 'Beadroll-Saved-Copy';
+
+/** The data block in which the server sends a listed lot's public data with its page. */
+export const LOT_DATA_BLOCK = /<script type="application\/json" id="lot-data">([^<]*)<\/script>/;

@@ -11,6 +11,8 @@ export interface PublicLotAnswer {
 export interface CachedPublicLot {
   /** The roll's head hash read (before the answer) by PUBLIC_LOT_KEY_SQL. */
   head: string;
+  /** The digest of the roll's stored text read with it (PublicLotKeyRow.roll). */
+  roll: string;
   /** The accounts digest read with it, over `digestOf`. */
   accounts: string | null;
   /** The accounts that digest covers. */
@@ -34,7 +36,7 @@ const MAX_CHARS = 32 * 1024 * 1024;
 /**
  * Composed public answers by lot code, oldest out first. An answer is only ever served again
  * after a fresh read of what it depends on has found the same head, the same card columns and the
- * same checkpoint member (PublicLotsService.lotRead), so an append, an account change or a new
+ * same checkpoint member and the same stored text of the roll (PublicLotsService.lotRead), so an append, an account change or a new
  * checkpoint on any instance is seen by the next read, and a read from a standby that is behind
  * never gets an answer it cannot vouch for.
  */

@@ -84,6 +84,8 @@ export async function readPublicLot(
 export const PUBLIC_LOT_KEY_SQL = `
 SELECT l."head_hash" AS "head", l."head_seq",
   (SELECT e."log_index" FROM "entries" e WHERE e."lot_id" = l."id" AND e."seq" = l."head_seq") AS "head_log_index",
+  (SELECT encode(sha256(convert_to(string_agg(e."hash" || e."header" || coalesce(b."body", '-'), ',' ORDER BY e."seq"), 'UTF8')), 'hex')
+     FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE e."lot_id" = l."id") AS "roll",
   (SELECT md5(string_agg(ROW(a."id", a."handle", a."display_name", a."business", a."town", a."country",
                              a."verified_at", a."status", a."role")::text, ',' ORDER BY a."id"))
      FROM "accounts" a WHERE a."id" = ANY($2::uuid[])) AS "accounts"
@@ -93,6 +95,11 @@ WHERE v."code" = $1 AND v."listed"`;
 /** The row {@link PUBLIC_LOT_KEY_SQL} returns for a listed lot. */
 export interface PublicLotKeyRow {
   head: string;
+  /**
+   * A digest of every stored entry and body of the roll: a change made to the stored text
+   * behind the ledger's back (which the buyer's browser must be shown) makes a kept answer stale.
+   */
+  roll: string;
   head_seq: number;
   head_log_index: string | null;
   accounts: string | null;

@@ -101,7 +101,8 @@ export class PublicLotsService {
    * child or combined piece walks its ancestors on the same connection. A signed-in reader
    * (`signedIn`) always reads the primary, so a dealer sees what they have just written.
    * A lot without parents is answered again with the answer composed last time while a read of
-   * what it depends on (head, card columns, checkpoint member) finds them unchanged.
+   * what it depends on (head, stored text of the roll, card columns, checkpoint member) finds
+   * them unchanged.
    */
   async lotRead(text: string, signedIn = false): Promise<{ answer: PublicLotAnswer; from: ReadSource }> {
     const code = RollReaderService.canonicalCode(text);
@@ -119,6 +120,7 @@ export class PublicLotsService {
     if (
       cached &&
       key.head === cached.head &&
+      key.roll === cached.roll &&
       key.accounts === cached.accounts &&
       sameList(cached.digestOf, cached.named)
     ) {
@@ -142,6 +144,7 @@ export class PublicLotsService {
     const proved = { latest, seq: row.head_seq, logIndex: row.head_log_index };
     this.cache.set(code, {
       head: key.head,
+      roll: key.roll,
       accounts: key.accounts,
       digestOf,
       named,

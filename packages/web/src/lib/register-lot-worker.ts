@@ -1,5 +1,4 @@
-import { publicLotPath } from '../features/public-lot/public-lot.api';
-import { parsePublicPath } from '../features/public-lot/route';
+import { parsePublicPath, publicLotPath } from '../features/public-lot/route';
 
 /**
  * Registers the public lot page's service worker (lot-sw.js) for the address family the page

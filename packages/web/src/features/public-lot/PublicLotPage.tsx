@@ -1,9 +1,7 @@
 import { formatLotCode, type RollState } from '@beadroll/core';
 import { QueryClientProvider, useQuery, type QueryClient } from '@tanstack/react-query';
-import { useEffect, useMemo, useState, type ReactNode } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { createQueryClient } from '../../lib/query-client';
-import { ReportProblem } from '../registry/ReportProblem';
-import { LogPanel } from '../transparency/LogPanel';
 import { Ancestry } from './Ancestry';
 import { brandVars } from './brand-vars';
 import { checkLot, checkTag, type LotCheck } from './check-lot';
@@ -14,7 +12,12 @@ import { HolderCard, LotFacts } from './LotFacts';
 import { NotFound } from './NotFound';
 import { OnRecord } from './OnRecord';
 import { Opinions } from './Opinions';
-import { publicLotQuery, type DealerCard } from './public-lot.api';
+import {
+  publicLotQuery,
+  type DealerCard,
+  type PublicLotResponse,
+  type PublicLotResult,
+} from './public-lot.api';
 import { parsePublicPath } from './route';
 import { StatusPanel } from './StatusPanel';
 import { Timeline } from './Timeline';
@@ -23,13 +26,45 @@ import { VerifyYourself } from './VerifyYourself';
 import { countWords, FORM_WORDS, STATUS_WORDS } from './words';
 import './public-lot.css';
 
-/** The public history page for the address `pathname` (`/l/{code}` or `/L/{code}/{H}`). */
-export function PublicLotApp({ pathname, client }: { pathname: string; client?: QueryClient }) {
-  const [qc] = useState(() => client ?? createQueryClient());
+// Loaded after the page's own check: the log check (signatures and proofs) and the report form
+// are not needed to show the history and its verification, so the buyer does not wait for them.
+const LogPanel = lazy(() => import('../transparency/LogPanel').then((m) => ({ default: m.LogPanel })));
+const ReportProblem = lazy(() =>
+  import('../registry/ReportProblem').then((m) => ({ default: m.ReportProblem })),
+);
+
+/**
+ * The public history page for the address `pathname` (`/l/{code}` or `/L/{code}/{H}`). `data` is
+ * the lot's public data when the server sent it with the page (checked exactly as the API's
+ * answer would be); otherwise the page fetches it. `prerender`: the server's rendering of the
+ * page, which shows the history as served and leaves the check to the browser (no verdict, no
+ * log check).
+ */
+export function PublicLotApp({
+  pathname,
+  client,
+  data,
+  prerender = false,
+}: {
+  pathname: string;
+  client?: QueryClient;
+  data?: PublicLotResponse | null;
+  prerender?: boolean;
+}) {
   const route = parsePublicPath(pathname);
+  const [qc] = useState(() => {
+    const qc = client ?? createQueryClient();
+    if (route && data && data.code === route.code) {
+      const seeded: PublicLotResult = { found: true, data };
+      qc.setQueryData(publicLotQuery(route.code).queryKey, seeded);
+    }
+    return qc;
+  });
   return (
     <QueryClientProvider client={qc}>
-      <Frame>{route ? <LotPage code={route.code} tagRef={route.tagRef} /> : <NotFound />}</Frame>
+      <Frame>
+        {route ? <LotPage code={route.code} tagRef={route.tagRef} prerender={prerender} /> : <NotFound />}
+      </Frame>
     </QueryClientProvider>
   );
 }
@@ -52,7 +87,7 @@ function Frame({ children }: { children: ReactNode }) {
   );
 }
 
-function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
+function LotPage({ code, tagRef, prerender }: { code: string; tagRef: string | null; prerender: boolean }) {
   const q = useQuery(publicLotQuery(code));
   const data = q.data?.found ? q.data.data : null;
   const savedCopy = q.data?.found ? q.data.savedCopy : undefined;
@@ -77,10 +112,24 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
           {check?.ok && <OnRecord record={check.record} cards={cards} inherited={check.inherited} />}
         </div>
         <div className="pl-side">
-          <StatusPanel check={check} loading={q.isPending} tagRef={tagRef} savedCopy={savedCopy} />
+          <StatusPanel
+            check={prerender ? null : check}
+            loading={q.isPending}
+            prerendered={prerender}
+            tagRef={tagRef}
+            savedCopy={savedCopy}
+          />
           {check?.ok &&
             data &&
-            (savedCopy ? <LogWaitsForSignal /> : <LogPanel code={code} bundle={data.bundle} />)}
+            (prerender ? (
+              <LogPending />
+            ) : savedCopy ? (
+              <LogWaitsForSignal />
+            ) : (
+              <Suspense fallback={<LogPending />}>
+                <LogPanel code={code} bundle={data.bundle} />
+              </Suspense>
+            ))}
           {check?.ok && <HolderCard state={check.state} cards={cards} />}
           {check?.ok && <LotFacts state={check.state} />}
           {check?.ok && <HandlingCautions entries={check.entries} />}
@@ -100,8 +149,24 @@ function LotPage({ code, tagRef }: { code: string; tagRef: string | null }) {
         )}
       </div>
       {check && <Body check={check} cards={cards} tagRef={tagRef} />}
-      {data && <ReportProblem code={code} />}
+      {data && !prerender && (
+        <Suspense fallback={null}>
+          <ReportProblem code={code} />
+        </Suspense>
+      )}
     </>
+  );
+}
+
+/** The log panel's place while its code loads, in the words it starts with. */
+function LogPending() {
+  return (
+    <section className="pl-card pl-log" aria-labelledby="pl-log-h">
+      <h2 id="pl-log-h" className="pl-visually-hidden">
+        Public log
+      </h2>
+      <p className="pl-status-line">Checking the registry’s public log…</p>
+    </section>
   );
 }
 

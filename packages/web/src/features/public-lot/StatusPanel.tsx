@@ -1,7 +1,6 @@
 import { useId, useState, type FormEvent } from 'react';
-import { dateWords, BREAK_WORDS } from './words';
 import { checkTag, type LotCheck, type TagCheck } from './check-lot';
-import { formatLotCode } from '@beadroll/core';
+import { historyWords } from './history-words';
 import type { SavedCopy } from './public-lot.api';
 
 /** The verification status, announced to screen readers whenever it changes. */
@@ -10,12 +9,15 @@ export function StatusPanel({
   loading,
   tagRef,
   savedCopy,
+  prerendered = false,
 }: {
   check: LotCheck | null;
   loading: boolean;
   tagRef: string | null;
   /** Set when the data is the copy this browser kept, shown with no signal. */
   savedCopy?: SavedCopy;
+  /** The server's rendering: the history is on the page and is checked when the script runs. */
+  prerendered?: boolean;
 }) {
   const [typed, setTyped] = useState<{ text: string; result: TagCheck } | null>(null);
   const fromAddress = check && tagRef ? checkTag(check.entries, tagRef) : null;
@@ -29,12 +31,17 @@ export function StatusPanel({
         Verification
       </h2>
       <div role="status" aria-live="polite" aria-atomic="true" className="pl-status-live">
-        {loading && <p className="pl-status-line">Fetching the history and checking it in this browser…</p>}
+        {prerendered && <p className="pl-status-line">Checking this history in this browser…</p>}
+        {loading && !prerendered && (
+          <p className="pl-status-line">Fetching the history and checking it in this browser…</p>
+        )}
         {check && savedCopy && <SavedCopyLine savedCopy={savedCopy} ok={check.ok} />}
         {check && <HistoryLine check={check} />}
         {check && tag && <TagLine tag={tag} broken={!check.ok} typed={!fromAddress} />}
       </div>
-      {check && !tagRef && <TagBox onCheck={(text, result) => setTyped({ text, result })} check={check} />}
+      {(check || prerendered) && !tagRef && (
+        <TagBox onCheck={(text, result) => setTyped({ text, result })} check={check} />
+      )}
     </section>
   );
 }
@@ -63,65 +70,22 @@ function SavedCopyLine({ savedCopy, ok }: { savedCopy: SavedCopy; ok: boolean })
 }
 
 function HistoryLine({ check }: { check: LotCheck }) {
-  if (check.ok && check.unchecked.length > 0) {
-    const first = check.unchecked[0]!;
-    return (
-      <>
-        <p className="pl-status-line pl-warn">
-          <span aria-hidden="true" className="pl-mark">
-            !
-          </span>{' '}
-          Unbroken, but not fully checkable after a removal
-        </p>
-        <p className="pl-status-sub">
-          Every fingerprint and link checks out, but the registrar removed an old entry's contents, and{' '}
-          {check.unchecked.length === 1 ? 'one rule' : `${check.unchecked.length} rules`} of this older
-          history could not be checked without them (entry {first.seq}: {first.message}).
-        </p>
-      </>
-    );
-  }
-  if (check.ok) {
-    const n = check.entries.length;
-    const more = check.bundleEntries - n;
-    return (
-      <>
-        <p className="pl-status-line pl-ok">
-          <span aria-hidden="true" className="pl-mark">
-            ✓
-          </span>{' '}
-          Unbroken history as served: {n} {n === 1 ? 'entry' : 'entries'}
-        </p>
-        <p className="pl-status-sub">
-          Every fingerprint and link was recomputed in this browser
-          {more > 0
-            ? `, with ${more} linked ${more === 1 ? 'entry' : 'entries'} of the lots it came from`
-            : ''}
-          .
-        </p>
-      </>
-    );
-  }
-  const f = check.failure;
-  const why = f.reason in BREAK_WORDS ? BREAK_WORDS[f.reason as keyof typeof BREAK_WORDS] : f.message;
-  const where =
-    f.reason === 'not-a-bundle' || f.reason === 'no-roll'
-      ? 'The data served is not a readable history of this lot.'
-      : f.lot && f.lot !== check.code
-        ? `History broken in linked lot ${formatLotCode(f.lot)} at entry ${f.seq}: ${why}.`
-        : `History broken at entry ${f.seq} of ${check.total}${f.at ? ` (${f.at.kind}, ${dateWords(f.at.time)})` : ''}: ${why}.`;
+  const w = historyWords(check);
   return (
     <>
-      <p className="pl-status-line pl-bad">
+      <p className={`pl-status-line pl-${w.tone}`}>
         <span aria-hidden="true" className="pl-mark">
-          ✗
+          {w.mark}
         </span>{' '}
-        {where}
+        {w.line}
       </p>
-      <p className="pl-status-sub">
-        Reason code <code>{f.reason}</code>. Nothing from the break on is shown; the entries before it are
-        listed as served.
-      </p>
+      {w.reason === undefined ? (
+        <p className="pl-status-sub">{w.sub}</p>
+      ) : (
+        <p className="pl-status-sub">
+          Reason code <code>{w.reason}</code>. {w.sub}
+        </p>
+      )}
     </>
   );
 }
@@ -176,12 +140,20 @@ function TagLine({ tag, broken, typed }: { tag: TagCheck; broken: boolean; typed
   );
 }
 
-function TagBox({ check, onCheck }: { check: LotCheck; onCheck: (text: string, r: TagCheck) => void }) {
+function TagBox({
+  check,
+  onCheck,
+}: {
+  /** null until the history has been checked in this browser: nothing to compare with yet. */
+  check: LotCheck | null;
+  onCheck: (text: string, r: TagCheck) => void;
+}) {
   const id = useId();
   const [text, setText] = useState('');
   const [error, setError] = useState<string | null>(null);
   const submit = (e: FormEvent) => {
     e.preventDefault();
+    if (!check) return;
     const result = checkTag(check.entries, text);
     if (result.state === 'unreadable') {
       setError('Type the code printed on the tag, for example ABCDE-FGHJK-X (older tags: ABCDE-FGHJK).');

@@ -71,11 +71,24 @@ export type LotCheck =
       failure: HistoryBreak;
     };
 
+// The page's first script checks the data before the rest of the page has loaded; the page then
+// asks again for the same data object and is given that result, not a second run.
+const checked = new WeakMap<object, { code: string; check: LotCheck }>();
+
 /**
  * Verifies the lot's roll and every cross-lot link of the bundle. Precondition: `code` is the
- * canonical lot code from the page's address. Never throws.
+ * canonical lot code from the page's address. Never throws. The same `raw` object checked again
+ * for the same code gives the same result without a second run.
  */
 export function checkLot(code: string, raw: unknown): LotCheck {
+  const known = raw !== null && typeof raw === 'object' ? checked.get(raw) : undefined;
+  if (known && known.code === code) return known.check;
+  const check = checkLotOnce(code, raw);
+  if (raw !== null && typeof raw === 'object') checked.set(raw, { code, check });
+  return check;
+}
+
+function checkLotOnce(code: string, raw: unknown): LotCheck {
   let bundle: Bundle;
   try {
     bundle = parseBundle(raw);

@@ -3,6 +3,7 @@ import type { Bundle } from '@beadroll/core';
 // Types only from the generated API: the public page carries no API client beyond lib/api.
 import type { Schemas, WithCore } from '../../api/types';
 import { ApiError, toApiError } from '../../lib/api';
+import { publicLotPath } from './route';
 
 /** A dealer's card as the registry reports it (not part of the verified roll). */
 export type DealerCard = Schemas['DealerCard'];
@@ -29,7 +30,7 @@ export const SAVED_COPY_HEADER = 'Beadroll-Saved-Copy';
 export type PublicLotResult =
   { found: true; data: PublicLotResponse; savedCopy?: SavedCopy } | { found: false };
 
-export const publicLotPath = (code: string) => `/api/public/lots/${encodeURIComponent(code)}`;
+export { publicLotPath };
 export const publicBundlePath = (code: string) => `${publicLotPath(code)}/bundle`;
 export const exhibitPath = (code: string, seq: number, variant: ExhibitVariant) =>
   `${publicLotPath(code)}/exhibits/${seq}/${variant}`;

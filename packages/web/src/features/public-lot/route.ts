@@ -23,3 +23,6 @@ export function parsePublicPath(pathname: string): PublicRoute | null {
   }
   return { code, tagRef: m[2] ? decodeURIComponent(m[2]) : null };
 }
+
+/** The API address of a lot's public data. */
+export const publicLotPath = (code: string) => `/api/public/lots/${encodeURIComponent(code)}`;
