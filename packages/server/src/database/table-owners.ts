@@ -46,15 +46,6 @@ export const OWNERSHIP_EXCEPTIONS: ReadonlyArray<{ path: string; reason: string 
       'the audit compares every stored copy (lot views, cached states, sealed values, exhibits, ' +
       'offers, sales) with what the rolls say; it only reads, and must read the tables themselves',
   },
-  {
-    path: 'lots/public-lot-text.ts',
-    reason:
-      'the public answer of a listed lot (its view, its entries and bodies as stored text, the cards ' +
-      'of its verified actors) is one read-only statement, the busiest public read: split across the ' +
-      'ledger and accounts services it would cost several round trips, and the public-data benchmark ' +
-      'runs this very text on its bare server. public-lot-text.e2e-spec holds it to the answer built ' +
-      "from the ledger's reader and DealerCardsService, lot for lot",
-  },
 ];
 
 /**

@@ -1,6 +1,16 @@
 import { createHash } from 'node:crypto';
 import { BUNDLE_VERSION } from '@beadroll/core';
 import type { DealerCard } from '../accounts/dto/dealer-card.dto';
+import { dealerCardsDigestSql, dealerCardsJsonSql } from '../accounts/dealer-card-sql';
+import {
+  lotHeadJoinSql,
+  rollEntriesJsonSql,
+  rollHasParentsSql,
+  rollHeadSql,
+  rollLogIndexAtSql,
+  rollNamedAccountsSql,
+  rollTextDigestSql,
+} from '../ledger/roll-sql';
 
 /**
  * One statement for the public answer of a listed lot (parameter: its canonical code): no row
@@ -12,44 +22,18 @@ import type { DealerCard } from '../accounts/dto/dealer-card.dto';
  * transfer offers, in the order they first appear on it, shaped as {@link DealerCard} with
  * the same status rule as DealerCardsService.
  * `has_parents` says the first entry names parent lots: those need the bundle walk over ancestors.
- * Framework-free so the public-data benchmark's bare server can run the very same text.
+ * Framework-free so the public-data benchmark's bare server can run the very same text. The parts
+ * that read the roll and the accounts are written by their owners (ledger/roll-sql,
+ * accounts/dealer-card-sql); this module names only its own `lot_views`.
  */
 export const PUBLIC_LOT_SQL = `
 SELECT
-  COALESCE((SELECT COALESCE(json_typeof(e."header"::json -> 'parents'), 'null') <> 'null'
-              FROM "entries" e WHERE e."lot_id" = v."lot_id" AND e."seq" = 0), false) AS "has_parents",
-  COALESCE((SELECT '[' || string_agg(
-                 '{"hash":' || to_json(e."hash")::text
-              || ',"header":' || to_json(e."header")::text
-              || ',"body":' || COALESCE(to_json(b."body")::text, 'null')
-              || ',"logIndex":' || COALESCE(e."log_index"::text, 'null') || '}',
-               ',' ORDER BY e."seq") || ']'
-              FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-              WHERE e."lot_id" = v."lot_id"), '[]') AS "entries",
-  (SELECT e."seq" FROM "entries" e WHERE e."lot_id" = v."lot_id" ORDER BY e."seq" DESC LIMIT 1) AS "head_seq",
-  (SELECT e."log_index" FROM "entries" e WHERE e."lot_id" = v."lot_id" ORDER BY e."seq" DESC LIMIT 1)
+  ${rollHasParentsSql('v."lot_id"')} AS "has_parents",
+  ${rollEntriesJsonSql('v."lot_id"')} AS entries,
+  ${rollHeadSql('v."lot_id"', 'seq')} AS "head_seq",
+  ${rollHeadSql('v."lot_id"', 'log_index')}
     AS "head_log_index",
-  (SELECT json_agg(json_build_object(
-            'id', a."id",
-            'handle', a."handle",
-            'displayName', a."display_name",
-            'business', a."business",
-            'town', a."town",
-            'country', a."country",
-            'verifiedSince', to_char(a."verified_at" AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
-            'status', CASE a."status" WHEN 'verified' THEN 'verified' WHEN 'suspended' THEN 'suspended'
-                      ELSE 'former' END,
-            'role', a."role")
-          ORDER BY r."first")
-     FROM (SELECT x."actor", min(x."at") AS "first" FROM (
-              SELECT e."actor", 2 * e."seq" AS "at" FROM "entries" e WHERE e."lot_id" = v."lot_id"
-              UNION ALL
-              SELECT b."body"::json ->> 'recipient', 2 * e."seq" + 1
-                FROM "entries" e JOIN "entry_bodies" b ON b."entry_id" = e."id"
-               WHERE e."lot_id" = v."lot_id" AND e."kind" = 'transfer-offered') x
-            GROUP BY x."actor") r
-     JOIN "accounts" a ON a."id"::text = r."actor"
-     WHERE a."verified_at" IS NOT NULL) AS "cards"
+  ${dealerCardsJsonSql(rollNamedAccountsSql('v."lot_id"'))} AS "cards"
 FROM "lot_views" v
 WHERE v."code" = $1 AND v."listed"`;
 
@@ -83,13 +67,10 @@ export async function readPublicLot(
  */
 export const PUBLIC_LOT_KEY_SQL = `
 SELECT l."head_hash" AS "head", l."head_seq",
-  (SELECT e."log_index" FROM "entries" e WHERE e."lot_id" = l."id" AND e."seq" = l."head_seq") AS "head_log_index",
-  (SELECT encode(sha256(convert_to(string_agg(e."hash" || e."header" || coalesce(b."body", '-'), ',' ORDER BY e."seq"), 'UTF8')), 'hex')
-     FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE e."lot_id" = l."id") AS "roll",
-  (SELECT md5(string_agg(ROW(a."id", a."handle", a."display_name", a."business", a."town", a."country",
-                             a."verified_at", a."status", a."role")::text, ',' ORDER BY a."id"))
-     FROM "accounts" a WHERE a."id" = ANY($2::uuid[])) AS "accounts"
-FROM "lot_views" v JOIN "lots" l ON l."id" = v."lot_id"
+  ${rollLogIndexAtSql('l."id"', 'l."head_seq"')} AS "head_log_index",
+  ${rollTextDigestSql('l."id"')} AS "roll",
+  ${dealerCardsDigestSql('$2::uuid[]')} AS accounts
+FROM "lot_views" v ${lotHeadJoinSql('l', 'v."lot_id"')}
 WHERE v."code" = $1 AND v."listed"`;
 
 /** The row {@link PUBLIC_LOT_KEY_SQL} returns for a listed lot. */
