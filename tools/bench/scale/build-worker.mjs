@@ -3,23 +3,11 @@
 // the rows of the lots, entries, entry_bodies and lot_views tables as COPY text, for the main
 // thread to write while this worker builds the next range. Started by run.ts.
 import { randomUUID } from 'node:crypto';
+import { COLOURS, WORDS } from './words.mjs';
 import { parentPort } from 'node:worker_threads';
 import { buildEntry, generateLotCode, headOf, reduceEntry, seededRandom } from '@beadroll/core';
 
-const COLOURS = ['amber', 'cobalt', 'white', 'green', 'red', 'black', 'yellow', 'turquoise', 'rose', 'grey'];
 const FORMS = ['loose', 'strand', 'necklace', 'piece', 'mixed'];
-const WORDS = [
-  'chevron',
-  'rosetta',
-  'millefiori',
-  'feather',
-  'eye',
-  'trade',
-  'seed',
-  'lampwork',
-  'drawn',
-  'wound',
-];
 const T0 = Date.UTC(2024, 0, 1);
 
 /** COPY text format: backslash, tab, newline and carriage return escaped; \N is null. */

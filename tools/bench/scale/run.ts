@@ -20,6 +20,7 @@ import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { REPO } from '../../lib/app-env.ts';
 import { startBenchApp, type BenchApp } from '../lib/bench-app.ts';
+import { COLOURS, WORDS } from './words.mjs';
 
 const arg = (name: string) => {
   const i = process.argv.indexOf(name);
@@ -165,20 +166,6 @@ async function bulkLoad(pool: pg.Pool, actor: string, startLot: number, lots: nu
   if (lots > BATCH) process.stdout.write('\n');
   await pool.query('ANALYZE');
 }
-
-const COLOURS = ['amber', 'cobalt', 'white', 'green', 'red', 'black', 'yellow', 'turquoise', 'rose', 'grey'];
-const WORDS = [
-  'chevron',
-  'rosetta',
-  'millefiori',
-  'feather',
-  'eye',
-  'trade',
-  'seed',
-  'lampwork',
-  'drawn',
-  'wound',
-];
 
 const pct = (xs: number[], p: number) =>
   [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(xs.length * p))]!;

@@ -23,7 +23,13 @@ import {
   type VerifiedEntry,
 } from '@beadroll/core';
 import { DataSource } from 'typeorm';
-import { jsonDifferences, replayStoredRoll, type StoredEntryRow } from '../ledger/roll-replay';
+import {
+  jsonDifferences,
+  replayStoredRoll,
+  storedEntryRowOf,
+  type EntryRowColumns,
+  type StoredEntryRow,
+} from '../ledger/roll-replay';
 import { lotViewValues } from '../lots/lot-view.projector';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 import { attributionRecordOf } from '../lots/attribution-record';
@@ -98,19 +104,7 @@ export type AuditEvent =
 const LOT_BATCH = 500;
 const BATCH_ENTRIES = 20_000;
 
-type EntryRowOf = {
-  lot_id: string;
-  id: string;
-  seq: number;
-  kind: string;
-  actor: string;
-  time: string;
-  hash: string;
-  header: string;
-  body: string | null;
-  redacts_seq: number | null;
-  log_index: string | null;
-};
+type EntryRowOf = EntryRowColumns & { lot_id: string };
 
 interface SealedRow {
   lot_id: string;
@@ -173,18 +167,7 @@ function replayRows(
 ): { result: RollVerification; entries: number } {
   const v = createRollVerifier(lot.code);
   for (const r of rows) {
-    const row = {
-      id: r.id,
-      seq: r.seq,
-      kind: r.kind,
-      actor: r.actor,
-      time: r.time,
-      hash: r.hash,
-      header: r.header,
-      body: r.body,
-      redactsSeq: r.redacts_seq,
-      logIndex: r.log_index === null ? null : Number(r.log_index),
-    };
+    const row = storedEntryRowOf(r);
     const failure = v.push(row);
     if (failure) return { result: failure, entries: rows.length };
     visit(row, v.last!);

@@ -26,18 +26,7 @@ export async function readEntryRows(
   lotId: string,
   opts: { fromSeq?: number; limit?: number; kinds?: string[] } = {},
 ): Promise<Array<StoredEntryRow & { logIndex: number | null }>> {
-  const rows: Array<{
-    id: string;
-    seq: number;
-    kind: string;
-    actor: string;
-    time: string;
-    hash: string;
-    header: string;
-    body: string | null;
-    redacts_seq: number | null;
-    log_index: string | null;
-  }> = await manager.query(
+  const rows: EntryRowColumns[] = await manager.query(
     `SELECT e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body",
             e."redacts_seq", e."log_index"
        FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
@@ -45,11 +34,37 @@ export async function readEntryRows(
       ORDER BY e."seq" LIMIT $3`,
     [lotId, opts.fromSeq ?? 0, opts.limit ?? 1_000_000, opts.kinds ?? null],
   );
-  return rows.map(({ redacts_seq, log_index, ...r }) => ({
-    ...r,
-    redactsSeq: redacts_seq,
-    logIndex: log_index === null ? null : Number(log_index),
-  }));
+  return rows.map(storedEntryRowOf);
+}
+
+/** An entry row with its body as the database answers it (column names as stored). */
+export interface EntryRowColumns {
+  id: string;
+  seq: number;
+  kind: string;
+  actor: string;
+  time: string;
+  hash: string;
+  header: string;
+  body: string | null;
+  redacts_seq: number | null;
+  log_index: string | null;
+}
+
+/** A row as read from the database, as the replay and its visitors take it. */
+export function storedEntryRowOf(r: EntryRowColumns): StoredEntryRow & { logIndex: number | null } {
+  return {
+    id: r.id,
+    seq: r.seq,
+    kind: r.kind,
+    actor: r.actor,
+    time: r.time,
+    hash: r.hash,
+    header: r.header,
+    body: r.body,
+    redactsSeq: r.redacts_seq,
+    logIndex: r.log_index === null ? null : Number(r.log_index),
+  };
 }
 
 /** How many entries are read from the database at once while a roll is replayed. */

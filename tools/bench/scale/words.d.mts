@@ -1,0 +1,2 @@
+export declare const COLOURS: readonly string[];
+export declare const WORDS: readonly string[];
