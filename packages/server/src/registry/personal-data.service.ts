@@ -1,6 +1,7 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { DataSource } from 'typeorm';
 import { AccountsService } from '../accounts/accounts.service';
+import { applicantDocumentOf } from '../accounts/dto/registry.dto';
 import type { Account } from '../accounts/entities/account.entity';
 import { EmailTokensService } from '../auth/email-tokens.service';
 import { PasswordsService } from '../auth/passwords.service';
@@ -68,15 +69,7 @@ export class PersonalDataService {
         address: a.address,
         website: a.website,
         tradeReferences: a.tradeReferences,
-        document:
-          a.documentSha256 && a.documentType
-            ? {
-                sha256: a.documentSha256,
-                mediaType: a.documentType,
-                size: a.documentSize ?? 0,
-                name: a.documentName ?? 'document',
-              }
-            : null,
+        document: applicantDocumentOf(a),
         emailConfirmedAt: a.emailVerifiedAt?.toISOString() ?? null,
         verifiedSince: a.verifiedAt?.toISOString() ?? null,
         statusReason: a.statusReason,

@@ -45,21 +45,25 @@ export class ApplicantResponse extends AccountIdentity {
 
 export class RegistryPage extends Page(ApplicantResponse) {}
 
+/** The document an applicant sent with the application, as the registrar and the applicant see it; null when none. */
+export function applicantDocumentOf(a: Account): ApplicantResponse['document'] {
+  return a.documentSha256 && a.documentType
+    ? {
+        sha256: a.documentSha256,
+        mediaType: a.documentType,
+        size: a.documentSize ?? 0,
+        name: a.documentName ?? 'document',
+      }
+    : null;
+}
+
 export function toApplicantResponse(a: Account): ApplicantResponse {
   return {
     ...toAccountIdentity(a),
     address: a.address,
     website: a.website,
     tradeReferences: a.tradeReferences,
-    document:
-      a.documentSha256 && a.documentType
-        ? {
-            sha256: a.documentSha256,
-            mediaType: a.documentType,
-            size: a.documentSize ?? 0,
-            name: a.documentName ?? 'document',
-          }
-        : null,
+    document: applicantDocumentOf(a),
     appliedAt: a.createdAt.toISOString(),
     verifiedSince: a.verifiedAt?.toISOString() ?? null,
     statusReason: a.statusReason,
