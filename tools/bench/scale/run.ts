@@ -6,7 +6,7 @@
 // lot list with a text query) and the full-ledger audit's entries/s and peak memory (the
 // `npm run audit` program). Targets: public data and append at full size ≤ 1.2× at 1,000;
 // search ≤ 100 ms; the audit ≥ 50,000 entries/s in flat memory.
-// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M]
+// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M] [--audit-only] [--hold]
 //   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -29,6 +29,10 @@ const arg = (name: string) => {
 const ENTRIES = arg('--entries') ?? 1_000_000;
 const LOTS = arg('--lots') ?? Math.max(1, Math.round(ENTRIES / 10));
 const SMALL = 1000;
+// --audit-only: measure the audit alone; --hold: after loading, print the cluster's environment
+// and keep it (and the app) until Ctrl+C, for profiling the audit by hand.
+const AUDIT_ONLY = process.argv.includes('--audit-only');
+const HOLD = process.argv.includes('--hold');
 
 interface CannonResult {
   latency: { p50: number; p99: number };
@@ -265,6 +269,19 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
     )
   ).rows.map((r: { code: string }) => r.code);
   if (codes.length === 0) throw new Error('no listed lot held by the dealer');
+  if (AUDIT_ONLY) {
+    const a = await audit(app);
+    return {
+      entries: n,
+      publicP50: NaN,
+      publicP99: NaN,
+      appendP50: NaN,
+      appendP99: NaN,
+      searchP95: NaN,
+      auditRate: a.entries / a.seconds,
+      auditPeakMb: a.peakMb,
+    } satisfies Figures;
+  }
   const pub = await autocannon({
     url: `${app.origin}/api/public/lots/${codes[0]}`,
     connections: 8,
@@ -350,6 +367,12 @@ async function main(): Promise<void> {
       `loaded ${(ENTRIES - SMALL).toLocaleString('en')} more entries in ${loadSeconds.toFixed(0)} s ` +
         `(${Math.round((ENTRIES - SMALL) / loadSeconds).toLocaleString('en')} entries/s); measuring…`,
     );
+    if (HOLD) {
+      const keys = ['PGHOST', 'PGPORT', 'PGUSER', 'PGPASSWORD', 'PGDATABASE'];
+      console.log(keys.map((k) => `export ${k}='${app.env[k]}'`).join('\n'));
+      console.log('holding the cluster and the app; Ctrl+C ends them');
+      await new Promise(() => undefined);
+    }
     const big = await measure(app, pool, headers, actor);
     const ok = (b: boolean) => (b ? 'met' : 'NOT met');
     console.log('');
