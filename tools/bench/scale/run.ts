@@ -18,7 +18,7 @@ import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { REPO } from '../../lib/app-env.ts';
+import { AUDIT_NODE_OPTIONS, REPO } from '../../lib/app-env.ts';
 import { startBenchApp, type BenchApp } from '../lib/bench-app.ts';
 import { COLOURS, WORDS } from './words.mjs';
 
@@ -193,17 +193,22 @@ async function signIn(app: BenchApp): Promise<{ headers: Record<string, string>;
 }
 
 /**
- * Runs the audit program and samples its peak resident memory (VmHWM). The rate is timed from
- * its first line ("auditing N lots…"), after the program has started and connected.
+ * Runs the audit program as `npm run audit` does (with its heap limit) and samples its peak
+ * resident memory (VmHWM). The rate is timed from its first line ("auditing N lots…"), after the
+ * program has started and connected.
  */
 function audit(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
   return new Promise((resolve, reject) => {
     const started = performance.now();
-    const child = spawn('node', [join(REPO, 'packages/server/dist/audit/audit-cli.js')], {
-      cwd: REPO,
-      env: app.env,
-      stdio: ['ignore', 'pipe', 'inherit'],
-    });
+    const child = spawn(
+      'node',
+      [...AUDIT_NODE_OPTIONS, join(REPO, 'packages/server/dist/audit/audit-cli.js')],
+      {
+        cwd: REPO,
+        env: app.env,
+        stdio: ['ignore', 'pipe', 'inherit'],
+      },
+    );
     let out = '';
     let peakKb = 0;
     let auditing = started;
