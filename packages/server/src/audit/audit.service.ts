@@ -250,7 +250,8 @@ export class AuditService {
   }
 
   /**
-   * The next lots in id order (those left over from the last batch, then those after `after`),
+   * The next lots in id order (those left over from the last batch, then those after `after`:
+   * the last lot id read, '' before the first batch, null once every lot has been read),
    * up to LOT_BATCH lots or BATCH_ENTRIES entries, with every row the checks compare, read in one
    * statement per table by a range of lot ids (an index range, in the order the checks take
    * them). A roll longer than BATCH_ENTRIES comes alone and is replayed a page at a time, so
