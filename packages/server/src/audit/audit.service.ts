@@ -98,6 +98,8 @@ export type AuditEvent =
 /** Lots checked per batch, and most entries a batch reads at once. */
 const LOT_BATCH = 500;
 const BATCH_ENTRIES = 20_000;
+/** Batches read (or being read) ahead of the one being checked. */
+const READ_AHEAD = 2;
 
 /** The columns of an entry row the audit compares with its header. */
 interface EntryColumns {
@@ -220,13 +222,19 @@ export class AuditService {
     let lotsChecked = 0;
     let entriesChecked = 0;
     let broken = 0;
-    // The next batch is read while this one is checked.
-    let next = this.readBatch('', []);
+    // The next batches are read, one after another, while this one is checked.
+    const readAfter = (previous: Promise<LotBatch>) => {
+      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(b.after, b.rest)));
+      read.catch(() => undefined); // awaited in its turn; a failure is thrown there
+      return read;
+    };
+    let last = this.readBatch('', []);
+    const ahead = [last];
+    while (ahead.length < READ_AHEAD) ahead.push((last = readAfter(last)));
     for (;;) {
-      const batch = await next;
+      const batch = await ahead.shift()!;
       if (batch.lots.length === 0) break;
-      next = this.readBatch(batch.after, batch.rest);
-      next.catch(() => undefined); // awaited on the next turn; a failure is thrown there
+      ahead.push((last = readAfter(last)));
       for (const lot of batch.lots) {
         const problem = await this.checkLot(lot, (n) => (entriesChecked += n), batch);
         if (problem) {
