@@ -118,40 +118,42 @@ const KEPT_COMPRESSED = 100;
 /**
  * Sends public pages brotli-compressed for browsers that accept it. A page carries the lot's
  * data and its first script (about 90 KB before compression), and the same page is asked for
- * again and again at a fair, so each page is compressed once at the highest quality (about a
- * tenth smaller than the quality the general compression uses) and kept, by a digest of its
- * text. That takes a fifth of a second, so it runs on the thread pool: until it is done, the page
- * goes out at a quality made in a few milliseconds. The ETag names the page's text, the same for
- * either copy, so a browser holding one gets a 304 for the other. Returns false (nothing sent)
- * when the browser does not take brotli: the page then goes the ordinary way.
+ * again and again at a fair. Each page text is compressed at once at quality 5 (a few
+ * milliseconds) and kept, by a digest of its text; when it is asked for a second time, it is
+ * compressed again at quality 11 (about a tenth smaller; a fifth of a second, on the thread pool,
+ * one page at a time, so a busy ledger whose pages change often costs at most one thread), and
+ * that copy replaces the first. The ETag names the page's text, the same for either copy, so a
+ * browser holding one gets a 304 for the other. Returns false (nothing sent) when the browser
+ * does not take brotli: the page then goes the ordinary way.
  */
 export function publicPageSender() {
-  const kept = new Map<string, Buffer>();
-  const making = new Set<string>();
-  const keep = (key: string, body: Buffer) => {
+  const kept = new Map<string, { body: Buffer; best: boolean }>();
+  let making: string | null = null;
+  const keep = (key: string, copy: { body: Buffer; best: boolean }) => {
     kept.delete(key);
-    kept.set(key, body);
+    kept.set(key, copy);
     if (kept.size > KEPT_COMPRESSED) kept.delete(kept.keys().next().value!);
+  };
+  const makeBest = (key: string, page: string) => {
+    making = key;
+    brotliCompress(page, { params: { [constants.BROTLI_PARAM_QUALITY]: 11 } }, (err, body) => {
+      making = null;
+      if (!err && kept.has(key)) keep(key, { body, best: true });
+    });
   };
   return (acceptEncoding: string | undefined, res: Response, page: string): boolean => {
     if (!/\bbr\b/.test(acceptEncoding ?? '')) return false;
     const key = createHash('sha256').update(page).digest('base64url');
-    let body = kept.get(key);
-    if (body) keep(key, body);
-    else {
-      body = brotliCompressSync(page, { params: { [constants.BROTLI_PARAM_QUALITY]: 5 } });
-      if (!making.has(key)) {
-        making.add(key);
-        brotliCompress(page, { params: { [constants.BROTLI_PARAM_QUALITY]: 11 } }, (err, best) => {
-          making.delete(key);
-          if (!err) keep(key, best);
-        });
-      }
-    }
+    let copy = kept.get(key);
+    if (!copy) {
+      const body = brotliCompressSync(page, { params: { [constants.BROTLI_PARAM_QUALITY]: 5 } });
+      copy = { body, best: false };
+    } else if (!copy.best && making === null) makeBest(key, page);
+    keep(key, copy);
     res.setHeader('ETag', `W/"${key.slice(0, 27)}"`);
     res.setHeader('Content-Encoding', 'br');
     res.vary('Accept-Encoding');
-    res.type('html').send(body);
+    res.type('html').send(copy.body);
     return true;
   };
 }
