@@ -8,4 +8,4 @@ import * as shared from './features/public-lot/page-shared';
 // Re-exported only so the build can name what the rest of the page may take from `shared`.
 export * from './features/public-lot/page-shared';
 
-window.beadrollPage = { shared, data: firstCheck() };
+window.beadrollPage = { shared, data: firstCheck(window.location.pathname) };

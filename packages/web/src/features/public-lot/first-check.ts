@@ -10,8 +10,8 @@ import type { PublicLotResponse } from './public-lot.api';
  * the rendered status panel. Returns the data (null when the page came without it: it is then
  * fetched), the very object the rest of the page renders, so its check is not run twice.
  */
-export function firstCheck(doc: Document = document): PublicLotResponse | null {
-  const route = parsePublicPath(doc.location.pathname);
+export function firstCheck(pathname: string, doc: Document = document): PublicLotResponse | null {
+  const route = parsePublicPath(pathname);
   const data = route ? embeddedLot(route.code, doc) : null;
   const live = doc.querySelector('#root .pl-status-live');
   if (route && data && live) writeHistoryLine(live, checkLot(route.code, data.bundle));
