@@ -296,6 +296,34 @@ describe('stored copies of a roll', () => {
     expect((await audit()).broken.find((x) => x.lot === code)).toBeUndefined();
   });
 
+  it('does not report an entry appended between the statements that read a batch', async () => {
+    const code = await newLot();
+    // The dealer writes just after the audit read the lot's row and just before it reads the
+    // entries: the first look sees one entry more than the cached head, the second look (one
+    // snapshot) sees them agree.
+    const m = t.app.get(DataSource).manager;
+    const query = m.query.bind(m);
+    let appended = false;
+    const spy = jest.spyOn(m, 'query').mockImplementation(async (sql: string, params?: unknown[]) => {
+      if (!appended && /FROM "entries" e WHERE e\."lot_id" BETWEEN/.test(sql)) {
+        appended = true;
+        await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
+      }
+      return query(sql, params);
+    });
+    try {
+      const { broken } = await audit();
+      expect(appended).toBe(true);
+      expect(broken.find((x) => x.lot === code)).toBeUndefined();
+    } finally {
+      spy.mockRestore();
+    }
+    // A difference that stays in the second look is still reported.
+    await tamper(t, `UPDATE "lot_views" SET "count_value" = 7 WHERE "code" = $1`, [code]);
+    expect((await audit()).broken.find((x) => x.lot === code)).toMatchObject({ reason: STORED_COPY });
+    expect(await refreshStoredCopies(t.app.get(DataSource).manager)).toBeGreaterThan(0);
+  });
+
   async function entryCount(code: string): Promise<number> {
     const res = await request(t.app.getHttpServer()).get(`/api/public/lots/${code}`);
     if (res.status !== 200) throw new Error(`public lot ${code}: ${res.status}`);

@@ -22,7 +22,7 @@ import {
   TRANSFER_KINDS,
   type VerifiedEntry,
 } from '@beadroll/core';
-import { DataSource } from 'typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
 import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
 import { DERIVED_COLUMNS, lotViewValues } from '../lots/lot-view.projector';
 import { sameJson } from './same-json';
@@ -97,6 +97,8 @@ export type AuditEvent =
 
 /** Lots checked per batch, and most entries a batch reads at once. */
 const LOT_BATCH = 500;
+/** A lot's row as the checks compare it, and how many entries its roll holds. */
+const LOT_COLUMNS = `"id", "code", "head_seq", "head_hash", "head_time", "state", "head_seq" + 1 AS "entries"`;
 const BATCH_ENTRIES = 20_000;
 /** Batches read (or being read) ahead of the one being checked. */
 const READ_AHEAD = 2;
@@ -236,7 +238,8 @@ export class AuditService {
       if (batch.lots.length === 0) break;
       ahead.push((last = readAfter(last)));
       for (const lot of batch.lots) {
-        const problem = await this.checkLot(lot, (n) => (entriesChecked += n), batch);
+        const first = await this.checkLot(lot, (n) => (entriesChecked += n), batch, this.dataSource.manager);
+        const problem = first && (await this.recheck(lot.id));
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -273,8 +276,7 @@ export class AuditService {
     let last = after;
     if (lots.length < LOT_BATCH && last !== null) {
       const more: Array<LotRow & { entries: number }> = await this.dataSource.query(
-        `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state", "head_seq" + 1 AS "entries" FROM "lots"
-          WHERE $1::uuid IS NULL OR "id" > $1::uuid ORDER BY "id" LIMIT $2`,
+        `SELECT ${LOT_COLUMNS} FROM "lots" WHERE $1::uuid IS NULL OR "id" > $1::uuid ORDER BY "id" LIMIT $2`,
         [last === '' ? null : last, LOT_BATCH],
       );
       last = more.length < LOT_BATCH ? null : more[more.length - 1]!.id;
@@ -284,11 +286,21 @@ export class AuditService {
     let count = 0;
     while (count < lots.length && (count === 0 || total + lots[count]!.entries <= BATCH_ENTRIES))
       total += lots[count++]!.entries;
-    const chosen = lots.slice(0, count);
+    return this.readRows(lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
+  }
+
+  /** Every row the checks compare of these consecutive lots (in id order), read through `m`. */
+  private async readRows(
+    chosen: LotRow[],
+    total: number,
+    after: string | null,
+    rest: Array<LotRow & { entries: number }>,
+    m: EntityManager,
+  ): Promise<LotBatch> {
     const batch: LotBatch = {
       lots: chosen,
-      after: last,
-      rest: lots.slice(count),
+      after,
+      rest,
       entries: new Map(),
       views: new Map(),
       sealed: new Map(),
@@ -313,33 +325,32 @@ export class AuditService {
     };
     const [entries, views, sealed, exhibits, offers, sales] = await Promise.all([
       total <= BATCH_ENTRIES
-        ? (this.dataSource.query(
+        ? (m.query(
             `SELECT e."lot_id", e."seq", e."kind", e."actor", e."time", e."hash", e."header",
                     (SELECT b."body" FROM "entry_bodies" b WHERE b."entry_id" = e."id") AS "body", e."redacts_seq"
                FROM "entries" e WHERE e."lot_id" BETWEEN $1 AND $2 ORDER BY e."lot_id", e."seq"`,
             range,
           ) as Promise<EntryRowOf[]>)
         : Promise.resolve([] as EntryRowOf[]),
-      this.dataSource.query(
-        `SELECT ${VIEW_COLUMNS} FROM "lot_views" WHERE "lot_id" BETWEEN $1 AND $2`,
-        range,
-      ) as Promise<Array<Record<string, unknown> & { lot_id: string }>>,
-      this.dataSource.query(
+      m.query(`SELECT ${VIEW_COLUMNS} FROM "lot_views" WHERE "lot_id" BETWEEN $1 AND $2`, range) as Promise<
+        Array<Record<string, unknown> & { lot_id: string }>
+      >,
+      m.query(
         `SELECT e."lot_id", e."seq", s."name", s."salt", s."value", s."commitment", s."visible_to" FROM "sealed_fields" s
            JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" BETWEEN $1 AND $2 ORDER BY e."lot_id", e."seq", s."name"`,
         range,
       ) as Promise<SealedRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
           WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "seq"`,
         range,
       ) as Promise<ExhibitRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
            FROM "transfer_offers" WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "offer_seq"`,
         range,
       ) as Promise<OfferRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
           WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "seq"`,
         range,
@@ -357,10 +368,27 @@ export class AuditService {
     return batch;
   }
 
+  /**
+   * Reads one lot again, every table in one REPEATABLE READ snapshot, and checks it again: a
+   * batch reads its tables in separate statements, so an entry appended between two of them
+   * would otherwise look like a stored copy that disagrees with the roll.
+   */
+  private recheck(id: string): Promise<LotProblem | null> {
+    return this.dataSource.transaction('REPEATABLE READ', async (m) => {
+      const [lot] = (await m.query(`SELECT ${LOT_COLUMNS} FROM "lots" WHERE "id" = $1`, [id])) as Array<
+        LotRow & { entries: number }
+      >;
+      if (!lot) return null;
+      const batch = await this.readRows([lot], lot.entries, null, [], m);
+      return this.checkLot(lot, () => undefined, batch, m);
+    });
+  }
+
   private async checkLot(
     lot: LotRow,
     counted: (n: number) => void,
     batch: LotBatch,
+    m: EntityManager,
   ): Promise<LotProblem | null> {
     const diffs: StoredCopyDifference[] = [];
     const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
@@ -394,9 +422,7 @@ export class AuditService {
     };
     const { result, entries } = read
       ? replayRows(lot, read, visit)
-      : await replayStoredRoll(this.dataSource.manager, lot, (row, e) =>
-          visit({ ...row, redacts_seq: row.redactsSeq }, e),
-        );
+      : await replayStoredRoll(m, lot, (row, e) => visit({ ...row, redacts_seq: row.redactsSeq }, e));
     counted(entries);
     if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
     const head = result.head;
@@ -470,7 +496,7 @@ export class AuditService {
     const isClosed = async (actor: string) => {
       closed ??= new Set(
         (
-          (await this.dataSource.query(
+          (await m.query(
             `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
             [[...new Set(sealedActors.values())]],
           )) as Array<{ id: string }>
@@ -496,7 +522,7 @@ export class AuditService {
 
     const parents = (first as EntryHeader | null)?.parents ?? [];
     for (const p of parents) {
-      const rows: Array<{ hash: string; header: string; body: string | null }> = await this.dataSource.query(
+      const rows: Array<{ hash: string; header: string; body: string | null }> = await m.query(
         `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
          LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
         [p.lot, p.seq],
