@@ -172,6 +172,9 @@ function serialise(value: unknown): string {
  */
 export function parseCanonical(text: string): unknown {
   if (typeof text !== 'string') throw new CanonicalError('not-json', 'expected a string');
+  // Fastest path: one reading that both builds the value and sees that the text is canonical.
+  const read = readCanonical(text);
+  if (read !== UNDECIDED) return read;
   let parsed: unknown;
   try {
     parsed = JSON.parse(text);
@@ -334,3 +337,273 @@ function endOfEscapedString(text: string, i: number): number {
   }
   return -1;
 }
+
+/** What {@link readCanonical} returns when it leaves the decision to the full check. */
+const UNDECIDED: unique symbol = Symbol('undecided');
+const READ_DEPTH = 100;
+/** The text being read by {@link readCanonical} and the position in it. */
+let src = '';
+let at = 0;
+/** True when {@link src} holds no backslash, no control character and no lone surrogate. */
+let plain = false;
+/** A backslash or a control character (anything outside space to U+FFFF but the backslash). */
+const ESCAPE_OR_CONTROL = /[^ -[\]-\uffff]/;
+
+/**
+ * Reads `text` as JSON in one pass and returns its value, exactly as JSON.parse would build it
+ * (the same members in the same order), but only when the same pass shows that the text is the
+ * ledger canonical form of that value: no white space; keys, compared as UTF-16 code units,
+ * strictly increasing and written without escapes; strings holding only well-formed characters
+ * as themselves and the escapes the canonical form writes; numbers written as ECMAScript writes
+ * them, integers among them safe; nesting at most {@link READ_DEPTH} deep. Anything else gives
+ * {@link UNDECIDED}, and the full check (JSON.parse, then the RFC 8785 serialiser) decides, so
+ * both paths accept exactly the same texts with the same values.
+ */
+function readCanonical(text: string): unknown {
+  src = text;
+  at = 0;
+  // The usual text has no escape, no control character and no lone surrogate: each of its
+  // strings then simply runs to the next quote.
+  plain = !ESCAPE_OR_CONTROL.test(text) && wellFormed(text);
+  const v = readValue(0);
+  const done = at === text.length;
+  src = '';
+  return done ? v : UNDECIDED;
+}
+
+/**
+ * Reads one JSON value of `text` from index `start` as {@link readCanonical} reads a whole text,
+ * for a caller that reads the text around it. Returns the value when that piece is written the
+ * canonical way (its end is then {@link endOfCanonicalRead}), or undefined when it cannot tell.
+ */
+export function readCanonicalAt(text: string, start: number): unknown {
+  src = text;
+  at = start;
+  plain = false;
+  const v = readValue(0);
+  readEnd = at;
+  src = '';
+  return v === UNDECIDED ? undefined : v;
+}
+
+/** Where the value read by the last {@link readCanonicalAt} ends in its text. */
+export function endOfCanonicalRead(): number {
+  return readEnd;
+}
+
+let readEnd = 0;
+
+function readValue(depth: number): unknown {
+  const c = src.charCodeAt(at);
+  switch (c) {
+    case QUOTE:
+      return readString();
+    case 0x7b: // {
+      return depth < READ_DEPTH ? readObject(depth + 1) : UNDECIDED;
+    case 0x5b: // [
+      return depth < READ_DEPTH ? readArray(depth + 1) : UNDECIDED;
+    case 0x74: // t
+      if (!src.startsWith('true', at)) return UNDECIDED;
+      at += 4;
+      return true;
+    case 0x66: // f
+      if (!src.startsWith('false', at)) return UNDECIDED;
+      at += 5;
+      return false;
+    case 0x6e: // n
+      if (!src.startsWith('null', at)) return UNDECIDED;
+      at += 4;
+      return null;
+    default:
+      return readNumber();
+  }
+}
+
+function readObject(depth: number): unknown {
+  at++;
+  const o: Record<string, unknown> = {};
+  if (src.charCodeAt(at) === 0x7d) {
+    at++;
+    return o;
+  }
+  let prev = '';
+  for (let first = true; ; first = false) {
+    if (src.charCodeAt(at) !== QUOTE) return UNDECIDED;
+    const k = readKey();
+    // A repeated or unordered key is not canonical; `__proto__` would set the prototype here
+    // where JSON.parse makes a member, so the full check reads it.
+    if (k === null || (!first && !(prev < k)) || k === '__proto__') return UNDECIDED;
+    if (src.charCodeAt(at) !== 0x3a) return UNDECIDED;
+    at++;
+    const v = readValue(depth);
+    if (v === UNDECIDED) return UNDECIDED;
+    o[k] = v;
+    prev = k;
+    const c = src.charCodeAt(at++);
+    if (c === 0x7d) return o;
+    if (c !== 0x2c) return UNDECIDED;
+  }
+}
+
+function readArray(depth: number): unknown {
+  at++;
+  const a: unknown[] = [];
+  if (src.charCodeAt(at) === 0x5d) {
+    at++;
+    return a;
+  }
+  for (;;) {
+    const v = readValue(depth);
+    if (v === UNDECIDED) return UNDECIDED;
+    a.push(v);
+    const c = src.charCodeAt(at++);
+    if (c === 0x5d) return a;
+    if (c !== 0x2c) return UNDECIDED;
+  }
+}
+
+/** A key: a string of plain characters (no escape), or null. */
+function readKey(): string | null {
+  const start = ++at;
+  const end = plainRun(start);
+  if (src.charCodeAt(end) !== QUOTE) return null;
+  at = end + 1;
+  // Texts repeat the same few keys: the string kept for a key of this length and first and
+  // last characters is taken again when it is the same, saving a copy and its lookup as a name.
+  const length = end - start;
+  const slot = (length * 31 + src.charCodeAt(start) * 7 + src.charCodeAt(end - 1)) & (KEY_SLOTS - 1);
+  const kept = keptKeys[slot]!;
+  if (kept.length === length && src.startsWith(kept, start)) return kept;
+  const key = src.slice(start, end);
+  keptKeys[slot] = key;
+  return key;
+}
+
+const KEY_SLOTS = 256;
+const keptKeys: string[] = new Array<string>(KEY_SLOTS).fill('');
+
+/**
+ * The end of the run of characters from `i` that the canonical form writes as themselves:
+ * anything but a quote, a backslash, a control character or a lone surrogate.
+ */
+function plainRun(i: number): number {
+  if (plain) {
+    const end = src.indexOf('"', i);
+    return end < 0 ? src.length : end;
+  }
+  const n = src.length;
+  for (; i < n; i++) {
+    const c = src.charCodeAt(i);
+    if (c === QUOTE || c === BACKSLASH || c < 0x20) return i;
+    if (c >= 0xd800 && c <= 0xdfff) {
+      // A high surrogate followed by a low one is one character; anything else is lone.
+      const d = src.charCodeAt(i + 1);
+      if (c > 0xdbff || !(d >= 0xdc00 && d <= 0xdfff)) return i;
+      i++;
+    }
+  }
+  return i;
+}
+
+function readString(): unknown {
+  const start = ++at;
+  let end = plainRun(start);
+  let c = src.charCodeAt(end);
+  if (c === QUOTE) {
+    at = end + 1;
+    return src.slice(start, end);
+  }
+  let out = src.slice(start, end);
+  while (c === BACKSLASH) {
+    const e = src.charCodeAt(end + 1);
+    let next = end + 2;
+    let ch: number;
+    switch (e) {
+      case QUOTE:
+      case BACKSLASH:
+        ch = e;
+        break;
+      case 0x62: // b
+        ch = 0x08;
+        break;
+      case 0x66: // f
+        ch = 0x0c;
+        break;
+      case 0x6e: // n
+        ch = 0x0a;
+        break;
+      case 0x72: // r
+        ch = 0x0d;
+        break;
+      case 0x74: // t
+        ch = 0x09;
+        break;
+      case 0x75: {
+        // u: only a control character without a short escape is written \u00xx, in lower case.
+        ch = controlEscape(end + 2);
+        if (ch < 0) return UNDECIDED;
+        next = end + 6;
+        break;
+      }
+      default:
+        return UNDECIDED;
+    }
+    out += String.fromCharCode(ch);
+    end = plainRun(next);
+    out += src.slice(next, end);
+    c = src.charCodeAt(end);
+  }
+  if (c !== QUOTE) return UNDECIDED;
+  at = end + 1;
+  return out;
+}
+
+/** The control character that `00xx` at `i` names when canonical text writes it so; else -1. */
+function controlEscape(i: number): number {
+  if (src.charCodeAt(i) !== 0x30 || src.charCodeAt(i + 1) !== 0x30) return -1;
+  const hi = src.charCodeAt(i + 2) - 0x30;
+  const lo = LOWER_HEX_VALUE[src.charCodeAt(i + 3)] ?? -1;
+  if ((hi !== 0 && hi !== 1) || lo < 0) return -1;
+  const ch = hi * 16 + lo;
+  return SHORT_ESCAPE_CODES.includes(ch) ? -1 : ch;
+}
+
+const LOWER_HEX_VALUE: Record<number, number> = {};
+for (let d = 0; d < 16; d++) LOWER_HEX_VALUE['0123456789abcdef'.charCodeAt(d)] = d;
+
+function readNumber(): unknown {
+  const start = at;
+  let i = at;
+  let c = src.charCodeAt(i);
+  const negative = c === 0x2d;
+  if (negative) c = src.charCodeAt(++i);
+  // The common case: an integer of 1 to 15 digits, no leading zero, exact in a double.
+  if (c >= 0x31 && c <= 0x39) {
+    let value = 0;
+    const from = i;
+    for (; c >= 0x30 && c <= 0x39; c = src.charCodeAt(++i)) value = value * 10 + (c - 0x30);
+    if (i - from <= 15 && c !== 0x2e && c !== 0x65 && c !== 0x45) {
+      at = i;
+      return negative ? -value : value;
+    }
+  } else if (c === 0x30 && !negative) {
+    c = src.charCodeAt(i + 1);
+    if (c !== 0x2e && c !== 0x65 && c !== 0x45 && !(c >= 0x30 && c <= 0x39)) {
+      at = i + 1;
+      return 0;
+    }
+  }
+  // Anything else: the text must be what ECMAScript writes for the number it names.
+  i = start;
+  for (c = src.charCodeAt(i); NUMBER_CHAR[c] === 1; c = src.charCodeAt(++i));
+  const token = src.slice(start, i);
+  const n = Number(token);
+  if (token === '' || String(n) !== token || (Number.isInteger(n) && !Number.isSafeInteger(n)))
+    return UNDECIDED;
+  at = i;
+  return n;
+}
+
+/** 1 for the characters a JSON number is written with. */
+const NUMBER_CHAR = new Uint8Array(128);
+for (const ch of '0123456789-+.eE') NUMBER_CHAR[ch.charCodeAt(0)] = 1;

@@ -1,5 +1,5 @@
 import { bytesToHex } from '@noble/hashes/utils.js';
-import { canonicalise, parseCanonical } from './canonical.js';
+import { canonicalise, endOfCanonicalRead, parseCanonical, readCanonicalAt } from './canonical.js';
 import { CanonicalError, ValidationError, type FieldIssue } from './errors.js';
 import { factsOf } from './facts.js';
 import { bodyDigest, entryHash } from './hash.js';
@@ -245,12 +245,36 @@ export interface HeaderProblem {
  * throws; returns the header or the first problem (`non-canonical`, `unknown-version`,
  * `bad-header`, `bad-seq`, `bad-time`, `bad-actor`, `bad-prev`, `bad-body-digest`, `bad-parent`).
  * `knownHash`, when given, is a value already known to be 64 lower-case hex digits (the previous
- * entry's hash, which `prev` usually repeats), so that check is not made twice.
+ * entry's hash, which `prev` usually repeats), and `knownDigest` likewise (the digest of the
+ * entry's body, which `body` usually repeats), so those checks are not made twice.
  */
-export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | HeaderProblem {
+export function decodeHeader(
+  text: unknown,
+  knownHash?: string,
+  knownDigest?: string,
+): EntryHeader | HeaderProblem {
+  // The usual header is read straight from its text. Whatever is unusual about it, or any
+  // check it fails, is left to the full reading, which also words the problem.
+  if (typeof text === 'string') {
+    const usual = readUsualHeader(text);
+    if (usual !== null && headerProblem(usual, knownHash, knownDigest) === null)
+      return usual as unknown as EntryHeader;
+  }
+  return decodeHeaderFully(text, knownHash, knownDigest);
+}
+
+/**
+ * {@link decodeHeader} by the full reading alone (parseCanonical, then the checks), the same
+ * answer for every input; kept apart so tests can hold the direct reading to it.
+ */
+export function decodeHeaderFully(
+  text: unknown,
+  knownHash?: string,
+  knownDigest?: string,
+): EntryHeader | HeaderProblem {
+  if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
   let v: unknown;
   try {
-    if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
     v = parseCanonical(text);
   } catch (e) {
     return { reason: 'non-canonical', message: `header: ${(e as Error).message}` };
@@ -258,6 +282,15 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
   if (v === null || typeof v !== 'object' || Array.isArray(v))
     return { reason: 'bad-header', message: 'the header is not an object' };
   const o = v as Record<string, unknown>;
+  return headerProblem(o, knownHash, knownDigest) ?? (o as unknown as EntryHeader);
+}
+
+/** The first problem of a parsed header object (see {@link decodeHeader}), or null. */
+function headerProblem(
+  o: Record<string, unknown>,
+  knownHash: string | undefined,
+  knownDigest: string | undefined,
+): HeaderProblem | null {
   if (!(FORMAT_VERSIONS as readonly unknown[]).includes(o.v))
     return {
       reason: 'unknown-version',
@@ -285,7 +318,8 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
   lastActor = o.actor as string;
   if (o.prev !== knownHash && !isHex64(o.prev))
     return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
-  if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
+  if (o.body !== knownDigest && !isHex64(o.body))
+    return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
   if ('sealed' in o && !isHex64(o.sealed))
     return { reason: 'bad-header', message: 'sealed is not 64 hex digits' };
   if ('parents' in o) {
@@ -299,7 +333,94 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
     if (issues.length > 0)
       return { reason: 'bad-facts', message: `${issues[0]!.path}: ${issues[0]!.message}` };
   }
-  return o as unknown as EntryHeader;
+  return null;
+}
+
+/**
+ * Reads a header written the usual way, straight from its text, with no JSON.parse:
+ * `{"actor":"…","body":"…",["facts":…,]"kind":"…","lot":"…","prev":"…",["sealed":"…",]"seq":N,"time":"…","v":N}`,
+ * the keys in that (canonical) order, each string running to the next quote, each integer
+ * canonical, and `facts` a value `readCanonicalAt` finds canonical. Returns null for anything
+ * else (`parents`, another key, another spelling). The object has the members in text order, as
+ * JSON.parse gives them. Precondition of trusting it: {@link headerProblem} finds nothing. Every
+ * string member is then checked to hold only characters of its own kind (account id, lot code,
+ * kind, time, hex digits), none of them a quote, backslash or control character, so each string
+ * read here is the whole JSON string, the text is canonical, and its parse is this object.
+ */
+function readUsualHeader(t: string): Record<string, unknown> | null {
+  if (t.charCodeAt(0) !== 0x7b) return null;
+  pos = 1;
+  const actor = stringMember(t, '"actor":"');
+  if (actor === null) return null;
+  const body = stringMember(t, '"body":"');
+  if (body === null) return null;
+  let facts: unknown;
+  if (t.startsWith('"facts":', pos)) {
+    facts = readCanonicalAt(t, pos + 8);
+    pos = endOfCanonicalRead();
+    if (facts === undefined || t.charCodeAt(pos++) !== 0x2c) return null;
+  }
+  const kind = stringMember(t, '"kind":"');
+  if (kind === null) return null;
+  const lot = stringMember(t, '"lot":"');
+  if (lot === null) return null;
+  const prev = stringMember(t, '"prev":"');
+  if (prev === null) return null;
+  let sealed: string | null = null;
+  if (t.startsWith('"sealed":"', pos)) {
+    sealed = stringMember(t, '"sealed":"');
+    if (sealed === null) return null;
+  }
+  const seq = integerMember(t, '"seq":');
+  if (seq < 0 || t.charCodeAt(pos++) !== 0x2c) return null;
+  const time = stringMember(t, '"time":"');
+  if (time === null) return null;
+  const v = integerMember(t, '"v":');
+  if (v < 0 || pos !== t.length - 1 || t.charCodeAt(pos) !== 0x7d) return null;
+  // One literal per shape, so each header gets its members in one step and in text order.
+  if (facts === undefined)
+    return sealed === null
+      ? { actor, body, kind, lot, prev, seq, time, v }
+      : { actor, body, kind, lot, prev, sealed, seq, time, v };
+  return sealed === null
+    ? { actor, body, facts, kind, lot, prev, seq, time, v }
+    : { actor, body, facts, kind, lot, prev, sealed, seq, time, v };
+}
+
+/** Where {@link readUsualHeader} is in its text. */
+let pos = 0;
+
+/**
+ * The text between the quotes of `member` (`"key":"`) at {@link pos} and the next quote, which
+ * a comma follows; {@link pos} then moves past the comma. Null when the text is otherwise.
+ */
+function stringMember(t: string, member: string): string | null {
+  if (!t.startsWith(member, pos)) return null;
+  const start = pos + member.length;
+  const end = t.indexOf('"', start);
+  if (end < 0 || t.charCodeAt(end + 1) !== 0x2c) return null;
+  pos = end + 2;
+  return t.slice(start, end);
+}
+
+/**
+ * The non-negative integer written canonically after `member` (`"key":`) at {@link pos}, which
+ * then moves past it; -1 when the text is otherwise.
+ */
+function integerMember(t: string, member: string): number {
+  if (!t.startsWith(member, pos)) return -1;
+  let i = pos + member.length;
+  let c = t.charCodeAt(i);
+  if (c === 0x30) {
+    pos = i + 1;
+    return 0;
+  }
+  const from = i;
+  let value = 0;
+  for (; c >= 0x30 && c <= 0x39; c = t.charCodeAt(++i)) value = value * 10 + (c - 0x30);
+  if (i === from || i - from > 15) return -1;
+  pos = i;
+  return value;
 }
 
 // The lot code and actor checked last: a roll repeats them from header to header, so each is
