@@ -257,7 +257,7 @@ export function decodeHeader(
   // check it fails, is left to the full reading, which also words the problem.
   if (typeof text === 'string') {
     const usual = readUsualHeader(text);
-    if (usual !== null && headerProblem(usual, knownHash, knownDigest) === null)
+    if (usual !== null && headerProblem(usual, knownHash, knownDigest, true) === null)
       return usual as unknown as EntryHeader;
   }
   return decodeHeaderFully(text, knownHash, knownDigest);
@@ -282,23 +282,32 @@ export function decodeHeaderFully(
   if (v === null || typeof v !== 'object' || Array.isArray(v))
     return { reason: 'bad-header', message: 'the header is not an object' };
   const o = v as Record<string, unknown>;
-  return headerProblem(o, knownHash, knownDigest) ?? (o as unknown as EntryHeader);
+  return headerProblem(o, knownHash, knownDigest, false) ?? (o as unknown as EntryHeader);
 }
 
-/** The first problem of a parsed header object (see {@link decodeHeader}), or null. */
+/**
+ * The first problem of a parsed header object (see {@link decodeHeader}), or null. `usual`: the
+ * object came from {@link readUsualHeader}, so its keys are among those of version 2 and later,
+ * and only `facts` in a version-1 header can be unknown.
+ */
 function headerProblem(
   o: Record<string, unknown>,
   knownHash: string | undefined,
   knownDigest: string | undefined,
+  usual: boolean,
 ): HeaderProblem | null {
   if (!(FORMAT_VERSIONS as readonly unknown[]).includes(o.v))
     return {
       reason: 'unknown-version',
       message: `format version ${JSON.stringify(o.v)} is not ${FORMAT_VERSIONS.join(', ')}`,
     };
-  const keys = HEADER_KEYS[o.v as FormatVersion];
-  for (const k in o) {
-    if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
+  if (usual) {
+    if (o.v === 1 && 'facts' in o) return { reason: 'bad-header', message: 'unknown header field facts' };
+  } else {
+    const keys = HEADER_KEYS[o.v as FormatVersion];
+    for (const k in o) {
+      if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
+    }
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
     return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
@@ -340,7 +349,8 @@ function headerProblem(
  * Reads a header written the usual way, straight from its text, with no JSON.parse:
  * `{"actor":"…","body":"…",["facts":…,]"kind":"…","lot":"…","prev":"…",["sealed":"…",]"seq":N,"time":"…","v":N}`,
  * the keys in that (canonical) order, each string running to the next quote, each integer
- * canonical, and `facts` a value `readCanonicalAt` finds canonical. Returns null for anything
+ * canonical, and `facts` a value `readCanonicalAt` finds canonical. A member of fixed length
+ * (hex digits, lot code, time) is taken to its length, whatever it holds. Returns null for anything
  * else (`parents`, another key, another spelling). The object has the members in text order, as
  * JSON.parse gives them. Precondition of trusting it: {@link headerProblem} finds nothing. Every
  * string member is then checked to hold only characters of its own kind (account id, lot code,
@@ -350,30 +360,32 @@ function headerProblem(
 function readUsualHeader(t: string): Record<string, unknown> | null {
   if (t.charCodeAt(0) !== 0x7b) return null;
   pos = 1;
-  const actor = stringMember(t, '"actor":"');
+  // The actor and lot a roll repeats from entry to entry are taken as the strings already
+  // checked, when the text has them: nothing is copied, and comparing them later is quick.
+  const actor = stringMember(t, '"actor":"', lastActor, 0);
   if (actor === null) return null;
-  const body = stringMember(t, '"body":"');
+  const body = stringMember(t, '"body":"', undefined, 64);
   if (body === null) return null;
   let facts: unknown;
-  if (t.startsWith('"facts":', pos)) {
+  if (hasAt(t, '"facts":', pos)) {
     facts = readCanonicalAt(t, pos + 8);
     pos = endOfCanonicalRead();
     if (facts === undefined || t.charCodeAt(pos++) !== 0x2c) return null;
   }
-  const kind = stringMember(t, '"kind":"');
+  const kind = stringMember(t, '"kind":"', undefined, 0);
   if (kind === null) return null;
-  const lot = stringMember(t, '"lot":"');
+  const lot = stringMember(t, '"lot":"', lastLot, 9);
   if (lot === null) return null;
-  const prev = stringMember(t, '"prev":"');
+  const prev = stringMember(t, '"prev":"', undefined, 64);
   if (prev === null) return null;
   let sealed: string | null = null;
-  if (t.startsWith('"sealed":"', pos)) {
-    sealed = stringMember(t, '"sealed":"');
+  if (hasAt(t, '"sealed":"', pos)) {
+    sealed = stringMember(t, '"sealed":"', undefined, 64);
     if (sealed === null) return null;
   }
   const seq = integerMember(t, '"seq":');
   if (seq < 0 || t.charCodeAt(pos++) !== 0x2c) return null;
-  const time = stringMember(t, '"time":"');
+  const time = stringMember(t, '"time":"', undefined, 24);
   if (time === null) return null;
   const v = integerMember(t, '"v":');
   if (v < 0 || pos !== t.length - 1 || t.charCodeAt(pos) !== 0x7d) return null;
@@ -387,18 +399,33 @@ function readUsualHeader(t: string): Record<string, unknown> | null {
     : { actor, body, facts, kind, lot, prev, sealed, seq, time, v };
 }
 
+/** `t.startsWith(part, at)` for the short parts read here, where a plain loop is quicker. */
+function hasAt(t: string, part: string, at: number): boolean {
+  for (let i = 0; i < part.length; i++) if (t.charCodeAt(at + i) !== part.charCodeAt(i)) return false;
+  return true;
+}
+
 /** Where {@link readUsualHeader} is in its text. */
 let pos = 0;
 
 /**
- * The text between the quotes of `member` (`"key":"`) at {@link pos} and the next quote, which
- * a comma follows; {@link pos} then moves past the comma. Null when the text is otherwise.
+ * The text between the quotes of `member` (`"key":"`) at {@link pos} and the next quote (or,
+ * for a member of a fixed `length`, the quote that must end it there), which a comma follows;
+ * {@link pos} then moves past the comma. Null when the text is otherwise. When that text is
+ * `known`, `known` itself is returned.
  */
-function stringMember(t: string, member: string): string | null {
-  if (!t.startsWith(member, pos)) return null;
+function stringMember(t: string, member: string, known: unknown, length: number): string | null {
+  if (!hasAt(t, member, pos)) return null;
   const start = pos + member.length;
-  const end = t.indexOf('"', start);
-  if (end < 0 || t.charCodeAt(end + 1) !== 0x2c) return null;
+  if (typeof known === 'string') {
+    const end = start + known.length;
+    if (t.charCodeAt(end) === 0x22 && t.charCodeAt(end + 1) === 0x2c && hasAt(t, known, start)) {
+      pos = end + 2;
+      return known;
+    }
+  }
+  const end = length > 0 ? start + length : t.indexOf('"', start);
+  if (end < 0 || t.charCodeAt(end) !== 0x22 || t.charCodeAt(end + 1) !== 0x2c) return null;
   pos = end + 2;
   return t.slice(start, end);
 }
@@ -408,7 +435,7 @@ function stringMember(t: string, member: string): string | null {
  * then moves past it; -1 when the text is otherwise.
  */
 function integerMember(t: string, member: string): number {
-  if (!t.startsWith(member, pos)) return -1;
+  if (!hasAt(t, member, pos)) return -1;
   let i = pos + member.length;
   let c = t.charCodeAt(i);
   if (c === 0x30) {
