@@ -362,32 +362,32 @@ function readUsualHeader(t: string): Record<string, unknown> | null {
   pos = 1;
   // The actor and lot a roll repeats from entry to entry are taken as the strings already
   // checked, when the text has them: nothing is copied, and comparing them later is quick.
-  const actor = stringMember(t, '"actor":"', lastActor, 0);
+  const actor = stringMember(t, MEMBER.ACTOR, lastActor, 0);
   if (actor === null) return null;
-  const body = stringMember(t, '"body":"', undefined, 64);
+  const body = stringMember(t, MEMBER.BODY, undefined, 64);
   if (body === null) return null;
   let facts: unknown;
-  if (hasAt(t, '"facts":', pos)) {
-    facts = readCanonicalAt(t, pos + 8);
+  if (hasCodesAt(t, MEMBER.FACTS, pos)) {
+    facts = readCanonicalAt(t, pos + MEMBER.FACTS.length);
     pos = endOfCanonicalRead();
     if (facts === undefined || t.charCodeAt(pos++) !== 0x2c) return null;
   }
-  const kind = stringMember(t, '"kind":"', undefined, 0);
+  const kind = stringMember(t, MEMBER.KIND, undefined, 0);
   if (kind === null) return null;
-  const lot = stringMember(t, '"lot":"', lastLot, 9);
+  const lot = stringMember(t, MEMBER.LOT, lastLot, 9);
   if (lot === null) return null;
-  const prev = stringMember(t, '"prev":"', undefined, 64);
+  const prev = stringMember(t, MEMBER.PREV, undefined, 64);
   if (prev === null) return null;
   let sealed: string | null = null;
-  if (hasAt(t, '"sealed":"', pos)) {
-    sealed = stringMember(t, '"sealed":"', undefined, 64);
+  if (hasCodesAt(t, MEMBER.SEALED, pos)) {
+    sealed = stringMember(t, MEMBER.SEALED, undefined, 64);
     if (sealed === null) return null;
   }
-  const seq = integerMember(t, '"seq":');
+  const seq = integerMember(t, MEMBER.SEQ);
   if (seq < 0 || t.charCodeAt(pos++) !== 0x2c) return null;
-  const time = stringMember(t, '"time":"', undefined, 24);
+  const time = stringMember(t, MEMBER.TIME, undefined, 24);
   if (time === null) return null;
-  const v = integerMember(t, '"v":');
+  const v = integerMember(t, MEMBER.V);
   if (v < 0 || pos !== t.length - 1 || t.charCodeAt(pos) !== 0x7d) return null;
   // One literal per shape, so each header gets its members in one step and in text order.
   if (facts === undefined)
@@ -399,11 +399,32 @@ function readUsualHeader(t: string): Record<string, unknown> | null {
     : { actor, body, facts, kind, lot, prev, sealed, seq, time, v };
 }
 
-/** `t.startsWith(part, at)` for the short parts read here, where a plain loop is quicker. */
+/** `t.startsWith(part, at)`, where a plain loop is quicker for the short parts read here. */
 function hasAt(t: string, part: string, at: number): boolean {
   for (let i = 0; i < part.length; i++) if (t.charCodeAt(at + i) !== part.charCodeAt(i)) return false;
   return true;
 }
+
+/** {@link hasAt} for a part given as its code units. */
+function hasCodesAt(t: string, codes: Uint16Array, at: number): boolean {
+  for (let i = 0; i < codes.length; i++) if (t.charCodeAt(at + i) !== codes[i]) return false;
+  return true;
+}
+
+const codesOf = (text: string): Uint16Array => Uint16Array.from(text, (ch) => ch.charCodeAt(0));
+/** What comes before each member's value in a usual header, as code units. */
+const MEMBER = {
+  ACTOR: codesOf('"actor":"'),
+  BODY: codesOf('"body":"'),
+  FACTS: codesOf('"facts":'),
+  KIND: codesOf('"kind":"'),
+  LOT: codesOf('"lot":"'),
+  PREV: codesOf('"prev":"'),
+  SEALED: codesOf('"sealed":"'),
+  SEQ: codesOf('"seq":'),
+  TIME: codesOf('"time":"'),
+  V: codesOf('"v":'),
+} as const;
 
 /** Where {@link readUsualHeader} is in its text. */
 let pos = 0;
@@ -414,8 +435,8 @@ let pos = 0;
  * {@link pos} then moves past the comma. Null when the text is otherwise. When that text is
  * `known`, `known` itself is returned.
  */
-function stringMember(t: string, member: string, known: unknown, length: number): string | null {
-  if (!hasAt(t, member, pos)) return null;
+function stringMember(t: string, member: Uint16Array, known: unknown, length: number): string | null {
+  if (!hasCodesAt(t, member, pos)) return null;
   const start = pos + member.length;
   if (typeof known === 'string') {
     const end = start + known.length;
@@ -434,8 +455,8 @@ function stringMember(t: string, member: string, known: unknown, length: number)
  * The non-negative integer written canonically after `member` (`"key":`) at {@link pos}, which
  * then moves past it; -1 when the text is otherwise.
  */
-function integerMember(t: string, member: string): number {
-  if (!hasAt(t, member, pos)) return -1;
+function integerMember(t: string, member: Uint16Array): number {
+  if (!hasCodesAt(t, member, pos)) return -1;
   let i = pos + member.length;
   let c = t.charCodeAt(i);
   if (c === 0x30) {

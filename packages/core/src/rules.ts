@@ -493,8 +493,11 @@ function checkRequest(state: RollState, actor: string, request: number | undefin
   return null;
 }
 
+/** The one answer for an entry the rules allow outright (callers only read it). */
+const ALLOWED: TransitionResult = Object.freeze({ ok: true });
+
 function done(unchecked: string[]): TransitionResult {
-  return unchecked.length ? { ok: true, unchecked } : { ok: true };
+  return unchecked.length ? { ok: true, unchecked } : ALLOWED;
 }
 
 function countText(c: BeadCount): string {
@@ -568,7 +571,6 @@ export function reduceEntryInPlace(state: RollState | null, entry: ReducibleEntr
 
 function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boolean): RollState {
   const { header: h, body } = entry;
-  const add = <T>(list: T[] | undefined, ...items: T[]): T[] => addTo(owned, list, items);
   const facts: RuleFacts | null = h.facts ?? (body ? factsOf(h.kind, body) : null);
   const head: RollHead = { lot: h.lot, seq: h.seq, hash: entry.hash, time: h.time };
   if (state === null) {
@@ -611,7 +613,7 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
     case 'described': {
       s.description = body ? (body as RegisteredBody).description : null;
       s.descriptionSeq = h.seq;
-      s.descriptionSeqs = add(s.descriptionSeqs, h.seq);
+      s.descriptionSeqs = add(owned, s.descriptionSeqs, h.seq);
       s.listed = facts ? facts.listed! : false;
       s.listedKnown = facts !== null;
       if (ACTIVE.includes(s.status)) {
@@ -621,10 +623,10 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       break;
     }
     case 'exhibit-added':
-      if (facts?.original) s.exhibits = add(s.exhibits, { seq: h.seq, sha256: facts.original });
+      if (facts?.original) s.exhibits = add(owned, s.exhibits, { seq: h.seq, sha256: facts.original });
       break;
     case 'opinion':
-      s.opinions = add(s.opinions, {
+      s.opinions = add(owned, s.opinions, {
         seq: h.seq,
         author: h.actor,
         time: h.time,
@@ -633,7 +635,7 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       if (facts?.request !== undefined) s.openRequests = closeRequest(s, facts.request);
       break;
     case 'opinion-requested':
-      s.openRequests = add(s.openRequests, {
+      s.openRequests = add(owned, s.openRequests, {
         seq: h.seq,
         assessor: facts ? facts.assessor! : null,
         time: h.time,
@@ -677,13 +679,13 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       const before = s.taken ?? { value: 0, estimated: false };
       s.taken = { value: before.value + took.value, estimated: before.estimated || took.estimated };
       s.remaining = remainingAfter(s, took);
-      s.children = add(s.children, ...kids.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count })));
-      s.linkSeqs = add(s.linkSeqs, h.seq);
+      for (const c of kids) s.children = add(owned, s.children, { lot: c.lot, seq: h.seq, count: c.count });
+      s.linkSeqs = add(owned, s.linkSeqs, h.seq);
       if (s.remaining.value === 0) s.status = h.kind;
       break;
     }
     case 'observed':
-      s.observationSeqs = add(s.observationSeqs, h.seq);
+      s.observationSeqs = add(owned, s.observationSeqs, h.seq);
       break;
     case 'sold':
       s.status = 'sold';
@@ -702,8 +704,8 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       break;
     case 'redacted': {
       const t = facts!.target!;
-      s.redactionSeqs = add(s.redactionSeqs, h.seq);
-      s.redactedSeqs = add(s.redactedSeqs, t);
+      s.redactionSeqs = add(owned, s.redactionSeqs, h.seq);
+      s.redactedSeqs = add(owned, s.redactedSeqs, t);
       if (s.opinions.some((o) => o.seq === t))
         s.opinions = s.opinions.map((o) => (o.seq === t ? { ...o, body: null } : o));
       if (s.exhibits?.some((e) => e.seq === t)) s.exhibits = s.exhibits.filter((e) => e.seq !== t);
@@ -720,10 +722,10 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
 }
 
-/** `list` with `items` added at the end: a new array, or the same one when the state is owned. */
-function addTo<T>(owned: boolean, list: T[] | undefined, items: T[]): T[] {
-  if (!owned || list === undefined) return [...(list ?? []), ...items];
-  for (const item of items) list.push(item);
+/** `list` with `item` added at the end: a new array, or the same one when the state is owned. */
+function add<T>(owned: boolean, list: T[] | undefined, item: T): T[] {
+  if (!owned || list === undefined) return [...(list ?? []), item];
+  list.push(item);
   return list;
 }
 
