@@ -468,19 +468,30 @@ function readKey(): string | null {
   const end = plainRun(start);
   if (src.charCodeAt(end) !== QUOTE) return null;
   at = end + 1;
-  // Texts repeat the same few keys: the string kept for a key of this length and first and
-  // last characters is taken again when it is the same, saving a copy and its lookup as a name.
-  const length = end - start;
-  const slot = (length * 31 + src.charCodeAt(start) * 7 + src.charCodeAt(end - 1)) & (KEY_SLOTS - 1);
-  const kept = keptKeys[slot]!;
-  if (kept.length === length && src.startsWith(kept, start)) return kept;
-  const key = src.slice(start, end);
-  keptKeys[slot] = key;
-  return key;
+  return keptText(src, start, end);
 }
 
-const KEY_SLOTS = 256;
-const keptKeys: string[] = new Array<string>(KEY_SLOTS).fill('');
+/**
+ * `text.slice(start, end)`, or an equal string returned before. Texts repeat the same few keys
+ * and names: the string kept for a piece of this length and first and last characters is taken
+ * again when it is the same, saving a copy, and its lookup as a name is quicker the next time.
+ */
+export function keptText(text: string, start: number, end: number): string {
+  const length = end - start;
+  const slot = (length * 31 + text.charCodeAt(start) * 7 + text.charCodeAt(end - 1)) & (KEPT_SLOTS - 1);
+  const kept = keptTexts[slot]!;
+  if (kept.length === length) {
+    let i = 0;
+    while (i < length && kept.charCodeAt(i) === text.charCodeAt(start + i)) i++;
+    if (i === length) return kept;
+  }
+  const piece = text.slice(start, end);
+  keptTexts[slot] = piece;
+  return piece;
+}
+
+const KEPT_SLOTS = 256;
+const keptTexts: string[] = new Array<string>(KEPT_SLOTS).fill('');
 
 /**
  * The end of the run of characters from `i` that the canonical form writes as themselves:

@@ -1,5 +1,5 @@
 import { bytesToHex } from '@noble/hashes/utils.js';
-import { canonicalise, endOfCanonicalRead, parseCanonical, readCanonicalAt } from './canonical.js';
+import { canonicalise, endOfCanonicalRead, keptText, parseCanonical, readCanonicalAt } from './canonical.js';
 import { CanonicalError, ValidationError, type FieldIssue } from './errors.js';
 import { factsOf } from './facts.js';
 import { bodyDigest, entryHash } from './hash.js';
@@ -325,10 +325,12 @@ function headerProblem(
     return { reason: 'bad-actor', message: 'actor is not an account id' };
   lastLot = o.lot as string;
   lastActor = o.actor as string;
-  if (o.prev !== knownHash && !isHex64(o.prev))
-    return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
-  if (o.body !== knownDigest && !isHex64(o.body))
-    return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
+  // A value equal to a known one is replaced by that very string (the object is this call's
+  // own), so the verifier's comparisons with it later take no time.
+  if (o.prev === knownHash) o.prev = knownHash;
+  else if (!isHex64(o.prev)) return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
+  if (o.body === knownDigest) o.body = knownDigest;
+  else if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
   if ('sealed' in o && !isHex64(o.sealed))
     return { reason: 'bad-header', message: 'sealed is not 64 hex digits' };
   if ('parents' in o) {
@@ -372,7 +374,7 @@ function readUsualHeader(t: string): Record<string, unknown> | null {
     pos = endOfCanonicalRead();
     if (facts === undefined || t.charCodeAt(pos++) !== 0x2c) return null;
   }
-  const kind = stringMember(t, MEMBER.KIND, undefined, 0);
+  const kind = stringMember(t, MEMBER.KIND, undefined, 0, true);
   if (kind === null) return null;
   const lot = stringMember(t, MEMBER.LOT, lastLot, 9);
   if (lot === null) return null;
@@ -433,9 +435,15 @@ let pos = 0;
  * The text between the quotes of `member` (`"key":"`) at {@link pos} and the next quote (or,
  * for a member of a fixed `length`, the quote that must end it there), which a comma follows;
  * {@link pos} then moves past the comma. Null when the text is otherwise. When that text is
- * `known`, `known` itself is returned.
+ * `known`, `known` itself is returned; with `keep`, a string kept by {@link keptText}.
  */
-function stringMember(t: string, member: Uint16Array, known: unknown, length: number): string | null {
+function stringMember(
+  t: string,
+  member: Uint16Array,
+  known: unknown,
+  length: number,
+  keep = false,
+): string | null {
   if (!hasCodesAt(t, member, pos)) return null;
   const start = pos + member.length;
   if (typeof known === 'string') {
@@ -448,7 +456,7 @@ function stringMember(t: string, member: Uint16Array, known: unknown, length: nu
   const end = length > 0 ? start + length : t.indexOf('"', start);
   if (end < 0 || t.charCodeAt(end) !== 0x22 || t.charCodeAt(end + 1) !== 0x2c) return null;
   pos = end + 2;
-  return t.slice(start, end);
+  return keep ? keptText(t, start, end) : t.slice(start, end);
 }
 
 /**

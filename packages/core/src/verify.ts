@@ -153,8 +153,9 @@ export class RollVerifier {
     if (h.kind === 'redacted')
       this.pending.delete(h.facts ? h.facts.target! : (body as { target: number }).target);
     // The verifier built this state from seq 0 and lends it to no one, so it grows in place.
-    this.state = reduceEntryInPlace(this.state, { header: h, hash: entry.hash, body });
-    this.last = { hash: entry.hash, header: h, body };
+    const verified: VerifiedEntry = { hash: entry.hash, header: h, body };
+    this.state = reduceEntryInPlace(this.state, verified);
+    this.last = verified;
     this.count++;
     return null;
   }
