@@ -181,8 +181,6 @@ export function parseCanonical(text: string): unknown {
   } catch (e) {
     throw new CanonicalError('not-json', `malformed JSON: ${(e as Error).message}`);
   }
-  // Fastest path: the text itself shows that it is written the canonical way.
-  if (provedCanonical(text)) return parsed;
   // Every string and key of the parse is a piece of `text` between quotes, or is written with
   // escapes: when the text is well-formed and has no \u escape, so is each of them.
   const sorted = check(parsed, true, !(text.indexOf('\\u') === -1 && wellFormed(text)));
@@ -206,138 +204,8 @@ function fastStringify(v: unknown): string | null {
 
 const QUOTE = 0x22;
 const BACKSLASH = 0x5c;
-const SHORT_ESCAPES = 'bfnrt"\\';
 /** Backspace, tab, line feed, form feed and carriage return: the controls with short escapes. */
 const SHORT_ESCAPE_CODES = [0x08, 0x09, 0x0a, 0x0c, 0x0d];
-/**
- * Reads valid JSON `text` (JSON.parse accepted it) and returns true only when it can see that
- * the text is already the ledger canonical form of its parse: no white space between tokens;
- * strings holding no escape but the short ones (`\"` `\\` `\b` `\f` `\n` `\r` `\t`) and
- * `\u00xx` (lower-case) for other control characters, and every other character as itself;
- * numbers that are 0 or integers of at most 15 digits with no sign but a leading minus;
- * every object's keys, compared as UTF-16 code units, strictly increasing (so none repeats);
- * nesting at most {@link PROOF_DEPTH} deep; the whole text well-formed. False means only "not
- * shown": the full check then decides, so both paths accept exactly the same texts.
- */
-function provedCanonical(text: string): boolean {
-  if (!wellFormed(text)) return false;
-  const n = text.length;
-  // Per open object or array, by depth: where the last key read there starts and ends in the
-  // text (NO_KEY before the first key; IN_ARRAY for an array).
-  const keyAt = keyStarts;
-  const keyEnd = keyEnds;
-  let depth = 0;
-  let i = 0;
-  // True when the next string read is an object's key.
-  let keyNext = false;
-  // With no backslash anywhere, each string simply runs to the next quote.
-  const escapes = text.indexOf('\\') !== -1;
-  while (i < n) {
-    const c = text.charCodeAt(i);
-    if (c === QUOTE) {
-      const start = i + 1;
-      i = escapes ? endOfEscapedString(text, start) : text.indexOf('"', start);
-      if (i < 0) return false;
-      if (keyNext) {
-        // A key with an escape is left to the full check, which compares decoded keys.
-        if (escapes && text.lastIndexOf('\\', i) >= start) return false;
-        const last = keyAt[depth - 1]!;
-        if (last !== NO_KEY && !before(text, last, keyEnd[depth - 1]!, start, i)) return false;
-        keyAt[depth - 1] = start;
-        keyEnd[depth - 1] = i;
-        keyNext = false;
-      }
-      i++;
-      continue;
-    }
-    switch (c) {
-      case 0x7b: // {
-      case 0x5b: // [
-        if (depth >= PROOF_DEPTH) return false;
-        keyAt[depth++] = c === 0x7b ? NO_KEY : IN_ARRAY;
-        i++;
-        keyNext = c === 0x7b && text.charCodeAt(i) !== 0x7d;
-        continue;
-      case 0x7d: // }
-      case 0x5d: // ]
-        depth--;
-        i++;
-        continue;
-      case 0x2c: // ,
-        keyNext = keyAt[depth - 1] !== IN_ARRAY;
-        i++;
-        continue;
-      case 0x3a: // :
-        i++;
-        continue;
-      case 0x74: // true
-      case 0x6e: // null
-        i += 4;
-        continue;
-      case 0x66: // false
-        i += 5;
-        continue;
-      default: {
-        // A number: 0, or an integer of 1 to 15 digits with no leading zero, maybe negative.
-        let j = c === 0x2d ? i + 1 : i;
-        const first = text.charCodeAt(j);
-        if (first < 0x30 || first > 0x39) return false;
-        const digitsFrom = j;
-        while (j < n && text.charCodeAt(j) >= 0x30 && text.charCodeAt(j) <= 0x39) j++;
-        const digits = j - digitsFrom;
-        if (digits > 15 || (first === 0x30 && (digits > 1 || c === 0x2d))) return false;
-        const next = text.charCodeAt(j);
-        if (next === 0x2e || next === 0x65 || next === 0x45) return false;
-        i = j;
-        continue;
-      }
-    }
-  }
-  return true;
-}
-
-const PROOF_DEPTH = 100;
-const NO_KEY = -1;
-const IN_ARRAY = -2;
-const keyStarts = new Int32Array(PROOF_DEPTH);
-const keyEnds = new Int32Array(PROOF_DEPTH);
-
-/** True when text[a, aEnd) comes strictly before text[b, bEnd) in UTF-16 code unit order. */
-function before(text: string, a: number, aEnd: number, b: number, bEnd: number): boolean {
-  for (; a < aEnd && b < bEnd; a++, b++) {
-    const x = text.charCodeAt(a);
-    const y = text.charCodeAt(b);
-    if (x !== y) return x < y;
-  }
-  return a === aEnd && b < bEnd;
-}
-
-/**
- * The index of the quote that ends the string starting at `i`, when every escape in it is one
- * the canonical form writes (see {@link provedCanonical}); -1 otherwise.
- */
-function endOfEscapedString(text: string, i: number): number {
-  for (; i < text.length;) {
-    const d = text.charCodeAt(i);
-    if (d === QUOTE) return i;
-    if (d !== BACKSLASH) {
-      i++;
-      continue;
-    }
-    const e = text[i + 1]!;
-    if (e !== 'u') {
-      if (!SHORT_ESCAPES.includes(e)) return -1;
-      i += 2;
-      continue;
-    }
-    // Only a control character without a short escape is written \u00xx, in lower case.
-    const hex = text.slice(i + 2, i + 6);
-    if (!/^00[01][0-9a-f]$/.test(hex) || SHORT_ESCAPE_CODES.includes(parseInt(hex, 16))) return -1;
-    i += 6;
-  }
-  return -1;
-}
-
 /** What {@link readCanonical} returns when it leaves the decision to the full check. */
 const UNDECIDED: unique symbol = Symbol('undecided');
 const READ_DEPTH = 100;

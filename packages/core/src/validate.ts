@@ -105,12 +105,7 @@ class Checker {
   fail(path: string, message: string): void {
     this.issues.push({ path, message });
   }
-  obj(
-    v: unknown,
-    path: string,
-    required: readonly string[],
-    optional: readonly string[] = NO_KEYS,
-  ): Obj | null {
+  obj(v: unknown, path: string, required: string[], optional: string[] = []): Obj | null {
     if (v === null || typeof v !== 'object' || Array.isArray(v)) {
       this.fail(path, 'must be an object');
       return null;
@@ -294,116 +289,72 @@ function checkExhibit(c: Checker, v: unknown, path: string): void {
 
 const SEQ_MAX = Number.MAX_SAFE_INTEGER;
 
-/** Key lists and allowed values of the body checks, made once rather than per call. */
-const K_NONCE_DESCRIPTION: readonly string[] = ['nonce', 'description'];
-const K_CORRECTS: readonly string[] = ['corrects'];
-const NO_KEYS: readonly string[] = [];
-const K_NONCE_OBSERVATIONS: readonly string[] = ['nonce', 'observations'];
-/** The observations of version 1; version 2 adds `mouldSeam`. */
-const OBSERVATION_KEYS_V1: readonly string[] = [
-  'hole',
-  'holeShape',
-  'windingMarks',
-  'beadShape',
-  'surface',
-  'foil',
-  'uvA',
-  'note',
-];
-const OBSERVATION_KEYS: readonly string[] = [...OBSERVATION_KEYS_V1, 'mouldSeam'];
-const K_CLEAN_POWDER_GREEN_TRACES_NOT_SEEN: readonly string[] = [
-  'clean',
-  'powder',
-  'green-traces',
-  'not-seen',
-];
-const K_IRREGULAR_REGULAR: readonly string[] = ['irregular', 'regular'];
-const K_SEEN_NOT_SEEN: readonly string[] = ['seen', 'not-seen'];
-const K_IRREGULAR_UNIFORM: readonly string[] = ['irregular', 'uniform'];
-const K_GLOSSY_SATIN_MATTE_WORN: readonly string[] = ['glossy', 'satin', 'matte', 'worn'];
-const K_NONE_INTACT_WORN: readonly string[] = ['none', 'intact', 'worn'];
-const K_NOT_TESTED_NONE_GREEN_GLOW_OTHER: readonly string[] = ['not-tested', 'none', 'green-glow', 'other'];
-const K_REQUEST: readonly string[] = ['request'];
-const K_NONCE_SEALEDONLY: readonly string[] = ['nonce', 'sealedOnly'];
-const K_NONCE_EXHIBIT: readonly string[] = ['nonce', 'exhibit'];
-const K_OPINION: readonly string[] = [
-  'nonce',
-  'origin',
-  'period',
-  'technique',
-  'qualifier',
-  'confidence',
-  'rationale',
-  'exhibits',
-];
-/** An opinion's optional keys before version 3, which adds `request`. */
-const OPINION_OPTIONAL_V1: readonly string[] = ['originNote', 'decoration', 'adopts'];
-const OPINION_OPTIONAL: readonly string[] = [...OPINION_OPTIONAL_V1, 'request'];
-const K_LOT_SEQ_HASH: readonly string[] = ['lot', 'seq', 'hash'];
-const K_FROM_TO_APPROXIMATE: readonly string[] = ['from', 'to', 'approximate'];
-const K_NONCE_OPINIONSEQ: readonly string[] = ['nonce', 'opinionSeq'];
-const K_NOTE: readonly string[] = ['note'];
-const K_NONCE_RECIPIENT: readonly string[] = ['nonce', 'recipient'];
-const K_NONCE_OFFERSEQ: readonly string[] = ['nonce', 'offerSeq'];
-const K_NONCE_CHILDREN: readonly string[] = ['nonce', 'children'];
-const K_LOT_COUNT: readonly string[] = ['lot', 'count'];
-const K_NONCE_CHILD_COUNT: readonly string[] = ['nonce', 'child', 'count'];
-const K_NONCE_DATE: readonly string[] = ['nonce', 'date'];
-const K_NONCE_SALESEQ: readonly string[] = ['nonce', 'saleSeq'];
-const K_REASON: readonly string[] = ['reason'];
-const K_NONCE: readonly string[] = ['nonce'];
-const K_NONCE_TARGET_REASON: readonly string[] = ['nonce', 'target', 'reason'];
-const K_NONCE_TEXT: readonly string[] = ['nonce', 'text'];
-const K_REF: readonly string[] = ['ref'];
-const K_NONCE_ASSESSOR: readonly string[] = ['nonce', 'assessor'];
-const K_NONCE_REQUEST: readonly string[] = ['nonce', 'request'];
-
 const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
   registered: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_DESCRIPTION);
+    const o = c.obj(b, '', ['nonce', 'description']);
     if (o && 'description' in o) checkDescription(c, o.description, 'description');
   },
   described: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_DESCRIPTION, c.version >= 2 ? K_CORRECTS : NO_KEYS);
+    const o = c.obj(b, '', ['nonce', 'description'], c.version >= 2 ? ['corrects'] : []);
     if (!o) return;
     if ('description' in o) checkDescription(c, o.description, 'description');
     if ('corrects' in o) checkCorrection(c, o.corrects);
   },
   observed: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_OBSERVATIONS, c.version >= 2 ? K_CORRECTS : NO_KEYS);
+    const o = c.obj(b, '', ['nonce', 'observations'], c.version >= 2 ? ['corrects'] : []);
     if (o && 'corrects' in o) checkCorrection(c, o.corrects);
     if (!o || !('observations' in o)) return;
     const p = 'observations';
-    const ob = c.obj(o.observations, p, NO_KEYS, c.version >= 2 ? OBSERVATION_KEYS : OBSERVATION_KEYS_V1);
+    const ob = c.obj(
+      o.observations,
+      p,
+      [],
+      [
+        'hole',
+        'holeShape',
+        'windingMarks',
+        'beadShape',
+        ...(c.version >= 2 ? ['mouldSeam'] : []),
+        'surface',
+        'foil',
+        'uvA',
+        'note',
+      ],
+    );
     if (!ob) return;
-    c.oneOf(ob, 'hole', p, K_CLEAN_POWDER_GREEN_TRACES_NOT_SEEN, true);
-    c.oneOf(ob, 'holeShape', p, K_IRREGULAR_REGULAR, true);
-    c.oneOf(ob, 'windingMarks', p, K_SEEN_NOT_SEEN, true);
-    c.oneOf(ob, 'beadShape', p, K_IRREGULAR_UNIFORM, true);
-    c.oneOf(ob, 'mouldSeam', p, K_SEEN_NOT_SEEN, true);
-    c.oneOf(ob, 'surface', p, K_GLOSSY_SATIN_MATTE_WORN, true);
-    c.oneOf(ob, 'foil', p, K_NONE_INTACT_WORN, true);
-    c.oneOf(ob, 'uvA', p, K_NOT_TESTED_NONE_GREEN_GLOW_OTHER, true);
+    c.oneOf(ob, 'hole', p, ['clean', 'powder', 'green-traces', 'not-seen'], true);
+    c.oneOf(ob, 'holeShape', p, ['irregular', 'regular'], true);
+    c.oneOf(ob, 'windingMarks', p, ['seen', 'not-seen'], true);
+    c.oneOf(ob, 'beadShape', p, ['irregular', 'uniform'], true);
+    c.oneOf(ob, 'mouldSeam', p, ['seen', 'not-seen'], true);
+    c.oneOf(ob, 'surface', p, ['glossy', 'satin', 'matte', 'worn'], true);
+    c.oneOf(ob, 'foil', p, ['none', 'intact', 'worn'], true);
+    c.oneOf(ob, 'uvA', p, ['not-tested', 'none', 'green-glow', 'other'], true);
     c.str(ob, 'note', p, LIMITS.longText, true);
   },
   'exhibit-added': (c, b) => {
-    const request = c.version >= 3 ? K_REQUEST : NO_KEYS;
+    const request = c.version >= 3 ? ['request'] : [];
     if (b !== null && typeof b === 'object' && 'sealedOnly' in b) {
-      const o = c.obj(b, '', K_NONCE_SEALEDONLY, request);
+      const o = c.obj(b, '', ['nonce', 'sealedOnly'], request);
       if (o && o.sealedOnly !== true) c.fail('sealedOnly', 'must be true');
       if (o) c.int(o, 'request', '', 0, SEQ_MAX, true);
       return;
     }
-    const o = c.obj(b, '', K_NONCE_EXHIBIT, request);
+    const o = c.obj(b, '', ['nonce', 'exhibit'], request);
     if (o && 'exhibit' in o) checkExhibit(c, o.exhibit, 'exhibit');
     if (o) c.int(o, 'request', '', 0, SEQ_MAX, true);
   },
   opinion: (c, b) => {
-    const o = c.obj(b, '', K_OPINION, c.version >= 3 ? OPINION_OPTIONAL : OPINION_OPTIONAL_V1);
+    const o = c.obj(
+      b,
+      '',
+      ['nonce', 'origin', 'period', 'technique', 'qualifier', 'confidence', 'rationale', 'exhibits'],
+      ['originNote', 'decoration', 'adopts', ...(c.version >= 3 ? ['request'] : [])],
+    );
     if (!o) return;
     c.int(o, 'request', '', 0, SEQ_MAX, true);
     if ('adopts' in o) {
-      const a = c.obj(o.adopts, 'adopts', K_LOT_SEQ_HASH);
+      const a = c.obj(o.adopts, 'adopts', ['lot', 'seq', 'hash']);
       if (a) {
         c.pattern(a, 'lot', 'adopts', isCanonicalLotCode, 'a canonical lot code');
         c.int(a, 'seq', 'adopts', 0, SEQ_MAX);
@@ -413,7 +364,7 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     c.oneOf(o, 'origin', '', ORIGINS);
     c.str(o, 'originNote', '', LIMITS.shortText, true);
     if ('period' in o) {
-      const p = c.obj(o.period, 'period', K_FROM_TO_APPROXIMATE);
+      const p = c.obj(o.period, 'period', ['from', 'to', 'approximate']);
       if (p) {
         c.int(p, 'from', 'period', -5000, 9999);
         c.int(p, 'to', 'period', -5000, 9999);
@@ -436,13 +387,13 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     );
   },
   'opinion-withdrawn': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_OPINIONSEQ, K_NOTE);
+    const o = c.obj(b, '', ['nonce', 'opinionSeq'], ['note']);
     if (!o) return;
     c.int(o, 'opinionSeq', '', 0, SEQ_MAX);
     c.str(o, 'note', '', LIMITS.longText, true);
   },
   'transfer-offered': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_RECIPIENT, K_NOTE);
+    const o = c.obj(b, '', ['nonce', 'recipient'], ['note']);
     if (!o) return;
     c.pattern(o, 'recipient', '', isActorId, 'an account id');
     c.str(o, 'note', '', LIMITS.longText, true);
@@ -451,18 +402,18 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
   'transfer-declined': (c, b) => answer(c, b),
   'transfer-withdrawn': (c, b) => answer(c, b),
   'transfer-lapsed': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_OFFERSEQ);
+    const o = c.obj(b, '', ['nonce', 'offerSeq']);
     if (o) c.int(o, 'offerSeq', '', 0, SEQ_MAX);
   },
   split: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_CHILDREN);
+    const o = c.obj(b, '', ['nonce', 'children']);
     if (!o) return;
     c.list(
       o,
       'children',
       '',
       (x, p) => {
-        const ch = c.obj(x, p, K_LOT_COUNT);
+        const ch = c.obj(x, p, ['lot', 'count']);
         if (!ch) return;
         c.pattern(ch, 'lot', p, isCanonicalLotCode, 'a canonical lot code');
         if ('count' in ch) c.count(ch.count, join(p, 'count'), 1);
@@ -476,43 +427,43 @@ const bodyCheckers: Record<EntryKind, (c: Checker, b: unknown) => void> = {
     }
   },
   combined: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_CHILD_COUNT);
+    const o = c.obj(b, '', ['nonce', 'child', 'count']);
     if (!o) return;
     c.pattern(o, 'child', '', isCanonicalLotCode, 'a canonical lot code');
     if ('count' in o) c.count(o.count, 'count', 1);
   },
   sold: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_DATE);
+    const o = c.obj(b, '', ['nonce', 'date']);
     if (o) c.pattern(o, 'date', '', isCalendarDate, 'a date YYYY-MM-DD');
   },
   'sale-voided': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_SALESEQ, K_REASON);
+    const o = c.obj(b, '', ['nonce', 'saleSeq'], ['reason']);
     if (!o) return;
     c.int(o, 'saleSeq', '', 0, SEQ_MAX);
     c.str(o, 'reason', '', LIMITS.longText, true);
   },
   retired: (c, b) => {
-    const o = c.obj(b, '', K_NONCE, K_NOTE);
+    const o = c.obj(b, '', ['nonce'], ['note']);
     if (o) c.str(o, 'note', '', LIMITS.longText, true);
   },
   redacted: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_TARGET_REASON);
+    const o = c.obj(b, '', ['nonce', 'target', 'reason']);
     if (!o) return;
     c.int(o, 'target', '', 0, SEQ_MAX);
     c.oneOf(o, 'reason', '', REDACTION_REASONS);
   },
   note: (c, b) => {
-    const o = c.obj(b, '', K_NONCE_TEXT, K_REF);
+    const o = c.obj(b, '', ['nonce', 'text'], ['ref']);
     if (!o) return;
     c.str(o, 'text', '', LIMITS.longText);
     c.int(o, 'ref', '', 0, SEQ_MAX, true);
   },
   'opinion-requested': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_ASSESSOR);
+    const o = c.obj(b, '', ['nonce', 'assessor']);
     if (o) c.pattern(o, 'assessor', '', (v) => v === null || isActorId(v), 'an account id or null');
   },
   'opinion-request-closed': (c, b) => {
-    const o = c.obj(b, '', K_NONCE_REQUEST);
+    const o = c.obj(b, '', ['nonce', 'request']);
     if (o) c.int(o, 'request', '', 0, SEQ_MAX);
   },
 };
