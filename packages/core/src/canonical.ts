@@ -204,8 +204,6 @@ function fastStringify(v: unknown): string | null {
 
 const QUOTE = 0x22;
 const BACKSLASH = 0x5c;
-/** Backspace, tab, line feed, form feed and carriage return: the controls with short escapes. */
-const SHORT_ESCAPE_CODES = [0x08, 0x09, 0x0a, 0x0c, 0x0d];
 /** What {@link readCanonical} returns when it leaves the decision to the full check. */
 const UNDECIDED: unique symbol = Symbol('undecided');
 const READ_DEPTH = 100;
@@ -387,102 +385,45 @@ function plainRun(i: number): number {
 function readString(): unknown {
   const start = ++at;
   let end = plainRun(start);
-  let c = src.charCodeAt(end);
-  if (c === QUOTE) {
-    at = end + 1;
-    return src.slice(start, end);
-  }
   let out = src.slice(start, end);
-  while (c === BACKSLASH) {
-    const e = src.charCodeAt(end + 1);
-    let next = end + 2;
-    let ch: number;
-    switch (e) {
-      case QUOTE:
-      case BACKSLASH:
-        ch = e;
-        break;
-      case 0x62: // b
-        ch = 0x08;
-        break;
-      case 0x66: // f
-        ch = 0x0c;
-        break;
-      case 0x6e: // n
-        ch = 0x0a;
-        break;
-      case 0x72: // r
-        ch = 0x0d;
-        break;
-      case 0x74: // t
-        ch = 0x09;
-        break;
-      case 0x75: {
-        // u: only a control character without a short escape is written \u00xx, in lower case.
-        ch = controlEscape(end + 2);
-        if (ch < 0) return UNDECIDED;
-        next = end + 6;
-        break;
-      }
-      default:
-        return UNDECIDED;
-    }
-    out += String.fromCharCode(ch);
-    end = plainRun(next);
-    out += src.slice(next, end);
-    c = src.charCodeAt(end);
+  // The short escapes are read here; a \u escape is left to the full check.
+  while (src.charCodeAt(end) === BACKSLASH) {
+    const ch = SHORT_ESCAPED[src.charCodeAt(end + 1)];
+    if (ch === undefined) return UNDECIDED;
+    const from = end + 2;
+    end = plainRun(from);
+    out += ch + src.slice(from, end);
   }
-  if (c !== QUOTE) return UNDECIDED;
+  if (src.charCodeAt(end) !== QUOTE) return UNDECIDED;
   at = end + 1;
   return out;
 }
 
-/** The control character that `00xx` at `i` names when canonical text writes it so; else -1. */
-function controlEscape(i: number): number {
-  if (src.charCodeAt(i) !== 0x30 || src.charCodeAt(i + 1) !== 0x30) return -1;
-  const hi = src.charCodeAt(i + 2) - 0x30;
-  const lo = LOWER_HEX_VALUE[src.charCodeAt(i + 3)] ?? -1;
-  if ((hi !== 0 && hi !== 1) || lo < 0) return -1;
-  const ch = hi * 16 + lo;
-  return SHORT_ESCAPE_CODES.includes(ch) ? -1 : ch;
-}
+/** What each short escape stands for, by the code unit after its backslash. */
+const SHORT_ESCAPED: Record<number, string> = {
+  0x22: '"',
+  0x5c: '\\',
+  0x62: '\b',
+  0x66: '\f',
+  0x6e: '\n',
+  0x72: '\r',
+  0x74: '\t',
+};
 
-const LOWER_HEX_VALUE: Record<number, number> = {};
-for (let d = 0; d < 16; d++) LOWER_HEX_VALUE['0123456789abcdef'.charCodeAt(d)] = d;
-
+/** An integer of 1 to 15 digits with no leading zero, maybe negative, or 0; other numbers are left to the full check. */
 function readNumber(): unknown {
-  const start = at;
-  let i = at;
-  let c = src.charCodeAt(i);
-  const negative = c === 0x2d;
-  if (negative) c = src.charCodeAt(++i);
-  // The common case: an integer of 1 to 15 digits, no leading zero, exact in a double.
-  if (c >= 0x31 && c <= 0x39) {
-    let value = 0;
-    const from = i;
-    for (; c >= 0x30 && c <= 0x39; c = src.charCodeAt(++i)) value = value * 10 + (c - 0x30);
-    if (i - from <= 15 && c !== 0x2e && c !== 0x65 && c !== 0x45) {
-      at = i;
-      return negative ? -value : value;
-    }
-  } else if (c === 0x30 && !negative) {
-    c = src.charCodeAt(i + 1);
-    if (c !== 0x2e && c !== 0x65 && c !== 0x45 && !(c >= 0x30 && c <= 0x39)) {
-      at = i + 1;
-      return 0;
-    }
+  let c = src.charCodeAt(at);
+  if (c === 0x30) {
+    c = src.charCodeAt(++at);
+    return c === 0x2e || c === 0x65 || c === 0x45 || (c >= 0x30 && c <= 0x39) ? UNDECIDED : 0;
   }
-  // Anything else: the text must be what ECMAScript writes for the number it names.
-  i = start;
-  for (c = src.charCodeAt(i); NUMBER_CHAR[c] === 1; c = src.charCodeAt(++i));
-  const token = src.slice(start, i);
-  const n = Number(token);
-  if (token === '' || String(n) !== token || (Number.isInteger(n) && !Number.isSafeInteger(n)))
+  const negative = c === 0x2d;
+  if (negative) c = src.charCodeAt(++at);
+  const from = at;
+  let value = 0;
+  for (; c >= 0x30 && c <= 0x39; c = src.charCodeAt(++at)) value = value * 10 + (c - 0x30);
+  const digits = at - from;
+  if (digits === 0 || digits > 15 || src.charCodeAt(from) === 0x30 || c === 0x2e || c === 0x65 || c === 0x45)
     return UNDECIDED;
-  at = i;
-  return n;
+  return negative ? -value : value;
 }
-
-/** 1 for the characters a JSON number is written with. */
-const NUMBER_CHAR = new Uint8Array(128);
-for (const ch of '0123456789-+.eE') NUMBER_CHAR[ch.charCodeAt(0)] = 1;

@@ -1,5 +1,5 @@
 import { bytesToHex } from '@noble/hashes/utils.js';
-import { canonicalise, endOfCanonicalRead, keptText, parseCanonical, readCanonicalAt } from './canonical.js';
+import { canonicalise, parseCanonical } from './canonical.js';
 import { CanonicalError, ValidationError, type FieldIssue } from './errors.js';
 import { factsOf } from './facts.js';
 import { bodyDigest, entryHash } from './hash.js';
@@ -256,7 +256,7 @@ export function decodeHeader(
   // The usual header is read straight from its text. Whatever is unusual about it, or any
   // check it fails, is left to the full reading, which also words the problem.
   if (typeof text === 'string') {
-    const usual = readUsualHeader(text);
+    const usual = readUsual === null ? null : readUsual(text, lastActor, lastLot);
     if (usual !== null && headerProblem(usual, knownHash, knownDigest, true) === null)
       return usual as unknown as EntryHeader;
   }
@@ -287,7 +287,7 @@ export function decodeHeaderFully(
 
 /**
  * The first problem of a parsed header object (see {@link decodeHeader}), or null. `usual`: the
- * object came from {@link readUsualHeader}, so its keys are among those of version 2 and later,
+ * object came from the direct reading of `usual-header.ts`, so its keys are among those of version 2 and later,
  * and only `facts` in a version-1 header can be unknown.
  */
 function headerProblem(
@@ -348,138 +348,26 @@ function headerProblem(
 }
 
 /**
- * Reads a header written the usual way, straight from its text, with no JSON.parse:
- * `{"actor":"…","body":"…",["facts":…,]"kind":"…","lot":"…","prev":"…",["sealed":"…",]"seq":N,"time":"…","v":N}`,
- * the keys in that (canonical) order, each string running to the next quote, each integer
- * canonical, and `facts` a value `readCanonicalAt` finds canonical. A member of fixed length
- * (hex digits, lot code, time) is taken to its length, whatever it holds. Returns null for anything
- * else (`parents`, another key, another spelling). The object has the members in text order, as
- * JSON.parse gives them. Precondition of trusting it: {@link headerProblem} finds nothing. Every
- * string member is then checked to hold only characters of its own kind (account id, lot code,
- * kind, time, hex digits), none of them a quote, backslash or control character, so each string
- * read here is the whole JSON string, the text is canonical, and its parse is this object.
+ * Reads a header written the usual way straight from its text, or returns null (see
+ * `usual-header.ts`). `actor` and `lot` are the values checked last, which it may hand back.
+ * Its object is trusted only when {@link headerProblem} then finds nothing.
  */
-function readUsualHeader(t: string): Record<string, unknown> | null {
-  if (t.charCodeAt(0) !== 0x7b) return null;
-  pos = 1;
-  // The actor and lot a roll repeats from entry to entry are taken as the strings already
-  // checked, when the text has them: nothing is copied, and comparing them later is quick.
-  const actor = stringMember(t, MEMBER.ACTOR, lastActor, 0);
-  if (actor === null) return null;
-  const body = stringMember(t, MEMBER.BODY, undefined, 64);
-  if (body === null) return null;
-  let facts: unknown;
-  if (hasCodesAt(t, MEMBER.FACTS, pos)) {
-    facts = readCanonicalAt(t, pos + MEMBER.FACTS.length);
-    pos = endOfCanonicalRead();
-    if (facts === undefined || t.charCodeAt(pos++) !== 0x2c) return null;
-  }
-  const kind = stringMember(t, MEMBER.KIND, undefined, 0, true);
-  if (kind === null) return null;
-  const lot = stringMember(t, MEMBER.LOT, lastLot, 9);
-  if (lot === null) return null;
-  const prev = stringMember(t, MEMBER.PREV, undefined, 64);
-  if (prev === null) return null;
-  let sealed: string | null = null;
-  if (hasCodesAt(t, MEMBER.SEALED, pos)) {
-    sealed = stringMember(t, MEMBER.SEALED, undefined, 64);
-    if (sealed === null) return null;
-  }
-  const seq = integerMember(t, MEMBER.SEQ);
-  if (seq < 0 || t.charCodeAt(pos++) !== 0x2c) return null;
-  const time = stringMember(t, MEMBER.TIME, undefined, 24);
-  if (time === null) return null;
-  const v = integerMember(t, MEMBER.V);
-  if (v < 0 || pos !== t.length - 1 || t.charCodeAt(pos) !== 0x7d) return null;
-  // One literal per shape, so each header gets its members in one step and in text order.
-  if (facts === undefined)
-    return sealed === null
-      ? { actor, body, kind, lot, prev, seq, time, v }
-      : { actor, body, kind, lot, prev, sealed, seq, time, v };
-  return sealed === null
-    ? { actor, body, facts, kind, lot, prev, seq, time, v }
-    : { actor, body, facts, kind, lot, prev, sealed, seq, time, v };
-}
+export type UsualHeaderReader = (
+  text: string,
+  actor: unknown,
+  lot: unknown,
+) => Record<string, unknown> | null;
 
-/** `t.startsWith(part, at)`, where a plain loop is quicker for the short parts read here. */
-function hasAt(t: string, part: string, at: number): boolean {
-  for (let i = 0; i < part.length; i++) if (t.charCodeAt(at + i) !== part.charCodeAt(i)) return false;
-  return true;
-}
-
-/** {@link hasAt} for a part given as its code units. */
-function hasCodesAt(t: string, codes: Uint16Array, at: number): boolean {
-  for (let i = 0; i < codes.length; i++) if (t.charCodeAt(at + i) !== codes[i]) return false;
-  return true;
-}
-
-const codesOf = (text: string): Uint16Array => Uint16Array.from(text, (ch) => ch.charCodeAt(0));
-/** What comes before each member's value in a usual header, as code units. */
-const MEMBER = {
-  ACTOR: codesOf('"actor":"'),
-  BODY: codesOf('"body":"'),
-  FACTS: codesOf('"facts":'),
-  KIND: codesOf('"kind":"'),
-  LOT: codesOf('"lot":"'),
-  PREV: codesOf('"prev":"'),
-  SEALED: codesOf('"sealed":"'),
-  SEQ: codesOf('"seq":'),
-  TIME: codesOf('"time":"'),
-  V: codesOf('"v":'),
-} as const;
-
-/** Where {@link readUsualHeader} is in its text. */
-let pos = 0;
+let readUsual: UsualHeaderReader | null = null;
 
 /**
- * The text between the quotes of `member` (`"key":"`) at {@link pos} and the next quote (or,
- * for a member of a fixed `length`, the quote that must end it there), which a comma follows;
- * {@link pos} then moves past the comma. Null when the text is otherwise. When that text is
- * `known`, `known` itself is returned; with `keep` (a kind), the kind's own name when it is one,
- * which later comparisons and lookups take quickest.
+ * Installs the direct reading of usual headers. `usual-header.ts` calls it when it is loaded,
+ * which Node does through the package's index; a bundle for browsers, where rolls are short and
+ * bytes count, leaves that module out (the package has no side effects to keep) and every header
+ * takes the full reading.
  */
-function stringMember(
-  t: string,
-  member: Uint16Array,
-  known: unknown,
-  length: number,
-  keep = false,
-): string | null {
-  if (!hasCodesAt(t, member, pos)) return null;
-  const start = pos + member.length;
-  if (typeof known === 'string') {
-    const end = start + known.length;
-    if (t.charCodeAt(end) === 0x22 && t.charCodeAt(end + 1) === 0x2c && hasAt(t, known, start)) {
-      pos = end + 2;
-      return known;
-    }
-  }
-  const end = length > 0 ? start + length : t.indexOf('"', start);
-  if (end < 0 || t.charCodeAt(end) !== 0x22 || t.charCodeAt(end + 1) !== 0x2c) return null;
-  pos = end + 2;
-  if (!keep) return t.slice(start, end);
-  const kept = keptText(t, start, end);
-  return KIND_NAMES.get(kept) ?? kept;
-}
-
-/**
- * The non-negative integer written canonically after `member` (`"key":`) at {@link pos}, which
- * then moves past it; -1 when the text is otherwise.
- */
-function integerMember(t: string, member: Uint16Array): number {
-  if (!hasCodesAt(t, member, pos)) return -1;
-  let i = pos + member.length;
-  let c = t.charCodeAt(i);
-  if (c === 0x30) {
-    pos = i + 1;
-    return 0;
-  }
-  const from = i;
-  let value = 0;
-  for (; c >= 0x30 && c <= 0x39; c = t.charCodeAt(++i)) value = value * 10 + (c - 0x30);
-  if (i === from || i - from > 15) return -1;
-  pos = i;
-  return value;
+export function useUsualHeaderReader(reader: UsualHeaderReader): void {
+  readUsual = reader;
 }
 
 // The lot code and actor checked last: a roll repeats them from header to header, so each is
@@ -489,8 +377,6 @@ let lastActor: unknown = null;
 
 /** Each kind and the format version that added it. */
 const KIND_SINCE: ReadonlyMap<string, FormatVersion> = new Map(ENTRY_KINDS.map((k) => [k, kindSince(k)]));
-/** Each kind's name, found by an equal string. */
-const KIND_NAMES: ReadonlyMap<string, EntryKind> = new Map(ENTRY_KINDS.map((k) => [k, k]));
 
 /** True when {@link decodeHeader} returned a problem rather than a header. */
 export function isHeaderProblem(x: EntryHeader | HeaderProblem): x is HeaderProblem {

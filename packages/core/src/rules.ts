@@ -163,87 +163,59 @@ export interface TransitionRule {
   actor: ActorRule;
   /** Statuses in which the kind may be appended; `registered` only opens a roll. */
   statuses: readonly LotStatus[];
-  summary: string;
 }
 
 const ALL: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 const ACTIVE: readonly LotStatus[] = ['held', 'offered'];
 
 /**
- * The rules of a roll, one row per kind: who may append it and in which statuses. The checks
+ * The rules of a roll, one row per kind: who may append it and in which statuses (each row's
+ * comment sums up its rule; the comments are not shipped, as this table goes to browsers). The checks
  * that need more than this table (counts, offer seqs, redaction targets) are written in
  * {@link checkTransition} and in the format document. The server calls `checkTransition`
  * before every write; verifiers call it on read.
  */
 export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
-  registered: { actor: 'anyone', statuses: [], summary: 'seq 0 only; the actor becomes the holder' },
-  described: {
-    actor: 'holder',
-    statuses: ALL,
-    summary: 'full new description; in a final status the count no longer changes',
-  },
-  observed: { actor: 'holder', statuses: ACTIVE, summary: 'physical observations' },
-  'exhibit-added': {
-    actor: 'holder-or-anyone-if-listed',
-    statuses: ALL,
-    summary:
-      'the holder; anyone else (evidence for an opinion) on a listed lot, or (version 3) on an unlisted lot by naming an open request that asks them',
-  },
-  opinion: {
-    actor: 'holder-or-anyone-if-listed',
-    statuses: ALL,
-    summary:
-      'the holder, or anyone on a listed lot, or (version 3) anyone an open request asks, naming it; that opinion closes the request',
-  },
-  'opinion-withdrawn': {
-    actor: 'opinion-author',
-    statuses: ALL,
-    summary: 'names a standing opinion by the same actor',
-  },
-  'transfer-offered': {
-    actor: 'holder',
-    statuses: ['held'],
-    summary: 'one open offer; the recipient is not the holder',
-  },
-  'transfer-accepted': {
-    actor: 'offer-recipient',
-    statuses: ['offered'],
-    summary: 'names the open offer; the actor becomes the holder',
-  },
-  'transfer-declined': { actor: 'offer-recipient', statuses: ['offered'], summary: 'names the open offer' },
-  'transfer-withdrawn': { actor: 'offerer', statuses: ['offered'], summary: 'names the open offer' },
-  'transfer-lapsed': {
-    actor: 'system',
-    statuses: ['offered'],
-    summary: `names the open offer; actor ${SYSTEM_ACTOR}`,
-  },
-  split: { actor: 'holder', statuses: ['held'], summary: 'children counts do not exceed an exact count' },
-  combined: { actor: 'holder', statuses: ['held'], summary: 'count taken does not exceed an exact count' },
-  sold: { actor: 'holder', statuses: ['held'], summary: 'sale to a private buyer' },
-  'sale-voided': {
-    actor: 'holder',
-    statuses: ['sold'],
-    summary: 'the seller, within 24 hours of the sale it names (the current sale); the lot is held again',
-  },
-  retired: { actor: 'holder', statuses: ['held'], summary: 'taken out of trade' },
-  redacted: {
-    actor: 'anyone',
-    statuses: ALL,
-    summary:
-      'the server admits only the registrar; target is an earlier entry that is not seq 0, a link, a redaction, already redacted, or the open offer',
-  },
-  note: { actor: 'holder-or-anyone-if-listed', statuses: ALL, summary: 'optional ref to an earlier entry' },
-  'opinion-requested': {
-    actor: 'holder',
-    statuses: ACTIVE,
-    summary:
-      'asks a named assessor (not the holder, not a reserved id), or with null any assessor; the server admits only verified assessors',
-  },
-  'opinion-request-closed': {
-    actor: 'holder',
-    statuses: ACTIVE,
-    summary: 'names an open opinion request and closes it',
-  },
+  // seq 0 only; the actor becomes the holder
+  registered: { actor: 'anyone', statuses: [] },
+  // full new description; in a final status the count no longer changes
+  described: { actor: 'holder', statuses: ALL },
+  // physical observations
+  observed: { actor: 'holder', statuses: ACTIVE },
+  // the holder; anyone else (evidence for an opinion) on a listed lot, or (version 3) on an unlisted lot by naming an open request that asks them
+  'exhibit-added': { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // the holder, or anyone on a listed lot, or (version 3) anyone an open request asks, naming it; that opinion closes the request
+  opinion: { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // names a standing opinion by the same actor
+  'opinion-withdrawn': { actor: 'opinion-author', statuses: ALL },
+  // one open offer; the recipient is not the holder
+  'transfer-offered': { actor: 'holder', statuses: ['held'] },
+  // names the open offer; the actor becomes the holder
+  'transfer-accepted': { actor: 'offer-recipient', statuses: ['offered'] },
+  // names the open offer
+  'transfer-declined': { actor: 'offer-recipient', statuses: ['offered'] },
+  // names the open offer
+  'transfer-withdrawn': { actor: 'offerer', statuses: ['offered'] },
+  // names the open offer; actor beadroll:system
+  'transfer-lapsed': { actor: 'system', statuses: ['offered'] },
+  // children counts do not exceed an exact count
+  split: { actor: 'holder', statuses: ['held'] },
+  // count taken does not exceed an exact count
+  combined: { actor: 'holder', statuses: ['held'] },
+  // sale to a private buyer
+  sold: { actor: 'holder', statuses: ['held'] },
+  // the seller, within 24 hours of the sale it names (the current sale); the lot is held again
+  'sale-voided': { actor: 'holder', statuses: ['sold'] },
+  // taken out of trade
+  retired: { actor: 'holder', statuses: ['held'] },
+  // the server admits only the registrar; target is an earlier entry that is not seq 0, a link, a redaction, already redacted, or the open offer
+  redacted: { actor: 'anyone', statuses: ALL },
+  // optional ref to an earlier entry
+  note: { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // asks a named assessor (not the holder, not a reserved id), or with null any assessor; the server admits only verified assessors
+  'opinion-requested': { actor: 'holder', statuses: ACTIVE },
+  // names an open opinion request and closes it
+  'opinion-request-closed': { actor: 'holder', statuses: ACTIVE },
 };
 
 function bad(code: 'bad-actor' | 'bad-transition', message: string): TransitionResult {

@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
 import { decodeHeader, decodeHeaderFully } from '../src/entry.js';
+// Loading it installs the direct reading into decodeHeader, as the package's index does in Node.
+import { readUsualHeader } from '../src/usual-header.js';
 
 // decodeHeader reads the usual header straight from its text and leaves everything else to the
 // full reading (parseCanonical, then the field checks). Both must give the same answer for every
@@ -90,6 +92,19 @@ describe('reading a header directly agrees with the full reading', () => {
       expectSameAnswer(c.header, c.knownHash, c.knownDigest);
       expect(decodeHeader(c.header, c.knownHash, c.knownDigest)).not.toHaveProperty('reason');
     }
+  });
+
+  it('reads directly every header with facts and without parents, and no other', () => {
+    let direct = 0;
+    for (const c of cases) {
+      const h = JSON.parse(c.header) as Record<string, unknown>;
+      const usual = 'facts' in h && !('parents' in h);
+      const read = readUsualHeader(c.header, undefined, undefined);
+      expect(read === null).toBe(!usual);
+      if (read) expect(JSON.stringify(read)).toBe(JSON.stringify(h));
+      if (read) direct++;
+    }
+    expect(direct).toBeGreaterThan(10);
   });
 
   it('on small edits of those headers', () => {
