@@ -220,10 +220,10 @@ const ESCAPE_OR_CONTROL = /[^ -[\]-\uffff]/;
  * (the same members in the same order), but only when the same pass shows that the text is the
  * ledger canonical form of that value: no white space; keys, compared as UTF-16 code units,
  * strictly increasing and written without escapes; strings holding only well-formed characters
- * as themselves and the escapes the canonical form writes; numbers written as ECMAScript writes
- * them, integers among them safe; nesting at most {@link READ_DEPTH} deep. Anything else gives
- * {@link UNDECIDED}, and the full check (JSON.parse, then the RFC 8785 serialiser) decides, so
- * both paths accept exactly the same texts with the same values.
+ * as themselves and the short escapes the canonical form writes; numbers that are integers of at
+ * most 15 digits, written without a leading zero; nesting at most {@link READ_DEPTH} deep.
+ * Anything else gives {@link UNDECIDED}, and the full check (JSON.parse, then the RFC 8785
+ * serialiser) decides, so both paths accept exactly the same texts with the same values.
  */
 function readCanonical(text: string): unknown {
   src = text;
@@ -410,7 +410,10 @@ const SHORT_ESCAPED: Record<number, string> = {
   0x74: '\t',
 };
 
-/** An integer of 1 to 15 digits with no leading zero, maybe negative, or 0; other numbers are left to the full check. */
+/**
+ * An integer of 1 to 15 digits with no leading zero, maybe negative, or 0, as the canonical form
+ * writes it; other numbers are left to the full check.
+ */
 function readNumber(): unknown {
   let c = src.charCodeAt(at);
   if (c === 0x30) {

@@ -16,7 +16,8 @@ import { ENTRY_KINDS, type EntryKind } from './types.js';
  * `headerProblem` in entry.ts finds nothing. Every string member is then checked to hold only
  * characters of its own kind (account id, lot code, kind, time, hex digits), none of them a
  * quote, backslash or control character, so each string read here is the whole JSON string,
- * the text is canonical, and its parse is this object.
+ * the text is canonical, and its parse is this object. `lastActor` and `lastLot` are the values
+ * checked last, handed back as they are when the text has them.
  */
 export function readUsualHeader(
   t: string,
