@@ -230,6 +230,24 @@ describe('stored copies of a roll', () => {
       expect(broken.find((x) => x.lot === code)!.message).toContain('differs from the roll');
   });
 
+  it("reports a key added to a lot's cached state and a changed value inside its view's observations", async () => {
+    const stateLot = await newLot();
+    const observedLot = await newLot();
+    await tamper(t, `UPDATE "lots" SET "state" = "state" || '{"note": "kept aside"}' WHERE "code" = $1`, [
+      stateLot,
+    ]);
+    await tamper(
+      t,
+      `UPDATE "lot_views" SET "observations" = jsonb_set("observations", '{hole}', '"chipped"') WHERE "code" = $1`,
+      [observedLot],
+    );
+    const { broken } = await audit();
+    const of = (code: string) => broken.find((x) => x.lot === code)?.differences ?? [];
+    expect(of(stateLot)).toEqual([expect.objectContaining({ table: 'lots', column: 'state.note' })]);
+    expect(of(observedLot)).toEqual([
+      expect.objectContaining({ table: 'lot_views', column: 'observations.hole', stored: '"chipped"' }),
+    ]);
+  });
   it('reports a changed exhibit row, transfer offer row or sale row', async () => {
     const offered = await newLot();
     await offerOnRoll(ledger, offered, holder, other);

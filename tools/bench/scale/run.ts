@@ -6,7 +6,7 @@
 // lot list with a text query) and the full-ledger audit's entries/s and peak memory (the
 // `npm run audit` program). Targets: public data and append at full size ≤ 1.2× at 1,000;
 // search ≤ 100 ms; the audit ≥ 50,000 entries/s in flat memory.
-// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M]
+// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M] [--audit-only] [--hold]
 //   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -18,7 +18,7 @@ import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { REPO } from '../../lib/app-env.ts';
+import { AUDIT_NODE_OPTIONS, REPO } from '../../lib/app-env.ts';
 import { startBenchApp, type BenchApp } from '../lib/bench-app.ts';
 import { COLOURS, WORDS } from './words.mjs';
 
@@ -29,6 +29,10 @@ const arg = (name: string) => {
 const ENTRIES = arg('--entries') ?? 1_000_000;
 const LOTS = arg('--lots') ?? Math.max(1, Math.round(ENTRIES / 10));
 const SMALL = 1000;
+// --audit-only: measure the audit alone; --hold: after loading, print the cluster's environment
+// and keep it (and the app) until Ctrl+C, for profiling the audit by hand.
+const AUDIT_ONLY = process.argv.includes('--audit-only');
+const HOLD = process.argv.includes('--hold');
 
 interface CannonResult {
   latency: { p50: number; p99: number };
@@ -189,17 +193,29 @@ async function signIn(app: BenchApp): Promise<{ headers: Record<string, string>;
 }
 
 /**
- * Runs the audit program and samples its peak resident memory (VmHWM). The rate is timed from
- * its first line ("auditing N lots…"), after the program has started and connected.
+ * Runs the audit program as `npm run audit` does (with its heap limit), with the app paused,
+ * and samples its peak resident memory (VmHWM). The rate is timed from its first line
+ * ("auditing N lots…"), after the program has started and connected.
  */
 function audit(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
+  // The app is paused meanwhile: after a bulk load it is still numbering every new entry in the
+  // log (minutes of work at 1,000,000 entries), which would share the two cores with the audit.
+  process.kill(app.pid, 'SIGSTOP');
+  return auditProgram(app).finally(() => process.kill(app.pid, 'SIGCONT'));
+}
+
+function auditProgram(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
   return new Promise((resolve, reject) => {
     const started = performance.now();
-    const child = spawn('node', [join(REPO, 'packages/server/dist/audit/audit-cli.js')], {
-      cwd: REPO,
-      env: app.env,
-      stdio: ['ignore', 'pipe', 'inherit'],
-    });
+    const child = spawn(
+      'node',
+      [...AUDIT_NODE_OPTIONS, join(REPO, 'packages/server/dist/audit/audit-cli.js')],
+      {
+        cwd: REPO,
+        env: app.env,
+        stdio: ['ignore', 'pipe', 'inherit'],
+      },
+    );
     let out = '';
     let peakKb = 0;
     let auditing = started;
@@ -265,6 +281,19 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
     )
   ).rows.map((r: { code: string }) => r.code);
   if (codes.length === 0) throw new Error('no listed lot held by the dealer');
+  if (AUDIT_ONLY) {
+    const a = await audit(app);
+    return {
+      entries: n,
+      publicP50: NaN,
+      publicP99: NaN,
+      appendP50: NaN,
+      appendP99: NaN,
+      searchP95: NaN,
+      auditRate: a.entries / a.seconds,
+      auditPeakMb: a.peakMb,
+    } satisfies Figures;
+  }
   const pub = await autocannon({
     url: `${app.origin}/api/public/lots/${codes[0]}`,
     connections: 8,
@@ -350,6 +379,12 @@ async function main(): Promise<void> {
       `loaded ${(ENTRIES - SMALL).toLocaleString('en')} more entries in ${loadSeconds.toFixed(0)} s ` +
         `(${Math.round((ENTRIES - SMALL) / loadSeconds).toLocaleString('en')} entries/s); measuring…`,
     );
+    if (HOLD) {
+      const keys = ['PGHOST', 'PGPORT', 'PGUSER', 'PGPASSWORD', 'PGDATABASE'];
+      console.log(keys.map((k) => `export ${k}='${app.env[k]}'`).join('\n'));
+      console.log('holding the cluster and the app; Ctrl+C ends them');
+      await new Promise(() => undefined);
+    }
     const big = await measure(app, pool, headers, actor);
     const ok = (b: boolean) => (b ? 'met' : 'NOT met');
     console.log('');
