@@ -298,19 +298,21 @@ describe('stored copies of a roll', () => {
 
   it('does not report an entry appended between the statements that read a batch', async () => {
     const code = await newLot();
-    // The dealer writes just after the audit read the lot's row and just before it reads the
-    // entries: the first look sees one entry more than the cached head, the second look (one
-    // snapshot) sees them agree.
+    // The dealer writes just after the audit read the lot's row and while it reads the batch's
+    // other tables: the first look sees the cached head, lot view and entries disagree, the
+    // second look (one snapshot) sees them agree.
     const m = t.app.get(DataSource).manager;
     const query = m.query.bind(m);
     let appended = false;
-    const spy = jest.spyOn(m, 'query').mockImplementation(async (sql: string, params?: unknown[]) => {
-      if (!appended && /FROM "entries" e WHERE e\."lot_id" BETWEEN/.test(sql)) {
-        appended = true;
-        await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
-      }
-      return query(sql, params);
-    });
+    const spy = jest
+      .spyOn(m, 'query')
+      .mockImplementation(async (sql: string, params?: Parameters<typeof query>[1]) => {
+        if (!appended && /FROM "lot_views" WHERE "lot_id" BETWEEN/.test(sql)) {
+          appended = true;
+          await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
+        }
+        return query(sql, params);
+      });
     try {
       const { broken } = await audit();
       expect(appended).toBe(true);
