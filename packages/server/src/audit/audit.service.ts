@@ -1,32 +1,34 @@
 import { Injectable } from '@nestjs/common';
 import {
-  createRollVerifier,
   decodeHeader,
   entryHash,
   isHeaderProblem,
   sealedFieldCommitment,
   sealedRoot,
   type CombinedBody,
-  type EntryHeader,
   type ExhibitAddedBody,
   type ExhibitRef,
-  type ObservedBody,
-  type Observations,
-  type RedactedBody,
   type RollState,
-  type RollVerification,
   type SoldBody,
   type SplitBody,
-  type StoredEntry,
   type TransferAnswerBody,
   type TransferOfferedBody,
-  TRANSFER_KINDS,
-  type VerifiedEntry,
 } from '@beadroll/core';
 import { DataSource, type EntityManager } from 'typeorm';
 import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
 import { DERIVED_COLUMNS, lotViewValues } from '../lots/lot-view.projector';
 import { sameJson } from './same-json';
+import {
+  shown,
+  startReplay,
+  replayLots,
+  ENTRIES_BY_LOT_RANGE,
+  type EntryRowOf,
+  type KeptEntry,
+  type LotReplay,
+  type StoredCopyDifference,
+} from './lot-replay';
+import { ReplayPool } from './replay-pool';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 import { attributionRecordOf } from '../lots/attribution-record';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -38,25 +40,7 @@ import { RollReaderService } from '../ledger/roll-reader.service';
  */
 export const STORED_COPY = 'stored-copy';
 
-/** One stored value that differs from what the roll says. */
-export interface StoredCopyDifference {
-  table: string;
-  column: string;
-  /** The entry, for a column of one entry; null for a value of the lot. */
-  seq: number | null;
-  stored: string;
-  roll: string;
-}
-
-/** Entries other features keep a row for, remembered while a roll is replayed (a few per lot). */
-const KEPT_KINDS = new Set<string>(['exhibit-added', ...TRANSFER_KINDS, 'sold']);
-
-interface KeptEntry {
-  kind: string;
-  actor: string;
-  time: string;
-  body: unknown;
-}
+export type { StoredCopyDifference } from './lot-replay';
 
 interface LotRow {
   id: string;
@@ -103,33 +87,6 @@ const LOT_COLUMNS = `"id", "code", "head_seq", "head_hash", "head_time", "state"
 const BATCH_ENTRIES = 20_000;
 /** Batches read (or being read) ahead of the one being checked. */
 const READ_AHEAD = 2;
-
-/** The columns of an entry row the audit compares with its header. */
-interface EntryColumns {
-  seq: number;
-  kind: string;
-  actor: string;
-  time: string;
-  redacts_seq: number | null;
-}
-
-/**
- * An entry row as the audit reads it, as an array (no object per row): the columns kept beside
- * the canonical strings, then the strings, in the order of ENTRY_COLUMNS.
- */
-type EntryRowOf = [
-  lot_id: string,
-  seq: number,
-  kind: string,
-  actor: string,
-  time: string,
-  redacts_seq: number | null,
-  hash: string,
-  header: string,
-  body: string | null,
-];
-const ENTRY_COLUMNS = `e."lot_id", e."seq", e."kind", e."actor", e."time", e."redacts_seq", e."hash", e."header",
-  (SELECT b."body" FROM "entry_bodies" b WHERE b."entry_id" = e."id")`;
 
 /** The pg client or pool under a manager, for a statement whose rows come as arrays. */
 interface ArrayQueryable {
@@ -189,33 +146,16 @@ interface LotBatch {
   after: string | null;
   /** Lots read but left for the next batch. */
   rest: Array<LotRow & { entries: number }>;
-  /** Each lot's entry rows in seq order; a lot missing here is replayed from the database. */
-  entries: Map<string, EntryRowOf[]>;
+  /**
+   * Each lot's roll replayed (in a worker thread when the pool has one) from the rows read with
+   * the batch; a lot missing here is replayed from the database a page at a time.
+   */
+  replays: Promise<Map<string, LotReplay>>;
   views: Map<string, Record<string, unknown>>;
   sealed: Map<string, SealedRow[]>;
   exhibits: Map<string, ExhibitRow[]>;
   offers: Map<string, OfferRow[]>;
   sales: Map<string, SaleRow[]>;
-}
-
-/** Replays rows already read (a whole roll in seq order) through core's incremental verifier. */
-function replayRows(
-  lot: { code: string },
-  rows: readonly EntryRowOf[],
-  visit: (row: EntryColumns, entry: VerifiedEntry) => void,
-): { result: RollVerification; entries: number } {
-  const v = createRollVerifier(lot.code);
-  // One object reused for every row: the verifier and `visit` keep none of it.
-  const columns: EntryColumns = { seq: 0, kind: '', actor: '', time: '', redacts_seq: null };
-  const stored: StoredEntry = { hash: '', header: '', body: null };
-  for (const row of rows) {
-    [, columns.seq, columns.kind, columns.actor, columns.time, columns.redacts_seq] = row;
-    [, , , , , , stored.hash, stored.header, stored.body] = row;
-    const failure = v.push(stored);
-    if (failure) return { result: failure, entries: rows.length };
-    visit(columns, v.last!);
-  }
-  return { result: v.finish(), entries: rows.length };
 }
 
 /**
@@ -242,25 +182,54 @@ export class AuditService {
       n: number;
     }>;
     yield { type: 'start', lots: n, startedAt: new Date().toISOString() };
+    const db = this.dataSource.options as Partial<Record<'host' | 'username' | 'database', string>> & {
+      port?: number;
+      password?: unknown;
+    };
+    const pool = new ReplayPool({
+      db: {
+        host: db.host,
+        port: db.port,
+        user: db.username,
+        password: typeof db.password === 'string' ? db.password : undefined,
+        database: db.database,
+        application_name: 'beadroll-audit',
+      },
+    });
+    try {
+      yield* this.check(pool, n, progressEvery);
+    } finally {
+      pool.close();
+    }
+  }
+
+  private async *check(pool: ReplayPool, n: number, progressEvery: number): AsyncGenerator<AuditEvent> {
     let lotsChecked = 0;
     let entriesChecked = 0;
     let broken = 0;
     // The next batches are read, one after another, while this one is checked.
     const readAfter = (previous: Promise<LotBatch>) => {
-      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(b.after, b.rest)));
+      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(pool, b.after, b.rest)));
       read.catch(() => undefined); // awaited in its turn; a failure is thrown there
       return read;
     };
-    let last = this.readBatch('', []);
+    let last = this.readBatch(pool, '', []);
     const ahead = [last];
     while (ahead.length < READ_AHEAD) ahead.push((last = readAfter(last)));
     for (;;) {
       const batch = await ahead.shift()!;
       if (batch.lots.length === 0) break;
       ahead.push((last = readAfter(last)));
+      const replays = await batch.replays;
       for (const lot of batch.lots) {
-        const first = await this.checkLot(lot, (n) => (entriesChecked += n), batch, this.dataSource.manager);
-        const problem = first && (await this.recheck(lot.id));
+        const first = await this.checkLot(
+          lot,
+          replays.get(lot.id),
+          (n) => (entriesChecked += n),
+          batch,
+          this.dataSource.manager,
+        );
+        const problem = first && (await this.recheck(pool, lot.id));
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -290,6 +259,7 @@ export class AuditService {
    * memory stays flat.
    */
   private async readBatch(
+    pool: ReplayPool,
     after: string | null,
     rest: Array<LotRow & { entries: number }>,
   ): Promise<LotBatch> {
@@ -307,11 +277,12 @@ export class AuditService {
     let count = 0;
     while (count < lots.length && (count === 0 || total + lots[count]!.entries <= BATCH_ENTRIES))
       total += lots[count++]!.entries;
-    return this.readRows(lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
+    return this.readRows(pool, lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
   }
 
   /** Every row the checks compare of these consecutive lots (in id order), read through `m`. */
   private async readRows(
+    pool: ReplayPool,
     chosen: LotRow[],
     total: number,
     after: string | null,
@@ -322,7 +293,7 @@ export class AuditService {
       lots: chosen,
       after,
       rest,
-      entries: new Map(),
+      replays: Promise.resolve(new Map()),
       views: new Map(),
       sealed: new Map(),
       exhibits: new Map(),
@@ -344,15 +315,20 @@ export class AuditService {
         list.push(r);
       }
     };
-    const [entries, views, sealed, exhibits, offers, sales] = await Promise.all([
-      total <= BATCH_ENTRIES
-        ? (this.arrays(
-            m,
-            // The body by a subquery, one index probe per entry: a join plans a hash over every body.
-            `SELECT ${ENTRY_COLUMNS} FROM "entries" e WHERE e."lot_id" BETWEEN $1 AND $2 ORDER BY e."lot_id", e."seq"`,
-            range,
-          ) as Promise<EntryRowOf[]>)
-        : Promise.resolve([] as EntryRowOf[]),
+    if (total <= BATCH_ENTRIES) {
+      // In a worker thread, on its own connection; in this thread inside a transaction.
+      const here = async () =>
+        replayLots(chosen, (await this.arrays(m, ENTRIES_BY_LOT_RANGE, range)) as EntryRowOf[]);
+      const replays = m.queryRunner
+        ? here()
+        : pool.replay(
+            { from: range[0]!, to: range[1]!, lots: chosen.map((l) => ({ id: l.id, code: l.code })) },
+            here,
+          );
+      batch.replays = replays.then((r) => new Map(chosen.map((l, i) => [l.id, r[i]!])));
+      batch.replays.catch(() => undefined); // awaited in its turn; a failure is thrown there
+    }
+    const [views, sealed, exhibits, offers, sales] = await Promise.all([
       m.query(`SELECT ${VIEW_COLUMNS} FROM "lot_views" WHERE "lot_id" BETWEEN $1 AND $2`, range) as Promise<
         Array<Record<string, unknown> & { lot_id: string }>
       >,
@@ -377,15 +353,6 @@ export class AuditService {
         range,
       ) as Promise<SaleRow[]>,
     ]);
-    if (total <= BATCH_ENTRIES) {
-      batch.entries = new Map(chosen.map((l) => [l.id, []]));
-      let lot = '';
-      let list: EntryRowOf[] | undefined;
-      for (const r of entries) {
-        if (r[0] !== lot) list = batch.entries.get((lot = r[0]));
-        list?.push(r);
-      }
-    }
     for (const v of views) batch.views.set(v.lot_id, v);
     byLot(sealed, batch.sealed);
     byLot(exhibits, batch.exhibits);
@@ -412,57 +379,38 @@ export class AuditService {
    * batch reads its tables in separate statements, so an entry appended between two of them
    * would otherwise look like a stored copy that disagrees with the roll.
    */
-  private recheck(id: string): Promise<LotProblem | null> {
+  private recheck(pool: ReplayPool, id: string): Promise<LotProblem | null> {
     return this.dataSource.transaction('REPEATABLE READ', async (m) => {
       const [lot] = (await m.query(`SELECT ${LOT_COLUMNS} FROM "lots" WHERE "id" = $1`, [id])) as Array<
         LotRow & { entries: number }
       >;
       if (!lot) return null;
-      const batch = await this.readRows([lot], lot.entries, null, [], m);
-      return this.checkLot(lot, () => undefined, batch, m);
+      const batch = await this.readRows(pool, [lot], lot.entries, null, [], m);
+      return this.checkLot(lot, (await batch.replays).get(lot.id), () => undefined, batch, m);
     });
   }
 
   private async checkLot(
     lot: LotRow,
+    replayed: LotReplay | undefined,
     counted: (n: number) => void,
     batch: LotBatch,
     m: EntityManager,
   ): Promise<LotProblem | null> {
-    const diffs: StoredCopyDifference[] = [];
+    let replay = replayed;
+    if (!replay) {
+      // A roll longer than a batch: replayed here, a page at a time.
+      const start = startReplay();
+      const { result, entries } = await replayStoredRoll(m, lot, (row, e) =>
+        start.visit({ ...row, redacts_seq: row.redactsSeq }, e),
+      );
+      replay = Object.assign(start.replay, { result, entries });
+    }
+    const { result, observations, sealedRoots, sealedActors, offerRecipients, kept } = replay;
+    const diffs: StoredCopyDifference[] = [...replay.differences];
     const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
       diffs.push({ table, column, seq, stored: shown(stored), roll: shown(roll) });
-    let first: EntryHeader | null = null;
-    let observations: Observations | null = null;
-    const sealedRoots = new Map<number, string>();
-    const sealedActors = new Map<number, string>();
-    const offerRecipients = new Map<number, string>();
-    const kept = new Map<number, KeptEntry>();
-    const read = batch.entries.get(lot.id);
-    const visit = (row: EntryColumns, e: VerifiedEntry) => {
-      const h = e.header;
-      if (h.seq === 0) first = h;
-      // Every column kept beside the canonical header must say what the header says.
-      if (row.seq !== h.seq) differs('entries', 'seq', h.seq, row.seq, h.seq);
-      if (row.kind !== h.kind) differs('entries', 'kind', h.seq, row.kind, h.kind);
-      if (row.actor !== h.actor) differs('entries', 'actor', h.seq, row.actor, h.actor);
-      if (row.time !== h.time) differs('entries', 'time', h.seq, row.time, h.time);
-      const target = h.kind === 'redacted' && e.body ? (e.body as RedactedBody).target : null;
-      if (row.redacts_seq !== target) differs('entries', 'redacts_seq', h.seq, row.redacts_seq, target);
-      if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
-      if (h.sealed) sealedRoots.set(h.seq, h.sealed);
-      if (h.sealed) sealedActors.set(h.seq, h.actor);
-      if (h.kind === 'transfer-offered') {
-        const r = h.facts?.recipient ?? (e.body as TransferOfferedBody | null)?.recipient;
-        if (r) offerRecipients.set(h.seq, r);
-      }
-      if (KEPT_KINDS.has(h.kind))
-        kept.set(h.seq, { kind: h.kind, actor: h.actor, time: h.time, body: e.body });
-    };
-    const { result, entries } = read
-      ? replayRows(lot, read, visit)
-      : await replayStoredRoll(m, lot, (row, e) => visit({ ...row, redacts_seq: row.redactsSeq }, e));
-    counted(entries);
+    counted(replay.entries);
     if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
     const head = result.head;
 
@@ -490,7 +438,7 @@ export class AuditService {
         }
       }
       const times: Array<[string, string]> = [
-        ['registered_at', (first as EntryHeader | null)?.time ?? ''],
+        ['registered_at', replay.registeredAt ?? ''],
         ['updated_at', head.time],
       ];
       for (const [column, time] of times) {
@@ -559,8 +507,7 @@ export class AuditService {
 
     await this.checkFeatureRows(lot, kept, sealed, differs, batch);
 
-    const parents = (first as EntryHeader | null)?.parents ?? [];
-    for (const p of parents) {
+    for (const p of replay.parents) {
       const rows: Array<{ hash: string; header: string; body: string | null }> = await m.query(
         `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
          LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
@@ -682,10 +629,4 @@ export class AuditService {
       if (!sameTime(x.recorded_at, e.time)) differs('sales', 'recorded_at', x.seq, x.recorded_at, e.time);
     }
   }
-}
-
-/** Shows a stored or derived value in a message, briefly. */
-function shown(value: unknown): string {
-  const text = value === undefined ? 'absent' : (JSON.stringify(value) ?? String(value));
-  return text.length > 80 ? `${text.slice(0, 77)}…` : text;
 }
