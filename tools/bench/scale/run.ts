@@ -10,7 +10,7 @@
 //   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
@@ -197,14 +197,18 @@ async function signIn(app: BenchApp): Promise<{ headers: Record<string, string>;
  * and samples its peak resident memory (VmHWM). The rate is timed from its first line
  * ("auditing N lots…"), after the program has started and connected.
  */
-function audit(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
+function audit(
+  app: BenchApp,
+): Promise<{ seconds: number; entries: number; peakMb: number; cpu: number; load: string }> {
   // The app is paused meanwhile: after a bulk load it is still numbering every new entry in the
   // log (minutes of work at 1,000,000 entries), which would share the two cores with the audit.
   process.kill(app.pid, 'SIGSTOP');
   return auditProgram(app).finally(() => process.kill(app.pid, 'SIGCONT'));
 }
 
-function auditProgram(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
+function auditProgram(
+  app: BenchApp,
+): Promise<{ seconds: number; entries: number; peakMb: number; cpu: number; load: string }> {
   return new Promise((resolve, reject) => {
     const started = performance.now();
     const child = spawn(
@@ -218,11 +222,15 @@ function auditProgram(app: BenchApp): Promise<{ seconds: number; entries: number
     );
     let out = '';
     let peakKb = 0;
+    let cpuTicks = 0;
     let auditing = started;
     const sample = setInterval(() => {
       try {
         const m = /VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${child.pid}/status`, 'utf8'));
         if (m) peakKb = Math.max(peakKb, Number(m[1]));
+        // The program's CPU time (user and system, every thread), in clock ticks of 1/100 s.
+        const stat = readFileSync(`/proc/${child.pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+        cpuTicks = Number(stat[11]) + Number(stat[12]);
       } catch {
         // the program has just ended
       }
@@ -236,7 +244,15 @@ function auditProgram(app: BenchApp): Promise<{ seconds: number; entries: number
       const seconds = (performance.now() - auditing) / 1000;
       const m = /every roll intact: \d+ lots, (\d+) entries/.exec(out);
       if (code !== 0 || !m) return reject(new Error(`the audit ended with ${code}:\n${out.slice(-2000)}`));
-      resolve({ seconds, entries: Number(m[1]), peakMb: peakKb / 1024 });
+      resolve({
+        seconds,
+        entries: Number(m[1]),
+        peakMb: peakKb / 1024,
+        cpu: cpuTicks / 100,
+        load: loadavg()
+          .map((l) => l.toFixed(1))
+          .join(' '),
+      });
     });
   });
 }
@@ -250,6 +266,10 @@ interface Figures {
   searchP95: number;
   auditRate: number;
   auditPeakMb: number;
+  /** The audit program's CPU seconds, sampled every 50 ms (its start included). */
+  auditCpu: number;
+  /** The machine's load averages (1, 5, 15 min) as the audit ended. */
+  auditLoad: string;
 }
 
 /**
@@ -292,6 +312,11 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
       searchP95: NaN,
       auditRate: a.entries / a.seconds,
       auditPeakMb: a.peakMb,
+      auditCpu: a.cpu,
+      auditLoad: a.load,
+      auditCpu: a.cpu,
+      auditLoad: a.load,
+      auditLoad: a.load,
     } satisfies Figures;
   }
   const pub = await autocannon({
@@ -335,6 +360,8 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
     searchP95: pct(searches, 0.95),
     auditRate: a.entries / a.seconds,
     auditPeakMb: a.peakMb,
+    auditCpu: a.cpu,
+    auditLoad: a.load,
   } satisfies Figures;
 }
 
@@ -345,7 +372,7 @@ function show(f: Figures): string {
     `  public data             p50 ${ms(f.publicP50)}  p99 ${ms(f.publicP99)}  (8 connections, 5 s)`,
     `  append (observation)    p50 ${ms(f.appendP50)}  p99 ${ms(f.appendP99)}  (100, one at a time)`,
     `  inventory search        p95 ${ms(f.searchP95)}  (60 text searches of the dealer's lots)`,
-    `  full audit              ${Math.round(f.auditRate).toLocaleString('en')} entries/s, peak RSS ${f.auditPeakMb.toFixed(0)} MB`,
+    `  full audit              ${Math.round(f.auditRate).toLocaleString('en')} entries/s, peak RSS ${f.auditPeakMb.toFixed(0)} MB, CPU ${f.auditCpu.toFixed(1)} s (load average ${f.auditLoad})`,
   ].join('\n');
 }
 
