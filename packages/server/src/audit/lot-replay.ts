@@ -153,8 +153,15 @@ export function replayRows(code: string, rows: readonly EntryRowOf[]): LotReplay
   const stored: StoredEntry = { hash: '', header: '', body: null };
   replay.entries = rows.length;
   for (const row of rows) {
-    [, columns.seq, columns.kind, columns.actor, columns.time, columns.redacts_seq] = row;
-    [, , , , , , stored.hash, stored.header, stored.body] = row;
+    // By index: destructuring an array goes through its iterator.
+    columns.seq = row[1];
+    columns.kind = row[2];
+    columns.actor = row[3];
+    columns.time = row[4];
+    columns.redacts_seq = row[5];
+    stored.hash = row[6];
+    stored.header = row[7];
+    stored.body = row[8];
     const failure = v.push(stored);
     if (failure) {
       replay.result = failure;
