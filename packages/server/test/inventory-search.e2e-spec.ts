@@ -88,6 +88,21 @@ describe('inventory search, sorting and paging', () => {
     expect((await find(ben, { q: 'roses' })).items.map((i) => i.code)).toContain(venice.code);
   });
 
+  it("searches one's own inventory by words, code and storage place, and finds only lots held", async () => {
+    const mine = async (who: TestAccount, q: string) =>
+      (await find(who, { mine: 'true', q })).items.map((i) => i.code);
+    expect(await mine(ana, 'venetian roses')).toEqual([venice.code]);
+    expect(await mine(ana, 'elise drawer')).toEqual([venice.code]);
+    expect(await mine(ana, venice.displayCode)).toEqual([venice.code]);
+    expect(await mine(ana, venice.code.slice(0, 5))).toContain(venice.code);
+    expect(await mine(ana, 'pressed')).toEqual([bohemia.code]);
+    // Ben's own lot, and Ana's listed lot that Ben may read but does not hold.
+    expect(await mine(ana, 'amber')).toEqual([]);
+    expect(await mine(ben, 'amber')).toHaveLength(1);
+    expect(await mine(ben, 'roses')).toEqual([]);
+    expect(await mine(ben, venice.code)).toEqual([]);
+  });
+
   it("never finds an unlisted lot of someone else's", async () => {
     expect((await find(ben, { q: 'buttons' })).total).toBe(0);
     expect((await find(ben, { q: bohemia.code })).total).toBe(0);

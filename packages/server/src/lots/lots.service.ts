@@ -347,40 +347,27 @@ export class LotsService {
     if (q.technique) where.push(`v."technique" = ${p(q.technique)}`);
     if (q.listed !== undefined) where.push(`v."listed" = ${p(q.listed)}`);
     // A search matches the lots whose words match, whose code starts with what was typed, or
-    // whose storage place (the viewer's own words only) matches. In one's own inventory the
-    // few lots held are filtered row by row; across every listed lot the matches are gathered
-    // from the indexes first.
-    let from = '"lot_views" v';
+    // whose storage place (the viewer's own words only) matches. Each of the three is a
+    // condition an index answers (the words' GIN index, the code's prefix index, the lot ids of
+    // the viewer's matching storage places), so PostgreSQL joins their bitmaps, intersects them
+    // with the holder's lots when it pays, and reads only the rows that match: a dealer holding
+    // a hundred thousand lots is not searched row by row.
+    const from = '"lot_views" v';
     const text = q.q?.trim() ?? '';
     const tsq = searchQueryText(text);
     const prefix = codePrefix(text);
     if (tsq || prefix) {
-      const t = tsq ? p(tsq) : null;
-      const c = prefix ? p(`${prefix}%`) : null;
-      const me = t ? p(viewer.id) : null;
-      if (q.mine) {
-        const any: string[] = [];
-        if (t) {
-          any.push(`v."search" @@ to_tsquery('beadroll_text', ${t})`);
-          any.push(
-            `EXISTS (SELECT 1 FROM "lot_private_search" s WHERE s."lot_id" = v."lot_id"
-               AND s."account_id" = ${me} AND s."search" @@ to_tsquery('beadroll_text', ${t}))`,
-          );
-        }
-        if (c) any.push(`v."code" LIKE ${c}`);
-        where.push(`(${any.join(' OR ')})`);
-      } else {
-        const hits: string[] = [];
-        if (t) {
-          hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "search" @@ to_tsquery('beadroll_text', ${t})`);
-          hits.push(
-            `SELECT "lot_id" FROM "lot_private_search" WHERE "account_id" = ${me}
-               AND "search" @@ to_tsquery('beadroll_text', ${t})`,
-          );
-        }
-        if (c) hits.push(`SELECT "lot_id" FROM "lot_views" WHERE "code" LIKE ${c}`);
-        from = `(${hits.join(' UNION ')}) h JOIN "lot_views" v ON v."lot_id" = h."lot_id"`;
+      const any: string[] = [];
+      if (tsq) {
+        const t = p(tsq);
+        any.push(`v."search" @@ to_tsquery('beadroll_text', ${t})`);
+        any.push(
+          `v."lot_id" = ANY(ARRAY(SELECT s."lot_id" FROM "lot_private_search" s
+             WHERE s."account_id" = ${p(viewer.id)} AND s."search" @@ to_tsquery('beadroll_text', ${t})))`,
+        );
       }
+      if (prefix) any.push(`v."code" LIKE ${p(`${prefix}%`)}`);
+      where.push(`(${any.join(' OR ')})`);
     } else if (text) {
       where.push('false');
     }
