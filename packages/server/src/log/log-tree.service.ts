@@ -8,7 +8,7 @@ const PAGE = 10_000;
 /** Leaves hashed into the tree between two turns of the event loop (about 20 ms of hashing). */
 const CHUNK = 1000;
 /** How many leaves read in earlier passes each signing pass compares with the database again. */
-export const RECHECK_LEAVES = 100_000;
+export const RECHECK_LEAVES = 20_000;
 
 /**
  * Appends leaves to a tree and their entry hashes to its list, a chunk at a time with a turn of
