@@ -2,6 +2,7 @@ import { resolve } from 'node:path';
 import react from '@vitejs/plugin-react';
 import { compression } from 'vite-plugin-compression2';
 import { defineConfig } from 'vitest/config';
+import { firstScript } from './build/first-script';
 import { PUBLIC_ASSETS_DIR, pwaPlugins } from './build/pwa';
 
 /**
@@ -31,6 +32,8 @@ export default defineConfig(({ isSsrBuild }) => ({
           }),
           // The web app manifest and the service worker of each page (see build/pwa.ts).
           ...pwaPlugins(publicBuild ? 'public' : 'app'),
+          // The public page's first script, written into its HTML (see build/first-script.ts).
+          ...(publicBuild ? [firstScript(PUBLIC_ASSETS_DIR)] : []),
         ]),
   ],
   resolve: publicBuild
@@ -48,7 +51,7 @@ export default defineConfig(({ isSsrBuild }) => ({
   build: {
     emptyOutDir: !publicBuild || isSsrBuild,
     // The public page's files in a folder of their own: its service worker precaches exactly those.
-    ...(publicBuild ? { assetsDir: PUBLIC_ASSETS_DIR } : {}),
+    ...(publicBuild ? { assetsDir: PUBLIC_ASSETS_DIR, modulePreload: { polyfill: false } } : {}),
     rollupOptions: isSsrBuild
       ? undefined
       : {

@@ -1,6 +1,8 @@
-import { data as iso4217 } from 'currency-codes';
+import { currencyOf } from './currencies.js';
 import type { FieldIssue } from './errors.js';
 import type { AnyBody, EntryKind, LotDescription, Money, SealedValues } from './types.js';
+
+export { CURRENCIES, currencyOf, type Currency } from './currencies.js';
 
 /**
  * Plausible values for what a dealer types, kept in one place: the web form, the server's
@@ -27,57 +29,6 @@ export const BOUNDS = {
 
 /** Earliest date a dealer may give for an acquisition or a sale. */
 export const EARLIEST_DATE = '1900-01-01';
-
-/**
- * ISO 4217 codes that are not money a dealer pays with: precious metals, bond-market units,
- * the testing and "no currency" codes, special drawing rights and unit-of-account codes, and
- * the fund codes (List One marks these as funds; from memory).
- */
-const NOT_TRADE_CURRENCIES = new Set([
-  'XAG',
-  'XAU',
-  'XPD',
-  'XPT',
-  'XBA',
-  'XBB',
-  'XBC',
-  'XBD',
-  'XDR',
-  'XSU',
-  'XUA',
-  'XTS',
-  'XXX',
-  'BOV',
-  'CHE',
-  'CHW',
-  'CLF',
-  'COU',
-  'MXV',
-  'USN',
-  'UYI',
-  'UYW',
-]);
-
-/** One currency a dealer may record: ISO 4217 code, name and minor-unit digits. */
-export interface Currency {
-  code: string;
-  name: string;
-  /** Digits after the decimal point (2 for EUR, 0 for JPY, 3 for KWD). */
-  digits: number;
-}
-
-/** Active ISO 4217 currencies (from the `currency-codes` package), alphabetical by code. */
-export const CURRENCIES: readonly Currency[] = iso4217
-  .filter((c) => !NOT_TRADE_CURRENCIES.has(c.code))
-  .map((c) => ({ code: c.code, name: c.currency, digits: c.digits }))
-  .sort((a, b) => (a.code < b.code ? -1 : 1));
-
-const BY_CODE = new Map(CURRENCIES.map((c) => [c.code, c]));
-
-/** The currency with this ISO 4217 code, or undefined when it is not one dealers pay with. */
-export function currencyOf(code: unknown): Currency | undefined {
-  return typeof code === 'string' ? BY_CODE.get(code) : undefined;
-}
 
 /** Writes a year for a dealer: 1850, or 300 BC for -300. */
 export function yearText(y: number): string {

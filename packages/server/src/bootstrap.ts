@@ -14,7 +14,7 @@ import { bodyParsers, InputSafetyPipe } from './common/input-safety';
 import { createValidationPipe } from './common/validation';
 import { RollReaderService } from './ledger/roll-reader.service';
 import { installPublicLotFastPath } from './lots/public-lot-fast-path';
-import { publicLotPage } from './lots/public-lot-page';
+import { publicLotPage, publicPageScriptHashes, publicPageSender } from './lots/public-lot-page';
 import { CheckpointsService } from './log/checkpoints.service';
 import { createOpenApiDocument, UNPREFIXED } from './openapi/openapi-document';
 
@@ -31,7 +31,8 @@ export function configureApp(app: NestExpressApplication): AppConfig {
     contentSecurityPolicy: {
       directives: {
         defaultSrc: ["'self'"],
-        scriptSrc: ["'self'"],
+        // The public lot page's first script is written into the page: allowed by its hash.
+        scriptSrc: ["'self'", ...publicPageScriptHashes(config.webDist)],
         // Fluent UI inserts its generated styles at run time.
         styleSrc: ["'self'", "'unsafe-inline'"],
         imgSrc: ["'self'", 'data:', 'blob:'],
@@ -171,6 +172,7 @@ function serveWeb(
   const publicHtml = join(webDist, 'public.html');
   if (!existsSync(appHtml)) return;
   const precompressed = { enableBrotli: true, orderPreference: ['br', 'gzip'], index: false };
+  const sendPage = publicPageSender();
   app.use(
     '/assets',
     expressStaticGzip(join(webDist, 'assets'), {
@@ -201,7 +203,7 @@ function serveWeb(
     );
     const send = (page: string | null) => {
       if (page === null) preloadPublicLot(code, res);
-      res.type('html').send(page ?? html);
+      if (!sendPage(req.headers['accept-encoding'], res, page ?? html)) res.type('html').send(page ?? html);
     };
     if (!code) return send(null);
     withLotData(html, req.path, code, req.headers.cookie !== undefined).then(send, next);

@@ -1,9 +1,12 @@
 import { createHash } from 'node:crypto';
+import { Readable } from 'node:stream';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { FakeSmtpService as FakeSmtp } from '../src/mail/fake-smtp.service';
 import { createAccount, PUBLIC_CARD_FIELDS, signIn } from './support/accounts';
 import { binary, upload } from './support/exhibit-http';
 import { description } from './support/lot-fixtures';
+import { lockBlobNames } from '../src/storage/blob-locks';
 import { BLOB_STORE, type BlobStore } from '../src/storage/blob-store';
 import { lastMailTo, linkIn } from './support/mail';
 import { useTestApp } from './support/test-app';
@@ -198,6 +201,48 @@ describe('accounts: sign-up, e-mail, verification by the registrar, passwords', 
     ).expect(201);
     await close(second);
     expect(await blobs.exists(sha(shared))).toBe(true);
+  });
+
+  it('stores an applicant’s document in the transaction that records the account, under the name’s lock', async () => {
+    const blobs = t.app.get<BlobStore>(BLOB_STORE);
+    const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+    // A PDF by its first bytes ("%PDF-", ISO 32000-1 §7.5.2); invented.
+    const doc = Buffer.from('%PDF-1.4\n% a dealer licence sent while another copy is deleted\n%%EOF\n');
+    const signUp = (a: ReturnType<typeof applicant>) => {
+      let req = http().post('/api/auth/sign-up').set(W);
+      for (const [k, v] of Object.entries(a)) req = req.field(k, v);
+      return req.attach('document', doc, { filename: 'licence.pdf', contentType: 'application/pdf' });
+    };
+
+    // An account closing with the same bytes holds their name exclusively while it deletes them:
+    // the sign-up waits, then stores the bytes again, so its account never names missing bytes.
+    await blobs.put({ stream: Readable.from(doc) });
+    const closing = t.app.get(DataSource).createQueryRunner();
+    await closing.connect();
+    await closing.startTransaction();
+    await lockBlobNames(closing.manager, [sha(doc)], 'exclusive');
+    const a = applicant('races-a-close');
+    const pending = signUp(a).then((r) => r);
+    await new Promise((r) => setTimeout(r, 500));
+    await blobs.delete(sha(doc));
+    await closing.commitTransaction();
+    await closing.release();
+    expect((await pending).status).toBe(202);
+    expect(await blobs.exists(sha(doc))).toBe(true);
+
+    // A document that cannot be stored leaves no account: the same sign-up succeeds on a retry.
+    const b = applicant('store-fails');
+    const put = jest.spyOn(blobs, 'put').mockRejectedValueOnce(new Error('the disk is full'));
+    try {
+      await signUp(b).expect(500);
+    } finally {
+      put.mockRestore();
+    }
+    expect(await t.app.get(DataSource).query('SELECT 1 FROM accounts WHERE handle = $1', [b.handle])).toEqual(
+      [],
+    );
+    await signUp(b).expect(202);
+    expect(lastMailTo(t, b.email).subject).toMatch(/confirm your e-mail/i);
   });
 
   it('asks for the business address and trade references, and a website only as a web address', async () => {

@@ -1,5 +1,9 @@
+import { createHash } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
+import { get as httpGet, type IncomingHttpHeaders, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
+import { brotliDecompressSync } from 'node:zlib';
 import request from 'supertest';
 import { RollReaderService } from '../src/ledger/roll-reader.service';
 import { lotDataBlock } from '../src/lots/public-lot-page';
@@ -12,9 +16,11 @@ import { createTestApp, type TestApp } from './support/test-app';
 // built, which tells no more than the API's one bare 404 does.
 describe('the public lot page carries its lot’s data', () => {
   let t: TestApp;
+  // The built page ends with its first script, written into the page (it reads the data block).
+  const firstScript = '<script type="module" async>window.checked = "</ok>";</script>';
   const built =
     '<!doctype html><html><head><title>public</title><link rel="manifest" href="/lot.webmanifest"></head>' +
-    '<body><div id="root"></div></body></html>';
+    `<body><div id="root"></div>${firstScript}</body></html>`;
 
   beforeAll(async () => {
     const dir = join(process.env.TMPDIR ?? '/tmp', `beadroll-page-${process.pid}`);
@@ -37,6 +43,27 @@ describe('the public lot page carries its lot’s data', () => {
         res.on('data', (c: string) => (text += c));
         res.on('end', () => done(null, text));
       });
+  // The bytes as they come over the wire, not decompressed by the client.
+  const rawGet = async (path: string, headers: Record<string, string>) => {
+    const server = t.app.getHttpServer() as Server;
+    const own = !server.listening;
+    if (own) await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    try {
+      const { port } = server.address() as AddressInfo;
+      return await new Promise<{ status: number; headers: IncomingHttpHeaders; body: Buffer }>(
+        (resolve, reject) =>
+          httpGet({ host: '127.0.0.1', port, path, headers }, (res) => {
+            const chunks: Buffer[] = [];
+            res.on('data', (c: Buffer) => chunks.push(c));
+            res.on('end', () =>
+              resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(chunks) }),
+            );
+          }).on('error', reject),
+      );
+    } finally {
+      if (own) await new Promise((r) => server.close(r));
+    }
+  };
   const dataBlock = (html: string) =>
     /<script type="application\/json" id="lot-data">([^<]*)<\/script>/.exec(html)?.[1] ?? null;
 
@@ -74,8 +101,10 @@ describe('the public lot page carries its lot’s data', () => {
     it('keeps the data inside its element whatever the lot’s text holds (HTML §4.12.1.3)', async () => {
       const html = (await get(`/l/${listed}`).expect(200)).body as string;
       const block = html.slice(html.indexOf('<script type="application/json"'));
-      expect(block.indexOf('</script>')).toBe(block.length - '</script></body></html>'.length);
-      expect(block).not.toContain('<!--');
+      // The block ends at its own end tag, right ahead of the first script that reads it.
+      const end = block.indexOf('</script>') + '</script>'.length;
+      expect(block.slice(end)).toBe(`${firstScript}</body></html>`);
+      expect(block.slice(0, end)).not.toContain('<!--');
       expect(lotDataBlock('{"t":"</script>"}')).toBe(
         '<script type="application/json" id="lot-data">{"t":"\\u003c/script>"}</script>',
       );
@@ -97,5 +126,35 @@ describe('the public lot page carries its lot’s data', () => {
       const apiB = await get(`/api/public/lots/${unknown}`).expect(404);
       expect(JSON.parse(apiA.body as string).error.code).toBe(JSON.parse(apiB.body as string).error.code);
     });
+  });
+
+  it('allows the page’s first script, and no other inline script, by its hash', async () => {
+    const csp = (await get('/l/7K2QM9XAT').expect(200)).headers['content-security-policy'] as string;
+    const scriptSrc = /(?:^|;)\s*script-src ([^;]*)/.exec(csp)?.[1]?.split(' ') ?? [];
+    // CSP Level 3 §2.3.1 (hash-source): base64 of the SHA-256 of the element's text, UTF-8.
+    const text = 'window.checked = "</ok>";';
+    const hash = `'sha256-${createHash('sha256').update(text, 'utf8').digest('base64')}'`;
+    expect(scriptSrc).toEqual(["'self'", hash]);
+  });
+
+  it('sends the page brotli-compressed when asked, the same page under one ETag', async () => {
+    const path = '/l/7K2QM9XAT';
+    const plain = await get(path).set('Accept-Encoding', 'identity').expect(200);
+    const raw = await rawGet(path, { 'Accept-Encoding': 'gzip, deflate, br' });
+    expect(raw.status).toBe(200);
+    expect(raw.headers['content-encoding']).toBe('br');
+    expect(raw.headers['vary']).toMatch(/Accept-Encoding/i);
+    expect(raw.headers['cache-control']).toBe('no-cache');
+    expect(brotliDecompressSync(raw.body).toString('utf8')).toBe(plain.body);
+    const etag = raw.headers['etag'] as string;
+    // Asked for a second time, the page is compressed again at the highest quality, which then
+    // replaces the first copy: the same page under the same ETag, no larger.
+    await rawGet(path, { 'Accept-Encoding': 'br' });
+    await new Promise((r) => setTimeout(r, 1500));
+    const best = await rawGet(path, { 'Accept-Encoding': 'br' });
+    expect(best.headers['etag']).toBe(etag);
+    expect(brotliDecompressSync(best.body).toString('utf8')).toBe(plain.body);
+    expect(best.body.length).toBeLessThanOrEqual(raw.body.length);
+    await get(path).set('Accept-Encoding', 'br').set('If-None-Match', etag).expect(304);
   });
 });

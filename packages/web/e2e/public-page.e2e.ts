@@ -128,6 +128,9 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
     const api = requests.filter((u) => u.includes('/api/'));
     expect(api.length).toBeGreaterThan(0);
     for (const u of api) expect(u).not.toContain(h);
+    // The first script, written into the page, ran (the page's CSP allows it by its hash): its
+    // own file was never asked for.
+    expect(requests.filter((u) => u.includes('/first-check-'))).toEqual([]);
     await screenshot(page, 'public-page-390');
     expect(await axeProblems()).toEqual([]);
     expect(errors).toEqual([]);
@@ -216,6 +219,36 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
       expect(await axeProblems()).toEqual([]);
     } finally {
       await context.setOffline(false);
+    }
+  });
+
+  it('checks the history also when the page’s own copy of its first script does not run', async () => {
+    const other = await openBrowser({ width: 390, height: 844 });
+    try {
+      const { page } = other;
+      const errors = pageErrors(page);
+      // The page as a copy served elsewhere would give it: without the script written into it.
+      await page.route(`${baseUrl}/l/${code}`, async (route) => {
+        const res = await route.fetch();
+        const html = (await res.text()).replace(/<script type="module" async>[\s\S]*?<\/script>/, '');
+        expect(html).toContain('id="lot-data"');
+        const headers = Object.fromEntries(
+          Object.entries(res.headers()).filter(([k]) => !/^content-(encoding|length)$/i.test(k)),
+        );
+        await route.fulfill({ response: res, headers, body: html });
+      });
+      const files: string[] = [];
+      page.on('request', (r) => files.push(new URL(r.url()).pathname));
+      await page.goto(`${baseUrl}/l/${code}`);
+      await page
+        .getByRole('status')
+        .getByText(`Unbroken history as served: ${entries().length} entries`)
+        .waitFor();
+      expect(files.filter((f) => /^\/assets\/lot\/first-check-\w+\.js$/.test(f))).toHaveLength(1);
+      await page.getByText(`Lot ${formatLotCode(code)}`, { exact: true }).waitFor();
+      expect(errors).toEqual([]);
+    } finally {
+      await other.close();
     }
   });
 });

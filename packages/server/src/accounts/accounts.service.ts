@@ -74,8 +74,9 @@ export class AccountsService {
   }
 
   /** Stores a new account; a taken handle or address fails with the database's unique violation. */
-  create(fields: NewAccount): Promise<Account> {
-    return this.accounts.save(this.accounts.create(fields));
+  create(fields: NewAccount, m?: EntityManager): Promise<Account> {
+    const accounts = m ? m.getRepository(Account) : this.accounts;
+    return accounts.save(accounts.create(fields));
   }
 
   /** Changes the given columns of one account. */

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import {
   type CallHandler,
@@ -44,13 +45,11 @@ export function documentType(bytes: Buffer): string | null {
 }
 
 /**
- * Checks an applicant's document and stores it by its SHA-256. Refuses anything but a PDF, JPEG
- * or PNG file of 1 byte to {@link APPLICANT_DOCUMENT_MAX_BYTES} with a 400 naming `document`.
+ * Checks an applicant's document: refuses anything but a PDF, JPEG or PNG file of 1 byte to
+ * {@link APPLICANT_DOCUMENT_MAX_BYTES} with a 400 naming `document`, and gives what the account
+ * records of it (its SHA-256 computed here, before anything is stored).
  */
-export async function storeApplicantDocument(
-  store: BlobStore,
-  file: UploadedDocument,
-): Promise<StoredDocument> {
+export function checkApplicantDocument(file: UploadedDocument): StoredDocument {
   if (file.size === 0)
     throw AppError.validation([{ field: 'document', reason: 'is empty: send a PDF, JPEG or PNG file' }]);
   if (file.size > APPLICANT_DOCUMENT_MAX_BYTES)
@@ -63,14 +62,29 @@ export async function storeApplicantDocument(
         reason: 'must be a PDF, JPEG or PNG file (a scan or photo of your trade document)',
       },
     ]);
-  const put = await store.put({ stream: Readable.from(file.buffer) });
   // Control characters and slashes become "_": the name is shown, never used as a path.
   const name =
     [...file.originalname]
       .map((c) => (c < ' ' || c === '\u007f' || c === '/' || c === '\\' ? '_' : c))
       .join('')
       .slice(0, 200) || 'document';
-  return { sha256: put.sha256, type, size: put.size, name };
+  const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+  return { sha256, type, size: file.buffer.length, name };
+}
+
+/**
+ * Stores a checked document by its SHA-256. The caller holds the name's shared blob lock in the
+ * transaction that records the account, so a deletion of the same bytes (an account closing)
+ * either finishes first, or waits and then finds the new account naming them.
+ */
+export async function storeApplicantDocument(
+  store: BlobStore,
+  file: UploadedDocument,
+  checked: StoredDocument,
+): Promise<void> {
+  const put = await store.put({ stream: Readable.from(file.buffer) });
+  if (put.sha256 !== checked.sha256)
+    throw new AppError('internal', 'the document changed while it was being stored');
 }
 
 /** Multer's limits for the sign-up form: one file, a little over the limit so the check above speaks. */

@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
+import { DataSource } from 'typeorm';
 import { accountLetters } from '../accounts/account-letters';
 import { AccountsService } from '../accounts/accounts.service';
 import type { Account } from '../accounts/entities/account.entity';
@@ -7,8 +8,9 @@ import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';
 import { MailService } from '../mail/mail.service';
+import { lockBlobNames } from '../storage/blob-locks';
 import { BLOB_STORE, type BlobStore } from '../storage/blob-store';
-import { storeApplicantDocument, type UploadedDocument } from './applicant-document';
+import { checkApplicantDocument, storeApplicantDocument, type UploadedDocument } from './applicant-document';
 import type { SignUpDto } from './dto/sign-up.dto';
 import type { MessageResponse } from './dto/tokens.dto';
 import { EmailTokensService } from './email-tokens.service';
@@ -34,6 +36,7 @@ export class AuthService {
     private readonly tokens: EmailTokensService,
     private readonly mail: MailService,
     @Inject(BLOB_STORE) private readonly blobs: BlobStore,
+    private readonly dataSource: DataSource,
   ) {}
 
   private link(path: string, token?: string): string {
@@ -55,31 +58,44 @@ export class AuthService {
     }
     const handleTaken = () => AppError.validation([{ field: 'handle', reason: 'is already taken' }]);
     if (await this.accounts.handleTaken(dto.handle)) throw handleTaken();
-    // Checked and stored before the account: a refused file loses nothing else, and a stored one
-    // is only named by the account (the bytes are content-addressed, so a retry stores nothing new).
-    const doc = document ? await storeApplicantDocument(this.blobs, document) : null;
+    // Checked before anything is written: a refused file loses nothing else.
+    const doc = document ? checkApplicantDocument(document) : null;
+    const passwordHash = await this.passwords.hash(dto.password);
     let account: Account;
     try {
-      account = await this.accounts.create({
-        role: dto.role,
-        status: 'pending',
-        handle: dto.handle,
-        email: dto.email,
-        displayName: dto.displayName,
-        business: dto.business,
-        town: dto.town,
-        country: dto.country,
-        address: dto.address,
-        website: dto.website ?? null,
-        tradeReferences: dto.tradeReferences,
-        documentSha256: doc?.sha256 ?? null,
-        documentType: doc?.type ?? null,
-        documentSize: doc?.size ?? null,
-        documentName: doc?.name ?? null,
-        passwordHash: await this.passwords.hash(dto.password),
-        emailVerifiedAt: null,
-        verifiedAt: null,
-        statusReason: null,
+      account = await this.dataSource.transaction(async (m) => {
+        // The name's shared lock until commit: an account closing with the same bytes deletes
+        // them under its exclusive lock, so it either ends first (and the bytes are stored again
+        // below) or waits and then sees this account naming them.
+        if (doc) await lockBlobNames(m, [doc.sha256], 'shared');
+        const created = await this.accounts.create(
+          {
+            role: dto.role,
+            status: 'pending',
+            handle: dto.handle,
+            email: dto.email,
+            displayName: dto.displayName,
+            business: dto.business,
+            town: dto.town,
+            country: dto.country,
+            address: dto.address,
+            website: dto.website ?? null,
+            tradeReferences: dto.tradeReferences,
+            documentSha256: doc?.sha256 ?? null,
+            documentType: doc?.type ?? null,
+            documentSize: doc?.size ?? null,
+            documentName: doc?.name ?? null,
+            passwordHash,
+            emailVerifiedAt: null,
+            verifiedAt: null,
+            statusReason: null,
+          },
+          m,
+        );
+        // Stored inside the transaction: a failed put leaves no account naming missing bytes
+        // (they are content-addressed, so a retry stores nothing new).
+        if (document && doc) await storeApplicantDocument(this.blobs, document, doc);
+        return created;
       });
     } catch (err) {
       // Two sign-ups racing for the same handle or address: the loser learns nothing new.

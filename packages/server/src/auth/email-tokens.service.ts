@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Repository, type EntityManager } from 'typeorm';
-import { EmailToken, type EmailTokenPurpose } from '../accounts/entities/email-token.entity';
+import { EmailToken, type EmailTokenPurpose } from './entities/email-token.entity';
 import { AppError } from '../common/app-error';
 import { sha256Hex } from './sessions.service';
 

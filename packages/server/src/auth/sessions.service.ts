@@ -4,7 +4,7 @@ import { JwtService } from '@nestjs/jwt';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Not, Repository } from 'typeorm';
 import { AccountsService } from '../accounts/accounts.service';
-import { RefreshToken, Session } from '../accounts/entities/session.entity';
+import { RefreshToken, Session } from './entities/session.entity';
 import { AppError } from '../common/app-error';
 import type { AppConfig } from '../config/app-config';
 import { APP_CONFIG } from '../config/config.module';

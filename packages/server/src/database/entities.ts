@@ -1,6 +1,6 @@
 import { Account } from '../accounts/entities/account.entity';
-import { EmailToken } from '../accounts/entities/email-token.entity';
-import { RefreshToken, Session } from '../accounts/entities/session.entity';
+import { EmailToken } from '../auth/entities/email-token.entity';
+import { RefreshToken, Session } from '../auth/entities/session.entity';
 import { EntryBodyEntity } from '../ledger/entities/entry-body.entity';
 import { EntryEntity } from '../ledger/entities/entry.entity';
 import { LotEntity } from '../ledger/entities/lot.entity';

@@ -84,6 +84,11 @@ describe('table ownership', () => {
     for (const table of entities.values()) expect(TABLE_OWNERS).toHaveProperty(table);
   });
 
+  it('keeps every entity in the folder of the module that owns its table', () => {
+    const misplaced = [...entities].filter(([path, table]) => TABLE_OWNERS[table] !== moduleOf(path));
+    expect(misplaced).toEqual([]);
+  });
+
   it('lets no module name a table another module owns', () => {
     const foreign: Record<string, string[]> = {};
     for (const f of files(SRC)) {

@@ -30,13 +30,16 @@ const REMEMBERED = 'beadroll.session';
 /**
  * Keeps the signed-in account on this browser (null forgets it) and tells the list of writes
  * kept for a signal who is signed in. A page opened with no signal, at a fair stand, then still
- * knows the dealer; signing out forgets it.
+ * knows the dealer; signing out forgets it. The e-mail address and the registrar's reason are
+ * not kept: the header and the dealer's pages need neither with no signal.
  */
 export function rememberSession(account: Me | null): void {
   setOutboxAccount(account?.id ?? null);
   try {
-    if (account) localStorage.setItem(REMEMBERED, JSON.stringify(account));
-    else localStorage.removeItem(REMEMBERED);
+    if (account) {
+      const { email: _email, statusReason: _reason, ...kept } = account;
+      localStorage.setItem(REMEMBERED, JSON.stringify(kept));
+    } else localStorage.removeItem(REMEMBERED);
   } catch {
     // storage refused (private window): nothing is remembered
   }
@@ -45,8 +48,8 @@ export function rememberSession(account: Me | null): void {
 function rememberedSession(): Me | null {
   try {
     const text = localStorage.getItem(REMEMBERED);
-    const account = text ? (JSON.parse(text) as Me) : null;
-    return account && typeof account.id === 'string' ? account : null;
+    const kept = text ? (JSON.parse(text) as Omit<Me, 'email' | 'statusReason'>) : null;
+    return kept && typeof kept.id === 'string' ? { ...kept, email: '', statusReason: null } : null;
   } catch {
     return null;
   }

@@ -160,7 +160,7 @@ describe('ExhibitGallery', () => {
     );
     renderWithProviders(<ExhibitGallery exhibits={[exhibit(3)]} />);
     fireEvent.click(screen.getByRole('button', { name: /Open exhibit 3/ }));
-    const dialog = await screen.findByRole('dialog', {}, { timeout: 10_000 });
+    const dialog = await screen.findByRole('dialog');
     expect(within(dialog).getByText('Kind: Hole · entry 3')).toBeInTheDocument();
     expect(within(dialog).getByText(`SHA-256 of the original: ${ABC_SHA256}`)).toBeInTheDocument();
     await waitFor(() => expect(within(dialog).getByRole('img')).toHaveAttribute('data-verified', 'true'));

@@ -4,6 +4,7 @@ import { renderToString } from 'react-dom/server';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { checkLot } from './check-lot';
 import { embeddedLot, LOT_DATA_ELEMENT } from './embedded';
+import { firstCheck } from './first-check';
 import { writeHistoryLine } from './history-words';
 import { exampleRolls, responseFor } from './lot-fixtures';
 import { PublicLotApp } from './PublicLotPage';
@@ -134,5 +135,41 @@ describe('the verdict written before the rest of the page has loaded', () => {
     expect(checkLot(lot.code, lot.bundle)).toBe(first);
     // A copy of the same data is checked on its own.
     expect(checkLot(lot.code, structuredClone(lot.bundle))).not.toBe(first);
+  });
+});
+
+describe('the page’s first script', () => {
+  /** The page as the server sends it: the rendered status panel in #root, then the data block. */
+  function sentPage(text: string): Document {
+    const doc = pageWith(text);
+    const root = doc.createElement('div');
+    root.id = 'root';
+    root.innerHTML = '<div class="pl-status-live">Checking this history in this browser…</div>';
+    doc.body.prepend(root);
+    return doc;
+  }
+
+  it('checks the data sent with the page and writes the verdict into the rendered panel', () => {
+    const lot = responseFor(rolls, 0);
+    const doc = sentPage(JSON.stringify(lot));
+    const data = firstCheck(`/l/${lot.code}`, doc);
+    expect(data).toEqual(lot);
+    expect(doc.querySelector('#root .pl-status-line.pl-ok')?.textContent).toBe(
+      '✓ Unbroken history as served: 6 entries',
+    );
+    // The rest of the page is given the same object, whose check is kept, not run again.
+    expect(checkLot(lot.code, data!.bundle)).toBe(checkLot(lot.code, data!.bundle));
+  });
+
+  it('gives no verdict for data under another lot’s address, or with no data', () => {
+    const lot = responseFor(rolls, 0);
+    const other = sentPage(JSON.stringify(lot));
+    expect(firstCheck(`/l/${rolls[1]!.lot}`, other)).toBeNull();
+    expect(other.querySelector('.pl-status-live')?.textContent).toBe(
+      'Checking this history in this browser…',
+    );
+    const none = sentPage('');
+    expect(firstCheck(`/l/${lot.code}`, none)).toBeNull();
+    expect(none.querySelector('.pl-ok, .pl-bad')).toBeNull();
   });
 });
