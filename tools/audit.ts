@@ -2,7 +2,7 @@
 // in the database `npm start` uses (or the one PGHOST names) and prints each broken roll.
 // Exit 0: every roll intact. 1: a roll is broken. 2: the audit could not run.
 import { join } from 'node:path';
-import { DATA_DIR, portFromEnv, REPO } from './lib/app-env.ts';
+import { AUDIT_NODE_OPTIONS, DATA_DIR, portFromEnv, REPO } from './lib/app-env.ts';
 import { pgEnv, startPrivateCluster, type PrivateCluster } from './lib/pg.ts';
 import { portInUse, runInherit, UserFacingError } from './lib/proc.ts';
 
@@ -24,10 +24,14 @@ async function main(): Promise<number> {
       (await runInherit('npm', ['run', '--silent', 'build', '-w', '@beadroll/server'], { cwd: REPO })) !== 0
     )
       throw new UserFacingError('the build failed (see above).');
-    return await runInherit('node', [join(REPO, 'packages/server/dist/audit/audit-cli.js')], {
-      cwd: REPO,
-      env,
-    });
+    return await runInherit(
+      'node',
+      [...AUDIT_NODE_OPTIONS, join(REPO, 'packages/server/dist/audit/audit-cli.js')],
+      {
+        cwd: REPO,
+        env,
+      },
+    );
   } finally {
     cluster?.stop();
   }

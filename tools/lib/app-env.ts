@@ -57,3 +57,11 @@ export function demoBanner(report: DemoReport, base: string): string[] {
   }
   return lines;
 }
+
+/**
+ * Node's options for the command-line audit (`npm run audit`, and the scale benchmark runs it
+ * the same way): a fixed heap. The audit keeps a batch of lots at a time, about 50 MB live
+ * however large the ledger is; without a limit V8 lets garbage grow the heap to a few hundred
+ * MB before collecting it.
+ */
+export const AUDIT_NODE_OPTIONS = ['--max-old-space-size=160'];

@@ -172,14 +172,15 @@ function serialise(value: unknown): string {
  */
 export function parseCanonical(text: string): unknown {
   if (typeof text !== 'string') throw new CanonicalError('not-json', 'expected a string');
+  // Fastest path: one reading that both builds the value and sees that the text is canonical.
+  const read = readCanonical(text);
+  if (read !== UNDECIDED) return read;
   let parsed: unknown;
   try {
     parsed = JSON.parse(text);
   } catch (e) {
     throw new CanonicalError('not-json', `malformed JSON: ${(e as Error).message}`);
   }
-  // Fastest path: the text itself shows that it is written the canonical way.
-  if (provedCanonical(text)) return parsed;
   // Every string and key of the parse is a piece of `text` between quotes, or is written with
   // escapes: when the text is well-formed and has no \u escape, so is each of them.
   const sorted = check(parsed, true, !(text.indexOf('\\u') === -1 && wellFormed(text)));
@@ -203,134 +204,229 @@ function fastStringify(v: unknown): string | null {
 
 const QUOTE = 0x22;
 const BACKSLASH = 0x5c;
-const SHORT_ESCAPES = 'bfnrt"\\';
-/** Backspace, tab, line feed, form feed and carriage return: the controls with short escapes. */
-const SHORT_ESCAPE_CODES = [0x08, 0x09, 0x0a, 0x0c, 0x0d];
+/** What {@link readCanonical} returns when it leaves the decision to the full check. */
+const UNDECIDED: unique symbol = Symbol('undecided');
+const READ_DEPTH = 100;
+/** The text being read by {@link readCanonical} and the position in it. */
+let src = '';
+let at = 0;
+/** True when {@link src} holds no backslash, no control character and no lone surrogate. */
+let plain = false;
+/** A backslash or a control character (anything outside space to U+FFFF but the backslash). */
+const ESCAPE_OR_CONTROL = /[^ -[\]-\uffff]/;
+
 /**
- * Reads valid JSON `text` (JSON.parse accepted it) and returns true only when it can see that
- * the text is already the ledger canonical form of its parse: no white space between tokens;
- * strings holding no escape but the short ones (`\"` `\\` `\b` `\f` `\n` `\r` `\t`) and
- * `\u00xx` (lower-case) for other control characters, and every other character as itself;
- * numbers that are 0 or integers of at most 15 digits with no sign but a leading minus;
- * every object's keys, compared as UTF-16 code units, strictly increasing (so none repeats);
- * nesting at most {@link PROOF_DEPTH} deep; the whole text well-formed. False means only "not
- * shown": the full check then decides, so both paths accept exactly the same texts.
+ * Reads `text` as JSON in one pass and returns its value, exactly as JSON.parse would build it
+ * (the same members in the same order), but only when the same pass shows that the text is the
+ * ledger canonical form of that value: no white space; keys, compared as UTF-16 code units,
+ * strictly increasing and written without escapes; strings holding only well-formed characters
+ * as themselves and the short escapes the canonical form writes; numbers that are integers of at
+ * most 15 digits, written without a leading zero; nesting at most {@link READ_DEPTH} deep.
+ * Anything else gives {@link UNDECIDED}, and the full check (JSON.parse, then the RFC 8785
+ * serialiser) decides, so both paths accept exactly the same texts with the same values.
  */
-function provedCanonical(text: string): boolean {
-  if (!wellFormed(text)) return false;
-  const n = text.length;
-  // Per open object or array, by depth: where the last key read there starts and ends in the
-  // text (NO_KEY before the first key; IN_ARRAY for an array).
-  const keyAt = keyStarts;
-  const keyEnd = keyEnds;
-  let depth = 0;
-  let i = 0;
-  // True when the next string read is an object's key.
-  let keyNext = false;
-  // With no backslash anywhere, each string simply runs to the next quote.
-  const escapes = text.indexOf('\\') !== -1;
-  while (i < n) {
-    const c = text.charCodeAt(i);
-    if (c === QUOTE) {
-      const start = i + 1;
-      i = escapes ? endOfEscapedString(text, start) : text.indexOf('"', start);
-      if (i < 0) return false;
-      if (keyNext) {
-        // A key with an escape is left to the full check, which compares decoded keys.
-        if (escapes && text.lastIndexOf('\\', i) >= start) return false;
-        const last = keyAt[depth - 1]!;
-        if (last !== NO_KEY && !before(text, last, keyEnd[depth - 1]!, start, i)) return false;
-        keyAt[depth - 1] = start;
-        keyEnd[depth - 1] = i;
-        keyNext = false;
-      }
-      i++;
-      continue;
-    }
-    switch (c) {
-      case 0x7b: // {
-      case 0x5b: // [
-        if (depth >= PROOF_DEPTH) return false;
-        keyAt[depth++] = c === 0x7b ? NO_KEY : IN_ARRAY;
-        i++;
-        keyNext = c === 0x7b && text.charCodeAt(i) !== 0x7d;
-        continue;
-      case 0x7d: // }
-      case 0x5d: // ]
-        depth--;
-        i++;
-        continue;
-      case 0x2c: // ,
-        keyNext = keyAt[depth - 1] !== IN_ARRAY;
-        i++;
-        continue;
-      case 0x3a: // :
-        i++;
-        continue;
-      case 0x74: // true
-      case 0x6e: // null
-        i += 4;
-        continue;
-      case 0x66: // false
-        i += 5;
-        continue;
-      default: {
-        // A number: 0, or an integer of 1 to 15 digits with no leading zero, maybe negative.
-        let j = c === 0x2d ? i + 1 : i;
-        const first = text.charCodeAt(j);
-        if (first < 0x30 || first > 0x39) return false;
-        const digitsFrom = j;
-        while (j < n && text.charCodeAt(j) >= 0x30 && text.charCodeAt(j) <= 0x39) j++;
-        const digits = j - digitsFrom;
-        if (digits > 15 || (first === 0x30 && (digits > 1 || c === 0x2d))) return false;
-        const next = text.charCodeAt(j);
-        if (next === 0x2e || next === 0x65 || next === 0x45) return false;
-        i = j;
-        continue;
-      }
-    }
-  }
-  return true;
-}
-
-const PROOF_DEPTH = 100;
-const NO_KEY = -1;
-const IN_ARRAY = -2;
-const keyStarts = new Int32Array(PROOF_DEPTH);
-const keyEnds = new Int32Array(PROOF_DEPTH);
-
-/** True when text[a, aEnd) comes strictly before text[b, bEnd) in UTF-16 code unit order. */
-function before(text: string, a: number, aEnd: number, b: number, bEnd: number): boolean {
-  for (; a < aEnd && b < bEnd; a++, b++) {
-    const x = text.charCodeAt(a);
-    const y = text.charCodeAt(b);
-    if (x !== y) return x < y;
-  }
-  return a === aEnd && b < bEnd;
+function readCanonical(text: string): unknown {
+  src = text;
+  at = 0;
+  // The usual text has no escape, no control character and no lone surrogate: each of its
+  // strings then simply runs to the next quote.
+  plain = !ESCAPE_OR_CONTROL.test(text) && wellFormed(text);
+  const v = readValue(0);
+  const done = at === text.length;
+  src = '';
+  return done ? v : UNDECIDED;
 }
 
 /**
- * The index of the quote that ends the string starting at `i`, when every escape in it is one
- * the canonical form writes (see {@link provedCanonical}); -1 otherwise.
+ * Reads one JSON value of `text` from index `start` as {@link readCanonical} reads a whole text,
+ * for a caller that reads the text around it. Returns the value when that piece is written the
+ * canonical way (its end is then {@link endOfCanonicalRead}), or undefined when it cannot tell.
  */
-function endOfEscapedString(text: string, i: number): number {
-  for (; i < text.length;) {
-    const d = text.charCodeAt(i);
-    if (d === QUOTE) return i;
-    if (d !== BACKSLASH) {
-      i++;
-      continue;
-    }
-    const e = text[i + 1]!;
-    if (e !== 'u') {
-      if (!SHORT_ESCAPES.includes(e)) return -1;
-      i += 2;
-      continue;
-    }
-    // Only a control character without a short escape is written \u00xx, in lower case.
-    const hex = text.slice(i + 2, i + 6);
-    if (!/^00[01][0-9a-f]$/.test(hex) || SHORT_ESCAPE_CODES.includes(parseInt(hex, 16))) return -1;
-    i += 6;
+export function readCanonicalAt(text: string, start: number): unknown {
+  src = text;
+  at = start;
+  plain = false;
+  const v = readValue(0);
+  readEnd = at;
+  src = '';
+  return v === UNDECIDED ? undefined : v;
+}
+
+/** Where the value read by the last {@link readCanonicalAt} ends in its text. */
+export function endOfCanonicalRead(): number {
+  return readEnd;
+}
+
+let readEnd = 0;
+
+function readValue(depth: number): unknown {
+  const c = src.charCodeAt(at);
+  switch (c) {
+    case QUOTE:
+      return readString();
+    case 0x7b: // {
+      return depth < READ_DEPTH ? readObject(depth + 1) : UNDECIDED;
+    case 0x5b: // [
+      return depth < READ_DEPTH ? readArray(depth + 1) : UNDECIDED;
+    case 0x74: // t
+      if (!src.startsWith('true', at)) return UNDECIDED;
+      at += 4;
+      return true;
+    case 0x66: // f
+      if (!src.startsWith('false', at)) return UNDECIDED;
+      at += 5;
+      return false;
+    case 0x6e: // n
+      if (!src.startsWith('null', at)) return UNDECIDED;
+      at += 4;
+      return null;
+    default:
+      return readNumber();
   }
-  return -1;
+}
+
+function readObject(depth: number): unknown {
+  at++;
+  const o: Record<string, unknown> = {};
+  if (src.charCodeAt(at) === 0x7d) {
+    at++;
+    return o;
+  }
+  let prev = '';
+  for (let first = true; ; first = false) {
+    if (src.charCodeAt(at) !== QUOTE) return UNDECIDED;
+    const k = readKey();
+    // A repeated or unordered key is not canonical; `__proto__` would set the prototype here
+    // where JSON.parse makes a member, so the full check reads it.
+    if (k === null || (!first && !(prev < k)) || k === '__proto__') return UNDECIDED;
+    if (src.charCodeAt(at) !== 0x3a) return UNDECIDED;
+    at++;
+    const v = readValue(depth);
+    if (v === UNDECIDED) return UNDECIDED;
+    o[k] = v;
+    prev = k;
+    const c = src.charCodeAt(at++);
+    if (c === 0x7d) return o;
+    if (c !== 0x2c) return UNDECIDED;
+  }
+}
+
+function readArray(depth: number): unknown {
+  at++;
+  const a: unknown[] = [];
+  if (src.charCodeAt(at) === 0x5d) {
+    at++;
+    return a;
+  }
+  for (;;) {
+    const v = readValue(depth);
+    if (v === UNDECIDED) return UNDECIDED;
+    a.push(v);
+    const c = src.charCodeAt(at++);
+    if (c === 0x5d) return a;
+    if (c !== 0x2c) return UNDECIDED;
+  }
+}
+
+/** A key: a string of plain characters (no escape), or null. */
+function readKey(): string | null {
+  const start = ++at;
+  const end = plainRun(start);
+  if (src.charCodeAt(end) !== QUOTE) return null;
+  at = end + 1;
+  return keptText(src, start, end);
+}
+
+/**
+ * `text.slice(start, end)`, or an equal string returned before. Texts repeat the same few keys
+ * and names: the string kept for a piece of this length and first and last characters is taken
+ * again when it is the same, saving a copy, and its lookup as a name is quicker the next time.
+ */
+export function keptText(text: string, start: number, end: number): string {
+  const length = end - start;
+  const slot = (length * 31 + text.charCodeAt(start) * 7 + text.charCodeAt(end - 1)) & (KEPT_SLOTS - 1);
+  const kept = keptTexts[slot]!;
+  if (kept.length === length) {
+    let i = 0;
+    while (i < length && kept.charCodeAt(i) === text.charCodeAt(start + i)) i++;
+    if (i === length) return kept;
+  }
+  const piece = text.slice(start, end);
+  keptTexts[slot] = piece;
+  return piece;
+}
+
+const KEPT_SLOTS = 256;
+const keptTexts: string[] = new Array<string>(KEPT_SLOTS).fill('');
+
+/**
+ * The end of the run of characters from `i` that the canonical form writes as themselves:
+ * anything but a quote, a backslash, a control character or a lone surrogate.
+ */
+function plainRun(i: number): number {
+  if (plain) {
+    const end = src.indexOf('"', i);
+    return end < 0 ? src.length : end;
+  }
+  const n = src.length;
+  for (; i < n; i++) {
+    const c = src.charCodeAt(i);
+    if (c === QUOTE || c === BACKSLASH || c < 0x20) return i;
+    if (c >= 0xd800 && c <= 0xdfff) {
+      // A high surrogate followed by a low one is one character; anything else is lone.
+      const d = src.charCodeAt(i + 1);
+      if (c > 0xdbff || !(d >= 0xdc00 && d <= 0xdfff)) return i;
+      i++;
+    }
+  }
+  return i;
+}
+
+function readString(): unknown {
+  const start = ++at;
+  let end = plainRun(start);
+  let out = src.slice(start, end);
+  // The short escapes are read here; a \u escape is left to the full check.
+  while (src.charCodeAt(end) === BACKSLASH) {
+    const ch = SHORT_ESCAPED[src.charCodeAt(end + 1)];
+    if (ch === undefined) return UNDECIDED;
+    const from = end + 2;
+    end = plainRun(from);
+    out += ch + src.slice(from, end);
+  }
+  if (src.charCodeAt(end) !== QUOTE) return UNDECIDED;
+  at = end + 1;
+  return out;
+}
+
+/** What each short escape stands for, by the code unit after its backslash. */
+const SHORT_ESCAPED: Record<number, string> = {
+  0x22: '"',
+  0x5c: '\\',
+  0x62: '\b',
+  0x66: '\f',
+  0x6e: '\n',
+  0x72: '\r',
+  0x74: '\t',
+};
+
+/**
+ * An integer of 1 to 15 digits with no leading zero, maybe negative, or 0, as the canonical form
+ * writes it; other numbers are left to the full check.
+ */
+function readNumber(): unknown {
+  let c = src.charCodeAt(at);
+  if (c === 0x30) {
+    c = src.charCodeAt(++at);
+    return c === 0x2e || c === 0x65 || c === 0x45 || (c >= 0x30 && c <= 0x39) ? UNDECIDED : 0;
+  }
+  const negative = c === 0x2d;
+  if (negative) c = src.charCodeAt(++at);
+  const from = at;
+  let value = 0;
+  for (; c >= 0x30 && c <= 0x39; c = src.charCodeAt(++at)) value = value * 10 + (c - 0x30);
+  const digits = at - from;
+  if (digits === 0 || digits > 15 || src.charCodeAt(from) === 0x30 || c === 0x2e || c === 0x65 || c === 0x45)
+    return UNDECIDED;
+  return negative ? -value : value;
 }

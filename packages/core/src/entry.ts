@@ -245,12 +245,36 @@ export interface HeaderProblem {
  * throws; returns the header or the first problem (`non-canonical`, `unknown-version`,
  * `bad-header`, `bad-seq`, `bad-time`, `bad-actor`, `bad-prev`, `bad-body-digest`, `bad-parent`).
  * `knownHash`, when given, is a value already known to be 64 lower-case hex digits (the previous
- * entry's hash, which `prev` usually repeats), so that check is not made twice.
+ * entry's hash, which `prev` usually repeats), and `knownDigest` likewise (the digest of the
+ * entry's body, which `body` usually repeats), so those checks are not made twice.
  */
-export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | HeaderProblem {
+export function decodeHeader(
+  text: unknown,
+  knownHash?: string,
+  knownDigest?: string,
+): EntryHeader | HeaderProblem {
+  // The usual header is read straight from its text. Whatever is unusual about it, or any
+  // check it fails, is left to the full reading, which also words the problem.
+  if (typeof text === 'string') {
+    const usual = readUsual === null ? null : readUsual(text, lastActor, lastLot);
+    if (usual !== null && headerProblem(usual, knownHash, knownDigest, true) === null)
+      return usual as unknown as EntryHeader;
+  }
+  return decodeHeaderFully(text, knownHash, knownDigest);
+}
+
+/**
+ * {@link decodeHeader} by the full reading alone (parseCanonical, then the checks), the same
+ * answer for every input; kept apart so tests can hold the direct reading to it.
+ */
+export function decodeHeaderFully(
+  text: unknown,
+  knownHash?: string,
+  knownDigest?: string,
+): EntryHeader | HeaderProblem {
+  if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
   let v: unknown;
   try {
-    if (typeof text !== 'string') return { reason: 'non-canonical', message: 'the header is not a string' };
     v = parseCanonical(text);
   } catch (e) {
     return { reason: 'non-canonical', message: `header: ${(e as Error).message}` };
@@ -258,14 +282,32 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
   if (v === null || typeof v !== 'object' || Array.isArray(v))
     return { reason: 'bad-header', message: 'the header is not an object' };
   const o = v as Record<string, unknown>;
+  return headerProblem(o, knownHash, knownDigest, false) ?? (o as unknown as EntryHeader);
+}
+
+/**
+ * The first problem of a parsed header object (see {@link decodeHeader}), or null. `usual`: the
+ * object came from the direct reading of `usual-header.ts`, so its keys are among those of version 2 and later,
+ * and only `facts` in a version-1 header can be unknown.
+ */
+function headerProblem(
+  o: Record<string, unknown>,
+  knownHash: string | undefined,
+  knownDigest: string | undefined,
+  usual: boolean,
+): HeaderProblem | null {
   if (!(FORMAT_VERSIONS as readonly unknown[]).includes(o.v))
     return {
       reason: 'unknown-version',
       message: `format version ${JSON.stringify(o.v)} is not ${FORMAT_VERSIONS.join(', ')}`,
     };
-  const keys = HEADER_KEYS[o.v as FormatVersion];
-  for (const k in o) {
-    if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
+  if (usual) {
+    if (o.v === 1 && 'facts' in o) return { reason: 'bad-header', message: 'unknown header field facts' };
+  } else {
+    const keys = HEADER_KEYS[o.v as FormatVersion];
+    for (const k in o) {
+      if (!keys.includes(k)) return { reason: 'bad-header', message: `unknown header field ${k}` };
+    }
   }
   if (o.lot !== lastLot && !isCanonicalLotCode(o.lot))
     return { reason: 'bad-header', message: 'lot is not a canonical lot code' };
@@ -283,9 +325,12 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
     return { reason: 'bad-actor', message: 'actor is not an account id' };
   lastLot = o.lot as string;
   lastActor = o.actor as string;
-  if (o.prev !== knownHash && !isHex64(o.prev))
-    return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
-  if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
+  // A value equal to a known one is replaced by that very string (the object is this call's
+  // own), so the verifier's comparisons with it later take no time.
+  if (o.prev === knownHash) o.prev = knownHash;
+  else if (!isHex64(o.prev)) return { reason: 'bad-prev', message: 'prev is not 64 hex digits' };
+  if (o.body === knownDigest) o.body = knownDigest;
+  else if (!isHex64(o.body)) return { reason: 'bad-body-digest', message: 'body is not 64 hex digits' };
   if ('sealed' in o && !isHex64(o.sealed))
     return { reason: 'bad-header', message: 'sealed is not 64 hex digits' };
   if ('parents' in o) {
@@ -299,7 +344,30 @@ export function decodeHeader(text: unknown, knownHash?: string): EntryHeader | H
     if (issues.length > 0)
       return { reason: 'bad-facts', message: `${issues[0]!.path}: ${issues[0]!.message}` };
   }
-  return o as unknown as EntryHeader;
+  return null;
+}
+
+/**
+ * Reads a header written the usual way straight from its text, or returns null (see
+ * `usual-header.ts`). `actor` and `lot` are the values checked last, which it may hand back.
+ * Its object is trusted only when {@link headerProblem} then finds nothing.
+ */
+export type UsualHeaderReader = (
+  text: string,
+  actor: unknown,
+  lot: unknown,
+) => Record<string, unknown> | null;
+
+let readUsual: UsualHeaderReader | null = null;
+
+/**
+ * Installs the direct reading of usual headers. `usual-header.ts` calls it when it is loaded,
+ * which Node does through the package's index; a bundle for browsers, where rolls are short and
+ * bytes count, leaves that module out (the package has no side effects to keep) and every header
+ * takes the full reading.
+ */
+export function useUsualHeaderReader(reader: UsualHeaderReader): void {
+  readUsual = reader;
 }
 
 // The lot code and actor checked last: a roll repeats them from header to header, so each is

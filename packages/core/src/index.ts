@@ -20,6 +20,8 @@ export type {
   NoteErrorCode,
 } from './errors.js';
 export { canonicalise, canonicaliseJcs, parseCanonical } from './canonical.js';
+// Installs the direct reading of usual headers in Node; bundles for browsers leave it out.
+import './usual-header.js';
 export { secureRandom, seededRandom } from './random.js';
 export type { RandomSource } from './random.js';
 export type { TagMatch } from './lotcode.js';

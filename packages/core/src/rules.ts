@@ -163,87 +163,59 @@ export interface TransitionRule {
   actor: ActorRule;
   /** Statuses in which the kind may be appended; `registered` only opens a roll. */
   statuses: readonly LotStatus[];
-  summary: string;
 }
 
 const ALL: readonly LotStatus[] = ['held', 'offered', 'sold', 'split', 'combined', 'retired'];
 const ACTIVE: readonly LotStatus[] = ['held', 'offered'];
 
 /**
- * The rules of a roll, one row per kind: who may append it and in which statuses. The checks
+ * The rules of a roll, one row per kind: who may append it and in which statuses (each row's
+ * comment sums up its rule; the comments are not shipped, as this table goes to browsers). The checks
  * that need more than this table (counts, offer seqs, redaction targets) are written in
  * {@link checkTransition} and in the format document. The server calls `checkTransition`
  * before every write; verifiers call it on read.
  */
 export const TRANSITION_RULES: Readonly<Record<EntryKind, TransitionRule>> = {
-  registered: { actor: 'anyone', statuses: [], summary: 'seq 0 only; the actor becomes the holder' },
-  described: {
-    actor: 'holder',
-    statuses: ALL,
-    summary: 'full new description; in a final status the count no longer changes',
-  },
-  observed: { actor: 'holder', statuses: ACTIVE, summary: 'physical observations' },
-  'exhibit-added': {
-    actor: 'holder-or-anyone-if-listed',
-    statuses: ALL,
-    summary:
-      'the holder; anyone else (evidence for an opinion) on a listed lot, or (version 3) on an unlisted lot by naming an open request that asks them',
-  },
-  opinion: {
-    actor: 'holder-or-anyone-if-listed',
-    statuses: ALL,
-    summary:
-      'the holder, or anyone on a listed lot, or (version 3) anyone an open request asks, naming it; that opinion closes the request',
-  },
-  'opinion-withdrawn': {
-    actor: 'opinion-author',
-    statuses: ALL,
-    summary: 'names a standing opinion by the same actor',
-  },
-  'transfer-offered': {
-    actor: 'holder',
-    statuses: ['held'],
-    summary: 'one open offer; the recipient is not the holder',
-  },
-  'transfer-accepted': {
-    actor: 'offer-recipient',
-    statuses: ['offered'],
-    summary: 'names the open offer; the actor becomes the holder',
-  },
-  'transfer-declined': { actor: 'offer-recipient', statuses: ['offered'], summary: 'names the open offer' },
-  'transfer-withdrawn': { actor: 'offerer', statuses: ['offered'], summary: 'names the open offer' },
-  'transfer-lapsed': {
-    actor: 'system',
-    statuses: ['offered'],
-    summary: `names the open offer; actor ${SYSTEM_ACTOR}`,
-  },
-  split: { actor: 'holder', statuses: ['held'], summary: 'children counts do not exceed an exact count' },
-  combined: { actor: 'holder', statuses: ['held'], summary: 'count taken does not exceed an exact count' },
-  sold: { actor: 'holder', statuses: ['held'], summary: 'sale to a private buyer' },
-  'sale-voided': {
-    actor: 'holder',
-    statuses: ['sold'],
-    summary: 'the seller, within 24 hours of the sale it names (the current sale); the lot is held again',
-  },
-  retired: { actor: 'holder', statuses: ['held'], summary: 'taken out of trade' },
-  redacted: {
-    actor: 'anyone',
-    statuses: ALL,
-    summary:
-      'the server admits only the registrar; target is an earlier entry that is not seq 0, a link, a redaction, already redacted, or the open offer',
-  },
-  note: { actor: 'holder-or-anyone-if-listed', statuses: ALL, summary: 'optional ref to an earlier entry' },
-  'opinion-requested': {
-    actor: 'holder',
-    statuses: ACTIVE,
-    summary:
-      'asks a named assessor (not the holder, not a reserved id), or with null any assessor; the server admits only verified assessors',
-  },
-  'opinion-request-closed': {
-    actor: 'holder',
-    statuses: ACTIVE,
-    summary: 'names an open opinion request and closes it',
-  },
+  // seq 0 only; the actor becomes the holder
+  registered: { actor: 'anyone', statuses: [] },
+  // full new description; in a final status the count no longer changes
+  described: { actor: 'holder', statuses: ALL },
+  // physical observations
+  observed: { actor: 'holder', statuses: ACTIVE },
+  // the holder; anyone else (evidence for an opinion) on a listed lot, or (version 3) on an unlisted lot by naming an open request that asks them
+  'exhibit-added': { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // the holder, or anyone on a listed lot, or (version 3) anyone an open request asks, naming it; that opinion closes the request
+  opinion: { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // names a standing opinion by the same actor
+  'opinion-withdrawn': { actor: 'opinion-author', statuses: ALL },
+  // one open offer; the recipient is not the holder
+  'transfer-offered': { actor: 'holder', statuses: ['held'] },
+  // names the open offer; the actor becomes the holder
+  'transfer-accepted': { actor: 'offer-recipient', statuses: ['offered'] },
+  // names the open offer
+  'transfer-declined': { actor: 'offer-recipient', statuses: ['offered'] },
+  // names the open offer
+  'transfer-withdrawn': { actor: 'offerer', statuses: ['offered'] },
+  // names the open offer; actor beadroll:system
+  'transfer-lapsed': { actor: 'system', statuses: ['offered'] },
+  // children counts do not exceed an exact count
+  split: { actor: 'holder', statuses: ['held'] },
+  // count taken does not exceed an exact count
+  combined: { actor: 'holder', statuses: ['held'] },
+  // sale to a private buyer
+  sold: { actor: 'holder', statuses: ['held'] },
+  // the seller, within 24 hours of the sale it names (the current sale); the lot is held again
+  'sale-voided': { actor: 'holder', statuses: ['sold'] },
+  // taken out of trade
+  retired: { actor: 'holder', statuses: ['held'] },
+  // the server admits only the registrar; target is an earlier entry that is not seq 0, a link, a redaction, already redacted, or the open offer
+  redacted: { actor: 'anyone', statuses: ALL },
+  // optional ref to an earlier entry
+  note: { actor: 'holder-or-anyone-if-listed', statuses: ALL },
+  // asks a named assessor (not the holder, not a reserved id), or with null any assessor; the server admits only verified assessors
+  'opinion-requested': { actor: 'holder', statuses: ACTIVE },
+  // names an open opinion request and closes it
+  'opinion-request-closed': { actor: 'holder', statuses: ACTIVE },
 };
 
 function bad(code: 'bad-actor' | 'bad-transition', message: string): TransitionResult {
@@ -493,8 +465,11 @@ function checkRequest(state: RollState, actor: string, request: number | undefin
   return null;
 }
 
+/** The one answer for an entry the rules allow outright (callers only read it). */
+const ALLOWED: TransitionResult = Object.freeze({ ok: true });
+
 function done(unchecked: string[]): TransitionResult {
-  return unchecked.length ? { ok: true, unchecked } : { ok: true };
+  return unchecked.length ? { ok: true, unchecked } : ALLOWED;
 }
 
 function countText(c: BeadCount): string {
@@ -568,7 +543,6 @@ export function reduceEntryInPlace(state: RollState | null, entry: ReducibleEntr
 
 function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boolean): RollState {
   const { header: h, body } = entry;
-  const add = <T>(list: T[] | undefined, ...items: T[]): T[] => addTo(owned, list, items);
   const facts: RuleFacts | null = h.facts ?? (body ? factsOf(h.kind, body) : null);
   const head: RollHead = { lot: h.lot, seq: h.seq, hash: entry.hash, time: h.time };
   if (state === null) {
@@ -611,7 +585,7 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
     case 'described': {
       s.description = body ? (body as RegisteredBody).description : null;
       s.descriptionSeq = h.seq;
-      s.descriptionSeqs = add(s.descriptionSeqs, h.seq);
+      s.descriptionSeqs = add(owned, s.descriptionSeqs, h.seq);
       s.listed = facts ? facts.listed! : false;
       s.listedKnown = facts !== null;
       if (ACTIVE.includes(s.status)) {
@@ -621,10 +595,10 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       break;
     }
     case 'exhibit-added':
-      if (facts?.original) s.exhibits = add(s.exhibits, { seq: h.seq, sha256: facts.original });
+      if (facts?.original) s.exhibits = add(owned, s.exhibits, { seq: h.seq, sha256: facts.original });
       break;
     case 'opinion':
-      s.opinions = add(s.opinions, {
+      s.opinions = add(owned, s.opinions, {
         seq: h.seq,
         author: h.actor,
         time: h.time,
@@ -633,7 +607,7 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       if (facts?.request !== undefined) s.openRequests = closeRequest(s, facts.request);
       break;
     case 'opinion-requested':
-      s.openRequests = add(s.openRequests, {
+      s.openRequests = add(owned, s.openRequests, {
         seq: h.seq,
         assessor: facts ? facts.assessor! : null,
         time: h.time,
@@ -677,13 +651,13 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       const before = s.taken ?? { value: 0, estimated: false };
       s.taken = { value: before.value + took.value, estimated: before.estimated || took.estimated };
       s.remaining = remainingAfter(s, took);
-      s.children = add(s.children, ...kids.map((c) => ({ lot: c.lot, seq: h.seq, count: c.count })));
-      s.linkSeqs = add(s.linkSeqs, h.seq);
+      for (const c of kids) s.children = add(owned, s.children, { lot: c.lot, seq: h.seq, count: c.count });
+      s.linkSeqs = add(owned, s.linkSeqs, h.seq);
       if (s.remaining.value === 0) s.status = h.kind;
       break;
     }
     case 'observed':
-      s.observationSeqs = add(s.observationSeqs, h.seq);
+      s.observationSeqs = add(owned, s.observationSeqs, h.seq);
       break;
     case 'sold':
       s.status = 'sold';
@@ -702,8 +676,8 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
       break;
     case 'redacted': {
       const t = facts!.target!;
-      s.redactionSeqs = add(s.redactionSeqs, h.seq);
-      s.redactedSeqs = add(s.redactedSeqs, t);
+      s.redactionSeqs = add(owned, s.redactionSeqs, h.seq);
+      s.redactedSeqs = add(owned, s.redactedSeqs, t);
       if (s.opinions.some((o) => o.seq === t))
         s.opinions = s.opinions.map((o) => (o.seq === t ? { ...o, body: null } : o));
       if (s.exhibits?.some((e) => e.seq === t)) s.exhibits = s.exhibits.filter((e) => e.seq !== t);
@@ -720,10 +694,10 @@ function applyEntry(state: RollState | null, entry: ReducibleEntry, owned: boole
   return ATTRIBUTION_KINDS.has(h.kind) ? deriveAttribution(s) : s;
 }
 
-/** `list` with `items` added at the end: a new array, or the same one when the state is owned. */
-function addTo<T>(owned: boolean, list: T[] | undefined, items: T[]): T[] {
-  if (!owned || list === undefined) return [...(list ?? []), ...items];
-  for (const item of items) list.push(item);
+/** `list` with `item` added at the end: a new array, or the same one when the state is owned. */
+function add<T>(owned: boolean, list: T[] | undefined, item: T): T[] {
+  if (!owned || list === undefined) return [...(list ?? []), item];
+  list.push(item);
   return list;
 }
 

@@ -33,6 +33,8 @@ export const LIMITS = {
 const ACTOR = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
 /** The shape of an entry time: `d` a digit, any other character itself. */
 const TIME_SHAPE = 'dddd-dd-ddTdd:dd:dd.dddZ';
+/** {@link TIME_SHAPE} as code units, 0 where a digit goes. */
+const TIME_CODES = Uint16Array.from(TIME_SHAPE, (ch) => (ch === 'd' ? 0 : ch.charCodeAt(0)));
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
 const CURRENCY = /^[A-Z]{3}$/;
 const MEDIA_TYPE = /^[a-z0-9][a-z0-9!#$&^_.+-]*\/[a-z0-9][a-z0-9!#$&^_.+-]*$/;
@@ -66,9 +68,9 @@ export function isActorId(v: unknown): v is string {
 export function isEntryTime(v: unknown): v is string {
   if (typeof v !== 'string' || v.length !== 24) return false;
   for (let i = 0; i < 24; i++) {
+    const want = TIME_CODES[i]!;
     const c = v.charCodeAt(i);
-    if (TIME_SHAPE.charCodeAt(i) === 0x64 /* d */ ? c < 0x30 || c > 0x39 : c !== TIME_SHAPE.charCodeAt(i))
-      return false;
+    if (want === 0 ? c - 0x30 > 9 || c < 0x30 : c !== want) return false;
   }
   // Digits are known from here on: hours below 24, minutes and seconds below 60.
   const hour = (v.charCodeAt(11) - 48) * 10 + v.charCodeAt(12) - 48;

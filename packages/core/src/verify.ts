@@ -89,7 +89,10 @@ export class RollVerifier {
   private pushUnsafe(entry: StoredEntry, expectSeq: number): VerifyFailure | null {
     if (entry === null || typeof entry !== 'object')
       return this.fail(expectSeq, 'bad-header', 'an entry is an object');
-    const h = decodeHeader(entry.header, this.state?.head.hash);
+    // The body's digest is needed below; computed first, it also stands for the header's
+    // `body` in the header's check when the two are equal.
+    const digest = typeof entry.body === 'string' ? bodyDigest(entry.body) : undefined;
+    const h = decodeHeader(entry.header, this.state?.head.hash, digest);
     if (isHeaderProblem(h)) return this.fail(expectSeq, h.reason, h.message);
     // A hash equal to the one computed here is 64 lower-case hex digits.
     if (typeof entry.hash !== 'string' || entryHash(entry.header) !== entry.hash) {
@@ -124,8 +127,7 @@ export class RollVerifier {
       } catch (e) {
         return this.fail(h.seq, 'non-canonical', `body: ${(e as Error).message}`);
       }
-      if (bodyDigest(entry.body) !== h.body)
-        return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
+      if (digest !== h.body) return this.fail(h.seq, 'bad-body-digest', 'the body does not match its digest');
       let issues = bodyIssues(h.kind, body, h.v);
       // The plausibility bounds are rules of format version 2; version 1 entries keep the looser ones.
       if (issues.length === 0 && h.v >= 2) issues = bodyBoundIssues(h.kind, body, h.time);
@@ -151,8 +153,9 @@ export class RollVerifier {
     if (h.kind === 'redacted')
       this.pending.delete(h.facts ? h.facts.target! : (body as { target: number }).target);
     // The verifier built this state from seq 0 and lends it to no one, so it grows in place.
-    this.state = reduceEntryInPlace(this.state, { header: h, hash: entry.hash, body });
-    this.last = { hash: entry.hash, header: h, body };
+    const verified: VerifiedEntry = { hash: entry.hash, header: h, body };
+    this.state = reduceEntryInPlace(this.state, verified);
+    this.last = verified;
     this.count++;
     return null;
   }

@@ -185,12 +185,14 @@ describe('reading a text as already canonical agrees with writing its parse out 
             return; // e.g. an unsafe integer or a lone surrogate
           }
           expect(accepted(text)).toBe(true);
+          expectSameParse(text);
           let changed = text;
           for (const { at, cut, piece } of edits) {
             const i = at % (changed.length + 1);
             changed = changed.slice(0, i) + piece + changed.slice(i + cut);
           }
           expect(accepted(changed)).toBe(reference(changed));
+          if (accepted(changed)) expectSameParse(changed);
           const unsorted = JSON.stringify(value);
           if (unsorted !== undefined) expect(accepted(unsorted)).toBe(reference(unsorted));
         },
@@ -224,5 +226,69 @@ describe('reading a text as already canonical agrees with writing its parse out 
       '{"9":2,"10":1}',
     ];
     for (const t of texts) expect([t, accepted(t)]).toEqual([t, reference(t)]);
+  });
+});
+
+/**
+ * The value parseCanonical returns is JSON.parse's for the same text: equal members in the same
+ * order (JSON.stringify writes them in that order), plain objects, -0 kept apart from 0.
+ */
+function expectSameParse(text: string): void {
+  const ours = parseCanonical(text);
+  const theirs: unknown = JSON.parse(text);
+  expect(ours).toEqual(theirs);
+  expect(JSON.stringify(ours)).toBe(JSON.stringify(theirs));
+  const protos = (v: unknown): unknown[] =>
+    v !== null && typeof v === 'object'
+      ? [Object.getPrototypeOf(v), ...Object.values(v).flatMap(protos)]
+      : [];
+  expect(protos(ours)).toEqual(protos(theirs));
+}
+
+describe('the one-pass reading builds what JSON.parse builds', () => {
+  it('on texts that take each of its paths', () => {
+    const texts = [
+      '{"a":"line\\nbreak","b":"say \\"hi\\"","c":"back\\\\slash","d":"\\u0001\\u001f\\b\\f\\r\\t"}',
+      '{"":0,"a":-1,"b":123456789012345,"c":-123456789012345,"d":9007199254740991,"e":-9007199254740991}',
+      '[0.5,-0.25,1.5e-7,123.456,-1e-7,5e-324,4503599627370495.5]',
+      '{"__proto__":1}',
+      '{"a":{"__proto__":{"b":2}}}',
+      '{"10":1,"9":2,"a":3}',
+      '{"constructor":1,"toString":2,"valueOf":[]}',
+      '["\ud83d\ude00 é ü \u2028 \u007f"]',
+      '{"é":2,"\ud83d\ude00":1}',
+      '"plain"',
+      '"\\u0000"',
+      '0',
+      '-7',
+      'true',
+      'null',
+      '[]',
+      '{}',
+      '[[],{},[{}],{"a":[]}]',
+      '['.repeat(150) + ']'.repeat(150),
+      '{"a":'.repeat(150) + '1' + '}'.repeat(150),
+    ];
+    for (const t of texts) expectSameParse(t);
+    expect(Object.keys(parseCanonical('{"__proto__":1}') as object)).toEqual(['__proto__']);
+    // Integers beyond 2^53 − 1, however written, are refused on every path.
+    for (const t of ['[1e+21]', '[9007199254740992]', '[-9007199254740992]'])
+      expect(() => parseCanonical(t)).toThrow(CanonicalError);
+  });
+
+  it('on random values with strings of any code units', async () => {
+    const fc = (await import('fast-check')).default;
+    fc.assert(
+      fc.property(fc.jsonValue({ maxDepth: 5, stringUnit: 'binary' }), (v) => {
+        let text: string;
+        try {
+          text = canonicalise(v);
+        } catch {
+          return; // e.g. an unsafe integer or a lone surrogate
+        }
+        expectSameParse(text);
+      }),
+      { numRuns: 2000 },
+    );
   });
 });

@@ -7,7 +7,7 @@
 // lot list with a text query) and the full-ledger audit's entries/s and peak memory (the
 // `npm run audit` program). Targets: public data and append at full size ≤ 1.2× at 1,000;
 // search ≤ 100 ms; the audit ≥ 50,000 entries/s in flat memory.
-// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M]
+// Usage: npm run build && npm run bench:scale [-- --entries N] [--lots M] [--audit-only] [--hold]
 //   (M defaults to N / 10; `--entries 20000` runs in about two minutes on a small machine)
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -19,7 +19,7 @@ import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { REPO } from '../../lib/app-env.ts';
+import { AUDIT_NODE_OPTIONS, REPO } from '../../lib/app-env.ts';
 import { startBenchApp, type BenchApp } from '../lib/bench-app.ts';
 import { COLOURS, WORDS } from './words.mjs';
 
@@ -39,6 +39,10 @@ const WARM_UP = 50;
 /** Timed appends at each size (p99 is then the fifth slowest), spread over the same number of lots. */
 const APPENDS = 500;
 const APPEND_LOTS = 50;
+// --audit-only: measure the audit alone; --hold: after loading, print the cluster's environment
+// and keep it (and the app) until Ctrl+C, for profiling the audit by hand.
+const AUDIT_ONLY = process.argv.includes('--audit-only');
+const HOLD = process.argv.includes('--hold');
 
 interface CannonResult {
   latency: { p50: number; p99: number };
@@ -233,17 +237,29 @@ async function signIn(app: BenchApp): Promise<{ headers: Record<string, string>;
 }
 
 /**
- * Runs the audit program and samples its peak resident memory (VmHWM). The rate is timed from
- * its first line ("auditing N lots…"), after the program has started and connected.
+ * Runs the audit program as `npm run audit` does (with its heap limit), with the app paused,
+ * and samples its peak resident memory (VmHWM). The rate is timed from its first line
+ * ("auditing N lots…"), after the program has started and connected.
  */
 function audit(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
+  // The app is paused meanwhile: after a bulk load it is still numbering every new entry in the
+  // log (minutes of work at 1,000,000 entries), which would share the two cores with the audit.
+  process.kill(app.pid, 'SIGSTOP');
+  return auditProgram(app).finally(() => process.kill(app.pid, 'SIGCONT'));
+}
+
+function auditProgram(app: BenchApp): Promise<{ seconds: number; entries: number; peakMb: number }> {
   return new Promise((resolve, reject) => {
     const started = performance.now();
-    const child = spawn('node', [join(REPO, 'packages/server/dist/audit/audit-cli.js')], {
-      cwd: REPO,
-      env: app.env,
-      stdio: ['ignore', 'pipe', 'inherit'],
-    });
+    const child = spawn(
+      'node',
+      [...AUDIT_NODE_OPTIONS, join(REPO, 'packages/server/dist/audit/audit-cli.js')],
+      {
+        cwd: REPO,
+        env: app.env,
+        stdio: ['ignore', 'pipe', 'inherit'],
+      },
+    );
     let out = '';
     let peakKb = 0;
     let auditing = started;
@@ -309,6 +325,19 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
     )
   ).rows.map((r: { code: string }) => r.code);
   if (codes.length === 0) throw new Error('no listed lot held by the dealer');
+  if (AUDIT_ONLY) {
+    const a = await audit(app);
+    return {
+      entries: n,
+      publicP50: NaN,
+      publicP99: NaN,
+      appendP50: NaN,
+      appendP99: NaN,
+      searchP95: NaN,
+      auditRate: a.entries / a.seconds,
+      auditPeakMb: a.peakMb,
+    } satisfies Figures;
+  }
   // Three rounds, the median of each figure kept, so one pause of a busy machine does not
   // decide a percentile on its own.
   const rounds: CannonResult[] = [];
@@ -416,6 +445,12 @@ async function main(): Promise<void> {
         `(${Math.round((ENTRIES - SMALL) / loadSeconds).toLocaleString('en')} entries/s); ` +
         `the log caught up ${(await logCaughtUp(pool)).toFixed(0)} s later; measuring…`,
     );
+    if (HOLD) {
+      const keys = ['PGHOST', 'PGPORT', 'PGUSER', 'PGPASSWORD', 'PGDATABASE'];
+      console.log(keys.map((k) => `export ${k}='${app.env[k]}'`).join('\n'));
+      console.log('holding the cluster and the app; Ctrl+C ends them');
+      await new Promise(() => undefined);
+    }
     const big = await measure(app, pool, headers, actor);
     const ok = (b: boolean) => (b ? 'met' : 'NOT met');
     console.log('');

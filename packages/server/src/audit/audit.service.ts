@@ -22,15 +22,10 @@ import {
   TRANSFER_KINDS,
   type VerifiedEntry,
 } from '@beadroll/core';
-import { DataSource } from 'typeorm';
-import {
-  jsonDifferences,
-  replayStoredRoll,
-  storedEntryRowOf,
-  type EntryRowColumns,
-  type StoredEntryRow,
-} from '../ledger/roll-replay';
-import { lotViewValues } from '../lots/lot-view.projector';
+import { DataSource, type EntityManager } from 'typeorm';
+import { jsonDifferences, replayStoredRoll } from '../ledger/roll-replay';
+import { DERIVED_COLUMNS, lotViewValues } from '../lots/lot-view.projector';
+import { sameJson } from './same-json';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 import { attributionRecordOf } from '../lots/attribution-record';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -102,9 +97,33 @@ export type AuditEvent =
 
 /** Lots checked per batch, and most entries a batch reads at once. */
 const LOT_BATCH = 500;
+/** A lot's row as the checks compare it, and how many entries its roll holds. */
+const LOT_COLUMNS = `"id", "code", "head_seq", "head_hash", "head_time", "state", "head_seq" + 1 AS "entries"`;
 const BATCH_ENTRIES = 20_000;
+/** Batches read (or being read) ahead of the one being checked. */
+const READ_AHEAD = 2;
 
-type EntryRowOf = EntryRowColumns & { lot_id: string };
+/** The columns of an entry row the audit compares with its header. */
+interface EntryColumns {
+  seq: number;
+  kind: string;
+  actor: string;
+  time: string;
+  redacts_seq: number | null;
+}
+
+/** An entry row as the audit reads it: the canonical strings and the columns kept beside them. */
+interface EntryRowOf extends EntryColumns {
+  lot_id: string;
+  hash: string;
+  header: string;
+  body: string | null;
+}
+
+/** The lot view's columns the audit compares: every derived one and the two timestamps. */
+const VIEW_COLUMNS = ['lot_id', ...DERIVED_COLUMNS, 'registered_at', 'updated_at']
+  .map((c) => `"${c}"`)
+  .join(', ');
 
 interface SealedRow {
   lot_id: string;
@@ -150,6 +169,10 @@ interface SaleRow {
 /** A batch of lots and the rows of theirs the audit compares, by lot id. */
 interface LotBatch {
   lots: LotRow[];
+  /** Where the next batch reads on from (the last lot id read); null when every lot was read. */
+  after: string | null;
+  /** Lots read but left for the next batch. */
+  rest: Array<LotRow & { entries: number }>;
   /** Each lot's entry rows in seq order; a lot missing here is replayed from the database. */
   entries: Map<string, EntryRowOf[]>;
   views: Map<string, Record<string, unknown>>;
@@ -163,11 +186,10 @@ interface LotBatch {
 function replayRows(
   lot: { code: string },
   rows: readonly EntryRowOf[],
-  visit: (row: StoredEntryRow, entry: VerifiedEntry) => void,
+  visit: (row: EntryColumns, entry: VerifiedEntry) => void,
 ): { result: RollVerification; entries: number } {
   const v = createRollVerifier(lot.code);
-  for (const r of rows) {
-    const row = storedEntryRowOf(r);
+  for (const row of rows) {
     const failure = v.push(row);
     if (failure) return { result: failure, entries: rows.length };
     visit(row, v.last!);
@@ -202,15 +224,22 @@ export class AuditService {
     let lotsChecked = 0;
     let entriesChecked = 0;
     let broken = 0;
-    // The next batch is read while this one is checked.
-    let next = this.readBatch('');
+    // The next batches are read, one after another, while this one is checked.
+    const readAfter = (previous: Promise<LotBatch>) => {
+      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(b.after, b.rest)));
+      read.catch(() => undefined); // awaited in its turn; a failure is thrown there
+      return read;
+    };
+    let last = this.readBatch('', []);
+    const ahead = [last];
+    while (ahead.length < READ_AHEAD) ahead.push((last = readAfter(last)));
     for (;;) {
-      const batch = await next;
+      const batch = await ahead.shift()!;
       if (batch.lots.length === 0) break;
-      next = this.readBatch(batch.lots[batch.lots.length - 1]!.code);
-      next.catch(() => undefined); // awaited on the next turn; a failure is thrown there
+      ahead.push((last = readAfter(last)));
       for (const lot of batch.lots) {
-        const problem = await this.checkLot(lot, (n) => (entriesChecked += n), batch);
+        const first = await this.checkLot(lot, (n) => (entriesChecked += n), batch, this.dataSource.manager);
+        const problem = first && (await this.recheck(lot.id));
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -232,23 +261,46 @@ export class AuditService {
   }
 
   /**
-   * The lots after `after` in code order, up to LOT_BATCH lots or BATCH_ENTRIES entries, with
-   * every row the checks compare, read in one statement per table for the whole batch. A roll
-   * longer than BATCH_ENTRIES comes alone and is replayed a page at a time, so memory stays flat.
+   * The next lots in id order (those left over from the last batch, then those after `after`:
+   * the last lot id read, '' before the first batch, null once every lot has been read),
+   * up to LOT_BATCH lots or BATCH_ENTRIES entries, with every row the checks compare, read in one
+   * statement per table by a range of lot ids (an index range, in the order the checks take
+   * them). A roll longer than BATCH_ENTRIES comes alone and is replayed a page at a time, so
+   * memory stays flat.
    */
-  private async readBatch(after: string): Promise<LotBatch> {
-    const lots: Array<LotRow & { entries: number }> = await this.dataSource.query(
-      `SELECT "id", "code", "head_seq", "head_hash", "head_time", "state", "head_seq" + 1 AS "entries" FROM "lots"
-        WHERE "code" > $1 ORDER BY "code" LIMIT $2`,
-      [after, LOT_BATCH],
-    );
+  private async readBatch(
+    after: string | null,
+    rest: Array<LotRow & { entries: number }>,
+  ): Promise<LotBatch> {
+    let lots = rest;
+    let last = after;
+    if (lots.length < LOT_BATCH && last !== null) {
+      const more: Array<LotRow & { entries: number }> = await this.dataSource.query(
+        `SELECT ${LOT_COLUMNS} FROM "lots" WHERE $1::uuid IS NULL OR "id" > $1::uuid ORDER BY "id" LIMIT $2`,
+        [last === '' ? null : last, LOT_BATCH],
+      );
+      last = more.length < LOT_BATCH ? null : more[more.length - 1]!.id;
+      lots = [...lots, ...more];
+    }
     let total = 0;
     let count = 0;
     while (count < lots.length && (count === 0 || total + lots[count]!.entries <= BATCH_ENTRIES))
       total += lots[count++]!.entries;
-    const chosen = lots.slice(0, count);
+    return this.readRows(lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
+  }
+
+  /** Every row the checks compare of these consecutive lots (in id order), read through `m`. */
+  private async readRows(
+    chosen: LotRow[],
+    total: number,
+    after: string | null,
+    rest: Array<LotRow & { entries: number }>,
+    m: EntityManager,
+  ): Promise<LotBatch> {
     const batch: LotBatch = {
       lots: chosen,
+      after,
+      rest,
       entries: new Map(),
       views: new Map(),
       sealed: new Map(),
@@ -257,50 +309,55 @@ export class AuditService {
       sales: new Map(),
     };
     if (chosen.length === 0) return batch;
-    const ids = chosen.map((l) => l.id);
+    // The chosen lots are consecutive in id order: every row of theirs lies in this id range.
+    const range = [chosen[0]!.id, chosen[chosen.length - 1]!.id];
     const byLot = <T extends { lot_id: string }>(rows: T[], into: Map<string, T[]>) => {
+      let lot = '';
+      let list: T[] = [];
       for (const r of rows) {
-        const list = into.get(r.lot_id);
-        if (list) list.push(r);
-        else into.set(r.lot_id, [r]);
+        if (r.lot_id !== lot) {
+          lot = r.lot_id;
+          list = into.get(lot) ?? [];
+          into.set(lot, list);
+        }
+        list.push(r);
       }
     };
     const [entries, views, sealed, exhibits, offers, sales] = await Promise.all([
       total <= BATCH_ENTRIES
-        ? (this.dataSource.query(
-            `SELECT e."lot_id", e."id", e."seq", e."kind", e."actor", e."time", e."hash", e."header", b."body",
-                    e."redacts_seq", e."log_index"
-               FROM "entries" e LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id"
-              WHERE e."lot_id" = ANY($1) ORDER BY e."lot_id", e."seq"`,
-            [ids],
+        ? (m.query(
+            `SELECT e."lot_id", e."seq", e."kind", e."actor", e."time", e."hash", e."header",
+                    (SELECT b."body" FROM "entry_bodies" b WHERE b."entry_id" = e."id") AS "body", e."redacts_seq"
+               FROM "entries" e WHERE e."lot_id" BETWEEN $1 AND $2 ORDER BY e."lot_id", e."seq"`,
+            range,
           ) as Promise<EntryRowOf[]>)
         : Promise.resolve([] as EntryRowOf[]),
-      this.dataSource.query('SELECT * FROM "lot_views" WHERE "lot_id" = ANY($1)', [ids]) as Promise<
+      m.query(`SELECT ${VIEW_COLUMNS} FROM "lot_views" WHERE "lot_id" BETWEEN $1 AND $2`, range) as Promise<
         Array<Record<string, unknown> & { lot_id: string }>
       >,
-      this.dataSource.query(
+      m.query(
         `SELECT e."lot_id", e."seq", s."name", s."salt", s."value", s."commitment", s."visible_to" FROM "sealed_fields" s
-           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" = ANY($1) ORDER BY e."lot_id", e."seq", s."name"`,
-        [ids],
+           JOIN "entries" e ON e."id" = s."entry_id" WHERE e."lot_id" BETWEEN $1 AND $2 ORDER BY e."lot_id", e."seq", s."name"`,
+        range,
       ) as Promise<SealedRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "seq", "lot_code", "added_by", "sealed", "original_sha256", "ref" FROM "exhibits"
-          WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "seq"`,
-        [ids],
+          WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "seq"`,
+        range,
       ) as Promise<ExhibitRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "code", "offer_seq", "offerer", "recipient", "status", "offered_at", "answer_seq", "answered_at"
-           FROM "transfer_offers" WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "offer_seq"`,
-        [ids],
+           FROM "transfer_offers" WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "offer_seq"`,
+        range,
       ) as Promise<OfferRow[]>,
-      this.dataSource.query(
+      m.query(
         `SELECT "lot_id", "code", "seq", "seller", "sold_on"::text AS "sold_on", "recorded_at" FROM "sales"
-          WHERE "lot_id" = ANY($1) ORDER BY "lot_id", "seq"`,
-        [ids],
+          WHERE "lot_id" BETWEEN $1 AND $2 ORDER BY "lot_id", "seq"`,
+        range,
       ) as Promise<SaleRow[]>,
     ]);
     if (total <= BATCH_ENTRIES) {
-      batch.entries = new Map(ids.map((id) => [id, []]));
+      batch.entries = new Map(chosen.map((l) => [l.id, []]));
       byLot(entries, batch.entries);
     }
     for (const v of views) batch.views.set(v.lot_id, v);
@@ -311,10 +368,27 @@ export class AuditService {
     return batch;
   }
 
+  /**
+   * Reads one lot again, every table in one REPEATABLE READ snapshot, and checks it again: a
+   * batch reads its tables in separate statements, so an entry appended between two of them
+   * would otherwise look like a stored copy that disagrees with the roll.
+   */
+  private recheck(id: string): Promise<LotProblem | null> {
+    return this.dataSource.transaction('REPEATABLE READ', async (m) => {
+      const [lot] = (await m.query(`SELECT ${LOT_COLUMNS} FROM "lots" WHERE "id" = $1`, [id])) as Array<
+        LotRow & { entries: number }
+      >;
+      if (!lot) return null;
+      const batch = await this.readRows([lot], lot.entries, null, [], m);
+      return this.checkLot(lot, () => undefined, batch, m);
+    });
+  }
+
   private async checkLot(
     lot: LotRow,
     counted: (n: number) => void,
     batch: LotBatch,
+    m: EntityManager,
   ): Promise<LotProblem | null> {
     const diffs: StoredCopyDifference[] = [];
     const differs = (table: string, column: string, seq: number | null, stored: unknown, roll: unknown) =>
@@ -326,7 +400,7 @@ export class AuditService {
     const offerRecipients = new Map<number, string>();
     const kept = new Map<number, KeptEntry>();
     const read = batch.entries.get(lot.id);
-    const visit = (row: StoredEntryRow, e: VerifiedEntry) => {
+    const visit = (row: EntryColumns, e: VerifiedEntry) => {
       const h = e.header;
       if (h.seq === 0) first = h;
       // Every column kept beside the canonical header must say what the header says.
@@ -335,7 +409,7 @@ export class AuditService {
       if (row.actor !== h.actor) differs('entries', 'actor', h.seq, row.actor, h.actor);
       if (row.time !== h.time) differs('entries', 'time', h.seq, row.time, h.time);
       const target = h.kind === 'redacted' && e.body ? (e.body as RedactedBody).target : null;
-      if (row.redactsSeq !== target) differs('entries', 'redacts_seq', h.seq, row.redactsSeq, target);
+      if (row.redacts_seq !== target) differs('entries', 'redacts_seq', h.seq, row.redacts_seq, target);
       if (h.kind === 'observed' && e.body) observations = (e.body as ObservedBody).observations;
       if (h.sealed) sealedRoots.set(h.seq, h.sealed);
       if (h.sealed) sealedActors.set(h.seq, h.actor);
@@ -348,23 +422,29 @@ export class AuditService {
     };
     const { result, entries } = read
       ? replayRows(lot, read, visit)
-      : await replayStoredRoll(this.dataSource.manager, lot, visit);
+      : await replayStoredRoll(m, lot, (row, e) => visit({ ...row, redacts_seq: row.redactsSeq }, e));
     counted(entries);
     if (!result.ok) return { seq: result.seq, reason: result.reason, message: result.message };
-    const state = JSON.parse(JSON.stringify(result.state)) as RollState;
     const head = result.head;
 
     if (lot.head_seq !== head.seq) differs('lots', 'head_seq', null, lot.head_seq, head.seq);
     if (lot.head_hash !== head.hash) differs('lots', 'head_hash', null, lot.head_hash, head.hash);
     if (lot.head_time !== head.time) differs('lots', 'head_time', null, lot.head_time, head.time);
-    for (const d of jsonDifferences(lot.state, state))
-      differs('lots', `state.${d.path}`, null, d.stored, d.expected);
+    // The state as JSON keeps it; a stored state found equal already is that (read afresh per batch).
+    let state: RollState;
+    if (sameJson(lot.state, result.state)) state = lot.state;
+    else {
+      state = JSON.parse(JSON.stringify(result.state)) as RollState;
+      for (const d of jsonDifferences(lot.state, state))
+        differs('lots', `state.${d.path}`, null, d.stored, d.expected);
+    }
 
     const view = batch.views.get(lot.id);
     if (!view) differs('lot_views', '(row)', null, 'missing', 'one row');
     else {
       const want = lotViewValues(state, observations, await attributionRecordOf(this.reader, state));
       for (const [column, value] of Object.entries(want)) {
+        if (sameJson(view[column], value)) continue;
         for (const d of jsonDifferences(view[column], value)) {
           const at = d.path === '(whole value)' ? column : `${column}.${d.path}`;
           differs('lot_views', at, null, d.stored, d.expected);
@@ -410,26 +490,29 @@ export class AuditService {
         differs('sealed_fields', `${f.name} (readers)`, f.seq, f.visible_to.join(', '), readers.join(', '));
     }
     // The values of a closed account's own entries are deleted on purpose; every other entry
-    // whose header commits sealed fields keeps them.
-    const closed = new Set(
-      sealedActors.size === 0
-        ? []
-        : (
-            (await this.dataSource.query(
-              `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
-              [[...new Set(sealedActors.values())]],
-            )) as Array<{ id: string }>
-          ).map((r) => r.id),
-    );
+    // whose header commits sealed fields keeps them. Which actors are closed is asked only when
+    // an entry's fields are missing or differ.
+    let closed: Set<string> | null = null;
+    const isClosed = async (actor: string) => {
+      closed ??= new Set(
+        (
+          (await m.query(
+            `SELECT "id"::text AS "id" FROM "accounts" WHERE "status" = 'closed' AND "id"::text = ANY($1)`,
+            [[...new Set(sealedActors.values())]],
+          )) as Array<{ id: string }>
+        ).map((r) => r.id),
+      );
+      return closed.has(actor);
+    };
     for (const [seq, root] of sealedRoots) {
       const commitments = bySeq.get(seq);
       if (!commitments) {
-        if (!closed.has(sealedActors.get(seq)!))
+        if (!(await isClosed(sealedActors.get(seq)!)))
           differs('sealed_fields', '(missing)', seq, 'none', 'its fields');
         continue;
       }
       const got = sealedRoot(commitments);
-      if (got !== root && !closed.has(sealedActors.get(seq)!))
+      if (got !== root && !(await isClosed(sealedActors.get(seq)!)))
         differs('sealed_fields', 'commitment', seq, got, root);
     }
     for (const seq of bySeq.keys())
@@ -439,7 +522,7 @@ export class AuditService {
 
     const parents = (first as EntryHeader | null)?.parents ?? [];
     for (const p of parents) {
-      const rows: Array<{ hash: string; header: string; body: string | null }> = await this.dataSource.query(
+      const rows: Array<{ hash: string; header: string; body: string | null }> = await m.query(
         `SELECT e."hash", e."header", b."body" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
          LEFT JOIN "entry_bodies" b ON b."entry_id" = e."id" WHERE l."code" = $1 AND e."seq" = $2`,
         [p.lot, p.seq],
