@@ -19,6 +19,8 @@ import { DataSource } from 'typeorm';
 import { runWitness, witnessVerifierKey, loadWitnessSigner } from '@beadroll/witness';
 import { LedgerService } from '../src/ledger/ledger.service';
 import { CheckpointsService } from '../src/log/checkpoints.service';
+import { LogTreeService, RECHECK_LEAVES } from '../src/log/log-tree.service';
+import { LogLeavesService } from '../src/ledger/log-leaves.service';
 import { LogSequencer } from '../src/ledger/log-sequencer';
 import { createAccount } from './support/accounts';
 import { description } from './support/lot-fixtures';
@@ -314,6 +316,49 @@ describe('the ledger-wide log', () => {
       log: 'ok',
       reasons: [],
     });
+  });
+
+  it('reads only the new leaves for a signature, and finds a changed past entry within a round of the log', async () => {
+    const tree = t.app.get(LogTreeService);
+    const leaves = t.app.get(LogLeavesService);
+    const { lot } = await ledger.register({ actor, description: description() });
+    const { lot: other } = await ledger.register({ actor, description: description() });
+    const note = () => ledger.append(lot, { kind: 'note', actor, body: { text: 'one more' } });
+    expect(await sign()).toMatchObject({ signed: true });
+    const size = await leaves.size();
+    const [{ index, hash }] = (await t.app.get(DataSource).query(
+      `SELECT e."log_index"::int AS "index", e."hash" FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+        WHERE l."code" = $1`,
+      [other],
+    )) as Array<{ index: number; hash: string }>;
+    tree.recheckLeaves = 4;
+    const read = jest.spyOn(leaves, 'leaves');
+    try {
+      await note();
+      expect(await sign()).toMatchObject({ signed: true, size: size + 1 });
+      // The one new leaf; the four compared are digested in the database, not read.
+      expect(read.mock.calls).toEqual([[size, size + 1]]);
+
+      // A past entry far behind the window is rewritten: a pass that does not compare it signs
+      // the leaves as first read; the pass that reaches it reads everything again and refuses.
+      await tamper(t, `UPDATE entries SET hash = repeat('cd', 32) WHERE log_index = $1`, [index]);
+      let passes = 0;
+      let run;
+      do {
+        await note();
+        run = await sign();
+        passes++;
+      } while (run.signed && passes < size);
+      expect(run).toMatchObject({ signed: false, refused: expect.stringContaining('not consistent') });
+      // Four leaves compared a pass while the log grows by one: a round takes about size / 3.
+      expect(passes).toBeLessThanOrEqual(Math.ceil(size / 3) + 2);
+      await tamper(t, `UPDATE entries SET hash = $1 WHERE log_index = $2`, [hash, index]);
+      await note();
+      expect(await sign()).toMatchObject({ signed: true });
+    } finally {
+      read.mockRestore();
+      tree.recheckLeaves = RECHECK_LEAVES;
+    }
   });
 
   it('the proof routes are public', async () => {

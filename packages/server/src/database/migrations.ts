@@ -17,6 +17,7 @@ import { InheritedAttributionInSearch1796490800000 } from '../migrations/1796490
 import { OpinionRequestsOnTheRoll1796490900000 } from '../migrations/1796490900000-OpinionRequestsOnTheRoll';
 import { ApplicantDocument1796491000000 } from '../migrations/1796491000000-ApplicantDocument';
 import { CheckpointOrigins1796491100000 } from '../migrations/1796491100000-CheckpointOrigins';
+import { HolderInventoryOrder1796491200000 } from '../migrations/1796491200000-HolderInventoryOrder';
 
 // Every migration class, in order: add new ones at the end, never edit one that has landed.
 export const MIGRATIONS: Array<new () => MigrationInterface> = [
@@ -38,4 +39,5 @@ export const MIGRATIONS: Array<new () => MigrationInterface> = [
   OpinionRequestsOnTheRoll1796490900000,
   ApplicantDocument1796491000000,
   CheckpointOrigins1796491100000,
+  HolderInventoryOrder1796491200000,
 ];

@@ -173,7 +173,7 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
         return { signed: false, size };
       let tree: MerkleTree;
       try {
-        tree = await this.tree.rebuild(size);
+        tree = await this.tree.forSigning(size, this.refusalKind !== undefined);
       } catch (err) {
         // A removed entry leaves a hole no checkpoint may cover: refuse, every pass, until the
         // entry is back (restored from a backup), rather than sign a log with a leaf missing.

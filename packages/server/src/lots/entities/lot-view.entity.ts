@@ -6,6 +6,8 @@ import { LotEntity } from '../../ledger/entities/lot.entity';
 /**
  * The derived view of one lot, for listing, filtering and search. Rewritten in the same
  * transaction as every append to the lot; never a source of truth (pages verify the raw roll).
+ * Indexes the decorators cannot describe live in the migrations alone: the words' GIN index,
+ * the code's prefix index and the holder's lots in the list's two default orders.
  */
 @Entity({ name: 'lot_views' })
 @Index('ix_lot_views_holder', ['holder'])
