@@ -358,9 +358,6 @@ async function measure(app: BenchApp, pool: pg.Pool, headers: Record<string, str
       auditPeakMb: a.peakMb,
       auditCpu: a.cpu,
       auditLoad: a.load,
-      auditCpu: a.cpu,
-      auditLoad: a.load,
-      auditLoad: a.load,
     } satisfies Figures;
   }
   // Three rounds, the median of each figure kept, so one pause of a busy machine does not
