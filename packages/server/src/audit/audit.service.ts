@@ -316,7 +316,8 @@ export class AuditService {
       }
     };
     if (total <= BATCH_ENTRIES) {
-      // In a worker thread, on its own connection; in this thread inside a transaction.
+      // By a worker thread on its own connection when the pool has one; here otherwise, and always
+      // inside a transaction (whose snapshot the rows must come from).
       const here = async () =>
         replayLots(chosen, (await this.arrays(m, ENTRIES_BY_LOT_RANGE, range)) as EntryRowOf[]);
       const replays = m.queryRunner
