@@ -304,7 +304,7 @@ describe('stored copies of a roll', () => {
     const m = t.app.get(DataSource).manager;
     const query = m.query.bind(m);
     let appended = false;
-    const spy = jest.spyOn(m, 'query').mockImplementation(async (sql: string, params?: unknown[]) => {
+    const spy = jest.spyOn(m, 'query').mockImplementation(async (sql, params) => {
       if (!appended && /FROM "entries" e WHERE e\."lot_id" BETWEEN/.test(sql)) {
         appended = true;
         await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
