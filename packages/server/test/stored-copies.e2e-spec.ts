@@ -304,15 +304,13 @@ describe('stored copies of a roll', () => {
     const m = t.app.get(DataSource).manager;
     const query = m.query.bind(m);
     let appended = false;
-    const spy = jest
-      .spyOn(m, 'query')
-      .mockImplementation(async (sql: string, params?: Parameters<typeof query>[1]) => {
-        if (!appended && /FROM "lot_views" WHERE "lot_id" BETWEEN/.test(sql)) {
-          appended = true;
-          await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
-        }
-        return query(sql, params);
-      });
+    const spy = jest.spyOn(m, 'query').mockImplementation(async (sql, params) => {
+      if (!appended && /FROM "lot_views" WHERE "lot_id" BETWEEN/.test(sql)) {
+        appended = true;
+        await observe(holder, code, 'Weighed again while the audit ran.').expect(201);
+      }
+      return query(sql, params);
+    });
     try {
       const { broken } = await audit();
       expect(appended).toBe(true);
