@@ -311,12 +311,16 @@ describe('stored copies of a roll', () => {
       }
       return query(sql, params);
     });
+    const snapshots = jest.spyOn(t.app.get(DataSource), 'transaction');
     try {
       const { broken } = await audit();
       expect(appended).toBe(true);
+      // The first look found the lot at odds: it was read again in one snapshot, and passed.
+      expect(snapshots).toHaveBeenCalledWith('REPEATABLE READ', expect.any(Function));
       expect(broken.find((x) => x.lot === code)).toBeUndefined();
     } finally {
       spy.mockRestore();
+      snapshots.mockRestore();
     }
     // A difference that stays in the second look is still reported.
     await tamper(t, `UPDATE "lot_views" SET "count_value" = 7 WHERE "code" = $1`, [code]);

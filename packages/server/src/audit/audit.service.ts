@@ -28,7 +28,6 @@ import {
   type LotReplay,
   type StoredCopyDifference,
 } from './lot-replay';
-import { ReplayPool } from './replay-pool';
 import { OFFER_ENDINGS } from '../transfers/transfer.projector';
 import { attributionRecordOf } from '../lots/attribution-record';
 import { RollReaderService } from '../ledger/roll-reader.service';
@@ -147,7 +146,7 @@ interface LotBatch {
   /** Lots read but left for the next batch. */
   rest: Array<LotRow & { entries: number }>;
   /**
-   * Each lot's roll replayed (in a worker thread when the pool has one) from the rows read with
+   * Each lot's roll replayed from the rows read with
    * the batch; a lot missing here is replayed from the database a page at a time.
    */
   replays: Promise<Map<string, LotReplay>>;
@@ -182,38 +181,16 @@ export class AuditService {
       n: number;
     }>;
     yield { type: 'start', lots: n, startedAt: new Date().toISOString() };
-    const db = this.dataSource.options as Partial<Record<'host' | 'username' | 'database', string>> & {
-      port?: number;
-      password?: unknown;
-    };
-    const pool = new ReplayPool({
-      db: {
-        host: db.host,
-        port: db.port,
-        user: db.username,
-        password: typeof db.password === 'string' ? db.password : undefined,
-        database: db.database,
-        application_name: 'beadroll-audit',
-      },
-    });
-    try {
-      yield* this.check(pool, n, progressEvery);
-    } finally {
-      pool.close();
-    }
-  }
-
-  private async *check(pool: ReplayPool, n: number, progressEvery: number): AsyncGenerator<AuditEvent> {
     let lotsChecked = 0;
     let entriesChecked = 0;
     let broken = 0;
     // The next batches are read, one after another, while this one is checked.
     const readAfter = (previous: Promise<LotBatch>) => {
-      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(pool, b.after, b.rest)));
+      const read = previous.then((b) => (b.lots.length === 0 ? b : this.readBatch(b.after, b.rest)));
       read.catch(() => undefined); // awaited in its turn; a failure is thrown there
       return read;
     };
-    let last = this.readBatch(pool, '', []);
+    let last = this.readBatch('', []);
     const ahead = [last];
     while (ahead.length < READ_AHEAD) ahead.push((last = readAfter(last)));
     for (;;) {
@@ -229,7 +206,7 @@ export class AuditService {
           batch,
           this.dataSource.manager,
         );
-        const problem = first && (await this.recheck(pool, lot.id));
+        const problem = first && (await this.recheck(lot.id));
         if (problem) {
           broken++;
           yield { type: 'broken', lot: lot.code, ...problem };
@@ -259,7 +236,6 @@ export class AuditService {
    * memory stays flat.
    */
   private async readBatch(
-    pool: ReplayPool,
     after: string | null,
     rest: Array<LotRow & { entries: number }>,
   ): Promise<LotBatch> {
@@ -277,12 +253,11 @@ export class AuditService {
     let count = 0;
     while (count < lots.length && (count === 0 || total + lots[count]!.entries <= BATCH_ENTRIES))
       total += lots[count++]!.entries;
-    return this.readRows(pool, lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
+    return this.readRows(lots.slice(0, count), total, last, lots.slice(count), this.dataSource.manager);
   }
 
   /** Every row the checks compare of these consecutive lots (in id order), read through `m`. */
   private async readRows(
-    pool: ReplayPool,
     chosen: LotRow[],
     total: number,
     after: string | null,
@@ -316,16 +291,9 @@ export class AuditService {
       }
     };
     if (total <= BATCH_ENTRIES) {
-      // By a worker thread on its own connection when the pool has one; here otherwise, and always
-      // inside a transaction (whose snapshot the rows must come from).
-      const here = async () =>
-        replayLots(chosen, (await this.arrays(m, ENTRIES_BY_LOT_RANGE, range)) as EntryRowOf[]);
-      const replays = m.queryRunner
-        ? here()
-        : pool.replay(
-            { from: range[0]!, to: range[1]!, lots: chosen.map((l) => ({ id: l.id, code: l.code })) },
-            here,
-          );
+      const replays = this.arrays(m, ENTRIES_BY_LOT_RANGE, range).then((rows) =>
+        replayLots(chosen, rows as EntryRowOf[]),
+      );
       batch.replays = replays.then((r) => new Map(chosen.map((l, i) => [l.id, r[i]!])));
       batch.replays.catch(() => undefined); // awaited in its turn; a failure is thrown there
     }
@@ -380,13 +348,13 @@ export class AuditService {
    * batch reads its tables in separate statements, so an entry appended between two of them
    * would otherwise look like a stored copy that disagrees with the roll.
    */
-  private recheck(pool: ReplayPool, id: string): Promise<LotProblem | null> {
+  private recheck(id: string): Promise<LotProblem | null> {
     return this.dataSource.transaction('REPEATABLE READ', async (m) => {
       const [lot] = (await m.query(`SELECT ${LOT_COLUMNS} FROM "lots" WHERE "id" = $1`, [id])) as Array<
         LotRow & { entries: number }
       >;
       if (!lot) return null;
-      const batch = await this.readRows(pool, [lot], lot.entries, null, [], m);
+      const batch = await this.readRows([lot], lot.entries, null, [], m);
       return this.checkLot(lot, (await batch.replays).get(lot.id), () => undefined, batch, m);
     });
   }

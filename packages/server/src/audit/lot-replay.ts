@@ -68,7 +68,7 @@ export const ENTRIES_BY_LOT_RANGE = `SELECT e."lot_id", e."seq", e."kind", e."ac
 /**
  * What the audit keeps of a replayed roll for its other checks: the verification, the
  * differences between each entry's columns and its header, and the few header and body values
- * the checks of the lot's other rows need. Plain data, so a worker thread can send it back.
+ * the checks of the lot's other rows need.
  */
 export interface LotReplay {
   result: RollVerification;
