@@ -46,6 +46,10 @@ export const OWNERSHIP_EXCEPTIONS: ReadonlyArray<{ path: string; reason: string 
       'the audit compares every stored copy (lot views, cached states, sealed values, exhibits, ' +
       'offers, sales) with what the rolls say; it only reads, and must read the tables themselves',
   },
+  {
+    path: 'audit/lot-replay.ts',
+    reason: "the audit's statement for a batch's entry rows and bodies, read as the stored rows themselves",
+  },
 ];
 
 /**
