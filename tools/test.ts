@@ -1,7 +1,7 @@
 // `npm test`: installs what the suites need, starts a throw-away PostgreSQL cluster, runs lint,
 // type checks, core, server, web and browser suites, and ends with one `tests: N passed, M failed` line.
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, relative } from 'node:path';
 import { DATA_DIR, REPO } from './lib/app-env.ts';
 import { pgEnv, startPrivateCluster, type PgTarget, type PrivateCluster } from './lib/pg.ts';
 import { spawn } from 'node:child_process';
@@ -19,6 +19,8 @@ interface SuiteResult {
   name: string;
   passed: number;
   failed: number;
+  /** What failed, one line each, repeated just above the closing lines so a short tail shows it. */
+  failures?: string[];
 }
 
 const quick = process.argv.includes('--quick');
@@ -40,7 +42,9 @@ async function step(
 ): Promise<SuiteResult> {
   console.log(`\n── ${name}`);
   const code = await runInherit(cmd, args, { cwd: REPO, env: env ?? process.env });
-  return { name, passed: code === 0 ? 1 : 0, failed: code === 0 ? 0 : 1 };
+  return code === 0
+    ? { name, passed: 1, failed: 0 }
+    : { name, passed: 0, failed: 1, failures: [`${name}: exit code ${code}`] };
 }
 
 /**
@@ -65,10 +69,17 @@ async function counted(
     child.on('error', reject);
     child.on('exit', (c, signal) => resolve(c ?? (signal ? 128 : 1)));
   });
-  const m = new RegExp(`^${label}: (\\d+) passed, (\\d+) failed$`, 'm').exec(out.join(''));
-  if (!m) return { name, passed: 0, failed: 1 };
+  const text = out.join('');
+  const m = new RegExp(`^${label}: (\\d+) passed, (\\d+) failed$`, 'm').exec(text);
+  if (!m) return { name, passed: 0, failed: 1, failures: [`${name}: no closing count (exit code ${code})`] };
   const failed = Number(m[2]) + (code !== 0 && Number(m[2]) === 0 ? 1 : 0);
-  return { name, passed: Number(m[1]), failed };
+  // Lines the suite marks FAIL name what failed.
+  const failures = text
+    .split('\n')
+    .filter((l) => /^FAIL\b/.test(l.trim()))
+    .map((l) => `${name}: ${l.trim().slice(0, 300)}`);
+  if (failed > 0 && failures.length === 0) failures.push(`${name}: exit code ${code}`);
+  return { name, passed: Number(m[1]), failed, failures };
 }
 
 /** Runs a Jest or Vitest suite that writes a Jest-style JSON report, and counts its tests. */
@@ -82,14 +93,44 @@ async function suite(
   console.log(`\n── ${name}`);
   rmSync(report, { force: true });
   const code = await runInherit(cmd, args, { cwd: REPO, env });
-  if (!existsSync(report)) return { name, passed: 0, failed: 1 };
-  const json = JSON.parse(readFileSync(report, 'utf8')) as {
-    numPassedTests: number;
-    numFailedTests: number;
-    numFailedTestSuites?: number;
-  };
+  if (!existsSync(report))
+    return { name, passed: 0, failed: 1, failures: [`${name}: no report (exit code ${code})`] };
+  const json = JSON.parse(readFileSync(report, 'utf8')) as JestReport;
   const failed = json.numFailedTests + (code !== 0 && json.numFailedTests === 0 ? 1 : 0);
-  return { name, passed: json.numPassedTests, failed };
+  const failures = failedTests(json);
+  if (failed > 0 && failures.length === 0) failures.push(`exit code ${code}`);
+  return { name, passed: json.numPassedTests, failed, failures: failures.map((f) => `${name}: ${f}`) };
+}
+
+interface JestReport {
+  numPassedTests: number;
+  numFailedTests: number;
+  testResults?: {
+    name: string;
+    status?: string;
+    message?: string;
+    assertionResults?: { fullName?: string; title?: string; status: string; failureMessages?: string[] }[];
+  }[];
+}
+
+/** One line per failed test (file, test name, the first line of its message), from a Jest-style report. */
+function failedTests(json: JestReport): string[] {
+  const firstLine = (text: string | undefined) =>
+    (text ?? '')
+      .split('\n')
+      .find((l) => l.trim() !== '')
+      ?.trim()
+      .slice(0, 300) ?? '';
+  const lines: string[] = [];
+  for (const file of json.testResults ?? []) {
+    const where = relative(REPO, file.name);
+    const failedHere = (file.assertionResults ?? []).filter((a) => a.status === 'failed');
+    for (const a of failedHere)
+      lines.push(`${where} › ${a.fullName ?? a.title ?? '?'} — ${firstLine(a.failureMessages?.[0])}`);
+    if (failedHere.length === 0 && file.status === 'failed')
+      lines.push(`${where} — ${firstLine(file.message)}`);
+  }
+  return lines;
 }
 
 async function main(): Promise<void> {
@@ -255,6 +296,12 @@ async function main(): Promise<void> {
   const passed = results.reduce((n, r) => n + r.passed, 0);
   const failed = results.reduce((n, r) => n + r.failed, 0);
   console.log('');
+  const failures = results.flatMap((r) => (r.failed ? (r.failures ?? []) : []));
+  if (failures.length) {
+    console.log('what failed:');
+    for (const f of failures) console.log(`  ${f}`);
+    console.log('');
+  }
   for (const r of results)
     console.log(`  ${r.failed ? '✗' : '✓'} ${r.name}: ${r.passed} passed, ${r.failed} failed`);
   console.log(`tests: ${passed} passed, ${failed} failed`);
