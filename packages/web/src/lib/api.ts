@@ -224,6 +224,17 @@ async function once(path: string, opts: RequestOptions): Promise<Response> {
   }
 }
 
+const answerListeners = new Set<() => void>();
+
+/**
+ * Calls `listener` whenever the server answers a request, whatever the answer: the signal is
+ * there. Returns the unsubscribe.
+ */
+export function onServerAnswer(listener: () => void): () => void {
+  answerListeners.add(listener);
+  return () => answerListeners.delete(listener);
+}
+
 async function request(path: string, opts: RequestOptions): Promise<Response> {
   const method = opts.method ?? (opts.body ? 'POST' : 'GET');
   const headers: Record<string, string> = { Accept: 'application/json' };
@@ -242,6 +253,7 @@ async function request(path: string, opts: RequestOptions): Promise<Response> {
     if ((cause as Error).name === 'AbortError') throw cause;
     throw new ApiError(0, 'network', 'Beadroll could not be reached. Check the connection and try again.');
   }
+  for (const l of answerListeners) l();
   if (!res.ok) throw await toApiError(res);
   return res;
 }

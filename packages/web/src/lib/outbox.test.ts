@@ -1,6 +1,6 @@
 import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { IDEMPOTENCY_HEADER } from './api';
+import { IDEMPOTENCY_HEADER, api } from './api';
 import {
   SAFE_RESEND_MS,
   TOO_OLD_TO_RESEND,
@@ -10,6 +10,7 @@ import {
   readOutbox,
   sendOrQueue,
   setOutboxAccount,
+  startOutbox,
 } from './outbox';
 
 const json = (body: unknown, status = 200) =>
@@ -189,6 +190,32 @@ describe('writes kept with no signal', () => {
     await flushOutbox();
     expect(fetchMock).toHaveBeenCalledTimes(1);
     expect(await readOutbox()).toEqual([]);
+    expect(outboxSnapshot()).toEqual({ mine: [], others: 0 });
+  });
+});
+
+// Last in the file: once started, the list listens to every answer for the rest of it.
+describe('when the signal returns', () => {
+  it('sends a waiting write as soon as the server answers any other request, with no online event', async () => {
+    online = false;
+    serve(() => {
+      throw new TypeError('offline');
+    });
+    await sendOrQueue(sale('JJJJJJJJJ'));
+    startOutbox();
+    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    expect(outboxSnapshot().mine).toHaveLength(1);
+
+    // The signal is back but the browser never says so; the page asks the server for something.
+    online = true;
+    const sent: string[] = [];
+    serve((init) => {
+      if (init.method === 'POST') sent.push(keyOf(init)!);
+      return json({ ok: true }, init.method === 'POST' ? 201 : 200);
+    });
+    await api('/api/auth/session');
+    await vi.waitFor(async () => expect(await readOutbox()).toEqual([]));
+    expect(sent).toHaveLength(1);
     expect(outboxSnapshot()).toEqual({ mine: [], others: 0 });
   });
 });

@@ -1,5 +1,13 @@
 import { createStore, get, update, type UseStore } from 'idb-keyval';
-import { ApiError, api, isRetryable, newIdempotencyKey, sendOnce, type RequestOptions } from './api';
+import {
+  ApiError,
+  api,
+  isRetryable,
+  newIdempotencyKey,
+  onServerAnswer,
+  sendOnce,
+  type RequestOptions,
+} from './api';
 import { forgetPending } from './pending-writes';
 
 /**
@@ -213,19 +221,30 @@ export async function sendOrQueue<T>(
   }
 }
 
-const RETRY_EVERY_MS = 20_000;
+const RETRY_EVERY_MS = 5_000;
+/** However many answers come, a pass is started by them at most this often. */
+const NUDGE_EVERY_MS = 2_000;
 
 /**
- * Sends what is waiting now, whenever the browser says the signal is back, and every 20 s
- * while anything waits (a phone may say it is online before the fair's network lets it out).
+ * Sends what is waiting now, whenever the browser says the signal is back, whenever the server
+ * answers any other request, and every 5 s while anything waits. A phone may say it is online
+ * before the fair's network lets it out, or never say that the signal came back at all. Passes
+ * never overlap, and a pass with no signal stops at its first request.
  */
 export function startOutbox(): void {
   if (started || typeof indexedDB === 'undefined') return;
   started = true;
   const flush = () => void flushOutbox().catch(() => undefined);
+  const waiting = () => view.mine.some((w) => !w.refused);
   window.addEventListener('online', flush);
   setInterval(() => {
-    if (navigator.onLine !== false && view.mine.some((w) => !w.refused)) flush();
+    if (navigator.onLine !== false && waiting()) flush();
   }, RETRY_EVERY_MS);
+  let nudged = 0;
+  onServerAnswer(() => {
+    if (flushing || !waiting() || Date.now() - nudged < NUDGE_EVERY_MS) return;
+    nudged = Date.now();
+    flush();
+  });
   void readOutbox().then(flush);
 }
