@@ -3,11 +3,11 @@ import type pg from 'pg';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { screenshot } from './support/browser';
-import { apiClient, demoAccount, signIn, superuser, useBrowser } from './support/journey';
+import { apiClient, demoAccount, demoHandle, signIn, superuser, useBrowser } from './support/journey';
 
 // Offline at a fair: the public page opened once opens again with no signal, checked again in
-// the browser and marked as the saved copy; the dealer's quick sale made with no signal waits
-// on the phone and is sent once when the signal returns.
+// the browser and marked as the saved copy; the dealer's quick sale, or offer to an e-mail
+// address, made with no signal waits on the phone and is sent once when the signal returns.
 
 const dealer = demoAccount('dealer');
 
@@ -229,6 +229,41 @@ describe('offline at a fair', () => {
       );
       expect(rows[0].n).toBe(1);
       await screenshot(page, 'offline-quick-sale-sent-390');
+    });
+
+    it('keeps an offer to an e-mail address waiting and sends it when the signal returns: the lot shows offered', async () => {
+      const { page, context } = browser;
+      const other = demoHandle('teodor-brasko');
+      const offered = await registerLot(baseUrl, 'Amber rounds offered at the stand');
+      await page.goto(`${baseUrl}/scan`);
+      await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
+      await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
+
+      await context.setOffline(true);
+      await page.getByLabel('Lot code from the tag').fill(formatLotCode(offered));
+      await page.getByRole('button', { name: 'Open' }).click();
+      await page.waitForURL(`${baseUrl}/scan/lots/${offered}`);
+      await page.getByRole('button', { name: 'Offer to a dealer' }).click();
+      await page.getByText('No signal: finding a dealer by name needs one.', { exact: false }).waitFor();
+      expect(await page.getByRole('radio', { name: 'An e-mail address' }).isChecked()).toBe(true);
+      await page.getByLabel('Their e-mail address').fill(other.email);
+      await page.getByRole('button', { name: 'Send the offer' }).click();
+      const waiting = page.getByText(
+        `Waiting to send: 1 — offer of ${formatLotCode(offered)} to ${other.email}`,
+      );
+      await waiting.waitFor();
+      await page.getByText('Offer recorded on this device: waiting to send.').waitFor();
+      await screenshot(page, 'offline-offer-waiting-390');
+
+      await context.setOffline(false);
+      await waiting.waitFor({ state: 'detached', timeout: 30_000 });
+      await page.getByText(/Status: offered/).waitFor({ timeout: 30_000 });
+      const { rows } = await db.query(
+        `SELECT count(*)::int AS n FROM "entries" e JOIN "lots" l ON l."id" = e."lot_id"
+          WHERE l."code" = $1 AND e."kind" = 'transfer-offered'`,
+        [offered],
+      );
+      expect(rows[0].n).toBe(1);
     });
   });
 });

@@ -1,3 +1,4 @@
+import 'fake-indexeddb/auto';
 import {
   buildEntry,
   generateLotCode,
@@ -8,8 +9,10 @@ import {
   type RollHead,
 } from '@beadroll/core';
 import { screen } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { accounts, json, renderAt, stubServer } from '../../common/testing/render';
+import { dismissQueuedWrite, readOutbox } from '../../lib/outbox';
 import type { RawRoll } from '../lots/lots.api';
 
 const dealer = accounts.dealer;
@@ -100,5 +103,42 @@ describe('the scanned lot page', () => {
     expect(await screen.findByRole('button', { name: 'Sell' })).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Offer to a dealer' })).toBeInTheDocument();
     expect(screen.getByText(/Status: held/)).toBeInTheDocument();
+  });
+
+  describe('with no signal', () => {
+    afterEach(async () => {
+      vi.restoreAllMocks();
+      for (const w of await readOutbox()) await dismissQueuedWrite(w.key);
+    });
+
+    it('keeps an offer to an e-mail address on this device and shows it waiting', async () => {
+      const roll = rollOf('scanned no signal', []);
+      vi.spyOn(navigator, 'onLine', 'get').mockReturnValue(false);
+      const calls = stubServer(dealer, (url) => {
+        if (url.startsWith('/api/tags/') || url.startsWith('/api/lots/')) throw new TypeError('no signal');
+        return undefined;
+      });
+      const user = userEvent.setup();
+      renderAt(`/scan/lots/${roll.lot}`);
+      await screen.findByText(/No signal: the lot’s details cannot be looked up now/);
+      await user.click(screen.getByRole('button', { name: 'Offer to a dealer' }));
+      expect(await screen.findByText(/No signal: finding a dealer by name needs one/)).toBeInTheDocument();
+      // The dealer search needs a signal: the dialog starts on the e-mail address.
+      expect(screen.getByRole('radio', { name: 'An e-mail address' })).toBeChecked();
+      await user.type(screen.getByLabelText('Their e-mail address'), 'wren@example.invalid');
+      await user.click(screen.getByRole('button', { name: 'Send the offer' }));
+      expect(await screen.findByText('Offer recorded on this device: waiting to send.')).toBeInTheDocument();
+      expect(screen.queryByRole('button', { name: 'Sell' })).not.toBeInTheDocument();
+      expect(screen.queryByRole('button', { name: 'Offer to a dealer' })).not.toBeInTheDocument();
+      expect(calls.filter((c) => c.method === 'POST')).toEqual([]);
+      const kept = await readOutbox();
+      expect(kept).toHaveLength(1);
+      expect(kept[0]).toMatchObject({
+        path: '/api/transfers/offers',
+        method: 'POST',
+        body: { lot: roll.lot, email: 'wren@example.invalid' },
+        account: dealer.id,
+      });
+    });
   });
 });

@@ -71,12 +71,29 @@ export function ScannedLotPage() {
   const [sold, setSold] = useState<Sale | null>(null);
   const [offered, setOffered] = useState(false);
   const [madeHere, setQueued] = useState<QueuedWrite | null>(null);
-  // A sale of this lot already waiting on this phone (made before a reload, too).
+  // A sale or offer of this lot already waiting on this phone (made before a reload, too).
   const { mine } = useOutbox();
   const queued =
     madeHere ??
-    mine.find((w) => !w.refused && w.path === transfersApi.salesPath && w.body?.lot === code) ??
+    mine.find(
+      (w) =>
+        !w.refused &&
+        (w.path === transfersApi.salesPath || w.path === transfersApi.offersPath) &&
+        w.body?.lot === code,
+    ) ??
     null;
+  const waitingMessage = queued ? (
+    <MessageBar intent="info">
+      <MessageBarBody>
+        {queued.path === transfersApi.offersPath ? 'Offer' : 'Sale'} recorded on this device: waiting to send.
+      </MessageBarBody>
+    </MessageBar>
+  ) : null;
+  const offerButton = (
+    <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
+      Offer to a dealer
+    </Button>
+  );
 
   // No signal and the lot not opened before on this page: the code from the tag is all there is.
   // A sale can still be recorded; it waits on this device and the server checks it when sent.
@@ -88,22 +105,25 @@ export function ScannedLotPage() {
       <ScanScreen title={`Lot ${formatLotCode(code)}`} titleId="lot-title">
         <MessageBar intent="warning" layout="multiline">
           <MessageBarBody>
-            No signal: the lot’s details cannot be looked up now. You can still record a sale; it waits on
-            this device and is sent when the signal returns, and the server then checks that you hold the lot.
+            No signal: the lot’s details cannot be looked up now. You can still record a sale or an offer; it
+            waits on this device and is sent when the signal returns, and the server then checks that you hold
+            the lot.
           </MessageBarBody>
         </MessageBar>
         {queued ? (
-          <MessageBar intent="info">
-            <MessageBarBody>Sale recorded on this device: waiting to send.</MessageBarBody>
-          </MessageBar>
+          waitingMessage
         ) : (
           <div className={styles.quick} role="group" aria-label="Quick actions">
             {sellButton}
+            {offerButton}
           </div>
         )}
         <Button onClick={() => navigate('/scan')}>Scan the next tag</Button>
         {action === 'sell' ? (
           <RecordSaleDialog code={code} onClose={() => setAction(null)} onQueued={setQueued} />
+        ) : null}
+        {action === 'offer' ? (
+          <OfferDialog code={code} onClose={() => setAction(null)} onQueued={setQueued} />
         ) : null}
       </ScanScreen>
     );
@@ -121,7 +141,7 @@ export function ScannedLotPage() {
   // With no signal for the roll, a sale may still wait on this device; the server checks it when sent.
   const rollOffline = roll.error instanceof ApiError && roll.error.status === 0;
   const canSell = ctx !== null ? may(ctx, 'sold') : rollOffline;
-  const canOffer = ctx !== null && may(ctx, 'transfer-offered');
+  const canOffer = ctx !== null ? may(ctx, 'transfer-offered') : rollOffline;
   const status = ctx?.state.status ?? l.status;
   return (
     <ScanScreen title={l.title} titleId="lot-title">
@@ -164,23 +184,15 @@ export function ScannedLotPage() {
           </MessageBarBody>
         </MessageBar>
       ) : null}
-      {queued ? (
-        <MessageBar intent="info">
-          <MessageBarBody>Sale recorded on this device: waiting to send.</MessageBarBody>
-        </MessageBar>
-      ) : null}
+      {waitingMessage}
       {offered ? (
         <MessageBar intent="success">
           <MessageBarBody>Offered. The lot changes hands when the other dealer accepts.</MessageBarBody>
         </MessageBar>
       ) : null}
       <div className={styles.quick} role="group" aria-label="Quick actions">
-        {!sold && !queued && canSell ? sellButton : null}
-        {!sold && !queued && canOffer ? (
-          <Button size="large" className={styles.big} onClick={() => setAction('offer')}>
-            Offer to a dealer
-          </Button>
-        ) : null}
+        {!sold && !offered && !queued && canSell ? sellButton : null}
+        {!sold && !offered && !queued && canOffer ? offerButton : null}
         {roll.isPending ? <Spinner size="small" label="Checking the roll…" /> : null}
         <PrintTagsDialog
           lots={[{ code: l.code, listed: Boolean(l.listed) }]}
@@ -223,6 +235,7 @@ export function ScannedLotPage() {
             void client.invalidateQueries({ queryKey: ['tags', 'lot', code] });
             void client.invalidateQueries({ queryKey: ['lots'] });
           }}
+          onQueued={setQueued}
         />
       ) : null}
     </ScanScreen>

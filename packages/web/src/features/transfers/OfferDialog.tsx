@@ -1,6 +1,16 @@
-import { makeStyles, Radio, RadioGroup, Text, tokens } from '@fluentui/react-components';
+import {
+  makeStyles,
+  MessageBar,
+  MessageBarBody,
+  Radio,
+  RadioGroup,
+  Text,
+  tokens,
+} from '@fluentui/react-components';
+import { formatLotCode } from '@beadroll/core';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { sendOrQueue, type QueuedWrite } from '../../lib/outbox';
 import { ActionDialog } from '../../common/ui/ActionDialog';
 import { fieldError, NoteField, TextField } from '../../common/ui/FormPage';
 import { useFormValues } from '../../common/ui/form-values';
@@ -15,24 +25,30 @@ const useStyles = makeStyles({
 
 /**
  * Offers a lot to another dealer (found by name, handle or business) or to an e-mail address.
- * The price is sealed: only the two dealers ever see it.
+ * The price is sealed: only the two dealers ever see it. Given `onQueued` (the scanner at a fair
+ * stand), an offer made with no signal waits on this device and is sent when the signal returns;
+ * finding a dealer by name needs a signal, so it then starts on the e-mail address.
  */
 export function OfferDialog({
   code,
   title,
   onClose,
   onDone,
+  onQueued,
 }: {
   /** The lot; when absent the dialog asks for one of the dealer's held lots. */
   code?: string;
   title?: string;
   onClose: () => void;
   onDone?: (made: { offer?: Offer; invitation?: Invitation }) => void;
+  /** With no signal the offer is kept on this device and sent later; told here when so. */
+  onQueued?: (write: QueuedWrite) => void;
 }) {
   const styles = useStyles();
   const client = useQueryClient();
   const [lot, setLot] = useState(code ?? '');
-  const [mode, setMode] = useState<'dealer' | 'email'>('dealer');
+  const noSignal = onQueued !== undefined && navigator.onLine === false;
+  const [mode, setMode] = useState<'dealer' | 'email'>(noSignal ? 'email' : 'dealer');
   const [q, setQ] = useState('');
   const [recipient, setRecipient] = useState('');
   const form = useFormValues({ email: '', note: '' });
@@ -40,17 +56,37 @@ export function OfferDialog({
   const price = usePriceField('EUR');
   const search = useQuery(dealerSearchQuery(q));
   const send = useMutation({
-    mutationFn: () => {
-      return transfersApi.offer({
+    mutationFn: async (): Promise<{
+      made?: { offer?: Offer; invitation?: Invitation };
+      queued?: QueuedWrite;
+    }> => {
+      const draft = {
         lot,
-        ...(mode === 'dealer' ? { recipient } : { email }),
+        ...(mode === 'dealer' ? { recipient } : { email: email.trim() }),
         ...(note.trim() ? { note: note.trim() } : {}),
         ...(price.entered ? { price: price.value() } : {}),
+      };
+      if (!onQueued) return { made: await transfersApi.offer(draft) };
+      const to =
+        mode === 'dealer'
+          ? (search.data?.items.find((p) => p.id === recipient)?.displayName ?? 'a dealer')
+          : email.trim();
+      const result = await sendOrQueue<{ offer?: Offer; invitation?: Invitation }>({
+        path: transfersApi.offersPath,
+        method: 'POST',
+        body: draft,
+        label: `offer of ${formatLotCode(lot)} to ${to}`,
       });
+      return result.sent ? { made: result.answer } : { queued: result.queued };
     },
-    onSuccess: async (made) => {
-      await refreshAfterTransfer(client);
-      onDone?.(made);
+    // Runs with no signal too when it may wait on this device.
+    networkMode: onQueued ? 'always' : 'online',
+    onSuccess: async ({ made, queued }) => {
+      if (queued) onQueued?.(queued);
+      else {
+        await refreshAfterTransfer(client);
+        onDone?.(made ?? {});
+      }
       onClose();
     },
   });
@@ -67,6 +103,14 @@ export function OfferDialog({
       narrow
     >
       {code ? null : <HeldLotField lot={lot} onLot={setLot} error={send.error} />}
+      {noSignal ? (
+        <MessageBar intent="warning" layout="multiline">
+          <MessageBarBody>
+            No signal: finding a dealer by name needs one. An offer to an e-mail address waits on this device
+            and is sent when the signal returns; the server then checks that you hold the lot.
+          </MessageBarBody>
+        </MessageBar>
+      ) : null}
       <RadioGroup
         value={mode}
         onChange={(_, d) => setMode(d.value as 'dealer' | 'email')}

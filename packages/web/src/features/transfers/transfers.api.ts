@@ -107,6 +107,7 @@ export const transfersApi = {
   answer: (id: string, action: 'accept' | 'decline' | 'withdraw', note?: string) =>
     answer(client.POST(`/api/transfers/offers/{id}/${action}`, { ...byId(id), body: note ? { note } : {} })),
   salesPath: '/api/transfers/sales',
+  offersPath: '/api/transfers/offers',
   recordSale: (draft: SaleDraft) => answer(client.POST('/api/transfers/sales', { body: draft })),
   offerInvitation: (id: string) => answer(client.POST('/api/transfers/invitations/{id}/offer', byId(id))),
   cancelInvitation: (id: string) => answer(client.POST('/api/transfers/invitations/{id}/cancel', byId(id))),
