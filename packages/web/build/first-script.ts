@@ -33,7 +33,9 @@ const inHtml = (code: string) => code.replace(/<\/(script)/gi, '<\\/$1').replace
  * apart) is answered by a module that reads them from `window.beadrollPage.shared`, which the
  * first script leaves there (`src/features/public-lot/page-shared.ts` lists what it shares).
  * The same script is also written as a file under `assetsDir`: `public-main.tsx` runs it when the
- * page's inline copy did not run.
+ * page's inline copy did not run. The inline copy carries `data-first-check` and fires
+ * `FIRST_SCRIPT_RAN` (src/first-script-event.ts), for which `public-main.tsx` waits while the
+ * copy is in the page: an async module may run after the page's deferred module script.
  */
 export function firstScript(assetsDir: string): Plugin {
   let code = '';
@@ -86,7 +88,12 @@ export function firstScript(assetsDir: string): Plugin {
     transformIndexHtml: {
       order: 'post',
       handler: () => [
-        { tag: 'script', attrs: { type: 'module', async: true }, children: inHtml(code), injectTo: 'body' },
+        {
+          tag: 'script',
+          attrs: { type: 'module', async: true, 'data-first-check': true },
+          children: inHtml(code),
+          injectTo: 'body',
+        },
       ],
     },
     generateBundle() {

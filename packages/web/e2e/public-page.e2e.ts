@@ -136,6 +136,25 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
     expect(errors).toEqual([]);
   });
 
+  it('runs the page’s own copy of its first script on later visits too, never its file as well', async () => {
+    const { page } = browser;
+    const files: string[] = [];
+    const record = (r: { url(): string }) => r.url().includes('/first-check-') && files.push(r.url());
+    page.on('request', record);
+    try {
+      // Warm visits: the page's module script comes from the cache and may be ready before the
+      // copy written into the page has run; it waits for that copy rather than fetching its file.
+      for (let i = 0; i < 10; i++) {
+        await page.goto(`${baseUrl}/l/${code}`);
+        await status().getByText(`Unbroken history as served: ${entries().length} entries`).waitFor();
+        await page.getByText(`Lot ${formatLotCode(code)}`, { exact: true }).waitFor();
+      }
+    } finally {
+      page.off('request', record);
+    }
+    expect(files).toEqual([]);
+  });
+
   it('warns when the tag’s entry is not in the history', async () => {
     const { page } = browser;
     // The worked example's reference (ledger format §12) belongs to an entry of no demo lot.
@@ -230,8 +249,12 @@ describe('the public lot page at a fair, on a phone (390 px)', () => {
       // The page as a copy served elsewhere would give it: without the script written into it.
       await page.route(`${baseUrl}/l/${code}`, async (route) => {
         const res = await route.fetch();
-        const html = (await res.text()).replace(/<script type="module" async>[\s\S]*?<\/script>/, '');
+        const html = (await res.text()).replace(
+          /<script type="module" async data-first-check>[\s\S]*?<\/script>/,
+          '',
+        );
         expect(html).toContain('id="lot-data"');
+        expect(html).not.toContain('data-first-check');
         const headers = Object.fromEntries(
           Object.entries(res.headers()).filter(([k]) => !/^content-(encoding|length)$/i.test(k)),
         );

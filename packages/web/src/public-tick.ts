@@ -4,8 +4,10 @@
 // used on `window.beadrollPage` for the rest of the page (src/public-main.tsx).
 import { firstCheck } from './features/public-lot/first-check';
 import * as shared from './features/public-lot/page-shared';
+import { FIRST_SCRIPT_RAN } from './first-script-event';
 
 // Re-exported only so the build can name what the rest of the page may take from `shared`.
 export * from './features/public-lot/page-shared';
 
 window.beadrollPage = { shared, data: firstCheck(window.location.pathname) };
+window.dispatchEvent(new Event(FIRST_SCRIPT_RAN));
