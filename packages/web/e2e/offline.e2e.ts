@@ -235,6 +235,7 @@ describe('offline at a fair', () => {
       const { page, context } = browser;
       const other = demoHandle('teodor-brasko');
       const offered = await registerLot(baseUrl, 'Amber rounds offered at the stand');
+      await signIn(page, baseUrl, dealer.email, { fresh: true });
       await page.goto(`${baseUrl}/scan`);
       await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
       await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
