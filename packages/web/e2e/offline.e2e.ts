@@ -155,21 +155,27 @@ describe('offline at a fair', () => {
       code = await registerLot(baseUrl, 'Striped amber beads for the stand');
     });
 
-    it('keeps the sale waiting, sends it once when the signal returns, and the lot shows sold', async () => {
+    /** Signs in with a signal, then with none types the lot's code into the scanner and opens it. */
+    async function scanWithNoSignal(lot: string): Promise<void> {
       const { page, context } = browser;
-      await signIn(page, baseUrl, dealer.email);
+      await signIn(page, baseUrl, dealer.email, { fresh: true });
       await page.goto(`${baseUrl}/scan`);
       await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
       // The dealer app's worker has precached the app.
       await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
 
       await context.setOffline(true);
-      await page.getByLabel('Lot code from the tag').fill(formatLotCode(code));
+      await page.getByLabel('Lot code from the tag').fill(formatLotCode(lot));
       await page.getByRole('button', { name: 'Open' }).click();
-      await page.waitForURL(`${baseUrl}/scan/lots/${code}`);
+      await page.waitForURL(`${baseUrl}/scan/lots/${lot}`);
       await page
         .getByText('No signal: the lot’s details cannot be looked up now.', { exact: false })
         .waitFor();
+    }
+
+    it('keeps the sale waiting, sends it once when the signal returns, and the lot shows sold', async () => {
+      const { page, context } = browser;
+      await scanWithNoSignal(code);
       await page.getByRole('button', { name: 'Sell' }).click();
       await page.getByLabel('Price: amount').fill('45.00');
       await page.getByRole('button', { name: 'Record the sale' }).click();
@@ -235,15 +241,7 @@ describe('offline at a fair', () => {
       const { page, context } = browser;
       const other = demoHandle('teodor-brasko');
       const offered = await registerLot(baseUrl, 'Amber rounds offered at the stand');
-      await signIn(page, baseUrl, dealer.email, { fresh: true });
-      await page.goto(`${baseUrl}/scan`);
-      await page.getByRole('heading', { name: 'Scan a tag' }).waitFor();
-      await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
-
-      await context.setOffline(true);
-      await page.getByLabel('Lot code from the tag').fill(formatLotCode(offered));
-      await page.getByRole('button', { name: 'Open' }).click();
-      await page.waitForURL(`${baseUrl}/scan/lots/${offered}`);
+      await scanWithNoSignal(offered);
       await page.getByRole('button', { name: 'Offer to a dealer' }).click();
       await page.getByText('No signal: finding a dealer by name needs one.', { exact: false }).waitFor();
       expect(await page.getByRole('radio', { name: 'An e-mail address' }).isChecked()).toBe(true);
