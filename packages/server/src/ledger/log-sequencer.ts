@@ -66,8 +66,10 @@ export class LogSequencer implements OnModuleInit, OnModuleDestroy {
     this.timer.unref();
   }
 
-  onModuleDestroy(): void {
+  /** Stops the sweep and lets a pass under way finish before the database connections close. */
+  async onModuleDestroy(): Promise<void> {
     if (this.timer) clearInterval(this.timer);
+    while (this.running) await this.running;
   }
 
   /** Asks for a pass soon; calls during a pass coalesce into one more pass after it. */

@@ -123,8 +123,10 @@ export class CheckpointsService implements OnModuleInit, OnApplicationBootstrap,
     return Math.max(1, Math.floor(checkpointSeconds / 10)) * 1000;
   }
 
-  onModuleDestroy(): void {
+  /** Stops the timed passes and lets one under way finish before the database connections close. */
+  async onModuleDestroy(): Promise<void> {
     if (this.scheduler.doesExist('interval', JOB)) this.scheduler.deleteInterval(JOB);
+    await this.running?.catch(() => undefined);
   }
 
   /** The log's origin line, which is also its key name. */

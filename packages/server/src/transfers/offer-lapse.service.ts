@@ -55,8 +55,10 @@ export class OfferLapseService implements OnModuleInit, OnModuleDestroy {
     this.scheduler.addInterval(JOB, timer);
   }
 
-  onModuleDestroy(): void {
+  /** Stops the timed passes and lets one under way finish before the database connections close. */
+  async onModuleDestroy(): Promise<void> {
     if (this.scheduler.doesExist('interval', JOB)) this.scheduler.deleteInterval(JOB);
+    await this.running?.catch(() => undefined);
   }
 
   /** One pass: lapses every offer open longer than the lapse period, unless another server is at it. */
